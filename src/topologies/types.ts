@@ -1,0 +1,136 @@
+/**
+ * The one shape every active-filter topology has: what it realises, how to
+ * design it for a target section, its netlist, its as-built response and its
+ * limits. Adding a topology is adding one file that exports a
+ * {@link Topology} and one line in the registry.
+ *
+ * Frequencies here are in hertz (`f0Hz`, `fzHz`), as the design layer above
+ * expects.
+ *
+ * @module
+ */
+import type { Element, OpAmpModel } from "../circuit/types.ts";
+
+/** Section kinds a stage can realise (first- or second-order). */
+export type StageKind =
+  | "lowpass"
+  | "highpass"
+  | "bandpass"
+  | "lowpass-notch"
+  | "highpass-notch"
+  | "notch"
+  | "allpass";
+
+/**
+ * What one stage must do.
+ *
+ * `gain` is the stage's gain (V/V, negative for an inverting stage) at its
+ * reference frequency: DC for lowpass and lowpass-notch, high frequency for
+ * highpass and highpass-notch, f0 for bandpass, DC (= HF) for notch and allpass.
+ */
+export interface StageTarget {
+  /** Section order. */
+  readonly order: 1 | 2;
+  /** What the section does. */
+  readonly kind: StageKind;
+  /** Pole frequency in Hz. */
+  readonly f0Hz: number;
+  /** Pole Q (second order only; ignored for first order). */
+  readonly q?: number;
+  /** Zero frequency in Hz, for notch kinds. */
+  readonly fzHz?: number;
+  /** Gain at the reference frequency (V/V, sign included). */
+  readonly gain: number;
+}
+
+/**
+ * The designer's free choices for one stage. Which fields a topology reads is
+ * documented on the topology; unknown fields are ignored.
+ */
+export interface StageChoices {
+  /** Chosen capacitor value in farads (the usual way to fix the impedance level). */
+  readonly capacitor?: number;
+  /** Chosen resistor value in ohms (alternative way to fix the impedance level). */
+  readonly resistor?: number;
+  /** Capacitor ratio where the topology has one (meaning documented per topology). */
+  readonly capacitorRatio?: number;
+  /** Resistor ratio where the topology has one (meaning documented per topology). */
+  readonly resistorRatio?: number;
+}
+
+/** Component values of one stage, keyed by the topology's local designators (`R1`, `C2`, `Rf`, ...), SI units. */
+export type ComponentValues = Readonly<Record<string, number>>;
+
+/** The figures that describe a built stage. */
+export interface StageFigures {
+  /** Pole frequency in Hz. */
+  readonly f0Hz: number;
+  /** Pole Q (for a first-order stage, 0.5 is never used: the field is absent). */
+  readonly q?: number;
+  /** Zero frequency in Hz, for notch kinds. */
+  readonly fzHz?: number;
+  /** Gain at the reference frequency (V/V, sign included). */
+  readonly gain: number;
+}
+
+/** Node and name mapping used when a stage is placed into a larger circuit. */
+export interface StagePlacement {
+  /** Node driving the stage. */
+  readonly input: string;
+  /** Node the stage's output drives. */
+  readonly output: string;
+  /** Prefix for internal node names, unique per stage (e.g. `"s1_"`). */
+  readonly nodePrefix: string;
+  /** Maps a local designator (`R1`) to the designator used in the circuit (`R3`). */
+  readonly rename?: (local: string) => string;
+  /** Op-amp model for every op-amp in the stage. */
+  readonly opamp: OpAmpModel;
+}
+
+/** One circuit family, as data plus functions. */
+export interface Topology {
+  /** Stable identifier, kebab-case, e.g. `"sallen-key-lowpass-unity"`. */
+  readonly id: string;
+  /** Human-readable name. */
+  readonly name: string;
+  /** Stage order it builds. */
+  readonly order: 1 | 2;
+  /** Kinds it can realise. */
+  readonly kinds: readonly StageKind[];
+  /** Whether the passband gain is negative (inverting). */
+  readonly inverting: boolean;
+  /** Number of op-amps used. */
+  readonly opampCount: number;
+  /** Local designators of its components, in BOM order. */
+  readonly componentNames: readonly string[];
+  /** Source of the design equations (author, title, year, page or equation). */
+  readonly reference: string;
+  /**
+   * Why a target cannot be realised with these choices, or `null` when it can.
+   * The message says what to change.
+   */
+  readonly check: (target: StageTarget, choices: StageChoices) => string | null;
+  /**
+   * Component values that realise the target exactly (ideal op-amp).
+   * Throws `UnrealisableError` when `check` would return a reason.
+   */
+  readonly design: (target: StageTarget, choices: StageChoices) => ComponentValues;
+  /** Ideal-op-amp figures (f0, Q, fz, gain) from whatever values are on the board. */
+  readonly figures: (values: ComponentValues) => StageFigures;
+  /**
+   * As-built complex response `H(j 2 pi f)` at each frequency, with the given
+   * op-amp model (closed form where tractable, else nodal analysis).
+   */
+  readonly response: (
+    values: ComponentValues,
+    freqHz: Float64Array,
+    opamp: OpAmpModel,
+  ) => { readonly re: Float64Array; readonly im: Float64Array };
+  /** The stage's elements placed between two nodes of a larger circuit. */
+  readonly elements: (values: ComponentValues, placement: StagePlacement) => readonly Element[];
+  /**
+   * Gain-bandwidth product (Hz) an op-amp needs so that f0 and Q move by no
+   * more than about 1 % (derived from the stage's finite-GBW response).
+   */
+  readonly gbwDemandHz: (target: StageTarget) => number;
+}
