@@ -1,0 +1,36 @@
+/**
+ * The circuit layer: element types, validation, modified nodal analysis and
+ * SPICE netlist text.
+ *
+ * @module
+ */
+export type {
+  Capacitor,
+  Circuit,
+  Element,
+  Inductor,
+  OpAmp,
+  OpAmpModel,
+  Resistor,
+  Vcvs,
+  VoltageSource,
+} from "./types.ts";
+export { validateCircuit } from "./validate.ts";
+export {
+  acAnalysis,
+  assembleMna,
+  mnaDeterminant,
+  transfer,
+  type AcAnalysisOptions,
+  type AcAnalysisResult,
+  type ComplexResponse,
+  type MnaSystem,
+  type TransferOptions,
+} from "./mna.ts";
+export {
+  circuitToSpice,
+  spiceNumber,
+  SPICE_IDEAL_OPAMP_GAIN,
+  type CircuitToSpiceOptions,
+  type SpiceAcSweep,
+} from "./spice.ts";

@@ -1,0 +1,538 @@
+/**
+ * Modified nodal analysis (MNA) of a linear circuit in the complex frequency
+ * domain.
+ *
+ * Method: the circuit equations are written as `(G + s C) x = b`, where `x`
+ * holds the node voltages (ground excluded) and one branch current per
+ * voltage source, VCVS, inductor and op-amp (C.-W. Ho, A. E. Ruehli,
+ * P. A. Brennan, "The modified nodal approach to network analysis",
+ * IEEE Trans. Circuits Syst. 22(6):504-509, 1975). An ideal op-amp is a nullor:
+ * its output current is an unknown and its row imposes `v(+) = v(-)`. The
+ * single-pole op-amp `A(s) = a0 / (1 + s/wp)` is written as the row
+ * `(1/a0 + s/(2 pi GBW)) (v(out) - rout i) - (v(+) - v(-)) = 0`, which is
+ * linear in `s` and well scaled. At each frequency the complex system is
+ * solved by LU with partial pivoting (Golub & Van Loan, Matrix Computations,
+ * 2013, Alg. 3.4.1); accuracy is that of a backward-stable dense solve.
+ *
+ * Singular circuits are found first structurally (nodes with no path to
+ * ground, loops of voltage-defined branches, and at 0 Hz nodes with no DC
+ * path) and otherwise from a vanished pivot, mapped back to the node or
+ * branch it stands for.
+ *
+ * @module
+ */
+import { InvalidArgumentError, SingularCircuitError } from "../errors.ts";
+import type { Complex } from "../math/complex.ts";
+import { luFactorInPlace, luSolveInPlace } from "../math/linear.ts";
+import type { Circuit } from "./types.ts";
+import { checkCircuit } from "./validate.ts";
+
+/** A complex response sampled on a frequency grid. */
+export interface ComplexResponse {
+  /** Real parts, one per frequency. */
+  readonly re: Float64Array;
+  /** Imaginary parts, one per frequency. */
+  readonly im: Float64Array;
+}
+
+/** The assembled MNA equations `(G + s C) x = b` of a circuit. */
+export interface MnaSystem {
+  /** Number of unknowns. */
+  readonly n: number;
+  /** Conductance-like part, row-major `n * n`. */
+  readonly g: Float64Array;
+  /** Part multiplied by `s`, row-major `n * n`. */
+  readonly c: Float64Array;
+  /** Names of the unknowns: `"v(node)"` for node voltages, `"i(name)"` for branch currents. */
+  readonly unknowns: readonly string[];
+  /** Index of each non-ground node's voltage among the unknowns. */
+  readonly nodeIndex: ReadonlyMap<string, number>;
+  /** Index of each voltage source's branch-current row (where its AC value enters `b`). */
+  readonly sourceRow: ReadonlyMap<string, number>;
+  /** Non-ground node names, in order of first appearance. */
+  readonly nodes: readonly string[];
+}
+
+/** Options of {@link acAnalysis}. */
+export interface AcAnalysisOptions {
+  /** Name of the voltage source (`V` element) that drives the circuit; its `ac` value is the reference. */
+  readonly source: string;
+  /** Node names whose transfer from the source is wanted. */
+  readonly outputs: readonly string[];
+  /** Frequencies in Hz (>= 0). */
+  readonly freqHz: Float64Array;
+}
+
+/** Result of {@link acAnalysis}. */
+export interface AcAnalysisResult {
+  /** The frequencies analysed (Hz), as given. */
+  readonly freqHz: Float64Array;
+  /** For each requested node, `v(node) / ac(source)` at each frequency. */
+  readonly outputs: Readonly<Record<string, ComplexResponse>>;
+}
+
+/** Options of {@link transfer}. */
+export interface TransferOptions {
+  /** Name of the driving voltage source. */
+  readonly source: string;
+  /** Output node name. */
+  readonly output: string;
+  /** Frequencies in Hz (>= 0). */
+  readonly freqHz: Float64Array;
+}
+
+class UnionFind {
+  private readonly parent = new Map<string, string>();
+  find(x: string): string {
+    let r = x;
+    for (;;) {
+      const p = this.parent.get(r);
+      if (p === undefined || p === r) break;
+      r = p;
+    }
+    this.parent.set(x, r);
+    return r;
+  }
+  /** Join; false when already joined (a loop). */
+  union(a: string, b: string): boolean {
+    const ra = this.find(a);
+    const rb = this.find(b);
+    if (ra === rb) return false;
+    this.parent.set(ra, rb);
+    return true;
+  }
+}
+
+function nodesOf(circuit: Circuit): string[] {
+  const seen = new Set<string>();
+  const out: string[] = [];
+  const add = (n: string): void => {
+    if (n !== "0" && !seen.has(n)) {
+      seen.add(n);
+      out.push(n);
+    }
+  };
+  for (const e of circuit.elements) {
+    if (e.kind === "OA") {
+      add(e.inP);
+      add(e.inN);
+      add(e.out);
+    } else if (e.kind === "E") {
+      add(e.a);
+      add(e.b);
+      add(e.cp);
+      add(e.cn);
+    } else {
+      add(e.a);
+      add(e.b);
+    }
+  }
+  return out;
+}
+
+/** Nodes not reachable from ground through the given edges. */
+function unreachable(nodes: readonly string[], edges: readonly (readonly [string, string])[]): string[] {
+  const adj = new Map<string, string[]>();
+  for (const [a, b] of edges) {
+    (adj.get(a) ?? adj.set(a, []).get(a))?.push(b);
+    (adj.get(b) ?? adj.set(b, []).get(b))?.push(a);
+  }
+  const seen = new Set<string>(["0"]);
+  const stack = ["0"];
+  while (stack.length > 0) {
+    const x = stack.pop() as string;
+    for (const y of adj.get(x) ?? []) {
+      if (!seen.has(y)) {
+        seen.add(y);
+        stack.push(y);
+      }
+    }
+  }
+  return nodes.filter((n) => !seen.has(n));
+}
+
+/**
+ * Structural singularity checks (internal). Throws {@link SingularCircuitError}.
+ *
+ * @param fn - public function name
+ * @param circuit - a validated circuit
+ * @param dc - also check for DC paths (a 0 Hz point is analysed)
+ * @returns nothing
+ * @throws {@link SingularCircuitError} naming the culprit nodes or elements
+ * @example
+ * ```ts
+ * checkStructure("acAnalysis", circuit, false); // throws when a node floats
+ * ```
+ */
+export function checkStructure(fn: string, circuit: Circuit, dc: boolean): void {
+  const nodes = nodesOf(circuit);
+  const edges: [string, string][] = [];
+  const dcEdges: [string, string][] = [];
+  for (const e of circuit.elements) {
+    if (e.kind === "OA") {
+      edges.push([e.out, "0"]);
+      dcEdges.push([e.out, "0"]);
+    } else {
+      edges.push([e.a, e.b]);
+      if (e.kind !== "C") dcEdges.push([e.a, e.b]);
+    }
+  }
+  const floating = unreachable(nodes, edges);
+  if (floating.length > 0) {
+    throw new SingularCircuitError(
+      {
+        fn,
+        path: "elements",
+        received: floating,
+        message: `node${floating.length === 1 ? "" : "s"} ${floating.map((n) => `"${n}"`).join(", ")} ha${floating.length === 1 ? "s" : "ve"} no path to ground through any element (an op-amp input or a controlling input draws no current); connect ${floating.length === 1 ? "it" : "them"} or remove the elements that use ${floating.length === 1 ? "it" : "them"}`,
+      },
+      floating,
+    );
+  }
+  // Loops of voltage-defined branches (sources, VCVS outputs, op-amp outputs; inductors too at DC).
+  const uf = new UnionFind();
+  for (const e of circuit.elements) {
+    let pair: [string, string] | null = null;
+    if (e.kind === "V" || e.kind === "E") pair = [e.a, e.b];
+    else if (e.kind === "OA") pair = [e.out, "0"];
+    else if (e.kind === "L" && dc) pair = [e.a, e.b];
+    if (pair !== null && !uf.union(pair[0], pair[1])) {
+      const culprits = [...new Set([e.name, ...pair.filter((n) => n !== "0")])];
+      throw new SingularCircuitError(
+        {
+          fn,
+          path: "elements",
+          received: e.name,
+          message: `"${e.name}" closes a loop of voltage sources${dc ? ", inductors" : ""} and op-amp or VCVS outputs between nodes "${pair[0]}" and "${pair[1]}"; the loop current is undetermined, so break the loop with a resistor`,
+        },
+        culprits,
+      );
+    }
+  }
+  if (dc) {
+    const noDc = unreachable(nodes, dcEdges);
+    if (noDc.length > 0) {
+      throw new SingularCircuitError(
+        {
+          fn,
+          path: "freqHz",
+          received: 0,
+          message: `at 0 Hz node${noDc.length === 1 ? "" : "s"} ${noDc.map((n) => `"${n}"`).join(", ")} connect${noDc.length === 1 ? "s" : ""} to the rest only through capacitors, so ${noDc.length === 1 ? "its" : "their"} DC voltage is undetermined; analyse above 0 Hz or add a DC path`,
+        },
+        noDc,
+      );
+    }
+  }
+}
+
+/**
+ * Assemble the MNA equations of a circuit, without validation (internal
+ * kernel; {@link acAnalysis} validates first).
+ *
+ * @param circuit - a valid circuit
+ * @returns the system `(G + s C) x = b` and the index maps
+ * @throws never
+ * @example
+ * ```ts
+ * assembleMna({ title: "rc", elements: [
+ *   { kind: "V", name: "V1", a: "in", b: "0", ac: 1 },
+ *   { kind: "R", name: "R1", a: "in", b: "out", value: 1e3 },
+ *   { kind: "C", name: "C1", a: "out", b: "0", value: 1e-6 },
+ * ] }).unknowns;
+ * //=> ["v(in)", "v(out)", "i(V1)"]
+ * ```
+ */
+export function assembleMna(circuit: Circuit): MnaSystem {
+  const nodes = nodesOf(circuit);
+  const nodeIndex = new Map<string, number>();
+  nodes.forEach((n, i) => nodeIndex.set(n, i));
+  const unknowns = nodes.map((v) => `v(${v})`);
+  for (const e of circuit.elements) {
+    if (e.kind === "V" || e.kind === "E" || e.kind === "L" || e.kind === "OA") unknowns.push(`i(${e.name})`);
+  }
+  const n = unknowns.length;
+  const g = new Float64Array(n * n);
+  const c = new Float64Array(n * n);
+  const sourceRow = new Map<string, number>();
+  const idx = (node: string): number => (node === "0" ? -1 : (nodeIndex.get(node) as number));
+  const add = (m: Float64Array, i: number, j: number, v: number): void => {
+    if (i >= 0 && j >= 0) m[i * n + j] = (m[i * n + j] as number) + v;
+  };
+  const stampAdmittance = (m: Float64Array, a: number, b: number, y: number): void => {
+    add(m, a, a, y);
+    add(m, b, b, y);
+    add(m, a, b, -y);
+    add(m, b, a, -y);
+  };
+  let k = nodes.length;
+  for (const e of circuit.elements) {
+    switch (e.kind) {
+      case "R":
+        stampAdmittance(g, idx(e.a), idx(e.b), 1 / e.value);
+        break;
+      case "C":
+        stampAdmittance(c, idx(e.a), idx(e.b), e.value);
+        break;
+      case "L":
+      case "V":
+      case "E": {
+        const a = idx(e.a);
+        const b = idx(e.b);
+        // The branch current flows from a through the element to b.
+        add(g, a, k, 1);
+        add(g, b, k, -1);
+        add(g, k, a, 1);
+        add(g, k, b, -1);
+        if (e.kind === "L") add(c, k, k, -e.value);
+        if (e.kind === "V") sourceRow.set(e.name, k);
+        if (e.kind === "E") {
+          add(g, k, idx(e.cp), -e.gain);
+          add(g, k, idx(e.cn), e.gain);
+        }
+        k++;
+        break;
+      }
+      case "OA": {
+        const o = idx(e.out);
+        const p = idx(e.inP);
+        const q = idx(e.inN);
+        // Current i_k flows from the output node into the op-amp.
+        add(g, o, k, 1);
+        add(g, k, p, 1);
+        add(g, k, q, -1);
+        const m = e.model;
+        if (m.kind !== "ideal") {
+          const rout = m.kind === "single-pole-rout" ? m.routOhm : 0;
+          const tau = 1 / (2 * Math.PI * m.gbwHz);
+          // (1/a0 + s tau)(v_out - rout i) - (v+ - v-) = 0, written with the sign of v+ - v- flipped.
+          add(g, k, o, -1 / m.a0);
+          add(c, k, o, -tau);
+          add(g, k, k, rout / m.a0);
+          add(c, k, k, rout * tau);
+        }
+        k++;
+        break;
+      }
+      default:
+        break;
+    }
+  }
+  return { n, g, c, unknowns, nodeIndex, sourceRow, nodes };
+}
+
+function singularError(fn: string, sys: MnaSystem, col: number, fHz: number): SingularCircuitError {
+  const name = sys.unknowns[col] ?? "?";
+  const culprit = name.slice(2, -1);
+  const isNode = name.startsWith("v(");
+  return new SingularCircuitError(
+    {
+      fn,
+      path: "elements",
+      received: fHz,
+      message: `the nodal equations are singular at ${fHz} Hz; the ${isNode ? `voltage of node "${culprit}"` : `current of "${culprit}"`} is undetermined (an op-amp without feedback, a source loop, or a cut set of current sources); check the connections around it`,
+    },
+    [culprit],
+  );
+}
+
+function checkFrequencies(fn: string, freqHz: unknown): Float64Array {
+  if (!(freqHz instanceof Float64Array)) {
+    throw new InvalidArgumentError({ fn, path: "options.freqHz", received: freqHz, message: "expected a Float64Array of frequencies in Hz" });
+  }
+  for (let i = 0; i < freqHz.length; i++) {
+    const f = freqHz[i] as number;
+    if (!Number.isFinite(f) || f < 0) {
+      throw new InvalidArgumentError({ fn, path: `options.freqHz[${i}]`, received: f, message: "expected a finite frequency of 0 Hz or more" });
+    }
+  }
+  return freqHz;
+}
+
+/**
+ * Solve an assembled system at the given frequencies (internal kernel, no checks
+ * beyond the pivot test).
+ *
+ * @param fn - function name for errors
+ * @param sys - assembled system
+ * @param options - source, output node indices (-1 for ground), frequencies
+ * @returns one response per output index
+ * @throws {@link SingularCircuitError} when a pivot vanishes
+ * @example
+ * ```ts
+ * solveMna("acAnalysis", sys, { sourceRow: 2, outputs: [1], freqHz });
+ * ```
+ */
+export function solveMna(
+  fn: string,
+  sys: MnaSystem,
+  options: { readonly sourceRow: number; readonly outputs: readonly number[]; readonly freqHz: Float64Array },
+): ComplexResponse[] {
+  const { n, g, c } = sys;
+  const { freqHz, outputs, sourceRow } = options;
+  const m = freqHz.length;
+  const res = outputs.map(() => ({ re: new Float64Array(m), im: new Float64Array(m) }));
+  const ar = new Float64Array(n * n);
+  const ai = new Float64Array(n * n);
+  const piv = new Int32Array(n);
+  const b = { re: new Float64Array(n), im: new Float64Array(n) };
+  b.re[sourceRow] = 1;
+  const x = { re: new Float64Array(n), im: new Float64Array(n) };
+  for (let f = 0; f < m; f++) {
+    const fHz = freqHz[f] as number;
+    const w = 2 * Math.PI * fHz;
+    ar.set(g);
+    for (let i = 0; i < n * n; i++) ai[i] = w * (c[i] as number);
+    const bad = luFactorInPlace(n, ar, ai, piv);
+    if (bad >= 0) throw singularError(fn, sys, bad, fHz);
+    luSolveInPlace(n, { re: ar, im: ai, pivots: piv }, b, x);
+    for (let o = 0; o < outputs.length; o++) {
+      const j = outputs[o] as number;
+      const r = res[o] as { re: Float64Array; im: Float64Array };
+      if (j >= 0) {
+        r.re[f] = x.re[j] as number;
+        r.im[f] = x.im[j] as number;
+      }
+    }
+  }
+  return res;
+}
+
+/**
+ * AC analysis by modified nodal analysis: the transfer from a voltage source's
+ * AC value to each output node, at each frequency.
+ *
+ * Other independent sources are set to zero (superposition), so each result
+ * is `v(node) / ac(source)` with only `source` driving.
+ *
+ * @param circuit - the circuit (validated here)
+ * @param options - driving source, output nodes and frequencies (Hz)
+ * @returns the frequencies and, per output node, the complex transfer
+ * @throws {@link InvalidArgumentError} for an invalid circuit (path such as `elements[3].value`),
+ *   an unknown source or output node, or negative/non-finite frequencies
+ * @throws {@link SingularCircuitError} for a floating node, a loop of voltage-defined branches,
+ *   a node without DC path when 0 Hz is analysed, or a vanished pivot; `culprits` names the nodes/elements
+ * @example
+ * ```ts
+ * const rc = { title: "rc", elements: [
+ *   { kind: "V", name: "V1", a: "in", b: "0", ac: 1 },
+ *   { kind: "R", name: "R1", a: "in", b: "out", value: 1000 },
+ *   { kind: "C", name: "C1", a: "out", b: "0", value: 1 / (2000 * Math.PI) },
+ * ] } as const;
+ * acAnalysis(rc, { source: "V1", outputs: ["out"], freqHz: new Float64Array([1]) }).outputs["out"];
+ * //=> { re: Float64Array [0.5], im: Float64Array [-0.5] }
+ * ```
+ */
+export function acAnalysis(circuit: Circuit, options: AcAnalysisOptions): AcAnalysisResult {
+  const fn = "acAnalysis";
+  checkCircuit(fn, circuit);
+  if (options === null || typeof options !== "object") {
+    throw new InvalidArgumentError({ fn, path: "options", received: options, message: "expected { source, outputs, freqHz }" });
+  }
+  const freqHz = checkFrequencies(fn, options.freqHz);
+  const src = circuit.elements.find((e) => e.name === options.source);
+  if (src === undefined || src.kind !== "V") {
+    const vs = circuit.elements.filter((e) => e.kind === "V").map((e) => `"${e.name}"`);
+    throw new InvalidArgumentError({
+      fn,
+      path: "options.source",
+      received: options.source,
+      message: `expected the name of a voltage source in the circuit (${vs.length > 0 ? vs.join(", ") : "there is none: add a V element"})`,
+    });
+  }
+  if (!Array.isArray(options.outputs)) {
+    throw new InvalidArgumentError({ fn, path: "options.outputs", received: options.outputs, message: "expected an array of node names" });
+  }
+  let dc = false;
+  for (let i = 0; i < freqHz.length; i++) if (freqHz[i] === 0) dc = true;
+  checkStructure(fn, circuit, dc);
+  const sys = assembleMna(circuit);
+  const outIdx = options.outputs.map((o, i) => {
+    if (o === "0") return -1;
+    const j = typeof o === "string" ? sys.nodeIndex.get(o) : undefined;
+    if (j === undefined) {
+      throw new InvalidArgumentError({
+        fn,
+        path: `options.outputs[${i}]`,
+        received: o,
+        message: "expected a node of the circuit (or \"0\" for ground)",
+      });
+    }
+    return j;
+  });
+  const res = solveMna(fn, sys, { sourceRow: sys.sourceRow.get(src.name) as number, outputs: outIdx, freqHz });
+  const outputs: Record<string, ComplexResponse> = {};
+  options.outputs.forEach((o, i) => {
+    outputs[o] = res[i] as ComplexResponse;
+  });
+  return { freqHz, outputs };
+}
+
+/**
+ * Transfer function from a voltage source to one node (convenience over {@link acAnalysis}).
+ *
+ * @param circuit - the circuit
+ * @param options - source, output node, frequencies (Hz)
+ * @returns the complex transfer `v(output) / ac(source)` per frequency
+ * @throws {@link InvalidArgumentError} as {@link acAnalysis}
+ * @throws {@link SingularCircuitError} as {@link acAnalysis}
+ * @example
+ * ```ts
+ * transfer(rc, { source: "V1", output: "out", freqHz: new Float64Array([0]) });
+ * //=> { re: Float64Array [1], im: Float64Array [0] }
+ * ```
+ */
+export function transfer(circuit: Circuit, options: TransferOptions): ComplexResponse {
+  const r = acAnalysis(circuit, { source: options?.source, outputs: [options?.output], freqHz: options?.freqHz });
+  return r.outputs[options.output] as ComplexResponse;
+}
+
+/**
+ * Determinant of `G + s C` at a complex `s` (for locating natural frequencies),
+ * from the product of the LU pivots (internal kernel, no checks).
+ *
+ * @param sys - assembled system
+ * @param s - complex frequency (rad/s)
+ * @returns the determinant
+ * @throws never
+ * @example
+ * ```ts
+ * mnaDeterminant(assembleMna(rc), { re: -1000, im: 0 }); // zero at the RC pole
+ * ```
+ */
+export function mnaDeterminant(sys: MnaSystem, s: Complex): Complex {
+  const { n, g, c } = sys;
+  const ar = new Float64Array(n * n);
+  const ai = new Float64Array(n * n);
+  for (let i = 0; i < n * n; i++) {
+    const ci = c[i] as number;
+    ar[i] = (g[i] as number) + s.re * ci;
+    ai[i] = s.im * ci;
+  }
+  const piv = new Int32Array(n);
+  const bad = luFactorInPlace(n, ar, ai, piv);
+  if (bad >= 0) return { re: 0, im: 0 };
+  let dr = 1;
+  let di = 0;
+  // Sign of the permutation.
+  const seen = new Uint8Array(n);
+  let sign = 1;
+  for (let i = 0; i < n; i++) {
+    if (seen[i] === 1) continue;
+    let len = 0;
+    let j = i;
+    while (seen[j] === 0) {
+      seen[j] = 1;
+      j = piv[j] as number;
+      len++;
+    }
+    if (len % 2 === 0) sign = -sign;
+  }
+  for (let i = 0; i < n; i++) {
+    const pr = ar[i * n + i] as number;
+    const pi = ai[i * n + i] as number;
+    const t = dr * pr - di * pi;
+    di = dr * pi + di * pr;
+    dr = t;
+  }
+  return { re: sign * dr, im: sign * di };
+}
