@@ -1,0 +1,17 @@
+/**
+ * Layer 2: analog transfer functions — zeros/poles/gain, first- and
+ * second-order sections, frequency response, group delay, frequency
+ * transforms and step/impulse responses. Frequencies are angular (rad/s).
+ *
+ * @module
+ */
+export type * from "./types.ts";
+export { evalZpk, zpk, zpkToPolynomials } from "./zpk.ts";
+export {
+  evalCascade,
+  evalSection,
+  fromSections,
+  toSections,
+  type SectionOrdering,
+  type ToSectionsOptions,
+} from "./sections.ts";

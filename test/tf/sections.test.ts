@@ -1,0 +1,153 @@
+import { describe, expect, it } from "vitest";
+import fc from "fast-check";
+import { evalCascade, evalSection, fromSections, toSections } from "../../src/tf/sections.ts";
+import { evalZpk, zpk } from "../../src/tf/zpk.ts";
+import type { Complex } from "../../src/math/complex.ts";
+import type { SecondOrderSection, Zpk } from "../../src/tf/types.ts";
+import { InvalidArgumentError } from "../../src/errors.ts";
+import { expectClose, expectComplexSetClose } from "../helpers/tolerance.ts";
+
+const pair = (re: number, im: number): Complex[] => [
+  { re, im },
+  { re, im: -im },
+];
+
+/** A 5th-order lowpass with two jw-axis zero pairs (elliptic-like, values of our own). */
+const notchLowpass = zpk([...pair(0, 1.3), ...pair(0, 2.2)], [...pair(-0.1, 1), ...pair(-0.4, 0.7), { re: -0.6, im: 0 }], 0.3);
+
+function expectSameResponse(h: Zpk, ws: readonly number[], rel = 1e-13): void {
+  const c = toSections(h);
+  for (const w of ws) {
+    const a = evalZpk(h, { re: 0, im: w });
+    const b = evalCascade(c, { re: 0, im: w });
+    const m = Math.hypot(a.re, a.im);
+    expectClose(Math.hypot(a.re - b.re, a.im - b.im), 0, { abs: rel * m, label: `|H - cascade| at w=${w}` });
+  }
+}
+
+describe("toSections", () => {
+  it("pairs jw zeros with the nearest pole pair by decreasing Q and normalises notch sections", () => {
+    const c = toSections(notchLowpass);
+    expect(c.sections.map((s) => s.order)).toEqual([1, 2, 2]);
+    const [first, low, high] = c.sections as [unknown, SecondOrderSection, SecondOrderSection];
+    expect(first).toMatchObject({ kind: "lowpass", w0: 0.6, num: [0, 0, 0.6] });
+    expect(high.q).toBeGreaterThan(low.q);
+    expect(high).toMatchObject({ kind: "notch", notchType: "lowpass-notch" });
+    expectClose(high.wz ?? 0, 1.3, { rel: 1e-15 });
+    expectClose(low.wz ?? 0, 2.2, { rel: 1e-15 });
+    // lowpass-notch sections have unit DC gain
+    for (const s of c.sections) expectClose(evalSection(s, { re: 0, im: 0 }).re, 1, { rel: 1e-15 });
+    expectSameResponse(notchLowpass, [0, 0.05, 0.6, 1, 1.3, 2, 10, 1e3]);
+  });
+
+  it("gives highpass sections HF gain 1 and bandpass sections gain 1 at w0", () => {
+    const hp = zpk(Array(3).fill({ re: 0, im: 0 }), [...pair(-0.3, 0.9), { re: -0.8, im: 0 }], 4);
+    const c = toSections(hp);
+    expect(c.sections.map((s) => s.kind)).toEqual(["highpass", "highpass"]);
+    for (const s of c.sections) {
+      const v = evalSection(s, { re: 0, im: 1e9 });
+      expectClose(Math.hypot(v.re, v.im), 1, { rel: 1e-12 });
+    }
+    expect(c.gain).toBe(4);
+    const bp = zpk(Array(2).fill({ re: 0, im: 0 }), [...pair(-0.1, 1), ...pair(-0.2, 2)], 0.5);
+    const cb = toSections(bp);
+    expect(cb.sections.map((s) => s.kind)).toEqual(["bandpass", "bandpass"]);
+    for (const s of cb.sections) {
+      const v = evalSection(s, { re: 0, im: s.w0 });
+      expectClose(v.re, 1, { rel: 1e-14 });
+      expectClose(v.im, 0, { abs: 1e-14 });
+    }
+    expectSameResponse(bp, [0.01, 0.5, 1, 2, 5]);
+  });
+
+  it("recognises allpass, symmetric and highpass notches, and general sections", () => {
+    const ap = zpk([...pair(0.5, 1), { re: 2, im: 0 }], [...pair(-0.5, 1), { re: -2, im: 0 }], 1);
+    const c = toSections(ap);
+    expect(c.sections.map((s) => s.kind)).toEqual(["allpass", "allpass"]);
+    for (const w of [0.1, 1, 7]) {
+      const v = evalCascade(c, { re: 0, im: w });
+      expectClose(Math.hypot(v.re, v.im), 1, { rel: 1e-14 });
+    }
+    const sym = toSections(zpk(pair(0, 1), pair(-0.05, Math.sqrt(1 - 0.0025)), 1));
+    expect(sym.sections[0]).toMatchObject({ kind: "notch", notchType: "symmetric" });
+    const hpn = toSections(zpk(pair(0, 0.5), pair(-0.2, 1), 1));
+    expect(hpn.sections[0]).toMatchObject({ kind: "notch", notchType: "highpass-notch", num: [1, 0, 0.25] });
+    const gen = zpk([{ re: -3, im: 0 }, { re: -5, im: 0 }], [{ re: -1, im: 0 }, { re: -2, im: 0 }], 2);
+    const cg = toSections(gen);
+    expect(cg.sections.map((s) => [s.order, s.kind])).toEqual([
+      [1, "general"],
+      [1, "general"],
+    ]);
+    expectSameResponse(gen, [0, 1, 10]);
+    // a complex zero pair with only real poles forms a second-order section with Q < 1/2
+    const mixed = zpk(pair(-1, 3), [{ re: -1, im: 0 }, { re: -4, im: 0 }, { re: -9, im: 0 }], 1);
+    const cm = toSections(mixed);
+    expect(cm.sections.map((s) => s.order).sort()).toEqual([1, 2]);
+    expectSameResponse(mixed, [0, 0.5, 3, 30]);
+  });
+
+  it("orders sections as requested", () => {
+    const qs = (o: "ascending-q" | "descending-q" | "as-given") =>
+      toSections(notchLowpass, { order: o }).sections.map((s) => (s.order === 2 ? Math.round(s.q * 100) / 100 : 0));
+    expect(qs("ascending-q")).toEqual([0, 1.01, 5.02]);
+    expect(qs("descending-q")).toEqual([5.02, 1.01, 0]);
+    expect(qs("as-given")).toEqual([5.02, 1.01, 0]);
+  });
+
+  it("rejects improper or unstable systems and unknown orderings", () => {
+    expect(() => toSections(zpk([{ re: -1, im: 0 }], [], 1))).toThrow(/improper/);
+    expect(() => toSections(zpk([], [{ re: 1, im: 0 }], 1))).toThrow(/poles\[0\]/);
+    expect(() => toSections(notchLowpass, { order: "by-size" as "as-given" })).toThrow(InvalidArgumentError);
+    expect(() => evalSection({ order: 2, num: [0, 0, 1], den: [2, 1, 1], w0: 1, q: 1, kind: "lowpass" }, { re: 0, im: 0 })).toThrow(/den/);
+    expect(() => fromSections({ sections: [], gain: Number.NaN })).toThrow(/gain/);
+  });
+});
+
+describe("zpk -> sections -> zpk (property)", () => {
+  const lhp = fc.record({
+    re: fc.double({ min: -10, max: -0.01, noNaN: true }),
+    im: fc.double({ min: 0, max: 10, noNaN: true }),
+    real: fc.boolean(),
+  });
+  const zero = fc.record({
+    re: fc.double({ min: -10, max: 10, noNaN: true }),
+    im: fc.double({ min: 0, max: 10, noNaN: true }),
+    kind: fc.constantFrom("origin", "axis", "real", "complex"),
+  });
+  const expand = (v: { re: number; im: number }, real: boolean): Complex[] =>
+    real || v.im === 0 ? [{ re: v.re, im: 0 }] : pair(v.re, v.im);
+
+  it("recovers the same zeros, poles and gain, and the same response", () => {
+    fc.assert(
+      fc.property(
+        fc.array(lhp, { minLength: 1, maxLength: 5 }),
+        fc.array(zero, { maxLength: 5 }),
+        fc.double({ min: 0.1, max: 10, noNaN: true }),
+        fc.constantFrom("ascending-q" as const, "descending-q" as const, "as-given" as const),
+        (ps, zs, k, order) => {
+          const poles = ps.flatMap((p) => expand(p, p.real));
+          // Nearly coincident poles are ill conditioned in coefficient form (error ~ u |p|^2 / separation);
+          // keep them at least 1e-3 |p| apart so that 1e-9 is a fair tolerance.
+          for (let i = 0; i < poles.length; i++)
+            for (let j = i + 1; j < poles.length; j++) {
+              const a = poles[i]!;
+              const b = poles[j]!;
+              fc.pre(Math.hypot(a.re - b.re, a.im - b.im) > 1e-3 * Math.hypot(a.re, a.im));
+            }
+          const zeros: Complex[] = [];
+          for (const z of zs) {
+            const add =
+              z.kind === "origin" ? [{ re: 0, im: 0 }] : z.kind === "axis" ? pair(0, z.im + 0.1) : z.kind === "real" ? [{ re: z.re, im: 0 }] : expand({ re: z.re, im: z.im + 0.1 }, false);
+            if (zeros.length + add.length <= poles.length) zeros.push(...add);
+          }
+          const h = zpk(zeros, poles, k);
+          const back = fromSections(toSections(h, { order }));
+          expectComplexSetClose(back.poles, poles, { rel: 1e-9, abs: 1e-12 });
+          expectComplexSetClose(back.zeros, zeros, { rel: 1e-9, abs: 1e-12 });
+          expectClose(back.gain, k, { rel: 1e-12 });
+        },
+      ),
+      { numRuns: 200 },
+    );
+  });
+});
