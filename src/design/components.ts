@@ -1,0 +1,318 @@
+/**
+ * Component values for one stage: impedance level, preferred values and joint
+ * re-tuning.
+ *
+ * 1. Impedance level (magnitude scaling; W. Heinlein and W. H. Holmes, "Active
+ *    Filters for Integrated Circuits", 1974, ch. 5, and any text on frequency
+ *    and impedance scaling): every capacitor value of the capacitor series in
+ *    the allowed window is tried as the stage's capacitor; the topology's
+ *    design equations give the resistors, and the capacitors whose resistors
+ *    sit most centrally (on a log scale) inside the resistor window are kept.
+ * 2. Capacitor pairs: where the topology sets a capacitor ratio, the second
+ *    capacitor is also taken from the series (the preferred values around the
+ *    design's own choice) and the ratio follows from the pair, so both
+ *    capacitors are stock values and the resistors absorb the difference.
+ * 3. Joint re-tuning: rather than rounding each resistor to its nearest
+ *    preferred value on its own, the search tries the two preferred values
+ *    that bracket each resistor and the next ones out, in every combination
+ *    (coordinate descent when there are more than 4096 combinations), and
+ *    keeps the set whose as-built f0, Q, zero frequency and gain (from the
+ *    topology's own figures) are closest to the target. Error measure: the
+ *    largest of the relative f0, Q and fz errors and half the relative gain
+ *    error, plus a tenth of their sum to break ties (common practice, no
+ *    source).
+ *
+ * @module
+ */
+import { isInSeries, nextInSeries, seriesValuesInRange, snapToSeries } from "../parts/index.ts";
+import type { ComponentValues, StageChoices, StageFigures, StageTarget, Topology } from "../topologies/types.ts";
+import type { DesignSpec } from "./spec.ts";
+import type { StageErrors } from "./types.ts";
+
+/** A complete set of stage values with its errors. */
+export interface ValueSet {
+  /** Component values by local designator. */
+  readonly values: ComponentValues;
+  /** Ideal-op-amp figures of these values. */
+  readonly figures: StageFigures;
+  /** Relative errors against the target. */
+  readonly errors: StageErrors;
+  /** Scalar error used for ranking. */
+  readonly cost: number;
+}
+
+/** Result of tuning one stage. */
+export interface TunedStage {
+  /** Best set after joint re-tuning. */
+  readonly best: ValueSet;
+  /** Other good sets (ascending cost), for re-tuning against the mask. */
+  readonly alternatives: readonly ValueSet[];
+  /** The set obtained by rounding every part independently to its nearest preferred value. */
+  readonly plain: ValueSet;
+  /** The exact (unrounded) design the plain set was rounded from. */
+  readonly exact: ComponentValues;
+}
+
+const isCap = (name: string): boolean => name.startsWith("C");
+const isRes = (name: string): boolean => name.startsWith("R");
+
+function rel(a: number | undefined, b: number | undefined): number {
+  if (a === undefined || b === undefined) return 0;
+  if (b === 0) return Math.abs(a);
+  return Math.abs(a / b - 1);
+}
+
+/** Relative errors of figures against a target. */
+export function stageErrors(fig: StageFigures, target: StageTarget): StageErrors {
+  return {
+    f0: rel(fig.f0Hz, target.f0Hz),
+    q: target.order === 2 ? rel(fig.q, target.q) : 0,
+    fz: rel(fig.fzHz, target.fzHz),
+    gain: rel(fig.gain, target.gain),
+  };
+}
+
+function costOf(e: StageErrors): number {
+  const g = 0.5 * e.gain;
+  return Math.max(e.f0, e.q, e.fz, g) + 0.1 * (e.f0 + e.q + e.fz + g);
+}
+
+function evaluate(t: Topology, values: ComponentValues, target: StageTarget): ValueSet | null {
+  let fig: StageFigures;
+  try {
+    fig = t.figures(values);
+  } catch {
+    return null;
+  }
+  if (!Number.isFinite(fig.f0Hz) || !Number.isFinite(fig.gain)) return null;
+  const errors = stageErrors(fig, target);
+  const cost = costOf(errors);
+  return Number.isFinite(cost) ? { values, figures: fig, errors, cost } : null;
+}
+
+function tryDesign(t: Topology, target: StageTarget, choices: StageChoices): ComponentValues | null {
+  try {
+    if (t.check(target, choices) !== null) return null;
+    const v = t.design(target, choices);
+    for (const x of Object.values(v)) if (!(x > 0) || !Number.isFinite(x)) return null;
+    return v;
+  } catch {
+    return null;
+  }
+}
+
+/** How far a design's resistors sit from the centre of the window (1 = at an edge, > 1 outside). */
+function centring(values: ComponentValues, range: { min: number; max: number }): number {
+  const mid = Math.sqrt(range.min * range.max);
+  const half = Math.log(range.max / mid);
+  let worst = 0;
+  for (const [k, v] of Object.entries(values)) {
+    if (!isRes(k)) continue;
+    worst = Math.max(worst, Math.abs(Math.log(v / mid)) / half);
+  }
+  return worst;
+}
+
+/** Capacitors of the series inside the window, best-centred first (at most `keep`). */
+function capacitorCandidates(
+  t: Topology,
+  target: StageTarget,
+  spec: DesignSpec,
+  keep: number,
+): { c: number; values: ComponentValues; centring: number }[] {
+  const caps = seriesValuesInRange(spec.capacitorSeries, spec.capacitorRange);
+  const out: { c: number; values: ComponentValues; centring: number }[] = [];
+  for (const c of caps) {
+    const v = tryDesign(t, target, { capacitor: c });
+    if (v === null) continue;
+    out.push({ c, values: v, centring: centring(v, spec.resistorRange) });
+  }
+  out.sort((a, b) => a.centring - b.centring);
+  return out.slice(0, keep);
+}
+
+function neighbours(x: number, series: DesignSpec["resistorSeries"], spread: number): number[] {
+  const down1 = isInSeries(x, series) ? x : snapToSeries(x, { series, mode: "down" }).value;
+  const up1 = isInSeries(x, series) ? x : snapToSeries(x, { series, mode: "up" }).value;
+  const set = new Set<number>([down1, up1]);
+  let d = down1;
+  let u = up1;
+  for (let i = 1; i < spread; i++) {
+    d = nextInSeries(d, { series, direction: "down" });
+    u = nextInSeries(u, { series, direction: "up" });
+    set.add(d);
+    set.add(u);
+  }
+  return [...set].sort((a, b) => a - b);
+}
+
+/**
+ * Designs whose capacitors are all stock values: for a topology with a
+ * capacitor ratio, the non-stock capacitor is replaced by nearby stock values
+ * and the ratio re-derived from each pair.
+ */
+function stockCapacitorDesigns(
+  t: Topology,
+  target: StageTarget,
+  spec: DesignSpec,
+  base: { c: number; values: ComponentValues },
+): ComponentValues[] {
+  const capNames = Object.keys(base.values).filter(isCap);
+  const offSeries = capNames.filter((n) => !isInSeries(base.values[n] as number, spec.capacitorSeries));
+  if (offSeries.length === 0) return [base.values];
+  // Learn how capacitorRatio maps to the other capacitor: probe ratio 2.
+  const probe = tryDesign(t, target, { capacitor: base.c, capacitorRatio: 2 });
+  const out: ComponentValues[] = [];
+  if (probe !== null && offSeries.length === 1) {
+    const name = offSeries[0] as string;
+    const rProbe = (probe[name] as number) / base.c; // 2 or 0.5 (or something else)
+    const direct = Math.abs(rProbe - 2) < 1e-6;
+    const inverse = Math.abs(rProbe - 0.5) < 1e-6;
+    if (direct || inverse) {
+      const ideal = base.values[name] as number;
+      for (const c2 of neighbours(ideal, spec.capacitorSeries, 2)) {
+        if (c2 < spec.capacitorRange.min || c2 > spec.capacitorRange.max) continue;
+        const ratio = direct ? c2 / base.c : base.c / c2;
+        const v = tryDesign(t, target, { capacitor: base.c, capacitorRatio: ratio });
+        if (v !== null) out.push(v);
+      }
+    }
+  }
+  // Fallback (or in addition): the design with its capacitors rounded, resistors kept.
+  const rounded: Record<string, number> = { ...base.values };
+  for (const n of offSeries) {
+    rounded[n] = snapToSeries(base.values[n] as number, { series: spec.capacitorSeries, mode: "nearest" }).value;
+  }
+  if (out.length === 0) out.push(rounded);
+  return out;
+}
+
+/** Every resistor rounded to its nearest preferred value, capacitors as given (rounded when off-series). */
+function plainSnap(values: ComponentValues, spec: DesignSpec): ComponentValues {
+  const out: Record<string, number> = {};
+  for (const [k, v] of Object.entries(values)) {
+    const series = isCap(k) ? spec.capacitorSeries : spec.resistorSeries;
+    out[k] = isCap(k) || isRes(k) ? snapToSeries(v, { series, mode: "nearest" }).value : v;
+  }
+  return out;
+}
+
+/** Jointly search preferred resistor values around an exact design. */
+function searchResistors(
+  t: Topology,
+  target: StageTarget,
+  exact: ComponentValues,
+  spec: DesignSpec,
+  spread: number,
+  keep: number,
+): ValueSet[] {
+  const names = Object.keys(exact).filter(isRes);
+  const options = names.map((n) => neighbours(exact[n] as number, spec.resistorSeries, spread));
+  const fixed: Record<string, number> = {};
+  for (const [k, v] of Object.entries(exact)) if (!isRes(k)) fixed[k] = v;
+  const found: ValueSet[] = [];
+  const push = (vs: ValueSet | null): void => {
+    if (vs !== null) found.push(vs);
+  };
+  const make = (idx: readonly number[]): Record<string, number> => {
+    const v: Record<string, number> = { ...fixed };
+    names.forEach((n, i) => {
+      v[n] = (options[i] as number[])[idx[i] as number] as number;
+    });
+    return v;
+  };
+  const total = options.reduce((p, o) => p * o.length, 1);
+  if (total <= 4096) {
+    const idx = names.map(() => 0);
+    for (let count = 0; count < total; count++) {
+      push(evaluate(t, make(idx), target));
+      for (let i = 0; i < idx.length; i++) {
+        idx[i] = (idx[i] as number) + 1;
+        if ((idx[i] as number) < (options[i] as number[]).length) break;
+        idx[i] = 0;
+      }
+    }
+  } else {
+    // Coordinate descent from the nearest values.
+    const idx = names.map((n, i) => {
+      const o = options[i] as number[];
+      const x = exact[n] as number;
+      let bi = 0;
+      o.forEach((v, j) => {
+        if (Math.abs(Math.log(v / x)) < Math.abs(Math.log((o[bi] as number) / x))) bi = j;
+      });
+      return bi;
+    });
+    let cur = evaluate(t, make(idx), target);
+    push(cur);
+    for (let sweep = 0; sweep < 6; sweep++) {
+      let improved = false;
+      for (let i = 0; i < idx.length; i++) {
+        const o = options[i] as number[];
+        for (let j = 0; j < o.length; j++) {
+          if (j === idx[i]) continue;
+          const trial = [...idx];
+          trial[i] = j;
+          const vs = evaluate(t, make(trial), target);
+          push(vs);
+          if (vs !== null && (cur === null || vs.cost < cur.cost)) {
+            cur = vs;
+            idx[i] = j;
+            improved = true;
+          }
+        }
+      }
+      if (!improved) break;
+    }
+  }
+  found.sort((a, b) => a.cost - b.cost);
+  return found.slice(0, keep);
+}
+
+/** Options of {@link tuneStage}. */
+export interface TuneOptions {
+  /** Number of capacitor values tried as the impedance level. @defaultValue 3 */
+  readonly capacitors?: number;
+  /** Preferred values tried on each side of every resistor. @defaultValue 2 */
+  readonly spread?: number;
+  /** Alternatives kept for re-tuning against the mask. @defaultValue 6 */
+  readonly keep?: number;
+}
+
+/**
+ * Choose preferred component values for one stage.
+ *
+ * @param t - topology
+ * @param target - stage target
+ * @param spec - canonical spec (series, windows)
+ * @param options - search widths
+ * @returns the best set, alternatives, and the plain-rounding baseline; `null` when no capacitor in the window gives a design
+ */
+export function tuneStage(
+  t: Topology,
+  target: StageTarget,
+  spec: DesignSpec,
+  options: TuneOptions = {},
+): TunedStage | null {
+  const keep = options.keep ?? 6;
+  const bases = capacitorCandidates(t, target, spec, options.capacitors ?? 3);
+  if (bases.length === 0) {
+    // No capacitor in the window works: let the topology pick its own impedance level.
+    const v = tryDesign(t, target, {});
+    if (v === null) return null;
+    bases.push({ c: NaN, values: v, centring: centring(v, spec.resistorRange) });
+  }
+  const first = bases[0] as (typeof bases)[number];
+  const plain = evaluate(t, plainSnap(first.values, spec), target);
+  const all: ValueSet[] = [];
+  for (const base of bases) {
+    const designs = Number.isNaN(base.c) ? [base.values] : stockCapacitorDesigns(t, target, spec, base);
+    for (const exact of designs) {
+      all.push(...searchResistors(t, target, exact, spec, options.spread ?? 2, keep));
+    }
+  }
+  all.sort((a, b) => a.cost - b.cost);
+  const best = all[0];
+  if (best === undefined || plain === null) return null;
+  return { best, alternatives: all.slice(1, keep), plain, exact: first.values };
+}

@@ -1,0 +1,319 @@
+/**
+ * Choosing the approximation family and its order, and designing the
+ * prototype with a little of the mask's slack kept back for part rounding.
+ *
+ * The minimum order comes from the approximation layer's order formulas and is
+ * then confirmed (or raised) by checking the actual prototype against the mask
+ * (see placement.ts). For the equiripple families the prototype is designed
+ * with a smaller ripple and/or a larger stopband attenuation than the spec
+ * allows whenever the minimum order has room for it, so the ripple valleys and
+ * stopband peaks keep a dB margin that part rounding can use (common practice,
+ * no source).
+ *
+ * @module
+ */
+import type { Zpk } from "../tf/types.ts";
+import { groupDelay, logGrid } from "../tf/index.ts";
+import { minimumOrder, prototype, type FamilyName } from "../approx/index.ts";
+import { topologiesFor } from "../topologies/index.ts";
+import type { DesignSpec } from "./spec.ts";
+import {
+  feasibleInterval,
+  intervalWidth,
+  placeInInterval,
+  prototypeEdges,
+  transformPrototype,
+  type FeasibleInterval,
+  type PrototypeEdges,
+} from "./placement.ts";
+import type { FamilyCandidate, FamilyChoice } from "./types.ts";
+
+/** Highest prototype order the automatic choices consider. */
+export const AUTO_MAX_ORDER = 12;
+
+const MONOTONIC: ReadonlySet<FamilyName> = new Set(["butterworth", "legendre", "bessel", "chebyshev2"]);
+const ALL_FAMILIES: readonly FamilyName[] = ["butterworth", "chebyshev1", "chebyshev2", "elliptic", "bessel", "legendre"];
+
+/** How much of the spec's ripple/attenuation the prototype uses (tightening levels). */
+export interface MarginLevel {
+  /** Design ripple as a fraction of the spec's passband loss. */
+  readonly rippleFraction: number;
+  /** Extra stopband attenuation designed in, dB. */
+  readonly extraAttenuationDb: number;
+}
+
+/** Tightening levels, most generous margin first; the last one uses the spec's limits exactly. */
+export const MARGIN_LEVELS: readonly MarginLevel[] = [
+  { rippleFraction: 0.7, extraAttenuationDb: 2 },
+  { rippleFraction: 0.85, extraAttenuationDb: 1 },
+  { rippleFraction: 1, extraAttenuationDb: 0 },
+];
+
+/** A prototype with its edges and the interval it leaves. */
+export interface PrototypeDesign {
+  /** Family. */
+  readonly family: FamilyName;
+  /** Prototype order. */
+  readonly order: number;
+  /** Normalised lowpass prototype. */
+  readonly zpk: Zpk;
+  /** Design ripple, dB (Chebyshev I, elliptic). */
+  readonly rippleDb?: number;
+  /** Design attenuation, dB (Chebyshev II, elliptic). */
+  readonly attenuationDb?: number;
+  /** W_p*, W_s* of the prototype against the spec's Ap, As. */
+  readonly edges: PrototypeEdges;
+  /** Feasible interval of the transform parameter. */
+  readonly interval: FeasibleInterval;
+}
+
+/**
+ * Design a prototype of the given family and order at one margin level.
+ *
+ * @param spec - canonical spec
+ * @param family - family
+ * @param order - prototype order
+ * @param level - how much ripple/attenuation margin to design in
+ * @returns the prototype and its feasible interval
+ */
+export function designPrototype(
+  spec: DesignSpec,
+  family: FamilyName,
+  order: number,
+  level: MarginLevel,
+): PrototypeDesign {
+  const rippleDb = spec.maxLossDb * level.rippleFraction;
+  const attenuationDb = spec.minAttenuationDb + level.extraAttenuationDb;
+  let zpk: Zpk;
+  switch (family) {
+    case "chebyshev1":
+      zpk = prototype({ family, order, rippleDb });
+      break;
+    case "chebyshev2":
+      zpk = prototype({ family, order, attenuationDb });
+      break;
+    case "elliptic":
+      zpk = prototype({ family, order, rippleDb, attenuationDb });
+      break;
+    case "bessel":
+      zpk = prototype({ family, order, normalization: "magnitude" });
+      break;
+    default:
+      zpk = prototype({ family, order });
+  }
+  const edges = prototypeEdges(zpk, spec.maxLossDb, spec.minAttenuationDb);
+  const interval = feasibleInterval(spec, edges);
+  const base = { family, order, zpk, edges, interval };
+  return {
+    ...base,
+    ...(family === "chebyshev1" || family === "elliptic" ? { rippleDb } : {}),
+    ...(family === "chebyshev2" || family === "elliptic" ? { attenuationDb } : {}),
+  };
+}
+
+const EXACT: MarginLevel = MARGIN_LEVELS[MARGIN_LEVELS.length - 1] as MarginLevel;
+
+function isEquiripple(family: FamilyName): boolean {
+  return family === "chebyshev1" || family === "chebyshev2" || family === "elliptic";
+}
+
+/**
+ * Smallest order of a family whose exact prototype meets the mask, starting
+ * from the approximation layer's order formula and confirmed on the prototype.
+ *
+ * @returns the order, or `null` when none up to `maxOrder` does
+ */
+export function familyMinimumOrder(spec: DesignSpec, family: FamilyName, maxOrder: number): number | null {
+  let start = 1;
+  try {
+    const est = minimumOrder({
+      family,
+      response: spec.response,
+      passbandW: spec.passbandHz.map((f) => 2 * Math.PI * f),
+      stopbandW: spec.stopbandHz.map((f) => 2 * Math.PI * f),
+      passbandLossDb: spec.maxLossDb,
+      stopbandAttenuationDb: spec.minAttenuationDb,
+    } as Parameters<typeof minimumOrder>[0]);
+    if (est.beyondRange && est.order > maxOrder) return null;
+    start = Math.max(1, Math.min(est.order, maxOrder) - 1);
+  } catch {
+    start = 1;
+  }
+  for (let n = start; n <= maxOrder; n++) {
+    const p = designPrototype(spec, family, n, EXACT);
+    if (intervalWidth(p.interval) >= 0) {
+      // The formula may overestimate by one; check the order below as well.
+      if (n === start && n > 1) {
+        const below = designPrototype(spec, family, n - 1, EXACT);
+        if (intervalWidth(below.interval) >= 0) return n - 1;
+      }
+      return n;
+    }
+  }
+  return null;
+}
+
+/**
+ * The prototype to build at a given order: the most generous margin level
+ * that keeps at least 40 % of the exact prototype's frequency slack (common
+ * practice, no source); the exact level when the order is too low to meet the
+ * mask at all.
+ *
+
+ */
+export function choosePrototype(spec: DesignSpec, family: FamilyName, order: number): PrototypeDesign {
+  const exact = designPrototype(spec, family, order, EXACT);
+  const full = intervalWidth(exact.interval);
+  if (!isEquiripple(family) || !(full > 0)) return exact;
+  for (const level of MARGIN_LEVELS.slice(0, -1)) {
+    const p = designPrototype(spec, family, order, level);
+    if (intervalWidth(p.interval) >= 0.4 * full) return p;
+  }
+  return exact;
+}
+
+/** Number of stages a prototype order needs for the spec's response. */
+export function stageCount(spec: DesignSpec, order: number): number {
+  return spec.response === "lowpass" || spec.response === "highpass" ? Math.ceil(order / 2) : order;
+}
+
+function opampEstimate(spec: DesignSpec, family: FamilyName, order: number): number {
+  // All-pole families need one op-amp per stage with the simplest topologies;
+  // families with finite zeros need notch-capable stages.
+  const stages = stageCount(spec, order);
+  if (family !== "chebyshev2" && family !== "elliptic" && spec.response !== "bandstop") return stages;
+  let notchOpamps = 3;
+  try {
+    const t = topologiesFor({ kind: "lowpass-notch", order: 2 });
+    if (t.length > 0) notchOpamps = Math.min(...t.map((x) => x.opampCount));
+  } catch {
+    // keep the estimate
+  }
+  return stages * notchOpamps;
+}
+
+function delayVariation(spec: DesignSpec, p: PrototypeDesign): number {
+  const zpk = transformPrototype(spec, p.zpk, p.interval, placeInInterval(p.interval, 0.5));
+  const pb = spec.passbandHz.map((f) => 2 * Math.PI * f);
+  let w: Float64Array;
+  if (spec.response === "lowpass") w = logGrid((pb[0] as number) / 100, pb[0] as number, 200);
+  else if (spec.response === "highpass") w = logGrid(pb[0] as number, (pb[0] as number) * 100, 200);
+  else if (spec.response === "bandpass") w = logGrid(pb[0] as number, pb[1] as number, 200);
+  else {
+    const a = logGrid((pb[0] as number) / 100, pb[0] as number, 100);
+    const b = logGrid(pb[1] as number, (pb[1] as number) * 100, 100);
+    w = new Float64Array([...a, ...b]);
+  }
+  const gd = groupDelay(zpk, w);
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (const x of gd) {
+    lo = Math.min(lo, x);
+    hi = Math.max(hi, x);
+  }
+  return lo > 0 ? hi / lo - 1 : Infinity;
+}
+
+/**
+ * Choose the family (or take the named one) and its minimum order.
+ *
+ * @param spec - canonical spec
+ * @returns the family, the minimum order (null when the named family cannot meet the mask within the order limit) and the choice record
+ */
+export function chooseFamily(spec: DesignSpec): {
+  readonly family: FamilyName;
+  readonly order: number | null;
+  readonly choice: FamilyChoice;
+} {
+  if (spec.family !== "auto") {
+    const order = familyMinimumOrder(spec, spec.family, 16);
+    return {
+      family: spec.family,
+      order,
+      choice: {
+        automatic: false,
+        priority: null,
+        candidates: [],
+        reason: `The spec names the ${spec.family} family.`,
+      },
+    };
+  }
+  const pool = spec.priority === "monotonic" ? ALL_FAMILIES.filter((f) => MONOTONIC.has(f)) : ALL_FAMILIES;
+  const candidates: FamilyCandidate[] = [];
+  const scored: { family: FamilyName; order: number; stages: number; opamps: number; slack: number; delay: number }[] = [];
+  for (const family of ALL_FAMILIES) {
+    const order = familyMinimumOrder(spec, family, AUTO_MAX_ORDER);
+    const stages = order === null ? null : stageCount(spec, order);
+    let delay: number | undefined;
+    if (order !== null && spec.priority === "flattest-delay") {
+      delay = delayVariation(spec, choosePrototype(spec, family, order));
+    }
+    candidates.push({
+      family,
+      order,
+      stages,
+      monotonic: MONOTONIC.has(family),
+      ...(delay === undefined ? {} : { delayVariation: delay }),
+    });
+    if (order !== null && pool.includes(family)) {
+      const p = designPrototype(spec, family, order, EXACT);
+      scored.push({
+        family,
+        order,
+        stages: stages as number,
+        opamps: opampEstimate(spec, family, order),
+        slack: intervalWidth(p.interval),
+        delay: delay ?? 0,
+      });
+    }
+  }
+  if (scored.length === 0) {
+    // Nothing meets the mask within the limit: fall back to the most selective family at the limit.
+    const family: FamilyName = spec.priority === "monotonic" ? "chebyshev2" : "elliptic";
+    return {
+      family,
+      order: null,
+      choice: {
+        automatic: true,
+        priority: spec.priority,
+        candidates,
+        reason: `No ${spec.priority === "monotonic" ? "monotonic " : ""}family meets the mask with a prototype order up to ${AUTO_MAX_ORDER}; ${family} is the most selective candidate and is used at that limit.`,
+      },
+    };
+  }
+  let best = scored[0] as (typeof scored)[number];
+  for (const c of scored.slice(1)) {
+    if (spec.priority === "flattest-delay") {
+      if (c.delay < best.delay - 1e-12) best = c;
+      continue;
+    }
+    const better =
+      c.stages < best.stages ||
+      (c.stages === best.stages && c.opamps < best.opamps) ||
+      (c.stages === best.stages && c.opamps === best.opamps && c.slack > best.slack);
+    if (better) best = c;
+  }
+  const list = scored
+    .map((c) =>
+      spec.priority === "flattest-delay"
+        ? `${c.family} ${c.order} (delay varies ${(c.delay * 100).toFixed(1)} %)`
+        : `${c.family} ${c.order} (${c.stages} stage${c.stages === 1 ? "" : "s"}, about ${c.opamps} op-amp${c.opamps === 1 ? "" : "s"})`,
+    )
+    .join(", ");
+  const why =
+    spec.priority === "flattest-delay"
+      ? `${best.family} has the flattest passband group delay of the families meeting the mask`
+      : spec.priority === "monotonic"
+        ? `${best.family} needs the fewest stages among the families with a monotonic passband, then the fewest op-amps, then leaves the most room for part rounding`
+        : `${best.family} needs the fewest stages, then the fewest op-amps, then leaves the most room for part rounding`;
+  return {
+    family: best.family,
+    order: best.order,
+    choice: {
+      automatic: true,
+      priority: spec.priority,
+      candidates,
+      reason: `Priority ${spec.priority}: ${why}. Minimum orders: ${list}.`,
+    },
+  };
+}

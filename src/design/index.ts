@@ -1,0 +1,39 @@
+/**
+ * The design layer: the filter specification, the design pipeline and the
+ * circuit of a finished design.
+ *
+ * @module
+ */
+export {
+  validateSpec,
+  specToInput,
+  MAX_SPEC_ORDER,
+  type FilterSpec,
+  type DesignSpec,
+  type ResponseType,
+  type FamilyPriority,
+  type Polarity,
+  type Quantity as SpecQuantity,
+  type EdgeInput,
+  type PassbandSpec,
+  type StopbandSpec,
+  type GainSpec,
+  type PartsSpec,
+  type OpAmpSpec,
+} from "./spec.ts";
+export { designFilter, LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./pipeline.ts";
+export { responseSpanHz } from "./verify.ts";
+export { designCircuit, type DesignCircuitOptions } from "./circuit.ts";
+export type {
+  DesignResult,
+  DesignStage,
+  StageFigureSet,
+  StageErrors,
+  FamilyCandidate,
+  FamilyChoice,
+  Placement,
+  ResponseCurve,
+  Verification,
+  DesignWarning,
+  DesignAction,
+} from "./types.ts";

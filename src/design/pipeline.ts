@@ -1,0 +1,449 @@
+/**
+ * The design pipeline: from a spec to a verified circuit of preferred-value
+ * parts.
+ *
+ * family and minimum order -> prototype with a margin kept back -> placed in
+ * the middle of the mask's slack -> transformed and split into sections
+ * ordered by ascending Q (the usual ordering for dynamic range in lowpass
+ * cascades; common practice, no source) -> gain distributed for equal peaks ->
+ * a topology per section -> preferred values with joint re-tuning -> as-built
+ * check against the mask. When the as-built circuit misses the mask the
+ * pipeline re-tunes the parts against the mask itself, then moves the design
+ * inside the slack towards the failing band, then (unless the spec fixes the
+ * order) raises the order, and records each step it took.
+ *
+ * @module
+ */
+import { SpecError, UnrealisableError } from "../errors.ts";
+import type { OpAmpModel } from "../circuit/types.ts";
+import { toSections } from "../tf/index.ts";
+import type { SectionCascade } from "../tf/types.ts";
+import type { FamilyName } from "../approx/index.ts";
+import type { ComponentValues } from "../topologies/types.ts";
+import { validateSpec, MAX_SPEC_ORDER, type DesignSpec } from "./spec.ts";
+import { AUTO_MAX_ORDER, chooseFamily, choosePrototype, MARGIN_LEVELS, designPrototype, type PrototypeDesign } from "./family.ts";
+import { intervalWidth, placeInInterval, transformPrototype } from "./placement.ts";
+import { describeSections, peakGrid, planStages, type StagePlan } from "./stages.ts";
+import { tuneStage, type TunedStage, type ValueSet } from "./components.ts";
+import { checkMask, partialPeaks, responseCurve, type BuiltStage, type MaskFigures } from "./verify.ts";
+import type {
+  DesignAction,
+  DesignResult,
+  DesignStage,
+  DesignWarning,
+  FamilyChoice,
+  Placement,
+  StageFigureSet,
+} from "./types.ts";
+
+const TWO_PI = 2 * Math.PI;
+const IDEAL: OpAmpModel = { kind: "ideal" };
+/** Capacitor ratio above which a warning is given (common practice, no source). */
+export const LARGE_CAPACITOR_RATIO = 10;
+/** Points of the response curve stored in a result. */
+export const CURVE_POINTS = 256;
+
+interface Attempt {
+  readonly proto: PrototypeDesign;
+  readonly position: number;
+  readonly value: number;
+  readonly cascade: SectionCascade;
+  readonly gridHz: Float64Array;
+  readonly plans: readonly StagePlan[];
+  readonly polarityOk: boolean;
+  readonly tuned: readonly TunedStage[];
+  readonly chosen: readonly ValueSet[];
+  readonly mask: MaskFigures;
+}
+
+function built(plans: readonly StagePlan[], sets: readonly { values: ComponentValues }[]): BuiltStage[] {
+  return plans.map((p, i) => ({ topology: p.topology, values: (sets[i] as { values: ComponentValues }).values }));
+}
+
+function attempt(spec: DesignSpec, proto: PrototypeDesign, position: number, wide: boolean): Attempt {
+  const value = placeInInterval(proto.interval, position);
+  const zpk = transformPrototype(spec, proto.zpk, proto.interval, value);
+  const cascade = toSections(zpk, { order: "ascending-q" });
+  const grid = peakGrid(cascade);
+  const infos = describeSections(cascade, grid);
+  const n = infos.length;
+  let forced: string[];
+  if (spec.stageTopologies.length > 0) {
+    if (spec.stageTopologies.length !== n) {
+      throw new SpecError("designFilter", [
+        {
+          path: "topology",
+          message: `this design has ${n} stage${n === 1 ? "" : "s"}; give one topology entry per stage (or a single id, or "auto")`,
+          received: spec.stageTopologies,
+        },
+      ]);
+    }
+    forced = [...spec.stageTopologies];
+  } else forced = infos.map(() => spec.topology);
+  const { plans, polarityOk } = planStages(spec, infos, { forced });
+  const tuned = plans.map((p, i) => {
+    const t = tuneStage(p.topology, p.target, spec, wide ? { capacitors: 6, spread: 3, keep: 12 } : {});
+    if (t === null) {
+      throw new UnrealisableError({
+        fn: "designFilter",
+        path: `stages.${i}`,
+        message: `topology "${p.topology.id}" gives no usable values for stage ${i + 1} (${p.target.kind}, f0 ${p.target.f0Hz.toPrecision(4)} Hz) with capacitors between ${spec.capacitorRange.min} F and ${spec.capacitorRange.max} F; widen parts.capacitorMinF/capacitorMaxF or name another topology`,
+      });
+    }
+    return t;
+  });
+  const chosen = tuned.map((t) => t.best);
+  const mask = checkMask(spec, built(plans, chosen), spec.opamp);
+  const gridHz = grid.map((w) => w / TWO_PI);
+  return { proto, position, value, cascade, gridHz, plans, polarityOk, tuned, chosen, mask };
+}
+
+/** Re-tune against the mask: coordinate descent over each stage's good value sets, maximising the worst margin. */
+function retuneToMask(spec: DesignSpec, a: Attempt): Attempt {
+  const chosen = [...a.chosen];
+  let best = a.mask;
+  for (let sweep = 0; sweep < 2; sweep++) {
+    let improved = false;
+    for (let i = 0; i < chosen.length; i++) {
+      const t = a.tuned[i] as TunedStage;
+      for (const alt of [t.best, ...t.alternatives]) {
+        if (alt === chosen[i]) continue;
+        const trial = [...chosen];
+        trial[i] = alt;
+        const m = checkMask(spec, built(a.plans, trial), spec.opamp);
+        if (m.marginDb > best.marginDb + 1e-9) {
+          best = m;
+          chosen[i] = alt;
+          improved = true;
+        }
+      }
+    }
+    if (!improved) break;
+  }
+  return { ...a, chosen, mask: best };
+}
+
+function meets(a: Attempt): boolean {
+  return a.mask.marginDb >= 0 && a.polarityOk;
+}
+
+/** Whether raising the placement parameter helps the passband (true) or the stopband. */
+function upHelpsPassband(spec: DesignSpec): boolean {
+  return spec.response === "lowpass" || spec.response === "bandpass";
+}
+
+function fmt(x: number, digits = 4): string {
+  return Number(x.toPrecision(digits)).toString();
+}
+
+function figures(f: { f0Hz: number; q?: number; fzHz?: number; gain: number }): StageFigureSet {
+  return {
+    f0Hz: f.f0Hz,
+    ...(f.q === undefined ? {} : { q: f.q }),
+    ...(f.fzHz === undefined ? {} : { fzHz: f.fzHz }),
+    gain: f.gain,
+  };
+}
+
+/** Give every stage's parts designators unique across the cascade. */
+function designators(plans: readonly StagePlan[], sets: readonly ValueSet[]): {
+  components: Record<string, number>;
+  localNames: Record<string, string>;
+  opamps: string[];
+}[] {
+  const counters = new Map<string, number>();
+  const next = (prefix: string): string => {
+    const k = (counters.get(prefix) ?? 0) + 1;
+    counters.set(prefix, k);
+    return `${prefix}${k}`;
+  };
+  return plans.map((p, i) => {
+    const values = (sets[i] as ValueSet).values;
+    const components: Record<string, number> = {};
+    const localNames: Record<string, string> = {};
+    const names = [...p.topology.componentNames, ...Object.keys(values).filter((k) => !p.topology.componentNames.includes(k))];
+    for (const local of names) {
+      const v = values[local];
+      if (v === undefined) continue;
+      const prefix = /^[A-Za-z]/.test(local) ? (local[0] as string).toUpperCase() : "X";
+      const global = next(prefix);
+      components[global] = v;
+      localNames[global] = local;
+    }
+    const opamps: string[] = [];
+    for (let k = 0; k < p.topology.opampCount; k++) opamps.push(next("U"));
+    return { components, localNames, opamps };
+  });
+}
+
+/**
+ * Design an active filter from a specification: family, order, sections,
+ * topologies, preferred component values, and the as-built check against the
+ * mask.
+ *
+ * A spec that the (forced) order cannot meet is not an error: the result says
+ * `verification.meetsSpec: false` and gives the margins.
+ *
+ * @param spec - the specification (validated here; see {@link FilterSpec})
+ * @returns the design as plain readonly data
+ * @throws {@link SpecError} listing every problem of a malformed spec
+ * @throws {@link UnrealisableError} when no topology or capacitor window can build a stage
+ * @example
+ * ```ts
+ * const r = designFilter({
+ *   response: "lowpass",
+ *   passband: { edgeHz: "1k", maxLossDb: 1 },
+ *   stopband: { edgeHz: "4k", minAttenuationDb: 40 },
+ * });
+ * r.verification.meetsSpec; //=> true
+ * r.stages.length; //=> 2
+ * ```
+ */
+export function designFilter(spec: unknown): DesignResult {
+  const s = validateSpec(spec);
+  const fam = chooseFamily(s);
+  const family: FamilyName = fam.family;
+  const actions: DesignAction[] = [];
+  const limit = s.family === "auto" ? AUTO_MAX_ORDER : MAX_SPEC_ORDER;
+  const minOrder = fam.order ?? limit;
+  let order = s.order ?? minOrder;
+  const lastOrder = s.order !== null ? s.order : Math.min(limit, minOrder + 3);
+
+  let result: Attempt | null = null;
+  let first: Attempt | null = null;
+  for (; order <= lastOrder; order++) {
+    const proto = choosePrototype(s, family, order);
+    const feasible = intervalWidth(proto.interval) >= 0;
+    let a = attempt(s, proto, 0.5, false);
+    first ??= a;
+    if (order === (s.order ?? minOrder)) {
+      actions.push({
+        code: "placed-in-slack",
+        message: feasible
+          ? `Placed the ${proto.interval.parameter === "bandwidth" ? "bandwidth" : "natural frequency"} at the geometric middle of the interval where the exact design meets the mask (${fmt(proto.interval.low / TWO_PI)} Hz to ${fmt(proto.interval.high / TWO_PI)} Hz), so part rounding pushes towards neither edge first.`
+          : `Order ${order} cannot meet the mask even before rounding; placed the design between the two requirements (${fmt(proto.interval.low / TWO_PI)} Hz and ${fmt(proto.interval.high / TWO_PI)} Hz) so that both fall short by the same frequency ratio.`,
+      });
+    }
+    if (meets(a)) {
+      result = a;
+      break;
+    }
+    if (!feasible) {
+      result = a;
+      if (s.order !== null) break;
+      actions.push({ code: "raised-order", message: `Order ${order} cannot meet the mask; raised the order to ${order + 1}.` });
+      continue;
+    }
+    // 1. Re-tune the parts against the mask itself, with a wider search.
+    const before = a.mask.marginDb;
+    const wide = attempt(s, proto, 0.5, true);
+    a = retuneToMask(s, wide.mask.marginDb > a.mask.marginDb ? wide : a);
+    actions.push({
+      code: "re-tuned-to-mask",
+      message: `The rounded circuit missed the mask by ${fmt(-before, 3)} dB; re-tuned the preferred values against the mask itself (worst margin now ${fmt(a.mask.marginDb, 3)} dB).`,
+    });
+    if (meets(a)) {
+      result = a;
+      break;
+    }
+    // 2. Move the design inside the slack towards the failing band.
+    const passShort = a.mask.passbandMarginDb < a.mask.stopbandMarginDb;
+    const pos = passShort === upHelpsPassband(s) ? 0.75 : 0.25;
+    let moved = retuneToMask(s, attempt(s, proto, pos, true));
+    actions.push({
+      code: "moved-placement",
+      message: `Moved the design to ${Math.round(pos * 100)} % of the slack interval, towards the ${passShort ? "stopband" : "passband"} edge's freedom, because the ${passShort ? "passband" : "stopband"} margin was the short one (worst margin now ${fmt(moved.mask.marginDb, 3)} dB).`,
+    });
+    if (meets(moved)) {
+      result = moved;
+      break;
+    }
+    // 3. A prototype with more ripple/attenuation margin, when the equiripple family allows it.
+    const tight = MARGIN_LEVELS[0];
+    if (tight !== undefined && (family === "chebyshev1" || family === "chebyshev2" || family === "elliptic")) {
+      const p2 = designPrototype(s, family, order, tight);
+      if (intervalWidth(p2.interval) > 0 && (p2.rippleDb !== proto.rippleDb || p2.attenuationDb !== proto.attenuationDb)) {
+        const t = retuneToMask(s, attempt(s, p2, 0.5, true));
+        actions.push({
+          code: "tightened-prototype",
+          message: `Redesigned the prototype with more ripple/attenuation margin (worst margin now ${fmt(t.mask.marginDb, 3)} dB).`,
+        });
+        if (t.mask.marginDb > moved.mask.marginDb) moved = t;
+        if (meets(moved)) {
+          result = moved;
+          break;
+        }
+      }
+    }
+    result = moved.mask.marginDb > a.mask.marginDb ? moved : a;
+    // A real op-amp that is too slow is not cured by more order: stop if the ideal op-amp would pass.
+    if (s.opamp.kind !== "ideal") {
+      const ideal = checkMask(s, built(result.plans, result.chosen), IDEAL);
+      if (ideal.marginDb >= 0) break;
+    }
+    if (s.order !== null || order === lastOrder) break;
+    actions.push({
+      code: "raised-order",
+      message: `Order ${order} still missed the mask after re-tuning and moving the design; raised the order to ${order + 1}.`,
+    });
+  }
+  const final = (result ?? first) as Attempt;
+  return assemble(s, fam.choice, family, minOrder, final, actions);
+}
+
+function assemble(
+  s: DesignSpec,
+  choice: FamilyChoice,
+  family: FamilyName,
+  minOrder: number,
+  a: Attempt,
+  actions: DesignAction[],
+): DesignResult {
+  const warnings: DesignWarning[] = [];
+  const names = designators(a.plans, a.chosen);
+  const boards = built(a.plans, a.chosen);
+  const peaks = partialPeaks(boards, a.gridHz, s.opamp);
+  const exactBoards = built(
+    a.plans,
+    a.tuned.map((t) => ({ values: t.exact })),
+  );
+  const ideal = checkMask(s, exactBoards, IDEAL);
+  const stages: DesignStage[] = a.plans.map((p, i) => {
+    const set = a.chosen[i] as ValueSet;
+    const tuned = a.tuned[i] as TunedStage;
+    const nm = names[i] as (typeof names)[number];
+    const peak = peaks[i] as { gain: number; hz: number };
+    const gbw = p.topology.gbwDemandHz(p.target);
+    const index = i + 1;
+    const rs = Object.entries(nm.components).filter(([k]) => k.startsWith("R"));
+    const cs = Object.entries(nm.components).filter(([k]) => k.startsWith("C"));
+    const outR = rs.filter(([, v]) => v < s.resistorRange.min * (1 - 1e-9) || v > s.resistorRange.max * (1 + 1e-9));
+    if (outR.length > 0) {
+      warnings.push({
+        code: "resistor-out-of-range",
+        stage: index,
+        message: `${outR.map(([k, v]) => `${k} = ${fmt(v, 3)} Ω`).join(", ")} outside the resistor window ${fmt(s.resistorRange.min)}-${fmt(s.resistorRange.max)} Ω; no capacitor of the series in the capacitor window puts every resistor inside it.`,
+      });
+    }
+    const outC = cs.filter(([, v]) => v < s.capacitorRange.min * (1 - 1e-9) || v > s.capacitorRange.max * (1 + 1e-9));
+    if (outC.length > 0) {
+      warnings.push({
+        code: "capacitor-out-of-range",
+        stage: index,
+        message: `${outC.map(([k, v]) => `${k} = ${v.toExponential(2)} F`).join(", ")} outside the capacitor window.`,
+      });
+    }
+    if (cs.length >= 2) {
+      const vals = cs.map(([, v]) => v);
+      const ratio = Math.max(...vals) / Math.min(...vals);
+      if (ratio > LARGE_CAPACITOR_RATIO) {
+        warnings.push({
+          code: "large-capacitor-ratio",
+          stage: index,
+          message: `capacitor ratio ${fmt(ratio, 3)} exceeds ${LARGE_CAPACITOR_RATIO}; the stage's Q depends on it, so buy tight-tolerance capacitors or name a different topology.`,
+        });
+      }
+    }
+    if (s.opamp.kind !== "ideal" && gbw > s.opamp.gbwHz) {
+      warnings.push({
+        code: "insufficient-gbw",
+        stage: index,
+        message: `the stage needs an op-amp GBW of about ${fmt(gbw, 3)} Hz for 1 % accuracy of f0 and Q; the chosen op-amp has ${fmt(s.opamp.gbwHz, 3)} Hz.`,
+      });
+    }
+    return {
+      index,
+      topology: p.topology.id,
+      topologyName: p.topology.name,
+      topologyReason: p.reason,
+      kind: p.target.kind,
+      order: p.target.order,
+      components: nm.components,
+      localNames: nm.localNames,
+      opamps: nm.opamps,
+      target: figures(p.target),
+      asBuilt: figures(set.figures),
+      errors: set.errors,
+      plainSnapErrors: tuned.plain.errors,
+      peakGain: peak.gain,
+      peakHz: peak.hz,
+      gbwDemandHz: gbw,
+    };
+  });
+  // Gain distribution: say so when an internal node peaks above the output.
+  const outPeak = (peaks[peaks.length - 1] as { gain: number }).gain;
+  peaks.slice(0, -1).forEach((p, i) => {
+    if (p.gain > outPeak * 1.2) {
+      warnings.push({
+        code: "gain-not-distributed",
+        stage: i + 1,
+        message: `the output of stage ${i + 1} peaks ${fmt(20 * Math.log10(p.gain / outPeak), 3)} dB above the filter output (at ${fmt(p.hz, 4)} Hz) because its topology fixes its gain; allow an inverting stage (gain.polarity "either") or name a topology with adjustable gain to lower it.`,
+      });
+    }
+  });
+  if (!a.polarityOk) {
+    warnings.push({
+      code: "polarity",
+      message: `the requested ${s.polarity} polarity could not be met with the allowed topologies; the filter is ${a.mask.polarity}.`,
+    });
+  }
+  const m = a.mask;
+  const meetsSpec = m.marginDb >= 0 && a.polarityOk;
+  if (!meetsSpec) {
+    warnings.push({
+      code: "spec-not-met",
+      message: `the as-built filter misses the mask: passband margin ${fmt(m.passbandMarginDb, 3)} dB, stopband margin ${fmt(m.stopbandMarginDb, 3)} dB, gain margin ${fmt(m.gainMarginDb, 3)} dB${s.order !== null ? "; the spec fixes the order, so the pipeline did not raise it" : ""}.`,
+    });
+  }
+  const p = a.proto;
+  const placement: Placement = {
+    parameter: p.interval.parameter,
+    lowHz: p.interval.low / TWO_PI,
+    highHz: p.interval.high / TWO_PI,
+    chosenHz: a.value / TWO_PI,
+    position: a.position,
+    ...(p.interval.centre === undefined ? {} : { centreHz: p.interval.centre / TWO_PI }),
+    ...(p.rippleDb === undefined ? {} : { designRippleDb: p.rippleDb }),
+    ...(p.attenuationDb === undefined ? {} : { designAttenuationDb: p.attenuationDb }),
+  };
+  const order = p.order;
+  return deepFreeze({
+    spec: s,
+    family,
+    familyChoice: choice,
+    order,
+    filterOrder: s.response === "lowpass" || s.response === "highpass" ? order : 2 * order,
+    minimumOrder: minOrder,
+    placement,
+    stages,
+    verification: {
+      meetsSpec,
+      opamp: s.opamp,
+      passbandLossDb: m.passbandLossDb,
+      passbandWorstHz: m.passbandWorstHz,
+      passbandMarginDb: m.passbandMarginDb,
+      stopbandAttenuationDb: m.stopbandAttenuationDb,
+      stopbandWorstHz: m.stopbandWorstHz,
+      stopbandMarginDb: m.stopbandMarginDb,
+      gainDb: m.gainDb,
+      targetGainDb: 20 * Math.log10(s.gain),
+      gainErrorDb: m.gainErrorDb,
+      gainMarginDb: m.gainMarginDb,
+      polarity: m.polarity,
+      polarityOk: a.polarityOk,
+      marginDb: m.marginDb,
+      idealMarginDb: ideal.marginDb,
+      curve: responseCurve(s, boards, s.opamp, CURVE_POINTS),
+    },
+    warnings,
+    actions,
+  });
+}
+
+function deepFreeze<T>(x: T): T {
+  if (x !== null && typeof x === "object" && !Object.isFrozen(x)) {
+    Object.freeze(x);
+    for (const v of Object.values(x as object)) deepFreeze(v);
+  }
+  return x;
+}

@@ -1,0 +1,204 @@
+/**
+ * Placing a design inside the slack of its mask.
+ *
+ * Method: a normalised lowpass prototype H(jW) meets a passband loss Ap up to
+ * W_p* (the largest W with loss <= Ap on [0, W]) and a stopband attenuation As
+ * from W_s* on (the smallest W with attenuation >= As on [W, inf)). The
+ * frequency transforms (lowpass-to-lowpass, -highpass, -bandpass, -bandstop;
+ * e.g. M. E. Van Valkenburg, "Analog Filter Design", 1982, ch. 13, and the
+ * scipy.signal lp2*_zpk definitions) map the spec edges onto prototype
+ * frequencies, so each transform's free parameter (natural frequency a, or
+ * bandwidth B at the centre sqrt(wp1 wp2)) has a closed interval in which the
+ * exact design meets the mask:
+ *   lowpass  a in [wp / W_p*, ws / W_s*]
+ *   highpass a in [W_s* ws, W_p* wp]
+ *   bandpass B in [(wp2 - wp1) / W_p*, min_i |ws_i^2 - w0^2| / (ws_i W_s*)]
+ *   bandstop B in [max_i W_s* |w0^2 - ws_i^2| / ws_i, W_p* (wp2 - wp1)]
+ * The design is placed at the geometric middle of the interval (or at another
+ * log position), so that part rounding, which moves frequencies by a few
+ * tenths of a percent, moves the response towards neither edge first
+ * (common practice, no source).
+ *
+ * W_p* and W_s* are found by a log-grid scan (200 points per decade) followed
+ * by bisection to 1e-12 relative; loss comparisons allow 1e-7 dB so that an
+ * equiripple prototype designed exactly at the limit counts as meeting it.
+ *
+ * @module
+ */
+import type { Zpk } from "../tf/types.ts";
+import {
+  frequencyResponse,
+  logGrid,
+  lowpassToBandpass,
+  lowpassToBandstop,
+  lowpassToHighpass,
+  lowpassToLowpass,
+} from "../tf/index.ts";
+import type { DesignSpec } from "./spec.ts";
+
+const TWO_PI = 2 * Math.PI;
+const DB_SLACK = 1e-7;
+
+/** Magnitude of a zpk system at the given angular frequencies. */
+export function zpkMagnitude(zpk: Zpk, w: Float64Array): Float64Array {
+  const h = frequencyResponse(zpk, w);
+  const out = new Float64Array(w.length);
+  for (let i = 0; i < w.length; i++) out[i] = Math.hypot(h.re[i] as number, h.im[i] as number);
+  return out;
+}
+
+function magAt(zpk: Zpk, w: number): number {
+  return zpkMagnitude(zpk, Float64Array.of(w))[0] as number;
+}
+
+/** The prototype frequencies up to which the passband and from which the stopband are met. */
+export interface PrototypeEdges {
+  /** Largest W with loss <= Ap on [0, W]. */
+  readonly passW: number;
+  /** Smallest W with attenuation >= As on [W, inf). */
+  readonly stopW: number;
+  /** Highest level of the prototype (its passband reference). */
+  readonly peak: number;
+}
+
+/**
+ * Find W_p* and W_s* of a normalised lowpass prototype.
+ *
+ * @param zpk - normalised lowpass prototype
+ * @param lossDb - passband loss limit Ap
+ * @param attenuationDb - stopband attenuation limit As
+ * @returns the two edges and the prototype's peak level
+ */
+export function prototypeEdges(zpk: Zpk, lossDb: number, attenuationDb: number): PrototypeEdges {
+  const w = logGrid(1e-4, 1e5, 1801);
+  const m = zpkMagnitude(zpk, w);
+  let peak = 0;
+  for (let i = 0; i < m.length; i++) peak = Math.max(peak, m[i] as number);
+  peak = Math.max(peak, magAt(zpk, 0));
+  const loss = (x: number): number => 20 * Math.log10(peak / x);
+  // Passband: first grid point (from below) where the loss exceeds Ap.
+  let ip = -1;
+  for (let i = 0; i < m.length; i++) {
+    if (loss(m[i] as number) > lossDb + DB_SLACK) {
+      ip = i;
+      break;
+    }
+  }
+  let passW: number;
+  if (ip <= 0) passW = ip === 0 ? (w[0] as number) : (w[w.length - 1] as number);
+  else {
+    let lo = w[ip - 1] as number;
+    let hi = w[ip] as number;
+    for (let k = 0; k < 80 && hi / lo - 1 > 1e-13; k++) {
+      const mid = Math.sqrt(lo * hi);
+      if (loss(magAt(zpk, mid)) > lossDb + DB_SLACK) hi = mid;
+      else lo = mid;
+    }
+    passW = lo;
+  }
+  // Stopband: first grid point (from above) where the attenuation falls below As.
+  let is = -1;
+  for (let i = m.length - 1; i >= 0; i--) {
+    if (loss(m[i] as number) < attenuationDb - DB_SLACK) {
+      is = i;
+      break;
+    }
+  }
+  let stopW: number;
+  if (is < 0) stopW = w[0] as number;
+  else if (is === m.length - 1) stopW = 1e6; // never reaches As on the grid: far beyond any usable design
+  else {
+    let lo = w[is] as number;
+    let hi = w[is + 1] as number;
+    for (let k = 0; k < 80 && hi / lo - 1 > 1e-13; k++) {
+      const mid = Math.sqrt(lo * hi);
+      if (loss(magAt(zpk, mid)) < attenuationDb - DB_SLACK) lo = mid;
+      else hi = mid;
+    }
+    stopW = hi;
+  }
+  return { passW, stopW, peak };
+}
+
+/** The feasible interval of the transform's free parameter, in rad/s. */
+export interface FeasibleInterval {
+  /** Which parameter. */
+  readonly parameter: "natural-frequency" | "bandwidth";
+  /** Lower end, rad/s. */
+  readonly low: number;
+  /** Upper end, rad/s (below `low` when the prototype cannot meet the mask). */
+  readonly high: number;
+  /** Centre of the bandpass/bandstop transform, rad/s. */
+  readonly centre?: number;
+}
+
+/**
+ * The interval of the transform's free parameter in which the exact design
+ * meets the mask (see the module header for the formulas).
+ *
+ * @param spec - canonical spec (edges in Hz)
+ * @param edges - the prototype's W_p* and W_s*
+ * @returns the interval in rad/s
+ */
+export function feasibleInterval(spec: DesignSpec, edges: PrototypeEdges): FeasibleInterval {
+  const wp = spec.passbandHz.map((f) => TWO_PI * f);
+  const ws = spec.stopbandHz.map((f) => TWO_PI * f);
+  const { passW, stopW } = edges;
+  const wp1 = wp[0] as number;
+  const ws1 = ws[0] as number;
+  switch (spec.response) {
+    case "lowpass":
+      return { parameter: "natural-frequency", low: wp1 / passW, high: ws1 / stopW };
+    case "highpass":
+      return { parameter: "natural-frequency", low: stopW * ws1, high: passW * wp1 };
+    case "bandpass": {
+      const wp2 = wp[1] as number;
+      const w0 = Math.sqrt(wp1 * wp2);
+      const high = Math.min(...ws.map((x) => Math.abs(x * x - w0 * w0) / (x * stopW)));
+      return { parameter: "bandwidth", low: (wp2 - wp1) / passW, high, centre: w0 };
+    }
+    case "bandstop": {
+      const wp2 = wp[1] as number;
+      const w0 = Math.sqrt(wp1 * wp2);
+      const low = Math.max(...ws.map((x) => (stopW * Math.abs(w0 * w0 - x * x)) / x));
+      return { parameter: "bandwidth", low, high: passW * (wp2 - wp1), centre: w0 };
+    }
+  }
+}
+
+/** Log-width of an interval (negative when infeasible). */
+export function intervalWidth(iv: FeasibleInterval): number {
+  return Math.log(iv.high / iv.low);
+}
+
+/**
+ * The parameter value at a log position inside the interval (0 = low end,
+ * 1 = high end). For an empty interval (high < low) the same formula gives a
+ * point between the two, which balances the two shortfalls in frequency.
+ */
+export function placeInInterval(iv: FeasibleInterval, position: number): number {
+  return iv.low * (iv.high / iv.low) ** position;
+}
+
+/**
+ * Transform a normalised lowpass prototype to the spec's response with the
+ * free parameter set to `value` (rad/s).
+ *
+ * @param spec - canonical spec
+ * @param proto - normalised lowpass prototype
+ * @param iv - the feasible interval (for the bandpass/bandstop centre)
+ * @param value - natural frequency or bandwidth, rad/s
+ * @returns the transformed zpk in rad/s
+ */
+export function transformPrototype(spec: DesignSpec, proto: Zpk, iv: FeasibleInterval, value: number): Zpk {
+  switch (spec.response) {
+    case "lowpass":
+      return lowpassToLowpass(proto, { w0: value });
+    case "highpass":
+      return lowpassToHighpass(proto, { w0: value });
+    case "bandpass":
+      return lowpassToBandpass(proto, { w0: iv.centre as number, bandwidth: value });
+    case "bandstop":
+      return lowpassToBandstop(proto, { w0: iv.centre as number, bandwidth: value });
+  }
+}

@@ -1,0 +1,648 @@
+/**
+ * The filter specification: what an engineer asks for, in hertz and decibels,
+ * and its validation into one canonical internal form.
+ *
+ * Validation collects every problem it finds (with the dotted path of each
+ * field) and throws them together as one {@link SpecError}, so a user fixes a
+ * spec in one pass instead of one error at a time.
+ *
+ * Defaults that are rules of thumb rather than published values are marked
+ * "common practice, no source".
+ *
+ * @module
+ */
+import { SpecError, type Issue } from "../errors.ts";
+import type { OpAmpModel } from "../circuit/types.ts";
+import { FAMILY_NAMES, type FamilyName } from "../approx/index.ts";
+import { SERIES_NAMES, type SeriesName } from "../parts/index.ts";
+import { parseValue } from "../units/index.ts";
+import { getTopology, topologies } from "../topologies/index.ts";
+
+/** The four responses a filter can have. */
+export type ResponseType = "lowpass" | "highpass" | "bandpass" | "bandstop";
+
+/**
+ * How the family is chosen when the spec does not name one:
+ * - `fewest-stages`: the family that meets the mask with the fewest stages
+ *   (ties go to the candidate with the most room for part rounding);
+ * - `flattest-delay`: the family whose passband group delay varies least;
+ * - `monotonic`: the fewest stages among families with a monotonic passband
+ *   (Butterworth, Legendre, Bessel, Chebyshev II).
+ */
+export type FamilyPriority = "fewest-stages" | "flattest-delay" | "monotonic";
+
+/** Sign requirement on the passband gain. */
+export type Polarity = "non-inverting" | "inverting" | "either";
+
+/** A frequency, resistance or capacitance: a number in SI units, or a string in engineering notation (`"20k"`, `"4k7"`, `"100n"`). */
+export type Quantity = number | string;
+
+/** One band edge (lowpass, highpass) or a pair of edges (bandpass, bandstop), low edge first. */
+export type EdgeInput = Quantity | readonly [Quantity, Quantity];
+
+/** The passband of the spec. */
+export interface PassbandSpec {
+  /** Passband edge in Hz (lowpass, highpass) or the two edges `[low, high]` (bandpass, bandstop). */
+  readonly edgeHz: EdgeInput;
+  /** Largest loss allowed anywhere in the passband, in dB, relative to the passband's highest level (> 0). */
+  readonly maxLossDb: number;
+}
+
+/** The stopband of the spec. */
+export interface StopbandSpec {
+  /** Stopband edge in Hz (lowpass, highpass) or the two edges `[low, high]` (bandpass, bandstop). */
+  readonly edgeHz: EdgeInput;
+  /** Smallest attenuation allowed anywhere in the stopband, in dB, relative to the passband's highest level. */
+  readonly minAttenuationDb: number;
+}
+
+/** The passband gain: give `db` or `vPerV` (not both). */
+export interface GainSpec {
+  /** Passband gain in dB (the magnitude; use `polarity` for the sign). */
+  readonly db?: number;
+  /** Passband gain in V/V; a negative value asks for an inverting filter. */
+  readonly vPerV?: number;
+  /**
+   * Sign requirement.
+   * @defaultValue `"inverting"` when `vPerV` is negative, otherwise `"either"`
+   */
+  readonly polarity?: Polarity;
+  /**
+   * How far the as-built passband level may sit from the requested gain, in dB
+   * (common practice, no source).
+   * @defaultValue 0.25
+   */
+  readonly toleranceDb?: number;
+}
+
+/** Preferred-value series and value windows for the parts. */
+export interface PartsSpec {
+  /**
+   * Series for capacitors.
+   * @defaultValue `"E12"`
+   */
+  readonly capacitorSeries?: SeriesName;
+  /**
+   * Series for resistors.
+   * @defaultValue `"E96"`
+   */
+  readonly resistorSeries?: SeriesName;
+  /**
+   * Smallest resistor wanted, ohms (common practice, no source: below about 1 kΩ
+   * op-amp output current and distortion grow).
+   * @defaultValue 1000
+   */
+  readonly resistorMinOhm?: Quantity;
+  /**
+   * Largest resistor wanted, ohms (common practice, no source: above about
+   * 100 kΩ resistor noise and bias-current offsets grow).
+   * @defaultValue 100000
+   */
+  readonly resistorMaxOhm?: Quantity;
+  /**
+   * Smallest capacitor considered, farads (common practice, no source: below
+   * about 100 pF board and op-amp input capacitance matter).
+   * @defaultValue 1e-10
+   */
+  readonly capacitorMinF?: Quantity;
+  /**
+   * Largest capacitor considered, farads (common practice, no source: film
+   * capacitors above about 10 µF are large and costly).
+   * @defaultValue 1e-5
+   */
+  readonly capacitorMaxF?: Quantity;
+}
+
+/** A real op-amp described by its open-loop DC gain and gain-bandwidth product (single-pole model). */
+export interface OpAmpSpec {
+  /** Open-loop DC gain in V/V (e.g. 1e5 for 100 dB). */
+  readonly a0: number;
+  /** Gain-bandwidth product in Hz. */
+  readonly gbwHz: Quantity;
+}
+
+/**
+ * A filter specification as the engineer writes it.
+ *
+ * @example
+ * ```ts
+ * const spec: FilterSpec = {
+ *   response: "lowpass",
+ *   passband: { edgeHz: "2k", maxLossDb: 0.5 },
+ *   stopband: { edgeHz: "12k", minAttenuationDb: 60 },
+ * };
+ * ```
+ */
+export interface FilterSpec {
+  /** What the filter passes. */
+  readonly response: ResponseType;
+  /** Passband edge(s) and largest loss. */
+  readonly passband: PassbandSpec;
+  /** Stopband edge(s) and smallest attenuation. */
+  readonly stopband: StopbandSpec;
+  /**
+   * Passband gain.
+   * @defaultValue 0 dB (unity), either polarity
+   */
+  readonly gain?: GainSpec;
+  /**
+   * Approximation family, or `"auto"` to choose one by `priority`.
+   * @defaultValue `"auto"`
+   */
+  readonly family?: FamilyName | "auto";
+  /**
+   * What the automatic family choice optimises (ignored when a family is named).
+   * @defaultValue `"fewest-stages"`
+   */
+  readonly priority?: FamilyPriority;
+  /**
+   * Fixed prototype order (for bandpass and bandstop the circuit has twice as
+   * many poles). When absent, the minimum order that meets the mask is used.
+   */
+  readonly order?: number;
+  /**
+   * Topology: `"auto"`, one topology id for every stage, or one entry per stage
+   * (each an id or `"auto"`).
+   * @defaultValue `"auto"`
+   */
+  readonly topology?: string | readonly string[];
+  /**
+   * Part series and value windows.
+   * @defaultValue capacitors E12, resistors E96 within 1 kΩ-100 kΩ
+   */
+  readonly parts?: PartsSpec;
+  /**
+   * The op-amp used in every stage: `"ideal"`, or a single-pole model.
+   * @defaultValue `"ideal"`
+   */
+  readonly opamp?: "ideal" | OpAmpSpec;
+}
+
+/** The canonical, validated form of a {@link FilterSpec}: every default filled in, every value a number in SI units. */
+export interface DesignSpec {
+  /** What the filter passes. */
+  readonly response: ResponseType;
+  /** Passband edge(s) in Hz, ascending (one for lowpass/highpass, two for bandpass/bandstop). */
+  readonly passbandHz: readonly number[];
+  /** Stopband edge(s) in Hz, ascending. */
+  readonly stopbandHz: readonly number[];
+  /** Largest passband loss, dB. */
+  readonly maxLossDb: number;
+  /** Smallest stopband attenuation, dB. */
+  readonly minAttenuationDb: number;
+  /** Passband gain magnitude, V/V (> 0). */
+  readonly gain: number;
+  /** Sign requirement on the passband gain. */
+  readonly polarity: Polarity;
+  /** Allowed distance of the as-built passband level from `gain`, dB. */
+  readonly gainToleranceDb: number;
+  /** Named family or `"auto"`. */
+  readonly family: FamilyName | "auto";
+  /** Priority of the automatic family choice. */
+  readonly priority: FamilyPriority;
+  /** Fixed prototype order, or `null` for the minimum order. */
+  readonly order: number | null;
+  /** Topology for every stage (`"auto"` or an id), used where `stageTopologies` has no entry. */
+  readonly topology: string;
+  /** Per-stage topology choices (`"auto"` or an id); empty when one choice applies to all. */
+  readonly stageTopologies: readonly string[];
+  /** Capacitor series. */
+  readonly capacitorSeries: SeriesName;
+  /** Resistor series. */
+  readonly resistorSeries: SeriesName;
+  /** Resistor window, ohms. */
+  readonly resistorRange: { readonly min: number; readonly max: number };
+  /** Capacitor window, farads. */
+  readonly capacitorRange: { readonly min: number; readonly max: number };
+  /** Op-amp model for analysis. */
+  readonly opamp: OpAmpModel;
+}
+
+const RESPONSES: readonly ResponseType[] = ["lowpass", "highpass", "bandpass", "bandstop"];
+const PRIORITIES: readonly FamilyPriority[] = ["fewest-stages", "flattest-delay", "monotonic"];
+const POLARITIES: readonly Polarity[] = ["non-inverting", "inverting", "either"];
+/** Largest prototype order accepted. */
+export const MAX_SPEC_ORDER = 16;
+
+const TOP_KEYS = [
+  "response",
+  "passband",
+  "stopband",
+  "gain",
+  "family",
+  "priority",
+  "order",
+  "topology",
+  "parts",
+  "opamp",
+] as const;
+
+type Raw = Record<string, unknown>;
+
+function isObject(v: unknown): v is Raw {
+  return typeof v === "object" && v !== null && !Array.isArray(v);
+}
+
+function listOf(values: readonly string[]): string {
+  return values.map((v) => JSON.stringify(v)).join(", ");
+}
+
+/** Collects issues while reading a raw spec. */
+class Reader {
+  readonly issues: Issue[] = [];
+
+  add(path: string, message: string, received?: unknown): void {
+    this.issues.push(arguments.length >= 3 ? { path, message, received } : { path, message });
+  }
+
+  unknownKeys(obj: Raw, allowed: readonly string[], prefix: string): void {
+    for (const k of Object.keys(obj)) {
+      if (!allowed.includes(k)) {
+        this.add(`${prefix}${k}`, `unknown field; accepted fields here are ${listOf(allowed)}`, obj[k]);
+      }
+    }
+  }
+
+  /** A positive quantity given as a number or an engineering-notation string; `undefined` on error. */
+  quantity(path: string, value: unknown, unit: string): number | undefined {
+    if (typeof value === "number") {
+      if (!Number.isFinite(value) || value <= 0) {
+        this.add(path, `expected a finite number of ${unit} greater than zero`, value);
+        return undefined;
+      }
+      return value;
+    }
+    if (typeof value === "string") {
+      try {
+        return parseValue(value, { unit });
+      } catch (e) {
+        const why = e instanceof Error ? e.message : String(e);
+        this.add(path, `could not read ${JSON.stringify(value)} as ${unit} (${why})`, value);
+        return undefined;
+      }
+    }
+    this.add(path, `expected a number of ${unit} or a string such as "4k7"`, value);
+    return undefined;
+  }
+
+  number(
+    path: string,
+    value: unknown,
+    range: { min: number; max: number; exclusiveMin?: boolean },
+    what: string,
+  ): number | undefined {
+    if (typeof value !== "number" || !Number.isFinite(value)) {
+      this.add(path, `expected ${what} as a finite number`, value);
+      return undefined;
+    }
+    const lowOk = range.exclusiveMin === true ? value > range.min : value >= range.min;
+    if (!lowOk || value > range.max) {
+      const lo = range.exclusiveMin === true ? `greater than ${range.min}` : `at least ${range.min}`;
+      this.add(path, `expected ${what} ${lo} and at most ${range.max}`, value);
+      return undefined;
+    }
+    return value;
+  }
+
+  oneOf<T extends string>(path: string, value: unknown, allowed: readonly T[]): T | undefined {
+    if (typeof value !== "string" || !(allowed as readonly string[]).includes(value)) {
+      this.add(path, `expected one of ${listOf(allowed)}`, value);
+      return undefined;
+    }
+    return value as T;
+  }
+
+  edges(path: string, value: unknown, count: 1 | 2): number[] | undefined {
+    if (count === 1) {
+      if (Array.isArray(value)) {
+        this.add(path, "expected one edge frequency for this response, not a list", value);
+        return undefined;
+      }
+      const f = this.quantity(path, value, "Hz");
+      return f === undefined ? undefined : [f];
+    }
+    if (!Array.isArray(value) || value.length !== 2) {
+      this.add(path, "expected two edge frequencies [low, high] for this response", value);
+      return undefined;
+    }
+    const lo = this.quantity(`${path}.0`, value[0], "Hz");
+    const hi = this.quantity(`${path}.1`, value[1], "Hz");
+    if (lo === undefined || hi === undefined) return undefined;
+    if (!(lo < hi)) {
+      this.add(path, "the low edge must be below the high edge", value);
+      return undefined;
+    }
+    return [lo, hi];
+  }
+}
+
+/**
+ * Validate a filter specification and bring it to canonical form.
+ *
+ * Every problem is collected; if there is at least one, a single
+ * {@link SpecError} lists them all with their dotted paths.
+ *
+ * @param spec - the specification as written (from code or parsed JSON)
+ * @returns the canonical {@link DesignSpec} with every default filled in
+ * @throws {@link SpecError} listing every problem found
+ * @example
+ * ```ts
+ * const s = validateSpec({
+ *   response: "lowpass",
+ *   passband: { edgeHz: "2k", maxLossDb: 0.5 },
+ *   stopband: { edgeHz: 12000, minAttenuationDb: 60 },
+ * });
+ * s.passbandHz; //=> [2000]
+ * s.resistorSeries; //=> "E96"
+ * ```
+ */
+export function validateSpec(spec: unknown): DesignSpec {
+  const r = new Reader();
+  if (!isObject(spec)) {
+    throw new SpecError("validateSpec", [
+      { path: "", message: "expected a specification object", received: spec },
+    ]);
+  }
+  r.unknownKeys(spec, TOP_KEYS, "");
+
+  const response = r.oneOf("response", spec["response"], RESPONSES);
+  const edgeCount: 1 | 2 | undefined =
+    response === undefined ? undefined : response === "lowpass" || response === "highpass" ? 1 : 2;
+
+  let passbandHz: number[] | undefined;
+  let stopbandHz: number[] | undefined;
+  let maxLossDb: number | undefined;
+  let minAttenuationDb: number | undefined;
+
+  const pb = spec["passband"];
+  if (!isObject(pb)) {
+    r.add("passband", "expected an object { edgeHz, maxLossDb }", pb);
+  } else {
+    r.unknownKeys(pb, ["edgeHz", "maxLossDb"], "passband.");
+    if (edgeCount !== undefined) passbandHz = r.edges("passband.edgeHz", pb["edgeHz"], edgeCount);
+    maxLossDb = r.number("passband.maxLossDb", pb["maxLossDb"], { min: 0, max: 20, exclusiveMin: true }, "a loss in dB");
+  }
+  const sb = spec["stopband"];
+  if (!isObject(sb)) {
+    r.add("stopband", "expected an object { edgeHz, minAttenuationDb }", sb);
+  } else {
+    r.unknownKeys(sb, ["edgeHz", "minAttenuationDb"], "stopband.");
+    if (edgeCount !== undefined) stopbandHz = r.edges("stopband.edgeHz", sb["edgeHz"], edgeCount);
+    minAttenuationDb = r.number(
+      "stopband.minAttenuationDb",
+      sb["minAttenuationDb"],
+      { min: 0, max: 200, exclusiveMin: true },
+      "an attenuation in dB",
+    );
+  }
+  if (maxLossDb !== undefined && minAttenuationDb !== undefined && !(minAttenuationDb > maxLossDb)) {
+    r.add(
+      "stopband.minAttenuationDb",
+      `the stopband attenuation must exceed the passband loss (${maxLossDb} dB)`,
+      minAttenuationDb,
+    );
+  }
+  // Edge ordering per response.
+  if (response !== undefined && passbandHz !== undefined && stopbandHz !== undefined) {
+    const [p1, p2] = [passbandHz[0] as number, passbandHz[1] as number];
+    const [s1, s2] = [stopbandHz[0] as number, stopbandHz[1] as number];
+    if (response === "lowpass" && !(p1 < s1)) {
+      r.add("stopband.edgeHz", `a lowpass stopband edge must lie above the passband edge (${p1} Hz)`, s1);
+    } else if (response === "highpass" && !(s1 < p1)) {
+      r.add("stopband.edgeHz", `a highpass stopband edge must lie below the passband edge (${p1} Hz)`, s1);
+    } else if (response === "bandpass" && !(s1 < p1 && p2 < s2)) {
+      r.add(
+        "stopband.edgeHz",
+        `bandpass stopband edges must lie outside the passband edges (${p1} Hz, ${p2} Hz)`,
+        [s1, s2],
+      );
+    } else if (response === "bandstop" && !(p1 < s1 && s2 < p2)) {
+      r.add(
+        "stopband.edgeHz",
+        `bandstop stopband edges must lie inside the passband edges (${p1} Hz, ${p2} Hz)`,
+        [s1, s2],
+      );
+    }
+  }
+
+  // Gain.
+  let gain = 1;
+  let polarity: Polarity = "either";
+  let gainToleranceDb = 0.25;
+  const g = spec["gain"];
+  if (g !== undefined) {
+    if (!isObject(g)) {
+      r.add("gain", "expected an object { db } or { vPerV }", g);
+    } else {
+      r.unknownKeys(g, ["db", "vPerV", "polarity", "toleranceDb"], "gain.");
+      const hasDb = g["db"] !== undefined;
+      const hasVv = g["vPerV"] !== undefined;
+      if (hasDb && hasVv) r.add("gain", "give the gain as db or as vPerV, not both", g);
+      if (hasDb) {
+        const db = r.number("gain.db", g["db"], { min: -60, max: 80 }, "a gain in dB");
+        if (db !== undefined) gain = 10 ** (db / 20);
+      }
+      if (hasVv) {
+        const v = g["vPerV"];
+        if (typeof v !== "number" || !Number.isFinite(v) || v === 0) {
+          r.add("gain.vPerV", "expected a finite, non-zero gain in V/V (negative for inverting)", v);
+        } else if (Math.abs(v) < 1e-3 || Math.abs(v) > 1e4) {
+          r.add("gain.vPerV", "expected a gain magnitude from 0.001 to 10000 V/V", v);
+        } else {
+          gain = Math.abs(v);
+          if (v < 0) polarity = "inverting";
+        }
+      }
+      if (g["polarity"] !== undefined) {
+        const p = r.oneOf("gain.polarity", g["polarity"], POLARITIES);
+        if (p !== undefined) {
+          if (hasVv && typeof g["vPerV"] === "number" && g["vPerV"] < 0 && p === "non-inverting") {
+            r.add("gain.polarity", "a negative vPerV asks for an inverting filter", p);
+          } else polarity = p;
+        }
+      }
+      if (g["toleranceDb"] !== undefined) {
+        const t = r.number("gain.toleranceDb", g["toleranceDb"], { min: 0, max: 20, exclusiveMin: true }, "a tolerance in dB");
+        if (t !== undefined) gainToleranceDb = t;
+      }
+    }
+  }
+
+  // Family, priority, order.
+  let family: FamilyName | "auto" = "auto";
+  if (spec["family"] !== undefined) {
+    const f = r.oneOf("family", spec["family"], [...FAMILY_NAMES, "auto"] as const);
+    if (f !== undefined) family = f;
+  }
+  let priority: FamilyPriority = "fewest-stages";
+  if (spec["priority"] !== undefined) {
+    const p = r.oneOf("priority", spec["priority"], PRIORITIES);
+    if (p !== undefined) priority = p;
+  }
+  let order: number | null = null;
+  if (spec["order"] !== undefined) {
+    const o = spec["order"];
+    if (typeof o !== "number" || !Number.isInteger(o) || o < 1 || o > MAX_SPEC_ORDER) {
+      r.add("order", `expected an integer from 1 to ${MAX_SPEC_ORDER}`, o);
+    } else order = o;
+  }
+
+  // Topology.
+  let topology = "auto";
+  let stageTopologies: string[] = [];
+  const t = spec["topology"];
+  const ids = topologies.map((x) => x.id);
+  const checkId = (path: string, id: unknown): string | undefined => {
+    if (id === "auto") return "auto";
+    if (typeof id !== "string" || getTopologySafe(id) === undefined) {
+      r.add(path, `expected "auto" or a topology id: ${listOf(ids)}`, id);
+      return undefined;
+    }
+    return id;
+  };
+  if (t !== undefined) {
+    if (Array.isArray(t)) {
+      if (t.length === 0) r.add("topology", "expected at least one entry (or a single id, or \"auto\")", t);
+      const out: string[] = [];
+      t.forEach((id, i) => {
+        const v = checkId(`topology.${i}`, id);
+        if (v !== undefined) out.push(v);
+      });
+      stageTopologies = out;
+    } else {
+      const v = checkId("topology", t);
+      if (v !== undefined) topology = v;
+    }
+  }
+
+  // Parts.
+  let capacitorSeries: SeriesName = "E12";
+  let resistorSeries: SeriesName = "E96";
+  let rMin = 1e3;
+  let rMax = 1e5;
+  let cMin = 1e-10;
+  let cMax = 1e-5;
+  const parts = spec["parts"];
+  if (parts !== undefined) {
+    if (!isObject(parts)) {
+      r.add("parts", "expected an object", parts);
+    } else {
+      r.unknownKeys(
+        parts,
+        ["capacitorSeries", "resistorSeries", "resistorMinOhm", "resistorMaxOhm", "capacitorMinF", "capacitorMaxF"],
+        "parts.",
+      );
+      if (parts["capacitorSeries"] !== undefined) {
+        const s = r.oneOf("parts.capacitorSeries", parts["capacitorSeries"], SERIES_NAMES);
+        if (s !== undefined) capacitorSeries = s;
+      }
+      if (parts["resistorSeries"] !== undefined) {
+        const s = r.oneOf("parts.resistorSeries", parts["resistorSeries"], SERIES_NAMES);
+        if (s !== undefined) resistorSeries = s;
+      }
+      const q = (key: string, unit: string, fallback: number): number => {
+        if (parts[key] === undefined) return fallback;
+        return r.quantity(`parts.${key}`, parts[key], unit) ?? fallback;
+      };
+      rMin = q("resistorMinOhm", "Ω", rMin);
+      rMax = q("resistorMaxOhm", "Ω", rMax);
+      cMin = q("capacitorMinF", "F", cMin);
+      cMax = q("capacitorMaxF", "F", cMax);
+      if (!(rMin * 2 <= rMax)) {
+        r.add("parts.resistorMaxOhm", `the resistor window must span at least a factor of 2 (minimum is ${rMin} Ω)`, rMax);
+      }
+      if (!(cMin * 2 <= cMax)) {
+        r.add("parts.capacitorMaxF", `the capacitor window must span at least a factor of 2 (minimum is ${cMin} F)`, cMax);
+      }
+    }
+  }
+
+  // Op-amp.
+  let opamp: OpAmpModel = { kind: "ideal" };
+  const oa = spec["opamp"];
+  if (oa !== undefined && oa !== "ideal") {
+    if (!isObject(oa)) {
+      r.add("opamp", 'expected "ideal" or an object { a0, gbwHz }', oa);
+    } else {
+      r.unknownKeys(oa, ["a0", "gbwHz"], "opamp.");
+      const a0 = r.number("opamp.a0", oa["a0"], { min: 10, max: 1e9 }, "an open-loop gain in V/V");
+      const gbw = r.quantity("opamp.gbwHz", oa["gbwHz"], "Hz");
+      if (a0 !== undefined && gbw !== undefined) opamp = { kind: "single-pole", a0, gbwHz: gbw };
+    }
+  }
+
+  if (r.issues.length > 0) throw new SpecError("validateSpec", r.issues);
+
+  return Object.freeze({
+    response: response as ResponseType,
+    passbandHz: Object.freeze([...(passbandHz as number[])]),
+    stopbandHz: Object.freeze([...(stopbandHz as number[])]),
+    maxLossDb: maxLossDb as number,
+    minAttenuationDb: minAttenuationDb as number,
+    gain,
+    polarity,
+    gainToleranceDb,
+    family,
+    priority,
+    order,
+    topology,
+    stageTopologies: Object.freeze(stageTopologies),
+    capacitorSeries,
+    resistorSeries,
+    resistorRange: Object.freeze({ min: rMin, max: rMax }),
+    capacitorRange: Object.freeze({ min: cMin, max: cMax }),
+    opamp: Object.freeze({ ...opamp }),
+  });
+}
+
+function getTopologySafe(id: string): unknown {
+  try {
+    return getTopology(id);
+  } catch {
+    return undefined;
+  }
+}
+
+/**
+ * Turn a canonical {@link DesignSpec} back into the {@link FilterSpec} a user
+ * would write (numbers only), so a result can be re-designed or stored.
+ *
+ * @param spec - a validated spec
+ * @returns an equivalent {@link FilterSpec} that {@link validateSpec} maps back to `spec`
+ * @throws never
+ * @example
+ * ```ts
+ * specToInput(validateSpec({ response: "lowpass", passband: { edgeHz: 1000, maxLossDb: 1 },
+ *   stopband: { edgeHz: 5000, minAttenuationDb: 40 } })).passband; //=> { edgeHz: 1000, maxLossDb: 1 }
+ * ```
+ */
+export function specToInput(spec: DesignSpec): FilterSpec {
+  const edge = (e: readonly number[]): EdgeInput =>
+    e.length === 1 ? (e[0] as number) : ([e[0] as number, e[1] as number] as const);
+  const gain: GainSpec = {
+    vPerV: spec.polarity === "inverting" ? -spec.gain : spec.gain,
+    polarity: spec.polarity,
+    toleranceDb: spec.gainToleranceDb,
+  };
+  const opamp: FilterSpec["opamp"] =
+    spec.opamp.kind === "ideal" ? "ideal" : { a0: spec.opamp.a0, gbwHz: spec.opamp.gbwHz };
+  return {
+    response: spec.response,
+    passband: { edgeHz: edge(spec.passbandHz), maxLossDb: spec.maxLossDb },
+    stopband: { edgeHz: edge(spec.stopbandHz), minAttenuationDb: spec.minAttenuationDb },
+    gain,
+    family: spec.family,
+    priority: spec.priority,
+    ...(spec.order === null ? {} : { order: spec.order }),
+    topology: spec.stageTopologies.length > 0 ? spec.stageTopologies : spec.topology,
+    parts: {
+      capacitorSeries: spec.capacitorSeries,
+      resistorSeries: spec.resistorSeries,
+      resistorMinOhm: spec.resistorRange.min,
+      resistorMaxOhm: spec.resistorRange.max,
+      capacitorMinF: spec.capacitorRange.min,
+      capacitorMaxF: spec.capacitorRange.max,
+    },
+    opamp,
+  };
+}

@@ -1,0 +1,339 @@
+/**
+ * From second-order sections to stage targets: what each stage realises, the
+ * gain each stage carries, and the topology that builds it.
+ *
+ * Gain distribution follows the equal-peak rule of dynamic-range scaling: the
+ * gain of stage i is set so that the largest magnitude over frequency at every
+ * stage output equals the filter's passband level, so no internal node peaks
+ * above the output and none sits needlessly low (L. T. Bruton, "RC-Active
+ * Circuits: Theory and Design", 1980, sec. 9.6 on dynamic-range optimisation;
+ * the idea in A. S. Sedra and P. O. Brackett, "Filter Theory and Design: Active
+ * and Passive", 1978, ch. 11). Stages whose topology fixes the gain take the
+ * nearest realisable gain and the remainder moves to later stages. Peaks are
+ * taken on a dense log grid (160 points per decade plus each section's pole
+ * frequency).
+ *
+ * Topology choice is rule-based (common practice, no source): Sallen-Key
+ * unity gain for low-Q lowpass/highpass at unity gain, Sallen-Key with gain
+ * for low Q above unity, multiple feedback for moderate Q, inverting stages or
+ * attenuation below unity, and multi-amplifier state-variable/Tow-Thomas
+ * stages for high Q and for sections with finite zeros.
+ *
+ * @module
+ */
+import type { Section, SectionCascade } from "../tf/types.ts";
+import { frequencyResponse, logGrid } from "../tf/index.ts";
+import type { StageKind, StageTarget, Topology } from "../topologies/types.ts";
+import { getTopology, topologiesFor } from "../topologies/index.ts";
+import { SpecError, UnrealisableError } from "../errors.ts";
+import type { DesignSpec } from "./spec.ts";
+
+const TWO_PI = 2 * Math.PI;
+
+/** One section of the target, described for the topology layer. */
+export interface SectionInfo {
+  /** The section itself (rad/s). */
+  readonly section: Section;
+  /** Stage kind. */
+  readonly kind: StageKind;
+  /** Order. */
+  readonly order: 1 | 2;
+  /** Pole frequency, Hz. */
+  readonly f0Hz: number;
+  /** Pole Q (second order). */
+  readonly q?: number;
+  /** Zero frequency, Hz (notch kinds). */
+  readonly fzHz?: number;
+  /** The section's own gain at its reference frequency (signed). */
+  readonly refGain: number;
+  /** |section / refGain| on the distribution grid. */
+  readonly unitMag: Float64Array;
+}
+
+/** A stage target with its topology. */
+export interface StagePlan {
+  /** Section it realises. */
+  readonly info: SectionInfo;
+  /** Topology. */
+  readonly topology: Topology;
+  /** The target handed to the topology (gain signed). */
+  readonly target: StageTarget;
+  /** Why this topology. */
+  readonly reason: string;
+  /** Whether the topology was chosen automatically. */
+  readonly automatic: boolean;
+}
+
+/** Map a tf section to a stage kind and its reference gain. */
+function describeSection(s: Section): { kind: StageKind; refGain: number; fz?: number } {
+  const [b2, b1, b0] = s.num;
+  if (s.order === 1) {
+    const w0 = s.w0;
+    if (s.kind === "lowpass") return { kind: "lowpass", refGain: b0 / w0 };
+    if (s.kind === "highpass") return { kind: "highpass", refGain: b1 };
+    if (s.kind === "allpass") return { kind: "allpass", refGain: b1 };
+    throw new UnrealisableError({
+      fn: "designFilter",
+      path: "sections",
+      message: "a first-order section with a general numerator has no topology; this is a bug in the section split",
+    });
+  }
+  const w0 = s.w0;
+  switch (s.kind) {
+    case "lowpass":
+      return { kind: "lowpass", refGain: b0 / (w0 * w0) };
+    case "highpass":
+      return { kind: "highpass", refGain: b2 };
+    case "bandpass":
+      return { kind: "bandpass", refGain: (b1 * s.q) / w0 };
+    case "allpass":
+      return { kind: "allpass", refGain: b2 };
+    case "notch": {
+      const wz = s.wz ?? Math.sqrt(Math.abs(b0 / b2));
+      if (s.notchType === "lowpass-notch") return { kind: "lowpass-notch", refGain: b0 / (w0 * w0), fz: wz };
+      if (s.notchType === "highpass-notch") return { kind: "highpass-notch", refGain: b2, fz: wz };
+      return { kind: "notch", refGain: b2, fz: wz };
+    }
+    default:
+      throw new UnrealisableError({
+        fn: "designFilter",
+        path: "sections",
+        message: "a second-order section with a general numerator has no topology; this is a bug in the section split",
+      });
+  }
+}
+
+/** The dense grid (rad/s) used to find peaks of partial cascades. */
+export function peakGrid(cascade: SectionCascade): Float64Array {
+  const ws = cascade.sections.map((s) => s.w0);
+  const lo = Math.min(...ws) / 100;
+  const hi = Math.max(...ws) * 100;
+  const n = Math.ceil(Math.log10(hi / lo) * 160) + 1;
+  const g = logGrid(lo, hi, n);
+  const all = [...g, ...ws].sort((a, b) => a - b);
+  return Float64Array.from(all);
+}
+
+/**
+ * Describe the sections of a cascade on a grid.
+ *
+ * @param cascade - target sections (rad/s)
+ * @param grid - angular frequencies for peak finding
+ * @returns one record per section
+ */
+export function describeSections(cascade: SectionCascade, grid: Float64Array): SectionInfo[] {
+  return cascade.sections.map((section) => {
+    const d = describeSection(section);
+    const h = frequencyResponse({ sections: [section], gain: 1 / d.refGain }, grid);
+    const unitMag = new Float64Array(grid.length);
+    for (let i = 0; i < grid.length; i++) unitMag[i] = Math.hypot(h.re[i] as number, h.im[i] as number);
+    return {
+      section,
+      kind: d.kind,
+      order: section.order,
+      f0Hz: section.w0 / TWO_PI,
+      ...(section.order === 2 ? { q: section.q } : {}),
+      ...(d.fz === undefined ? {} : { fzHz: d.fz / TWO_PI }),
+      refGain: d.refGain,
+      unitMag,
+    };
+  });
+}
+
+function maxOf(a: Float64Array): number {
+  let m = 0;
+  for (const x of a) if (x > m) m = x;
+  return m;
+}
+
+type TopologyClass = "sk-unity" | "sk-equal" | "sk-gain" | "mfb" | "multi" | "first" | "other";
+
+function classify(t: Topology): TopologyClass {
+  const id = t.id;
+  if (t.order === 1) return "first";
+  if (t.opampCount >= 2) return "multi";
+  if (id.includes("sallen-key")) {
+    if (id.includes("unity")) return "sk-unity";
+    if (id.includes("equal")) return "sk-equal";
+    return "sk-gain";
+  }
+  if (id.includes("multiple-feedback") || id.includes("mfb")) return "mfb";
+  return "other";
+}
+
+function baseTarget(info: SectionInfo, gain: number): StageTarget {
+  return {
+    order: info.order,
+    kind: info.kind,
+    f0Hz: info.f0Hz,
+    ...(info.q === undefined ? {} : { q: info.q }),
+    ...(info.fzHz === undefined ? {} : { fzHz: info.fzHz }),
+    gain,
+  };
+}
+
+/** The gain magnitude a topology realises for a stage closest to the wish, or null when it cannot realise the stage. */
+function realisableGain(t: Topology, info: SectionInfo, wish: number): number | null {
+  const sign = t.inverting ? -1 : 1;
+  const tries = [wish, 1];
+  if (info.q !== undefined) tries.push(3 - 1 / info.q, 2);
+  for (const g of tries) {
+    if (!(g > 0) || !Number.isFinite(g)) continue;
+    try {
+      if (t.check(baseTarget(info, sign * g), {}) === null) return g;
+    } catch {
+      // not realisable with this gain
+    }
+  }
+  return null;
+}
+
+function score(t: Topology, info: SectionInfo, wish: number, got: number): number {
+  const q = info.q ?? 0.5;
+  let s = t.opampCount;
+  switch (classify(t)) {
+    case "sk-unity":
+      s += q > 1 ? 2 * (q - 1) : 0;
+      break;
+    case "sk-equal":
+      s += 0.5 + (q > 1 ? 1.5 * (q - 1) : 0);
+      break;
+    case "sk-gain":
+      s += 0.2 + (q > 1 ? 1.5 * (q - 1) : 0);
+      break;
+    case "mfb":
+      s += 0.3 + (info.kind === "bandpass" ? (q > 10 ? 0.5 * (q - 10) : 0) : q > 8 ? 0.5 * (q - 8) : 0);
+      break;
+    case "first":
+      s += t.inverting ? 0.3 : 0;
+      break;
+    default:
+      s += 0.1;
+  }
+  s += 0.02 * t.componentNames.length;
+  s += 2 * Math.abs(Math.log(got / wish));
+  return s;
+}
+
+function describeReason(t: Topology, info: SectionInfo, automatic: boolean, got: number, wish: number): string {
+  if (!automatic) return "named in the spec";
+  const q = info.q === undefined ? "" : `Q ${info.q.toFixed(3)}, `;
+  const g = Math.abs(got / wish - 1) > 1e-9 ? ` (gain fixed at ${got.toPrecision(4)} instead of ${wish.toPrecision(4)})` : "";
+  const why: Record<TopologyClass, string> = {
+    "sk-unity": "low Q at unity gain: fewest parts and one op-amp",
+    "sk-equal": "equal-component stage: equal parts, gain set by Q",
+    "sk-gain": "low Q with gain above unity: non-inverting, one op-amp",
+    mfb: "moderate Q or gain below unity: one op-amp, low sensitivity to the op-amp",
+    multi: "high Q or finite zeros: a multi-amplifier stage with independent f0 and Q",
+    first: "first-order section",
+    other: "best-scoring realisable topology",
+  };
+  return `${q}${info.kind}: ${why[classify(t)]}${g}`;
+}
+
+/** Options of {@link planStages}. */
+export interface PlanOptions {
+  /** Per-stage forced topology id (`"auto"` where free). */
+  readonly forced: readonly string[];
+}
+
+interface Assignment {
+  readonly plans: StagePlan[];
+  readonly score: number;
+  readonly negatives: number;
+}
+
+function assign(spec: DesignSpec, infos: readonly SectionInfo[], forced: readonly string[]): Assignment | string {
+  const n = infos.length;
+  // Peaks of the unit partial cascades.
+  const partial = new Float64Array((infos[0] as SectionInfo).unitMag.length).fill(1);
+  const peaks: number[] = [];
+  for (const info of infos) {
+    for (let i = 0; i < partial.length; i++) partial[i] = (partial[i] as number) * (info.unitMag[i] as number);
+    peaks.push(maxOf(partial));
+  }
+  const total = spec.gain / (peaks[n - 1] as number);
+  const plans: StagePlan[] = [];
+  let product = 1;
+  let sum = 0;
+  let negatives = 0;
+  for (let i = 0; i < n; i++) {
+    const info = infos[i] as SectionInfo;
+    const last = i === n - 1;
+    const wish = last ? total / product : spec.gain / (peaks[i] as number) / product;
+    const choice = forced[i] ?? "auto";
+    let best: { t: Topology; got: number; s: number } | null = null;
+    const pool = choice === "auto" ? topologiesFor({ kind: info.kind, order: info.order }) : [getTopology(choice)];
+    for (const t of pool) {
+      if (!t.kinds.includes(info.kind) || t.order !== info.order) continue;
+      const got = realisableGain(t, info, wish);
+      if (got === null) continue;
+      // The last stage must carry the remaining gain exactly when it can.
+      const s = score(t, info, wish, got) + (last ? 4 * Math.abs(Math.log(got / wish)) : 0);
+      if (best === null || s < best.s) best = { t, got, s };
+    }
+    if (best === null) {
+      return choice === "auto"
+        ? `no topology in the registry realises a ${info.order === 2 ? "second" : "first"}-order ${info.kind} stage (f0 ${info.f0Hz.toPrecision(4)} Hz${info.q === undefined ? "" : `, Q ${info.q.toPrecision(4)}`})`
+        : `topology "${choice}" cannot realise stage ${i + 1}, a ${info.kind} section (f0 ${info.f0Hz.toPrecision(4)} Hz${info.q === undefined ? "" : `, Q ${info.q.toPrecision(4)}`})`;
+    }
+    const sign = best.t.inverting ? -1 : 1;
+    if (best.t.inverting) negatives++;
+    product *= best.got;
+    sum += best.s;
+    plans.push({
+      info,
+      topology: best.t,
+      target: baseTarget(info, sign * best.got),
+      reason: describeReason(best.t, info, choice === "auto", best.got, wish),
+      automatic: choice === "auto",
+    });
+  }
+  return { plans, score: sum, negatives };
+}
+
+/**
+ * Choose a topology and a gain for every section.
+ *
+ * @param spec - canonical spec (gain, polarity)
+ * @param infos - sections in cascade order
+ * @param options - forced topologies
+ * @returns the plans and whether the polarity requirement could be met
+ * @throws {@link SpecError} when a named topology cannot realise its stage
+ * @throws {@link UnrealisableError} when no topology realises a stage
+ */
+export function planStages(
+  spec: DesignSpec,
+  infos: readonly SectionInfo[],
+  options: PlanOptions,
+): { readonly plans: readonly StagePlan[]; readonly polarityOk: boolean } {
+  const first = assign(spec, infos, options.forced);
+  if (typeof first === "string") {
+    const forcedAny = options.forced.some((f) => f !== "auto");
+    if (forcedAny) throw new SpecError("designFilter", [{ path: "topology", message: first }]);
+    throw new UnrealisableError({ fn: "designFilter", path: "topology", message: first });
+  }
+  const wantNegative = spec.polarity === "inverting";
+  const ok = (a: Assignment): boolean =>
+    spec.polarity === "either" || (a.negatives % 2 === 1) === wantNegative;
+  if (ok(first)) return { plans: first.plans, polarityOk: true };
+  // Flip one automatically chosen stage to a topology of the other polarity.
+  let best: Assignment | null = null;
+  for (let i = 0; i < infos.length; i++) {
+    if ((options.forced[i] ?? "auto") !== "auto") continue;
+    const info = infos[i] as SectionInfo;
+    const current = (first.plans[i] as StagePlan).topology;
+    for (const t of topologiesFor({ kind: info.kind, order: info.order })) {
+      if (t.inverting === current.inverting) continue;
+      const forced = infos.map((_, j) => (j === i ? t.id : (options.forced[j] ?? "auto")));
+      const a = assign(spec, infos, forced);
+      if (typeof a === "string" || !ok(a)) continue;
+      // Keep the flipped stage marked as automatic.
+      const plans = a.plans.map((p, j) => (j === i ? { ...p, automatic: true, reason: `${describeReason(p.topology, p.info, true, Math.abs(p.target.gain), Math.abs(p.target.gain))}; chosen for the requested polarity` } : p));
+      const cand = { ...a, plans };
+      if (best === null || cand.score < best.score) best = cand;
+    }
+  }
+  if (best !== null) return { plans: best.plans, polarityOk: true };
+  return { plans: first.plans, polarityOk: false };
+}

@@ -1,0 +1,224 @@
+/**
+ * The plain, readonly data a design returns: the chosen family and order, the
+ * stages with their parts, the as-built verification against the mask, the
+ * warnings and the actions the pipeline took.
+ *
+ * Everything here is JSON-safe (numbers, strings, plain arrays and objects),
+ * so a result can be stored and read back (see the report layer).
+ *
+ * @module
+ */
+import type { FamilyName } from "../approx/index.ts";
+import type { StageKind } from "../topologies/types.ts";
+import type { DesignSpec, FamilyPriority } from "./spec.ts";
+
+/** The figures that describe one stage: pole frequency, Q, zero frequency and gain. */
+export interface StageFigureSet {
+  /** Pole frequency in Hz. */
+  readonly f0Hz: number;
+  /** Pole Q (absent for a first-order stage). */
+  readonly q?: number;
+  /** Zero frequency in Hz (notch kinds only). */
+  readonly fzHz?: number;
+  /** Gain at the stage's reference frequency, V/V, sign included. */
+  readonly gain: number;
+}
+
+/** Relative errors of the as-built figures against the target (0.01 = 1 %). */
+export interface StageErrors {
+  /** |f0 as built / f0 target - 1|. */
+  readonly f0: number;
+  /** |Q as built / Q target - 1| (0 for first order). */
+  readonly q: number;
+  /** |fz as built / fz target - 1| (0 when no zero). */
+  readonly fz: number;
+  /** |gain as built / gain target - 1|. */
+  readonly gain: number;
+}
+
+/** One stage of the cascade as it will be built. */
+export interface DesignStage {
+  /** Position in the cascade, from 1 (driven by the filter input). */
+  readonly index: number;
+  /** Topology id (see the topology registry). */
+  readonly topology: string;
+  /** Topology's human-readable name. */
+  readonly topologyName: string;
+  /** Why this topology was chosen. */
+  readonly topologyReason: string;
+  /** What the stage realises. */
+  readonly kind: StageKind;
+  /** Stage order (1 or 2). */
+  readonly order: 1 | 2;
+  /** Component values in SI units keyed by reference designator, unique across the cascade (`R1`, `C3`, ...). */
+  readonly components: Readonly<Record<string, number>>;
+  /** The topology's own name for each designator (`{ R3: "R1" }`), for reading its schematic. */
+  readonly localNames: Readonly<Record<string, string>>;
+  /** Op-amp designators used by the stage (`U1`, ...). */
+  readonly opamps: readonly string[];
+  /** What the stage should realise. */
+  readonly target: StageFigureSet;
+  /** What the stage realises with the preferred values on the board (ideal op-amp). */
+  readonly asBuilt: StageFigureSet;
+  /** Relative errors of `asBuilt` against `target`. */
+  readonly errors: StageErrors;
+  /** Relative errors had each part been rounded to its nearest preferred value on its own (before joint re-tuning). */
+  readonly plainSnapErrors: StageErrors;
+  /** Largest gain from the filter input to this stage's output over all frequencies, V/V (partial cascade, as built). */
+  readonly peakGain: number;
+  /** Frequency of that peak, Hz. */
+  readonly peakHz: number;
+  /** Gain-bandwidth product (Hz) the stage's op-amp needs for about 1 % accuracy of f0 and Q. */
+  readonly gbwDemandHz: number;
+}
+
+/** Why the family was chosen. */
+export interface FamilyCandidate {
+  /** The family. */
+  readonly family: FamilyName;
+  /** Smallest prototype order meeting the mask, or `null` when none up to the limit does. */
+  readonly order: number | null;
+  /** Number of stages that order needs. */
+  readonly stages: number | null;
+  /** Passband group-delay variation (max/min - 1) of that design, when computed. */
+  readonly delayVariation?: number;
+  /** Whether the family's passband is monotonic. */
+  readonly monotonic: boolean;
+}
+
+/** How the family was chosen. */
+export interface FamilyChoice {
+  /** Whether the pipeline chose (true) or the spec named it (false). */
+  readonly automatic: boolean;
+  /** The priority the automatic choice followed. */
+  readonly priority: FamilyPriority | null;
+  /** Every candidate compared (empty when the family was named). */
+  readonly candidates: readonly FamilyCandidate[];
+  /** One or two sentences saying why. */
+  readonly reason: string;
+}
+
+/**
+ * Where the design sits inside the freedom the minimum order leaves: the
+ * interval of the free parameter (the lowpass/highpass natural frequency, or
+ * the bandpass/bandstop bandwidth) within which the ideal design meets the mask.
+ */
+export interface Placement {
+  /** Which parameter was placed. */
+  readonly parameter: "natural-frequency" | "bandwidth";
+  /** Lower end of the feasible interval, Hz (above `highHz` when the order is too low). */
+  readonly lowHz: number;
+  /** Upper end of the feasible interval, Hz. */
+  readonly highHz: number;
+  /** The value used, Hz. */
+  readonly chosenHz: number;
+  /** Position inside the interval on a log scale (0 = low end, 0.5 = geometric middle). */
+  readonly position: number;
+  /** Centre frequency of the bandpass/bandstop transform, Hz (absent for lowpass/highpass). */
+  readonly centreHz?: number;
+  /** Passband ripple the prototype was designed with (Chebyshev I, elliptic), dB. */
+  readonly designRippleDb?: number;
+  /** Stopband attenuation the prototype was designed with (Chebyshev II, elliptic), dB. */
+  readonly designAttenuationDb?: number;
+}
+
+/** A point of the as-built response. */
+export interface ResponseCurve {
+  /** Frequencies in Hz (log-spaced). */
+  readonly freqHz: readonly number[];
+  /** Magnitude in dB. */
+  readonly magnitudeDb: readonly number[];
+  /** Phase in degrees, unwrapped. */
+  readonly phaseDeg: readonly number[];
+  /** Group delay in seconds. */
+  readonly groupDelayS: readonly number[];
+}
+
+/** The as-built circuit checked against the spec mask. */
+export interface Verification {
+  /** Whether every margin is at least zero. */
+  readonly meetsSpec: boolean;
+  /** The op-amp model the check used. */
+  readonly opamp: DesignSpec["opamp"];
+  /** Largest passband loss below the passband's highest level, dB. */
+  readonly passbandLossDb: number;
+  /** Where that worst loss occurs, Hz. */
+  readonly passbandWorstHz: number;
+  /** Spec's largest loss minus the as-built loss, dB (negative: fails). */
+  readonly passbandMarginDb: number;
+  /** Smallest stopband attenuation below the passband's highest level, dB. */
+  readonly stopbandAttenuationDb: number;
+  /** Where that worst attenuation occurs, Hz. */
+  readonly stopbandWorstHz: number;
+  /** As-built attenuation minus the spec's smallest attenuation, dB (negative: fails). */
+  readonly stopbandMarginDb: number;
+  /** As-built passband level (its highest point), dB. */
+  readonly gainDb: number;
+  /** Requested passband gain, dB. */
+  readonly targetGainDb: number;
+  /** `gainDb - targetGainDb`. */
+  readonly gainErrorDb: number;
+  /** Gain tolerance minus |gain error|, dB (negative: fails). */
+  readonly gainMarginDb: number;
+  /** Sign of the as-built passband gain. */
+  readonly polarity: "inverting" | "non-inverting";
+  /** Whether the polarity matches the spec's requirement. */
+  readonly polarityOk: boolean;
+  /** The smallest of the three margins, dB. */
+  readonly marginDb: number;
+  /** The same margins for the exact (unrounded) design, ideal op-amp: what rounding had to work with. */
+  readonly idealMarginDb: number;
+  /** The as-built response on 256 log-spaced points spanning the mask. */
+  readonly curve: ResponseCurve;
+}
+
+/** A warning for the builder. */
+export interface DesignWarning {
+  /** Stable code. */
+  readonly code:
+    | "resistor-out-of-range"
+    | "capacitor-out-of-range"
+    | "large-capacitor-ratio"
+    | "insufficient-gbw"
+    | "polarity"
+    | "gain-not-distributed"
+    | "spec-not-met";
+  /** Stage index (from 1), when the warning is about one stage. */
+  readonly stage?: number;
+  /** What is wrong and what to do about it. */
+  readonly message: string;
+}
+
+/** Something the pipeline did to reach the result. */
+export interface DesignAction {
+  /** Stable code. */
+  readonly code: "placed-in-slack" | "re-tuned-to-mask" | "moved-placement" | "raised-order" | "tightened-prototype";
+  /** What it did and why. */
+  readonly message: string;
+}
+
+/** The result of {@link designFilter}: readonly plain data. */
+export interface DesignResult {
+  /** The canonical spec the design answers. */
+  readonly spec: DesignSpec;
+  /** The approximation family used. */
+  readonly family: FamilyName;
+  /** How the family was chosen. */
+  readonly familyChoice: FamilyChoice;
+  /** Prototype order (the circuit has twice as many poles for bandpass and bandstop). */
+  readonly order: number;
+  /** Number of poles of the whole filter. */
+  readonly filterOrder: number;
+  /** Smallest order meeting the mask before rounding (the design may use more after raising it). */
+  readonly minimumOrder: number;
+  /** Where the design sits inside the slack of the mask. */
+  readonly placement: Placement;
+  /** The stages, in cascade order from the input. */
+  readonly stages: readonly DesignStage[];
+  /** As-built verification against the mask. */
+  readonly verification: Verification;
+  /** Warnings for the builder. */
+  readonly warnings: readonly DesignWarning[];
+  /** What the pipeline did to reach this result. */
+  readonly actions: readonly DesignAction[];
+}

@@ -1,0 +1,10 @@
+/**
+ * The report layer: SPICE netlist, bill of materials, versioned JSON,
+ * Markdown summary and SVG plots of a design. Presentation only.
+ *
+ * @module
+ */
+export { toSpiceNetlist, type SpiceNetlistOptions } from "./spice.ts";
+export { toBomCsv, bomLines, type BomLine } from "./bom.ts";
+export { toJson, fromJson, DESIGN_FORMAT_VERSION } from "./json.ts";
+export { toMarkdown, DESIGN_CAUTIONS } from "./markdown.ts";

@@ -1,0 +1,109 @@
+/**
+ * A Markdown design summary: what was asked, what was chosen and why, the
+ * stages and their parts, the as-built check against the mask, warnings, the
+ * steps the pipeline took, and the cautions that apply to building it.
+ *
+ * @module
+ */
+import { formatValue } from "../units/index.ts";
+import type { DesignResult } from "../design/index.ts";
+import { bomLines } from "./bom.ts";
+
+const f3 = (x: number): string => formatValue(x, { digits: 4, unit: "Hz" });
+const n4 = (x: number): string => Number(x.toPrecision(4)).toString();
+const dB = (x: number, d = 3): string => `${x.toFixed(d)} dB`;
+const pct = (x: number): string => `${(x * 100).toFixed(3)} %`;
+
+/** The cautions printed with every design (reports and command line). */
+export const DESIGN_CAUTIONS: readonly string[] = [
+  "Op-amps have supply, input common-mode and output-swing limits: check that every stage output (see the peak gain column) stays inside them at the largest input you expect, and that the chosen op-amp is stable at the gain each stage uses.",
+  "Equipment connected to the mains, or to a patient or other person, needs isolation and must follow its own safety standards; this library does not design isolation or protection.",
+  "These results are a design aid. Check them against local codes and licensed professional practice before use wherever safety is involved, and verify the built circuit by measurement.",
+];
+
+function edges(e: readonly number[]): string {
+  return e.map(f3).join(" – ");
+}
+
+/**
+ * Render a design as a Markdown summary.
+ *
+ * @param result - a design
+ * @returns Markdown text
+ * @throws never
+ * @example
+ * ```ts
+ * toMarkdown(designFilter(spec)).split("\n")[0]; //=> "# Lowpass filter: butterworth, 4 poles"
+ * ```
+ */
+export function toMarkdown(result: DesignResult): string {
+  const s = result.spec;
+  const v = result.verification;
+  const L: string[] = [];
+  const title = s.response[0]?.toUpperCase() + s.response.slice(1);
+  L.push(`# ${title} filter: ${result.family}, ${result.filterOrder} poles`, "");
+  L.push(
+    `**${v.meetsSpec ? "Meets the spec" : "Does NOT meet the spec"}** as built (worst margin ${dB(v.marginDb)}; ${result.stages.length} stage${result.stages.length === 1 ? "" : "s"}, ${result.stages.reduce((k, st) => k + st.opamps.length, 0)} op-amp(s)).`,
+    "",
+  );
+  L.push("## Specification", "");
+  L.push("| item | value |", "|---|---|");
+  L.push(`| response | ${s.response} |`);
+  L.push(`| passband edge(s) | ${edges(s.passbandHz)}, loss at most ${s.maxLossDb} dB |`);
+  L.push(`| stopband edge(s) | ${edges(s.stopbandHz)}, attenuation at least ${s.minAttenuationDb} dB |`);
+  L.push(`| gain | ${n4(20 * Math.log10(s.gain))} dB (${n4(s.gain)} V/V), polarity ${s.polarity}, tolerance ${s.gainToleranceDb} dB |`);
+  L.push(`| parts | capacitors ${s.capacitorSeries}, resistors ${s.resistorSeries} in ${formatValue(s.resistorRange.min, { unit: "Ω" })} – ${formatValue(s.resistorRange.max, { unit: "Ω" })} |`);
+  L.push(`| op-amp | ${s.opamp.kind === "ideal" ? "ideal" : `A0 ${n4(s.opamp.a0)}, GBW ${f3(s.opamp.gbwHz)}`} |`, "");
+  L.push("## Approximation", "");
+  L.push(`Family **${result.family}**, prototype order ${result.order} (minimum ${result.minimumOrder}). ${result.familyChoice.reason}`, "");
+  const p = result.placement;
+  L.push(
+    `The ${p.parameter === "bandwidth" ? "bandwidth" : "natural frequency"} can lie between ${f3(p.lowHz)} and ${f3(p.highHz)} for the exact design to meet the mask; it was placed at ${f3(p.chosenHz)} (position ${n4(p.position)} on a log scale).${p.designRippleDb === undefined ? "" : ` Design ripple ${n4(p.designRippleDb)} dB.`}${p.designAttenuationDb === undefined ? "" : ` Design stopband attenuation ${n4(p.designAttenuationDb)} dB.`}`,
+    "",
+  );
+  L.push("## Stages", "");
+  L.push(
+    "| stage | topology | kind | f0 target | f0 as built | Q target | Q as built | gain target | gain as built | peak gain to here | GBW needed |",
+    "|---|---|---|---|---|---|---|---|---|---|---|",
+  );
+  for (const st of result.stages) {
+    L.push(
+      `| ${st.index} | ${st.topologyName} | ${st.kind} | ${f3(st.target.f0Hz)} | ${f3(st.asBuilt.f0Hz)} | ${st.target.q === undefined ? "–" : n4(st.target.q)} | ${st.asBuilt.q === undefined ? "–" : n4(st.asBuilt.q)} | ${n4(st.target.gain)} | ${n4(st.asBuilt.gain)} | ${dB(20 * Math.log10(st.peakGain), 2)} at ${f3(st.peakHz)} | ${f3(st.gbwDemandHz)} |`,
+    );
+  }
+  L.push("");
+  for (const st of result.stages) {
+    const parts = Object.entries(st.components)
+      .map(([k, x]) => `${k} = ${formatValue(x, { digits: 3, unit: k.startsWith("C") ? "F" : "Ω" })}`)
+      .join(", ");
+    L.push(
+      `- Stage ${st.index} (${st.topology}; ${st.topologyReason}): ${parts}; ${st.opamps.join(", ")}. f0 error ${pct(st.errors.f0)} (plain rounding: ${pct(st.plainSnapErrors.f0)}), Q error ${pct(st.errors.q)} (plain rounding: ${pct(st.plainSnapErrors.q)}).`,
+    );
+  }
+  L.push("", "## Verification (as built)", "");
+  L.push("| check | as built | spec | margin |", "|---|---|---|---|");
+  L.push(`| passband loss | ${dB(v.passbandLossDb)} (worst at ${f3(v.passbandWorstHz)}) | ≤ ${s.maxLossDb} dB | ${dB(v.passbandMarginDb)} |`);
+  L.push(`| stopband attenuation | ${dB(v.stopbandAttenuationDb, 2)} (worst at ${f3(v.stopbandWorstHz)}) | ≥ ${s.minAttenuationDb} dB | ${dB(v.stopbandMarginDb)} |`);
+  L.push(`| passband gain | ${dB(v.gainDb)} | ${dB(v.targetGainDb)} ± ${s.gainToleranceDb} dB | ${dB(v.gainMarginDb)} |`);
+  L.push(`| polarity | ${v.polarity} | ${s.polarity} | ${v.polarityOk ? "ok" : "not met"} |`, "");
+  L.push(`Op-amp model used: ${v.opamp.kind === "ideal" ? "ideal" : `single pole, A0 ${n4(v.opamp.a0)}, GBW ${f3(v.opamp.gbwHz)}`}. Worst margin of the exact (unrounded) design: ${dB(v.idealMarginDb)}.`, "");
+  if (result.warnings.length > 0) {
+    L.push("## Warnings", "");
+    for (const w of result.warnings) L.push(`- ${w.stage === undefined ? "" : `stage ${w.stage}: `}${w.message}`);
+    L.push("");
+  }
+  if (result.actions.length > 0) {
+    L.push("## What the pipeline did", "");
+    for (const a of result.actions) L.push(`- ${a.message}`);
+    L.push("");
+  }
+  L.push("## Bill of materials", "");
+  L.push("| designators | part | value | RKM | series | tolerance | qty |", "|---|---|---|---|---|---|---|");
+  for (const b of bomLines(result)) {
+    L.push(`| ${b.designators.join(", ")} | ${b.part} | ${b.valueText} | ${b.rkm} | ${b.series} | ${b.tolerance} | ${b.quantity} |`);
+  }
+  L.push("", "## Cautions", "");
+  for (const c of DESIGN_CAUTIONS) L.push(`- ${c}`);
+  L.push("");
+  return L.join("\n");
+}
