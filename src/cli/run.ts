@@ -1,0 +1,376 @@
+/**
+ * The `filterwright` command line, as a function of its arguments and an I/O
+ * object so it can be tested without spawning processes. Presentation only:
+ * every design decision lives in the design layer.
+ *
+ * Exit codes: 0 the design meets the spec (or the command succeeded), 1 the
+ * design does not meet the spec, 2 bad input (the problems are printed, no
+ * stack trace), 3 an unexpected internal error.
+ *
+ * @module
+ */
+import { describeValue, FilterwrightError, SpecError } from "../errors.ts";
+import { designFilter, type DesignResult, type FilterSpec } from "../design/index.ts";
+import { DESIGN_CAUTIONS, toBomCsv, toJson, toMarkdown, toSpiceNetlist } from "../report/index.ts";
+import { topologies } from "../topologies/index.ts";
+import { formatValue } from "../units/index.ts";
+import { SCENARIOS } from "./scenarios.ts";
+
+/** What the command line reads and writes. */
+export interface CliIo {
+  /** Write text to standard output. */
+  readonly stdout: (text: string) => void;
+  /** Write text to standard error. */
+  readonly stderr: (text: string) => void;
+  /** Read a text file (UTF-8). */
+  readonly readFile: (path: string) => string;
+  /** Write a text file (UTF-8). */
+  readonly writeFile: (path: string, text: string) => void;
+}
+
+/** The program version printed by `--version`. */
+export const CLI_VERSION = "0.1.0";
+
+const USAGE = `filterwright — design an active analog filter from a spec, down to preferred-value parts
+
+usage:
+  filterwright design [spec options] [output options]
+  filterwright design --spec file.json [spec options to override] [output options]
+  filterwright demo [--scenario ${Object.keys(SCENARIOS).join("|")}] [output options]
+  filterwright topologies
+  filterwright --help | --version
+
+spec options:
+  --response lowpass|highpass|bandpass|bandstop
+  --pass F[,F2]          passband edge(s), e.g. 20k or 300,3.4k (Hz)
+  --pass-loss DB         largest passband loss (dB)
+  --stop F[,F2]          stopband edge(s) (Hz)
+  --stop-atten DB        smallest stopband attenuation (dB)
+  --gain DB              passband gain in dB (default 0)
+  --gain-vv X            passband gain in V/V (negative: inverting)
+  --polarity non-inverting|inverting|either
+  --family NAME|auto     butterworth chebyshev1 chebyshev2 elliptic bessel legendre
+  --priority P           fewest-stages | flattest-delay | monotonic (automatic family)
+  --order N              fix the prototype order
+  --topology ID|auto     one topology for every stage, or ID1,ID2,... per stage
+  --caps SERIES          capacitor series (default E12)
+  --res SERIES           resistor series (default E96)
+  --r-min OHMS --r-max OHMS   resistor window (default 1k to 100k)
+  --gbw HZ [--a0 GAIN]   real op-amp (single pole); default ideal
+
+output options:
+  --json FILE  --netlist FILE  --bom FILE  --markdown FILE
+  --quiet                 print only the verification line
+
+exit codes: 0 meets the spec, 1 does not meet it, 2 bad input, 3 internal error
+`;
+
+class UsageError extends Error {}
+
+const FLAGS = new Set(["quiet", "help", "version"]);
+const VALUE_OPTIONS = new Set([
+  "response",
+  "pass",
+  "pass-loss",
+  "stop",
+  "stop-atten",
+  "gain",
+  "gain-vv",
+  "polarity",
+  "family",
+  "priority",
+  "order",
+  "topology",
+  "caps",
+  "res",
+  "r-min",
+  "r-max",
+  "gbw",
+  "a0",
+  "spec",
+  "json",
+  "netlist",
+  "bom",
+  "markdown",
+  "scenario",
+]);
+
+function parseArgs(argv: readonly string[]): { positional: string[]; options: Map<string, string | true> } {
+  const positional: string[] = [];
+  const options = new Map<string, string | true>();
+  for (let i = 0; i < argv.length; i++) {
+    const a = argv[i] as string;
+    if (a === "-h") {
+      options.set("help", true);
+      continue;
+    }
+    if (!a.startsWith("--")) {
+      positional.push(a);
+      continue;
+    }
+    const eq = a.indexOf("=");
+    const name = eq >= 0 ? a.slice(2, eq) : a.slice(2);
+    if (FLAGS.has(name)) {
+      options.set(name, true);
+      continue;
+    }
+    if (!VALUE_OPTIONS.has(name)) throw new UsageError(`unknown option --${name} (see filterwright --help)`);
+    const value = eq >= 0 ? a.slice(eq + 1) : argv[++i];
+    if (value === undefined) throw new UsageError(`option --${name} needs a value`);
+    if (options.has(name)) throw new UsageError(`option --${name} given twice`);
+    options.set(name, value);
+  }
+  return { positional, options };
+}
+
+/** A number when the text is one, else the text (so spec validation reports it with its path). */
+function num(text: string): number | string {
+  const t = text.trim();
+  return t !== "" && Number.isFinite(Number(t)) ? Number(t) : text;
+}
+
+function edge(text: string): string | number | [string | number, string | number] {
+  const parts = text.split(",").map((p) => p.trim());
+  if (parts.length === 2) return [num(parts[0] as string), num(parts[1] as string)];
+  return num(text);
+}
+
+function isObj(v: unknown): v is Record<string, unknown> {
+  return typeof v === "object" && v !== null && !Array.isArray(v);
+}
+
+/** Merge command-line spec options over a base spec (from a file, a scenario, or nothing). */
+function specFromOptions(base: Record<string, unknown>, o: Map<string, string | true>): Record<string, unknown> {
+  const spec: Record<string, unknown> = { ...base };
+  const get = (k: string): string | undefined => {
+    const v = o.get(k);
+    return typeof v === "string" ? v : undefined;
+  };
+  const sub = (k: string): Record<string, unknown> => {
+    const cur = spec[k];
+    const next = isObj(cur) ? { ...cur } : {};
+    spec[k] = next;
+    return next;
+  };
+  const v = (k: string, f: (x: string) => void): void => {
+    const x = get(k);
+    if (x !== undefined) f(x);
+  };
+  v("response", (x) => (spec["response"] = x));
+  v("pass", (x) => (sub("passband")["edgeHz"] = edge(x)));
+  v("pass-loss", (x) => (sub("passband")["maxLossDb"] = num(x)));
+  v("stop", (x) => (sub("stopband")["edgeHz"] = edge(x)));
+  v("stop-atten", (x) => (sub("stopband")["minAttenuationDb"] = num(x)));
+  v("gain", (x) => {
+    const g = sub("gain");
+    delete g["vPerV"];
+    g["db"] = num(x.replace(/\s*dB$/i, ""));
+  });
+  v("gain-vv", (x) => {
+    const g = sub("gain");
+    delete g["db"];
+    g["vPerV"] = num(x);
+  });
+  v("polarity", (x) => (sub("gain")["polarity"] = x));
+  v("family", (x) => (spec["family"] = x));
+  v("priority", (x) => (spec["priority"] = x));
+  v("order", (x) => (spec["order"] = num(x)));
+  v("topology", (x) => (spec["topology"] = x.includes(",") ? x.split(",").map((s) => s.trim()) : x));
+  v("caps", (x) => (sub("parts")["capacitorSeries"] = x.toUpperCase()));
+  v("res", (x) => (sub("parts")["resistorSeries"] = x.toUpperCase()));
+  v("r-min", (x) => (sub("parts")["resistorMinOhm"] = num(x)));
+  v("r-max", (x) => (sub("parts")["resistorMaxOhm"] = num(x)));
+  const gbw = get("gbw");
+  const a0 = get("a0");
+  if (a0 !== undefined && gbw === undefined) throw new UsageError("--a0 needs --gbw as well");
+  if (gbw !== undefined) {
+    spec["opamp"] = gbw === "ideal" ? "ideal" : { a0: a0 === undefined ? 1e5 : num(a0), gbwHz: num(gbw) };
+  }
+  return spec;
+}
+
+function pad(s: string, n: number): string {
+  return s.length >= n ? s : s + " ".repeat(n - s.length);
+}
+
+function table(rows: readonly (readonly string[])[]): string {
+  const widths: number[] = [];
+  for (const r of rows) r.forEach((c, i) => (widths[i] = Math.max(widths[i] ?? 0, c.length)));
+  return rows.map((r) => r.map((c, i) => pad(c, widths[i] as number)).join("  ").trimEnd()).join("\n");
+}
+
+const hz = (x: number): string => formatValue(x, { digits: 4, unit: "Hz" });
+const p4 = (x: number): string => Number(x.toPrecision(4)).toString();
+
+/** The human-readable summary printed for a design. */
+export function formatSummary(r: DesignResult): string {
+  const v = r.verification;
+  const out: string[] = [];
+  out.push(
+    `${r.family} ${r.spec.response}, ${r.filterOrder} poles in ${r.stages.length} stage${r.stages.length === 1 ? "" : "s"} (prototype order ${r.order}, minimum ${r.minimumOrder})`,
+  );
+  out.push(`why: ${r.familyChoice.reason}`, "");
+  const rows: string[][] = [["stage", "topology", "kind", "f0 target", "f0 built", "Q target", "Q built", "gain", "peak to here", "parts"]];
+  for (const s of r.stages) {
+    rows.push([
+      String(s.index),
+      s.topology,
+      s.kind,
+      hz(s.target.f0Hz),
+      hz(s.asBuilt.f0Hz),
+      s.target.q === undefined ? "-" : p4(s.target.q),
+      s.asBuilt.q === undefined ? "-" : p4(s.asBuilt.q),
+      p4(s.asBuilt.gain),
+      `${(20 * Math.log10(s.peakGain)).toFixed(2)} dB`,
+      Object.entries(s.components)
+        .map(([k, x]) => `${k}=${formatValue(x, { digits: 3, unit: k.startsWith("C") ? "F" : "Ω", space: false })}`)
+        .join(" "),
+    ]);
+  }
+  out.push(table(rows), "");
+  const s = r.spec;
+  out.push(
+    table([
+      ["check", "as built", "spec", "margin"],
+      ["passband loss", `${v.passbandLossDb.toFixed(3)} dB`, `<= ${s.maxLossDb} dB`, `${v.passbandMarginDb.toFixed(3)} dB`],
+      ["stopband attenuation", `${v.stopbandAttenuationDb.toFixed(2)} dB`, `>= ${s.minAttenuationDb} dB`, `${v.stopbandMarginDb.toFixed(3)} dB`],
+      ["gain", `${v.gainDb.toFixed(3)} dB`, `${v.targetGainDb.toFixed(3)} +- ${s.gainToleranceDb} dB`, `${v.gainMarginDb.toFixed(3)} dB`],
+      ["polarity", v.polarity, s.polarity, v.polarityOk ? "ok" : "not met"],
+    ]),
+    "",
+  );
+  out.push(
+    `${v.meetsSpec ? "MEETS" : "DOES NOT MEET"} the spec as built (worst margin ${v.marginDb.toFixed(3)} dB, op-amp ${v.opamp.kind === "ideal" ? "ideal" : `GBW ${hz(v.opamp.gbwHz)}`})`,
+  );
+  if (r.warnings.length > 0) {
+    out.push("", "warnings:");
+    for (const w of r.warnings) out.push(`  - ${w.stage === undefined ? "" : `stage ${w.stage}: `}${w.message}`);
+  }
+  if (r.actions.length > 0) {
+    out.push("", "steps taken:");
+    for (const a of r.actions) out.push(`  - ${a.message}`);
+  }
+  out.push("", "cautions:");
+  for (const c of DESIGN_CAUTIONS) out.push(`  - ${c}`);
+  return `${out.join("\n")}\n`;
+}
+
+function writeOutputs(r: DesignResult, o: Map<string, string | true>, io: CliIo): void {
+  const targets: [string, (x: DesignResult) => string][] = [
+    ["json", toJson],
+    ["netlist", (x) => toSpiceNetlist(x)],
+    ["bom", toBomCsv],
+    ["markdown", toMarkdown],
+  ];
+  for (const [k, f] of targets) {
+    const path = o.get(k);
+    if (typeof path === "string") {
+      io.writeFile(path, f(r));
+      io.stderr(`wrote ${path}\n`);
+    }
+  }
+}
+
+function design(spec: unknown, o: Map<string, string | true>, io: CliIo): number {
+  const r = designFilter(spec);
+  if (o.get("quiet") === true) {
+    io.stdout(
+      `${r.verification.meetsSpec ? "meets" : "does not meet"} the spec: ${r.family} order ${r.order}, worst margin ${r.verification.marginDb.toFixed(3)} dB\n`,
+    );
+  } else io.stdout(formatSummary(r));
+  writeOutputs(r, o, io);
+  return r.verification.meetsSpec ? 0 : 1;
+}
+
+/**
+ * Run the command line.
+ *
+ * @param argv - arguments after the program name (e.g. `["design", "--spec", "a.json"]`)
+ * @param io - output streams and file access
+ * @returns the exit code (0 meets the spec or success, 1 spec not met, 2 bad input, 3 internal error)
+ * @throws never (every failure becomes a message and an exit code)
+ * @example
+ * ```ts
+ * runCli(["design", "--response", "lowpass", "--pass", "1k", "--pass-loss", "1", "--stop", "4k", "--stop-atten", "40"], io);
+ * //=> 0
+ * ```
+ */
+export function runCli(argv: readonly string[], io: CliIo): number {
+  try {
+    const { positional, options } = parseArgs(argv);
+    if (options.get("version") === true) {
+      io.stdout(`filterwright ${CLI_VERSION}\n`);
+      return 0;
+    }
+    const command = positional[0];
+    if (options.get("help") === true || command === undefined || command === "help") {
+      io.stdout(USAGE);
+      return command === undefined && options.get("help") !== true ? 2 : 0;
+    }
+    if (positional.length > 1) throw new UsageError(`unexpected argument "${positional[1]}"`);
+    switch (command) {
+      case "design": {
+        let base: Record<string, unknown> = {};
+        const file = options.get("spec");
+        if (typeof file === "string") {
+          let text: string;
+          try {
+            text = io.readFile(file);
+          } catch (e) {
+            throw new UsageError(`cannot read ${file}: ${e instanceof Error ? e.message : String(e)}`);
+          }
+          let parsed: unknown;
+          try {
+            parsed = JSON.parse(text);
+          } catch (e) {
+            throw new UsageError(`${file} is not valid JSON: ${e instanceof Error ? e.message : String(e)}`);
+          }
+          if (!isObj(parsed)) throw new UsageError(`${file} must hold a JSON object (the filter spec)`);
+          base = parsed;
+        }
+        if (options.has("scenario")) throw new UsageError("--scenario belongs to the demo command");
+        return design(specFromOptions(base, options), options, io);
+      }
+      case "demo": {
+        const name = options.get("scenario");
+        const key = typeof name === "string" ? name : "vibration";
+        const sc = SCENARIOS[key];
+        if (sc === undefined) throw new UsageError(`unknown scenario "${key}"; choose ${Object.keys(SCENARIOS).join(", ")}`);
+        io.stdout(`demo: ${sc.title}\n${sc.story}\n\n`);
+        return design(specFromOptions(sc.spec as unknown as Record<string, unknown>, options), options, io);
+      }
+      case "topologies": {
+        const rows = [["id", "name", "order", "kinds", "op-amps", "inverting"]];
+        for (const t of topologies) {
+          rows.push([t.id, t.name, String(t.order), t.kinds.join(" "), String(t.opampCount), t.inverting ? "yes" : "no"]);
+        }
+        io.stdout(`${table(rows)}\n`);
+        return 0;
+      }
+      default:
+        throw new UsageError(`unknown command "${command}" (commands: design, demo, topologies)`);
+    }
+  } catch (e) {
+    if (e instanceof UsageError) {
+      io.stderr(`filterwright: ${e.message}\n`);
+      return 2;
+    }
+    if (e instanceof SpecError) {
+      io.stderr(`filterwright: the spec has ${e.issues.length} problem${e.issues.length === 1 ? "" : "s"}:\n`);
+      for (const i of e.issues) {
+        const got = "received" in i ? ` (received ${describeValue(i.received)})` : "";
+        io.stderr(`  - ${i.path === "" ? "(spec)" : i.path}: ${i.message}${got}\n`);
+      }
+      return 2;
+    }
+    if (e instanceof FilterwrightError) {
+      io.stderr(`filterwright: ${e.message}\n`);
+      return 2;
+    }
+    io.stderr(`filterwright: internal error: ${e instanceof Error ? e.message : String(e)}\n`);
+    return 3;
+  }
+}
+
+/** The spec type the command line builds (re-exported for scenario files). */
+export type { FilterSpec };
