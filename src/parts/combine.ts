@@ -3,13 +3,19 @@
  * best pairs of preferred values for a ratio.
  *
  * Method: exhaustive over one part, binary search for the other. For a
- * series pair a + b = T every member a of the first series in
- * [T / 1000, T) is tried and b = T - a is snapped to its two neighbours in
- * the second series; for a parallel pair a b / (a + b) = T every a in
- * (T, 1000 T] is tried with b = a T / (a - T). So both parts lie within three
- * decades of the target. Cost: O(N log N) per kind for an EN series (about
- * 600 snaps for E192). The pair with the smallest |relative error| wins; ties
- * keep the first found (kinds in the order given, a ascending).
+ * series pair a + b = T every member x of one series in [T / 1000, T) is
+ * tried and T - x is snapped to its two neighbours in the other series; for a
+ * parallel pair a b / (a + b) = T every x in (T, 1000 T] is tried with the
+ * other part's ideal x T / (x - T). For a fixed x the error is monotonic in
+ * the other part, so its best choice is one of the two neighbours; and the
+ * larger part of a series pair (>= T / 2) and the smaller part of a parallel
+ * pair (<= 2 T) always fall in the enumerated window, so the search finds the
+ * best of all pairs (series pairs with both parts below T and parallel pairs
+ * with both above T, which excludes the degenerate "one part alone plus a
+ * speck or a near-open"; with mixed series both roles are enumerated). Cost:
+ * O(N log N) per kind for an EN series (about 600 snaps for E192). The pair
+ * with the smallest |relative error| wins; ties keep the first found (kinds
+ * in the order given, the enumerated part ascending).
  *
  * Ratios: every member a of one decade of the first series is tried and
  * b = a / ratio is snapped in the second series (both neighbours, or the one
@@ -23,7 +29,7 @@ import { InvalidArgumentError } from "../errors.ts";
 import { requireOneOf, requireOptions, requirePositive } from "../validate.ts";
 import { seriesTable } from "./eseries.ts";
 import type { SeriesName, SeriesTable } from "./eseries.ts";
-import { floorPos, memberValue, requirePartValue } from "./snap.ts";
+import { floorPos, memberValue, PART_VALUE_MAX, PART_VALUE_MIN, requirePartValue } from "./snap.ts";
 
 /** How two parts are joined. */
 export type CombinationKind = "series" | "parallel";
@@ -114,7 +120,9 @@ const SPAN = 1000;
  * @example
  * ```ts
  * const r = bestCombination(12_740, { series: "E24" });
- * r.best; //=> { kind: "series", parts: [12000, 750], value: 12750, relativeError: 0.000785, ... }
+ * r.best;
+ * //=> { kind: "parallel", parts: [13000, 620000], series: ["E24", "E24"],
+ * //     value: 12733.017..., relativeError: -0.000548... }
  * r.achievable; //=> true
  * ```
  */
@@ -143,20 +151,24 @@ export function bestCombination(target: number, options: CombinationOptions): Co
     const err = (value - t) / t;
     if (best === undefined || Math.abs(err) < Math.abs(best.err)) best = { kind, a, b, value, err };
   };
+  // Enumerate one part from each series in turn (once when both are the same).
+  const roles: [SeriesTable, SeriesTable, boolean][] = ta === tb ? [[ta, tb, false]] : [[ta, tb, false], [tb, ta, true]];
   for (const kind of kinds) {
-    if (kind === "series") {
-      for (const a of membersIn(ta, t / SPAN, t)) {
-        if (a >= t) continue;
-        const rest = t - a;
-        if (rest < t / SPAN / 10) continue;
-        for (const b of around(tb, rest)) consider(kind, a, b);
-      }
-    } else {
-      for (const a of membersIn(ta, t, t * SPAN)) {
-        if (a <= t) continue;
-        const ideal = (a * t) / (a - t);
-        if (ideal > t * SPAN * 10) continue;
-        for (const b of around(tb, ideal)) consider(kind, a, b);
+    for (const [enumerated, other, swapped] of roles) {
+      const add = (x: number, y: number): void => (swapped ? consider(kind, y, x) : consider(kind, x, y));
+      if (kind === "series") {
+        for (const x of membersIn(enumerated, t / SPAN, t)) {
+          const rest = t - x;
+          if (!(rest >= PART_VALUE_MIN)) continue;
+          for (const y of around(other, rest)) add(x, y);
+        }
+      } else {
+        for (const x of membersIn(enumerated, t, t * SPAN)) {
+          if (x <= t) continue;
+          const ideal = (x * t) / (x - t);
+          if (!(ideal <= PART_VALUE_MAX)) continue;
+          for (const y of around(other, ideal)) add(x, y);
+        }
       }
     }
   }
@@ -231,7 +243,8 @@ export interface RatioResult {
  * @example
  * ```ts
  * bestRatio(4 * 0.7071 ** 2, { series: "E12", mode: "atLeast" });
- * //=> { a: 2.2, b: 1.1 ... } no: b must be E12; gives { a: 3.3, b: 1.5, ratio: 2.2, ... }
+ * //=> { a: 6.8, b: 3.3, target: 1.99996..., ratio: 2.0606..., relativeError: 0.0303...,
+ * //     achievable: true, maxError: 0.1 }
  * bestRatio(10, { series: "E24" }).relativeError; //=> 0
  * ```
  */
