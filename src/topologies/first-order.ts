@@ -1,0 +1,219 @@
+/**
+ * First-order stages: a passive RC section followed by a unity-gain buffer or
+ * a non-inverting gain stage, and the inverting first-order lowpass and
+ * highpass.
+ *
+ * Ideal figures (w0 = 2 pi f0):
+ * - RC + buffer lowpass: `H = 1 / (1 + s R1 C1)`; w0 = 1/(R1 C1), gain 1.
+ *   Parts: R1 in -> a, C1 a -> 0, U1 follower (out = inverting input).
+ * - RC + buffer highpass: `H = s R1 C1 / (1 + s R1 C1)`; C1 in -> a, R1 a -> 0.
+ * - RC + non-inverting gain: as above times `K = 1 + R2/R3`
+ *   (R2 out -> inverting input, R3 inverting input -> 0); needs K > 1.
+ * - Inverting lowpass: R1 in -> n, R2 and C1 in parallel n -> out;
+ *   `H = -(R2/R1) / (1 + s R2 C1)`, w0 = 1/(R2 C1), gain -R2/R1.
+ * - Inverting highpass: C1 in -> m, R1 m -> n, R2 n -> out;
+ *   `H = -(R2/R1) s R1 C1 / (1 + s R1 C1)`, w0 = 1/(R1 C1), HF gain -R2/R1.
+ *
+ * Reference: L. P. Huelsman & P. E. Allen, "Introduction to the Theory and
+ * Design of Active Filters", McGraw-Hill, 1980, first-order sections
+ * (from memory).
+ *
+ * Finite-GBW response (closed form): with open-loop gain `A(s)` the follower
+ * or gain stage gives `A / (1 + A beta)` (beta = R3/(R2+R3), 1 for the
+ * follower) and the inverting stages `-Y1 / (Y2 + (Y1 + Y2)/A)`.
+ * GBW demand: computed numerically from that response (1 % on f0); common
+ * practice, no source, asks for GBW >= 100 |gain| f0.
+ *
+ * Choices: `capacitor` sets C1; `resistor` sets R1; by default R1 = 10 kOhm.
+ * The gain resistor R3 of the non-inverting stages equals R1 before scaling.
+ *
+ * @module
+ */
+import type { ComponentValues, StageTarget } from "./types.ts";
+import {
+  LIMIT_SLACK,
+  TWO_PI,
+  cadd,
+  cdiv,
+  cmul,
+  defineTopology,
+  invertingGain,
+  nonInvertingGain,
+  re,
+  sx,
+  type DefinedTopology,
+  type PartSpec,
+} from "./common.ts";
+
+const REF =
+  'L. P. Huelsman & P. E. Allen, "Introduction to the Theory and Design of Active Filters", McGraw-Hill, 1980, first-order sections (from memory)';
+
+const w0Of = (t: StageTarget): number => TWO_PI * t.f0Hz;
+const g = (v: ComponentValues, k: string): number => v[k] as number;
+
+const bufferLow: PartSpec[] = [
+  { kind: "R", name: "R1", a: "in", b: "a" },
+  { kind: "C", name: "C1", a: "a", b: "0" },
+  { kind: "OA", name: "U1", inP: "a", inN: "out", out: "out" },
+];
+const bufferHigh: PartSpec[] = [
+  { kind: "C", name: "C1", a: "in", b: "a" },
+  { kind: "R", name: "R1", a: "a", b: "0" },
+  { kind: "OA", name: "U1", inP: "a", inN: "out", out: "out" },
+];
+const gainNet: PartSpec[] = [
+  { kind: "OA", name: "U1", inP: "a", inN: "fb", out: "out" },
+  { kind: "R", name: "R2", a: "out", b: "fb" },
+  { kind: "R", name: "R3", a: "fb", b: "0" },
+];
+
+const unityGain = (t: StageTarget): string | null =>
+  Math.abs(t.gain - 1) > LIMIT_SLACK
+    ? `a buffered RC stage has gain 1 (got ${t.gain}); for a gain above 1 choose the RC stage with a non-inverting gain stage, or an inverting stage`
+    : null;
+const aboveOne = (t: StageTarget): string | null =>
+  t.gain > 1 + LIMIT_SLACK
+    ? null
+    : `a non-inverting gain stage needs a gain above 1 (got ${t.gain}); for gain 1 choose the buffered RC stage`;
+
+/** Passive RC lowpass followed by a unity-gain buffer. */
+export const firstOrderLowpassBuffer: DefinedTopology = defineTopology({
+  id: "first-order-lowpass-buffer",
+  name: "RC lowpass + buffer",
+  order: 1,
+  kinds: ["lowpass"],
+  inverting: false,
+  reference: REF,
+  levelCapacitor: "C1",
+  levelResistor: "R1",
+  parts: bufferLow,
+  limits: unityGain,
+  solve: (t) => ({ C1: 1, R1: 1 / w0Of(t) }),
+  figures: (v) => ({ f0Hz: 1 / (TWO_PI * g(v, "R1") * g(v, "C1")), gain: 1 }),
+  closedForm: (v, s, a) => cdiv(nonInvertingGain(a, 1), cadd(re(1), sx(s, g(v, "R1") * g(v, "C1")))),
+  closedFormFinite: true,
+});
+
+/** Passive RC highpass followed by a unity-gain buffer. */
+export const firstOrderHighpassBuffer: DefinedTopology = defineTopology({
+  id: "first-order-highpass-buffer",
+  name: "RC highpass + buffer",
+  order: 1,
+  kinds: ["highpass"],
+  inverting: false,
+  reference: REF,
+  levelCapacitor: "C1",
+  levelResistor: "R1",
+  parts: bufferHigh,
+  limits: unityGain,
+  solve: (t) => ({ C1: 1, R1: 1 / w0Of(t) }),
+  figures: (v) => ({ f0Hz: 1 / (TWO_PI * g(v, "R1") * g(v, "C1")), gain: 1 }),
+  closedForm: (v, s, a) => {
+    const st = sx(s, g(v, "R1") * g(v, "C1"));
+    return cmul(nonInvertingGain(a, 1), cdiv(st, cadd(re(1), st)));
+  },
+  closedFormFinite: true,
+});
+
+const beta = (v: ComponentValues): number => g(v, "R3") / (g(v, "R2") + g(v, "R3"));
+
+/** Passive RC lowpass followed by a non-inverting gain stage `1 + R2/R3`. */
+export const firstOrderLowpassNoninverting: DefinedTopology = defineTopology({
+  id: "first-order-lowpass-noninverting",
+  name: "RC lowpass + non-inverting gain",
+  order: 1,
+  kinds: ["lowpass"],
+  inverting: false,
+  reference: REF,
+  levelCapacitor: "C1",
+  levelResistor: "R1",
+  parts: [...bufferLow.slice(0, 2), ...gainNet],
+  limits: aboveOne,
+  solve: (t) => {
+    const r1 = 1 / w0Of(t);
+    return { C1: 1, R1: r1, R3: r1, R2: (t.gain - 1) * r1 };
+  },
+  figures: (v) => ({ f0Hz: 1 / (TWO_PI * g(v, "R1") * g(v, "C1")), gain: 1 + g(v, "R2") / g(v, "R3") }),
+  closedForm: (v, s, a) => cdiv(nonInvertingGain(a, beta(v)), cadd(re(1), sx(s, g(v, "R1") * g(v, "C1")))),
+  closedFormFinite: true,
+});
+
+/** Passive RC highpass followed by a non-inverting gain stage `1 + R2/R3`. */
+export const firstOrderHighpassNoninverting: DefinedTopology = defineTopology({
+  id: "first-order-highpass-noninverting",
+  name: "RC highpass + non-inverting gain",
+  order: 1,
+  kinds: ["highpass"],
+  inverting: false,
+  reference: REF,
+  levelCapacitor: "C1",
+  levelResistor: "R1",
+  parts: [...bufferHigh.slice(0, 2), ...gainNet],
+  limits: aboveOne,
+  solve: (t) => {
+    const r1 = 1 / w0Of(t);
+    return { C1: 1, R1: r1, R3: r1, R2: (t.gain - 1) * r1 };
+  },
+  figures: (v) => ({ f0Hz: 1 / (TWO_PI * g(v, "R1") * g(v, "C1")), gain: 1 + g(v, "R2") / g(v, "R3") }),
+  closedForm: (v, s, a) => {
+    const st = sx(s, g(v, "R1") * g(v, "C1"));
+    return cmul(nonInvertingGain(a, beta(v)), cdiv(st, cadd(re(1), st)));
+  },
+  closedFormFinite: true,
+});
+
+/** Inverting first-order lowpass: R1 in, R2 || C1 feedback. */
+export const firstOrderLowpassInverting: DefinedTopology = defineTopology({
+  id: "first-order-lowpass-inverting",
+  name: "inverting first-order lowpass",
+  order: 1,
+  kinds: ["lowpass"],
+  inverting: true,
+  reference: REF,
+  levelCapacitor: "C1",
+  levelResistor: "R1",
+  parts: [
+    { kind: "R", name: "R1", a: "in", b: "n" },
+    { kind: "R", name: "R2", a: "n", b: "out" },
+    { kind: "C", name: "C1", a: "n", b: "out" },
+    { kind: "OA", name: "U1", inP: "0", inN: "n", out: "out" },
+  ],
+  limits: () => null,
+  solve: (t) => {
+    const r2 = 1 / w0Of(t);
+    return { C1: 1, R2: r2, R1: r2 / Math.abs(t.gain) };
+  },
+  figures: (v) => ({ f0Hz: 1 / (TWO_PI * g(v, "R2") * g(v, "C1")), gain: -g(v, "R2") / g(v, "R1") }),
+  closedForm: (v, s, a) => invertingGain(re(1 / g(v, "R1")), cadd(re(1 / g(v, "R2")), sx(s, g(v, "C1"))), a),
+  closedFormFinite: true,
+});
+
+/** Inverting first-order highpass: C1 and R1 in series at the input, R2 feedback. */
+export const firstOrderHighpassInverting: DefinedTopology = defineTopology({
+  id: "first-order-highpass-inverting",
+  name: "inverting first-order highpass",
+  order: 1,
+  kinds: ["highpass"],
+  inverting: true,
+  reference: REF,
+  levelCapacitor: "C1",
+  levelResistor: "R1",
+  parts: [
+    { kind: "C", name: "C1", a: "in", b: "m" },
+    { kind: "R", name: "R1", a: "m", b: "n" },
+    { kind: "R", name: "R2", a: "n", b: "out" },
+    { kind: "OA", name: "U1", inP: "0", inN: "n", out: "out" },
+  ],
+  limits: () => null,
+  solve: (t) => {
+    const r1 = 1 / w0Of(t);
+    return { C1: 1, R1: r1, R2: r1 * Math.abs(t.gain) };
+  },
+  figures: (v) => ({ f0Hz: 1 / (TWO_PI * g(v, "R1") * g(v, "C1")), gain: -g(v, "R2") / g(v, "R1") }),
+  closedForm: (v, s, a) => {
+    const sc = sx(s, g(v, "C1"));
+    const y1 = cdiv(sc, cadd(re(1), sx(s, g(v, "R1") * g(v, "C1"))));
+    return invertingGain(y1, re(1 / g(v, "R2")), a);
+  },
+  closedFormFinite: true,
+});

@@ -1,0 +1,229 @@
+/**
+ * Multiple-feedback (MFB, infinite-gain) stages: lowpass, highpass, bandpass,
+ * and the bandpass with an input attenuator resistor to ground that sets the
+ * gain independently of Q. The last is the bandpass this project was asked to
+ * call the Deliyannis-Friend form; strictly, T. Deliyannis ("High-Q factor
+ * circuit with reduced sensitivity", Electronics Letters 4(26):577-579, 1968)
+ * and J. J. Friend (1970) add positive feedback for Q enhancement, which this
+ * stage does not have.
+ *
+ * General MFB structure: Y1 in -> a, Y2 a -> 0, Y3 a -> n, Y4 a -> out,
+ * Y5 n -> out; U1 inverting input n, non-inverting input grounded.
+ *   H = -Y1 Y3 / (Y5 (Y1 + Y2 + Y3 + Y4) + Y3 Y4)
+ * and with open-loop gain A (closed form, exact for the single-pole model):
+ *   H = -Y1 / ( ((Y3 + Y5)/A + Y5) (Y1 + Y2 + Y3 + Y4) / Y3 + Y4 - Y3/A )
+ * (L. P. Huelsman & P. E. Allen, "Introduction to the Theory and Design of
+ * Active Filters", McGraw-Hill, 1980, infinite-gain multiple-feedback
+ * realisations, from memory.)
+ *
+ * Lowpass (Y1 = 1/R1, Y2 = s C1, Y3 = 1/R3, Y4 = 1/R2, Y5 = s C2):
+ *   gain -R2/R1, w0^2 = 1/(R2 R3 C1 C2), w0/Q = (1/R1 + 1/R2 + 1/R3)/C1.
+ *   `capacitorRatio` m = C1/C2 (C1 grounded) must be >= 4 Q^2 (1 + |K|);
+ *   default the minimum (then R2 = R3). R2 is the smaller root otherwise.
+ *   `capacitor` sets C2.
+ * Highpass (Y1 = s C1, Y2 = 1/R1, Y3 = s C2, Y4 = s C3, Y5 = 1/R2):
+ *   gain -C1/C3, w0^2 = 1/(R1 R2 C2 C3), w0/Q = (C1 + C2 + C3)/(R2 C2 C3).
+ *   `capacitorRatio` r = C2/C3, default 1; any Q. `capacitor` sets C2.
+ * Bandpass (Y1 = 1/R1, Y2 = 0, Y3 = s C1, Y4 = s C2, Y5 = 1/R2):
+ *   w0^2 = 1/(R1 R2 C1 C2), Q = w0 R2 C1 C2/(C1 + C2), gain at f0
+ *   -R2 C1/(R1 (C1 + C2)) = -Q^2 (1 + r)/r with r = C2/C1, so the gain fixes
+ *   the capacitor ratio: r = Q^2/(|K| - Q^2), which needs |K| > Q^2.
+ *   `capacitor` sets C1.
+ * Bandpass with attenuator (Y1 = 1/R1, Y2 = 1/R2, Y3 = s C1, Y4 = s C2,
+ *   Y5 = 1/R3), C1 = C2: w0^2 = (1/R1 + 1/R2)/(R3 C1 C2), Q = w0 R3 C/2,
+ *   gain at f0 -R3/(2 R1); needs |K| < 2 Q^2. `capacitor` sets C1.
+ * For all: `resistor` sets R1; default R1 = 10 kOhm.
+ *
+ * GBW demand: computed numerically from the finite-gain response (f0 and Q
+ * within 1 %); common practice, no source, asks for GBW >= 100 (1 + |K|) f0
+ * for the lowpass and GBW >= 100 * 2 Q^2 f0 for the bandpass.
+ *
+ * @module
+ */
+import type { Complex } from "../math/complex.ts";
+import type { ComponentValues, StageTarget } from "./types.ts";
+import { TWO_PI, atLeast, defineTopology, mfbKernel, re, sx, type DefinedTopology } from "./common.ts";
+
+const REF =
+  'L. P. Huelsman & P. E. Allen, "Introduction to the Theory and Design of Active Filters", McGraw-Hill, 1980, infinite-gain multiple-feedback realisations (from memory)';
+
+const g = (v: ComponentValues, k: string): number => v[k] as number;
+const q = (t: StageTarget): number => t.q as number;
+const w0Of = (t: StageTarget): number => TWO_PI * t.f0Hz;
+const amp = { kind: "OA", name: "U1", inP: "0", inN: "n", out: "out" } as const;
+const ZERO: Complex = { re: 0, im: 0 };
+
+/** Minimum C1/C2 of an MFB lowpass of gain magnitude |K|. */
+export function mfbLowpassMinRatio(qv: number, gainMagnitude: number): number {
+  return 4 * qv * qv * (1 + gainMagnitude);
+}
+
+/** Multiple-feedback lowpass. */
+export const mfbLowpass: DefinedTopology = defineTopology({
+  id: "mfb-lowpass",
+  name: "multiple-feedback lowpass",
+  order: 2,
+  kinds: ["lowpass"],
+  inverting: true,
+  reference: REF,
+  levelCapacitor: "C2",
+  levelResistor: "R1",
+  parts: [
+    { kind: "R", name: "R1", a: "in", b: "a" },
+    { kind: "R", name: "R2", a: "a", b: "out" },
+    { kind: "R", name: "R3", a: "a", b: "n" },
+    { kind: "C", name: "C1", a: "a", b: "0" },
+    { kind: "C", name: "C2", a: "n", b: "out" },
+    amp,
+  ],
+  limits: (t, c) => {
+    if (c.capacitorRatio === undefined) return null;
+    const min = mfbLowpassMinRatio(q(t), Math.abs(t.gain));
+    return atLeast(c.capacitorRatio, min)
+      ? null
+      : `a multiple-feedback lowpass of gain ${t.gain} at Q = ${q(t)} needs its grounded capacitor C1 at least 4Q^2 (1 + |K|) = ${min.toPrecision(4)} times C2 (capacitorRatio ${c.capacitorRatio}); raise capacitorRatio or lower the gain`;
+  },
+  solve: (t, c) => {
+    const w0 = w0Of(t);
+    const k = Math.abs(t.gain);
+    const m = c.capacitorRatio ?? mfbLowpassMinRatio(q(t), k);
+    // C2 = 1, C1 = m: w0^2 m R2^2 - (m w0/Q) R2 + (1 + K) = 0
+    const a = w0 * w0 * m;
+    const b = (m * w0) / q(t);
+    const cc = 1 + k;
+    let disc = b * b - 4 * a * cc;
+    if (disc < 0 && disc > -1e-9 * b * b) disc = 0;
+    const r2 = (2 * cc) / (b + Math.sqrt(disc));
+    return { C1: m, C2: 1, R2: r2, R1: r2 / k, R3: 1 / (w0 * w0 * r2 * m) };
+  },
+  figures: (v) => {
+    const w0 = 1 / Math.sqrt(g(v, "R2") * g(v, "R3") * g(v, "C1") * g(v, "C2"));
+    const damp = (1 / g(v, "R1") + 1 / g(v, "R2") + 1 / g(v, "R3")) / g(v, "C1");
+    return { f0Hz: w0 / TWO_PI, q: w0 / damp, gain: -g(v, "R2") / g(v, "R1") };
+  },
+  closedForm: (v, s, a) =>
+    mfbKernel([re(1 / g(v, "R1")), sx(s, g(v, "C1")), re(1 / g(v, "R3")), re(1 / g(v, "R2")), sx(s, g(v, "C2"))], a),
+  closedFormFinite: true,
+});
+
+/** Multiple-feedback highpass. */
+export const mfbHighpass: DefinedTopology = defineTopology({
+  id: "mfb-highpass",
+  name: "multiple-feedback highpass",
+  order: 2,
+  kinds: ["highpass"],
+  inverting: true,
+  reference: REF,
+  levelCapacitor: "C2",
+  levelResistor: "R1",
+  parts: [
+    { kind: "C", name: "C1", a: "in", b: "a" },
+    { kind: "R", name: "R1", a: "a", b: "0" },
+    { kind: "C", name: "C2", a: "a", b: "n" },
+    { kind: "C", name: "C3", a: "a", b: "out" },
+    { kind: "R", name: "R2", a: "n", b: "out" },
+    amp,
+  ],
+  limits: () => null,
+  solve: (t, c) => {
+    const w0 = w0Of(t);
+    const k = Math.abs(t.gain);
+    const r = c.capacitorRatio ?? 1;
+    // C3 = 1, C2 = r, C1 = K
+    const r2 = (q(t) * (k + r + 1)) / (w0 * r);
+    return { C1: k, C2: r, C3: 1, R2: r2, R1: 1 / (w0 * w0 * r2 * r) };
+  },
+  figures: (v) => {
+    const c2c3 = g(v, "C2") * g(v, "C3");
+    const w0 = 1 / Math.sqrt(g(v, "R1") * g(v, "R2") * c2c3);
+    const damp = (g(v, "C1") + g(v, "C2") + g(v, "C3")) / (g(v, "R2") * c2c3);
+    return { f0Hz: w0 / TWO_PI, q: w0 / damp, gain: -g(v, "C1") / g(v, "C3") };
+  },
+  closedForm: (v, s, a) =>
+    mfbKernel([sx(s, g(v, "C1")), re(1 / g(v, "R1")), sx(s, g(v, "C2")), sx(s, g(v, "C3")), re(1 / g(v, "R2"))], a),
+  closedFormFinite: true,
+});
+
+/** Multiple-feedback bandpass (two resistors; gain tied to Q through the capacitor ratio). */
+export const mfbBandpass: DefinedTopology = defineTopology({
+  id: "mfb-bandpass",
+  name: "multiple-feedback bandpass",
+  order: 2,
+  kinds: ["bandpass"],
+  inverting: true,
+  reference: REF,
+  levelCapacitor: "C1",
+  levelResistor: "R1",
+  parts: [
+    { kind: "R", name: "R1", a: "in", b: "a" },
+    { kind: "C", name: "C1", a: "a", b: "n" },
+    { kind: "C", name: "C2", a: "a", b: "out" },
+    { kind: "R", name: "R2", a: "n", b: "out" },
+    amp,
+  ],
+  limits: (t) => {
+    const k = Math.abs(t.gain);
+    const min = q(t) * q(t);
+    return k > min * (1 + 1e-6)
+      ? null
+      : `a two-resistor multiple-feedback bandpass at Q = ${q(t)} needs a gain magnitude above Q^2 = ${min.toPrecision(4)} (got ${t.gain}); raise the gain or choose the bandpass with an input attenuator`;
+  },
+  solve: (t) => {
+    const w0 = w0Of(t);
+    const k = Math.abs(t.gain);
+    const q2 = q(t) * q(t);
+    const r = q2 / (k - q2);
+    const r2 = (q(t) * (1 + r)) / (w0 * r);
+    return { C1: 1, C2: r, R2: r2, R1: 1 / (w0 * w0 * r2 * r) };
+  },
+  figures: (v) => {
+    const c1 = g(v, "C1");
+    const c2 = g(v, "C2");
+    const w0 = 1 / Math.sqrt(g(v, "R1") * g(v, "R2") * c1 * c2);
+    return { f0Hz: w0 / TWO_PI, q: (w0 * g(v, "R2") * c1 * c2) / (c1 + c2), gain: -(g(v, "R2") * c1) / (g(v, "R1") * (c1 + c2)) };
+  },
+  closedForm: (v, s, a) => mfbKernel([re(1 / g(v, "R1")), ZERO, sx(s, g(v, "C1")), sx(s, g(v, "C2")), re(1 / g(v, "R2"))], a),
+  closedFormFinite: true,
+});
+
+/** Multiple-feedback bandpass with an input attenuator (R2 to ground) setting the gain independently of Q. */
+export const mfbBandpassAttenuated: DefinedTopology = defineTopology({
+  id: "mfb-bandpass-attenuated",
+  name: "multiple-feedback bandpass with input attenuator",
+  order: 2,
+  kinds: ["bandpass"],
+  inverting: true,
+  reference: `${REF}; T. Deliyannis, Electronics Letters 4(26):577-579, 1968`,
+  levelCapacitor: "C1",
+  levelResistor: "R1",
+  parts: [
+    { kind: "R", name: "R1", a: "in", b: "a" },
+    { kind: "R", name: "R2", a: "a", b: "0" },
+    { kind: "C", name: "C1", a: "a", b: "n" },
+    { kind: "C", name: "C2", a: "a", b: "out" },
+    { kind: "R", name: "R3", a: "n", b: "out" },
+    amp,
+  ],
+  limits: (t) => {
+    const k = Math.abs(t.gain);
+    const max = 2 * q(t) * q(t);
+    return k < max * (1 - 1e-6)
+      ? null
+      : `a multiple-feedback bandpass with equal capacitors at Q = ${q(t)} reaches a gain magnitude of at most 2Q^2 = ${max.toPrecision(4)} (got ${t.gain}); lower the gain or choose the two-resistor bandpass`;
+  },
+  solve: (t) => {
+    const w0 = w0Of(t);
+    const k = Math.abs(t.gain);
+    const qv = q(t);
+    return { C1: 1, C2: 1, R3: (2 * qv) / w0, R1: qv / (k * w0), R2: 1 / (w0 * (2 * qv - k / qv)) };
+  },
+  figures: (v) => {
+    const c1 = g(v, "C1");
+    const c2 = g(v, "C2");
+    const w0 = Math.sqrt((1 / g(v, "R1") + 1 / g(v, "R2")) / (g(v, "R3") * c1 * c2));
+    return { f0Hz: w0 / TWO_PI, q: (w0 * g(v, "R3") * c1 * c2) / (c1 + c2), gain: -(g(v, "R3") * c1) / (g(v, "R1") * (c1 + c2)) };
+  },
+  closedForm: (v, s, a) =>
+    mfbKernel([re(1 / g(v, "R1")), re(1 / g(v, "R2")), sx(s, g(v, "C1")), sx(s, g(v, "C2")), re(1 / g(v, "R3"))], a),
+  closedFormFinite: true,
+});

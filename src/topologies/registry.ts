@@ -1,0 +1,112 @@
+/**
+ * The registry of every topology, and look-ups by id and by what a stage must do.
+ *
+ * @module
+ */
+import { InvalidArgumentError } from "../errors.ts";
+import {
+  firstOrderHighpassBuffer,
+  firstOrderHighpassInverting,
+  firstOrderHighpassNoninverting,
+  firstOrderLowpassBuffer,
+  firstOrderLowpassInverting,
+  firstOrderLowpassNoninverting,
+} from "./first-order.ts";
+import { mfbBandpass, mfbBandpassAttenuated, mfbHighpass, mfbLowpass } from "./multiple-feedback.ts";
+import {
+  sallenKeyHighpassEqual,
+  sallenKeyHighpassGain,
+  sallenKeyHighpassUnity,
+  sallenKeyLowpassEqual,
+  sallenKeyLowpassGain,
+  sallenKeyLowpassUnity,
+} from "./sallen-key.ts";
+import { stateVariableAllpass, stateVariableNotch } from "./state-variable.ts";
+import { towThomasAllpass, towThomasHighpassNotch, towThomasLowpassNotch, towThomasNotch } from "./tow-thomas.ts";
+import type { StageKind, Topology } from "./types.ts";
+
+/** Every topology, first order first, then by family. */
+export const topologies: readonly Topology[] = Object.freeze([
+  firstOrderLowpassBuffer,
+  firstOrderHighpassBuffer,
+  firstOrderLowpassNoninverting,
+  firstOrderHighpassNoninverting,
+  firstOrderLowpassInverting,
+  firstOrderHighpassInverting,
+  sallenKeyLowpassUnity,
+  sallenKeyLowpassEqual,
+  sallenKeyLowpassGain,
+  sallenKeyHighpassUnity,
+  sallenKeyHighpassEqual,
+  sallenKeyHighpassGain,
+  mfbLowpass,
+  mfbHighpass,
+  mfbBandpass,
+  mfbBandpassAttenuated,
+  stateVariableNotch,
+  stateVariableAllpass,
+  towThomasLowpassNotch,
+  towThomasHighpassNotch,
+  towThomasNotch,
+  towThomasAllpass,
+]);
+
+/**
+ * Find a topology by its id.
+ *
+ * @param id - e.g. `"sallen-key-lowpass-unity"`
+ * @returns the topology
+ * @throws {@link InvalidArgumentError} when no topology has that id (the message lists them)
+ * @example
+ * ```ts
+ * getTopology("mfb-lowpass").opampCount; //=> 1
+ * ```
+ */
+export function getTopology(id: string): Topology {
+  const t = topologies.find((x) => x.id === id);
+  if (t === undefined) {
+    throw new InvalidArgumentError({
+      fn: "getTopology",
+      path: "id",
+      received: id,
+      message: `expected one of ${topologies.map((x) => `"${x.id}"`).join(", ")}`,
+    });
+  }
+  return t;
+}
+
+/** What a stage must do, for {@link topologiesFor}. */
+export interface TopologyQuery {
+  /** Section kind. */
+  readonly kind: StageKind;
+  /** Section order. */
+  readonly order: 1 | 2;
+}
+
+/**
+ * Every topology that realises a section kind of a given order, in registry order.
+ *
+ * @param query - kind and order
+ * @returns the matching topologies (possibly none)
+ * @throws {@link InvalidArgumentError} for an unknown kind or an order other than 1 or 2
+ * @example
+ * ```ts
+ * topologiesFor({ kind: "allpass", order: 2 }).map((t) => t.id);
+ * //=> ["state-variable-allpass", "tow-thomas-allpass"]
+ * ```
+ */
+export function topologiesFor(query: TopologyQuery): readonly Topology[] {
+  const kinds: readonly StageKind[] = ["lowpass", "highpass", "bandpass", "lowpass-notch", "highpass-notch", "notch", "allpass"];
+  if (query === null || typeof query !== "object" || !kinds.includes(query.kind)) {
+    throw new InvalidArgumentError({
+      fn: "topologiesFor",
+      path: "query.kind",
+      received: query?.kind,
+      message: `expected one of ${kinds.map((k) => `"${k}"`).join(", ")}`,
+    });
+  }
+  if (query.order !== 1 && query.order !== 2) {
+    throw new InvalidArgumentError({ fn: "topologiesFor", path: "query.order", received: query.order, message: "expected 1 or 2" });
+  }
+  return topologies.filter((t) => t.order === query.order && t.kinds.includes(query.kind));
+}

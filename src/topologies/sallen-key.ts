@@ -1,0 +1,321 @@
+/**
+ * Sallen-Key lowpass and highpass stages: unity gain, equal component, and
+ * general gain (R. P. Sallen & E. L. Key, "A practical method of designing RC
+ * active filters", IRE Trans. Circuit Theory CT-2(1):74-85, 1955; design
+ * equations as in R. Schaumann & M. E. Van Valkenburg, "Design of Analog
+ * Filters", Oxford University Press, 2001, chapter on single-amplifier
+ * biquads, from memory).
+ *
+ * Lowpass parts: R1 in -> a, R2 a -> b, C1 a -> out (feedback capacitor),
+ * C2 b -> 0 (grounded capacitor), U1 non-inverting input at b. Gain
+ * `K = 1 + R3/R4` with R3 out -> inverting input, R4 inverting input -> 0
+ * (unity form: inverting input tied to out, no R3/R4).
+ *
+ *   H(s) = K / (1 + s (R1 C2 + R2 C2 + (1 - K) R1 C1) + s^2 R1 R2 C1 C2)
+ *   w0 = 1 / sqrt(R1 R2 C1 C2),  Q = sqrt(R1 R2 C1 C2) / (R1 C2 + R2 C2 + (1 - K) R1 C1)
+ *
+ * Highpass parts: C1 in -> a, C2 a -> b, R1 a -> out (feedback resistor),
+ * R2 b -> 0, same amplifier.
+ *
+ *   H(s) = K s^2 R1 R2 C1 C2 / (1 + s (R1 (C1 + C2) + (1 - K) R2 C2) + s^2 R1 R2 C1 C2)
+ *   w0 = 1 / sqrt(R1 R2 C1 C2),  Q = sqrt(R1 R2 C1 C2) / (R1 (C1 + C2) + (1 - K) R2 C2)
+ *
+ * Design choices:
+ * - Lowpass, unity and general gain: `capacitorRatio` m = C1/C2. With the
+ *   capacitors fixed, R1 and R2 are the roots of a quadratic that has real
+ *   roots only when m >= 4 Q^2 / (1 + 4 Q^2 (K - 1)) (= 4 Q^2 at unity gain).
+ *   The default m is that minimum, which makes R1 = R2 (the equal-resistor
+ *   form). R1 is the smaller root otherwise.
+ * - Highpass, unity and general gain: `capacitorRatio` r = C1/C2, default 1
+ *   (equal capacitors); any Q is realisable; at unity gain with equal
+ *   capacitors R2/R1 = 4 Q^2.
+ * - Equal component (R1 = R2, C1 = C2, lowpass and highpass): the gain is
+ *   fixed at K = 3 - 1/Q, so Q must exceed 1/2; the Q sensitivity to K is
+ *   3Q - 1, so the form is refused above Q = 10 (sensitivity 29).
+ * - `capacitor` sets C2 (lowpass) or C1 (highpass); `resistor` sets R1;
+ *   default R1 = 10 kOhm. The gain resistor R4 equals R1 before scaling.
+ *
+ * Finite-GBW response (closed form): the amplifier is a VCVS of gain
+ * `Ke = A / (1 + A beta)` (beta = R4/(R3+R4), 1 at unity), exact for the
+ * single-pole model without output resistance, substituted for K above.
+ * GBW demand: computed numerically from that response (f0 and Q within 1 %);
+ * common practice, no source, asks for GBW >= 100 K f0 (more for high Q).
+ *
+ * @module
+ */
+import type { Complex } from "../math/complex.ts";
+import type { ComponentValues, StageChoices, StageTarget } from "./types.ts";
+import {
+  TWO_PI,
+  atLeast,
+  cadd,
+  cdiv,
+  cmul,
+  csub,
+  defineTopology,
+  nonInvertingGain,
+  re,
+  sx,
+  type DefinedTopology,
+  type PartSpec,
+} from "./common.ts";
+
+const REF =
+  'R. P. Sallen & E. L. Key, IRE Trans. Circuit Theory CT-2(1):74-85, 1955; R. Schaumann & M. E. Van Valkenburg, "Design of Analog Filters", 2001, single-amplifier biquads (from memory)';
+
+/** Q above which the equal-component form is refused (Q sensitivity to gain 3Q - 1 = 29). */
+export const EQUAL_COMPONENT_MAX_Q = 10;
+
+const g = (v: ComponentValues, k: string): number => v[k] as number;
+const q = (t: StageTarget): number => t.q as number;
+const w0Of = (t: StageTarget): number => TWO_PI * t.f0Hz;
+
+const lowPassive: PartSpec[] = [
+  { kind: "R", name: "R1", a: "in", b: "a" },
+  { kind: "R", name: "R2", a: "a", b: "b" },
+  { kind: "C", name: "C1", a: "a", b: "out" },
+  { kind: "C", name: "C2", a: "b", b: "0" },
+];
+const highPassive: PartSpec[] = [
+  { kind: "C", name: "C1", a: "in", b: "a" },
+  { kind: "C", name: "C2", a: "a", b: "b" },
+  { kind: "R", name: "R1", a: "a", b: "out" },
+  { kind: "R", name: "R2", a: "b", b: "0" },
+];
+const follower: PartSpec[] = [{ kind: "OA", name: "U1", inP: "b", inN: "out", out: "out" }];
+const gainAmp: PartSpec[] = [
+  { kind: "OA", name: "U1", inP: "b", inN: "fb", out: "out" },
+  { kind: "R", name: "R3", a: "out", b: "fb" },
+  { kind: "R", name: "R4", a: "fb", b: "0" },
+];
+
+const kOf = (v: ComponentValues): number => (v["R3"] === undefined ? 1 : 1 + g(v, "R3") / g(v, "R4"));
+const betaOf = (v: ComponentValues): number => (v["R3"] === undefined ? 1 : g(v, "R4") / (g(v, "R3") + g(v, "R4")));
+
+function lowFigures(v: ComponentValues): { f0Hz: number; q: number; gain: number } {
+  const k = kOf(v);
+  const p = g(v, "R1") * g(v, "R2") * g(v, "C1") * g(v, "C2");
+  const b1 = g(v, "R1") * g(v, "C2") + g(v, "R2") * g(v, "C2") + (1 - k) * g(v, "R1") * g(v, "C1");
+  return { f0Hz: 1 / (TWO_PI * Math.sqrt(p)), q: Math.sqrt(p) / b1, gain: k };
+}
+
+function highFigures(v: ComponentValues): { f0Hz: number; q: number; gain: number } {
+  const k = kOf(v);
+  const p = g(v, "R1") * g(v, "R2") * g(v, "C1") * g(v, "C2");
+  const b1 = g(v, "R1") * (g(v, "C1") + g(v, "C2")) + (1 - k) * g(v, "R2") * g(v, "C2");
+  return { f0Hz: 1 / (TWO_PI * Math.sqrt(p)), q: Math.sqrt(p) / b1, gain: k };
+}
+
+function lowClosed(v: ComponentValues, s: Complex, a: Complex | null): Complex {
+  const ke = nonInvertingGain(a, betaOf(v));
+  const r1 = g(v, "R1");
+  const r2 = g(v, "R2");
+  const c1 = g(v, "C1");
+  const c2 = g(v, "C2");
+  // 1 + s (R1 C2 + R2 C2) + s (1 - Ke) R1 C1 + s^2 R1 R2 C1 C2
+  const s2 = cmul(s, s);
+  let den = cadd(re(1), sx(s, r1 * c2 + r2 * c2));
+  den = cadd(den, cmul(sx(s, r1 * c1), csub(re(1), ke)));
+  den = cadd(den, sx(s2, r1 * r2 * c1 * c2));
+  return cdiv(ke, den);
+}
+
+function highClosed(v: ComponentValues, s: Complex, a: Complex | null): Complex {
+  const ke = nonInvertingGain(a, betaOf(v));
+  const r1 = g(v, "R1");
+  const r2 = g(v, "R2");
+  const c1 = g(v, "C1");
+  const c2 = g(v, "C2");
+  const s2p = sx(cmul(s, s), r1 * r2 * c1 * c2);
+  let den = cadd(re(1), sx(s, r1 * (c1 + c2)));
+  den = cadd(den, cmul(sx(s, r2 * c2), csub(re(1), ke)));
+  den = cadd(den, s2p);
+  return cdiv(cmul(ke, s2p), den);
+}
+
+/** Minimum C1/C2 of a Sallen-Key lowpass of gain K >= 1. */
+export function sallenKeyLowpassMinRatio(qv: number, k: number): number {
+  return (4 * qv * qv) / (1 + 4 * qv * qv * (k - 1));
+}
+
+function lowRatio(t: StageTarget, c: StageChoices): number {
+  return c.capacitorRatio ?? sallenKeyLowpassMinRatio(q(t), t.gain);
+}
+
+function lowSolve(t: StageTarget, c: StageChoices): Record<string, number> {
+  const w0 = w0Of(t);
+  const k = t.gain;
+  const m = lowRatio(t, c);
+  // C2 = 1, C1 = m; a R1^2 - b R1 + cc = 0
+  const a = 1 + m * (1 - k);
+  const b = 1 / (w0 * q(t));
+  const cc = 1 / (w0 * w0 * m);
+  let disc = b * b - 4 * a * cc;
+  if (disc < 0 && disc > -1e-9 * b * b) disc = 0;
+  const r1 = (2 * cc) / (b + Math.sqrt(disc));
+  const r2 = cc / r1;
+  const out: Record<string, number> = { C1: m, C2: 1, R1: r1, R2: r2 };
+  if (k !== 1) {
+    out["R4"] = r1;
+    out["R3"] = (k - 1) * r1;
+  }
+  return out;
+}
+
+function highSolve(t: StageTarget, c: StageChoices): Record<string, number> {
+  const w0 = w0Of(t);
+  const k = t.gain;
+  const r = c.capacitorRatio ?? 1;
+  // C2 = 1, C1 = r; (r + 1) R1^2 - b R1 - (K - 1) P = 0, P = R1 R2 = 1/(w0^2 r)
+  const p = 1 / (w0 * w0 * r);
+  const b = 1 / (w0 * q(t));
+  const r1 = (b + Math.sqrt(b * b + 4 * (r + 1) * (k - 1) * p)) / (2 * (r + 1));
+  const out: Record<string, number> = { C1: r, C2: 1, R1: r1, R2: p / r1 };
+  if (k !== 1) {
+    out["R4"] = r1;
+    out["R3"] = (k - 1) * r1;
+  }
+  return out;
+}
+
+function equalSolve(t: StageTarget): Record<string, number> {
+  const r = 1 / w0Of(t);
+  return { C1: 1, C2: 1, R1: r, R2: r, R4: r, R3: (2 - 1 / q(t)) * r };
+}
+
+function equalLimits(t: StageTarget): string | null {
+  const qv = q(t);
+  if (!(qv > 0.5)) {
+    return `an equal-component Sallen-Key stage needs Q above 0.5 (its gain 3 - 1/Q must exceed 1), got Q = ${qv}; choose the unity-gain or general-gain form`;
+  }
+  if (qv > EQUAL_COMPONENT_MAX_Q) {
+    return `an equal-component Sallen-Key stage at Q = ${qv} is impractically sensitive to its gain (Q changes ${(3 * qv - 1).toFixed(1)} times faster than the gain); keep Q <= ${EQUAL_COMPONENT_MAX_Q} or choose a multiple-feedback or state-variable stage`;
+  }
+  return null;
+}
+
+const unityOnly = (t: StageTarget): string | null =>
+  Math.abs(t.gain - 1) > 1e-9
+    ? `a unity-gain Sallen-Key stage has gain 1 (got ${t.gain}); choose the general-gain or equal-component form for other gains`
+    : null;
+const aboveOne = (t: StageTarget): string | null =>
+  t.gain > 1 + 1e-9 ? null : `the general-gain Sallen-Key form needs a gain above 1 (got ${t.gain}); for gain 1 choose the unity-gain form`;
+
+function lowRatioLimit(t: StageTarget, c: StageChoices, unity: boolean): string | null {
+  if (c.capacitorRatio === undefined) return null;
+  const min = sallenKeyLowpassMinRatio(q(t), t.gain);
+  if (atLeast(c.capacitorRatio, min)) return null;
+  return unity
+    ? `a unity-gain Sallen-Key lowpass needs its feedback capacitor C1 at least 4Q^2 = ${min.toPrecision(4)} times its grounded capacitor C2 (capacitorRatio ${c.capacitorRatio}); raise capacitorRatio or choose an equal-component or multiple-feedback stage`
+    : `a Sallen-Key lowpass of gain ${t.gain} at Q = ${q(t)} needs C1/C2 at least 4Q^2/(1 + 4Q^2 (K - 1)) = ${min.toPrecision(4)} (capacitorRatio ${c.capacitorRatio}); raise capacitorRatio or the gain`;
+}
+
+/** Unity-gain Sallen-Key lowpass (equal resistors by default). */
+export const sallenKeyLowpassUnity: DefinedTopology = defineTopology({
+  id: "sallen-key-lowpass-unity",
+  name: "Sallen-Key lowpass, unity gain",
+  order: 2,
+  kinds: ["lowpass"],
+  inverting: false,
+  reference: REF,
+  levelCapacitor: "C2",
+  levelResistor: "R1",
+  parts: [...lowPassive, ...follower],
+  limits: (t, c) => unityOnly(t) ?? lowRatioLimit(t, c, true),
+  solve: (t, c) => lowSolve({ ...t, gain: 1 }, c),
+  figures: lowFigures,
+  closedForm: lowClosed,
+  closedFormFinite: true,
+});
+
+/** Equal-component Sallen-Key lowpass (gain fixed at 3 - 1/Q). */
+export const sallenKeyLowpassEqual: DefinedTopology = defineTopology({
+  id: "sallen-key-lowpass-equal",
+  name: "Sallen-Key lowpass, equal components",
+  order: 2,
+  kinds: ["lowpass"],
+  inverting: false,
+  reference: REF,
+  levelCapacitor: "C2",
+  levelResistor: "R1",
+  parts: [...lowPassive, ...gainAmp],
+  limits: equalLimits,
+  solve: equalSolve,
+  figures: lowFigures,
+  closedForm: lowClosed,
+  closedFormFinite: true,
+  fixedGain: (t) => 3 - 1 / (t.q as number),
+});
+
+/** General-gain Sallen-Key lowpass (chosen capacitor ratio). */
+export const sallenKeyLowpassGain: DefinedTopology = defineTopology({
+  id: "sallen-key-lowpass-gain",
+  name: "Sallen-Key lowpass, gain K",
+  order: 2,
+  kinds: ["lowpass"],
+  inverting: false,
+  reference: REF,
+  levelCapacitor: "C2",
+  levelResistor: "R1",
+  parts: [...lowPassive, ...gainAmp],
+  limits: (t, c) => aboveOne(t) ?? lowRatioLimit(t, c, false),
+  solve: lowSolve,
+  figures: lowFigures,
+  closedForm: lowClosed,
+  closedFormFinite: true,
+});
+
+/** Unity-gain Sallen-Key highpass (equal capacitors by default). */
+export const sallenKeyHighpassUnity: DefinedTopology = defineTopology({
+  id: "sallen-key-highpass-unity",
+  name: "Sallen-Key highpass, unity gain",
+  order: 2,
+  kinds: ["highpass"],
+  inverting: false,
+  reference: REF,
+  levelCapacitor: "C1",
+  levelResistor: "R1",
+  parts: [...highPassive, ...follower],
+  limits: unityOnly,
+  solve: (t, c) => highSolve({ ...t, gain: 1 }, c),
+  figures: highFigures,
+  closedForm: highClosed,
+  closedFormFinite: true,
+});
+
+/** Equal-component Sallen-Key highpass (gain fixed at 3 - 1/Q). */
+export const sallenKeyHighpassEqual: DefinedTopology = defineTopology({
+  id: "sallen-key-highpass-equal",
+  name: "Sallen-Key highpass, equal components",
+  order: 2,
+  kinds: ["highpass"],
+  inverting: false,
+  reference: REF,
+  levelCapacitor: "C1",
+  levelResistor: "R1",
+  parts: [...highPassive, ...gainAmp],
+  limits: equalLimits,
+  solve: equalSolve,
+  figures: highFigures,
+  closedForm: highClosed,
+  closedFormFinite: true,
+  fixedGain: (t) => 3 - 1 / (t.q as number),
+});
+
+/** General-gain Sallen-Key highpass (chosen capacitor ratio, default equal). */
+export const sallenKeyHighpassGain: DefinedTopology = defineTopology({
+  id: "sallen-key-highpass-gain",
+  name: "Sallen-Key highpass, gain K",
+  order: 2,
+  kinds: ["highpass"],
+  inverting: false,
+  reference: REF,
+  levelCapacitor: "C1",
+  levelResistor: "R1",
+  parts: [...highPassive, ...gainAmp],
+  limits: aboveOne,
+  solve: highSolve,
+  figures: highFigures,
+  closedForm: highClosed,
+  closedFormFinite: true,
+});

@@ -1,0 +1,180 @@
+/**
+ * Kerwin-Huelsman-Newcomb (KHN) state-variable biquad with a fourth op-amp
+ * summing its highpass, lowpass (and for the allpass, bandpass) outputs:
+ * lowpass-notch, highpass-notch and symmetric notch from one circuit, and an
+ * allpass section (W. J. Kerwin, L. P. Huelsman & R. W. Newcomb,
+ * "State-variable synthesis for insensitive integrated circuit transfer
+ * functions", IEEE J. Solid-State Circuits SC-2(3):87-92, 1967; summing
+ * stage as in L. P. Huelsman & P. E. Allen, "Introduction to the Theory and
+ * Design of Active Filters", 1980, state-variable realisations, from memory).
+ *
+ * Parts: U1 summing/difference amplifier (output hp): R1 in -> n1,
+ * R2 hp -> n1, R3 lp -> n1 at the inverting input; R4 bp -> p1, R5 p1 -> 0 at
+ * the non-inverting input. U2 integrator: R6 hp -> n2, C1 n2 -> bp.
+ * U3 integrator: R7 bp -> n3, C2 n3 -> lp. U4 output summer: R8 hp -> n4,
+ * R9 lp -> n4, R10 n4 -> out (feedback), and for the allpass R11 bp -> n4.
+ *
+ * With beta = R5/(R4 + R5), G = 1/R1 + 1/R2 + 1/R3, tau1 = R6 C1, tau2 = R7 C2,
+ * H0 = R2/R1:
+ *
+ *   D(s) = s^2 + s beta G R2/tau1 + R2/(R3 tau1 tau2)
+ *   hp = -H0 s^2/D,  bp = H0 (s/tau1)/D,  lp = -H0/(tau1 tau2 D)
+ *   w0^2 = R2/(R3 tau1 tau2),  Q = w0 tau1/(beta G R2)
+ *   H = -R10 (hp/R8 + lp/R9 + bp/R11) = H0 R10 (s^2/R8 - s/(R11 tau1) + 1/(R9 tau1 tau2))/D
+ *   wz^2 = R8/(R9 tau1 tau2); HF gain H0 R10/R8; DC gain H0 R10/(R9 tau1 tau2 w0^2).
+ *
+ * The sections are non-inverting. Allpass: R11 = Q R8/(w0 tau1) and
+ * R9 = R8/(w0^2 tau1 tau2), i.e. R11 = Q R8 and R9 = R8 in the design below
+ * (tau1 = tau2 = 1/w0).
+ *
+ * Design: C1 = C2 = C, R1 = R2 = R3 = R6 = R7 = R10 = 1/(w0 C),
+ * R4 = (3Q - 1) R5 with R5 = 1/(w0 C) (so beta = 1/(3Q); needs Q > 1/3).
+ * Notch: the gain at the reference frequency sets R9 (lowpass-notch, DC) or
+ * R8 (highpass-notch and notch, high frequency) and R8/R9 = wz^2/w0^2.
+ * `capacitor` sets C1 (= C2); `resistor` sets R1 (the level of every
+ * resistor); default R1 = 10 kOhm. No ratio choices.
+ *
+ * Finite-GBW response: nodal analysis of the stage's own elements.
+ * GBW demand: computed numerically (f0 and Q within 1 %); common practice,
+ * no source, asks for GBW >= 100 Q f0 for state-variable stages.
+ *
+ * @module
+ */
+import type { Complex } from "../math/complex.ts";
+import type { ComponentValues, StageFigures, StageTarget } from "./types.ts";
+import { TWO_PI, cadd, cdiv, cmul, defineTopology, re, sx, type DefinedTopology, type PartSpec } from "./common.ts";
+
+const REF =
+  'W. J. Kerwin, L. P. Huelsman & R. W. Newcomb, IEEE J. Solid-State Circuits SC-2(3):87-92, 1967; L. P. Huelsman & P. E. Allen, "Introduction to the Theory and Design of Active Filters", 1980, state-variable realisations (from memory)';
+
+const g = (v: ComponentValues, k: string): number => v[k] as number;
+
+const core: PartSpec[] = [
+  { kind: "R", name: "R1", a: "in", b: "n1" },
+  { kind: "R", name: "R2", a: "hp", b: "n1" },
+  { kind: "R", name: "R3", a: "lp", b: "n1" },
+  { kind: "R", name: "R4", a: "bp", b: "p1" },
+  { kind: "R", name: "R5", a: "p1", b: "0" },
+  { kind: "OA", name: "U1", inP: "p1", inN: "n1", out: "hp" },
+  { kind: "R", name: "R6", a: "hp", b: "n2" },
+  { kind: "C", name: "C1", a: "n2", b: "bp" },
+  { kind: "OA", name: "U2", inP: "0", inN: "n2", out: "bp" },
+  { kind: "R", name: "R7", a: "bp", b: "n3" },
+  { kind: "C", name: "C2", a: "n3", b: "lp" },
+  { kind: "OA", name: "U3", inP: "0", inN: "n3", out: "lp" },
+  { kind: "R", name: "R8", a: "hp", b: "n4" },
+  { kind: "R", name: "R9", a: "lp", b: "n4" },
+  { kind: "R", name: "R10", a: "n4", b: "out" },
+  { kind: "OA", name: "U4", inP: "0", inN: "n4", out: "out" },
+];
+
+interface Core {
+  readonly w0: number;
+  readonly q: number;
+  readonly tau1: number;
+  readonly tau2: number;
+  readonly h0: number;
+  readonly damp: number;
+}
+
+function coreOf(v: ComponentValues): Core {
+  const beta = g(v, "R5") / (g(v, "R4") + g(v, "R5"));
+  const gsum = 1 / g(v, "R1") + 1 / g(v, "R2") + 1 / g(v, "R3");
+  const tau1 = g(v, "R6") * g(v, "C1");
+  const tau2 = g(v, "R7") * g(v, "C2");
+  const w0 = Math.sqrt(g(v, "R2") / (g(v, "R3") * tau1 * tau2));
+  const damp = (beta * gsum * g(v, "R2")) / tau1;
+  return { w0, q: w0 / damp, tau1, tau2, h0: g(v, "R2") / g(v, "R1"), damp };
+}
+
+function closedForm(allpass: boolean) {
+  return (v: ComponentValues, s: Complex, a: Complex | null): Complex => {
+    void a; // ideal only; finite-gain responses go through nodal analysis
+    const c = coreOf(v);
+    const s2 = cmul(s, s);
+    const d = cadd(cadd(s2, sx(s, c.damp)), re(c.w0 * c.w0));
+    let num = cadd(sx(s2, 1 / g(v, "R8")), re(1 / (g(v, "R9") * c.tau1 * c.tau2)));
+    if (allpass) num = cadd(num, sx(s, -1 / (g(v, "R11") * c.tau1)));
+    return sx(cdiv(num, d), c.h0 * g(v, "R10"));
+  };
+}
+
+function figures(allpass: boolean) {
+  return (v: ComponentValues): StageFigures => {
+    const c = coreOf(v);
+    const dc = (c.h0 * g(v, "R10")) / (g(v, "R9") * c.tau1 * c.tau2 * c.w0 * c.w0);
+    const hf = (c.h0 * g(v, "R10")) / g(v, "R8");
+    if (allpass) return { f0Hz: c.w0 / TWO_PI, q: c.q, gain: dc };
+    const wz = Math.sqrt(g(v, "R8") / (g(v, "R9") * c.tau1 * c.tau2));
+    return { f0Hz: c.w0 / TWO_PI, q: c.q, fzHz: wz / TWO_PI, gain: wz > c.w0 ? dc : hf };
+  };
+}
+
+function baseValues(t: StageTarget): Record<string, number> {
+  const w0 = TWO_PI * t.f0Hz;
+  const r = 1 / w0;
+  const qv = t.q as number;
+  return { C1: 1, C2: 1, R1: r, R2: r, R3: r, R5: r, R4: (3 * qv - 1) * r, R6: r, R7: r, R10: r };
+}
+
+const qLimit = (t: StageTarget): string | null =>
+  (t.q as number) > 1 / 3 + 1e-9
+    ? null
+    : `this state-variable stage sets Q with a divider of ratio 1/(3Q), so it needs Q above 1/3 (got ${t.q}); choose a Sallen-Key or multiple-feedback stage for such a low Q`;
+
+/** KHN state-variable notch section: lowpass-notch, highpass-notch or symmetric notch, from the zero frequency. */
+export const stateVariableNotch: DefinedTopology = defineTopology({
+  id: "state-variable-notch",
+  name: "state-variable (KHN) notch",
+  order: 2,
+  kinds: ["lowpass-notch", "highpass-notch", "notch"],
+  inverting: false,
+  reference: REF,
+  levelCapacitor: "C1",
+  levelResistor: "R1",
+  parts: core,
+  limits: qLimit,
+  solve: (t) => {
+    const v = baseValues(t);
+    const w0 = TWO_PI * t.f0Hz;
+    const wz = TWO_PI * (t.fzHz ?? t.f0Hz);
+    const r10 = v["R10"] as number;
+    const ratio = (wz * wz) / (w0 * w0); // R8 / R9
+    if (t.kind === "lowpass-notch") {
+      v["R9"] = r10 / t.gain;
+      v["R8"] = (v["R9"] as number) * ratio;
+    } else {
+      v["R8"] = r10 / t.gain;
+      v["R9"] = (v["R8"] as number) / ratio;
+    }
+    return v;
+  },
+  figures: figures(false),
+  closedForm: closedForm(false),
+  closedFormFinite: false,
+});
+
+/** KHN state-variable allpass section. */
+export const stateVariableAllpass: DefinedTopology = defineTopology({
+  id: "state-variable-allpass",
+  name: "state-variable (KHN) allpass",
+  order: 2,
+  kinds: ["allpass"],
+  inverting: false,
+  reference: REF,
+  levelCapacitor: "C1",
+  levelResistor: "R1",
+  parts: [...core, { kind: "R", name: "R11", a: "bp", b: "n4" }],
+  limits: qLimit,
+  solve: (t) => {
+    const v = baseValues(t);
+    const r8 = (v["R10"] as number) / t.gain;
+    v["R8"] = r8;
+    v["R9"] = r8;
+    v["R11"] = (t.q as number) * r8;
+    return v;
+  },
+  figures: figures(true),
+  closedForm: closedForm(true),
+  closedFormFinite: false,
+});

@@ -1,0 +1,182 @@
+/**
+ * Tow-Thomas biquad (damped integrator, integrator, inverter) with a fourth
+ * op-amp summing the input, the bandpass output and the lowpass output (or
+ * its inverse), giving lowpass-notch, highpass-notch, symmetric notch and
+ * allpass sections (J. Tow, "Active RC filters - a state-space realization",
+ * Proc. IEEE 56(6):1137-1139, 1968; L. C. Thomas, "The biquad: part I - some
+ * practical design considerations", IEEE Trans. Circuit Theory
+ * CT-18(3):350-357, 1971; summing stage as in R. Schaumann & M. E. Van
+ * Valkenburg, "Design of Analog Filters", 2001, chapter on two-integrator-loop
+ * biquads, from memory).
+ *
+ * Parts: U1 damped integrator: R1 in -> n1, R2 and C1 n1 -> v1, R3 v3 -> n1.
+ * U2 integrator: R4 v1 -> n2, C2 n2 -> v2. U3 inverter: R5 v2 -> n3,
+ * R6 n3 -> v3. U4 summer: R7 in -> n4, R8 v1 -> n4, R9 n4 -> out (feedback),
+ * and R10 from v2 (lowpass-notch) or v3 (highpass-notch) to n4.
+ *
+ *   D(s) = s^2 + s/(R2 C1) + w0^2,   w0^2 = R6/(R3 R4 R5 C1 C2),   Q = w0 R2 C1
+ *   v1/vin = -(s/(R1 C1))/D,   v2/vin = 1/(R1 R4 C1 C2 D),   v3 = -(R6/R5) v2
+ *   H = -R9 (vin/R7 + v1/R8 + vx/R10) / vin
+ *
+ * With R8 = R7 R2/R1 the s-term of the numerator cancels and
+ * `H = -(R9/R7)(s^2 + wz^2)/D`, wz^2 = w0^2 +- R7/(R10 R1 R4 C1 C2) (plus with
+ * v2, minus with v3, times R6/R5). With R8 = R7 R2/(2 R1) and no R10 the
+ * section is the allpass `-(R9/R7)(s^2 - s w0/Q + w0^2)/D`. All variants are
+ * inverting: HF gain -R9/R7, DC gain -(R9/R7) wz^2/w0^2.
+ *
+ * Design: C1 = C2, R3 = R4 = R5 = R6 = 1/(w0 C), R1 = R2 = Q/(w0 C) (unity
+ * bandpass gain at v1), R9 = 1/(w0 C). `capacitor` sets C1 (= C2),
+ * `resistor` sets R3 (and with it the level of every resistor); default
+ * R3 = 10 kOhm. No ratio choices.
+ *
+ * Finite-GBW response: nodal analysis of the stage's own elements.
+ * GBW demand: computed numerically (f0 and Q within 1 %); common practice,
+ * no source, asks for GBW >= 100 f0 for the integrators, with the damped
+ * integrator's Q-enhancement the limiting effect at high Q.
+ *
+ * @module
+ */
+import type { Complex } from "../math/complex.ts";
+import type { ComponentValues, StageFigures, StageKind, StageTarget } from "./types.ts";
+import {
+  TWO_PI,
+  cadd,
+  cdiv,
+  cmul,
+  defineTopology,
+  re,
+  sx,
+  type DefinedTopology,
+  type PartSpec,
+} from "./common.ts";
+
+const REF =
+  'J. Tow, Proc. IEEE 56(6):1137-1139, 1968; L. C. Thomas, IEEE Trans. Circuit Theory CT-18(3):350-357, 1971; R. Schaumann & M. E. Van Valkenburg, "Design of Analog Filters", 2001, two-integrator-loop biquads (from memory)';
+
+const g = (v: ComponentValues, k: string): number => v[k] as number;
+
+type Variant = "lowpass-notch" | "highpass-notch" | "notch" | "allpass";
+
+const core: PartSpec[] = [
+  { kind: "R", name: "R1", a: "in", b: "n1" },
+  { kind: "R", name: "R2", a: "n1", b: "v1" },
+  { kind: "C", name: "C1", a: "n1", b: "v1" },
+  { kind: "R", name: "R3", a: "v3", b: "n1" },
+  { kind: "OA", name: "U1", inP: "0", inN: "n1", out: "v1" },
+  { kind: "R", name: "R4", a: "v1", b: "n2" },
+  { kind: "C", name: "C2", a: "n2", b: "v2" },
+  { kind: "OA", name: "U2", inP: "0", inN: "n2", out: "v2" },
+  { kind: "R", name: "R5", a: "v2", b: "n3" },
+  { kind: "R", name: "R6", a: "n3", b: "v3" },
+  { kind: "OA", name: "U3", inP: "0", inN: "n3", out: "v3" },
+  { kind: "R", name: "R7", a: "in", b: "n4" },
+  { kind: "R", name: "R8", a: "v1", b: "n4" },
+  { kind: "R", name: "R9", a: "n4", b: "out" },
+  { kind: "OA", name: "U4", inP: "0", inN: "n4", out: "out" },
+];
+
+function parts(variant: Variant): PartSpec[] {
+  if (variant === "lowpass-notch") return [...core, { kind: "R", name: "R10", a: "v2", b: "n4" }];
+  if (variant === "highpass-notch") return [...core, { kind: "R", name: "R10", a: "v3", b: "n4" }];
+  return core;
+}
+
+function w0Sq(v: ComponentValues): number {
+  return g(v, "R6") / (g(v, "R3") * g(v, "R4") * g(v, "R5") * g(v, "C1") * g(v, "C2"));
+}
+
+/** Constant numerator coefficient (times 1/R7-normalised) of the summed output. */
+function n0(variant: Variant, v: ComponentValues): number {
+  const k = 1 / (g(v, "R1") * g(v, "R4") * g(v, "C1") * g(v, "C2"));
+  const base = w0Sq(v) / g(v, "R7");
+  if (variant === "lowpass-notch") return base + k / g(v, "R10");
+  if (variant === "highpass-notch") return base - (k * g(v, "R6")) / (g(v, "R5") * g(v, "R10"));
+  return base;
+}
+
+function closedForm(variant: Variant) {
+  return (v: ComponentValues, s: Complex, a: Complex | null): Complex => {
+    void a; // ideal only; finite-gain responses go through nodal analysis
+    const d = cadd(cadd(cmul(s, s), sx(s, 1 / (g(v, "R2") * g(v, "C1")))), re(w0Sq(v)));
+    const h1 = cdiv(sx(s, -1 / (g(v, "R1") * g(v, "C1"))), d);
+    const h2 = cdiv(re(1 / (g(v, "R1") * g(v, "R4") * g(v, "C1") * g(v, "C2"))), d);
+    let sum = cadd(re(1 / g(v, "R7")), sx(h1, 1 / g(v, "R8")));
+    if (variant === "lowpass-notch") sum = cadd(sum, sx(h2, 1 / g(v, "R10")));
+    if (variant === "highpass-notch") sum = cadd(sum, sx(h2, -g(v, "R6") / (g(v, "R5") * g(v, "R10"))));
+    return sx(sum, -g(v, "R9"));
+  };
+}
+
+function figures(variant: Variant) {
+  return (v: ComponentValues): StageFigures => {
+    const w2 = w0Sq(v);
+    const w0 = Math.sqrt(w2);
+    const qv = w0 * g(v, "R2") * g(v, "C1");
+    const hf = -g(v, "R9") / g(v, "R7");
+    if (variant === "allpass") return { f0Hz: w0 / TWO_PI, q: qv, gain: hf };
+    const c0 = n0(variant, v);
+    const wz = Math.sqrt(Math.max(0, c0 * g(v, "R7")));
+    const dc = (-g(v, "R9") * c0) / w2;
+    return { f0Hz: w0 / TWO_PI, q: qv, fzHz: wz / TWO_PI, gain: variant === "highpass-notch" ? hf : dc };
+  };
+}
+
+function solve(variant: Variant) {
+  return (t: StageTarget): Record<string, number> => {
+    const w0 = TWO_PI * t.f0Hz;
+    const qv = t.q as number;
+    const k = Math.abs(t.gain);
+    const r = 1 / w0;
+    const out: Record<string, number> = { C1: 1, C2: 1, R1: qv * r, R2: qv * r, R3: r, R4: r, R5: r, R6: r, R9: r };
+    const kk = (w0 * w0) / qv; // 1/(R1 R4 C1 C2)
+    if (variant === "allpass") {
+      out["R7"] = r / k;
+      out["R8"] = r / k / 2;
+      return out;
+    }
+    const wz = TWO_PI * (t.fzHz ?? t.f0Hz);
+    if (variant === "lowpass-notch") {
+      out["R7"] = (r * wz * wz) / (k * w0 * w0);
+      out["R10"] = ((out["R7"] as number) * kk) / (wz * wz - w0 * w0);
+    } else {
+      out["R7"] = r / k;
+      if (variant === "highpass-notch") out["R10"] = ((out["R7"] as number) * kk) / (w0 * w0 - wz * wz);
+    }
+    out["R8"] = out["R7"] as number;
+    return out;
+  };
+}
+
+function make(variant: Variant, id: string, name: string): DefinedTopology {
+  const kinds: StageKind[] = [variant];
+  return defineTopology({
+    id,
+    name,
+    order: 2,
+    kinds,
+    inverting: true,
+    reference: REF,
+    levelCapacitor: "C1",
+    levelResistor: "R3",
+    parts: parts(variant),
+    limits: (t) => {
+      if (variant === "notch" && t.fzHz !== undefined && Math.abs(t.fzHz / t.f0Hz - 1) > 1e-9) {
+        return `the symmetric Tow-Thomas notch puts its zero at f0 (fzHz = ${t.fzHz}, f0Hz = ${t.f0Hz}); choose the lowpass-notch or highpass-notch form`;
+      }
+      return null;
+    },
+    solve: solve(variant),
+    figures: figures(variant),
+    closedForm: closedForm(variant),
+    closedFormFinite: false,
+  });
+}
+
+/** Tow-Thomas lowpass-notch section (zero above the pole; summer takes the lowpass output). */
+export const towThomasLowpassNotch: DefinedTopology = make("lowpass-notch", "tow-thomas-lowpass-notch", "Tow-Thomas lowpass-notch");
+/** Tow-Thomas highpass-notch section (zero below the pole; summer takes the inverted lowpass output). */
+export const towThomasHighpassNotch: DefinedTopology = make("highpass-notch", "tow-thomas-highpass-notch", "Tow-Thomas highpass-notch");
+/** Tow-Thomas symmetric notch (zero at the pole frequency). */
+export const towThomasNotch: DefinedTopology = make("notch", "tow-thomas-notch", "Tow-Thomas notch");
+/** Tow-Thomas allpass section. */
+export const towThomasAllpass: DefinedTopology = make("allpass", "tow-thomas-allpass", "Tow-Thomas allpass");
