@@ -82,6 +82,14 @@ class Checker {
   }
 }
 
+function topologyOrFail(c: Checker, path: string, id: string): ReturnType<typeof getTopology> {
+  try {
+    return getTopology(id);
+  } catch {
+    return c.fail(path, "unknown topology id", id);
+  }
+}
+
 function deepFreeze<T>(x: T): T {
   if (x !== null && typeof x === "object" && !Object.isFrozen(x)) {
     Object.freeze(x);
@@ -138,12 +146,7 @@ export function fromJson(text: string): DesignResult {
     const p = `result.stages.${i}`;
     const s = c.obj(p, sv);
     const id = c.str(`${p}.topology`, s["topology"]);
-    let topology;
-    try {
-      topology = getTopology(id);
-    } catch {
-      c.fail(`${p}.topology`, "unknown topology id", id);
-    }
+    const topology = topologyOrFail(c, `${p}.topology`, id);
     c.num(`${p}.index`, s["index"], true);
     const comps = c.obj(`${p}.components`, s["components"]);
     const local = c.obj(`${p}.localNames`, s["localNames"]);

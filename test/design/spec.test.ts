@@ -1,0 +1,126 @@
+import { describe, expect, it } from "vitest";
+import { SpecError } from "../../src/errors.ts";
+import { specToInput, validateSpec } from "../../src/design/spec.ts";
+
+const base = {
+  response: "lowpass",
+  passband: { edgeHz: "2k", maxLossDb: 0.5 },
+  stopband: { edgeHz: 12000, minAttenuationDb: 60 },
+} as const;
+
+function issuesOf(spec: unknown): { path: string; message: string }[] {
+  try {
+    validateSpec(spec);
+  } catch (e) {
+    expect(e).toBeInstanceOf(SpecError);
+    return [...(e as SpecError).issues];
+  }
+  throw new Error("expected a SpecError");
+}
+
+describe("validateSpec", () => {
+  it("fills every default and reads engineering notation", () => {
+    const s = validateSpec(base);
+    expect(s.passbandHz).toEqual([2000]);
+    expect(s.stopbandHz).toEqual([12000]);
+    expect(s.gain).toBe(1);
+    expect(s.polarity).toBe("either");
+    expect(s.family).toBe("auto");
+    expect(s.priority).toBe("fewest-stages");
+    expect(s.order).toBeNull();
+    expect(s.capacitorSeries).toBe("E12");
+    expect(s.resistorSeries).toBe("E96");
+    expect(s.resistorRange).toEqual({ min: 1000, max: 100000 });
+    expect(s.opamp).toEqual({ kind: "ideal" });
+    expect(Object.isFrozen(s)).toBe(true);
+  });
+
+  it("reads gain in dB and in V/V with the sign as polarity", () => {
+    expect(validateSpec({ ...base, gain: { db: 20 } }).gain).toBeCloseTo(10, 12);
+    const inv = validateSpec({ ...base, gain: { vPerV: -2.5 } });
+    expect(inv.gain).toBe(2.5);
+    expect(inv.polarity).toBe("inverting");
+  });
+
+  it("reads a real op-amp and part windows given as strings", () => {
+    const s = validateSpec({
+      ...base,
+      opamp: { a0: 2e5, gbwHz: "10 MHz" },
+      parts: { resistorMinOhm: "2k2", resistorMaxOhm: "470k", capacitorSeries: "E24" },
+    });
+    expect(s.opamp).toEqual({ kind: "single-pole", a0: 2e5, gbwHz: 1e7 });
+    expect(s.resistorRange).toEqual({ min: 2200, max: 470000 });
+    expect(s.capacitorSeries).toBe("E24");
+  });
+
+  it("collects every problem of a malformed spec into one SpecError with paths", () => {
+    const issues = issuesOf({
+      response: "lowpass",
+      passband: { edgeHz: "fast", maxLossDb: -1 },
+      stopband: { edgeHz: 1000, minAttenuationDb: "lots" },
+      gain: { db: 6, vPerV: 2 },
+      family: "gaussian",
+      order: 2.5,
+      topology: "no-such-circuit",
+      parts: { resistorSeries: "E7" },
+      opamp: { a0: 1e5 },
+      colour: "blue",
+    });
+    const paths = issues.map((i) => i.path).sort();
+    expect(paths).toEqual(
+      [
+        "colour",
+        "family",
+        "gain",
+        "opamp.gbwHz",
+        "order",
+        "parts.resistorSeries",
+        "passband.edgeHz",
+        "passband.maxLossDb",
+        "stopband.minAttenuationDb",
+        "topology",
+      ].sort(),
+    );
+  });
+
+  it("checks edge ordering for each response", () => {
+    expect(issuesOf({ ...base, stopband: { edgeHz: 1000, minAttenuationDb: 60 } }).map((i) => i.path)).toEqual([
+      "stopband.edgeHz",
+    ]);
+    expect(
+      issuesOf({
+        response: "bandpass",
+        passband: { edgeHz: [1000, 2000], maxLossDb: 1 },
+        stopband: { edgeHz: [1500, 4000], minAttenuationDb: 30 },
+      }).map((i) => i.path),
+    ).toEqual(["stopband.edgeHz"]);
+    expect(
+      issuesOf({
+        response: "bandstop",
+        passband: { edgeHz: 1000, maxLossDb: 1 },
+        stopband: { edgeHz: [1500, 4000], minAttenuationDb: 30 },
+      }).map((i) => i.path),
+    ).toEqual(["passband.edgeHz"]);
+    expect(issuesOf({ ...base, stopband: { edgeHz: 12000, minAttenuationDb: 0.2 } }).map((i) => i.path)).toEqual([
+      "stopband.minAttenuationDb",
+    ]);
+  });
+
+  it("rejects a non-object spec", () => {
+    expect(issuesOf(42).map((i) => i.path)).toEqual([""]);
+  });
+
+  it("round-trips through specToInput", () => {
+    const s = validateSpec({
+      response: "bandstop",
+      passband: { edgeHz: [30, 80], maxLossDb: 1 },
+      stopband: { edgeHz: [47, 53], minAttenuationDb: 25 },
+      gain: { vPerV: -3 },
+      family: "chebyshev1",
+      order: 3,
+      topology: "auto",
+      opamp: { a0: 1e5, gbwHz: 1e6 },
+    });
+    expect(validateSpec(specToInput(s))).toEqual(s);
+  });
+});
