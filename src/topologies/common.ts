@@ -159,11 +159,15 @@ function commonLimits(spec: TopologySpec, t: StageTarget): string | null {
   if (t.kind === "highpass-notch" && fz !== undefined && !(fz < t.f0Hz)) {
     return `a highpass-notch section has its zero below its pole (fzHz < f0Hz); got fzHz = ${fz} and f0Hz = ${t.f0Hz}: use kind "lowpass-notch" or "notch"`;
   }
-  if (spec.fixedGain !== undefined) {
-    const g = spec.fixedGain(t);
-    if (Math.abs(t.gain - g) > LIMIT_SLACK * Math.abs(g)) {
-      return `${spec.name} has its gain fixed by its other figures at ${g} for this target; set the stage gain to ${g} or choose a topology with a free gain`;
-    }
+  return null;
+}
+
+/** Reason the target's gain differs from a gain the topology fixes, or null. */
+function fixedGainLimit(spec: TopologySpec, t: StageTarget): string | null {
+  if (spec.fixedGain === undefined) return null;
+  const g = spec.fixedGain(t);
+  if (Math.abs(t.gain - g) > LIMIT_SLACK * Math.abs(g)) {
+    return `${spec.name} has its gain fixed by its other figures at ${g} for this target; set the stage gain to ${g} or choose a topology with a free gain`;
   }
   return null;
 }
@@ -416,7 +420,7 @@ export function defineTopology(spec: TopologySpec): DefinedTopology {
   const opampCount = spec.parts.filter((p) => p.kind === "OA").length;
   const reason = (fn: string, t: StageTarget, c: StageChoices): string | null => {
     checkShape(fn, spec, t, c);
-    return commonLimits(spec, t) ?? spec.limits(t, c);
+    return commonLimits(spec, t) ?? spec.limits(t, c) ?? fixedGainLimit(spec, t);
   };
   const check = (t: StageTarget, c: StageChoices): string | null => {
     try {

@@ -1,0 +1,61 @@
+/**
+ * fast-check generators of stage targets and choices for a topology, over a
+ * wide range (f0 0.5 Hz .. 500 kHz, Q 0.3 .. 30, |gain| 0.1 .. 100), kept to
+ * what the topology can realise by filtering through its own `check`.
+ */
+import fc from "fast-check";
+import type { DefinedTopology } from "../../src/topologies/common.ts";
+import type { StageChoices, StageTarget, Topology } from "../../src/topologies/types.ts";
+
+const logUniform = (lo: number, hi: number): fc.Arbitrary<number> =>
+  fc.double({ min: Math.log(lo), max: Math.log(hi), noNaN: true }).map((x) => Math.exp(x));
+
+/** A raw target for a topology (not yet filtered by check). */
+export function targetArb(topo: Topology): fc.Arbitrary<StageTarget> {
+  return fc
+    .record({
+      kind: fc.constantFrom(...topo.kinds),
+      f0Hz: logUniform(0.5, 5e5),
+      q: logUniform(0.3, 30),
+      gain: logUniform(0.1, 100),
+      fzRatio: logUniform(1.02, 20),
+    })
+    .map(({ kind, f0Hz, q, gain, fzRatio }) => {
+      const fixed = (topo as DefinedTopology).fixedGain;
+      let g = gain;
+      if (topo.id.includes("unity") || topo.id.includes("buffer")) g = 1;
+      if (fixed !== undefined) g = fixed({ order: topo.order, kind, f0Hz, q });
+      if (topo.inverting) g = -g;
+      const t: StageTarget = {
+        order: topo.order,
+        kind,
+        f0Hz,
+        ...(topo.order === 2 ? { q } : {}),
+        gain: g,
+        ...(kind === "lowpass-notch" ? { fzHz: f0Hz * fzRatio } : {}),
+        ...(kind === "highpass-notch" ? { fzHz: f0Hz / fzRatio } : {}),
+      };
+      return t;
+    });
+}
+
+/** Choices: none, a capacitor or a resistor; sometimes a capacitor ratio. */
+export const choicesArb: fc.Arbitrary<StageChoices> = fc
+  .record({
+    level: fc.constantFrom("none", "capacitor", "resistor"),
+    c: logUniform(1e-11, 1e-5),
+    r: logUniform(100, 1e6),
+    ratio: fc.option(logUniform(0.1, 5000), { nil: undefined }),
+  })
+  .map(({ level, c, r, ratio }) => ({
+    ...(level === "capacitor" ? { capacitor: c } : {}),
+    ...(level === "resistor" ? { resistor: r } : {}),
+    ...(ratio === undefined ? {} : { capacitorRatio: ratio }),
+  }));
+
+/** A realisable (target, choices) pair for the topology. */
+export function realisableArb(topo: Topology): fc.Arbitrary<{ target: StageTarget; choices: StageChoices }> {
+  return fc
+    .record({ target: targetArb(topo), choices: choicesArb })
+    .filter(({ target, choices }) => topo.check(target, choices) === null);
+}
