@@ -23,6 +23,7 @@ export {
 } from "./spec.ts";
 export { designFilter, LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./pipeline.ts";
 export { responseSpanHz } from "./verify.ts";
+export { designResponse, type DesignResponseOptions } from "./response.ts";
 export { designCircuit, type DesignCircuitOptions } from "./circuit.ts";
 export type {
   DesignResult,

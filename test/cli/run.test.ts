@@ -1,0 +1,99 @@
+import { describe, expect, it } from "vitest";
+import { runCli, type CliIo } from "../../src/cli/run.ts";
+import { fromJson } from "../../src/report/index.ts";
+
+function fakeIo(files: Record<string, string> = {}): CliIo & { out: string; err: string; files: Record<string, string> } {
+  const io = {
+    out: "",
+    err: "",
+    files: { ...files },
+    stdout: (t: string) => {
+      io.out += t;
+    },
+    stderr: (t: string) => {
+      io.err += t;
+    },
+    readFile: (p: string) => {
+      const t = io.files[p];
+      if (t === undefined) throw new Error(`ENOENT: ${p}`);
+      return t;
+    },
+    writeFile: (p: string, t: string) => {
+      io.files[p] = t;
+    },
+  };
+  return io;
+}
+
+const LP = ["design", "--response", "lowpass", "--pass", "1k", "--pass-loss", "0.5", "--stop", "5k", "--stop-atten", "50"];
+
+describe("runCli", () => {
+  it("designs from options, prints the stage table and verification, exits 0", () => {
+    const io = fakeIo();
+    expect(runCli(LP, io)).toBe(0);
+    expect(io.out).toContain("MEETS the spec");
+    expect(io.out).toMatch(/stage\s+topology/);
+    expect(io.out).toContain("cautions:");
+  });
+
+  it("writes the JSON, netlist, BOM and Markdown on request", () => {
+    const io = fakeIo();
+    const code = runCli([...LP, "--json", "d.json", "--netlist", "d.cir", "--bom", "d.csv", "--markdown", "d.md"], io);
+    expect(code).toBe(0);
+    expect(fromJson(io.files["d.json"] as string).verification.meetsSpec).toBe(true);
+    expect(io.files["d.cir"]).toContain("Vin in 0 DC 0 AC 1");
+    expect(io.files["d.csv"]?.startsWith("designators,part,value")).toBe(true);
+    expect(io.files["d.md"]).toContain("## Cautions");
+  });
+
+  it("reads a spec file and lets options override it", () => {
+    const spec = {
+      response: "highpass",
+      passband: { edgeHz: "300", maxLossDb: 1 },
+      stopband: { edgeHz: 60, minAttenuationDb: 40 },
+      family: "butterworth",
+    };
+    const io = fakeIo({ "s.json": JSON.stringify(spec) });
+    expect(runCli(["design", "--spec", "s.json", "--quiet"], io)).toBe(0);
+    expect(io.out).toMatch(/^meets the spec: butterworth order \d/);
+    const io2 = fakeIo({ "s.json": JSON.stringify(spec) });
+    expect(runCli(["design", "--spec", "s.json", "--order", "1", "--quiet"], io2)).toBe(1);
+    expect(io2.out).toMatch(/^does not meet the spec: butterworth order 1/);
+  });
+
+  it("exits 2 with every spec problem listed and no stack trace", () => {
+    const io = fakeIo();
+    const code = runCli(["design", "--response", "lowpass", "--pass", "fast", "--pass-loss", "-1", "--stop", "5k", "--stop-atten", "50", "--family", "gaussian"], io);
+    expect(code).toBe(2);
+    expect(io.err).toContain("passband.edgeHz");
+    expect(io.err).toContain("passband.maxLossDb");
+    expect(io.err).toContain("family");
+    expect(io.err).not.toMatch(/\n\s+at /);
+  });
+
+  it("exits 2 on unknown options, commands and unreadable files", () => {
+    for (const argv of [["design", "--colour", "red"], ["paint"], ["design", "--spec", "missing.json"], []]) {
+      const io = fakeIo();
+      expect(runCli(argv, io)).toBe(2);
+    }
+  });
+
+  it("runs the demo scenarios", () => {
+    const io = fakeIo();
+    expect(runCli(["demo"], io)).toBe(0);
+    expect(io.out).toContain("vibration sensor");
+    expect(io.out).toContain("MEETS the spec");
+    const io2 = fakeIo();
+    expect(runCli(["demo", "--scenario", "hydrophone", "--quiet"], io2)).toBe(0);
+  });
+
+  it("prints help, version and the topology list", () => {
+    const io = fakeIo();
+    expect(runCli(["--help"], io)).toBe(0);
+    expect(io.out).toContain("usage:");
+    expect(runCli(["--version"], io)).toBe(0);
+    const io2 = fakeIo();
+    expect(runCli(["topologies"], io2)).toBe(0);
+    expect(io2.out).toContain("sallen-key-lowpass-unity");
+  });
+});

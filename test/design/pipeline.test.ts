@@ -1,0 +1,180 @@
+import { describe, expect, it } from "vitest";
+import { designFilter, designResponse, type DesignResult, type FilterSpec } from "../../src/design/index.ts";
+import { toSpiceNetlist } from "../../src/report/index.ts";
+import { isInSeries } from "../../src/parts/index.ts";
+import { SpecError } from "../../src/errors.ts";
+import { loadFixture } from "../helpers/fixtures.ts";
+import { requireNgspice, runAc } from "../helpers/ngspice.ts";
+
+interface SpecEntry {
+  readonly id: string;
+  readonly scenario: string;
+  readonly spec: FilterSpec;
+  readonly scipyOrder?: number;
+}
+
+const fixture = loadFixture<{ specs: SpecEntry[] }>("design-specs.json");
+const haveSpice = requireNgspice();
+
+function allPartsInSeries(r: DesignResult): void {
+  const seen = new Set<string>();
+  for (const st of r.stages) {
+    for (const [d, v] of Object.entries(st.components)) {
+      expect(seen.has(d), `designator ${d} used twice`).toBe(false);
+      seen.add(d);
+      const series = d.startsWith("C") ? r.spec.capacitorSeries : r.spec.resistorSeries;
+      expect(isInSeries(v, series), `${d} = ${v} is not an ${series} value`).toBe(true);
+    }
+    for (const u of st.opamps) {
+      expect(seen.has(u)).toBe(false);
+      seen.add(u);
+    }
+  }
+}
+
+/** Largest |dB difference| between ngspice and our as-built response where ours is above -80 dB. */
+function spiceAgreementDb(r: DesignResult): { worst: number; points: number } {
+  const sim = runAc(toSpiceNetlist(r, { pointsPerDecade: 40 }), ["out"]);
+  const out = sim.vectors["out"] as { re: Float64Array; im: Float64Array };
+  const ours = designResponse(r, sim.freqHz, { opamp: { kind: "ideal" } });
+  let worst = 0;
+  let points = 0;
+  for (let i = 0; i < sim.freqHz.length; i++) {
+    const a = 20 * Math.log10(Math.hypot(ours.re[i] as number, ours.im[i] as number));
+    if (!(a > -80)) continue;
+    const b = 20 * Math.log10(Math.hypot(out.re[i] as number, out.im[i] as number));
+    worst = Math.max(worst, Math.abs(a - b));
+    points++;
+  }
+  return { worst, points };
+}
+
+describe("designFilter end to end (our own scenarios)", () => {
+  it("covers every response and every family", () => {
+    const responses = new Set(fixture.specs.map((s) => s.spec.response));
+    expect([...responses].sort()).toEqual(["bandpass", "bandstop", "highpass", "lowpass"]);
+    const families = new Set(fixture.specs.map((s) => designFilter(s.spec).family));
+    expect(families.size).toBe(6);
+    expect(fixture.specs.length).toBeGreaterThanOrEqual(30);
+  });
+
+  for (const entry of fixture.specs) {
+    it(`${entry.id} (${entry.scenario}): meets the mask as built; ngspice agrees to 0.01 dB`, () => {
+      const r = designFilter(entry.spec);
+      const v = r.verification;
+      const why = `${entry.id}: ${r.family} order ${r.order}; margins pass ${v.passbandMarginDb.toFixed(4)} stop ${v.stopbandMarginDb.toFixed(4)} gain ${v.gainMarginDb.toFixed(4)}; ${JSON.stringify(r.actions.map((a) => a.code))}`;
+      expect(v.meetsSpec, why).toBe(true);
+      expect(v.marginDb).toBeGreaterThanOrEqual(0);
+      if (entry.scipyOrder !== undefined && entry.spec.order === undefined) {
+        if (entry.spec.response === "bandstop") {
+          // scipy moves bandstop passband edges to lower the order; ours keeps the given edges.
+          expect(r.minimumOrder).toBeGreaterThanOrEqual(entry.scipyOrder);
+          expect(r.minimumOrder).toBeLessThanOrEqual(entry.scipyOrder + 1);
+        } else expect(r.minimumOrder, "minimum order vs scipy").toBe(entry.scipyOrder);
+      }
+      if (entry.spec.order !== undefined) expect(r.order).toBe(entry.spec.order);
+      allPartsInSeries(r);
+      if (haveSpice) {
+        const agree = spiceAgreementDb(r);
+        expect(agree.points).toBeGreaterThan(20);
+        expect(agree.worst, `${entry.id}: ngspice vs as-built`).toBeLessThanOrEqual(0.01);
+      }
+    });
+  }
+});
+
+describe("designFilter outcomes", () => {
+  const lp: FilterSpec = {
+    response: "lowpass",
+    passband: { edgeHz: 1000, maxLossDb: 0.5 },
+    stopband: { edgeHz: 2000, minAttenuationDb: 60 },
+  };
+
+  it("reports a forced order that is too low as not meeting the mask, with margins", () => {
+    const r = designFilter({ ...lp, family: "butterworth", order: 3 });
+    expect(r.order).toBe(3);
+    expect(r.verification.meetsSpec).toBe(false);
+    expect(r.verification.stopbandMarginDb).toBeLessThan(-10);
+    expect(r.verification.marginDb).toBe(
+      Math.min(r.verification.passbandMarginDb, r.verification.stopbandMarginDb, r.verification.gainMarginDb),
+    );
+    expect(r.warnings.some((w) => w.code === "spec-not-met")).toBe(true);
+  });
+
+  it("throws one SpecError listing every problem of a malformed spec", () => {
+    let err: unknown;
+    try {
+      designFilter({ response: "lowpas", passband: { edgeHz: -5, maxLossDb: 0.5 }, stopband: {}, order: 0 });
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(SpecError);
+    const paths = (err as SpecError).issues.map((i) => i.path);
+    expect(paths).toEqual(expect.arrayContaining(["response", "stopband.edgeHz", "stopband.minAttenuationDb", "order"]));
+  });
+
+  it("refuses a per-stage topology list of the wrong length", () => {
+    expect(() =>
+      designFilter({ ...lp, family: "butterworth", order: 4, topology: ["sallen-key-lowpass-unity"] }),
+    ).toThrow(SpecError);
+  });
+
+  it("honours a per-stage topology list and the requested polarity", () => {
+    const r = designFilter({
+      ...lp,
+      stopband: { edgeHz: 4000, minAttenuationDb: 40 },
+      family: "butterworth",
+      order: 4,
+      topology: ["mfb-lowpass", "mfb-lowpass"],
+      gain: { db: 0, polarity: "non-inverting" },
+    });
+    expect(r.stages.map((s) => s.topology)).toEqual(["mfb-lowpass", "mfb-lowpass"]);
+    expect(r.verification.polarity).toBe("non-inverting");
+    expect(r.verification.meetsSpec).toBe(true);
+    const inv = designFilter({ ...lp, stopband: { edgeHz: 4000, minAttenuationDb: 40 }, family: "butterworth", gain: { vPerV: -1 } });
+    expect(inv.verification.polarity).toBe("inverting");
+    expect(inv.verification.polarityOk).toBe(true);
+  });
+
+  it("chooses the family automatically and says why", () => {
+    const fewest = designFilter({ ...lp, priority: "fewest-stages" });
+    expect(fewest.familyChoice.automatic).toBe(true);
+    expect(fewest.familyChoice.candidates.length).toBe(6);
+    const minStages = Math.min(...fewest.familyChoice.candidates.map((c) => c.stages ?? Infinity));
+    expect(fewest.stages.length).toBe(minStages);
+    expect(fewest.familyChoice.reason).toContain("fewest stages");
+    const mono = designFilter({ ...lp, priority: "monotonic" });
+    expect(["butterworth", "legendre", "bessel", "chebyshev2"]).toContain(mono.family);
+    const flat = designFilter({ ...lp, stopband: { edgeHz: 8000, minAttenuationDb: 30 }, priority: "flattest-delay" });
+    const cands = flat.familyChoice.candidates.filter((c) => c.delayVariation !== undefined);
+    const best = Math.min(...cands.map((c) => c.delayVariation as number));
+    expect(flat.familyChoice.candidates.find((c) => c.family === flat.family)?.delayVariation).toBe(best);
+  });
+
+  it("distributes gain so that no stage output peaks above the filter output by more than rounding", () => {
+    const r = designFilter({
+      response: "lowpass",
+      passband: { edgeHz: 1000, maxLossDb: 0.5 },
+      stopband: { edgeHz: 1600, minAttenuationDb: 50 },
+      family: "chebyshev1",
+      gain: { db: 10 },
+    });
+    const out = r.stages[r.stages.length - 1]?.peakGain as number;
+    for (const s of r.stages) expect(s.peakGain).toBeLessThanOrEqual(out * 1.02);
+    expect(r.verification.meetsSpec).toBe(true);
+  });
+
+  it("warns when the op-amp's gain-bandwidth is too small and checks with that op-amp", () => {
+    const r = designFilter({ ...lp, family: "chebyshev1", opamp: { a0: 1e5, gbwHz: 20000 } });
+    expect(r.warnings.some((w) => w.code === "insufficient-gbw")).toBe(true);
+    expect(r.verification.opamp).toEqual({ kind: "single-pole", a0: 1e5, gbwHz: 20000 });
+  });
+
+  it("returns frozen plain data that survives JSON", () => {
+    const r = designFilter(lp);
+    expect(Object.isFrozen(r)).toBe(true);
+    expect(Object.isFrozen(r.stages[0])).toBe(true);
+    expect(JSON.parse(JSON.stringify(r))).toEqual(r);
+    expect(r.verification.curve.freqHz.length).toBe(256);
+  });
+});

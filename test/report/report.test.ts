@@ -1,0 +1,100 @@
+import { describe, expect, it } from "vitest";
+import { designFilter, type FilterSpec } from "../../src/design/index.ts";
+import { bomLines, fromJson, toBomCsv, toJson, toMarkdown, toSpiceNetlist } from "../../src/report/index.ts";
+import { ParseError } from "../../src/errors.ts";
+import { parseValue } from "../../src/units/index.ts";
+
+const spec: FilterSpec = {
+  response: "lowpass",
+  passband: { edgeHz: "2k", maxLossDb: 0.5 },
+  stopband: { edgeHz: "9k", minAttenuationDb: 50 },
+  family: "chebyshev1",
+  gain: { db: 6 },
+};
+const result = designFilter(spec);
+
+describe("toSpiceNetlist", () => {
+  it("drives node in from a 1 V AC source, names the output out and carries an .ac card", () => {
+    const text = toSpiceNetlist(result);
+    const lines = text.split("\n");
+    expect(lines).toContain("Vin in 0 DC 0 AC 1");
+    expect(lines.some((l) => /^\.ac dec 50 /.test(l))).toBe(true);
+    expect(lines.some((l) => / out( |$)/.test(l))).toBe(true);
+    expect(text.trimEnd().endsWith(".end")).toBe(true);
+    for (const st of result.stages) for (const d of Object.keys(st.components)) expect(text).toMatch(new RegExp(`^${d} `, "m"));
+  });
+});
+
+describe("toBomCsv", () => {
+  it("groups identical parts with their designators and quantity", () => {
+    const csv = toBomCsv(result);
+    const rows = csv.trimEnd().split("\r\n");
+    expect(rows[0]).toBe("designators,part,value,rkm,series,tolerance,quantity");
+    const lines = bomLines(result);
+    const passive = lines.filter((l) => l.part !== "op-amp");
+    const count = result.stages.reduce((k, s) => k + Object.keys(s.components).length, 0);
+    expect(passive.reduce((k, l) => k + l.quantity, 0)).toBe(count);
+    for (const l of passive) {
+      expect(l.quantity).toBe(l.designators.length);
+      // Both written forms read back to the value.
+      expect(parseValue(l.rkm)).toBeCloseTo(l.value, 20);
+      expect(Math.abs(parseValue(l.valueText) / l.value - 1)).toBeLessThan(5e-3);
+      expect(l.tolerance).toBe(l.part === "resistor" ? "1%" : "10%");
+    }
+    const values = passive.map((l) => `${l.part}${l.value}`);
+    expect(new Set(values).size).toBe(values.length);
+    const op = lines.find((l) => l.part === "op-amp");
+    expect(op?.quantity).toBe(result.stages.reduce((k, s) => k + s.opamps.length, 0));
+    expect(rows.length).toBe(lines.length + 1);
+  });
+});
+
+describe("toJson / fromJson", () => {
+  it("round-trips a design", () => {
+    const back = fromJson(toJson(result));
+    expect(back).toEqual(result);
+    expect(JSON.parse(toJson(result)).formatVersion).toBe(1);
+  });
+
+  it("refuses other versions, bad JSON and malformed stages with the path", () => {
+    const data = JSON.parse(toJson(result));
+    expect(() => fromJson(JSON.stringify({ ...data, formatVersion: 99 }))).toThrow(ParseError);
+    expect(() => fromJson("{ not json")).toThrow(ParseError);
+    const bad = structuredClone(data);
+    const first = Object.keys(bad.result.stages[0].components)[0] as string;
+    bad.result.stages[0].components[first] = -1;
+    try {
+      fromJson(JSON.stringify(bad));
+      expect.fail("expected a ParseError");
+    } catch (e) {
+      expect(e).toBeInstanceOf(ParseError);
+      expect((e as ParseError).path).toBe(`result.stages.0.components.${first}`);
+    }
+    const badSpec = structuredClone(data);
+    badSpec.result.spec.maxLossDb = "x";
+    expect(() => fromJson(JSON.stringify(badSpec))).toThrow(ParseError);
+  });
+});
+
+describe("toMarkdown", () => {
+  it("summarises stages, verification and the cautions", () => {
+    const md = toMarkdown(result);
+    expect(md.split("\n")[0]).toBe("# Lowpass filter: chebyshev1, " + `${result.filterOrder} poles`);
+    expect(md).toContain("## Verification (as built)");
+    expect(md).toContain("## Cautions");
+    expect(md).toMatch(/isolation/);
+    for (const st of result.stages) expect(md).toContain(`| ${st.index} | ${st.topologyName} |`);
+  });
+});
+
+describe("toSvgPlot", () => {
+  it("draws the magnitude with the mask and the group delay", async () => {
+    const { toSvgPlot } = await import("../../src/report/index.ts");
+    const mag = toSvgPlot(result);
+    expect(mag.startsWith("<svg")).toBe(true);
+    expect(mag).toContain("<polyline");
+    expect((mag.match(/fill="#f4c7c3"/g) ?? []).length).toBe(2);
+    const gd = toSvgPlot(result, { kind: "group-delay" });
+    expect(gd).toContain("group delay");
+  });
+});
