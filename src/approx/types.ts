@@ -27,10 +27,16 @@ export const FAMILY_NAMES: readonly FamilyName[] = Object.freeze([
  * - `"stopband-edge"`: the start of the equiripple stopband, where the
  *   attenuation equals the requested stopband attenuation (Chebyshev II).
  * - `"unit-delay"`: the group delay at DC is 1 s (Bessel, `"delay"`).
- * - `"phase-midpoint"`: the phase reaches half its final value, -n*pi/4, near 1 rad/s
- *   and the high-frequency asymptote matches Butterworth's (Bessel, `"phase"`).
+ * - `"asymptote-intersection"`: the low-frequency (0 dB) and high-frequency
+ *   (-20 n log10 w) magnitude asymptotes meet at 1 rad/s, as for Butterworth, so
+ *   the phase is close to its midpoint -n pi/4 there (Bessel, `"phase"`).
  */
-export type UnitFrequencyMeaning = "-3dB" | "passband-edge" | "stopband-edge" | "unit-delay" | "phase-midpoint";
+export type UnitFrequencyMeaning =
+  | "-3dB"
+  | "passband-edge"
+  | "stopband-edge"
+  | "unit-delay"
+  | "asymptote-intersection";
 
 /** Normalisation of the Bessel-Thomson prototype. */
 export type BesselNormalization = "delay" | "magnitude" | "phase";
