@@ -10,7 +10,10 @@
  * "A method for solving algebraic equations using an automatic computer",
  * MTAC 10:208-215, 1956), started from the ideal pole. The smallest GBW for
  * which the pole's f0 and Q both stay within 1 % of target is found by
- * doubling and then bisection in log(GBW) to 0.1 %.
+ * doubling and then bisection in log(GBW) to 0.1 %. A first-order stage has
+ * no Q, and its op-amp adds a pole rather than moving the stage's own, so
+ * there the criterion is on the response at f0: `|H(j w0)/H_ideal(j w0) - 1|`
+ * may not exceed what a 1 % shift of f0 would cause (about 0.70 %).
  *
  * @module
  */
@@ -93,11 +96,8 @@ export interface TopologySpec {
   readonly fixedGain?: (t: Omit<StageTarget, "gain">) => number;
 }
 
-/** A topology with the optional helper this module adds. */
-export interface DefinedTopology extends Topology {
-  /** Gain the stage is forced to have by f0 and Q, when it has no free gain (e.g. equal-component Sallen-Key). */
-  readonly fixedGain?: (target: Omit<StageTarget, "gain">) => number;
-}
+/** A topology built by {@link defineTopology} (the same shape as {@link Topology}). */
+export type DefinedTopology = Topology;
 
 function bad(fn: string, path: string, received: unknown, message: string): never {
   throw new InvalidArgumentError({ fn, path, received, message });

@@ -25,7 +25,10 @@
  *   capacitors fixed, R1 and R2 are the roots of a quadratic that has real
  *   roots only when m >= 4 Q^2 / (1 + 4 Q^2 (K - 1)) (= 4 Q^2 at unity gain).
  *   The default m is that minimum, which makes R1 = R2 (the equal-resistor
- *   form). R1 is the smaller root otherwise.
+ *   form). R1 is the smaller root otherwise. Alternatively `resistorRatio`
+ *   n = R2/R1 fixes the resistors instead and the capacitors follow; every Q
+ *   is then realisable (at unity gain C1/C2 = Q^2 (1 + n)^2 / n). Giving
+ *   both ratios is refused.
  * - Highpass, unity and general gain: `capacitorRatio` r = C1/C2, default 1
  *   (equal capacitors); any Q is realisable; at unity gain with equal
  *   capacitors R2/R1 = 4 Q^2.
@@ -145,6 +148,19 @@ function lowRatio(t: StageTarget, c: StageChoices): number {
 function lowSolve(t: StageTarget, c: StageChoices): Record<string, number> {
   const w0 = w0Of(t);
   const k = t.gain;
+  if (c.resistorRatio !== undefined && c.capacitorRatio === undefined) {
+    // R2 = n R1, C2 = 1: (1 + n) R1^2 - R1/(w0 Q) + (1 - K)/(w0^2 n) = 0, one positive root for K >= 1
+    const n = c.resistorRatio;
+    const b = 1 / (w0 * q(t));
+    const cc = (1 - k) / (w0 * w0 * n);
+    const r1 = (b + Math.sqrt(b * b - 4 * (1 + n) * cc)) / (2 * (1 + n));
+    const out: Record<string, number> = { C2: 1, C1: 1 / (w0 * w0 * n * r1 * r1), R1: r1, R2: n * r1 };
+    if (k !== 1) {
+      out["R4"] = r1;
+      out["R3"] = (k - 1) * r1;
+    }
+    return out;
+  }
   const m = lowRatio(t, c);
   // C2 = 1, C1 = m; a R1^2 - b R1 + cc = 0
   const a = 1 + m * (1 - k);
@@ -202,6 +218,9 @@ const aboveOne = (t: StageTarget): string | null =>
   t.gain > 1 + 1e-9 ? null : `the general-gain Sallen-Key form needs a gain above 1 (got ${t.gain}); for gain 1 choose the unity-gain form`;
 
 function lowRatioLimit(t: StageTarget, c: StageChoices, unity: boolean): string | null {
+  if (c.capacitorRatio !== undefined && c.resistorRatio !== undefined) {
+    return "a Sallen-Key lowpass takes either capacitorRatio (C1/C2) or resistorRatio (R2/R1), not both; drop one";
+  }
   if (c.capacitorRatio === undefined) return null;
   const min = sallenKeyLowpassMinRatio(q(t), t.gain);
   if (atLeast(c.capacitorRatio, min)) return null;

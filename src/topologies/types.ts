@@ -133,4 +133,10 @@ export interface Topology {
    * more than about 1 % (derived from the stage's finite-GBW response).
    */
   readonly gbwDemandHz: (target: StageTarget) => number;
+  /**
+   * Present when the topology has no free gain: the gain it necessarily has
+   * for a target's f0, Q and kind (e.g. `3 - 1/Q` for the equal-component
+   * Sallen-Key stage). `check` refuses any other gain.
+   */
+  readonly fixedGain?: (target: Omit<StageTarget, "gain">) => number;
 }

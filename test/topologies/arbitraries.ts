@@ -39,18 +39,20 @@ export function targetArb(topo: Topology): fc.Arbitrary<StageTarget> {
     });
 }
 
-/** Choices: none, a capacitor or a resistor; sometimes a capacitor ratio. */
+/** Choices: none, a capacitor or a resistor; sometimes a capacitor ratio or (not both) a resistor ratio. */
 export const choicesArb: fc.Arbitrary<StageChoices> = fc
   .record({
     level: fc.constantFrom("none", "capacitor", "resistor"),
     c: logUniform(1e-11, 1e-5),
     r: logUniform(100, 1e6),
     ratio: fc.option(logUniform(0.1, 5000), { nil: undefined }),
+    rRatio: fc.option(logUniform(0.05, 20), { nil: undefined }),
   })
-  .map(({ level, c, r, ratio }) => ({
+  .map(({ level, c, r, ratio, rRatio }) => ({
     ...(level === "capacitor" ? { capacitor: c } : {}),
     ...(level === "resistor" ? { resistor: r } : {}),
     ...(ratio === undefined ? {} : { capacitorRatio: ratio }),
+    ...(rRatio === undefined || ratio !== undefined ? {} : { resistorRatio: rRatio }),
   }));
 
 /** A realisable (target, choices) pair for the topology. */

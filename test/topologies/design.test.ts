@@ -51,6 +51,15 @@ describe("Topology.check and Topology.design on unrealisable targets", () => {
     expect(t.check(target, { capacitorRatio: 7.85 })).toBeNull();
   });
 
+  it("realises any Q with a chosen resistor ratio and refuses both ratios at once", () => {
+    const t = getTopology("sallen-key-lowpass-unity");
+    const target = { order: 2, kind: "lowpass", f0Hz: 1000, q: 8, gain: 1 } as const;
+    const v = t.design(target, { resistorRatio: 1, capacitor: 1e-9 });
+    expect(v["R2"]! / v["R1"]!).toBeCloseTo(1, 12);
+    expect(v["C1"]! / v["C2"]!).toBeCloseTo(4 * 64, 9);
+    expect(t.check(target, { resistorRatio: 2, capacitorRatio: 300 })).toMatch(/not both/);
+  });
+
   it.each([
     ["sallen-key-lowpass-equal", { order: 2, kind: "lowpass", f0Hz: 100, q: 0.5, gain: 2 }, /Q above 0.5/],
     ["sallen-key-lowpass-equal", { order: 2, kind: "lowpass", f0Hz: 100, q: 12, gain: 3 - 1 / 12 }, /impractically sensitive/],
