@@ -23,7 +23,6 @@ export {
   transfer,
   type AcAnalysisOptions,
   type AcAnalysisResult,
-  type ComplexResponse,
   type MnaSystem,
   type TransferOptions,
 } from "./mna.ts";

@@ -24,16 +24,10 @@
 import { InvalidArgumentError, SingularCircuitError } from "../errors.ts";
 import type { Complex } from "../math/complex.ts";
 import { luFactorInPlace, luSolveInPlace } from "../math/linear.ts";
+import type { ComplexResponse } from "../tf/response.ts";
 import type { Circuit } from "./types.ts";
 import { checkCircuit } from "./validate.ts";
 
-/** A complex response sampled on a frequency grid. */
-export interface ComplexResponse {
-  /** Real parts, one per frequency. */
-  readonly re: Float64Array;
-  /** Imaginary parts, one per frequency. */
-  readonly im: Float64Array;
-}
 
 /** The assembled MNA equations `(G + s C) x = b` of a circuit. */
 export interface MnaSystem {
