@@ -33,6 +33,19 @@ export {
   sallenKeyLowpassUnity,
 } from "./sallen-key.ts";
 export { mfbBandpass, mfbBandpassAttenuated, mfbHighpass, mfbLowpass, mfbLowpassMinRatio } from "./multiple-feedback.ts";
-export { stateVariableAllpass, stateVariableNotch } from "./state-variable.ts";
-export { towThomasAllpass, towThomasHighpassNotch, towThomasLowpassNotch, towThomasNotch } from "./tow-thomas.ts";
+export {
+  stateVariableAllpass,
+  stateVariableBandpass,
+  stateVariableHighpass,
+  stateVariableLowpass,
+  stateVariableNotch,
+} from "./state-variable.ts";
+export {
+  towThomasAllpass,
+  towThomasBandpass,
+  towThomasHighpassNotch,
+  towThomasLowpass,
+  towThomasLowpassNotch,
+  towThomasNotch,
+} from "./tow-thomas.ts";
 export { getTopology, topologies, topologiesFor, type TopologyQuery } from "./registry.ts";

@@ -21,8 +21,21 @@ import {
   sallenKeyLowpassGain,
   sallenKeyLowpassUnity,
 } from "./sallen-key.ts";
-import { stateVariableAllpass, stateVariableNotch } from "./state-variable.ts";
-import { towThomasAllpass, towThomasHighpassNotch, towThomasLowpassNotch, towThomasNotch } from "./tow-thomas.ts";
+import {
+  stateVariableAllpass,
+  stateVariableBandpass,
+  stateVariableHighpass,
+  stateVariableLowpass,
+  stateVariableNotch,
+} from "./state-variable.ts";
+import {
+  towThomasAllpass,
+  towThomasBandpass,
+  towThomasHighpassNotch,
+  towThomasLowpass,
+  towThomasLowpassNotch,
+  towThomasNotch,
+} from "./tow-thomas.ts";
 import type { StageKind, Topology } from "./types.ts";
 
 /** Every topology, first order first, then by family. */
@@ -43,8 +56,13 @@ export const topologies: readonly Topology[] = Object.freeze([
   mfbHighpass,
   mfbBandpass,
   mfbBandpassAttenuated,
+  stateVariableLowpass,
+  stateVariableHighpass,
+  stateVariableBandpass,
   stateVariableNotch,
   stateVariableAllpass,
+  towThomasLowpass,
+  towThomasBandpass,
   towThomasLowpassNotch,
   towThomasHighpassNotch,
   towThomasNotch,

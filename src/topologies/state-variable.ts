@@ -34,6 +34,13 @@
  * `capacitor` sets C1 (= C2); `resistor` sets R1 (the level of every
  * resistor); default R1 = 10 kOhm. No ratio choices.
  *
+ * Without the output summer (U4, R8-R11) the three taps are themselves
+ * sections (the stage output is then that node): highpass at hp (gain -R2/R1),
+ * bandpass at bp (gain at f0 H0/(tau1 w0/Q), non-inverting) and lowpass at lp
+ * (DC gain -R3/R1). Design as above with R1 = R/|K| (lowpass, highpass) or
+ * R1 = Q R/K (bandpass) and beta = 1/(Q G R), i.e. R4 = (Q G R - 1) R5;
+ * `resistor` then sets R2.
+ *
  * Finite-GBW response: nodal analysis of the stage's own elements.
  * GBW demand: computed numerically (f0 and Q within 1 %); common practice,
  * no source, asks for GBW >= 100 Q f0 for state-variable stages.
@@ -178,3 +185,72 @@ export const stateVariableAllpass: DefinedTopology = defineTopology({
   closedForm: closedForm(true),
   closedFormFinite: false,
 });
+
+/** Rename one local node to the stage output (for the variants without the output summer). */
+function withOutput(node: string): PartSpec[] {
+  const m = (n: string): string => (n === node ? "out" : n);
+  return core
+    .slice(0, 12)
+    .map((p) => (p.kind === "OA" ? { ...p, inP: m(p.inP), inN: m(p.inN), out: m(p.out) } : { ...p, a: m(p.a), b: m(p.b) }));
+}
+
+type Tap = "lowpass" | "highpass" | "bandpass";
+
+function tapResponse(tap: Tap, v: ComponentValues, s: Complex): Complex {
+  const c = coreOf(v);
+  const d = cadd(cadd(cmul(s, s), sx(s, c.damp)), re(c.w0 * c.w0));
+  if (tap === "highpass") return sx(cdiv(cmul(s, s), d), -c.h0);
+  if (tap === "bandpass") return sx(cdiv(s, d), c.h0 / c.tau1);
+  return sx(cdiv(re(1), d), -c.h0 / (c.tau1 * c.tau2));
+}
+
+function tapGain(tap: Tap, v: ComponentValues): number {
+  const c = coreOf(v);
+  if (tap === "highpass") return -c.h0;
+  if (tap === "bandpass") return c.h0 / (c.tau1 * c.damp);
+  return -c.h0 / (c.tau1 * c.tau2 * c.w0 * c.w0);
+}
+
+function makeTap(tap: Tap): DefinedTopology {
+  const node = tap === "lowpass" ? "lp" : tap === "highpass" ? "hp" : "bp";
+  // G R (sum of the three input conductances times R) for the chosen gain
+  const gr = (t: StageTarget): number => (tap === "bandpass" ? Math.abs(t.gain) / (t.q as number) + 2 : Math.abs(t.gain) + 2);
+  return defineTopology({
+    id: `state-variable-${tap}`,
+    name: `state-variable (KHN) ${tap}`,
+    order: 2,
+    kinds: [tap],
+    inverting: tap !== "bandpass",
+    reference: REF,
+    levelCapacitor: "C1",
+    levelResistor: "R2",
+    parts: withOutput(node),
+    limits: (t) =>
+      (t.q as number) * gr(t) > 1 + 1e-9
+        ? null
+        : `this state-variable ${tap} sets Q with a divider of ratio 1/(Q G R) = ${(1 / ((t.q as number) * gr(t))).toPrecision(4)}, which must stay below 1; raise Q or the gain, or choose a Sallen-Key or multiple-feedback stage`,
+    solve: (t) => {
+      const v = baseValues(t);
+      const r = v["R2"] as number;
+      const k = Math.abs(t.gain);
+      const qv = t.q as number;
+      v["R1"] = tap === "bandpass" ? (r * qv) / k : r / k;
+      v["R4"] = r * (qv * gr(t) - 1);
+      delete v["R10"];
+      return v;
+    },
+    figures: (v) => {
+      const c = coreOf(v);
+      return { f0Hz: c.w0 / TWO_PI, q: c.q, gain: tapGain(tap, v) };
+    },
+    closedForm: (v, s) => tapResponse(tap, v, s),
+    closedFormFinite: false,
+  });
+}
+
+/** KHN state-variable lowpass (output of the second integrator, inverting; three op-amps). */
+export const stateVariableLowpass: DefinedTopology = makeTap("lowpass");
+/** KHN state-variable highpass (output of the summing amplifier, inverting; three op-amps). */
+export const stateVariableHighpass: DefinedTopology = makeTap("highpass");
+/** KHN state-variable bandpass (output of the first integrator, non-inverting; three op-amps). */
+export const stateVariableBandpass: DefinedTopology = makeTap("bandpass");

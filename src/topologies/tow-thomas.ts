@@ -24,6 +24,11 @@
  * section is the allpass `-(R9/R7)(s^2 - s w0/Q + w0^2)/D`. All variants are
  * inverting: HF gain -R9/R7, DC gain -(R9/R7) wz^2/w0^2.
  *
+ * Without the summer (U4, R7-R10) the loop alone gives a lowpass at v2
+ * (non-inverting, DC gain R3 R5/(R1 R6); R1 = R3/K in the design) and a
+ * bandpass at v1 (inverting, gain at f0 -R2/R1; R1 = R2/|K|): the stage
+ * output is then that node.
+ *
  * Design: C1 = C2, R3 = R4 = R5 = R6 = 1/(w0 C), R1 = R2 = Q/(w0 C) (unity
  * bandpass gain at v1), R9 = 1/(w0 C). `capacitor` sets C1 (= C2),
  * `resistor` sets R3 (and with it the level of every resistor); default
@@ -55,7 +60,13 @@ const REF =
 
 const g = (v: ComponentValues, k: string): number => v[k] as number;
 
-type Variant = "lowpass-notch" | "highpass-notch" | "notch" | "allpass";
+type Variant = "lowpass-notch" | "highpass-notch" | "notch" | "allpass" | "lowpass" | "bandpass";
+
+/** Rename one local node to the stage output (for the variants without a summer). */
+function withOutput(list: readonly PartSpec[], node: string): PartSpec[] {
+  const m = (n: string): string => (n === node ? "out" : n);
+  return list.map((p) => (p.kind === "OA" ? { ...p, inP: m(p.inP), inN: m(p.inN), out: m(p.out) } : { ...p, a: m(p.a), b: m(p.b) }));
+}
 
 const core: PartSpec[] = [
   { kind: "R", name: "R1", a: "in", b: "n1" },
@@ -76,6 +87,8 @@ const core: PartSpec[] = [
 ];
 
 function parts(variant: Variant): PartSpec[] {
+  if (variant === "lowpass") return withOutput(core.slice(0, 11), "v2");
+  if (variant === "bandpass") return withOutput(core.slice(0, 11), "v1");
   if (variant === "lowpass-notch") return [...core, { kind: "R", name: "R10", a: "v2", b: "n4" }];
   if (variant === "highpass-notch") return [...core, { kind: "R", name: "R10", a: "v3", b: "n4" }];
   return core;
@@ -100,6 +113,8 @@ function closedForm(variant: Variant) {
     const d = cadd(cadd(cmul(s, s), sx(s, 1 / (g(v, "R2") * g(v, "C1")))), re(w0Sq(v)));
     const h1 = cdiv(sx(s, -1 / (g(v, "R1") * g(v, "C1"))), d);
     const h2 = cdiv(re(1 / (g(v, "R1") * g(v, "R4") * g(v, "C1") * g(v, "C2"))), d);
+    if (variant === "lowpass") return h2;
+    if (variant === "bandpass") return h1;
     let sum = cadd(re(1 / g(v, "R7")), sx(h1, 1 / g(v, "R8")));
     if (variant === "lowpass-notch") sum = cadd(sum, sx(h2, 1 / g(v, "R10")));
     if (variant === "highpass-notch") sum = cadd(sum, sx(h2, -g(v, "R6") / (g(v, "R5") * g(v, "R10"))));
@@ -112,6 +127,10 @@ function figures(variant: Variant) {
     const w2 = w0Sq(v);
     const w0 = Math.sqrt(w2);
     const qv = w0 * g(v, "R2") * g(v, "C1");
+    if (variant === "lowpass") {
+      return { f0Hz: w0 / TWO_PI, q: qv, gain: 1 / (g(v, "R1") * g(v, "R4") * g(v, "C1") * g(v, "C2") * w2) };
+    }
+    if (variant === "bandpass") return { f0Hz: w0 / TWO_PI, q: qv, gain: -g(v, "R2") / g(v, "R1") };
     const hf = -g(v, "R9") / g(v, "R7");
     if (variant === "allpass") return { f0Hz: w0 / TWO_PI, q: qv, gain: hf };
     const c0 = n0(variant, v);
@@ -128,6 +147,8 @@ function solve(variant: Variant) {
     const k = Math.abs(t.gain);
     const r = 1 / w0;
     const out: Record<string, number> = { C1: 1, C2: 1, R1: qv * r, R2: qv * r, R3: r, R4: r, R5: r, R6: r, R9: r };
+    if (variant === "lowpass") return { ...out, R1: r / k };
+    if (variant === "bandpass") return { ...out, R1: (qv * r) / k };
     const kk = (w0 * w0) / qv; // 1/(R1 R4 C1 C2)
     if (variant === "allpass") {
       out["R7"] = r / k;
@@ -154,7 +175,7 @@ function make(variant: Variant, id: string, name: string): DefinedTopology {
     name,
     order: 2,
     kinds,
-    inverting: true,
+    inverting: variant !== "lowpass",
     reference: REF,
     levelCapacitor: "C1",
     levelResistor: "R3",
@@ -180,3 +201,7 @@ export const towThomasHighpassNotch: DefinedTopology = make("highpass-notch", "t
 export const towThomasNotch: DefinedTopology = make("notch", "tow-thomas-notch", "Tow-Thomas notch");
 /** Tow-Thomas allpass section. */
 export const towThomasAllpass: DefinedTopology = make("allpass", "tow-thomas-allpass", "Tow-Thomas allpass");
+/** Tow-Thomas lowpass (output of the second integrator, non-inverting; three op-amps). */
+export const towThomasLowpass: DefinedTopology = make("lowpass", "tow-thomas-lowpass", "Tow-Thomas lowpass");
+/** Tow-Thomas bandpass (output of the damped integrator, inverting; three op-amps). */
+export const towThomasBandpass: DefinedTopology = make("bandpass", "tow-thomas-bandpass", "Tow-Thomas bandpass");
