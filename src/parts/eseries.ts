@@ -79,14 +79,23 @@ export interface SeriesTable {
   readonly tolerance: number;
   /** Decade values as numbers in [1, 10). */
   readonly values: readonly number[];
+  /** For each integer n in 100..999: the index of the largest mantissa <= n (lookup for snapping). */
+  readonly floorIndex: Uint16Array;
 }
 
 function table(name: SeriesName, m: readonly number[], tolerance: number): SeriesTable {
+  const floorIndex = new Uint16Array(1000);
+  let j = 0;
+  for (let n = 100; n < 1000; n++) {
+    while (j + 1 < m.length && (m[j + 1] as number) <= n) j++;
+    floorIndex[n] = j;
+  }
   return Object.freeze({
     name,
     mantissas: Int32Array.from(m),
     tolerance,
     values: Object.freeze(m.map((x) => x / 100)),
+    floorIndex,
   });
 }
 

@@ -91,46 +91,118 @@ function stepDown(t: SeriesTable, p: Pos): Pos {
   return p.j > 0 ? { j: p.j - 1, k: p.k } : { j: t.mantissas.length - 1, k: p.k - 1 };
 }
 
-/** Position of the largest member <= x (x > 0, finite, valid). */
-export function floorPos(t: SeriesTable, x: number): Pos {
+// Scratch registers for the allocation-free core: position (j, k) of the
+// largest member <= x, and that member's value.
+let posJ = 0;
+let posK = 0;
+let posUp = 0;
+
+/** Find the largest member <= x (x > 0, finite, valid); sets posJ/posK and returns its value. */
+function floorCore(t: SeriesTable, x: number): number {
   const m = t.mantissas;
   let k = Math.floor(Math.log10(x)) - 2;
-  let scaled = x / memberValue(1, k);
+  let scaled = k >= 0 && k <= 22 ? x / (POW10[k] as number) : k < 0 && k >= -22 ? x * (POW10[-k] as number) : x / memberValue(1, k);
   if (scaled < 100) {
     k -= 1;
-    scaled = x / memberValue(1, k);
+    scaled *= 10;
   } else if (scaled >= 1000) {
     k += 1;
-    scaled = x / memberValue(1, k);
+    scaled /= 10;
   }
-  // Binary search: last j with m[j] <= scaled.
-  let lo = 0;
-  let hi = m.length - 1;
-  while (lo < hi) {
-    const mid = (lo + hi + 1) >> 1;
-    if ((m[mid] as number) <= scaled) lo = mid;
-    else hi = mid - 1;
+  // Mantissas are integers, so m[j] <= scaled iff m[j] <= floor(scaled).
+  const n = Math.floor(scaled);
+  let j = t.floorIndex[n < 100 ? 100 : n > 999 ? 999 : n] as number;
+  // Exact correction against the correctly rounded member values (rarely needed).
+  let v = memberValue(m[j] as number, k);
+  while (v > x) {
+    if (j > 0) j--;
+    else {
+      j = m.length - 1;
+      k--;
+    }
+    v = memberValue(m[j] as number, k);
   }
-  let p: Pos = { j: lo, k };
-  // Exact correction against the correctly rounded member values.
-  while (valueAt(t, p) > x) p = stepDown(t, p);
   for (;;) {
-    const q = stepUp(t, p);
-    if (valueAt(t, q) <= x) p = q;
-    else break;
+    const j2 = j + 1 < m.length ? j + 1 : 0;
+    const k2 = j2 === 0 ? k + 1 : k;
+    const v2 = memberValue(m[j2] as number, k2);
+    if (v2 > x) {
+      posUp = v2;
+      break;
+    }
+    j = j2;
+    k = k2;
+    v = v2;
   }
-  return p;
+  posJ = j;
+  posK = k;
+  return v;
+}
+
+/** Value of the member just above the one found by the last {@link floorCore}. */
+function aboveCore(): number {
+  return posUp;
+}
+
+/** Position of the largest member <= x (x > 0, finite, valid). */
+export function floorPos(t: SeriesTable, x: number): Pos {
+  floorCore(t, x);
+  return { j: posJ, k: posK };
 }
 
 /** Snap a valid value; returns [chosen, down, up]. */
 function snapCore(t: SeriesTable, x: number, mode: SnapMode): [number, number, number] {
-  const p = floorPos(t, x);
-  const down = valueAt(t, p);
-  const up = down === x ? down : valueAt(t, stepUp(t, p));
+  const down = floorCore(t, x);
+  const up = down === x ? down : aboveCore();
   if (mode === "down") return [down, down, up];
   if (mode === "up") return [up, down, up];
   // Nearest in log distance: compare x/down with up/x; tie -> lower.
   return [x / down > up / x ? up : down, down, up];
+}
+
+/**
+ * Snap a valid value, returning only the chosen member. Self-contained (no
+ * shared registers, no allocation) for the batch path of {@link snapValues};
+ * same steps as {@link floorCore}.
+ */
+function snapOne(t: SeriesTable, x: number, mode: SnapMode): number {
+  const m = t.mantissas;
+  const last = m.length - 1;
+  let k = Math.floor(Math.log10(x)) - 2;
+  let scaled = k >= 0 && k <= 22 ? x / (POW10[k] as number) : k < 0 && k >= -22 ? x * (POW10[-k] as number) : x / memberValue(1, k);
+  if (scaled < 100) {
+    k -= 1;
+    scaled *= 10;
+  } else if (scaled >= 1000) {
+    k += 1;
+    scaled /= 10;
+  }
+  const n = Math.floor(scaled);
+  let j = t.floorIndex[n < 100 ? 100 : n > 999 ? 999 : n] as number;
+  let down = memberValue(m[j] as number, k);
+  while (down > x) {
+    if (j > 0) j--;
+    else {
+      j = last;
+      k--;
+    }
+    down = memberValue(m[j] as number, k);
+  }
+  if (down === x) return down;
+  // The estimate may be one step low: walk up while the next member is <= x.
+  let up: number;
+  for (;;) {
+    const j2 = j < last ? j + 1 : 0;
+    const k2 = j2 === 0 ? k + 1 : k;
+    up = memberValue(m[j2] as number, k2);
+    if (up > x) break;
+    j = j2;
+    k = k2;
+    down = up;
+  }
+  if (down === x || mode === "down") return down;
+  if (mode === "up") return up;
+  return x / down > up / x ? up : down;
 }
 
 /** Check a value is a positive finite number in [PART_VALUE_MIN, PART_VALUE_MAX]. */
@@ -213,7 +285,7 @@ export function snapValues(values: ArrayLike<number>, options: SnapOptions): Flo
   for (let i = 0; i < n; i++) {
     const x = values[i];
     if (typeof x !== "number" || !(x >= PART_VALUE_MIN && x <= PART_VALUE_MAX)) requirePartValue(fn, `values[${i}]`, x);
-    out[i] = snapCore(t, x as number, mode)[0];
+    out[i] = snapOne(t, x as number, mode);
   }
   return out;
 }
