@@ -45,6 +45,8 @@ export interface MnaSystem {
   readonly sourceRow: ReadonlyMap<string, number>;
   /** Non-ground node names, in order of first appearance. */
   readonly nodes: readonly string[];
+  /** For each unknown, the non-ground nodes it touches (its node, or its element's terminals). */
+  readonly unknownNodes: readonly (readonly string[])[];
 }
 
 /** Options of {@link acAnalysis}. */
@@ -241,8 +243,18 @@ export function assembleMna(circuit: Circuit): MnaSystem {
   const nodeIndex = new Map<string, number>();
   nodes.forEach((n, i) => nodeIndex.set(n, i));
   const unknowns = nodes.map((v) => `v(${v})`);
+  const unknownNodes: string[][] = nodes.map((v) => [v]);
   for (const e of circuit.elements) {
-    if (e.kind === "V" || e.kind === "E" || e.kind === "L" || e.kind === "OA") unknowns.push(`i(${e.name})`);
+    if (e.kind === "V" || e.kind === "L") {
+      unknowns.push(`i(${e.name})`);
+      unknownNodes.push([e.a, e.b].filter((x) => x !== "0"));
+    } else if (e.kind === "E") {
+      unknowns.push(`i(${e.name})`);
+      unknownNodes.push([...new Set([e.a, e.b, e.cp, e.cn])].filter((x) => x !== "0"));
+    } else if (e.kind === "OA") {
+      unknowns.push(`i(${e.name})`);
+      unknownNodes.push([...new Set([e.out, e.inP, e.inN])].filter((x) => x !== "0"));
+    }
   }
   const n = unknowns.length;
   const g = new Float64Array(n * n);
@@ -311,7 +323,7 @@ export function assembleMna(circuit: Circuit): MnaSystem {
         break;
     }
   }
-  return { n, g, c, unknowns, nodeIndex, sourceRow, nodes };
+  return { n, g, c, unknowns, nodeIndex, sourceRow, nodes, unknownNodes };
 }
 
 function singularError(fn: string, sys: MnaSystem, col: number, fHz: number): SingularCircuitError {
@@ -323,9 +335,9 @@ function singularError(fn: string, sys: MnaSystem, col: number, fHz: number): Si
       fn,
       path: "elements",
       received: fHz,
-      message: `the nodal equations are singular at ${fHz} Hz; the ${isNode ? `voltage of node "${culprit}"` : `current of "${culprit}"`} is undetermined (an op-amp without feedback, a source loop, or a cut set of current sources); check the connections around it`,
+      message: `the nodal equations are singular at ${fHz} Hz; the ${isNode ? `voltage of node "${culprit}"` : `current of "${culprit}"`} is undetermined (an op-amp without feedback, a source loop, or a cut set of current sources); check the connections around ${isNode ? "it" : `nodes ${(sys.unknownNodes[col] ?? []).map((x) => `"${x}"`).join(", ")}`}`,
     },
-    [culprit],
+    isNode ? [culprit] : [culprit, ...(sys.unknownNodes[col] ?? [])],
   );
 }
 
@@ -417,7 +429,10 @@ export function solveMna(
  * ```
  */
 export function acAnalysis(circuit: Circuit, options: AcAnalysisOptions): AcAnalysisResult {
-  const fn = "acAnalysis";
+  return analyse("acAnalysis", circuit, options);
+}
+
+function analyse(fn: string, circuit: Circuit, options: AcAnalysisOptions): AcAnalysisResult {
   checkCircuit(fn, circuit);
   if (options === null || typeof options !== "object") {
     throw new InvalidArgumentError({ fn, path: "options", received: options, message: "expected { source, outputs, freqHz }" });
@@ -476,7 +491,10 @@ export function acAnalysis(circuit: Circuit, options: AcAnalysisOptions): AcAnal
  * ```
  */
 export function transfer(circuit: Circuit, options: TransferOptions): ComplexResponse {
-  const r = acAnalysis(circuit, { source: options?.source, outputs: [options?.output], freqHz: options?.freqHz });
+  if (options === null || typeof options !== "object") {
+    throw new InvalidArgumentError({ fn: "transfer", path: "options", received: options, message: "expected { source, output, freqHz }" });
+  }
+  const r = analyse("transfer", circuit, { source: options.source, outputs: [options.output], freqHz: options.freqHz });
   return r.outputs[options.output] as ComplexResponse;
 }
 

@@ -145,7 +145,14 @@ describe("acAnalysis", () => {
         { kind: "R", name: "R2", a: "out", b: "0", value: 1e3 },
       ],
     };
-    expect(() => transfer(c, { source: "V1", output: "out", freqHz: new Float64Array([1]) })).toThrow(SingularCircuitError);
+    try {
+      transfer(c, { source: "V1", output: "out", freqHz: new Float64Array([1]) });
+      expect.unreachable();
+    } catch (e) {
+      expect(e).toBeInstanceOf(SingularCircuitError);
+      expect((e as SingularCircuitError).fn).toBe("transfer");
+      expect((e as SingularCircuitError).culprits).toEqual(["U1", "out", "in"]);
+    }
   });
 
   it("rejects unknown sources, outputs and bad frequencies with paths", () => {
