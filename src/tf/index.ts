@@ -15,3 +15,12 @@ export {
   type SectionOrdering,
   type ToSectionsOptions,
 } from "./sections.ts";
+export { MAX_GRID_POINTS, linearGrid, logGrid } from "./grid.ts";
+export {
+  MAGNITUDE_FLOOR_DB,
+  frequencyResponse,
+  groupDelay,
+  magnitudeDb,
+  phase,
+  type ComplexResponse,
+} from "./response.ts";

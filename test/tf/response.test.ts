@@ -1,0 +1,155 @@
+import { describe, expect, it } from "vitest";
+import fc from "fast-check";
+import { frequencyResponse, groupDelay, magnitudeDb, MAGNITUDE_FLOOR_DB, phase } from "../../src/tf/response.ts";
+import { toSections } from "../../src/tf/sections.ts";
+import { zpk } from "../../src/tf/zpk.ts";
+import type { Complex } from "../../src/math/complex.ts";
+import { InvalidArgumentError } from "../../src/errors.ts";
+import { expectArrayClose, expectClose } from "../helpers/tolerance.ts";
+import { filters, fixtureZpk } from "./fixture-filters.ts";
+
+const TWO_PI = 2 * Math.PI;
+const wrap = (x: number): number => x - TWO_PI * Math.round(x / TWO_PI);
+
+describe("frequencyResponse vs scipy.signal.freqs_zpk", () => {
+  for (const f of filters) {
+    it(`${f.name}: zpk and section cascade`, () => {
+      const h = fixtureZpk(f);
+      const w = Float64Array.from(f.w);
+      const peak = Math.max(...f.response.re.map((re, i) => Math.hypot(re, f.response.im[i]!)));
+      for (const [system, floor] of [
+        [h, 0],
+        // section polynomials s^2 + wz^2 lose relative accuracy right at a notch: absolute floor 1e-13 of the peak
+        [toSections(h), 1e-13 * peak],
+      ] as const) {
+        const r = frequencyResponse(system, w);
+        for (let i = 0; i < w.length; i++) {
+          const er = f.response.re[i]!;
+          const ei = f.response.im[i]!;
+          const d = Math.hypot(r.re[i]! - er, r.im[i]! - ei);
+          expectClose(d, 0, { abs: 1e-11 * Math.hypot(er, ei) + floor, label: `${f.name} |H - ref| at w=${w[i]}` });
+        }
+      }
+    });
+  }
+});
+
+describe("magnitudeDb vs scipy", () => {
+  for (const f of filters) {
+    it(f.name, () => {
+      const h = fixtureZpk(f);
+      const w = Float64Array.from(f.w);
+      // below the floor the value is clamped; the cascade form is compared down to -250 dB
+      const ref = f.response.magnitudeDb.map((v) => Math.max(v, MAGNITUDE_FLOOR_DB));
+      expectArrayClose(magnitudeDb(h, w), ref, { rel: 0, abs: 1e-10, label: "zpk dB" });
+      const cascade = magnitudeDb(toSections(h), w);
+      ref.forEach((v, i) => {
+        if (v > -250) expectClose(cascade[i]!, v, { rel: 0, abs: 1e-9, label: `cascade dB at w=${w[i]}` });
+      });
+    });
+  }
+
+  it("clamps an exact transmission zero to MAGNITUDE_FLOOR_DB", () => {
+    const notch = zpk([{ re: 0, im: 2 }, { re: 0, im: -2 }], [{ re: -1, im: 1 }, { re: -1, im: -1 }], 1);
+    expect(magnitudeDb(notch, Float64Array.of(2))[0]).toBe(MAGNITUDE_FLOOR_DB);
+  });
+});
+
+describe("phase vs numpy.unwrap(angle(freqs_zpk))", () => {
+  for (const f of filters) {
+    it(`${f.name}: same angle modulo 2 pi, continuous between transmission zeros`, () => {
+      const h = fixtureZpk(f);
+      const w = Float64Array.from(f.w);
+      const hasAxisZeros = h.zeros.some((z) => Math.abs(z.re) <= 1e-9 * Math.hypot(z.re, z.im) && z.im !== 0);
+      for (const system of [h, toSections(h)]) {
+        const ph = phase(system, w);
+        for (let i = 0; i < w.length; i++) {
+          expectClose(wrap(ph[i]! - f.response.phaseUnwrapped[i]!), 0, { abs: 1e-10, label: `phase at w=${w[i]}` });
+        }
+        // continuous along the grid: each step is the principal angle step, plus +pi per jw-axis zero crossed
+        for (let i = 1; i < w.length; i++) {
+          const crossed = h.zeros.filter(
+            (z) => Math.abs(z.re) <= 1e-9 * Math.hypot(z.re, z.im) && z.im > w[i - 1]! && z.im <= w[i]!,
+          ).length;
+          const mine = ph[i]! - ph[i - 1]! - Math.PI * crossed;
+          const ref = wrap(f.response.phaseUnwrapped[i]! - f.response.phaseUnwrapped[i - 1]! - Math.PI * crossed);
+          expectClose(mine, ref, { rel: 0, abs: 1e-9, label: `phase step at w=${w[i]}` });
+        }
+        if (!hasAxisZeros) {
+          // where numpy's unwrap is unambiguous the two agree up to one constant multiple of 2 pi
+          const offset = ph[0]! - f.response.phaseUnwrapped[0]!;
+          expectClose(wrap(offset), 0, { abs: 1e-10 });
+          for (let i = 0; i < w.length; i++) expectClose(ph[i]! - f.response.phaseUnwrapped[i]! - offset, 0, { abs: 1e-9 });
+        }
+      }
+    });
+  }
+
+  it("analytic examples: three real poles, RHP zeros (allpass), a sign-inverting gain", () => {
+    const p3 = zpk([], Array(3).fill({ re: -1, im: 0 }), 1);
+    expectArrayClose(phase(p3, Float64Array.of(0, 1, 1e8)), [0, -0.75 * Math.PI, -1.5 * Math.PI + 3e-8], { rel: 1e-12, abs: 1e-15 });
+    // first-order allpass (s - 2)/(s + 2): H(0) = -1, principal phase pi at 0+, then pi - 2 atan(w/2)
+    const ap = zpk([{ re: 2, im: 0 }], [{ re: -2, im: 0 }], 1);
+    const w = Float64Array.of(0, 2, 1e9);
+    expectArrayClose(phase(ap, w), Array.from(w, (x) => Math.PI - 2 * Math.atan(x / 2)), { rel: 1e-12, abs: 1e-15 });
+    const inv = zpk([], [{ re: -1, im: 0 }], -3);
+    expectClose(phase(inv, Float64Array.of(1))[0]!, Math.PI - Math.PI / 4, { rel: 1e-15 });
+  });
+});
+
+describe("groupDelay vs mpmath derivative of the phase", () => {
+  for (const f of filters) {
+    it(f.name, () => {
+      const h = fixtureZpk(f);
+      const w = Float64Array.from(f.groupDelay.w);
+      const maxTau = Math.max(...f.groupDelay.tau.map(Math.abs));
+      for (const system of [h, toSections(h)]) {
+        expectArrayClose(groupDelay(system, w), f.groupDelay.tau, { rel: 1e-9, abs: 1e-12 * maxTau });
+      }
+    });
+  }
+});
+
+describe("groupDelay = -d phase / dw (property)", () => {
+  const root = fc.record({
+    re: fc.double({ min: -3, max: -0.2, noNaN: true }),
+    im: fc.double({ min: 0, max: 3, noNaN: true }),
+    real: fc.boolean(),
+  });
+  const expand = (r: { re: number; im: number; real: boolean }): Complex[] =>
+    r.real ? [{ re: r.re, im: 0 }] : [{ re: r.re, im: r.im }, { re: r.re, im: -r.im }];
+  it("matches a central difference of phase within 1e-6 relative", () => {
+    fc.assert(
+      fc.property(
+        fc.array(root, { minLength: 1, maxLength: 4 }),
+        fc.array(fc.record({ re: fc.double({ min: -3, max: 3, noNaN: true }), im: fc.double({ min: 0, max: 3, noNaN: true }), real: fc.boolean() }), { maxLength: 3 }),
+        fc.double({ min: 0.05, max: 5, noNaN: true }),
+        (ps, zs, w0) => {
+          const h = zpk(zs.flatMap(expand), ps.flatMap(expand), 1);
+          const dw = 1e-5 * w0;
+          const ph = phase(h, Float64Array.of(w0 - dw, w0 + dw));
+          const numeric = -(ph[1]! - ph[0]!) / (2 * dw);
+          const tau = groupDelay(h, Float64Array.of(w0))[0]!;
+          // scale: the sum of the magnitudes of all factor contributions
+          let scale = 0;
+          for (const r of [...h.poles, ...h.zeros]) scale += Math.abs(r.re) / ((w0 - r.im) ** 2 + r.re ** 2);
+          return Math.abs(numeric - tau) <= 1e-6 * Math.max(scale, 1e-3);
+        },
+      ),
+      { numRuns: 200 },
+    );
+  });
+});
+
+describe("response argument validation", () => {
+  const h = zpk([], [{ re: -1, im: 0 }], 1);
+  it("rejects bad grids and systems with typed errors", () => {
+    expect(() => frequencyResponse(h, [1, 2] as unknown as Float64Array)).not.toThrow();
+    expect(() => frequencyResponse(h, Float64Array.of(1, Number.NaN))).toThrow(/w\[1\]/);
+    expect(() => phase(h, Float64Array.of(-1))).toThrow(InvalidArgumentError);
+    expect(() => magnitudeDb({ zeros: [], poles: [{ re: -1, im: 1 }], gain: 1 }, Float64Array.of(1))).toThrow(/conjugate/);
+    expect(() => groupDelay({ sections: [], gain: "1" } as unknown as never, Float64Array.of(1))).toThrow(/gain/);
+    const integrator = zpk([], [{ re: 0, im: 0 }], 1);
+    expect(() => frequencyResponse(integrator, Float64Array.of(0, 1))).toThrow(/jw axis/);
+  });
+});
