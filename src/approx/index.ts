@@ -36,3 +36,5 @@ export type {
   MinimumOrderSpec,
   OrderResponse,
 } from "./order.ts";
+export { formatSectionTable, sectionTable } from "./sectionTable.ts";
+export type { FormatSectionTableOptions, SectionRow, SectionTableOptions } from "./sectionTable.ts";
