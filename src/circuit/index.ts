@@ -8,10 +8,13 @@ export type {
   Capacitor,
   Circuit,
   Element,
+  IdealOpAmpModel,
   Inductor,
   OpAmp,
   OpAmpModel,
   Resistor,
+  SinglePoleOpAmpModel,
+  SinglePoleRoutOpAmpModel,
   Vcvs,
   VoltageSource,
 } from "./types.ts";

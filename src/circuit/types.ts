@@ -79,16 +79,41 @@ export interface Vcvs {
   readonly gain: number;
 }
 
+/** The ideal op-amp: a nullor (infinite gain, the inputs at equal voltage, no input current). */
+export interface IdealOpAmpModel {
+  /** Model kind. */
+  readonly kind: "ideal";
+}
+
+/** Finite DC gain and one pole: `A(s) = a0 / (1 + s / wp)` with `wp = 2 pi gbwHz / a0`. */
+export interface SinglePoleOpAmpModel {
+  /** Model kind. */
+  readonly kind: "single-pole";
+  /** DC open-loop gain (V/V, > 0). */
+  readonly a0: number;
+  /** Gain-bandwidth product in Hz (> 0). */
+  readonly gbwHz: number;
+}
+
+/** The single-pole model followed by a series output resistance. */
+export interface SinglePoleRoutOpAmpModel {
+  /** Model kind. */
+  readonly kind: "single-pole-rout";
+  /** DC open-loop gain (V/V, > 0). */
+  readonly a0: number;
+  /** Gain-bandwidth product in Hz (> 0). */
+  readonly gbwHz: number;
+  /** Open-loop output resistance in ohms (>= 0). */
+  readonly routOhm: number;
+}
+
 /**
  * Op-amp models:
  * - `ideal`: a nullor (infinite gain, the inputs at equal voltage, no input current).
  * - `single-pole`: `A(s) = a0 / (1 + s / wp)` with `wp = 2 pi gbwHz / a0`.
  * - `single-pole-rout`: the single-pole model followed by an output resistance.
  */
-export type OpAmpModel =
-  | { readonly kind: "ideal" }
-  | { readonly kind: "single-pole"; readonly a0: number; readonly gbwHz: number }
-  | { readonly kind: "single-pole-rout"; readonly a0: number; readonly gbwHz: number; readonly routOhm: number };
+export type OpAmpModel = IdealOpAmpModel | SinglePoleOpAmpModel | SinglePoleRoutOpAmpModel;
 
 /** An op-amp with non-inverting input `inP`, inverting input `inN` and output `out` (referred to ground). */
 export interface OpAmp {

@@ -96,7 +96,7 @@ export interface TopologySpec {
   readonly fixedGain?: (t: Omit<StageTarget, "gain">) => number;
 }
 
-/** A topology built by {@link defineTopology} (the same shape as {@link Topology}). */
+/** A topology built by this module's `defineTopology` (the same shape as {@link Topology}). */
 export type DefinedTopology = Topology;
 
 function bad(fn: string, path: string, received: unknown, message: string): never {

@@ -125,7 +125,12 @@ export interface Topology {
     values: ComponentValues,
     freqHz: Float64Array,
     opamp: OpAmpModel,
-  ) => { readonly re: Float64Array; readonly im: Float64Array };
+  ) => {
+    /** Real parts, one per frequency. */
+    readonly re: Float64Array;
+    /** Imaginary parts, one per frequency. */
+    readonly im: Float64Array;
+  };
   /** The stage's elements placed between two nodes of a larger circuit. */
   readonly elements: (values: ComponentValues, placement: StagePlacement) => readonly Element[];
   /**
