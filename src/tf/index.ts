@@ -24,3 +24,11 @@ export {
   phase,
   type ComplexResponse,
 } from "./response.ts";
+export {
+  lowpassToBandpass,
+  lowpassToBandstop,
+  lowpassToHighpass,
+  lowpassToLowpass,
+  type BandOptions,
+  type CutoffOptions,
+} from "./transforms.ts";
