@@ -8,7 +8,8 @@
  *   `12.74 kOhm`, `1.5 MHz`, `1meg` (SPICE mega);
  * - an RKM code (IEC 60062:2016, clause 4, typed in from memory) where the
  *   letter stands for the decimal point: `4k7`, `4R7`, `R47`, `100R`, `4n7`,
- *   `4u7F`, `1M0`, with an optional unit after it.
+ *   `4u7F`, `1M0`, with an optional unit after it (`4r7`, lower-case r, is
+ *   read as `4R7`).
  *
  * Prefixes: f p n u/µ/μ m k/K M/meg G T (BIPM SI Brochure, 9th ed., 2019,
  * Table 7). `m` is milli and `M` is mega; SPICE's case-blind `M` (milli) is not
@@ -58,7 +59,7 @@ const ACCEPTED =
   'expected a number with an optional SI prefix (f p n u µ m k M meg G T) and unit (Ω ohm F H Hz V A s W), ' +
   'such as "4.7k", "2.2 µF", "1.5 MHz", "1meg" or "2.2e-9", or an RKM code such as "4k7", "R47", "100R" or "4n7"';
 
-const RKM_RE = /^([+-]?)(\d*)(R|F|f|p|n|u|\u00b5|\u03bc|m|k|K|M|G|T)(\d*)\s*(.*)$/u;
+const RKM_RE = /^([+-]?)(\d*)(R|r|F|f|p|n|u|\u00b5|\u03bc|m|k|K|M|G|T)(\d*)\s*(.*)$/u;
 const DECIMAL_RE = /^([+-]?)(\d+\.?\d*|\.\d+)(?:[eE]([+-]?\d+))?\s*(.*)$/u;
 
 interface Raw {
@@ -96,10 +97,10 @@ function readRaw(fn: string, text: unknown): Raw {
   if (rkm !== null) {
     const [, sign = "", int = "", letter = "", frac = "", rest = ""] = rkm;
     // An RKM code has digits after the letter, or is `<digits>R` (such as 100R).
-    const isRkm = frac !== "" || (letter === "R" && int !== "");
+    const isRkm = frac !== "" || ((letter === "R" || letter === "r") && int !== "");
     if (isRkm) {
       const exp = RKM_EXPONENTS.get(letter) as number;
-      let unit: UnitSymbol | undefined = letter === "R" ? "\u03a9" : letter === "F" ? "F" : undefined;
+      let unit: UnitSymbol | undefined = letter === "R" || letter === "r" ? "\u03a9" : letter === "F" ? "F" : undefined;
       if (rest !== "") {
         const written = canonicalUnit(rest);
         if (written === undefined) fail(fn, text, `"${rest}" after the RKM code is not a unit`);

@@ -66,6 +66,7 @@ export const UNIT_ALIASES: ReadonlyMap<string, UnitSymbol> = new Map<string, Uni
  */
 export const RKM_EXPONENTS: ReadonlyMap<string, number> = new Map<string, number>([
   ["R", 0],
+  ["r", 0],
   ["F", 0],
   ["f", -15],
   ["p", -12],

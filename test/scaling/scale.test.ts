@@ -1,94 +1,12 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { InvalidArgumentError } from "../../src/errors.ts";
-import { cabs, cadd, cdiv, cmul, complex } from "../../src/math/complex.ts";
-import type { Complex } from "../../src/math/complex.ts";
+import { cabs } from "../../src/math/complex.ts";
 import type { Element } from "../../src/circuit/types.ts";
-import { scaleElements, scaleValue, scalingFor } from "../../src/scaling/index.ts";
+import { scaleElements, scaleValue } from "../../src/scaling/index.ts";
+import { butterworth3, ladderResponse, ladderRungs, rc3, rcRungs } from "./ladder.ts";
 import type { ScalableElement } from "../../src/scaling/index.ts";
 import { expectClose } from "../helpers/tolerance.ts";
-
-// --- A small ladder evaluator local to this test (ABCD chain matrices) -------
-// Each rung is a series impedance or a shunt admittance; the last element is
-// the load resistor. H = V_load / V_source = 1 / (A + B / R_load).
-type Rung = { readonly el: string; readonly shunt: boolean };
-
-interface Abcd {
-  a: Complex;
-  b: Complex;
-  c: Complex;
-  d: Complex;
-}
-
-function impedance(el: ScalableElement, s: Complex): Complex {
-  const v = el.value as number;
-  if (el.kind === "R") return complex(v);
-  if (el.kind === "L") return cmul(s, complex(v));
-  return cdiv(complex(1), cmul(s, complex(v)));
-}
-
-function mul(x: Abcd, y: Abcd): Abcd {
-  return {
-    a: cadd(cmul(x.a, y.a), cmul(x.b, y.c)),
-    b: cadd(cmul(x.a, y.b), cmul(x.b, y.d)),
-    c: cadd(cmul(x.c, y.a), cmul(x.d, y.c)),
-    d: cadd(cmul(x.c, y.b), cmul(x.d, y.d)),
-  };
-}
-
-function ladderResponse(elements: readonly ScalableElement[], rungs: readonly Rung[], load: string, w: number): Complex {
-  const s = complex(0, w);
-  const byName = new Map(elements.map((e) => [e.name, e]));
-  let m: Abcd = { a: complex(1), b: complex(0), c: complex(0), d: complex(1) };
-  for (const r of rungs) {
-    const z = impedance(byName.get(r.el) as ScalableElement, s);
-    const step: Abcd = r.shunt
-      ? { a: complex(1), b: complex(0), c: cdiv(complex(1), z), d: complex(1) }
-      : { a: complex(1), b: z, c: complex(0), d: complex(1) };
-    m = mul(m, step);
-  }
-  const rl = (byName.get(load) as ScalableElement).value as number;
-  return cdiv(complex(1), cadd(m.a, cdiv(m.b, complex(rl))));
-}
-
-// Normalised doubly terminated 3rd-order Butterworth LC ladder: g = 1, 2, 1
-// (g_k = 2 sin((2k - 1) pi / 2n); G. Matthaei, L. Young, E. M. T. Jones,
-// "Microwave Filters, Impedance-Matching Networks, and Coupling Structures",
-// McGraw-Hill, 1964, eq. (4.05-2)). |H(jw)| = 0.5 / sqrt(1 + w^6).
-const g = (k: number, n: number): number => 2 * Math.sin(((2 * k - 1) * Math.PI) / (2 * n));
-const butterworth3: ScalableElement[] = [
-  { name: "Rs", kind: "R", value: 1 },
-  { name: "C1", kind: "C", value: g(1, 3) },
-  { name: "L2", kind: "L", value: g(2, 3) },
-  { name: "C3", kind: "C", value: g(3, 3) },
-  { name: "RL", kind: "R", value: 1 },
-  { name: "U1", kind: "OA" }, // not part of the ladder; must pass through untouched
-];
-const ladderRungs: Rung[] = [
-  { el: "Rs", shunt: false },
-  { el: "C1", shunt: true },
-  { el: "L2", shunt: false },
-  { el: "C3", shunt: true },
-];
-
-// An RC ladder (three sections) with unequal values.
-const rc3: ScalableElement[] = [
-  { name: "R1", kind: "R", value: 1 },
-  { name: "C1", kind: "C", value: 0.5 },
-  { name: "R2", kind: "R", value: 2.2 },
-  { name: "C2", kind: "C", value: 0.15 },
-  { name: "R3", kind: "R", value: 4.7 },
-  { name: "C3", kind: "C", value: 0.033 },
-  { name: "RL", kind: "R", value: 1e3 },
-];
-const rcRungs: Rung[] = [
-  { el: "R1", shunt: false },
-  { el: "C1", shunt: true },
-  { el: "R2", shunt: false },
-  { el: "C2", shunt: true },
-  { el: "R3", shunt: false },
-  { el: "C3", shunt: true },
-];
 
 const logUniform = (lo: number, hi: number) => fc.double({ min: lo, max: hi, noNaN: true }).map((e) => 10 ** e);
 
@@ -172,41 +90,3 @@ describe("scaleElements", () => {
   });
 });
 
-describe("scalingFor", () => {
-  it("solves Kf from the target and Km from a fixed capacitor", () => {
-    const s = scalingFor({ targetHz: 25e3, capacitor: { normalised: 1, actual: 4.7e-9 } });
-    expectClose(s.kf, 2 * Math.PI * 25e3, { rel: 1e-15 });
-    expectClose(s.km, 1 / (2 * Math.PI * 25e3 * 4.7e-9), { rel: 1e-15 });
-    // The fixed capacitor lands exactly where asked.
-    expectClose(scaleValue("C", 1, s), 4.7e-9, { rel: 2e-16 });
-  });
-
-  it("solves Km from a fixed resistor or an impedance level", () => {
-    expect(scalingFor({ targetW: 1000, resistor: { normalised: 2, actual: 20e3 } })).toEqual({ km: 10e3, kf: 1000 });
-    expect(scalingFor({ targetW: 1000, impedance: 10e3 })).toEqual({ km: 10e3, kf: 1000 });
-    expect(scalingFor({ targetW: 500, normalisedW: 2 })).toEqual({ km: 1, kf: 250 });
-  });
-
-  it("moves a hydrophone anti-alias prototype to 25 kHz with 4.7 nF capacitors", () => {
-    // Scale the normalised ladder so that C1 = 4.7 nF and the -3 dB point is 25 kHz.
-    const s = scalingFor({ targetHz: 25e3, capacitor: { normalised: g(1, 3), actual: 4.7e-9 } });
-    const built = scaleElements(butterworth3, s);
-    const c1 = built.find((e) => e.name === "C1") as ScalableElement;
-    expectClose(c1.value as number, 4.7e-9, { rel: 1e-15 });
-    const w3 = 2 * Math.PI * 25e3;
-    expectClose(cabs(ladderResponse(built, ladderRungs, "RL", w3)), 0.5 / Math.SQRT2, { rel: 1e-13 });
-  });
-
-  it("rejects missing, duplicated and bad targets", () => {
-    expect(() => scalingFor({})).toThrow(/exactly one of targetHz/);
-    expect(() => scalingFor({ targetHz: 1, targetW: 1 })).toThrow(/exactly one/);
-    expect(() => scalingFor({ targetHz: -1 })).toThrow(/scalingFor: targetHz/);
-    expect(() => scalingFor({ targetW: 1, impedance: 1, resistor: { normalised: 1, actual: 1 } })).toThrow(
-      /at most one of capacitor, resistor and impedance/,
-    );
-    expect(() => scalingFor({ targetW: 1, capacitor: { normalised: 1, actual: 0 } })).toThrow(/capacitor.actual/);
-    expect(() => scalingFor({ targetW: 1e300, capacitor: { normalised: 1e-300, actual: 1e300 } })).toThrow(
-      /scaling constants come out/,
-    );
-  });
-});
