@@ -11,6 +11,7 @@ import {
   snapValues,
 } from "../../src/parts/index.ts";
 import type { SeriesName } from "../../src/parts/index.ts";
+import { loadFixture } from "../helpers/fixtures.ts";
 
 /** Independent member list: decimal strings of the table mantissas, decades k-1..k+1 around x. */
 function membersNear(series: SeriesName, x: number): number[] {
@@ -213,4 +214,21 @@ describe("isInSeries", () => {
     expect(isInSeries(0, "E12")).toBe(false);
     expect(isInSeries(NaN, "E12")).toBe(false);
   });
+});
+
+describe("snapToSeries against numpy (searchsorted on log10, scripts/reference/parts_snap.py)", () => {
+  const fx = loadFixture<{ cases: Record<string, { x: number; nearest: number; up: number; down: number }[]> }>(
+    "parts-snap.json",
+  );
+  for (const name of ["E48", "E96"] as const) {
+    const cases = fx.cases[name] ?? [];
+    it(`agrees on all ${cases.length} ${name} cases in every mode`, () => {
+      expect(cases.length).toBeGreaterThan(300);
+      for (const c of cases) {
+        expect(snapToSeries(c.x, { series: name }).value, `${c.x}`).toBe(c.nearest);
+        expect(snapToSeries(c.x, { series: name, mode: "up" }).value).toBe(c.up);
+        expect(snapToSeries(c.x, { series: name, mode: "down" }).value).toBe(c.down);
+      }
+    });
+  }
 });
