@@ -241,7 +241,19 @@ export function placeParts(parts: readonly PartSpec[], v: ComponentValues, p: St
   });
 }
 
-/** The stage alone, driven by `Vin` at node `in`, output at node `out` (for nodal analysis). */
+/**
+ * The stage alone, driven by `Vin` at node `in`, output at node `out` (for nodal analysis).
+ *
+ * @param spec - topology
+ * @param v - component values
+ * @param opamp - op-amp model for every op-amp
+ * @returns the circuit
+ * @throws never
+ * @example
+ * ```ts
+ * stageCircuit(spec, values, { kind: "ideal" }).elements[0]; //=> { kind: "V", name: "Vin", a: "in", b: "0", ac: 1 }
+ * ```
+ */
 export function stageCircuit(spec: TopologySpec, v: ComponentValues, opamp: OpAmpModel): Circuit {
   const elements: Element[] = [
     { kind: "V", name: "Vin", a: "in", b: "0", ac: 1 },
@@ -250,7 +262,18 @@ export function stageCircuit(spec: TopologySpec, v: ComponentValues, opamp: OpAm
   return { title: spec.name, elements };
 }
 
-/** Open-loop gain of the single-pole model at `s`. */
+/**
+ * Open-loop gain of the single-pole model at `s`: `a0 / (1 + s a0 / (2 pi GBW))`.
+ *
+ * @param m - DC gain and gain-bandwidth product
+ * @param s - complex frequency (rad/s)
+ * @returns `A(s)`
+ * @throws never
+ * @example
+ * ```ts
+ * openLoopGain({ a0: 1e5, gbwHz: 1e6 }, { re: 0, im: 0 }); //=> { re: 100000, im: 0 }
+ * ```
+ */
 export function openLoopGain(m: { readonly a0: number; readonly gbwHz: number }, s: Complex): Complex {
   // a0 / (1 + s a0 / (2 pi GBW)) = 1 / (1/a0 + s / (2 pi GBW))
   const tau = 1 / (TWO_PI * m.gbwHz);
@@ -266,7 +289,21 @@ function idealPole(order: 1 | 2, f0Hz: number, q: number): Complex {
   return { re, im: q <= 0.5 ? 0 : im };
 }
 
-/** Muller's method on f from a start point; returns the root or null. */
+/**
+ * A root of `f` near `start` by Muller's method (D. E. Muller, MTAC 10:208-215,
+ * 1956): quadratic interpolation through the last three iterates.
+ *
+ * @param f - analytic function
+ * @param start - starting point
+ * @param scale - size of the neighbourhood (sets the first step and the stopping test)
+ * @returns the root, or `null` when the iteration fails or does not settle in 100 steps
+ * @throws never
+ * @example
+ * ```ts
+ * mullerRoot((z) => ({ re: z.re * z.re - z.im * z.im + 1, im: 2 * z.re * z.im }), { re: 0.1, im: 0.9 }, 1);
+ * //=> about { re: 0, im: 1 }
+ * ```
+ */
 export function mullerRoot(f: (s: Complex) => Complex, start: Complex, scale: number): Complex | null {
   let x0: Complex = { re: start.re - 0.01 * scale, im: start.im };
   let x1: Complex = { re: start.re + 0.01 * scale, im: start.im + 0.005 * scale };
@@ -515,15 +552,25 @@ export function defineTopology(spec: TopologySpec): DefinedTopology {
 
 // ---- small complex helpers for closed forms ----
 
-/** Real number as complex. */
+/** Real number as complex (closed-form helper). */
 export const re = (x: number): Complex => ({ re: x, im: 0 });
-/** `s * x` for real x. */
+/** `s * x` for real x (closed-form helper). */
 export const sx = (s: Complex, x: number): Complex => ({ re: s.re * x, im: s.im * x });
-/** `1 / z`. */
-export const inv = (z: Complex): Complex => cdiv({ re: 1, im: 0 }, z);
 export { cadd, cdiv, cmul, csub };
 
-/** Effective gain of a non-inverting amplifier with feedback fraction beta: `a / (1 + a beta)`, or `1/beta` when ideal. */
+/**
+ * Effective gain of a non-inverting amplifier with feedback fraction beta:
+ * `a / (1 + a beta)`, or `1/beta` when ideal.
+ *
+ * @param a - open-loop gain, or `null` for the ideal op-amp
+ * @param beta - feedback fraction (0, 1]
+ * @returns the closed-loop gain
+ * @throws never
+ * @example
+ * ```ts
+ * nonInvertingGain(null, 0.5); //=> { re: 2, im: 0 }
+ * ```
+ */
 export function nonInvertingGain(a: Complex | null, beta: number): Complex {
   if (a === null) return re(1 / beta);
   return cdiv(a, { re: 1 + a.re * beta, im: a.im * beta });
@@ -533,6 +580,16 @@ export function nonInvertingGain(a: Complex | null, beta: number): Complex {
  * Inverting-amplifier family with a virtual-earth node `n`: input admittance
  * `y1` from the source, feedback admittance `y2` to the output:
  * `H = -y1 / (y2 + (y1 + y2) / a)`.
+ *
+ * @param y1 - input admittance
+ * @param y2 - feedback admittance
+ * @param a - open-loop gain, or `null` for the ideal op-amp
+ * @returns the transfer
+ * @throws never
+ * @example
+ * ```ts
+ * invertingGain({ re: 1e-3, im: 0 }, { re: 5e-4, im: 0 }, null); //=> { re: -2, im: 0 }
+ * ```
  */
 export function invertingGain(y1: Complex, y2: Complex, a: Complex | null): Complex {
   const den = a === null ? y2 : cadd(y2, cdiv(cadd(y1, y2), a));
@@ -545,6 +602,16 @@ export function invertingGain(y1: Complex, y2: Complex, a: Complex | null): Comp
  * input grounded; open-loop gain `a` (`null` = ideal):
  * `H = -y1 y3 / ( ((y3 + y5)/a + y5) (y1+y2+y3+y4) + y3 y4 - y3^2/a )`
  * (written without dividing by `y3`, which vanishes at 0 Hz in some stages).
+ *
+ * @param y - the five admittances `[y1, y2, y3, y4, y5]`
+ * @param a - open-loop gain, or `null` for the ideal op-amp
+ * @returns the transfer
+ * @throws never
+ * @example
+ * ```ts
+ * const g = { re: 1e-4, im: 0 }, z = { re: 0, im: 0 };
+ * mfbKernel([g, z, g, g, g], null); //=> { re: -0.25, im: 0 }
+ * ```
  */
 export function mfbKernel(
   y: readonly [Complex, Complex, Complex, Complex, Complex],
@@ -559,7 +626,18 @@ export function mfbKernel(
   return cdiv({ re: -num.re, im: -num.im }, den);
 }
 
-/** Number check for a within-slack comparison `x >= limit`. */
+/**
+ * `x >= limit` with a relative slack of {@link LIMIT_SLACK}.
+ *
+ * @param x - value
+ * @param limit - lower limit
+ * @returns whether x reaches the limit
+ * @throws never
+ * @example
+ * ```ts
+ * atLeast(7.8399999999, 7.84); //=> true
+ * ```
+ */
 export function atLeast(x: number, limit: number): boolean {
   return x >= limit * (1 - LIMIT_SLACK);
 }

@@ -14,6 +14,12 @@
  * - Inverting highpass: C1 in -> m, R1 m -> n, R2 n -> out;
  *   `H = -(R2/R1) s R1 C1 / (1 + s R1 C1)`, w0 = 1/(R1 C1), HF gain -R2/R1.
  *
+ * - First-order allpass (phase shifter): R1 in -> n, R2 n -> out, R3 in -> p,
+ *   C1 p -> 0, U1 non-inverting input p, inverting input n; with R1 = R2,
+ *   `H = (1 - s R3 C1) / (1 + s R3 C1)`, w0 = 1/(R3 C1), gain +1 at DC and
+ *   -R2/R1 = -1 at high frequency. With finite gain
+ *   `H = A (1/(1 + s R3 C1) - R2/(R1 + R2)) / (1 + A R1/(R1 + R2))`.
+ *
  * Reference: L. P. Huelsman & P. E. Allen, "Introduction to the Theory and
  * Design of Active Filters", McGraw-Hill, 1980, first-order sections
  * (from memory).
@@ -24,7 +30,8 @@
  * GBW demand: computed numerically from that response (1 % on f0); common
  * practice, no source, asks for GBW >= 100 |gain| f0.
  *
- * Choices: `capacitor` sets C1; `resistor` sets R1; by default R1 = 10 kOhm.
+ * Choices: `capacitor` sets C1; `resistor` sets R1 (R3 for the allpass); by
+ * default that resistor is 10 kOhm.
  * The gain resistor R3 of the non-inverting stages equals R1 before scaling.
  *
  * @module
@@ -216,4 +223,40 @@ export const firstOrderHighpassInverting: DefinedTopology = defineTopology({
     return invertingGain(y1, re(1 / g(v, "R2")), a);
   },
   closedFormFinite: true,
+});
+
+/** First-order allpass (phase shifter): gain +1 at DC, -1 at high frequency. */
+export const firstOrderAllpass: DefinedTopology = defineTopology({
+  id: "first-order-allpass",
+  name: "first-order allpass",
+  order: 1,
+  kinds: ["allpass"],
+  inverting: false,
+  reference: REF,
+  levelCapacitor: "C1",
+  levelResistor: "R3",
+  parts: [
+    { kind: "R", name: "R1", a: "in", b: "n" },
+    { kind: "R", name: "R2", a: "n", b: "out" },
+    { kind: "R", name: "R3", a: "in", b: "p" },
+    { kind: "C", name: "C1", a: "p", b: "0" },
+    { kind: "OA", name: "U1", inP: "p", inN: "n", out: "out" },
+  ],
+  limits: () => null,
+  solve: (t) => {
+    const r = 1 / w0Of(t);
+    return { C1: 1, R1: r, R2: r, R3: r };
+  },
+  figures: (v) => ({ f0Hz: 1 / (TWO_PI * g(v, "R3") * g(v, "C1")), gain: 1 }),
+  closedForm: (v, s, a) => {
+    const r1 = g(v, "R1");
+    const r2 = g(v, "R2");
+    const lag = cdiv(re(1), cadd(re(1), sx(s, g(v, "R3") * g(v, "C1"))));
+    const drive = cadd(lag, re(-r2 / (r1 + r2)));
+    const beta = r1 / (r1 + r2);
+    if (a === null) return sx(drive, 1 / beta);
+    return cdiv(cmul(a, drive), cadd(re(1), sx(a, beta)));
+  },
+  closedFormFinite: true,
+  fixedGain: () => 1,
 });

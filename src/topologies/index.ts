@@ -15,6 +15,7 @@ export type {
 } from "./types.ts";
 export { DEFAULT_LEVEL_OHMS, GBW_DEMAND_A0, type DefinedTopology } from "./common.ts";
 export {
+  firstOrderAllpass,
   firstOrderHighpassBuffer,
   firstOrderHighpassInverting,
   firstOrderHighpassNoninverting,

@@ -53,7 +53,20 @@ const w0Of = (t: StageTarget): number => TWO_PI * t.f0Hz;
 const amp = { kind: "OA", name: "U1", inP: "0", inN: "n", out: "out" } as const;
 const ZERO: Complex = { re: 0, im: 0 };
 
-/** Minimum C1/C2 of an MFB lowpass of gain magnitude |K|. */
+/**
+ * Smallest capacitor ratio C1/C2 (grounded over feedback capacitor) with
+ * which a multiple-feedback lowpass of gain magnitude |K| reaches a pole Q:
+ * `4 Q^2 (1 + |K|)`. At that ratio R2 = R3.
+ *
+ * @param qv - pole Q (> 0)
+ * @param gainMagnitude - |K| (> 0)
+ * @returns the minimum ratio
+ * @throws never (no checks: a helper for the design layer's choices)
+ * @example
+ * ```ts
+ * mfbLowpassMinRatio(0.5, 1); //=> 2
+ * ```
+ */
 export function mfbLowpassMinRatio(qv: number, gainMagnitude: number): number {
   return 4 * qv * qv * (1 + gainMagnitude);
 }

@@ -5,6 +5,7 @@
  */
 import { InvalidArgumentError } from "../errors.ts";
 import {
+  firstOrderAllpass,
   firstOrderHighpassBuffer,
   firstOrderHighpassInverting,
   firstOrderHighpassNoninverting,
@@ -46,6 +47,7 @@ export const topologies: readonly Topology[] = Object.freeze([
   firstOrderHighpassNoninverting,
   firstOrderLowpassInverting,
   firstOrderHighpassInverting,
+  firstOrderAllpass,
   sallenKeyLowpassUnity,
   sallenKeyLowpassEqual,
   sallenKeyLowpassGain,

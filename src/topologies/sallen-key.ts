@@ -136,7 +136,20 @@ function highClosed(v: ComponentValues, s: Complex, a: Complex | null): Complex 
   return cdiv(cmul(ke, s2p), den);
 }
 
-/** Minimum C1/C2 of a Sallen-Key lowpass of gain K >= 1. */
+/**
+ * Smallest capacitor ratio C1/C2 (feedback over grounded capacitor) with
+ * which a Sallen-Key lowpass of gain K >= 1 reaches a pole Q:
+ * `4 Q^2 / (1 + 4 Q^2 (K - 1))`. At that ratio the two resistors are equal.
+ *
+ * @param qv - pole Q (> 0)
+ * @param k - gain K (>= 1)
+ * @returns the minimum ratio
+ * @throws never (no checks: a helper for the design layer's choices)
+ * @example
+ * ```ts
+ * sallenKeyLowpassMinRatio(1.4, 1); //=> 7.839999999999999 (4Q^2)
+ * ```
+ */
 export function sallenKeyLowpassMinRatio(qv: number, k: number): number {
   return (4 * qv * qv) / (1 + 4 * qv * qv * (k - 1));
 }
