@@ -81,3 +81,30 @@ describe("Topology.response", () => {
     expect(() => topo.response({ R1: 1, C1: 1 }, new Float64Array([-1]), { kind: "ideal" })).toThrow(/freqHz\[0\]/);
   });
 });
+
+describe("Topology.response at 0 Hz", () => {
+  it("is finite for every topology and agrees between closed form and nodal analysis", () => {
+    for (const topo of topologies) {
+      const kind = topo.kinds[0]!;
+      const fixed = topo.fixedGain;
+      const base = { order: topo.order, kind, f0Hz: 500, q: 1.5 } as const;
+      let gain = topo.id.includes("unity") || topo.id.includes("buffer") ? 1 : 3;
+      if (fixed !== undefined) gain = fixed(base);
+      const target = {
+        ...base,
+        gain: topo.inverting ? -gain : gain,
+        ...(kind === "lowpass-notch" ? { fzHz: 900 } : {}),
+        ...(kind === "highpass-notch" ? { fzHz: 200 } : {}),
+      };
+      const v = topo.design(target, {});
+      const f = new Float64Array([0]);
+      for (const opamp of [{ kind: "ideal" }, { kind: "single-pole", a0: 1e5, gbwHz: 1e6 }] as OpAmpModel[]) {
+        const h = topo.response(v, f, opamp);
+        const m = mnaOf(topo, v, f, opamp);
+        expect(Number.isFinite(h.re[0]) && Number.isFinite(h.im[0]), topo.id).toBe(true);
+        expect(Math.abs(h.re[0]! - m.re[0]!), topo.id).toBeLessThan(1e-9 * Math.max(1, Math.abs(m.re[0]!)));
+        expect(Math.abs(h.im[0]!)).toBeLessThan(1e-12);
+      }
+    }
+  });
+});
