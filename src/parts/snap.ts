@@ -73,6 +73,22 @@ export function memberValue(m: number, k: number): number {
   return Number(`${m}e${k}`);
 }
 
+// Reading the binary exponent of a double directly is cheaper than Math.log10.
+const F64 = new Float64Array(1);
+const U32 = new Uint32Array(F64.buffer);
+const HIGH_WORD = new Uint8Array(Float64Array.of(1).buffer)[7] === 0x3f ? 1 : 0; // little-endian: 1
+const LOG10_2 = 0.3010299956639812;
+
+/**
+ * floor(log10(x)) or one less, for a normal positive double x: from the
+ * binary exponent b, log10(x) lies in [b log10 2, (b + 1) log10 2).
+ */
+function decadeEstimate(x: number): number {
+  F64[0] = x;
+  const b = (((U32[HIGH_WORD] as number) >>> 20) & 0x7ff) - 1023;
+  return Math.floor(b * LOG10_2);
+}
+
 /** A position in the series: index into the mantissas and decade exponent k (value = m[j] 10^k). */
 interface Pos {
   j: number;
@@ -100,14 +116,14 @@ let posUp = 0;
 /** Find the largest member <= x (x > 0, finite, valid); sets posJ/posK and returns its value. */
 function floorCore(t: SeriesTable, x: number): number {
   const m = t.mantissas;
-  let k = Math.floor(Math.log10(x)) - 2;
+  let k = decadeEstimate(x) - 2;
   let scaled = k >= 0 && k <= 22 ? x / (POW10[k] as number) : k < 0 && k >= -22 ? x * (POW10[-k] as number) : x / memberValue(1, k);
-  if (scaled < 100) {
-    k -= 1;
-    scaled *= 10;
-  } else if (scaled >= 1000) {
+  if (scaled >= 1000) {
     k += 1;
     scaled /= 10;
+  } else if (scaled < 100) {
+    k -= 1;
+    scaled *= 10;
   }
   // Mantissas are integers, so m[j] <= scaled iff m[j] <= floor(scaled).
   const n = Math.floor(scaled);
@@ -168,14 +184,14 @@ function snapCore(t: SeriesTable, x: number, mode: SnapMode): [number, number, n
 function snapOne(t: SeriesTable, x: number, mode: SnapMode): number {
   const m = t.mantissas;
   const last = m.length - 1;
-  let k = Math.floor(Math.log10(x)) - 2;
+  let k = decadeEstimate(x) - 2;
   let scaled = k >= 0 && k <= 22 ? x / (POW10[k] as number) : k < 0 && k >= -22 ? x * (POW10[-k] as number) : x / memberValue(1, k);
-  if (scaled < 100) {
-    k -= 1;
-    scaled *= 10;
-  } else if (scaled >= 1000) {
+  if (scaled >= 1000) {
     k += 1;
     scaled /= 10;
+  } else if (scaled < 100) {
+    k -= 1;
+    scaled *= 10;
   }
   const n = Math.floor(scaled);
   let j = t.floorIndex[n < 100 ? 100 : n > 999 ? 999 : n] as number;
