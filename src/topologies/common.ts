@@ -365,7 +365,30 @@ export function stagePole(
   model: OpAmpModel,
   start: { readonly f0Hz: number; readonly q?: number },
 ): { f0Hz: number; q?: number } | null {
-  const sys = assembleMna(stageCircuit(spec, v, model));
+  return circuitPole(stageCircuit(spec, v, model), spec.order, start);
+}
+
+/**
+ * The natural frequency of a circuit nearest to an ideal first- or
+ * second-order pole, as `{ f0Hz, q }` (q absent for first order), or null
+ * when Muller's iteration on `det(G + s C)` fails.
+ *
+ * @param circuit - a valid circuit (its sources shorted by the MNA rows)
+ * @param order - 1 (real pole near -w0) or 2 (pole pair near the ideal one)
+ * @param start - ideal f0 (and Q) to start from
+ * @returns the pole's f0 and Q
+ * @throws never
+ * @example
+ * ```ts
+ * circuitPole(circuit, 2, { f0Hz: 1000, q: 2 }); //=> { f0Hz: 980.49..., q: 2.038... } (unity-gain Sallen-Key, GBW 100 kHz)
+ * ```
+ */
+export function circuitPole(
+  circuit: Circuit,
+  order: 1 | 2,
+  start: { readonly f0Hz: number; readonly q?: number },
+): { f0Hz: number; q?: number } | null {
+  const sys = assembleMna(circuit);
   const w0 = TWO_PI * start.f0Hz;
   // Scale the determinant so Muller's divided differences stay in range.
   const ref = mnaDeterminant(sys, { re: 0, im: w0 * 3 });
@@ -374,10 +397,10 @@ export function stagePole(
     const d = mnaDeterminant(sys, s);
     return { re: d.re / refMag, im: d.im / refMag };
   };
-  const p = mullerRoot(f, idealPole(spec.order, start.f0Hz, start.q ?? 0.5), w0);
+  const p = mullerRoot(f, idealPole(order, start.f0Hz, start.q ?? 0.5), w0);
   if (p === null) return null;
   const mag = Math.hypot(p.re, p.im);
-  if (spec.order === 1) return { f0Hz: mag / TWO_PI };
+  if (order === 1) return { f0Hz: mag / TWO_PI };
   return { f0Hz: mag / TWO_PI, q: mag / (-2 * p.re) };
 }
 

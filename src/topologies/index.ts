@@ -50,3 +50,4 @@ export {
   towThomasNotch,
 } from "./tow-thomas.ts";
 export { getTopology, topologies, topologiesFor, type TopologyQuery } from "./registry.ts";
+export { asBuiltPole, type AsBuiltPole } from "./as-built.ts";

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { getTopology, topologies } from "../../src/topologies/registry.ts";
-import { stagePole, type DefinedTopology } from "../../src/topologies/common.ts";
+import type { DefinedTopology } from "../../src/topologies/common.ts";
+import { asBuiltPole } from "../../src/topologies/as-built.ts";
 import type { StageTarget } from "../../src/topologies/types.ts";
 import { loadFixture } from "../helpers/fixtures.ts";
 
@@ -38,7 +39,7 @@ describe("Topology.gbwDemandHz", () => {
       const ideal = topo.figures(v);
       const at = (g: number) => {
         const m = { kind: "single-pole", a0: 1e8, gbwHz: g } as const;
-        const p = stagePoleOf(topo, v, m, ideal);
+        const p = asBuiltPole(topo, v, m);
         return Math.max(Math.abs(p.f0Hz / ideal.f0Hz - 1), Math.abs((p.q as number) / (ideal.q as number) - 1));
       };
       expect(at(d)).toBeLessThanOrEqual(0.01);
@@ -47,24 +48,19 @@ describe("Topology.gbwDemandHz", () => {
   }
 });
 
-/** The stage's pole found from its own elements (same search as the library, through the public elements()). */
-function stagePoleOf(
-  topo: DefinedTopology,
-  v: Record<string, number>,
-  model: { kind: "single-pole"; a0: number; gbwHz: number },
-  ideal: { f0Hz: number; q?: number },
-): { f0Hz: number; q?: number } {
-  const parts = topo.elements(v, { input: "in", output: "out", nodePrefix: "", opamp: model });
-  const spec = {
-    order: topo.order,
-    parts: parts.map((e) =>
-      e.kind === "OA"
-        ? { kind: "OA" as const, name: e.name, inP: e.inP, inN: e.inN, out: e.out }
-        : { kind: e.kind as "R" | "C", name: e.name, a: (e as { a: string }).a, b: (e as { b: string }).b },
-    ),
-    name: topo.name,
-  };
-  const p = stagePole(spec as never, v, model, ideal);
-  if (p === null) throw new Error("pole not found");
-  return p;
-}
+describe("asBuiltPole", () => {
+  it("returns the ideal figures with an ideal op-amp and a lower, sharper pole for a slow unity-gain Sallen-Key", () => {
+    const t = getTopology("sallen-key-lowpass-unity");
+    const v = t.design({ order: 2, kind: "lowpass", f0Hz: 1000, q: 2, gain: 1 }, {});
+    const ideal = asBuiltPole(t, v, { kind: "ideal" });
+    expect(Math.abs(ideal.f0Hz / 1000 - 1)).toBeLessThan(1e-12);
+    expect(Math.abs(ideal.q! / 2 - 1)).toBeLessThan(1e-12);
+    const slow = asBuiltPole(t, v, { kind: "single-pole", a0: 1e5, gbwHz: 1e5 });
+    expect(slow.f0Hz).toBeLessThan(1000);
+    expect(slow.q!).toBeGreaterThan(2);
+  });
+
+  it("rejects missing values", () => {
+    expect(() => asBuiltPole(getTopology("mfb-lowpass"), { R1: 1 }, { kind: "ideal" })).toThrow(/values\.R2/);
+  });
+});
