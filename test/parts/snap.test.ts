@@ -135,6 +135,36 @@ describe("snapToSeries", () => {
     );
   });
 
+  it("handles decade and binade edges from 1e-29 to 1e29", () => {
+    const f = new Float64Array(1);
+    const u = new BigUint64Array(f.buffer);
+    const neighbours = (x: number): number[] => {
+      f[0] = x;
+      const bits = u[0] as bigint;
+      u[0] = bits - 1n;
+      const below = f[0] as number;
+      u[0] = bits + 1n;
+      const above = f[0] as number;
+      return [below, x, above];
+    };
+    const xs: number[] = [];
+    for (let e = -29; e <= 29; e++) xs.push(...neighbours(Number(`1e${e}`)), ...neighbours(Number(`9.76e${e}`)));
+    for (let b = -96; b <= 96; b += 1) xs.push(...neighbours(2 ** b));
+    for (const series of SERIES_NAMES) {
+      for (const x of xs) {
+        const members = membersNear(series, x);
+        const down = snapToSeries(x, { series, mode: "down" }).value;
+        const up = snapToSeries(x, { series, mode: "up" }).value;
+        const below = members.filter((m) => m <= x);
+        const above = members.filter((m) => m >= x);
+        expect(down, `${series} down ${x}`).toBe(below[below.length - 1]);
+        expect(up, `${series} up ${x}`).toBe(above[0]);
+        expect(snapValues([x], { series, mode: "down" })[0]).toBe(down);
+        expect(snapValues([x], { series, mode: "up" })[0]).toBe(up);
+      }
+    }
+  });
+
   it("rejects bad input with the field named", () => {
     expect(() => snapToSeries(0, { series: "E12" })).toThrow(/snapToSeries: value/);
     expect(() => snapToSeries(-1, { series: "E12" })).toThrow(InvalidArgumentError);
