@@ -112,8 +112,15 @@ export function besselDelay3dB(order: number): number {
 export function besselScale(order: number, norm: BesselNormalization): number {
   if (norm === "delay") return 1;
   if (norm === "phase") return Math.exp(besselLogA0(order) / order);
-  return besselDelay3dB(order);
+  let w = w3Cache.get(order);
+  if (w === undefined) {
+    w = besselDelay3dB(order);
+    w3Cache.set(order, w);
+  }
+  return w;
 }
+
+const w3Cache = new Map<number, number>();
 
 /**
  * Bessel-Thomson lowpass prototype (maximally flat group delay), with 1 rad/s
@@ -142,9 +149,21 @@ export function bessel(order: number, options?: BesselOptions): Zpk {
   return besselUnchecked(order, norm);
 }
 
+const rootCache = new Map<number, readonly Complex[]>();
+
+/** Delay-normalised poles, computed once per order (the cached values are never handed out). */
+function delayPoles(order: number): readonly Complex[] {
+  let r = rootCache.get(order);
+  if (r === undefined) {
+    r = Object.freeze(reverseBesselRoots(order).map((p) => Object.freeze({ re: p.re, im: p.im })));
+    rootCache.set(order, r);
+  }
+  return r;
+}
+
 /** {@link bessel} without argument checks. */
 export function besselUnchecked(order: number, norm: BesselNormalization): Zpk {
-  const roots = reverseBesselRoots(order);
+  const roots = delayPoles(order);
   if (norm === "delay") return freezeZpk([], roots, besselA0(order));
   const factor = besselScale(order, norm);
   const poles = roots.map((p) => ({ re: p.re / factor, im: p.im / factor }));

@@ -205,6 +205,9 @@ export function legendreMagnitude(order: number, w: number): number {
 }
 
 // ---------------------------------------------------------------- poles
+/** Poles per order, computed once (freezeZpk copies them into every result). */
+const poleCache = new Map<number, readonly Complex[]>();
+
 function legendrePoles(order: number): Complex[] {
   const L = legendreLCoefficients(order);
   // Integer polynomial D (1 + L(u)) with D the common denominator, descending powers.
@@ -246,6 +249,10 @@ function legendrePoles(order: number): Complex[] {
  */
 export function legendre(order: number): Zpk {
   requireInteger("legendre", "order", order, { min: 1, max: LEGENDRE_MAX_ORDER });
-  const poles = legendrePoles(order);
+  let poles = poleCache.get(order);
+  if (poles === undefined) {
+    poles = Object.freeze(legendrePoles(order));
+    poleCache.set(order, poles);
+  }
   return freezeZpk([], poles, prodNeg(poles));
 }
