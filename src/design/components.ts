@@ -90,12 +90,26 @@ function evaluate(t: Topology, values: ComponentValues, target: StageTarget): Va
   return Number.isFinite(cost) ? { values, figures: fig, errors, cost } : null;
 }
 
-function tryDesign(t: Topology, target: StageTarget, choices: StageChoices): ComponentValues | null {
+function tryDesign(
+  t: Topology,
+  target: StageTarget,
+  choices: StageChoices,
+  series?: DesignSpec["capacitorSeries"],
+): ComponentValues | null {
   try {
     if (t.check(target, choices) !== null) return null;
     const v = t.design(target, choices);
     for (const x of Object.values(v)) if (!(x > 0) || !Number.isFinite(x)) return null;
-    return v;
+    if (series === undefined) return v;
+    // Capacitors derived through a ratio carry floating-point dust (1.2000000000000002e-8):
+    // put them back on the exact series value when they are within 1e-6 of it.
+    const out: Record<string, number> = { ...v };
+    for (const [k, x] of Object.entries(v)) {
+      if (!isCap(k)) continue;
+      const snapped = snapToSeries(x, { series, mode: "nearest" }).value;
+      if (Math.abs(snapped / x - 1) < 1e-6) out[k] = snapped;
+    }
+    return out;
   } catch {
     return null;
   }
@@ -123,12 +137,14 @@ function capacitorCandidates(
   const caps = seriesValuesInRange(spec.capacitorSeries, spec.capacitorRange);
   const out: { c: number; values: ComponentValues; centring: number }[] = [];
   for (const c of caps) {
-    const v = tryDesign(t, target, { capacitor: c });
+    const v = tryDesign(t, target, { capacitor: c }, spec.capacitorSeries);
     if (v === null) continue;
     out.push({ c, values: v, centring: centring(v, spec.resistorRange) });
   }
   out.sort((a, b) => a.centring - b.centring);
-  return out.slice(0, keep);
+  // Every capacitor that keeps the resistors inside the window (up to `keep`), and at least the best three.
+  const inside = out.filter((x) => x.centring <= 1).length;
+  return out.slice(0, Math.min(keep, Math.max(inside === 0 ? 8 : 3, inside)));
 }
 
 function neighbours(x: number, series: DesignSpec["resistorSeries"], spread: number): number[] {
@@ -159,21 +175,25 @@ function stockCapacitorDesigns(
 ): ComponentValues[] {
   const capNames = Object.keys(base.values).filter(isCap);
   const offSeries = capNames.filter((n) => !isInSeries(base.values[n] as number, spec.capacitorSeries));
-  if (offSeries.length === 0) return [base.values];
+  const out: ComponentValues[] = offSeries.length === 0 ? [base.values] : [];
   // Learn how capacitorRatio maps to the other capacitor: probe ratio 2.
   const probe = tryDesign(t, target, { capacitor: base.c, capacitorRatio: 2 });
-  const out: ComponentValues[] = [];
-  if (probe !== null && offSeries.length === 1) {
-    const name = offSeries[0] as string;
-    const rProbe = (probe[name] as number) / base.c; // 2 or 0.5 (or something else)
+  const others = capNames.filter((n) => Math.abs((base.values[n] as number) / base.c - 1) > 1e-12 || capNames.length === 2);
+  const name =
+    offSeries.length === 1
+      ? (offSeries[0] as string)
+      : capNames.find((n) => probe !== null && Math.abs((probe[n] as number) / base.c - 1) > 1e-9);
+  if (probe !== null && name !== undefined && others.length > 0 && offSeries.length <= 1) {
+    const rProbe = (probe[name] as number) / base.c; // 2 or 0.5 when the ratio sets this capacitor
     const direct = Math.abs(rProbe - 2) < 1e-6;
     const inverse = Math.abs(rProbe - 0.5) < 1e-6;
     if (direct || inverse) {
       const ideal = base.values[name] as number;
       for (const c2 of neighbours(ideal, spec.capacitorSeries, 2)) {
         if (c2 < spec.capacitorRange.min || c2 > spec.capacitorRange.max) continue;
+        if (c2 === ideal && offSeries.length === 0) continue;
         const ratio = direct ? c2 / base.c : base.c / c2;
-        const v = tryDesign(t, target, { capacitor: base.c, capacitorRatio: ratio });
+        const v = tryDesign(t, target, { capacitor: base.c, capacitorRatio: ratio }, spec.capacitorSeries);
         if (v !== null) out.push(v);
       }
     }
@@ -183,7 +203,7 @@ function stockCapacitorDesigns(
   for (const n of offSeries) {
     rounded[n] = snapToSeries(base.values[n] as number, { series: spec.capacitorSeries, mode: "nearest" }).value;
   }
-  if (out.length === 0) out.push(rounded);
+  if (out.length === 0 && offSeries.length > 0) out.push(rounded);
   return out;
 }
 
@@ -271,7 +291,7 @@ function searchResistors(
 
 /** Options of {@link tuneStage}. */
 export interface TuneOptions {
-  /** Number of capacitor values tried as the impedance level. @defaultValue 3 */
+  /** Largest number of capacitor values tried as the impedance level (all that keep the resistors inside the window, at least three). @defaultValue 10 */
   readonly capacitors?: number;
   /** Preferred values tried on each side of every resistor. @defaultValue 2 */
   readonly spread?: number;
@@ -295,7 +315,7 @@ export function tuneStage(
   options: TuneOptions = {},
 ): TunedStage | null {
   const keep = options.keep ?? 6;
-  const bases = capacitorCandidates(t, target, spec, options.capacitors ?? 3);
+  const bases = capacitorCandidates(t, target, spec, options.capacitors ?? 10);
   if (bases.length === 0) {
     // No capacitor in the window works: let the topology pick its own impedance level.
     const v = tryDesign(t, target, {});
@@ -312,6 +332,14 @@ export function tuneStage(
     }
   }
   all.sort((a, b) => a.cost - b.cost);
+  // A coarse result (worse than 0.3 %) gets one wider search around the best few bases.
+  if ((all[0]?.cost ?? Infinity) > 3e-3 && (options.spread ?? 2) < 3) {
+    for (const base of bases.slice(0, 4)) {
+      const designs = Number.isNaN(base.c) ? [base.values] : stockCapacitorDesigns(t, target, spec, base);
+      for (const exact of designs) all.push(...searchResistors(t, target, exact, spec, 3, keep));
+    }
+    all.sort((a, b) => a.cost - b.cost);
+  }
   const best = all[0];
   if (best === undefined || plain === null) return null;
   return { best, alternatives: all.slice(1, keep), plain, exact: first.values };

@@ -44,8 +44,10 @@ export interface MarginLevel {
 
 /** Tightening levels, most generous margin first; the last one uses the spec's limits exactly. */
 export const MARGIN_LEVELS: readonly MarginLevel[] = [
+  { rippleFraction: 0.5, extraAttenuationDb: 3 },
   { rippleFraction: 0.7, extraAttenuationDb: 2 },
   { rippleFraction: 0.85, extraAttenuationDb: 1 },
+  { rippleFraction: 0.93, extraAttenuationDb: 0.5 },
   { rippleFraction: 1, extraAttenuationDb: 0 },
 ];
 
@@ -155,9 +157,9 @@ export function familyMinimumOrder(spec: DesignSpec, family: FamilyName, maxOrde
 
 /**
  * The prototype to build at a given order: the most generous margin level
- * that keeps at least 40 % of the exact prototype's frequency slack (common
- * practice, no source); the exact level when the order is too low to meet the
- * mask at all.
+ * that keeps at least 40 % of the exact prototype's frequency slack, else the
+ * most generous one keeping 10 % (common practice, no source); the exact level
+ * when the order is too low to meet the mask at all.
  *
 
  */
@@ -165,9 +167,10 @@ export function choosePrototype(spec: DesignSpec, family: FamilyName, order: num
   const exact = designPrototype(spec, family, order, EXACT);
   const full = intervalWidth(exact.interval);
   if (!isEquiripple(family) || !(full > 0)) return exact;
-  for (const level of MARGIN_LEVELS.slice(0, -1)) {
-    const p = designPrototype(spec, family, order, level);
-    if (intervalWidth(p.interval) >= 0.4 * full) return p;
+  const levels = MARGIN_LEVELS.slice(0, -1).map((level) => designPrototype(spec, family, order, level));
+  for (const share of [0.4, 0.1]) {
+    const p = levels.find((x) => intervalWidth(x.interval) >= share * full);
+    if (p !== undefined) return p;
   }
   return exact;
 }

@@ -50,6 +50,8 @@ interface Attempt {
   readonly cascade: SectionCascade;
   readonly gridHz: Float64Array;
   readonly plans: readonly StagePlan[];
+  /** Plans before gain correction (the exact design's targets). */
+  readonly plans0: readonly StagePlan[];
   readonly polarityOk: boolean;
   readonly tuned: readonly TunedStage[];
   readonly chosen: readonly ValueSet[];
@@ -81,8 +83,17 @@ function attempt(spec: DesignSpec, proto: PrototypeDesign, position: number, wid
     forced = [...spec.stageTopologies];
   } else forced = infos.map(() => spec.topology);
   const { plans, polarityOk } = planStages(spec, infos, { forced });
-  const tuned = plans.map((p, i) => {
-    const t = tuneStage(p.topology, p.target, spec, wide ? { capacitors: 6, spread: 3, keep: 12 } : {});
+  // Tune stage by stage; a stage with a free gain absorbs the gain error the stages before it left.
+  const tuned: TunedStage[] = [];
+  const tunedPlans: StagePlan[] = [];
+  let carried = 1;
+  plans.forEach((p0, i) => {
+    let p = p0;
+    if (carried !== 1 && p.topology.fixedGain === undefined) {
+      const target = { ...p.target, gain: p.target.gain / carried };
+      if (p.topology.check(target, {}) === null) p = { ...p, target };
+    }
+    const t = tuneStage(p.topology, p.target, spec, wide ? { capacitors: 16, spread: 3, keep: 12 } : {});
     if (t === null) {
       throw new UnrealisableError({
         fn: "designFilter",
@@ -90,12 +101,14 @@ function attempt(spec: DesignSpec, proto: PrototypeDesign, position: number, wid
         message: `topology "${p.topology.id}" gives no usable values for stage ${i + 1} (${p.target.kind}, f0 ${p.target.f0Hz.toPrecision(4)} Hz) with capacitors between ${spec.capacitorRange.min} F and ${spec.capacitorRange.max} F; widen parts.capacitorMinF/capacitorMaxF or name another topology`,
       });
     }
-    return t;
+    carried *= t.best.figures.gain / p.target.gain;
+    tuned.push(t);
+    tunedPlans.push(p);
   });
   const chosen = tuned.map((t) => t.best);
-  const mask = checkMask(spec, built(plans, chosen), spec.opamp);
+  const mask = checkMask(spec, built(tunedPlans, chosen), spec.opamp);
   const gridHz = grid.map((w) => w / TWO_PI);
-  return { proto, position, value, cascade, gridHz, plans, polarityOk, tuned, chosen, mask };
+  return { proto, position, value, cascade, gridHz, plans: tunedPlans, plans0: plans, polarityOk, tuned, chosen, mask };
 }
 
 /** Re-tune against the mask: coordinate descent over each stage's good value sets, maximising the worst margin. */
@@ -123,8 +136,13 @@ function retuneToMask(spec: DesignSpec, a: Attempt): Attempt {
   return { ...a, chosen, mask: best };
 }
 
-function meets(a: Attempt): boolean {
-  return a.mask.marginDb >= 0 && a.polarityOk;
+/** Whether the measured polarity satisfies the spec. */
+function polarityMet(spec: DesignSpec, a: Attempt): boolean {
+  return spec.polarity === "either" || a.mask.polarity === spec.polarity;
+}
+
+function meets(spec: DesignSpec, a: Attempt): boolean {
+  return a.mask.marginDb >= 0 && polarityMet(spec, a);
 }
 
 /** Whether raising the placement parameter helps the passband (true) or the stopband. */
@@ -224,7 +242,7 @@ export function designFilter(spec: unknown): DesignResult {
           : `Order ${order} cannot meet the mask even before rounding; placed the design between the two requirements (${fmt(proto.interval.low / TWO_PI)} Hz and ${fmt(proto.interval.high / TWO_PI)} Hz) so that both fall short by the same frequency ratio.`,
       });
     }
-    if (meets(a)) {
+    if (meets(s, a)) {
       result = a;
       break;
     }
@@ -242,7 +260,7 @@ export function designFilter(spec: unknown): DesignResult {
       code: "re-tuned-to-mask",
       message: `The rounded circuit missed the mask by ${fmt(-before, 3)} dB; re-tuned the preferred values against the mask itself (worst margin now ${fmt(a.mask.marginDb, 3)} dB).`,
     });
-    if (meets(a)) {
+    if (meets(s, a)) {
       result = a;
       break;
     }
@@ -254,7 +272,7 @@ export function designFilter(spec: unknown): DesignResult {
       code: "moved-placement",
       message: `Moved the design to ${Math.round(pos * 100)} % of the slack interval, towards the ${passShort ? "stopband" : "passband"} edge's freedom, because the ${passShort ? "passband" : "stopband"} margin was the short one (worst margin now ${fmt(moved.mask.marginDb, 3)} dB).`,
     });
-    if (meets(moved)) {
+    if (meets(s, moved)) {
       result = moved;
       break;
     }
@@ -269,7 +287,7 @@ export function designFilter(spec: unknown): DesignResult {
           message: `Redesigned the prototype with more ripple/attenuation margin (worst margin now ${fmt(t.mask.marginDb, 3)} dB).`,
         });
         if (t.mask.marginDb > moved.mask.marginDb) moved = t;
-        if (meets(moved)) {
+        if (meets(s, moved)) {
           result = moved;
           break;
         }
@@ -303,10 +321,7 @@ function assemble(
   const names = designators(a.plans, a.chosen);
   const boards = built(a.plans, a.chosen);
   const peaks = partialPeaks(boards, a.gridHz, s.opamp);
-  const exactBoards = built(
-    a.plans,
-    a.tuned.map((t) => ({ values: t.exact })),
-  );
+  const exactBoards = a.plans0.map((p) => ({ topology: p.topology, values: p.topology.design(p.target, {}) }));
   const ideal = checkMask(s, exactBoards, IDEAL);
   const stages: DesignStage[] = a.plans.map((p, i) => {
     const set = a.chosen[i] as ValueSet;
@@ -381,14 +396,15 @@ function assemble(
       });
     }
   });
-  if (!a.polarityOk) {
+  const polarityOk = polarityMet(s, a);
+  if (!polarityOk) {
     warnings.push({
       code: "polarity",
       message: `the requested ${s.polarity} polarity could not be met with the allowed topologies; the filter is ${a.mask.polarity}.`,
     });
   }
   const m = a.mask;
-  const meetsSpec = m.marginDb >= 0 && a.polarityOk;
+  const meetsSpec = m.marginDb >= 0 && polarityOk;
   if (!meetsSpec) {
     warnings.push({
       code: "spec-not-met",
@@ -430,7 +446,7 @@ function assemble(
       gainErrorDb: m.gainErrorDb,
       gainMarginDb: m.gainMarginDb,
       polarity: m.polarity,
-      polarityOk: a.polarityOk,
+      polarityOk,
       marginDb: m.marginDb,
       idealMarginDb: ideal.marginDb,
       curve: responseCurve(s, boards, s.opamp, CURVE_POINTS),

@@ -12,8 +12,11 @@
  * exact design meets the mask:
  *   lowpass  a in [wp / W_p*, ws / W_s*]
  *   highpass a in [W_s* ws, W_p* wp]
- *   bandpass B in [(wp2 - wp1) / W_p*, min_i |ws_i^2 - w0^2| / (ws_i W_s*)]
- *   bandstop B in [max_i W_s* |w0^2 - ws_i^2| / ws_i, W_p* (wp2 - wp1)]
+ *   bandpass B in [max_i |wp_i^2 - w0^2| / (wp_i W_p*), min_i |ws_i^2 - w0^2| / (ws_i W_s*)]
+ *   bandstop B in [max_i W_s* |w0^2 - ws_i^2| / ws_i, min_i W_p* |w0^2 - wp_i^2| / wp_i]
+ * For bandpass and bandstop the centre w0 is free as well; it is chosen to
+ * make the interval widest (golden-section search on log w0), which for an
+ * asymmetric mask can save an order over fixing w0 = sqrt(wp1 wp2).
  * The design is placed at the geometric middle of the interval (or at another
  * log position), so that part rounding, which moves frequencies by a few
  * tenths of a percent, moves the response towards neither edge first
@@ -151,19 +154,75 @@ export function feasibleInterval(spec: DesignSpec, edges: PrototypeEdges): Feasi
       return { parameter: "natural-frequency", low: wp1 / passW, high: ws1 / stopW };
     case "highpass":
       return { parameter: "natural-frequency", low: stopW * ws1, high: passW * wp1 };
-    case "bandpass": {
-      const wp2 = wp[1] as number;
-      const w0 = Math.sqrt(wp1 * wp2);
-      const high = Math.min(...ws.map((x) => Math.abs(x * x - w0 * w0) / (x * stopW)));
-      return { parameter: "bandwidth", low: (wp2 - wp1) / passW, high, centre: w0 };
-    }
-    case "bandstop": {
-      const wp2 = wp[1] as number;
-      const w0 = Math.sqrt(wp1 * wp2);
-      const low = Math.max(...ws.map((x) => (stopW * Math.abs(w0 * w0 - x * x)) / x));
-      return { parameter: "bandwidth", low, high: passW * (wp2 - wp1), centre: w0 };
+    case "bandpass":
+    case "bandstop":
+      return bestCentre(spec.response, wp, ws, passW, stopW);
+  }
+}
+
+/** The bandwidth interval for a given centre (see the module header; both edges of each band constrain). */
+function bandInterval(
+  response: "bandpass" | "bandstop",
+  w0: number,
+  wp: readonly number[],
+  ws: readonly number[],
+  passW: number,
+  stopW: number,
+): { low: number; high: number } {
+  const d = (x: number): number => Math.abs(x * x - w0 * w0) / x;
+  if (response === "bandpass") {
+    return { low: Math.max(...wp.map((x) => d(x) / passW)), high: Math.min(...ws.map((x) => d(x) / stopW)) };
+  }
+  return { low: Math.max(...ws.map((x) => stopW * d(x))), high: Math.min(...wp.map((x) => passW * d(x))) };
+}
+
+/**
+ * Bandpass/bandstop: the centre frequency is free too. The centre that gives
+ * the widest bandwidth interval is found by golden-section search on log w0
+ * over the inner band (between the passband edges for a bandpass, the stopband
+ * edges for a bandstop), starting from the geometric centre of the passband.
+ */
+function bestCentre(
+  response: "bandpass" | "bandstop",
+  wp: readonly number[],
+  ws: readonly number[],
+  passW: number,
+  stopW: number,
+): FeasibleInterval {
+  const inner = response === "bandpass" ? wp : ws;
+  const width = (lw: number): number => {
+    const iv = bandInterval(response, Math.exp(lw), wp, ws, passW, stopW);
+    return Math.log(iv.high / iv.low);
+  };
+  let lo = Math.log(inner[0] as number);
+  let hi = Math.log(inner[1] as number);
+  const phi = (Math.sqrt(5) - 1) / 2;
+  let x1 = hi - phi * (hi - lo);
+  let x2 = lo + phi * (hi - lo);
+  let f1 = width(x1);
+  let f2 = width(x2);
+  for (let k = 0; k < 80 && hi - lo > 1e-12; k++) {
+    if (f1 < f2) {
+      lo = x1;
+      x1 = x2;
+      f1 = f2;
+      x2 = lo + phi * (hi - lo);
+      f2 = width(x2);
+    } else {
+      hi = x2;
+      x2 = x1;
+      f2 = f1;
+      x1 = hi - phi * (hi - lo);
+      f1 = width(x1);
     }
   }
+  const geometric = 0.5 * (Math.log(wp[0] as number) + Math.log(wp[1] as number));
+  const best = f1 > f2 ? x1 : x2;
+  // Keep the passband's geometric centre unless the search finds a clearly wider interval.
+  const lw = width(best) > width(geometric) + 1e-9 ? best : geometric;
+  const w0 = Math.exp(lw);
+  const iv = bandInterval(response, w0, wp, ws, passW, stopW);
+  return { parameter: "bandwidth", low: iv.low, high: iv.high, centre: w0 };
 }
 
 /** Log-width of an interval (negative when infeasible). */

@@ -312,7 +312,15 @@ class Reader {
     return value as T;
   }
 
-  edges(path: string, value: unknown, count: 1 | 2): number[] | undefined {
+  edges(path: string, value: unknown, count: 1 | 2 | undefined): number[] | undefined {
+    if (count === undefined) {
+      // Response unknown: check the edges for what they are, one or two.
+      if (value === undefined) {
+        this.add(path, "expected an edge frequency in Hz (or two for bandpass and bandstop)", value);
+        return undefined;
+      }
+      return this.edges(path, value, Array.isArray(value) ? 2 : 1);
+    }
     if (count === 1) {
       if (Array.isArray(value)) {
         this.add(path, "expected one edge frequency for this response, not a list", value);
@@ -379,7 +387,7 @@ export function validateSpec(spec: unknown): DesignSpec {
     r.add("passband", "expected an object { edgeHz, maxLossDb }", pb);
   } else {
     r.unknownKeys(pb, ["edgeHz", "maxLossDb"], "passband.");
-    if (edgeCount !== undefined) passbandHz = r.edges("passband.edgeHz", pb["edgeHz"], edgeCount);
+    passbandHz = r.edges("passband.edgeHz", pb["edgeHz"], edgeCount);
     maxLossDb = r.number("passband.maxLossDb", pb["maxLossDb"], { min: 0, max: 20, exclusiveMin: true }, "a loss in dB");
   }
   const sb = spec["stopband"];
@@ -387,7 +395,7 @@ export function validateSpec(spec: unknown): DesignSpec {
     r.add("stopband", "expected an object { edgeHz, minAttenuationDb }", sb);
   } else {
     r.unknownKeys(sb, ["edgeHz", "minAttenuationDb"], "stopband.");
-    if (edgeCount !== undefined) stopbandHz = r.edges("stopband.edgeHz", sb["edgeHz"], edgeCount);
+    stopbandHz = r.edges("stopband.edgeHz", sb["edgeHz"], edgeCount);
     minAttenuationDb = r.number(
       "stopband.minAttenuationDb",
       sb["minAttenuationDb"],

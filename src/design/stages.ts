@@ -176,7 +176,15 @@ function baseTarget(info: SectionInfo, gain: number): StageTarget {
 function realisableGain(t: Topology, info: SectionInfo, wish: number): number | null {
   const sign = t.inverting ? -1 : 1;
   const tries = [wish, 1];
-  if (info.q !== undefined) tries.push(3 - 1 / info.q, 2);
+  if (t.fixedGain !== undefined) {
+    try {
+      const { gain: _drop, ...rest } = baseTarget(info, 1);
+      void _drop;
+      tries.unshift(Math.abs(t.fixedGain(rest)));
+    } catch {
+      // no fixed gain for this target
+    }
+  }
   for (const g of tries) {
     if (!(g > 0) || !Number.isFinite(g)) continue;
     try {
@@ -202,7 +210,7 @@ function score(t: Topology, info: SectionInfo, wish: number, got: number): numbe
       s += 0.2 + (q > 1 ? 1.5 * (q - 1) : 0);
       break;
     case "mfb":
-      s += 0.3 + (info.kind === "bandpass" ? (q > 10 ? 0.5 * (q - 10) : 0) : q > 8 ? 0.5 * (q - 8) : 0);
+      s += 0.3 + (info.kind === "bandpass" ? (q > 10 ? 0.5 * (q - 10) : 0) : q > 5 ? 0.5 * (q - 5) : 0);
       break;
     case "first":
       s += t.inverting ? 0.3 : 0;
