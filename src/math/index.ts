@@ -1,6 +1,7 @@
 /**
  * Layer 1: complex arithmetic, real polynomials, polynomial roots and the
- * reverse Bessel polynomials.
+ * reverse Bessel polynomials, small dense complex linear solves, and the real
+ * matrix exponential.
  *
  * @module
  */
@@ -8,3 +9,11 @@ export * from "./complex.ts";
 export { polyAdd, polyDerivative, polyEval, polyEvalReal, polyFromRoots, polyMul } from "./polynomial.ts";
 export { polyRoots, type PolyRootsOptions } from "./roots.ts";
 export { MAX_BESSEL_ORDER, reverseBesselCoefficients, reverseBesselRoots } from "./bessel.ts";
+export { expm, type RealMatrix } from "./expm.ts";
+export {
+  complexLuFactor,
+  complexLuSolve,
+  type ComplexLu,
+  type ComplexMatrix,
+  type ComplexVector,
+} from "./linear.ts";

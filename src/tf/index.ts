@@ -32,3 +32,11 @@ export {
   type BandOptions,
   type CutoffOptions,
 } from "./transforms.ts";
+export {
+  MAX_AUTO_POINTS,
+  impulseResponse,
+  stepFigures,
+  stepResponse,
+  type StepFigures,
+  type StepFiguresOptions,
+} from "./time.ts";
