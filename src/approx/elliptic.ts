@@ -114,7 +114,7 @@ export function elliptic(order: number, options: EllipticOptions): Zpk {
  * @throws {@link InvalidArgumentError} as {@link elliptic}
  * @example
  * ```ts
- * ellipticStopbandEdge(4, { rippleDb: 0.5, attenuationDb: 40 }); //=> 1.7 (approximately)
+ * ellipticStopbandEdge(4, { rippleDb: 0.5, attenuationDb: 40 }); //=> 1.6284199287715448
  * ```
  */
 export function ellipticStopbandEdge(order: number, options: EllipticOptions): number {

@@ -5,7 +5,7 @@
  *
  * @module
  */
-import { cabs, type Complex } from "../math/complex.ts";
+import type { Complex } from "../math/complex.ts";
 import type { Zpk } from "../tf/types.ts";
 
 /** Freeze a zpk and its arrays so callers cannot mutate shared results. */
@@ -56,25 +56,6 @@ export function zpkMagnitude(zpk: Zpk, w: number): number {
   return m;
 }
 
-/** |H(jw)| in dB (20 log10). */
-export function zpkMagnitudeDb(zpk: Zpk, w: number): number {
-  return 20 * Math.log10(zpkMagnitude(zpk, w));
-}
-
-/**
- * Group delay -d(phase)/dw of a zpk at w (rad/s), from the factors:
- * sum over poles of -Re p / |jw - p|^2 minus the same over zeros.
- */
-export function zpkGroupDelay(zpk: Zpk, w: number): number {
-  let t = 0;
-  for (const p of zpk.poles) t += -p.re / (p.re * p.re + (w - p.im) ** 2);
-  for (const z of zpk.zeros) {
-    const d = z.re * z.re + (w - z.im) ** 2;
-    if (d > 0) t -= -z.re / d;
-  }
-  return t;
-}
-
 /**
  * Lowpass-to-lowpass frequency scaling s -> s / w0: zeros and poles times w0,
  * gain times w0^(poles - zeros) so that the response keeps its shape.
@@ -87,9 +68,6 @@ export function scaleZpk(zpk: Zpk, w0: number): Zpk {
     zpk.gain * w0 ** rel,
   );
 }
-
-/** Modulus helper re-exported for local use. */
-export const modulus = cabs;
 
 /**
  * Find a root of a continuous scalar function in a bracket [a, b] where

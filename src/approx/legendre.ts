@@ -244,7 +244,8 @@ function legendrePoles(order: number): Complex[] {
  * @example
  * ```ts
  * legendre(3).poles;
- * //=> [{ re: -0.3451..., im: 0.9008... }, { re: -0.3451..., im: -0.9008... }, { re: -0.6203..., im: 0 }]
+ * //=> [{ re: -0.6203318171301236, im: 0 }, { re: -0.345185619031197, im: 0.9008656355183781 },
+ * //    { re: -0.345185619031197, im: -0.9008656355183781 }]
  * ```
  */
 export function legendre(order: number): Zpk {

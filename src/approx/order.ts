@@ -309,7 +309,9 @@ function naturalFrequency(c: CheckedSpec, passb: number[], wpProto: number): num
  * ```ts
  * minimumOrder({ family: "butterworth", response: "lowpass", passbandW: 1000, stopbandW: 3000,
  *   passbandLossDb: 1, stopbandAttenuationDb: 40 });
- * //=> { order: 5, naturalW: 1147.4..., beyondRange: false, maxOrder: 64, ... }
+ * //=> { family: "butterworth", response: "lowpass", order: 5, naturalW: 1144.6758819614981,
+ * //     beyondRange: false, maxOrder: 64, stopbandRatio: 3, passbandW: 1000,
+ * //     prototype: { family: "butterworth", order: 5 } }
  * ```
  */
 export function minimumOrder(spec: MinimumOrderSpec): MinimumOrderResult {
@@ -384,7 +386,8 @@ export interface BesselDelayResult {
  * @throws {@link UnrealisableError} when more than order 200 would be needed
  * @example
  * ```ts
- * besselOrderForDelay({ maxDelayErrorPercent: 1, upToW: 2 }); //=> { order: 4, ... }
+ * besselOrderForDelay({ maxDelayErrorPercent: 1, upToW: 2 });
+ * //=> { order: 5, delayErrorPercent: 0.0723292052475566, beyondRange: false, maxOrder: 30 }
  * ```
  */
 export function besselOrderForDelay(spec: BesselDelaySpec): BesselDelayResult {

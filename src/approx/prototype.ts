@@ -172,7 +172,7 @@ const GRID_DECADES = 12;
  *   the response never falls that far between 1e-6 and 1e6 rad/s
  * @example
  * ```ts
- * attenuationFrequency(butterworth(4), { attenuationDb: 10 * Math.log10(2) }); //=> 1 (to 1e-15)
+ * attenuationFrequency(butterworth(4), { attenuationDb: 10 * Math.log10(2) }); //=> 1
  * ```
  */
 export function attenuationFrequency(zpk: Zpk, options: AttenuationPointOptions): number {
@@ -219,8 +219,8 @@ function attenuationFrequencyImpl(fn: string, zpk: Zpk, options: AttenuationPoin
  * @throws {@link InvalidArgumentError} as {@link attenuationFrequency}
  * @example
  * ```ts
- * const h = rescaleToAttenuation(chebyshev1(4, { rippleDb: 1 }), { attenuationDb: 3.0103 });
- * // |H(j1)| is now -3.0103 dB
+ * const h = rescaleToAttenuation(chebyshev1(4, { rippleDb: 1 }), { attenuationDb: 10 * Math.log10(2) });
+ * attenuationFrequency(h, { attenuationDb: 10 * Math.log10(2) }); //=> 1
  * ```
  */
 export function rescaleToAttenuation(zpk: Zpk, options: AttenuationPointOptions): Zpk {

@@ -73,9 +73,10 @@ describe("minimumOrder", () => {
         fc.double({ min: 1.3, max: 4, noNaN: true }),
         fc.double({ min: 0.1, max: 3, noNaN: true }),
         fc.double({ min: 15, max: 60, noNaN: true }),
-        (family, response, w, ratio, gp, gs) => {
+        fc.constantFrom("phase", "delay", "magnitude" as const),
+        (family, response, w, ratio, gp, gs, normalization) => {
           let spec: MinimumOrderSpec;
-          const base = { family, passbandLossDb: gp, stopbandAttenuationDb: gs };
+          const base = { family, passbandLossDb: gp, stopbandAttenuationDb: gs, ...(family === "bessel" ? { normalization } : {}) };
           if (response === "lowpass") spec = { ...base, response, passbandW: w, stopbandW: w * ratio };
           else if (response === "highpass") spec = { ...base, response, passbandW: w, stopbandW: w / ratio };
           else if (response === "bandpass") spec = { ...base, response, passbandW: [w, 1.5 * w], stopbandW: [w / ratio, 1.5 * w * ratio] };
