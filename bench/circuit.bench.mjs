@@ -4,7 +4,7 @@
 // The python reference solves the same G + j w C systems with numpy, batched:
 // np.linalg.solve over a (1000, n, n) complex stack (LAPACK zgesv per matrix).
 import { acAnalysis, assembleMna } from "../dist/circuit/index.js";
-import { sallenKeyLowpassUnity } from "../dist/topologies/index.js";
+import { sallenKeyLowpassUnity, towThomasLowpassNotch } from "../dist/topologies/index.js";
 
 const opamp = { kind: "single-pole", a0: 2e5, gbwHz: 10e6 };
 const qs = [0.5097955791041592, 0.6013448869350453, 0.8999762231364156, 2.5629154477415055];
@@ -29,7 +29,20 @@ const sys = assembleMna(circuit);
 const outIndex = sys.nodeIndex.get("out");
 const srcRow = sys.sourceRow.get("Vin");
 
+const stageValues = sallenKeyLowpassUnity.design({ order: 2, kind: "lowpass", f0Hz: 10000, q: 2.5629154477415055, gain: 1 }, {});
+const notchTarget = { order: 2, kind: "lowpass-notch", f0Hz: 10000, q: 8, fzHz: 14000, gain: -1 };
+
 export const benchmarks = [
+  {
+    name: "Topology.response (closed form, single-pole op-amp): one Sallen-Key stage, 1000 frequencies",
+    fn: () => sallenKeyLowpassUnity.response(stageValues, freqHz, opamp),
+    note: "no reference",
+  },
+  {
+    name: "Topology.gbwDemandHz: Tow-Thomas lowpass-notch (pole search by Muller on det(G + sC))",
+    fn: () => towThomasLowpassNotch.gbwDemandHz(notchTarget),
+    note: "no reference",
+  },
   {
     name: `acAnalysis: 4-stage Sallen-Key cascade (${sys.n} unknowns), 1000 frequencies`,
     fn: () => acAnalysis(circuit, { source: "Vin", outputs: ["out"], freqHz }),
