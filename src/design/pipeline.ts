@@ -270,27 +270,38 @@ export function designFilter(spec: unknown): DesignResult {
     let moved = retuneToMask(s, attempt(s, proto, pos, true));
     actions.push({
       code: "moved-placement",
-      message: `Moved the design to ${Math.round(pos * 100)} % of the slack interval, towards the ${passShort ? "stopband" : "passband"} edge's freedom, because the ${passShort ? "passband" : "stopband"} margin was the short one (worst margin now ${fmt(moved.mask.marginDb, 3)} dB).`,
+      message: `Moved the design to ${Math.round(pos * 100)} % of the slack interval, shifting the transition band towards the ${passShort ? "stopband" : "passband"}, because the ${passShort ? "passband" : "stopband"} margin was the short one (worst margin now ${fmt(moved.mask.marginDb, 3)} dB).`,
     });
     if (meets(s, moved)) {
       result = moved;
       break;
     }
-    // 3. A prototype with more ripple/attenuation margin, when the equiripple family allows it.
-    const tight = MARGIN_LEVELS[0];
-    if (tight !== undefined && (family === "chebyshev1" || family === "chebyshev2" || family === "elliptic")) {
-      const p2 = designPrototype(s, family, order, tight);
-      if (intervalWidth(p2.interval) > 0 && (p2.rippleDb !== proto.rippleDb || p2.attenuationDb !== proto.attenuationDb)) {
+    // 3. A prototype with more ripple/attenuation margin, when the equiripple family allows it:
+    //    each stricter level that still leaves frequency slack, least strict first.
+    if (family === "chebyshev1" || family === "chebyshev2" || family === "elliptic") {
+      const current = proto.rippleDb !== undefined ? proto.rippleDb / s.maxLossDb : 1;
+      const extra = proto.attenuationDb !== undefined ? proto.attenuationDb - s.minAttenuationDb : 0;
+      const stricter = MARGIN_LEVELS.filter(
+        (l) => l.rippleFraction < current - 1e-12 || l.extraAttenuationDb > extra + 1e-12,
+      ).reverse();
+      let done = false;
+      for (const level of stricter) {
+        const p2 = designPrototype(s, family, order, level);
+        if (!(intervalWidth(p2.interval) > 0)) continue;
         const t = retuneToMask(s, attempt(s, p2, 0.5, true));
         actions.push({
           code: "tightened-prototype",
-          message: `Redesigned the prototype with more ripple/attenuation margin (worst margin now ${fmt(t.mask.marginDb, 3)} dB).`,
+          message: `Redesigned the prototype with more dB margin (${p2.rippleDb === undefined ? "" : `ripple ${fmt(p2.rippleDb, 3)} dB`}${p2.rippleDb !== undefined && p2.attenuationDb !== undefined ? ", " : ""}${p2.attenuationDb === undefined ? "" : `attenuation ${fmt(p2.attenuationDb, 4)} dB`}); worst margin now ${fmt(t.mask.marginDb, 3)} dB.`,
         });
         if (t.mask.marginDb > moved.mask.marginDb) moved = t;
         if (meets(s, moved)) {
-          result = moved;
+          done = true;
           break;
         }
+      }
+      if (done) {
+        result = moved;
+        break;
       }
     }
     result = moved.mask.marginDb > a.mask.marginDb ? moved : a;
