@@ -63,45 +63,40 @@ function polesOf(system: Zpk | SectionCascade): readonly Complex[] {
 export function zpkResponseUnchecked(system: Zpk, w: Float64Array): ComplexResponse {
   const nz = system.zeros.length;
   const np = system.poles.length;
-  const zr = Float64Array.from(system.zeros, (z) => z.re);
-  const zi = Float64Array.from(system.zeros, (z) => z.im);
-  const pr = Float64Array.from(system.poles, (p) => p.re);
-  const pi = Float64Array.from(system.poles, (p) => p.im);
+  const n = w.length;
+  const outRe = new Float64Array(n).fill(system.gain);
+  const outIm = new Float64Array(n);
+  // Factor by factor over the whole grid (tight monomorphic loops); zeros and
+  // poles alternate so that intermediate values stay near the final magnitude.
   const m = Math.max(nz, np);
-  const outRe = new Float64Array(w.length);
-  const outIm = new Float64Array(w.length);
-  for (let k = 0; k < w.length; k++) {
-    const wk = w[k] as number;
-    let re = system.gain;
-    let im = 0;
-    for (let i = 0; i < m; i++) {
-      if (i < nz) {
-        const ar = -(zr[i] as number);
-        const ai = wk - (zi[i] as number);
-        const t = re * ar - im * ai;
-        im = re * ai + im * ar;
-        re = t;
-      }
-      if (i < np) {
-        const br = -(pr[i] as number);
-        const bi = wk - (pi[i] as number);
-        if (Math.abs(br) >= Math.abs(bi)) {
-          const r = bi / br;
-          const d = br + bi * r;
-          const t = (re + im * r) / d;
-          im = (im - re * r) / d;
-          re = t;
-        } else {
-          const r = br / bi;
-          const d = br * r + bi;
-          const t = (re * r + im) / d;
-          im = (im * r - re) / d;
-          re = t;
-        }
+  for (let i = 0; i < m; i++) {
+    const z = i < nz ? system.zeros[i] : undefined;
+    if (z !== undefined) {
+      const ar = -z.re;
+      const zi = z.im;
+      for (let k = 0; k < n; k++) {
+        const ai = (w[k] as number) - zi;
+        const re = outRe[k] as number;
+        const im = outIm[k] as number;
+        outRe[k] = re * ar - im * ai;
+        outIm[k] = re * ai + im * ar;
       }
     }
-    outRe[k] = re;
-    outIm[k] = im;
+    const p = i < np ? system.poles[i] : undefined;
+    if (p !== undefined) {
+      const br = -p.re;
+      const pi = p.im;
+      const br2 = br * br;
+      for (let k = 0; k < n; k++) {
+        // divide by (br + j bi): multiply by the conjugate, scale by 1/|.|^2
+        const bi = (w[k] as number) - pi;
+        const inv = 1 / (br2 + bi * bi);
+        const re = outRe[k] as number;
+        const im = outIm[k] as number;
+        outRe[k] = (re * br + im * bi) * inv;
+        outIm[k] = (im * br - re * bi) * inv;
+      }
+    }
   }
   return { re: outRe, im: outIm };
 }
