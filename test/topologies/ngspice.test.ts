@@ -6,6 +6,7 @@ import { circuitToSpice } from "../../src/circuit/spice.ts";
 import type { Circuit, Element, OpAmpModel } from "../../src/circuit/types.ts";
 import { requireNgspice, runAc } from "../helpers/ngspice.ts";
 import { realisableArb } from "./arbitraries.ts";
+import { targetResponse } from "./target-response.ts";
 
 const haveNgspice = requireNgspice();
 const DESIGNS_PER_TOPOLOGY = 4;
@@ -25,7 +26,7 @@ const modelArb: fc.Arbitrary<(f0: number) => OpAmpModel> = fc.oneof(
     .map(({ a0, gbw, rout }) => (f0: number) => ({ kind: "single-pole-rout", a0: 10 ** a0, gbwHz: f0 * 10 ** gbw, routOhm: rout }) as OpAmpModel),
 );
 
-const worst = { db: 0, deg: 0, designs: 0 };
+const worst = { db: 0, deg: 0, designs: 0, idealDb: 0, idealDeg: 0, idealDesigns: 0 };
 
 describe.skipIf(!haveNgspice)("Topology.elements netlists in ngspice", () => {
   topologies.forEach((topo, k) => {
@@ -33,12 +34,14 @@ describe.skipIf(!haveNgspice)("Topology.elements netlists in ngspice", () => {
       const samples = fc.sample(fc.tuple(realisableArb(topo), modelArb), { numRuns: DESIGNS_PER_TOPOLOGY, seed: 4242 + k });
       const elements: Element[] = [{ kind: "V", name: "Vin", a: "in", b: "0", ac: 1 }];
       const outs: string[] = [];
+      const idealTargets = new Map<string, (typeof samples)[number][0]["target"]>();
       let fLo = Infinity;
       let fHi = 0;
       samples.forEach(([{ target, choices }, model], i) => {
         const v = topo.design(target, choices);
         const out = `o${i}`;
         outs.push(out);
+        if (model(target.f0Hz).kind === "ideal") idealTargets.set(out, target);
         elements.push(
           ...topo.elements(v, {
             input: "in",
@@ -77,12 +80,31 @@ describe.skipIf(!haveNgspice)("Topology.elements netlists in ngspice", () => {
         }
         expect(compared).toBeGreaterThan(10);
         worst.designs++;
+        // With the ideal model, the simulated stage must be the target section itself.
+        const t = idealTargets.get(o);
+        if (t !== undefined) {
+          for (let i = 0; i < sim.freqHz.length; i++) {
+            const e = targetResponse(t, sim.freqHz[i]!);
+            const me = Math.hypot(e.re, e.im);
+            if (20 * Math.log10(me) < FLOOR_DB) continue;
+            const db = Math.abs(20 * Math.log10(Math.hypot(b.re[i]!, b.im[i]!) / me));
+            const deg = Math.abs((Math.atan2(b.im[i]! * e.re - b.re[i]! * e.im, b.re[i]! * e.re + b.im[i]! * e.im) * 180) / Math.PI);
+            worst.idealDb = Math.max(worst.idealDb, db);
+            worst.idealDeg = Math.max(worst.idealDeg, deg);
+            expect(db, `${o} vs target at ${sim.freqHz[i]} Hz`).toBeLessThan(0.01);
+            expect(deg, `${o} vs target at ${sim.freqHz[i]} Hz`).toBeLessThan(0.1);
+          }
+          worst.idealDesigns++;
+        }
       }
     });
   });
 
   it("compared at least 50 designs and reports the worst difference", () => {
     console.log(`ngspice vs MNA over ${worst.designs} designs: worst ${worst.db.toExponential(2)} dB, ${worst.deg.toExponential(2)} degree`);
+    console.log(
+      `ngspice (ideal op-amps) vs target sections over ${worst.idealDesigns} designs: worst ${worst.idealDb.toExponential(2)} dB, ${worst.idealDeg.toExponential(2)} degree`,
+    );
     expect(worst.designs).toBeGreaterThanOrEqual(50);
   });
 });
