@@ -1,0 +1,96 @@
+import { describe, expect, it } from "vitest";
+import { designFilter, designResponse, type DesignResult } from "../../src/design/index.ts";
+import { monteCarlo, opampRequirements } from "../../src/analysis/index.ts";
+import { toSpiceNetlist } from "../../src/report/index.ts";
+import { InvalidArgumentError } from "../../src/errors.ts";
+import { requireNgspice, runAc } from "../helpers/ngspice.ts";
+
+const haveSpice = requireNgspice();
+
+const design = designFilter({
+  response: "lowpass",
+  passband: { edgeHz: 1000, maxLossDb: 0.5 },
+  stopband: { edgeHz: 3000, minAttenuationDb: 45 },
+  family: "chebyshev1",
+  gain: { db: 6 },
+});
+
+/** The same design with some part values replaced (by designator). */
+function withValues(r: DesignResult, values: Readonly<Record<string, number>>): DesignResult {
+  return {
+    ...r,
+    stages: r.stages.map((s) => ({
+      ...s,
+      components: Object.fromEntries(Object.entries(s.components).map(([k, v]) => [k, values[k] ?? v])),
+    })),
+  };
+}
+
+describe("opampRequirements", () => {
+  it("gives each stage's peak gain as ngspice sees it at the stage outputs", () => {
+    const req = opampRequirements(design, { inputPeakV: 2 });
+    expect(req.length).toBe(design.stages.length);
+    for (const q of req) expect(q.peakOutputV).toBeCloseTo(2 * q.peakGain, 12);
+    if (!haveSpice) return;
+    const nodes = design.stages.map((_, i) => (i === design.stages.length - 1 ? "out" : `n${i + 1}`));
+    const sim = runAc(toSpiceNetlist(design, { pointsPerDecade: 400 }), nodes);
+    nodes.forEach((node, i) => {
+      const v = sim.vectors[node] as { re: Float64Array; im: Float64Array };
+      let peak = 0;
+      let slew = 0;
+      for (let k = 0; k < sim.freqHz.length; k++) {
+        const m = Math.hypot(v.re[k] as number, v.im[k] as number);
+        peak = Math.max(peak, m);
+        slew = Math.max(slew, 2 * Math.PI * (sim.freqHz[k] as number) * m);
+      }
+      const q = req[i] as (typeof req)[number];
+      expect(Math.abs(q.peakGain / peak - 1), `stage ${i + 1} peak`).toBeLessThan(2e-3);
+      expect(Math.abs(q.slewRateVPerS / (2 * slew) - 1), `stage ${i + 1} slew`).toBeLessThan(2e-3);
+    });
+  });
+
+  it("rejects a bad amplitude", () => {
+    expect(() => opampRequirements(design, { inputPeakV: -1 })).toThrow(InvalidArgumentError);
+  });
+});
+
+describe("monteCarlo", () => {
+  it("with zero tolerance every board is the nominal one", () => {
+    const mc = monteCarlo(design, { runs: 5, resistorTolerance: 0, capacitorTolerance: 0 });
+    expect(mc.yield).toBe(1);
+    expect(mc.marginDb.min).toBeCloseTo(design.verification.marginDb, 9);
+    expect(mc.marginDb.max).toBeCloseTo(design.verification.marginDb, 9);
+  });
+
+  it("is repeatable for a seed and spreads the margins with tolerance", () => {
+    const a = monteCarlo(design, { runs: 40, seed: 7, capacitorTolerance: 0.05 });
+    const b = monteCarlo(design, { runs: 40, seed: 7, capacitorTolerance: 0.05 });
+    expect(a).toEqual(b);
+    expect(a.tolerances).toEqual({ resistor: 0.01, capacitor: 0.05 });
+    expect(a.marginDb.min).toBeLessThan(a.marginDb.max);
+    expect(a.yield).toBeGreaterThanOrEqual(0);
+    expect(a.yield).toBeLessThanOrEqual(1);
+    expect(a.marginDb.min).toBeLessThanOrEqual(design.verification.marginDb + 1e-9);
+  });
+
+  it("its worst board, simulated by ngspice, has the response our analysis used", () => {
+    const mc = monteCarlo(design, { runs: 30, seed: 3, capacitorTolerance: 0.05 });
+    const worst = withValues(design, mc.worstBoard);
+    expect(Object.keys(mc.worstBoard).length).toBe(design.stages.reduce((k, s) => k + Object.keys(s.components).length, 0));
+    if (!haveSpice) return;
+    const sim = runAc(toSpiceNetlist(worst, { pointsPerDecade: 40 }), ["out"]);
+    const ours = designResponse(worst, sim.freqHz);
+    const out = sim.vectors["out"] as { re: Float64Array; im: Float64Array };
+    for (let k = 0; k < sim.freqHz.length; k++) {
+      const a = 20 * Math.log10(Math.hypot(ours.re[k] as number, ours.im[k] as number));
+      if (!(a > -80)) continue;
+      const b = 20 * Math.log10(Math.hypot(out.re[k] as number, out.im[k] as number));
+      expect(Math.abs(a - b)).toBeLessThan(0.01);
+    }
+  });
+
+  it("rejects bad options", () => {
+    expect(() => monteCarlo(design, { runs: 0 })).toThrow(InvalidArgumentError);
+    expect(() => monteCarlo(design, { capacitorTolerance: 2 })).toThrow(InvalidArgumentError);
+  });
+});
