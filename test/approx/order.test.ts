@@ -126,6 +126,14 @@ describe("minimumOrder", () => {
     }
   });
 
+  it("accepts a one-element array for a single edge and returns frozen results", () => {
+    const a = minimumOrder({ family: "chebyshev2", response: "highpass", passbandW: [500], stopbandW: [200], passbandLossDb: 1, stopbandAttenuationDb: 40 });
+    const b = minimumOrder({ family: "chebyshev2", response: "highpass", passbandW: 500, stopbandW: 200, passbandLossDb: 1, stopbandAttenuationDb: 40 });
+    expect(a).toEqual(b);
+    expect(Object.isFrozen(a)).toBe(true);
+    expect(a.prototype).toEqual({ family: "chebyshev2", order: b.order, attenuationDb: 40 });
+  });
+
   it("returns orders past the family range flagged beyondRange", () => {
     const r = minimumOrder({ family: "elliptic", response: "lowpass", passbandW: 1, stopbandW: 1.0001, passbandLossDb: 0.01, stopbandAttenuationDb: 120 });
     expect(r.order).toBeGreaterThan(24);
