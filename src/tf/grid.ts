@@ -20,7 +20,7 @@ export const MAX_GRID_POINTS = 10_000_000;
  * @throws {@link InvalidArgumentError} when an end point is not positive and finite or `count` is not an integer in range
  * @example
  * ```ts
- * logGrid(1, 100, 3); //=> Float64Array [1, 10, 100]
+ * logGrid(1, 100, 3); //=> Float64Array [1, 10.000000000000002, 100]
  * ```
  */
 export function logGrid(start: number, stop: number, count: number): Float64Array {

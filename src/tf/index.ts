@@ -6,7 +6,7 @@
  * @module
  */
 export type * from "./types.ts";
-export { evalZpk, zpk, zpkToPolynomials } from "./zpk.ts";
+export { evalZpk, zpk, zpkToPolynomials, type ZpkPolynomials } from "./zpk.ts";
 export {
   evalCascade,
   evalSection,

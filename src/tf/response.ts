@@ -260,7 +260,7 @@ export function zpkPhaseUnchecked(system: Zpk, w: Float64Array): Float64Array {
  * @example
  * ```ts
  * // three poles at -1: phase -3 atan(w)
- * phase(zpk([], Array(3).fill({ re: -1, im: 0 }), 1), Float64Array.of(1, 1e6)); //=> Float64Array [-2.356194490192345, -4.712385...]
+ * phase(zpk([], Array(3).fill({ re: -1, im: 0 }), 1), Float64Array.of(1, 1e6)); //=> Float64Array [-2.356194490192345, -4.71238598038469]
  * ```
  */
 export function phase(system: Zpk | SectionCascade, w: Float64Array): Float64Array {

@@ -298,7 +298,7 @@ export function toSectionsUnchecked(system: Zpk, ordering: SectionOrdering): Sec
  * const c = toSections(zpk([], [{ re: -Math.SQRT1_2, im: Math.SQRT1_2 }, { re: -Math.SQRT1_2, im: -Math.SQRT1_2 }], 2));
  * c.sections[0].kind; //=> "lowpass"
  * c.sections[0].q;    //=> 0.7071067811865475
- * c.gain;             //=> 2
+ * c.gain;             //=> 1.9999999999999996 (2 up to rounding of w0^2)
  * ```
  */
 export function toSections(system: Zpk, options?: ToSectionsOptions): SectionCascade {

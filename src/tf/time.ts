@@ -235,7 +235,7 @@ function prepare(fn: string, system: Zpk | SectionCascade): { ss: StateSpace; dc
  * @example
  * ```ts
  * // 1/(s + 1): y = 1 - exp(-t)
- * stepResponse(zpk([], [{ re: -1, im: 0 }], 1), Float64Array.of(0, 1)); //=> Float64Array [0, 0.6321205588285577]
+ * stepResponse(zpk([], [{ re: -1, im: 0 }], 1), Float64Array.of(0, 1)); //=> Float64Array [0, 0.6321205588285579]
  * ```
  */
 export function stepResponse(system: Zpk | SectionCascade, t: Float64Array): Float64Array {
@@ -255,7 +255,7 @@ export function stepResponse(system: Zpk | SectionCascade, t: Float64Array): Flo
  * @example
  * ```ts
  * // 2/(s + 2): h = 2 exp(-2t)
- * impulseResponse(zpk([], [{ re: -2, im: 0 }], 2), Float64Array.of(0, 0.5)); //=> Float64Array [2, 0.7357588823428847]
+ * impulseResponse(zpk([], [{ re: -2, im: 0 }], 2), Float64Array.of(0, 0.5)); //=> Float64Array [2, 0.7357588823428852]
  * ```
  */
 export function impulseResponse(system: Zpk | SectionCascade, t: Float64Array): Float64Array {
@@ -373,8 +373,8 @@ function autoGrid(system: Zpk | SectionCascade, stretch: number): Float64Array {
  * ```ts
  * // second-order lowpass, w0 = 1 rad/s, Q = 1/sqrt(2) (Butterworth)
  * const f = stepFigures(zpk([], [{ re: -Math.SQRT1_2, im: Math.SQRT1_2 }, { re: -Math.SQRT1_2, im: -Math.SQRT1_2 }], 1));
- * f.overshootPercent; //=> 4.321391826377226
- * f.peakTimeS;        //=> 4.442882938158366  (pi * sqrt(2))
+ * f.overshootPercent; //=> 4.321391826377141  (100 exp(-pi) = 4.3213918263772)
+ * f.peakTimeS;        //=> 4.442882938158371  (pi sqrt(2) = 4.4428829381584)
  * ```
  */
 export function stepFigures(system: Zpk | SectionCascade, options?: StepFiguresOptions): StepFigures {

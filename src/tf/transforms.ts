@@ -224,7 +224,7 @@ export function lowpassToHighpass(system: Zpk, options: CutoffOptions): Zpk {
  * @example
  * ```ts
  * lowpassToBandpass(zpk([], [{ re: -1, im: 0 }], 1), { w0: 1, bandwidth: 1 });
- * //=> { zeros: [{ re: 0, im: 0 }], poles: [{ re: -0.5, im: 0.866... }, { re: -0.5, im: -0.866... }], gain: 1 }
+ * //=> { zeros: [{ re: 0, im: 0 }], poles: [{ re: -0.5, im: 0.8660254037844386 }, { re: -0.5, im: -0.8660254037844386 }], gain: 1 }
  * ```
  */
 export function lowpassToBandpass(system: Zpk, options: BandOptions): Zpk {

@@ -99,6 +99,14 @@ export function evalZpk(system: Zpk, s: Complex): Complex {
   return evalZpkUnchecked(system, s.re, s.im);
 }
 
+/** A transfer function as numerator and denominator polynomials in descending powers of s. */
+export interface ZpkPolynomials {
+  /** Numerator coefficients, descending powers, including the gain. */
+  readonly num: number[];
+  /** Denominator coefficients, descending powers, monic. */
+  readonly den: number[];
+}
+
 /**
  * Expand a zpk into numerator and denominator polynomials in descending powers
  * of s: `H(s) = num(s) / den(s)` with `den` monic. Useful for display and for
@@ -114,7 +122,7 @@ export function evalZpk(system: Zpk, s: Complex): Complex {
  * //=> { num: [3, 0], den: [1, 2, 2] }
  * ```
  */
-export function zpkToPolynomials(system: Zpk): { num: number[]; den: number[] } {
+export function zpkToPolynomials(system: Zpk): ZpkPolynomials {
   requireZpk("zpkToPolynomials", "system", system);
   const num = polyFromRoots(system.zeros).map((c) => c * system.gain);
   const den = polyFromRoots(system.poles);
