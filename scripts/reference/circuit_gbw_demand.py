@@ -2,7 +2,7 @@
 derived by hand and rooted with numpy.roots (independent of the nodal
 analysis and Muller iteration used in src/topologies/common.ts).
 
-Op-amp: single pole, A(s) = a0 / (1 + s/wp), wp = 2 pi GBW / a0, a0 = 1e8.
+Op-amp: single pole, A(s) = a0 / (1 + s/wp), wp = 2 pi GBW / a0, a0 = 1e12 (as in src/topologies/common.ts).
 Criterion: smallest GBW with the dominant pole's f0 and Q within 1 % of the
 ideal design (second order); for first order, |H(j w0)/H_ideal(j w0) - 1| no
 larger than a 1 % shift of f0 would cause.
@@ -20,7 +20,7 @@ import os
 
 import numpy as np
 
-A0 = 1e8
+A0 = 1e12
 OUT = os.path.join(os.path.dirname(__file__), "..", "..", "test", "fixtures", "circuit-gbw-demand.json")
 
 

@@ -4,7 +4,7 @@
  * analysis) and the numerical GBW demand.
  *
  * GBW demand method: the stage is designed for the target, its op-amps are
- * replaced by the single-pole model (a0 = 1e8, so the gain-bandwidth product
+ * replaced by the single-pole model (a0 = 1e12, so the gain-bandwidth product
  * alone matters), and the dominant natural frequency is found as a zero of
  * the nodal determinant `det(G + s C)` by Muller's method (D. E. Muller,
  * "A method for solving algebraic equations using an automatic computer",
@@ -52,7 +52,7 @@ export const FIRST_ORDER_DEVIATION: number = (() => {
 })();
 
 /** DC gain of the op-amp model used to compute the GBW demand. */
-export const GBW_DEMAND_A0 = 1e8;
+export const GBW_DEMAND_A0 = 1e12;
 
 /** A part of a stage in local terms: nodes `in`, `out`, `0` are external; any other node is internal. */
 export type PartSpec =
@@ -280,13 +280,17 @@ export function openLoopGain(m: { readonly a0: number; readonly gbwHz: number },
   return cdiv({ re: 1, im: 0 }, { re: 1 / m.a0 + s.re * tau, im: s.im * tau });
 }
 
-/** Ideal pole of a target (upper half-plane for second order). */
-function idealPole(order: 1 | 2, f0Hz: number, q: number): Complex {
+/** Ideal poles of a target: one real pole (first order), the upper-half-plane pole of a complex pair, or two real poles (Q <= 1/2). */
+function idealPoles(order: 1 | 2, f0Hz: number, q: number): Complex[] {
   const w0 = TWO_PI * f0Hz;
-  if (order === 1) return { re: -w0, im: 0 };
-  const re = -w0 / (2 * q);
-  const im = w0 * Math.sqrt(Math.max(0, 1 - 1 / (4 * q * q)));
-  return { re, im: q <= 0.5 ? 0 : im };
+  if (order === 1) return [{ re: -w0, im: 0 }];
+  const d = 1 - 1 / (4 * q * q);
+  if (d > 0) return [{ re: -w0 / (2 * q), im: w0 * Math.sqrt(d) }];
+  const r = w0 * Math.sqrt(-d);
+  return [
+    { re: -w0 / (2 * q) + r, im: 0 },
+    { re: -w0 / (2 * q) - r, im: 0 },
+  ];
 }
 
 /**
@@ -356,7 +360,7 @@ function csqrtLocal(z: Complex): Complex {
  * @throws never
  * @example
  * ```ts
- * stagePole(spec, values, { kind: "single-pole", a0: 1e8, gbwHz: 1e6 }, { f0Hz: 1e3, q: 0.707 });
+ * stagePole(spec, values, { kind: "single-pole", a0: 1e12, gbwHz: 1e6 }, { f0Hz: 1e3, q: 0.707 });
  * ```
  */
 export function stagePole(
@@ -397,11 +401,22 @@ export function circuitPole(
     const d = mnaDeterminant(sys, s);
     return { re: d.re / refMag, im: d.im / refMag };
   };
-  const p = mullerRoot(f, idealPole(order, start.f0Hz, start.q ?? 0.5), w0);
+  const ideal = idealPoles(order, start.f0Hz, start.q ?? 0.5);
+  const p = mullerRoot(f, ideal[0] as Complex, w0);
   if (p === null) return null;
   const mag = Math.hypot(p.re, p.im);
   if (order === 1) return { f0Hz: mag / TWO_PI };
-  return { f0Hz: mag / TWO_PI, q: mag / (-2 * p.re) };
+  if (ideal.length === 1 && Math.abs(p.im) > 1e-9 * mag) return { f0Hz: mag / TWO_PI, q: mag / (-2 * p.re) };
+  // Two real poles (or a pair that became real): find the second one with the first deflated out.
+  const deflated = (s: Complex): Complex => cdiv(f(s), csub(s, p));
+  const second = ideal[1] ?? { re: p.re * 1.01, im: 0 };
+  const p2 = mullerRoot(deflated, second, w0);
+  if (p2 === null) return null;
+  const prod = cmul(p, p2).re;
+  const sum = -(p.re + p2.re);
+  if (!(prod > 0) || !(sum !== 0)) return null;
+  const w = Math.sqrt(prod);
+  return { f0Hz: w / TWO_PI, q: w / sum };
 }
 
 /**

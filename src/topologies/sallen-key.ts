@@ -23,12 +23,15 @@
  * Design choices:
  * - Lowpass, unity and general gain: `capacitorRatio` m = C1/C2. With the
  *   capacitors fixed, R1 and R2 are the roots of a quadratic that has real
- *   roots only when m >= 4 Q^2 / (1 + 4 Q^2 (K - 1)) (= 4 Q^2 at unity gain).
- *   The default m is that minimum, which makes R1 = R2 (the equal-resistor
- *   form). R1 is the smaller root otherwise. Alternatively `resistorRatio`
- *   n = R2/R1 fixes the resistors instead and the capacitors follow; every Q
- *   is then realisable (at unity gain C1/C2 = Q^2 (1 + n)^2 / n). Giving
- *   both ratios is refused.
+ *   roots only when m >= 4 Q^2 / (1 + 4 Q^2 (K - 1)) (= 4 Q^2 at unity gain);
+ *   R1 is the smaller root (at the minimum ratio, R2 = (1 + m (1 - K)) R1).
+ *   Alternatively `resistorRatio` n = R2/R1 fixes the resistors instead and
+ *   the capacitors follow; every Q is then realisable (at unity gain
+ *   C1/C2 = Q^2 (1 + n)^2 / n). Giving both ratios is refused. Defaults: the
+ *   unity-gain form takes the minimum capacitor ratio 4 Q^2, which gives equal
+ *   resistors; the general-gain form takes equal resistors (n = 1), which is
+ *   realisable for every Q and avoids the extreme resistor spread of the
+ *   minimum ratio at high gain.
  * - Highpass, unity and general gain: `capacitorRatio` r = C1/C2, default 1
  *   (equal capacitors); any Q is realisable; at unity gain with equal
  *   capacitors R2/R1 = 4 Q^2.
@@ -158,12 +161,12 @@ function lowRatio(t: StageTarget, c: StageChoices): number {
   return c.capacitorRatio ?? sallenKeyLowpassMinRatio(q(t), t.gain);
 }
 
-function lowSolve(t: StageTarget, c: StageChoices): Record<string, number> {
+function lowSolve(t: StageTarget, c: StageChoices, defaultEqualResistors: boolean): Record<string, number> {
   const w0 = w0Of(t);
   const k = t.gain;
-  if (c.resistorRatio !== undefined && c.capacitorRatio === undefined) {
+  if (c.capacitorRatio === undefined && (c.resistorRatio !== undefined || defaultEqualResistors)) {
     // R2 = n R1, C2 = 1: (1 + n) R1^2 - R1/(w0 Q) + (1 - K)/(w0^2 n) = 0, one positive root for K >= 1
-    const n = c.resistorRatio;
+    const n = c.resistorRatio ?? 1;
     const b = 1 / (w0 * q(t));
     const cc = (1 - k) / (w0 * w0 * n);
     const r1 = (b + Math.sqrt(b * b - 4 * (1 + n) * cc)) / (2 * (1 + n));
@@ -254,7 +257,7 @@ export const sallenKeyLowpassUnity: DefinedTopology = defineTopology({
   levelResistor: "R1",
   parts: [...lowPassive, ...follower],
   limits: (t, c) => unityOnly(t) ?? lowRatioLimit(t, c, true),
-  solve: (t, c) => lowSolve({ ...t, gain: 1 }, c),
+  solve: (t, c) => lowSolve({ ...t, gain: 1 }, c, false),
   figures: lowFigures,
   closedForm: lowClosed,
   closedFormFinite: true,
@@ -291,7 +294,7 @@ export const sallenKeyLowpassGain: DefinedTopology = defineTopology({
   levelResistor: "R1",
   parts: [...lowPassive, ...gainAmp],
   limits: (t, c) => aboveOne(t) ?? lowRatioLimit(t, c, false),
-  solve: lowSolve,
+  solve: (t, c) => lowSolve(t, c, true),
   figures: lowFigures,
   closedForm: lowClosed,
   closedFormFinite: true,

@@ -1,9 +1,11 @@
 import { describe, expect, it } from "vitest";
 import { getTopology, topologies } from "../../src/topologies/registry.ts";
-import type { DefinedTopology } from "../../src/topologies/common.ts";
+import { GBW_DEMAND_A0, type DefinedTopology } from "../../src/topologies/common.ts";
 import { asBuiltPole } from "../../src/topologies/as-built.ts";
 import type { StageTarget } from "../../src/topologies/types.ts";
 import { loadFixture } from "../helpers/fixtures.ts";
+import fc from "fast-check";
+import { realisableArb } from "./arbitraries.ts";
 
 const fixture = loadFixture<{ cases: { id: string; target: StageTarget; gbwHz: number }[] }>("circuit-gbw-demand.json");
 
@@ -38,12 +40,27 @@ describe("Topology.gbwDemandHz", () => {
       const v = topo.design(target, {});
       const ideal = topo.figures(v);
       const at = (g: number) => {
-        const m = { kind: "single-pole", a0: 1e8, gbwHz: g } as const;
+        const m = { kind: "single-pole", a0: GBW_DEMAND_A0, gbwHz: g } as const;
         const p = asBuiltPole(topo, v, m);
         return Math.max(Math.abs(p.f0Hz / ideal.f0Hz - 1), Math.abs((p.q as number) / (ideal.q as number) - 1));
       };
       expect(at(d)).toBeLessThanOrEqual(0.01);
       expect(at(d / 1.02)).toBeGreaterThan(0.01);
+    });
+  }
+});
+
+describe("Topology.gbwDemandHz over the realisable range", () => {
+  for (const topo of topologies) {
+    it(`${topo.id}: finite and above f0 for random realisable targets (including Q < 1/2)`, () => {
+      fc.assert(
+        fc.property(realisableArb(topo), ({ target }) => {
+          const d = topo.gbwDemandHz(target);
+          expect(Number.isFinite(d)).toBe(true);
+          expect(d).toBeGreaterThan(target.f0Hz);
+        }),
+        { numRuns: 12 },
+      );
     });
   }
 });
