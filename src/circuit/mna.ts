@@ -500,7 +500,9 @@ export function transfer(circuit: Circuit, options: TransferOptions): ComplexRes
 
 /**
  * Determinant of `G + s C` at a complex `s` (for locating natural frequencies),
- * from the product of the LU pivots (internal kernel, no checks).
+ * from the product of the LU pivots (kernel, no checks). Meant for stage-sized
+ * circuits: for circuits of many dozen unknowns the product can underflow or
+ * overflow, so compare it only with other values of the same circuit.
  *
  * @param sys - assembled system
  * @param s - complex frequency (rad/s)
