@@ -635,6 +635,31 @@ export function invertingGain(y1: Complex, y2: Complex, a: Complex | null): Comp
 }
 
 /**
+ * Inverting summer with finite gain: inputs `vk` through conductances `Gk`,
+ * feedback conductance `gf`: `out = -sum(Gk vk) / (gf + (sum(Gk) + gf)/a)`.
+ *
+ * @param terms - `[Gk, vk]` pairs
+ * @param gf - feedback conductance
+ * @param a - open-loop gain, or `null` for the ideal op-amp
+ * @returns the output
+ * @throws never
+ * @example
+ * ```ts
+ * summer([[1e-4, { re: 1, im: 0 }]], 1e-4, null); //=> { re: -1, im: 0 }
+ * ```
+ */
+export function summer(terms: readonly (readonly [number, Complex])[], gf: number, a: Complex | null): Complex {
+  let num: Complex = { re: 0, im: 0 };
+  let gsum = gf;
+  for (const [gk, vk] of terms) {
+    num = cadd(num, { re: gk * vk.re, im: gk * vk.im });
+    gsum += gk;
+  }
+  const den = a === null ? re(gf) : cadd(re(gf), cdiv(re(gsum), a));
+  return cdiv({ re: -num.re, im: -num.im }, den);
+}
+
+/**
  * Multiple-feedback kernel: `y1` input to node a, `y2` a to ground, `y3` a to
  * the inverting input n, `y4` a to output, `y5` n to output; non-inverting
  * input grounded; open-loop gain `a` (`null` = ideal):

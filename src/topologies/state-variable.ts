@@ -41,7 +41,11 @@
  * R1 = Q R/K (bandpass) and beta = 1/(Q G R), i.e. R4 = (Q G R - 1) R5;
  * `resistor` then sets R2.
  *
- * Finite-GBW response: nodal analysis of the stage's own elements.
+ * Finite-GBW response (closed form, exact for the single-pole model without
+ * output resistance): the integrators are `-Y1/(Y2 + (Y1 + Y2)/A)`; U1, with
+ * its inverting input at beta bp - hp/A, gives
+ * `hp = -G1 vin / (G2 + G3 T1 T2 - G beta T1 + G/A)` (T1 = bp/hp, T2 = lp/bp);
+ * the output summer is `-sum(Gk vk)/(G10 + (sum(Gk) + G10)/A)`.
  * GBW demand: computed numerically (f0 and Q within 1 %); common practice,
  * no source, asks for GBW >= 100 Q f0 for state-variable stages.
  *
@@ -49,7 +53,20 @@
  */
 import type { Complex } from "../math/complex.ts";
 import type { ComponentValues, StageFigures, StageTarget } from "./types.ts";
-import { TWO_PI, cadd, cdiv, cmul, defineTopology, re, sx, type DefinedTopology, type PartSpec } from "./common.ts";
+import {
+  TWO_PI,
+  cadd,
+  cdiv,
+  cmul,
+  csub,
+  defineTopology,
+  invertingGain,
+  re,
+  summer,
+  sx,
+  type DefinedTopology,
+  type PartSpec,
+} from "./common.ts";
 
 const REF =
   'W. J. Kerwin, L. P. Huelsman & R. W. Newcomb, IEEE J. Solid-State Circuits SC-2(3):87-92, 1967; L. P. Huelsman & P. E. Allen, "Introduction to the Theory and Design of Active Filters", 1980, state-variable realisations (from memory)';
@@ -94,9 +111,37 @@ function coreOf(v: ComponentValues): Core {
   return { w0, q: w0 / damp, tau1, tau2, h0: g(v, "R2") / g(v, "R1"), damp };
 }
 
+/**
+ * The three taps per unit input with finite open-loop gain A: integrators by
+ * `invertingGain`; U1 with its non-inverting input at beta bp and inverting
+ * input at beta bp - hp/A gives
+ * `hp = -G1 / (G2 + G3 T1 T2 - G beta T1 + G/A)` with T1 = bp/hp, T2 = lp/bp.
+ */
+function finiteTaps(v: ComponentValues, s: Complex, a: Complex): { hp: Complex; bp: Complex; lp: Complex } {
+  const g1 = 1 / g(v, "R1");
+  const g2 = 1 / g(v, "R2");
+  const g3 = 1 / g(v, "R3");
+  const gs = g1 + g2 + g3;
+  const beta = g(v, "R5") / (g(v, "R4") + g(v, "R5"));
+  const t1 = invertingGain(re(1 / g(v, "R6")), sx(s, g(v, "C1")), a);
+  const t2 = invertingGain(re(1 / g(v, "R7")), sx(s, g(v, "C2")), a);
+  const den = cadd(cadd(re(g2), sx(cmul(t1, t2), g3)), csub(cdiv(re(gs), a), sx(t1, gs * beta)));
+  const hp = cdiv(re(-g1), den);
+  const bp = cmul(t1, hp);
+  return { hp, bp, lp: cmul(t2, bp) };
+}
+
 function closedForm(allpass: boolean) {
   return (v: ComponentValues, s: Complex, a: Complex | null): Complex => {
-    void a; // ideal only; finite-gain responses go through nodal analysis
+    if (a !== null) {
+      const t = finiteTaps(v, s, a);
+      const terms: [number, Complex][] = [
+        [1 / g(v, "R8"), t.hp],
+        [1 / g(v, "R9"), t.lp],
+      ];
+      if (allpass) terms.push([1 / g(v, "R11"), t.bp]);
+      return summer(terms, 1 / g(v, "R10"), a);
+    }
     const c = coreOf(v);
     const s2 = cmul(s, s);
     const d = cadd(cadd(s2, sx(s, c.damp)), re(c.w0 * c.w0));
@@ -158,7 +203,7 @@ export const stateVariableNotch: DefinedTopology = defineTopology({
   },
   figures: figures(false),
   closedForm: closedForm(false),
-  closedFormFinite: false,
+  closedFormFinite: true,
 });
 
 /** KHN state-variable allpass section. */
@@ -183,7 +228,7 @@ export const stateVariableAllpass: DefinedTopology = defineTopology({
   },
   figures: figures(true),
   closedForm: closedForm(true),
-  closedFormFinite: false,
+  closedFormFinite: true,
 });
 
 /** Rename one local node to the stage output (for the variants without the output summer). */
@@ -243,8 +288,8 @@ function makeTap(tap: Tap): DefinedTopology {
       const c = coreOf(v);
       return { f0Hz: c.w0 / TWO_PI, q: c.q, gain: tapGain(tap, v) };
     },
-    closedForm: (v, s) => tapResponse(tap, v, s),
-    closedFormFinite: false,
+    closedForm: (v, s, a) => (a === null ? tapResponse(tap, v, s) : finiteTaps(v, s, a)[node === "lp" ? "lp" : node === "hp" ? "hp" : "bp"]),
+    closedFormFinite: true,
   });
 }
 

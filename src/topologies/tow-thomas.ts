@@ -34,7 +34,11 @@
  * `resistor` sets R3 (and with it the level of every resistor); default
  * R3 = 10 kOhm. No ratio choices.
  *
- * Finite-GBW response: nodal analysis of the stage's own elements.
+ * Finite-GBW response (closed form, exact for the single-pole model without
+ * output resistance): each op-amp is an inverting stage whose inverting
+ * input sits at -v_out/A; the inverter and integrator are
+ * `-Y1/(Y2 + (Y1 + Y2)/A)`, the loop is solved for v1, and the summer gives
+ * `-sum(Gk vk)/(G9 + (sum(Gk) + G9)/A)`.
  * GBW demand: computed numerically (f0 and Q within 1 %); common practice,
  * no source, asks for GBW >= 100 f0 for the integrators, with the damped
  * integrator's Q-enhancement the limiting effect at high Q.
@@ -49,7 +53,9 @@ import {
   cdiv,
   cmul,
   defineTopology,
+  invertingGain,
   re,
+  summer,
   sx,
   type DefinedTopology,
   type PartSpec,
@@ -109,7 +115,7 @@ function n0(variant: Variant, v: ComponentValues): number {
 
 function closedForm(variant: Variant) {
   return (v: ComponentValues, s: Complex, a: Complex | null): Complex => {
-    void a; // ideal only; finite-gain responses go through nodal analysis
+    if (a !== null) return finiteForm(variant, v, s, a);
     const d = cadd(cadd(cmul(s, s), sx(s, 1 / (g(v, "R2") * g(v, "C1")))), re(w0Sq(v)));
     const h1 = cdiv(sx(s, -1 / (g(v, "R1") * g(v, "C1"))), d);
     const h2 = cdiv(re(1 / (g(v, "R1") * g(v, "R4") * g(v, "C1") * g(v, "C2"))), d);
@@ -120,6 +126,33 @@ function closedForm(variant: Variant) {
     if (variant === "highpass-notch") sum = cadd(sum, sx(h2, -g(v, "R6") / (g(v, "R5") * g(v, "R10"))));
     return sx(sum, -g(v, "R9"));
   };
+}
+
+/**
+ * Finite open-loop gain A (every op-amp an inverting stage, output an ideal
+ * source, inverting input at -v_out/A): inverter and integrator by
+ * `invertingGain`, the damped integrator solved for v1 around the loop, the
+ * summer as `out = -sum(Gk vk) / (G9 + (sum(Gk) + G9)/A)`.
+ */
+function finiteForm(variant: Variant, v: ComponentValues, s: Complex, a: Complex): Complex {
+  const g1 = 1 / g(v, "R1");
+  const g3 = 1 / g(v, "R3");
+  const yf = cadd(re(1 / g(v, "R2")), sx(s, g(v, "C1")));
+  const t2 = invertingGain(re(1 / g(v, "R4")), sx(s, g(v, "C2")), a); // v2 / v1
+  const t3 = invertingGain(re(1 / g(v, "R5")), re(1 / g(v, "R6")), a); // v3 / v2
+  // v1 [Yf + (G1 + G3 + Yf)/A + G3 T3 T2] = -G1 vin
+  const den = cadd(cadd(yf, cdiv(cadd(re(g1 + g3), yf), a)), sx(cmul(t3, t2), g3));
+  const v1 = cdiv(re(-g1), den);
+  const v2 = cmul(t2, v1);
+  if (variant === "bandpass") return v1;
+  if (variant === "lowpass") return v2;
+  const terms: [number, Complex][] = [
+    [1 / g(v, "R7"), re(1)],
+    [1 / g(v, "R8"), v1],
+  ];
+  if (variant === "lowpass-notch") terms.push([1 / g(v, "R10"), v2]);
+  if (variant === "highpass-notch") terms.push([1 / g(v, "R10"), cmul(t3, v2)]);
+  return summer(terms, 1 / g(v, "R9"), a);
 }
 
 function figures(variant: Variant) {
@@ -189,7 +222,7 @@ function make(variant: Variant, id: string, name: string): DefinedTopology {
     solve: solve(variant),
     figures: figures(variant),
     closedForm: closedForm(variant),
-    closedFormFinite: false,
+    closedFormFinite: true,
   });
 }
 
