@@ -61,7 +61,7 @@ export function reverseBesselCoefficients(order: number): number[] {
  * order-n Bessel-Thomson lowpass normalised for unit delay at DC. Computed by
  * {@link polyRoots} on the exact coefficients in double-double form; relative
  * error about 1e-15 up to order 30 (worst measured against mpmath 50-digit
- * roots), about 1e-12 at order 40.
+ * roots), a few times 1e-12 at order 40.
  *
  * @param order - polynomial order n, 1 to {@link MAX_BESSEL_ORDER}
  * @returns the n roots, all in the left half-plane, sorted as by {@link polyRoots}

@@ -29,7 +29,7 @@
  * @module
  */
 import { ConvergenceError, InvalidArgumentError } from "../errors.ts";
-import type { Complex } from "./complex.ts";
+import { cdiv, type Complex } from "./complex.ts";
 import { requireOptions } from "../validate.ts";
 import { requireNumberArray } from "./check.ts";
 
@@ -101,41 +101,34 @@ function scale2(x: number, e: number): number {
   return r * 2 ** k;
 }
 
-/** Result of one Horner pass: p(z), p'(z) and the rounding bound sum |a_k| |z|^k. */
-interface Eval {
-  pr: number;
-  pi: number;
-  dr: number;
-  di: number;
-  bound: number;
-}
-
-function evalDouble(hi: Float64Array, zr: number, zi: number, out: Eval): void {
+/** Horner pass in double: writes p(z), p'(z) and the bound sum |a_k| |z|^k into out[0..4]. */
+function hornerDouble(c: Float64Array, zr: number, zi: number, out: Float64Array): void {
   let pr = 0;
   let pi = 0;
   let dr = 0;
   let di = 0;
   let b = 0;
   const az = Math.hypot(zr, zi);
-  for (let k = 0; k < hi.length; k++) {
+  for (let k = 0; k < c.length; k++) {
     if (k > 0) {
       const t = dr * zr - di * zi + pr;
       di = dr * zi + di * zr + pi;
       dr = t;
     }
-    const t = pr * zr - pi * zi + (hi[k] as number);
+    const t = pr * zr - pi * zi + (c[k] as number);
     pi = pr * zi + pi * zr;
     pr = t;
-    b = b * az + Math.abs(hi[k] as number);
+    b = b * az + Math.abs(c[k] as number);
   }
-  out.pr = pr;
-  out.pi = pi;
-  out.dr = dr;
-  out.di = di;
-  out.bound = b;
+  out[0] = pr;
+  out[1] = pi;
+  out[2] = dr;
+  out[3] = di;
+  out[4] = b;
 }
 
-function evalDoubleDouble(hi: Float64Array, lo: Float64Array, zr: number, zi: number, out: Eval): void {
+/** Horner pass in double-double arithmetic on coefficients hi + lo; same outputs as {@link hornerDouble}. */
+function hornerDoubleDouble(hi: Float64Array, lo: Float64Array, zr: number, zi: number, out: Float64Array): void {
   let prh = 0;
   let prl = 0;
   let pih = 0;
@@ -188,11 +181,85 @@ function evalDoubleDouble(hi: Float64Array, lo: Float64Array, zr: number, zi: nu
     prh = nrh;
     prl = nrl;
   }
-  out.pr = prh + prl;
-  out.pi = pih + pil;
-  out.dr = drh + drl;
-  out.di = dih + dil;
-  out.bound = b;
+  out[0] = prh + prl;
+  out[1] = pih + pil;
+  out[2] = drh + drl;
+  out[3] = dih + dil;
+  out[4] = b;
+}
+
+/** The polynomial in the forms the iteration needs: coefficients and their reversal, hi and lo parts. */
+interface Poly {
+  readonly n: number;
+  readonly h: Float64Array;
+  readonly l: Float64Array;
+  readonly hRev: Float64Array;
+  readonly lRev: Float64Array;
+}
+
+/** Newton correction N = p(z)/p'(z) and whether |p(z)| is at the evaluation's rounding level. */
+interface Newton {
+  nr: number;
+  ni: number;
+  /** p'(z) = 0 while p(z) != 0: the correction is infinite. */
+  inf: boolean;
+  /** |p(z)| is below the rounding-error bound of the evaluation. */
+  small: boolean;
+}
+
+const scratch = new Float64Array(5);
+
+/**
+ * Newton correction at z. For |z| > 1 the reversed polynomial is evaluated
+ * at 1/z, so that nothing overflows: with p(z) = z^n q(1/z),
+ * p/p' = z q / (n q - y q') where y = 1/z (Bini 1996, section 5).
+ */
+function newtonAt(poly: Poly, zr: number, zi: number, dd: boolean, res: Newton): void {
+  const n = poly.n;
+  const tol = 4 * (n + 1) * (dd ? EPS * EPS : EPS);
+  const az = Math.hypot(zr, zi);
+  let numr: number;
+  let numi: number;
+  let denr: number;
+  let deni: number;
+  if (az <= 1) {
+    if (dd) hornerDoubleDouble(poly.h, poly.l, zr, zi, scratch);
+    else hornerDouble(poly.h, zr, zi, scratch);
+    numr = scratch[0] as number;
+    numi = scratch[1] as number;
+    denr = scratch[2] as number;
+    deni = scratch[3] as number;
+  } else {
+    const y = cdiv({ re: 1, im: 0 }, { re: zr, im: zi });
+    if (dd) hornerDoubleDouble(poly.hRev, poly.lRev, y.re, y.im, scratch);
+    else hornerDouble(poly.hRev, y.re, y.im, scratch);
+    const qr = scratch[0] as number;
+    const qi = scratch[1] as number;
+    const dqr = scratch[2] as number;
+    const dqi = scratch[3] as number;
+    // numerator z q, denominator n q - y q'
+    numr = zr * qr - zi * qi;
+    numi = zr * qi + zi * qr;
+    denr = n * qr - (y.re * dqr - y.im * dqi);
+    deni = n * qi - (y.re * dqi + y.im * dqr);
+  }
+  res.small = Math.hypot(scratch[0] as number, scratch[1] as number) <= tol * (scratch[4] as number);
+  if (scratch[0] === 0 && scratch[1] === 0) {
+    res.nr = 0;
+    res.ni = 0;
+    res.inf = false;
+    return;
+  }
+  if (denr === 0 && deni === 0) {
+    res.nr = 0;
+    res.ni = 0;
+    res.inf = true;
+    return;
+  }
+  const q = cdiv({ re: numr, im: numi }, { re: denr, im: deni });
+  res.nr = q.re;
+  res.ni = q.im;
+  res.inf = !Number.isFinite(q.re) || !Number.isFinite(q.im);
 }
 
 /** Starting points on the circles of the Newton polygon of |a_k| (Bini 1996, section 4). */
@@ -235,8 +302,8 @@ function startingPoints(hi: Float64Array, zr: Float64Array, zi: Float64Array): v
   }
 }
 
-/** Aberth correction for root i given p and p' there; returns [wr, wi]. */
-function aberthStep(i: number, zr: Float64Array, zi: Float64Array, e: Eval, w: Float64Array): void {
+/** Aberth correction w for root i given its Newton correction N: w = N / (1 - N S). */
+function aberthStep(i: number, zr: Float64Array, zi: Float64Array, e: Newton, w: Float64Array): void {
   const n = zr.length;
   const xr = zr[i] as number;
   const xi = zi[i] as number;
@@ -244,81 +311,75 @@ function aberthStep(i: number, zr: Float64Array, zi: Float64Array, e: Eval, w: F
   let si = 0;
   for (let j = 0; j < n; j++) {
     if (j === i) continue;
-    const dr = xr - (zr[j] as number);
-    const di = xi - (zi[j] as number);
-    const m = dr * dr + di * di;
-    sr += dr / m;
-    si -= di / m;
+    const t = cdiv({ re: 1, im: 0 }, { re: xr - (zr[j] as number), im: xi - (zi[j] as number) });
+    sr += t.re;
+    si += t.im;
   }
-  const pm = Math.hypot(e.pr, e.pi);
-  if (pm === 0) {
-    w[0] = 0;
-    w[1] = 0;
-    return;
-  }
-  const dm = e.dr * e.dr + e.di * e.di;
-  if (dm === 0) {
+  if (e.inf) {
     // N infinite: the correction tends to 1/S
-    const sm = sr * sr + si * si;
-    w[0] = sr / sm;
-    w[1] = -si / sm;
+    const t = cdiv({ re: 1, im: 0 }, { re: sr, im: si });
+    w[0] = t.re;
+    w[1] = t.im;
     return;
   }
-  // N = p / p'
-  const nr = (e.pr * e.dr + e.pi * e.di) / dm;
-  const ni = (e.pi * e.dr - e.pr * e.di) / dm;
-  // den = 1 - N S
-  const denr = 1 - (nr * sr - ni * si);
-  const deni = -(nr * si + ni * sr);
-  const q = denr * denr + deni * deni;
-  w[0] = (nr * denr + ni * deni) / q;
-  w[1] = (ni * denr - nr * deni) / q;
+  const nr = e.nr;
+  const ni = e.ni;
+  const t = cdiv({ re: nr, im: ni }, { re: 1 - (nr * sr - ni * si), im: -(nr * si + ni * sr) });
+  w[0] = t.re;
+  w[1] = t.im;
 }
 
 /** Roots of a polynomial of degree >= 2 with a non-zero constant term (core). */
 function aberth(hi: Float64Array, lo: Float64Array): { roots: Complex[]; radius: Float64Array } {
   const n = hi.length - 1;
   // Scale x = c y with c a power of two so that the roots are near the unit circle (exact).
-  const lead = Math.abs(hi[0] as number);
-  const tail = Math.abs(hi[n] as number);
-  const ce = Math.round(Math.log2(tail / lead) / n);
+  const ce = Math.round((Math.log2(Math.abs(hi[n] as number)) - Math.log2(Math.abs(hi[0] as number))) / n);
   const c = 2 ** ce;
-  const h = new Float64Array(n + 1);
-  const l = new Float64Array(n + 1);
   let maxLog = -Infinity;
   for (let i = 0; i <= n; i++) {
     const a = Math.abs(hi[i] as number);
     if (a > 0) maxLog = Math.max(maxLog, Math.log2(a) + (n - i) * ce);
   }
   const shift = Math.round(maxLog);
+  const h = new Float64Array(n + 1);
+  const l = new Float64Array(n + 1);
   for (let i = 0; i <= n; i++) {
     h[i] = scale2(hi[i] as number, (n - i) * ce - shift);
     l[i] = scale2(lo[i] as number, (n - i) * ce - shift);
   }
+  const poly: Poly = { n, h, l, hRev: h.slice().reverse(), lRev: l.slice().reverse() };
   const zr = new Float64Array(n);
   const zi = new Float64Array(n);
   startingPoints(h, zr, zi);
   const done = new Uint8Array(n);
-  const ev: Eval = { pr: 0, pi: 0, dr: 0, di: 0, bound: 0 };
+  const nw: Newton = { nr: 0, ni: 0, inf: false, small: false };
   const w = new Float64Array(2);
+  const step = (i: number): void => {
+    aberthStep(i, zr, zi, nw, w);
+    const nr = (zr[i] as number) - (w[0] as number);
+    const ni = (zi[i] as number) - (w[1] as number);
+    // a non-finite step (overflow far from the roots) is skipped; the other roots move on
+    if (Number.isFinite(nr) && Number.isFinite(ni)) {
+      zr[i] = nr;
+      zi[i] = ni;
+    }
+  };
   let remaining = n;
   const maxPlain = 100 + 10 * n;
   for (let it = 0; it < maxPlain && remaining > 0; it++) {
     for (let i = 0; i < n; i++) {
       if (done[i] === 1) continue;
-      evalDouble(h, zr[i] as number, zi[i] as number, ev);
-      if (Math.hypot(ev.pr, ev.pi) <= 4 * (n + 1) * EPS * ev.bound) {
+      newtonAt(poly, zr[i] as number, zi[i] as number, false, nw);
+      if (nw.small) {
         done[i] = 1;
         remaining--;
         continue;
       }
-      aberthStep(i, zr, zi, ev, w);
-      zr[i] = (zr[i] as number) - (w[0] as number);
-      zi[i] = (zi[i] as number) - (w[1] as number);
+      step(i);
     }
   }
   // Polishing: the same iteration with p, p' in double-double arithmetic.
-  const radius = new Float64Array(n);
+  const radius = new Float64Array(n).fill(Infinity);
   const active = new Uint8Array(n).fill(1);
   let nActive = n;
   for (let it = 0; it < 100 + 10 * n && nActive > 0; it++) {
@@ -326,27 +387,25 @@ function aberth(hi: Float64Array, lo: Float64Array): { roots: Complex[]; radius:
       if (active[i] === 0) continue;
       const xr = zr[i] as number;
       const xi = zi[i] as number;
-      evalDoubleDouble(h, l, xr, xi, ev);
-      const dm = Math.hypot(ev.dr, ev.di);
-      radius[i] = dm === 0 ? (Math.hypot(ev.pr, ev.pi) === 0 ? 0 : Infinity) : (n * Math.hypot(ev.pr, ev.pi)) / dm;
-      aberthStep(i, zr, zi, ev, w);
+      newtonAt(poly, xr, xi, true, nw);
+      radius[i] = nw.inf ? Infinity : n * Math.hypot(nw.nr, nw.ni);
+      aberthStep(i, zr, zi, nw, w);
       const wm = Math.hypot(w[0] as number, w[1] as number);
-      const xm = Math.hypot(xr, xi);
+      step(i);
       // Stop when the step is at rounding level, or |p| is at the double-double noise floor.
-      if (wm <= 2 * EPS * xm || Math.hypot(ev.pr, ev.pi) <= 4 * (n + 1) * EPS * EPS * ev.bound) {
+      if (wm <= 2 * EPS * Math.hypot(xr, xi) || nw.small) {
         active[i] = 0;
         nActive--;
-        if (wm <= 2 * EPS * xm) continue;
       }
-      zr[i] = xr - (w[0] as number);
-      zi[i] = xi - (w[1] as number);
     }
   }
   const roots: Complex[] = [];
   for (let i = 0; i < n; i++) {
     const re = (zr[i] as number) * c;
     const im = (zi[i] as number) * c;
-    if (!Number.isFinite(re) || !Number.isFinite(im) || !((radius[i] as number) * c <= 1e-3 * Math.hypot(re, im) + Number.MIN_VALUE)) {
+    const r = (radius[i] as number) * c;
+    // accept a root when it is finite and its inclusion disc is small, or |p| is at rounding level
+    if (!Number.isFinite(re) || !Number.isFinite(im) || (active[i] === 1 && !(r <= 1e-3 * Math.hypot(re, im)))) {
       throw new ConvergenceError({
         fn: "polyRoots",
         path: "coeffs",
@@ -354,7 +413,7 @@ function aberth(hi: Float64Array, lo: Float64Array): { roots: Complex[]; radius:
       });
     }
     roots.push({ re, im });
-    radius[i] = Math.max((radius[i] as number) * c, 8 * EPS * Math.hypot(re, im));
+    radius[i] = Math.max(Number.isFinite(r) ? r : 0, 8 * EPS * Math.hypot(re, im));
   }
   return { roots, radius };
 }

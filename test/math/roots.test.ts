@@ -95,3 +95,40 @@ describe("polyRoots round trip (property)", () => {
     );
   });
 });
+
+describe("polyRoots robustness", () => {
+  it("handles coefficient ranges near the limits of double precision", () => {
+    // 1e-300 x^2 + x + 1e300: roots (-1 +- j sqrt(3)) / 2e-300
+    const r = polyRoots([1e-300, 1, 1e300]);
+    expect(r).toHaveLength(2);
+    expect(Math.abs(r[0]!.re / -5e299 - 1)).toBeLessThan(1e-14);
+    expect(Math.abs(r[0]!.im / (Math.sqrt(3) * 5e299) - 1)).toBeLessThan(1e-14);
+  });
+
+  it("returns every root with a backward error at rounding level (random degrees 2..60, property)", () => {
+    const coeff = fc.tuple(fc.integer({ min: -1000, max: 1000 }), fc.integer({ min: -3, max: 3 })).map(([m, e]) => (m / 1000) * 10 ** e);
+    fc.assert(
+      fc.property(fc.array(coeff, { minLength: 3, maxLength: 61 }), (c) => {
+        fc.pre(c[0] !== 0 && c[c.length - 1] !== 0);
+        const roots = polyRoots(c);
+        if (roots.length !== c.length - 1) return false;
+        for (const z of roots) {
+          let pr = 0;
+          let pi = 0;
+          let bound = 0;
+          const az = Math.hypot(z.re, z.im);
+          for (const a of c) {
+            const t = pr * z.re - pi * z.im + a;
+            pi = pr * z.im + pi * z.re;
+            pr = t;
+            bound = bound * az + Math.abs(a);
+          }
+          // |p(z)| relative to sum |a_k||z|^k: the root is exact for a polynomial within that relative distance
+          if (Math.hypot(pr, pi) > 1e-13 * bound) return false;
+        }
+        return true;
+      }),
+      { numRuns: 60 },
+    );
+  });
+});
