@@ -15,7 +15,7 @@
  * 3. Joint re-tuning: rather than rounding each resistor to its nearest
  *    preferred value on its own, the search tries the two preferred values
  *    that bracket each resistor and the next ones out, in every combination
- *    (coordinate descent when there are more than 4096 combinations), and
+ *    (pairwise coordinate descent when there are more than 1024 combinations), and
  *    keeps the set whose as-built f0, Q, zero frequency and gain (from the
  *    topology's own figures) are closest to the target. Error measure: the
  *    largest of the relative f0, Q and fz errors and half the relative gain
@@ -228,21 +228,27 @@ function searchResistors(
 ): ValueSet[] {
   const names = Object.keys(exact).filter(isRes);
   const options = names.map((n) => neighbours(exact[n] as number, spec.resistorSeries, spread));
-  const fixed: Record<string, number> = {};
-  for (const [k, v] of Object.entries(exact)) if (!isRes(k)) fixed[k] = v;
+  // Keep only the best `keep` sets (sorted by cost).
   const found: ValueSet[] = [];
-  const push = (vs: ValueSet | null): void => {
-    if (vs !== null) found.push(vs);
+  const push = (vs0: ValueSet | null): void => {
+    let vs = vs0;
+    if (vs === null) return;
+    if (found.length >= keep && vs.cost >= (found[found.length - 1] as ValueSet).cost) return;
+    // `make` reuses one object: keep a copy of the values that make the list.
+    vs = { ...vs, values: { ...vs.values } };
+    let i = found.length;
+    while (i > 0 && (found[i - 1] as ValueSet).cost > vs.cost) i--;
+    found.splice(i, 0, vs);
+    if (found.length > keep) found.pop();
   };
+  // One working object, updated in place for every trial (no allocation per trial).
+  const work: Record<string, number> = { ...exact };
   const make = (idx: readonly number[]): Record<string, number> => {
-    const v: Record<string, number> = { ...fixed };
-    names.forEach((n, i) => {
-      v[n] = (options[i] as number[])[idx[i] as number] as number;
-    });
-    return v;
+    for (let i = 0; i < names.length; i++) work[names[i] as string] = (options[i] as number[])[idx[i] as number] as number;
+    return work;
   };
   const total = options.reduce((p, o) => p * o.length, 1);
-  if (total <= 4096) {
+  if (total <= 1024) {
     const idx = names.map(() => 0);
     for (let count = 0; count < total; count++) {
       push(evaluate(t, make(idx), target));
@@ -253,7 +259,10 @@ function searchResistors(
       }
     }
   } else {
-    // Coordinate descent from the nearest values.
+    // Pairwise coordinate descent from the nearest values: every pair of
+    // resistors tries all its combinations with the others held, until a
+    // sweep improves nothing (single-part descent stalls where f0 and Q
+    // depend on ratios of two parts).
     const idx = names.map((n, i) => {
       const o = options[i] as number[];
       const x = exact[n] as number;
@@ -265,28 +274,38 @@ function searchResistors(
     });
     let cur = evaluate(t, make(idx), target);
     push(cur);
-    for (let sweep = 0; sweep < 6; sweep++) {
+    for (let sweep = 0; sweep < 4; sweep++) {
       let improved = false;
       for (let i = 0; i < idx.length; i++) {
-        const o = options[i] as number[];
-        for (let j = 0; j < o.length; j++) {
-          if (j === idx[i]) continue;
-          const trial = [...idx];
-          trial[i] = j;
-          const vs = evaluate(t, make(trial), target);
-          push(vs);
-          if (vs !== null && (cur === null || vs.cost < cur.cost)) {
-            cur = vs;
-            idx[i] = j;
-            improved = true;
+        for (let k = i + 1; k < idx.length; k++) {
+          const oi = options[i] as number[];
+          const ok = options[k] as number[];
+          let bestI = idx[i] as number;
+          let bestK = idx[k] as number;
+          for (let a = 0; a < oi.length; a++) {
+            for (let b = 0; b < ok.length; b++) {
+              if (a === idx[i] && b === idx[k]) continue;
+              const trial = [...idx];
+              trial[i] = a;
+              trial[k] = b;
+              const vs = evaluate(t, make(trial), target);
+              push(vs);
+              if (vs !== null && (cur === null || vs.cost < cur.cost)) {
+                cur = vs;
+                bestI = a;
+                bestK = b;
+                improved = true;
+              }
+            }
           }
+          idx[i] = bestI;
+          idx[k] = bestK;
         }
       }
       if (!improved) break;
     }
   }
-  found.sort((a, b) => a.cost - b.cost);
-  return found.slice(0, keep);
+  return found;
 }
 
 /** Options of {@link tuneStage}. */

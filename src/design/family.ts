@@ -45,11 +45,24 @@ export interface MarginLevel {
 /** Tightening levels, most generous margin first; the last one uses the spec's limits exactly. */
 export const MARGIN_LEVELS: readonly MarginLevel[] = [
   { rippleFraction: 0.5, extraAttenuationDb: 3 },
+  { rippleFraction: 0.6, extraAttenuationDb: 2.5 },
   { rippleFraction: 0.7, extraAttenuationDb: 2 },
+  { rippleFraction: 0.8, extraAttenuationDb: 1.5 },
   { rippleFraction: 0.85, extraAttenuationDb: 1 },
+  { rippleFraction: 0.9, extraAttenuationDb: 0.75 },
   { rippleFraction: 0.93, extraAttenuationDb: 0.5 },
+  { rippleFraction: 0.96, extraAttenuationDb: 0.25 },
   { rippleFraction: 1, extraAttenuationDb: 0 },
 ];
+
+/**
+ * Typical errors left after joint re-tuning, used to weigh frequency slack
+ * against dB margin when choosing a margin level (common practice, no source;
+ * the re-tuning benchmark's median worst-stage f0 error is about 0.3 %).
+ */
+const TYPICAL_FREQUENCY_ERROR = 0.003;
+const TYPICAL_PASSBAND_DB_ERROR = 0.05;
+const TYPICAL_STOPBAND_DB_ERROR = 0.5;
 
 /** A prototype with its edges and the interval it leaves. */
 export interface PrototypeDesign {
@@ -156,23 +169,35 @@ export function familyMinimumOrder(spec: DesignSpec, family: FamilyName, maxOrde
 }
 
 /**
- * The prototype to build at a given order: the most generous margin level
- * that keeps at least 40 % of the exact prototype's frequency slack, else the
- * most generous one keeping 10 % (common practice, no source); the exact level
- * when the order is too low to meet the mask at all.
- *
-
+ * The prototype to build at a given order. For the equiripple families the
+ * margin level is chosen to balance the two kinds of room rounding needs: the
+ * frequency slack left on each side of the placement (in units of the typical
+ * re-tuned frequency error) and the dB margin of the ripple valleys and
+ * stopband peaks (in units of typical dB errors); the level with the largest
+ * smaller-of-the-two wins (common practice, no source). The exact level is
+ * used when the order is too low to meet the mask at all.
  */
 export function choosePrototype(spec: DesignSpec, family: FamilyName, order: number): PrototypeDesign {
   const exact = designPrototype(spec, family, order, EXACT);
   const full = intervalWidth(exact.interval);
   if (!isEquiripple(family) || !(full > 0)) return exact;
-  const levels = MARGIN_LEVELS.slice(0, -1).map((level) => designPrototype(spec, family, order, level));
-  for (const share of [0.4, 0.1]) {
-    const p = levels.find((x) => intervalWidth(x.interval) >= share * full);
-    if (p !== undefined) return p;
+  let best = exact;
+  let bestScore = 0;
+  for (const level of MARGIN_LEVELS.slice(0, -1)) {
+    const p = designPrototype(spec, family, order, level);
+    const width = intervalWidth(p.interval);
+    if (!(width > 0)) continue;
+    const freq = width / 2 / TYPICAL_FREQUENCY_ERROR;
+    const passDb = (spec.maxLossDb * (1 - level.rippleFraction)) / TYPICAL_PASSBAND_DB_ERROR;
+    const stopDb = level.extraAttenuationDb / TYPICAL_STOPBAND_DB_ERROR;
+    const db = family === "chebyshev1" ? passDb : family === "chebyshev2" ? stopDb : Math.min(passDb, stopDb);
+    const score = Math.min(freq, db);
+    if (score > bestScore) {
+      best = p;
+      bestScore = score;
+    }
   }
-  return exact;
+  return best;
 }
 
 /** Number of stages a prototype order needs for the spec's response. */

@@ -93,7 +93,7 @@ function attempt(spec: DesignSpec, proto: PrototypeDesign, position: number, wid
       const target = { ...p.target, gain: p.target.gain / carried };
       if (p.topology.check(target, {}) === null) p = { ...p, target };
     }
-    const t = tuneStage(p.topology, p.target, spec, wide ? { capacitors: 16, spread: 3, keep: 12 } : {});
+    const t = tuneStage(p.topology, p.target, spec, wide ? { capacitors: 12, spread: 3, keep: 12 } : {});
     if (t === null) {
       throw new UnrealisableError({
         fn: "designFilter",
