@@ -90,11 +90,25 @@ export function zpkResponseUnchecked(system: Zpk, w: Float64Array): ComplexRespo
       for (let k = 0; k < n; k++) {
         // divide by (br + j bi): multiply by the conjugate, scale by 1/|.|^2
         const bi = (w[k] as number) - pi;
-        const inv = 1 / (br2 + bi * bi);
+        const m = br2 + bi * bi;
         const re = outRe[k] as number;
         const im = outIm[k] as number;
-        outRe[k] = (re * br + im * bi) * inv;
-        outIm[k] = (im * br - re * bi) * inv;
+        if (m > 1e-290 && m < 1e290) {
+          const inv = 1 / m;
+          outRe[k] = (re * br + im * bi) * inv;
+          outIm[k] = (im * br - re * bi) * inv;
+        } else if (Math.abs(br) >= Math.abs(bi)) {
+          // Smith's division where |.|^2 would overflow or underflow
+          const r = bi / br;
+          const d = br + bi * r;
+          outRe[k] = (re + im * r) / d;
+          outIm[k] = (im - re * r) / d;
+        } else {
+          const r = br / bi;
+          const d = br * r + bi;
+          outRe[k] = (re * r + im) / d;
+          outIm[k] = (im * r - re) / d;
+        }
       }
     }
   }
@@ -115,9 +129,14 @@ export function cascadeResponseUnchecked(cascade: SectionCascade, w: Float64Arra
       const ni = b1 * wk;
       const dr = a0 - a2 * w2;
       const di = a1 * wk;
+      const m = dr * dr + di * di;
       let vr: number;
       let vi: number;
-      if (Math.abs(dr) >= Math.abs(di)) {
+      if (m > 1e-290 && m < 1e290) {
+        const inv = 1 / m;
+        vr = (nr * dr + ni * di) * inv;
+        vi = (ni * dr - nr * di) * inv;
+      } else if (Math.abs(dr) >= Math.abs(di)) {
         const r = di / dr;
         const d = dr + di * r;
         vr = (nr + ni * r) / d;
@@ -155,7 +174,25 @@ export function frequencyResponse(system: Zpk | SectionCascade, w: Float64Array)
   requireSystem(fn, "system", system);
   const grid = requireGrid(fn, "w", w);
   checkNoAxisPole(fn, polesOf(system), grid);
-  return isCascade(system) ? cascadeResponseUnchecked(system, grid) : zpkResponseUnchecked(system, grid);
+  if (!isCascade(system)) return zpkResponseUnchecked(system, grid);
+  const r = cascadeResponseUnchecked(system, grid);
+  repairCascade(system, grid, r.re, r.im);
+  return r;
+}
+
+/**
+ * Where a section's polynomials overflow (w^2 beyond the double range) the
+ * cascade value is not finite; recompute those points from the factored form.
+ */
+function repairCascade(cascade: SectionCascade, w: Float64Array, re: Float64Array, im: Float64Array): void {
+  let z: Zpk | undefined;
+  for (let k = 0; k < w.length; k++) {
+    if (Number.isFinite(re[k] as number) && Number.isFinite(im[k] as number)) continue;
+    z ??= fromSectionsUnchecked(cascade);
+    const v = zpkResponseUnchecked(z, w.subarray(k, k + 1));
+    re[k] = v.re[0] as number;
+    im[k] = v.im[0] as number;
+  }
 }
 
 /** Magnitude in dB core (no checks). */
@@ -175,6 +212,14 @@ export function magnitudeDbUnchecked(system: Zpk | SectionCascade, w: Float64Arr
         const d = Math.hypot(a0 - a2 * w2, a1 * wk);
         out[k] = (out[k] as number) + LOG * (Math.log(n) - Math.log(d));
       }
+    }
+    // points where a section polynomial overflowed: use the factored form
+    let z: Zpk | undefined;
+    for (let k = 0; k < w.length; k++) {
+      const v = out[k] as number;
+      if (!Number.isNaN(v) && v !== Infinity) continue;
+      z ??= fromSectionsUnchecked(system);
+      out[k] = magnitudeDbUnchecked(z, w.subarray(k, k + 1))[0] as number;
     }
   } else {
     out.fill(LOG * Math.log(Math.abs(system.gain)));
