@@ -11,6 +11,7 @@ export {
   evalCascade,
   evalSection,
   fromSections,
+  MAX_SECTION_FREQUENCY,
   toSections,
   type SectionOrdering,
   type ToSectionsOptions,

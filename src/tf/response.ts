@@ -327,10 +327,10 @@ export function zpkGroupDelayUnchecked(system: Zpk, w: Float64Array): Float64Arr
     for (const r of roots) {
       if (r.re === 0) continue; // jw-axis roots: zero delay away from the root itself
       const a = -r.re;
-      const a2 = a * a;
       for (let k = 0; k < w.length; k++) {
-        const d = (w[k] as number) - r.im;
-        out[k] = (out[k] as number) + (sign * a) / (d * d + a2);
+        // a / (d^2 + a^2) as (a / h) / h with h = hypot(d, a): no overflow or underflow
+        const h = Math.hypot((w[k] as number) - r.im, a);
+        out[k] = (out[k] as number) + (sign * (a / h)) / h;
       }
     }
   }

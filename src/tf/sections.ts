@@ -40,6 +40,9 @@ export interface ToSectionsOptions {
   readonly order?: SectionOrdering;
 }
 
+/** Largest root magnitude (rad/s) that {@link toSections} accepts: section coefficients hold w0^2, which must not overflow. */
+export const MAX_SECTION_FREQUENCY = 1e150;
+
 /** Relative tolerance for classifying zeros (on the jw axis, at a pole mirror, symmetric notch). */
 const CLASSIFY_TOL = 1e-9;
 
@@ -291,7 +294,7 @@ export function toSectionsUnchecked(system: Zpk, ordering: SectionOrdering): Sec
  *   and no more zeros than poles
  * @param options - section ordering
  * @returns the cascade; `evalCascade(result, s)` equals `evalZpk(system, s)`
- * @throws {@link InvalidArgumentError} when the zpk is malformed, has more zeros than poles, a pole not in the open left half-plane, or an unknown ordering
+ * @throws {@link InvalidArgumentError} when the zpk is malformed, has more zeros than poles, a pole not in the open left half-plane, a root beyond {@link MAX_SECTION_FREQUENCY}, or an unknown ordering
  * @example
  * ```ts
  * // 2nd-order Butterworth lowpass at 1 rad/s with a DC gain of 2
@@ -336,6 +339,21 @@ export function toSections(system: Zpk, options?: ToSectionsOptions): SectionCas
       });
     }
   });
+  for (const [list, name] of [
+    [system.poles, "poles"],
+    [system.zeros, "zeros"],
+  ] as const) {
+    list.forEach((r, i) => {
+      if (Math.hypot(r.re, r.im) > MAX_SECTION_FREQUENCY) {
+        throw new InvalidArgumentError({
+          fn,
+          path: `system.${name}[${i}]`,
+          received: r,
+          message: `section coefficients hold w0^2, so roots must be at most ${MAX_SECTION_FREQUENCY} rad/s in magnitude`,
+        });
+      }
+    });
+  }
   return toSectionsUnchecked(system, ordering);
 }
 

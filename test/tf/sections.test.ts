@@ -117,6 +117,7 @@ describe("toSections", () => {
     expect(() => toSections(zpk([{ re: -1, im: 0 }], [], 1))).toThrow(/improper/);
     expect(() => toSections(zpk([], [{ re: 1, im: 0 }], 1))).toThrow(/poles\[0\]/);
     expect(() => toSections(notchLowpass, { order: "by-size" as "as-given" })).toThrow(InvalidArgumentError);
+    expect(() => toSections(zpk([], [{ re: -1e151, im: 0 }], 1))).toThrow(/at most/);
     expect(() => evalSection({ order: 2, num: [0, 0, 1], den: [2, 1, 1], w0: 1, q: 1, kind: "lowpass" }, { re: 0, im: 0 })).toThrow(/den/);
     expect(() => fromSections({ sections: [], gain: Number.NaN })).toThrow(/gain/);
   });
