@@ -5,4 +5,4 @@
  * @module
  */
 export { opampRequirements, type OpampRequirementOptions, type StageOpampRequirement } from "./opamp.ts";
-export { monteCarlo, type MonteCarloOptions, type MonteCarloResult, type Spread } from "./tolerance.ts";
+export { monteCarlo, type MonteCarloOptions, type MonteCarloResult, type Spread, type ToleranceFractions } from "./tolerance.ts";

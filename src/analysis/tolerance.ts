@@ -54,6 +54,14 @@ export interface Spread {
   readonly max: number;
 }
 
+/** Part tolerances as fractions (0.01 for 1 %). */
+export interface ToleranceFractions {
+  /** Resistor tolerance. */
+  readonly resistor: number;
+  /** Capacitor tolerance. */
+  readonly capacitor: number;
+}
+
 /** Result of {@link monteCarlo}. */
 export interface MonteCarloResult {
   /** Boards simulated. */
@@ -63,7 +71,7 @@ export interface MonteCarloResult {
   /** Standard error of `yield`. */
   readonly yieldStandardError: number;
   /** Tolerances used, as fractions. */
-  readonly tolerances: { readonly resistor: number; readonly capacitor: number };
+  readonly tolerances: ToleranceFractions;
   /** Worst margin over the mask, dB. */
   readonly marginDb: Spread;
   /** Passband loss, dB. */

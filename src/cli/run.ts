@@ -11,7 +11,7 @@
  */
 import { describeValue, FilterwrightError, SpecError } from "../errors.ts";
 import { designFilter, type DesignResult, type FilterSpec } from "../design/index.ts";
-import { DESIGN_CAUTIONS, toBomCsv, toJson, toMarkdown, toSpiceNetlist } from "../report/index.ts";
+import { DESIGN_CAUTIONS, toBomCsv, toJson, toMarkdown, toSpiceNetlist, toSvgPlot } from "../report/index.ts";
 import { topologies } from "../topologies/index.ts";
 import { formatValue } from "../units/index.ts";
 import { SCENARIOS } from "./scenarios.ts";
@@ -59,7 +59,7 @@ spec options:
   --gbw HZ [--a0 GAIN]   real op-amp (single pole); default ideal
 
 output options:
-  --json FILE  --netlist FILE  --bom FILE  --markdown FILE
+  --json FILE  --netlist FILE  --bom FILE  --markdown FILE  --svg FILE (magnitude and mask)
   --quiet                 print only the verification line
 
 exit codes: 0 meets the spec, 1 does not meet it, 2 bad input, 3 internal error
@@ -92,6 +92,7 @@ const VALUE_OPTIONS = new Set([
   "netlist",
   "bom",
   "markdown",
+  "svg",
   "scenario",
 ]);
 
@@ -261,6 +262,7 @@ function writeOutputs(r: DesignResult, o: Map<string, string | true>, io: CliIo)
     ["netlist", (x) => toSpiceNetlist(x)],
     ["bom", toBomCsv],
     ["markdown", toMarkdown],
+    ["svg", (x) => toSvgPlot(x)],
   ];
   for (const [k, f] of targets) {
     const path = o.get(k);

@@ -20,6 +20,7 @@ export {
   type GainSpec,
   type PartsSpec,
   type OpAmpSpec,
+  type ValueWindow,
 } from "./spec.ts";
 export { designFilter, LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./pipeline.ts";
 export { responseSpanHz } from "./verify.ts";

@@ -5,6 +5,7 @@
  * @module
  */
 import type { OpAmpModel } from "../circuit/types.ts";
+import type { ComplexResponse } from "../tf/index.ts";
 import { InvalidArgumentError } from "../errors.ts";
 import { getTopology } from "../topologies/index.ts";
 import type { DesignResult } from "./types.ts";
@@ -47,7 +48,7 @@ export function designResponse(
   result: DesignResult,
   freqHz: Float64Array,
   options: DesignResponseOptions = {},
-): { readonly re: Float64Array; readonly im: Float64Array } {
+): ComplexResponse {
   if (!(freqHz instanceof Float64Array) || freqHz.some((f) => !(f >= 0) || !Number.isFinite(f))) {
     throw new InvalidArgumentError({
       fn: "designResponse",

@@ -178,6 +178,14 @@ export interface FilterSpec {
   readonly opamp?: "ideal" | OpAmpSpec;
 }
 
+/** An inclusive window of part values in SI units. */
+export interface ValueWindow {
+  /** Smallest value. */
+  readonly min: number;
+  /** Largest value. */
+  readonly max: number;
+}
+
 /** The canonical, validated form of a {@link FilterSpec}: every default filled in, every value a number in SI units. */
 export interface DesignSpec {
   /** What the filter passes. */
@@ -211,9 +219,9 @@ export interface DesignSpec {
   /** Resistor series. */
   readonly resistorSeries: SeriesName;
   /** Resistor window, ohms. */
-  readonly resistorRange: { readonly min: number; readonly max: number };
+  readonly resistorRange: ValueWindow;
   /** Capacitor window, farads. */
-  readonly capacitorRange: { readonly min: number; readonly max: number };
+  readonly capacitorRange: ValueWindow;
   /** Op-amp model for analysis. */
   readonly opamp: OpAmpModel;
 }

@@ -1,3 +1,6 @@
+import { readdirSync, readFileSync } from "node:fs";
+import { dirname, join } from "node:path";
+import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
 import { runCli, type CliIo } from "../../src/cli/run.ts";
 import { fromJson } from "../../src/report/index.ts";
@@ -38,12 +41,23 @@ describe("runCli", () => {
 
   it("writes the JSON, netlist, BOM and Markdown on request", () => {
     const io = fakeIo();
-    const code = runCli([...LP, "--json", "d.json", "--netlist", "d.cir", "--bom", "d.csv", "--markdown", "d.md"], io);
+    const code = runCli([...LP, "--json", "d.json", "--netlist", "d.cir", "--bom", "d.csv", "--markdown", "d.md", "--svg", "d.svg"], io);
     expect(code).toBe(0);
     expect(fromJson(io.files["d.json"] as string).verification.meetsSpec).toBe(true);
     expect(io.files["d.cir"]).toContain("Vin in 0 DC 0 AC 1");
     expect(io.files["d.csv"]?.startsWith("designators,part,value")).toBe(true);
     expect(io.files["d.md"]).toContain("## Cautions");
+    expect(io.files["d.svg"]?.startsWith("<svg")).toBe(true);
+  });
+
+  it("designs every example spec in examples/", () => {
+    const dir = join(dirname(fileURLToPath(import.meta.url)), "..", "..", "examples");
+    const files = readdirSync(dir).filter((f) => f.endsWith(".json"));
+    expect(files.length).toBeGreaterThanOrEqual(3);
+    for (const f of files) {
+      const io = fakeIo({ [f]: readFileSync(join(dir, f), "utf8") });
+      expect(runCli(["design", "--spec", f, "--quiet"], io), `${f}: ${io.err}`).toBe(0);
+    }
   });
 
   it("reads a spec file and lets options override it", () => {
