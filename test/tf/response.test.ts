@@ -144,17 +144,17 @@ describe("groupDelay = -d phase / dw (property)", () => {
 describe("extreme frequencies", () => {
   it("stays finite where section polynomials would overflow (w^2 beyond the double range)", () => {
     const h = zpk([], [{ re: -5e149, im: 5e149 }, { re: -5e149, im: -5e149 }], 5e299);
-    const w = Float64Array.of(0, 1e150, 1e160);
+    const w = Float64Array.of(0, 1e150, 1e155);
     const direct = frequencyResponse(h, w);
     const cascade = frequencyResponse(toSections(h), w);
-    // at 1e160 (w^2 overflows): H = 5e299 / ((j w + 5e149)^2 + 2.5e299) ~ -5e-21 (1 + 1e-10 j)
-    expectClose(direct.re[2]!, -5e-21, { rel: 1e-9 });
+    // at 1e155 (w^2 overflows): H = 5e299 / ((j w + 5e149)^2 + 2.5e299) ~ -5e-11 (1 + 1e-5 j)
+    expectClose(direct.re[2]!, -5e-11, { rel: 1e-9 });
     for (let k = 0; k < 3; k++) {
       expectClose(cascade.re[k]!, direct.re[k]!, { rel: 1e-13 });
       expectClose(cascade.im[k]!, direct.im[k]!, { rel: 1e-13, abs: 1e-300 });
     }
     const db = magnitudeDb(toSections(h), w);
-    expectClose(db[2]!, 20 * Math.log10(5e-21), { rel: 1e-9 });
+    expectClose(db[2]!, 20 * Math.log10(5e-11), { rel: 1e-9 });
   });
 });
 
