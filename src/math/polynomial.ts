@@ -6,7 +6,7 @@
  * numerical equations of all orders, by continuous approximation",
  * Phil. Trans. R. Soc. 109, 1819), backward stable with error bounded by
  * `2n u sum|a_k||x|^k` (N. J. Higham, "Accuracy and Stability of Numerical
- * Algorithms", 2nd ed., SIAM 2002, eq. 5.3). Products are direct convolution.
+ * Algorithms", 2nd ed., SIAM 2002, section 5.1). Products are direct convolution.
  *
  * @module
  */

@@ -15,14 +15,16 @@
  * technique for extending the available precision", Numer. Math. 18:224-242,
  * 1971), which polishes each root to full double precision unless the root is
  * ill conditioned beyond about 1e16 with respect to the coefficients. The
- * inclusion radius `n |p(z)/p'(z)|` (a disc that contains a root; P. Henrici,
- * "Applied and Computational Complex Analysis" vol. 1, Wiley 1974, thm 6.4g)
+ * inclusion radius `n |p(z)/p'(z)|` (the disc of that radius about z contains
+ * a root; a classical result, see P. Henrici, "Applied and Computational
+ * Complex Analysis" vol. 1, Wiley 1974, chapter 6)
  * decides which roots are real; the others are paired into exact conjugates.
  *
  * Accuracy: error about `u * cond(root)` with `u = 2^-53` relative to the
  * polynomial whose coefficients are exactly `coeffs` (plus `lowParts`), where
- * `cond` is measured as in Higham's "Accuracy and Stability of Numerical
- * Algorithms" 2nd ed., 2002, eq. 5.3; roughly 1e-16 relative for well
+ * `cond` is the usual root condition number `sum|a_k||z|^k / |z p'(z)|`
+ * (N. J. Higham, "Accuracy and Stability of Numerical Algorithms", 2nd ed.,
+ * SIAM 2002, section 5.1); roughly 1e-16 relative for well
  * separated roots. Exact coefficients that do not fit in one double (such as
  * the Bessel coefficients beyond order 10) can be passed as `coeffs + lowParts`.
  *

@@ -15,9 +15,11 @@
  *   `w -> 0+` lies in (-pi, pi]; it therefore does not depend on the grid.
  * - `groupDelay` is the exact derivative `tau(w) = -d phase/dw
  *   = sum_poles -Re p / ((w - Im p)^2 + Re p^2) - sum_zeros -Re z / ((w - Im z)^2 + Re z^2)`
- *   (A. V. Oppenheim and R. W. Schafer, "Discrete-Time Signal Processing",
- *   3rd ed., 2010, sec. 5.1.2, in its continuous-time form; zeros on the jw
- *   axis contribute 0 away from the zero itself).
+ *   (each term is the derivative of `atan2(w - Im r, -Re r)`; the
+ *   continuous-time counterpart of the pole/zero group-delay sum in
+ *   A. V. Oppenheim and R. W. Schafer, "Discrete-Time Signal Processing",
+ *   3rd ed., Pearson 2010, chapter 5; zeros on the jw axis contribute 0
+ *   away from the zero itself).
  *
  * @module
  */
