@@ -44,6 +44,7 @@ spec options:
   --response lowpass|highpass|bandpass|bandstop
   --pass F[,F2]          passband edge(s), e.g. 20k or 300,3.4k (Hz)
   --pass-loss DB         largest passband loss (dB)
+  --pass-top F           highpass/bandstop: check the passband up to F (default 100 x edge)
   --stop F[,F2]          stopband edge(s) (Hz)
   --stop-atten DB        smallest stopband attenuation (dB)
   --gain DB              passband gain in dB (default 0)
@@ -72,6 +73,7 @@ const VALUE_OPTIONS = new Set([
   "response",
   "pass",
   "pass-loss",
+  "pass-top",
   "stop",
   "stop-atten",
   "gain",
@@ -160,6 +162,7 @@ function specFromOptions(base: Record<string, unknown>, o: Map<string, string | 
   v("response", (x) => (spec["response"] = x));
   v("pass", (x) => (sub("passband")["edgeHz"] = edge(x)));
   v("pass-loss", (x) => (sub("passband")["maxLossDb"] = num(x)));
+  v("pass-top", (x) => (sub("passband")["topHz"] = num(x)));
   v("stop", (x) => (sub("stopband")["edgeHz"] = edge(x)));
   v("stop-atten", (x) => (sub("stopband")["minAttenuationDb"] = num(x)));
   v("gain", (x) => {

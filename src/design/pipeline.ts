@@ -225,7 +225,7 @@ export function designFilter(spec: unknown): DesignResult {
   const limit = s.family === "auto" ? AUTO_MAX_ORDER : MAX_SPEC_ORDER;
   const minOrder = fam.order ?? limit;
   let order = s.order ?? minOrder;
-  const lastOrder = s.order !== null ? s.order : Math.min(limit, minOrder + 3);
+  const lastOrder = s.order !== null ? s.order : Math.min(limit, minOrder + 2);
 
   let result: Attempt | null = null;
   let first: Attempt | null = null;
@@ -250,6 +250,17 @@ export function designFilter(spec: unknown): DesignResult {
       result = a;
       if (s.order !== null) break;
       actions.push({ code: "raised-order", message: `Order ${order} cannot meet the mask; raised the order to ${order + 1}.` });
+      continue;
+    }
+    // A miss of more than 1 dB is not a rounding problem: re-tuning and moving cannot cure it.
+    if (a.mask.marginDb < -1) {
+      result = a;
+      if (s.order !== null || order === lastOrder) break;
+      if (s.opamp.kind !== "ideal" && checkMask(s, built(a.plans, a.chosen), IDEAL).marginDb >= 0) break;
+      actions.push({
+        code: "raised-order",
+        message: `Order ${order} missed the mask by ${fmt(-a.mask.marginDb, 3)} dB, more than part rounding explains; raised the order to ${order + 1}.`,
+      });
       continue;
     }
     // 1. Re-tune the parts against the mask itself, with a wider search.
@@ -284,8 +295,11 @@ export function designFilter(spec: unknown): DesignResult {
       const stricter = MARGIN_LEVELS.filter(
         (l) => l.rippleFraction < current - 1e-12 || l.extraAttenuationDb > extra + 1e-12,
       ).reverse();
+      // At most three of them: the nearest, a middle one and the strictest.
+      const picks = stricter.length <= 3 ? stricter : [stricter[0], stricter[Math.floor(stricter.length / 2)], stricter[stricter.length - 1]];
       let done = false;
-      for (const level of stricter) {
+      for (const level of picks) {
+        if (level === undefined) continue;
         const p2 = designPrototype(s, family, order, level);
         if (!(intervalWidth(p2.interval) > 0)) continue;
         const t = retuneToMask(s, attempt(s, p2, 0.5, true));

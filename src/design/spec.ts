@@ -46,6 +46,12 @@ export interface PassbandSpec {
   readonly edgeHz: EdgeInput;
   /** Largest loss allowed anywhere in the passband, in dB, relative to the passband's highest level (> 0). */
   readonly maxLossDb: number;
+  /**
+   * Highpass and bandstop only: the highest frequency, Hz, up to which the
+   * upper passband is checked (every real op-amp ends a passband somewhere).
+   * @defaultValue 100 times the upper passband edge
+   */
+  readonly topHz?: Quantity;
 }
 
 /** The stopband of the spec. */
@@ -194,6 +200,8 @@ export interface DesignSpec {
   readonly passbandHz: readonly number[];
   /** Stopband edge(s) in Hz, ascending. */
   readonly stopbandHz: readonly number[];
+  /** Highest frequency of the upper passband that is checked (highpass, bandstop), Hz. */
+  readonly passbandTopHz: number | null;
   /** Largest passband loss, dB. */
   readonly maxLossDb: number;
   /** Smallest stopband attenuation, dB. */
@@ -394,7 +402,7 @@ export function validateSpec(spec: unknown): DesignSpec {
   if (!isObject(pb)) {
     r.add("passband", "expected an object { edgeHz, maxLossDb }", pb);
   } else {
-    r.unknownKeys(pb, ["edgeHz", "maxLossDb"], "passband.");
+    r.unknownKeys(pb, ["edgeHz", "maxLossDb", "topHz"], "passband.");
     passbandHz = r.edges("passband.edgeHz", pb["edgeHz"], edgeCount);
     maxLossDb = r.number("passband.maxLossDb", pb["maxLossDb"], { min: 0, max: 20, exclusiveMin: true }, "a loss in dB");
   }
@@ -438,6 +446,20 @@ export function validateSpec(spec: unknown): DesignSpec {
         `bandstop stopband edges must lie inside the passband edges (${p1} Hz, ${p2} Hz)`,
         [s1, s2],
       );
+    }
+  }
+
+  // Top of the checked passband.
+  let passbandTopHz: number | null = null;
+  if (isObject(pb) && pb["topHz"] !== undefined) {
+    if (response !== "highpass" && response !== "bandstop") {
+      r.add("passband.topHz", "only a highpass or bandstop passband has a top frequency", pb["topHz"]);
+    } else {
+      const top = r.quantity("passband.topHz", pb["topHz"], "Hz");
+      const upper = passbandHz?.[passbandHz.length - 1];
+      if (top !== undefined && upper !== undefined && !(top > upper)) {
+        r.add("passband.topHz", `must lie above the upper passband edge (${upper} Hz)`, pb["topHz"]);
+      } else if (top !== undefined) passbandTopHz = top;
     }
   }
 
@@ -593,6 +615,7 @@ export function validateSpec(spec: unknown): DesignSpec {
     response: response as ResponseType,
     passbandHz: Object.freeze([...(passbandHz as number[])]),
     stopbandHz: Object.freeze([...(stopbandHz as number[])]),
+    passbandTopHz,
     maxLossDb: maxLossDb as number,
     minAttenuationDb: minAttenuationDb as number,
     gain,
@@ -644,7 +667,11 @@ export function specToInput(spec: DesignSpec): FilterSpec {
     spec.opamp.kind === "ideal" ? "ideal" : { a0: spec.opamp.a0, gbwHz: spec.opamp.gbwHz };
   return {
     response: spec.response,
-    passband: { edgeHz: edge(spec.passbandHz), maxLossDb: spec.maxLossDb },
+    passband: {
+      edgeHz: edge(spec.passbandHz),
+      maxLossDb: spec.maxLossDb,
+      ...(spec.passbandTopHz === null ? {} : { topHz: spec.passbandTopHz }),
+    },
     stopband: { edgeHz: edge(spec.stopbandHz), minAttenuationDb: spec.minAttenuationDb },
     gain,
     family: spec.family,

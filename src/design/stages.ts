@@ -196,9 +196,26 @@ function realisableGain(t: Topology, info: SectionInfo, wish: number): number | 
   return null;
 }
 
-function score(t: Topology, info: SectionInfo, wish: number, got: number): number {
+/**
+ * Whether the topology sets its gain with a capacitor ratio (e.g. the
+ * multiple-feedback highpass, gain -C1/C3): such a gain can only take ratios
+ * of stock capacitors, so a non-unity gain rounds coarsely.
+ */
+function gainSetByCapacitor(t: Topology, info: SectionInfo, got: number): boolean {
+  const sign = t.inverting ? -1 : 1;
+  try {
+    const a = t.design(baseTarget(info, sign * got), { capacitor: 1e-8 });
+    const b = t.design(baseTarget(info, sign * got * 1.25), { capacitor: 1e-8 });
+    return Object.keys(a).some((k) => k.startsWith("C") && Math.abs((b[k] as number) / (a[k] as number) - 1) > 1e-9);
+  } catch {
+    return false;
+  }
+}
+
+function score(t: Topology, info: SectionInfo, wish: number, got: number, last: boolean): number {
   const q = info.q ?? 0.5;
   let s = t.opampCount;
+  if (Math.abs(got - 1) > 1e-9 && gainSetByCapacitor(t, info, got)) s += last ? 2 : 0.5;
   switch (classify(t)) {
     case "sk-unity":
       s += q > 1 ? 2 * (q - 1) : 0;
@@ -277,7 +294,7 @@ function assign(spec: DesignSpec, infos: readonly SectionInfo[], forced: readonl
       const got = realisableGain(t, info, wish);
       if (got === null) continue;
       // The last stage must carry the remaining gain exactly when it can.
-      const s = score(t, info, wish, got) + (last ? 4 * Math.abs(Math.log(got / wish)) : 0);
+      const s = score(t, info, wish, got, last) + (last ? 4 * Math.abs(Math.log(got / wish)) : 0);
       if (best === null || s < best.s) best = { t, got, s };
     }
     if (best === null) {

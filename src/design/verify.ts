@@ -78,8 +78,8 @@ export interface MaskBands {
 /**
  * The frequency intervals the mask constrains. Passbands and stopbands that
  * extend to DC or infinity are checked over three decades beyond their edge
- * (two decades for passbands above the top edge, where a real op-amp's
- * bandwidth ends every active filter's passband).
+ * (two decades, or up to the spec's `passband.topHz`, for passbands above the
+ * top edge, where a real op-amp's bandwidth ends every active filter's passband).
  *
  * @param spec - canonical spec
  * @returns the intervals in Hz
@@ -91,7 +91,7 @@ export function maskBands(spec: DesignSpec): MaskBands {
     case "lowpass":
       return { pass: [[p1 / 1000, p1]], stop: [[s1, s1 * 1000]], referenceHz: p1 / 1000 };
     case "highpass":
-      return { pass: [[p1, p1 * 100]], stop: [[s1 / 1000, s1]], referenceHz: p1 * 100 };
+      return { pass: [[p1, spec.passbandTopHz ?? p1 * 100]], stop: [[s1 / 1000, s1]], referenceHz: spec.passbandTopHz ?? p1 * 100 };
     case "bandpass":
       return {
         pass: [[p1, p2]],
@@ -105,7 +105,7 @@ export function maskBands(spec: DesignSpec): MaskBands {
       return {
         pass: [
           [p1 / 1000, p1],
-          [p2, p2 * 100],
+          [p2, spec.passbandTopHz ?? p2 * 100],
         ],
         stop: [[s1, s2]],
         referenceHz: p1 / 1000,

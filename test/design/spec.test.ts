@@ -106,6 +106,14 @@ describe("validateSpec", () => {
     ]);
   });
 
+  it("reads a highpass passband top and refuses it elsewhere", () => {
+    const hp = { response: "highpass", passband: { edgeHz: 1000, maxLossDb: 1, topHz: "20k" }, stopband: { edgeHz: 200, minAttenuationDb: 40 } };
+    expect(validateSpec(hp).passbandTopHz).toBe(20000);
+    expect(validateSpec(base).passbandTopHz).toBeNull();
+    expect(issuesOf({ ...base, passband: { ...base.passband, topHz: 5000 } }).map((i) => i.path)).toEqual(["passband.topHz"]);
+    expect(issuesOf({ ...hp, passband: { ...hp.passband, topHz: 500 } }).map((i) => i.path)).toEqual(["passband.topHz"]);
+  });
+
   it("rejects a non-object spec", () => {
     expect(issuesOf(42).map((i) => i.path)).toEqual([""]);
   });
