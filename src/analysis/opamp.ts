@@ -54,10 +54,11 @@ export interface StageOpampRequirement {
  * @param result - a design
  * @param options - the input amplitude
  * @returns one requirement per stage, in cascade order
- * @throws {@link InvalidArgumentError} when `inputPeakV` is not a positive number
+ * @throws `InvalidArgumentError` when `inputPeakV` is not a positive number
  * @example
  * ```ts
- * opampRequirements(designFilter(spec), { inputPeakV: 2 })[0].peakOutputV; //=> 2 (a unity-gain first stage)
+ * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
+ * opampRequirements(designFilter(spec), { inputPeakV: 2 })[0].peakOutputV; //=> 1.9890423627340301
  * ```
  */
 export function opampRequirements(result: DesignResult, options?: OpampRequirementOptions): StageOpampRequirement[] {

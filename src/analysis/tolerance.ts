@@ -109,10 +109,11 @@ function spread(xs: number[]): Spread {
  * @param result - a design
  * @param options - runs, seed and tolerances
  * @returns the yield and the spread of the mask figures
- * @throws {@link InvalidArgumentError} for a non-integer or out-of-range `runs`/`seed`, or a tolerance outside [0, 0.5]
+ * @throws `InvalidArgumentError` for a non-integer or out-of-range `runs`/`seed`, or a tolerance outside [0, 0.5]
  * @example
  * ```ts
- * monteCarlo(designFilter(spec), { runs: 500, capacitorTolerance: 0.01 }).yield; //=> 0.97 (for instance)
+ * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
+ * monteCarlo(designFilter(spec), { runs: 500, capacitorTolerance: 0.01 }).yield; //=> 0.99
  * ```
  */
 export function monteCarlo(result: DesignResult, options?: MonteCarloOptions): MonteCarloResult {

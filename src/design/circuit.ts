@@ -34,6 +34,7 @@ export interface DesignCircuitOptions {
  * @throws {@link InvalidArgumentError} when a stage names an unknown topology
  * @example
  * ```ts
+ * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
  * const c = designCircuit(designFilter(spec));
  * c.elements[0]; //=> { kind: "V", name: "Vin", a: "in", b: "0", ac: 1 }
  * ```

@@ -40,8 +40,9 @@ export function builtStages(result: DesignResult): BuiltStage[] {
  * @throws {@link InvalidArgumentError} when `freqHz` is not a Float64Array of finite non-negative numbers
  * @example
  * ```ts
+ * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
  * const h = designResponse(designFilter(spec), Float64Array.of(0));
- * h.re[0]; //=> 1 (the DC gain of a unity-gain lowpass, within rounding)
+ * h.re[0]; //=> 1.0006150902132314 (the as-built DC gain)
  * ```
  */
 export function designResponse(

@@ -41,7 +41,9 @@ export interface BomLine {
  * @throws never
  * @example
  * ```ts
- * bomLines(designFilter(spec))[0]; //=> { designators: ["R1", "R3"], part: "resistor", valueText: "10 kΩ", ... }
+ * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
+ * bomLines(designFilter(spec))[0];
+ * //=> { designators: ["R1"], part: "resistor", value: 8450, valueText: "8.45 kΩ", rkm: "8k45", series: "E96", tolerance: "1%", quantity: 1 }
  * ```
  */
 export function bomLines(result: DesignResult): BomLine[] {
@@ -98,6 +100,7 @@ function csvField(x: string): string {
  * @throws never
  * @example
  * ```ts
+ * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
  * toBomCsv(designFilter(spec)).split("\r\n")[0];
  * //=> "designators,part,value,rkm,series,tolerance,quantity"
  * ```

@@ -25,6 +25,7 @@ export const DESIGN_FORMAT_VERSION = 1;
  * @throws never
  * @example
  * ```ts
+ * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
  * JSON.parse(toJson(designFilter(spec))).formatVersion; //=> 1
  * ```
  */
@@ -107,6 +108,7 @@ function deepFreeze<T>(x: T): T {
  *   missing or malformed field (the error's `path` names it)
  * @example
  * ```ts
+ * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
  * const r = designFilter(spec);
  * fromJson(toJson(r)).stages.length === r.stages.length; //=> true
  * ```

@@ -33,7 +33,8 @@ function edges(e: readonly number[]): string {
  * @throws never
  * @example
  * ```ts
- * toMarkdown(designFilter(spec)).split("\n")[0]; //=> "# Lowpass filter: butterworth, 4 poles"
+ * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
+ * toMarkdown(designFilter(spec)).split("\n")[0]; //=> "# Lowpass filter: legendre, 4 poles"
  * ```
  */
 export function toMarkdown(result: DesignResult): string {

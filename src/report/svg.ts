@@ -43,6 +43,7 @@ const r1 = (x: number): string => (Math.round(x * 10) / 10).toString();
  * @throws never
  * @example
  * ```ts
+ * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
  * toSvgPlot(designFilter(spec)).startsWith("<svg"); //=> true
  * ```
  */
