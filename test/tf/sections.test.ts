@@ -6,6 +6,7 @@ import type { Complex } from "../../src/math/complex.ts";
 import type { SecondOrderSection, Zpk } from "../../src/tf/types.ts";
 import { InvalidArgumentError } from "../../src/errors.ts";
 import { expectClose } from "../helpers/tolerance.ts";
+import { complexList, loadFixture } from "../helpers/fixtures.ts";
 
 /** Match every expected value to the nearest unused actual value (order-free comparison). */
 function expectSameSet(actual: readonly Complex[], expected: readonly Complex[], rel: number, label: string): void {
@@ -170,4 +171,44 @@ describe("zpk -> sections -> zpk (property)", () => {
       { numRuns: 200 },
     );
   });
+});
+
+interface SosCase {
+  name: string;
+  zeros: [number, number][];
+  poles: [number, number][];
+  gain: number;
+  sos: number[][];
+}
+const sosFixture = loadFixture<{ cases: SosCase[] }>("tf-sections.json");
+
+describe("toSections vs scipy.signal.zpk2sos(analog=True, pairing='minimal')", () => {
+  for (const c of sosFixture.cases) {
+    it(`${c.name}: same denominators, same jw-axis zero assigned to each`, () => {
+      const h: Zpk = { zeros: complexList(c.zeros), poles: complexList(c.poles), gain: c.gain };
+      const ours = toSections(h).sections;
+      expect(ours.length).toBe(c.sos.length);
+      const used = new Set<number>();
+      for (const row of c.sos) {
+        const [b2, b1, b0, a2, a1, a0] = row as [number, number, number, number, number, number];
+        // scipy stores a first-order section as [0, 0, b0, 0, 1, a0]
+        const den = a2 === 0 ? [0, a1, a0] : [1, a1 / a2, a0 / a2];
+        const idx = ours.findIndex(
+          (s, i) => !used.has(i) && Math.abs(s.den[1] - den[1]!) <= 1e-12 * Math.abs(den[1]!) && Math.abs(s.den[2] - den[2]!) <= 1e-12 * Math.abs(den[2]!),
+        );
+        expect(idx, `no section with denominator ${den.join(", ")}`).toBeGreaterThanOrEqual(0);
+        used.add(idx);
+        const s = ours[idx]!;
+        if (b2 !== 0 && b1 === 0 && b0 > 0) {
+          // a jw-axis zero pair: the same one must be paired with this pole pair
+          expect(s.kind).toBe("notch");
+          expectClose((s as SecondOrderSection).wz ?? 0, Math.sqrt(b0 / b2), { rel: 1e-12 });
+        }
+      }
+      // zeros at the origin: the same total (we spread them one per section where scipy stacks them)
+      const originOurs = ours.reduce((n, s) => n + (s.kind === "highpass" ? s.order : s.kind === "bandpass" ? 1 : 0), 0);
+      const originScipy = c.zeros.filter(([re, im]) => re === 0 && im === 0).length;
+      expect(originOurs).toBe(originScipy);
+    });
+  }
 });
