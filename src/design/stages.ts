@@ -203,13 +203,22 @@ function realisableGain(t: Topology, info: SectionInfo, wish: number): number | 
  */
 function gainSetByCapacitor(t: Topology, info: SectionInfo, got: number): boolean {
   const sign = t.inverting ? -1 : 1;
-  try {
-    const a = t.design(baseTarget(info, sign * got), { capacitor: 1e-8 });
-    const b = t.design(baseTarget(info, sign * got * 1.25), { capacitor: 1e-8 });
-    return Object.keys(a).some((k) => k.startsWith("C") && Math.abs((b[k] as number) / (a[k] as number) - 1) > 1e-9);
-  } catch {
-    return false;
+  const q = info.q ?? 0.5;
+  // Hold the capacitor ratio fixed where the topology takes one (a ratio large
+  // enough for any lowpass constraint), so only a gain-set capacitor moves.
+  const held = 16 * (1 + 4 * q * q * (1 + 1.25 * got));
+  for (const choices of [{ capacitor: 1e-8, capacitorRatio: held }, { capacitor: 1e-8 }]) {
+    try {
+      if (t.check(baseTarget(info, sign * got), choices) !== null) continue;
+      if (t.check(baseTarget(info, sign * got * 1.25), choices) !== null) continue;
+      const a = t.design(baseTarget(info, sign * got), choices);
+      const b = t.design(baseTarget(info, sign * got * 1.25), choices);
+      return Object.keys(a).some((k) => k.startsWith("C") && Math.abs((b[k] as number) / (a[k] as number) - 1) > 1e-9);
+    } catch {
+      // try the next probe
+    }
   }
+  return false;
 }
 
 function score(t: Topology, info: SectionInfo, wish: number, got: number, last: boolean): number {
