@@ -20,6 +20,7 @@ import { toSections } from "../tf/index.ts";
 import type { SectionCascade } from "../tf/types.ts";
 import type { FamilyName } from "../approx/index.ts";
 import type { ComponentValues } from "../topologies/types.ts";
+import { getTopology } from "../topologies/index.ts";
 import { validateSpec, MAX_SPEC_ORDER, type DesignSpec } from "./spec.ts";
 import { AUTO_MAX_ORDER, chooseFamily, choosePrototype, MARGIN_LEVELS, designPrototype, type PrototypeDesign } from "./family.ts";
 import { intervalWidth, placeInInterval, transformPrototype } from "./placement.ts";
@@ -81,7 +82,23 @@ function attempt(spec: DesignSpec, proto: PrototypeDesign, position: number, wid
       ]);
     }
     forced = [...spec.stageTopologies];
-  } else forced = infos.map(() => spec.topology);
+  } else if (spec.topology === "auto") {
+    forced = infos.map(() => "auto");
+  } else {
+    // One named topology for the whole filter: used wherever it fits (kind and
+    // order); the other stages (a first-order section, say) are chosen automatically.
+    const t = getTopology(spec.topology);
+    forced = infos.map((info) => (t.order === info.order && t.kinds.includes(info.kind) ? t.id : "auto"));
+    if (!forced.includes(t.id)) {
+      throw new SpecError("designFilter", [
+        {
+          path: "topology",
+          message: `topology "${t.id}" realises ${t.kinds.join("/")} stages of order ${t.order}, and this design has none (its stages are ${infos.map((i) => `${i.kind} order ${i.order}`).join(", ")})`,
+          received: spec.topology,
+        },
+      ]);
+    }
+  }
   const { plans, polarityOk } = planStages(spec, infos, { forced });
   // Tune stage by stage; a stage with a free gain absorbs the gain error the stages before it left.
   const tuned: TunedStage[] = [];

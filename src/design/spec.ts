@@ -167,8 +167,9 @@ export interface FilterSpec {
    */
   readonly order?: number;
   /**
-   * Topology: `"auto"`, one topology id for every stage, or one entry per stage
-   * (each an id or `"auto"`).
+   * Topology: `"auto"`; one topology id, used for every stage it can build
+   * (the others are chosen automatically); or one entry per stage (each an id
+   * or `"auto"`), which must fit its stage.
    * @defaultValue `"auto"`
    */
   readonly topology?: string | readonly string[];

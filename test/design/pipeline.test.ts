@@ -130,6 +130,13 @@ describe("designFilter outcomes", () => {
     ).toThrow(SpecError);
   });
 
+  it("uses one named topology wherever it fits and refuses one that fits nowhere", () => {
+    const r = designFilter({ ...lp, stopband: { edgeHz: 4000, minAttenuationDb: 40 }, family: "butterworth", order: 5, topology: "mfb-lowpass" });
+    expect(r.stages.slice(1).map((s) => s.topology)).toEqual(["mfb-lowpass", "mfb-lowpass"]);
+    expect(r.stages[0]?.order).toBe(1);
+    expect(() => designFilter({ ...lp, topology: "sallen-key-highpass-unity" })).toThrow(SpecError);
+  });
+
   it("honours a per-stage topology list and the requested polarity", () => {
     const r = designFilter({
       ...lp,
