@@ -214,7 +214,7 @@ export function formatSummary(r: DesignResult): string {
     `${r.family} ${r.spec.response}, ${r.filterOrder} poles in ${r.stages.length} stage${r.stages.length === 1 ? "" : "s"} (prototype order ${r.order}, minimum ${r.minimumOrder})`,
   );
   out.push(`why: ${r.familyChoice.reason}`, "");
-  const rows: string[][] = [["stage", "topology", "kind", "f0 target", "f0 built", "Q target", "Q built", "gain", "peak to here", "parts"]];
+  const rows: string[][] = [["stage", "topology", "kind", "f0 target", "f0 built", "Q target", "Q built", "gain", "peak to here", "GBW need", "parts"]];
   for (const s of r.stages) {
     rows.push([
       String(s.index),
@@ -226,6 +226,7 @@ export function formatSummary(r: DesignResult): string {
       s.asBuilt.q === undefined ? "-" : p4(s.asBuilt.q),
       p4(s.asBuilt.gain),
       `${(20 * Math.log10(s.peakGain)).toFixed(2)} dB`,
+      hz(s.gbwDemandHz),
       Object.entries(s.components)
         .map(([k, x]) => `${k}=${formatValue(x, { digits: 3, unit: k.startsWith("C") ? "F" : "Ω", space: false })}`)
         .join(" "),
