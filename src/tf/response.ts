@@ -61,60 +61,157 @@ function polesOf(system: Zpk | SectionCascade): readonly Complex[] {
   return isCascade(system) ? fromSectionsUnchecked(system).poles : system.poles;
 }
 
-/** Zpk response core (no checks). */
-export function zpkResponseUnchecked(system: Zpk, w: Float64Array): ComplexResponse {
-  const nz = system.zeros.length;
-  const np = system.poles.length;
-  const n = w.length;
-  const outRe = new Float64Array(n).fill(system.gain);
-  const outIm = new Float64Array(n);
-  // Factor by factor over the whole grid (tight monomorphic loops); zeros and
-  // poles alternate so that intermediate values stay near the final magnitude.
-  const m = Math.max(nz, np);
-  for (let i = 0; i < m; i++) {
-    const z = i < nz ? system.zeros[i] : undefined;
-    if (z !== undefined) {
-      const ar = -z.re;
-      const zi = z.im;
-      for (let k = 0; k < n; k++) {
-        const ai = (w[k] as number) - zi;
-        const re = outRe[k] as number;
-        const im = outIm[k] as number;
-        outRe[k] = re * ar - im * ai;
-        outIm[k] = re * ai + im * ar;
+/** One factor of the response: a root r = -a + j b, or the exact conjugate pair r, conj(r) (then b >= 0). */
+interface Factor {
+  readonly a: number;
+  readonly b: number;
+  readonly pair: boolean;
+}
+
+/** Group exact conjugate pairs (equal real parts, opposite imaginary parts) into one factor each. */
+function factorPlan(roots: readonly Complex[]): Factor[] {
+  const used = new Uint8Array(roots.length);
+  const out: Factor[] = [];
+  for (let i = 0; i < roots.length; i++) {
+    if (used[i] === 1) continue;
+    used[i] = 1;
+    const r = roots[i] as Complex;
+    if (r.im !== 0) {
+      let j = i + 1;
+      while (j < roots.length && !(used[j] === 0 && (roots[j] as Complex).re === r.re && (roots[j] as Complex).im === -r.im)) j++;
+      if (j < roots.length) {
+        used[j] = 1;
+        out.push({ a: -r.re, b: Math.abs(r.im), pair: true });
+        continue;
       }
     }
-    const p = i < np ? system.poles[i] : undefined;
-    if (p !== undefined) {
-      const br = -p.re;
-      const pi = p.im;
-      const br2 = br * br;
-      for (let k = 0; k < n; k++) {
-        // divide by (br + j bi): multiply by the conjugate, scale by 1/|.|^2
-        const bi = (w[k] as number) - pi;
-        const m = br2 + bi * bi;
-        const re = outRe[k] as number;
-        const im = outIm[k] as number;
-        if (m > 1e-290 && m < 1e290) {
-          const inv = 1 / m;
-          outRe[k] = (re * br + im * bi) * inv;
-          outIm[k] = (im * br - re * bi) * inv;
-        } else if (Math.abs(br) >= Math.abs(bi)) {
-          // Smith's division where |.|^2 would overflow or underflow
+    out.push({ a: -r.re, b: r.im, pair: false });
+  }
+  return out;
+}
+
+/**
+ * Multiply (sign = 1) or divide (sign = -1) the running values by one factor
+ * over the whole grid. A conjugate pair is applied as the product
+ * `(a + j(w - b))(a + j(w + b)) = a^2 - (w - b)(w + b) + j 2 a w`, whose real
+ * part is formed from the exactly rounded differences `w - b`, `w + b`, so it
+ * keeps a relative error of a few ulps even where it nearly cancels.
+ */
+function applyFactor(f: Factor, sign: 1 | -1, w: Float64Array, outRe: Float64Array, outIm: Float64Array): void {
+  const n = w.length;
+  const a = f.a;
+  const b = f.b;
+  const a2 = a * a;
+  for (let k = 0; k < n; k++) {
+    const wk = w[k] as number;
+    let fr: number;
+    let fi: number;
+    if (f.pair) {
+      fr = a2 - (wk - b) * (wk + b);
+      fi = 2 * a * wk;
+    } else {
+      fr = a;
+      fi = wk - b;
+    }
+    const re = outRe[k] as number;
+    const im = outIm[k] as number;
+    if (sign === 1) {
+      outRe[k] = re * fr - im * fi;
+      outIm[k] = re * fi + im * fr;
+      continue;
+    }
+    const m = fr * fr + fi * fi;
+    if (m > 1e-290 && m < 1e290) {
+      const inv = 1 / m;
+      outRe[k] = (re * fr + im * fi) * inv;
+      outIm[k] = (im * fr - re * fi) * inv;
+    } else {
+      // |factor|^2 out of range: divide by the single factors with Smith's algorithm
+      let vr = re;
+      let vi = im;
+      for (const bb of f.pair ? [b, -b] : [b]) {
+        const br = a;
+        const bi = wk - bb;
+        if (Math.abs(br) >= Math.abs(bi)) {
           const r = bi / br;
           const d = br + bi * r;
-          outRe[k] = (re + im * r) / d;
-          outIm[k] = (im - re * r) / d;
+          const t = (vr + vi * r) / d;
+          vi = (vi - vr * r) / d;
+          vr = t;
         } else {
           const r = br / bi;
           const d = br * r + bi;
-          outRe[k] = (re * r + im) / d;
-          outIm[k] = (im * r - re) / d;
+          const t = (vr * r + vi) / d;
+          vi = (vi * r - vr) / d;
+          vr = t;
         }
+      }
+      outRe[k] = vr;
+      outIm[k] = vi;
+    }
+  }
+}
+
+/** Zpk response core (no checks). */
+export function zpkResponseUnchecked(system: Zpk, w: Float64Array): ComplexResponse {
+  const n = w.length;
+  const outRe = new Float64Array(n).fill(system.gain);
+  const outIm = new Float64Array(n);
+  const zf = factorPlan(system.zeros);
+  const pf = factorPlan(system.poles);
+  // Factor by factor over the whole grid (tight loops); zeros and poles
+  // alternate so that intermediate values stay near the final magnitude.
+  const m = Math.max(zf.length, pf.length);
+  for (let i = 0; i < m; i++) {
+    const z = zf[i];
+    if (z !== undefined) applyFactor(z, 1, w, outRe, outIm);
+    const p = pf[i];
+    if (p !== undefined) applyFactor(p, -1, w, outRe, outIm);
+  }
+  // a pair product can overflow where single factors would not (|w| beyond ~1e150): redo those points one root at a time
+  for (let k = 0; k < n; k++) {
+    if (Number.isFinite(outRe[k] as number) && Number.isFinite(outIm[k] as number)) continue;
+    const v = zpkPointSingle(system, w[k] as number);
+    outRe[k] = v.re;
+    outIm[k] = v.im;
+  }
+  return { re: outRe, im: outIm };
+}
+
+/** H(jw) at one point, one root at a time with Smith's division (slow, overflow-safe path). */
+function zpkPointSingle(system: Zpk, w: number): Complex {
+  let re = system.gain;
+  let im = 0;
+  const m = Math.max(system.zeros.length, system.poles.length);
+  for (let i = 0; i < m; i++) {
+    const z = system.zeros[i];
+    if (z !== undefined) {
+      const ar = -z.re;
+      const ai = w - z.im;
+      const t = re * ar - im * ai;
+      im = re * ai + im * ar;
+      re = t;
+    }
+    const p = system.poles[i];
+    if (p !== undefined) {
+      const br = -p.re;
+      const bi = w - p.im;
+      if (Math.abs(br) >= Math.abs(bi)) {
+        const r = bi / br;
+        const d = br + bi * r;
+        const t = (re + im * r) / d;
+        im = (im - re * r) / d;
+        re = t;
+      } else {
+        const r = br / bi;
+        const d = br * r + bi;
+        const t = (re * r + im) / d;
+        im = (im * r - re) / d;
+        re = t;
       }
     }
   }
-  return { re: outRe, im: outIm };
+  return { re, im };
 }
 
 /** Cascade response core (no checks). */
