@@ -4,8 +4,11 @@
  *
  * - `frequencyResponse` multiplies the factors `(jw - z_i)` and divides by
  *   `(jw - p_i)` alternately (no polynomial expansion, so no coefficient
- *   cancellation and no overflow for high orders); a cascade is evaluated
- *   section by section. Relative error a few units of 2^-53 per factor.
+ *   cancellation and no overflow for high orders); an exact conjugate pair is
+ *   applied as one quadratic factor built from the rounded differences
+ *   `w - Im r` and `w + Im r`, which keeps the same accuracy. A cascade is
+ *   evaluated section by section. Relative error a few units of 2^-53 per
+ *   factor (worst 1.6e-15 against scipy.signal.freqs_zpk in the fixtures).
  * - `magnitudeDb` sums `20 log10 |factor|` terms.
  * - `phase` sums the continuous arguments of the factors, so it is unwrapped
  *   analytically rather than by detecting jumps: `arg(jw - r) = atan2(w - Im r, -Re r)`
