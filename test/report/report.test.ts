@@ -56,6 +56,21 @@ describe("toJson / fromJson", () => {
     expect(JSON.parse(toJson(result)).formatVersion).toBe(1);
   });
 
+  it("round-trips designs with every optional spec field", () => {
+    const hp = designFilter({
+      response: "highpass",
+      passband: { edgeHz: 300, maxLossDb: 1, topHz: "20k" },
+      stopband: { edgeHz: 80, minAttenuationDb: 40 },
+      family: "butterworth",
+      order: 4,
+      topology: ["sallen-key-highpass-unity", "mfb-highpass"],
+      gain: { vPerV: -2, toleranceDb: 0.5 },
+      parts: { resistorSeries: "E24", capacitorSeries: "E6", resistorMinOhm: "2k", resistorMaxOhm: "200k" },
+      opamp: { a0: 1e5, gbwHz: "5M" },
+    });
+    expect(fromJson(toJson(hp))).toEqual(hp);
+  });
+
   it("refuses other versions, bad JSON and malformed stages with the path", () => {
     const data = JSON.parse(toJson(result));
     expect(() => fromJson(JSON.stringify({ ...data, formatVersion: 99 }))).toThrow(ParseError);
