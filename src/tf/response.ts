@@ -2,9 +2,10 @@
  * Frequency response, magnitude, phase and group delay of an analog transfer
  * function on the jw axis, all computed from the factored form.
  *
- * - `frequencyResponse` multiplies the factors `(jw - z_i)` and divides by
- *   `(jw - p_i)` alternately (no polynomial expansion, so no coefficient
- *   cancellation and no overflow for high orders); an exact conjugate pair is
+ * - `frequencyResponse` forms the products of the factors `(jw - z_i)` and
+ *   `(jw - p_i)` point by point and divides once (no polynomial expansion, so
+ *   no coefficient cancellation; points where a product would leave the
+ *   floating-point range are redone one root at a time); an exact conjugate pair is
  *   applied as one quadratic factor built from the rounded differences
  *   `w - Im r` and `w + Im r`, which keeps the same accuracy. A cascade is
  *   evaluated section by section. Relative error a few units of 2^-53 per
@@ -93,88 +94,104 @@ function factorPlan(roots: readonly Complex[]): Factor[] {
   return out;
 }
 
-/**
- * Multiply (sign = 1) or divide (sign = -1) the running values by one factor
- * over the whole grid. A conjugate pair is applied as the product
- * `(a + j(w - b))(a + j(w + b)) = a^2 - (w - b)(w + b) + j 2 a w`, whose real
- * part is formed from the exactly rounded differences `w - b`, `w + b`, so it
- * keeps a relative error of a few ulps even where it nearly cancels.
- */
-function applyFactor(f: Factor, sign: 1 | -1, w: Float64Array, outRe: Float64Array, outIm: Float64Array): void {
-  const n = w.length;
-  const a = f.a;
-  const b = f.b;
-  const a2 = a * a;
-  for (let k = 0; k < n; k++) {
-    const wk = w[k] as number;
-    let fr: number;
-    let fi: number;
-    if (f.pair) {
-      fr = a2 - (wk - b) * (wk + b);
-      fi = 2 * a * wk;
-    } else {
-      fr = a;
-      fi = wk - b;
-    }
-    const re = outRe[k] as number;
-    const im = outIm[k] as number;
-    if (sign === 1) {
-      outRe[k] = re * fr - im * fi;
-      outIm[k] = re * fi + im * fr;
-      continue;
-    }
-    const m = fr * fr + fi * fi;
-    if (m > 1e-290 && m < 1e290) {
-      const inv = 1 / m;
-      outRe[k] = (re * fr + im * fi) * inv;
-      outIm[k] = (im * fr - re * fi) * inv;
-    } else {
-      // |factor|^2 out of range: divide by the single factors with Smith's algorithm
-      let vr = re;
-      let vi = im;
-      for (const bb of f.pair ? [b, -b] : [b]) {
-        const br = a;
-        const bi = wk - bb;
-        if (Math.abs(br) >= Math.abs(bi)) {
-          const r = bi / br;
-          const d = br + bi * r;
-          const t = (vr + vi * r) / d;
-          vi = (vi - vr * r) / d;
-          vr = t;
-        } else {
-          const r = br / bi;
-          const d = br * r + bi;
-          const t = (vr * r + vi) / d;
-          vi = (vi * r - vr) / d;
-          vr = t;
-        }
-      }
-      outRe[k] = vr;
-      outIm[k] = vi;
-    }
-  }
+/** Factors packed into typed arrays for the point-by-point loop. */
+interface PackedFactors {
+  /** `a` of each conjugate pair. */
+  readonly pairA: Float64Array;
+  /** `b` of each conjugate pair (>= 0). */
+  readonly pairB: Float64Array;
+  /** `a` of each single root. */
+  readonly singleA: Float64Array;
+  /** `b` of each single root. */
+  readonly singleB: Float64Array;
+}
+
+function pack(factors: readonly Factor[]): PackedFactors {
+  const pairs = factors.filter((f) => f.pair);
+  const singles = factors.filter((f) => !f.pair);
+  return {
+    pairA: Float64Array.from(pairs, (f) => f.a),
+    pairB: Float64Array.from(pairs, (f) => f.b),
+    singleA: Float64Array.from(singles, (f) => f.a),
+    singleB: Float64Array.from(singles, (f) => f.b),
+  };
 }
 
 /** Zpk response core (no checks). */
 export function zpkResponseUnchecked(system: Zpk, w: Float64Array): ComplexResponse {
   const n = w.length;
-  const outRe = new Float64Array(n).fill(system.gain);
+  const outRe = new Float64Array(n);
   const outIm = new Float64Array(n);
-  const zf = factorPlan(system.zeros);
-  const pf = factorPlan(system.poles);
-  // Factor by factor over the whole grid (tight loops); zeros and poles
-  // alternate so that intermediate values stay near the final magnitude.
-  const m = Math.max(zf.length, pf.length);
-  for (let i = 0; i < m; i++) {
-    const z = zf[i];
-    if (z !== undefined) applyFactor(z, 1, w, outRe, outIm);
-    const p = pf[i];
-    if (p !== undefined) applyFactor(p, -1, w, outRe, outIm);
-  }
-  // a pair product can overflow where single factors would not (|w| beyond ~1e150): redo those points one root at a time
+  const zf = pack(factorPlan(system.zeros));
+  const pf = pack(factorPlan(system.poles));
+  const k0 = system.gain;
+  // Point by point: numerator and denominator products accumulate separately
+  // and meet in one division. A conjugate pair is the quadratic
+  // `(a + j(w - b))(a + j(w + b)) = a^2 - (w - b)(w + b) + j 2 a w`, formed from
+  // the exactly rounded differences `w - b`, `w + b`, so it keeps a relative
+  // error of a few ulps even where it nearly cancels. Where either product
+  // leaves the comfortable range (large |w| at high order, or a point on an
+  // exact transmission zero), the point is redone one root at a time with
+  // Smith's division, interleaving zeros and poles so that nothing overflows.
+  const zpA = zf.pairA;
+  const zpB = zf.pairB;
+  const zsA = zf.singleA;
+  const zsB = zf.singleB;
+  const ppA = pf.pairA;
+  const ppB = pf.pairB;
+  const psA = pf.singleA;
+  const psB = pf.singleB;
   for (let k = 0; k < n; k++) {
-    if (Number.isFinite(outRe[k] as number) && Number.isFinite(outIm[k] as number)) continue;
-    const v = zpkPointSingle(system, w[k] as number);
+    const wk = w[k] as number;
+    let nr = 1;
+    let ni = 0;
+    for (let i = 0; i < zpA.length; i++) {
+      const a = zpA[i] as number;
+      const b = zpB[i] as number;
+      const fr = a * a - (wk - b) * (wk + b);
+      const fi = 2 * a * wk;
+      const t = nr * fr - ni * fi;
+      ni = nr * fi + ni * fr;
+      nr = t;
+    }
+    for (let i = 0; i < zsA.length; i++) {
+      const fr = zsA[i] as number;
+      const fi = wk - (zsB[i] as number);
+      const t = nr * fr - ni * fi;
+      ni = nr * fi + ni * fr;
+      nr = t;
+    }
+    let dr = 1;
+    let di = 0;
+    for (let i = 0; i < ppA.length; i++) {
+      const a = ppA[i] as number;
+      const b = ppB[i] as number;
+      const fr = a * a - (wk - b) * (wk + b);
+      const fi = 2 * a * wk;
+      const t = dr * fr - di * fi;
+      di = dr * fi + di * fr;
+      dr = t;
+    }
+    for (let i = 0; i < psA.length; i++) {
+      const fr = psA[i] as number;
+      const fi = wk - (psB[i] as number);
+      const t = dr * fr - di * fi;
+      di = dr * fi + di * fr;
+      dr = t;
+    }
+    const nm = nr * nr + ni * ni;
+    const dm = dr * dr + di * di;
+    if (nm > 1e-280 && nm < 1e280 && dm > 1e-280 && dm < 1e280) {
+      const inv = k0 / dm;
+      const re = (nr * dr + ni * di) * inv;
+      const im = (ni * dr - nr * di) * inv;
+      if (Number.isFinite(re) && Number.isFinite(im)) {
+        outRe[k] = re;
+        outIm[k] = im;
+        continue;
+      }
+    }
+    const v = zpkPointSingle(system, wk);
     outRe[k] = v.re;
     outIm[k] = v.im;
   }
