@@ -158,6 +158,22 @@ describe("extreme frequencies", () => {
   });
 });
 
+describe("frequencyResponse far above a high-order filter's band", () => {
+  it("matches |H| = w^-n where the pole product overflows (the one-root-at-a-time path)", () => {
+    // 30 poles on the unit circle (Butterworth angles), gain 1: |H(jw)| -> w^-30 for w >> 1
+    const poles = Array.from({ length: 30 }, (_, k) => {
+      const th = (Math.PI * (2 * k + 31)) / 60;
+      return { re: Math.cos(th), im: Math.sin(th) };
+    });
+    for (let k = 0; k < 15; k++) poles[29 - k] = { re: poles[k]!.re, im: -poles[k]!.im };
+    const h = zpk([], poles, 1);
+    const w = Float64Array.of(1e6, 1e10);
+    const r = frequencyResponse(h, w);
+    expectClose(Math.hypot(r.re[0]!, r.im[0]!), 1e-180, { rel: 1e-12 });
+    expectClose(Math.hypot(r.re[1]!, r.im[1]!), 1e-300, { rel: 1e-12 });
+  });
+});
+
 describe("response argument validation", () => {
   const h = zpk([], [{ re: -1, im: 0 }], 1);
   it("rejects bad grids and systems with typed errors", () => {
