@@ -117,6 +117,34 @@ function pack(factors: readonly Factor[]): PackedFactors {
   };
 }
 
+/** Scratch pair written by {@link productAt} (avoids an allocation per point). */
+const acc = new Float64Array(2);
+
+/** prod over the packed factors of `(jw - r)` at one frequency, written into `acc`. */
+function productAt(f: PackedFactors, wk: number): void {
+  let re = 1;
+  let im = 0;
+  const { pairA, pairB, singleA, singleB } = f;
+  for (let i = 0; i < pairA.length; i++) {
+    const a = pairA[i] as number;
+    const b = pairB[i] as number;
+    const fr = a * a - (wk - b) * (wk + b);
+    const fi = 2 * a * wk;
+    const t = re * fr - im * fi;
+    im = re * fi + im * fr;
+    re = t;
+  }
+  for (let i = 0; i < singleA.length; i++) {
+    const fr = singleA[i] as number;
+    const fi = wk - (singleB[i] as number);
+    const t = re * fr - im * fi;
+    im = re * fi + im * fr;
+    re = t;
+  }
+  acc[0] = re;
+  acc[1] = im;
+}
+
 /** Zpk response core (no checks). */
 export function zpkResponseUnchecked(system: Zpk, w: Float64Array): ComplexResponse {
   const n = w.length;
@@ -133,52 +161,14 @@ export function zpkResponseUnchecked(system: Zpk, w: Float64Array): ComplexRespo
   // leaves the comfortable range (large |w| at high order, or a point on an
   // exact transmission zero), the point is redone one root at a time with
   // Smith's division, interleaving zeros and poles so that nothing overflows.
-  const zpA = zf.pairA;
-  const zpB = zf.pairB;
-  const zsA = zf.singleA;
-  const zsB = zf.singleB;
-  const ppA = pf.pairA;
-  const ppB = pf.pairB;
-  const psA = pf.singleA;
-  const psB = pf.singleB;
   for (let k = 0; k < n; k++) {
     const wk = w[k] as number;
-    let nr = 1;
-    let ni = 0;
-    for (let i = 0; i < zpA.length; i++) {
-      const a = zpA[i] as number;
-      const b = zpB[i] as number;
-      const fr = a * a - (wk - b) * (wk + b);
-      const fi = 2 * a * wk;
-      const t = nr * fr - ni * fi;
-      ni = nr * fi + ni * fr;
-      nr = t;
-    }
-    for (let i = 0; i < zsA.length; i++) {
-      const fr = zsA[i] as number;
-      const fi = wk - (zsB[i] as number);
-      const t = nr * fr - ni * fi;
-      ni = nr * fi + ni * fr;
-      nr = t;
-    }
-    let dr = 1;
-    let di = 0;
-    for (let i = 0; i < ppA.length; i++) {
-      const a = ppA[i] as number;
-      const b = ppB[i] as number;
-      const fr = a * a - (wk - b) * (wk + b);
-      const fi = 2 * a * wk;
-      const t = dr * fr - di * fi;
-      di = dr * fi + di * fr;
-      dr = t;
-    }
-    for (let i = 0; i < psA.length; i++) {
-      const fr = psA[i] as number;
-      const fi = wk - (psB[i] as number);
-      const t = dr * fr - di * fi;
-      di = dr * fi + di * fr;
-      dr = t;
-    }
+    productAt(zf, wk);
+    const nr = acc[0] as number;
+    const ni = acc[1] as number;
+    productAt(pf, wk);
+    const dr = acc[0] as number;
+    const di = acc[1] as number;
     const nm = nr * nr + ni * ni;
     const dm = dr * dr + di * di;
     if (nm > 1e-280 && nm < 1e280 && dm > 1e-280 && dm < 1e280) {
