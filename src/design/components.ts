@@ -12,6 +12,10 @@
  *    capacitor is also taken from the series (the preferred values around the
  *    design's own choice) and the ratio follows from the pair, so both
  *    capacitors are stock values and the resistors absorb the difference.
+ * 2b. Across the cascade, among the sets whose error is within 0.1 % of the
+ *    stage's best, the one reusing the most capacitor values of earlier stages
+ *    is taken, so the bill of materials stays short (0.1 % is a tenth of an
+ *    E96 resistor's tolerance; common practice, no source).
  * 3. Joint re-tuning: rather than rounding each resistor to its nearest
  *    preferred value on its own, the search tries the two preferred values
  *    that bracket each resistor and the next ones out, in every combination
@@ -176,26 +180,33 @@ function stockCapacitorDesigns(
   const capNames = Object.keys(base.values).filter(isCap);
   const offSeries = capNames.filter((n) => !isInSeries(base.values[n] as number, spec.capacitorSeries));
   const out: ComponentValues[] = offSeries.length === 0 ? [base.values] : [];
-  // Learn how capacitorRatio maps to the other capacitor: probe ratio 2.
-  const probe = tryDesign(t, target, { capacitor: base.c, capacitorRatio: 2 });
-  const others = capNames.filter((n) => Math.abs((base.values[n] as number) / base.c - 1) > 1e-12 || capNames.length === 2);
-  const name =
-    offSeries.length === 1
-      ? (offSeries[0] as string)
-      : capNames.find((n) => probe !== null && Math.abs((probe[n] as number) / base.c - 1) > 1e-9);
-  if (probe !== null && name !== undefined && others.length > 0 && offSeries.length <= 1) {
-    const rProbe = (probe[name] as number) / base.c; // 2 or 0.5 when the ratio sets this capacitor
-    const direct = Math.abs(rProbe - 2) < 1e-6;
-    const inverse = Math.abs(rProbe - 0.5) < 1e-6;
-    if (direct || inverse) {
-      const ideal = base.values[name] as number;
-      for (const c2 of neighbours(ideal, spec.capacitorSeries, 2)) {
-        if (c2 < spec.capacitorRange.min || c2 > spec.capacitorRange.max) continue;
-        if (c2 === ideal && offSeries.length === 0) continue;
-        const ratio = direct ? c2 / base.c : base.c / c2;
-        const v = tryDesign(t, target, { capacitor: base.c, capacitorRatio: ratio }, spec.capacitorSeries);
-        if (v !== null) out.push(v);
+  // Learn which capacitor the ratio sets and how: double its ratio and see
+  // whether that capacitor doubles (ratio = it / level) or halves (ratio = level / it).
+  const names = offSeries.length === 1 ? offSeries : offSeries.length === 0 ? capNames : [];
+  let found: { name: string; direct: boolean } | null = null;
+  for (const name of names) {
+    const other = base.values[name] as number;
+    const trials: [number, number, boolean][] = [
+      [(2 * other) / base.c, 2, true],
+      [(2 * base.c) / other, 0.5, false],
+    ];
+    for (const [ratio, want, direct] of trials) {
+      const probe = tryDesign(t, target, { capacitor: base.c, capacitorRatio: ratio });
+      if (probe !== null && Math.abs((probe[name] as number) / other - want) < 1e-6) {
+        found = { name, direct };
+        break;
       }
+    }
+    if (found !== null) break;
+  }
+  if (found !== null) {
+    const ideal = base.values[found.name] as number;
+    for (const c2 of neighbours(ideal, spec.capacitorSeries, 3)) {
+      if (c2 < spec.capacitorRange.min || c2 > spec.capacitorRange.max) continue;
+      if (c2 === ideal && offSeries.length === 0) continue;
+      const ratio = found.direct ? c2 / base.c : base.c / c2;
+      const v = tryDesign(t, target, { capacitor: base.c, capacitorRatio: ratio }, spec.capacitorSeries);
+      if (v !== null) out.push(v);
     }
   }
   // Fallback (or in addition): the design with its capacitors rounded, resistors kept.
@@ -316,6 +327,13 @@ export interface TuneOptions {
   readonly spread?: number;
   /** Alternatives kept for re-tuning against the mask. @defaultValue 6 */
   readonly keep?: number;
+  /**
+   * Capacitor values already on the bill of materials (earlier stages). Among
+   * sets whose error is within 0.1 % of the best, the one reusing the most of
+   * these wins, so the cascade needs fewer distinct capacitors.
+   * @defaultValue none
+   */
+  readonly preferredCapacitors?: ReadonlySet<number>;
 }
 
 /**
@@ -335,6 +353,12 @@ export function tuneStage(
 ): TunedStage | null {
   const keep = options.keep ?? 6;
   const bases = capacitorCandidates(t, target, spec, options.capacitors ?? 10);
+  // Capacitor values earlier stages use are tried as well (when they keep the resistors near the window).
+  for (const c of options.preferredCapacitors ?? []) {
+    if (bases.some((b) => b.c === c) || c < spec.capacitorRange.min || c > spec.capacitorRange.max) continue;
+    const v = tryDesign(t, target, { capacitor: c }, spec.capacitorSeries);
+    if (v !== null && centring(v, spec.resistorRange) <= 1) bases.push({ c, values: v, centring: centring(v, spec.resistorRange) });
+  }
   if (bases.length === 0) {
     // No capacitor in the window works: let the topology pick its own impedance level.
     const v = tryDesign(t, target, {});
@@ -359,7 +383,24 @@ export function tuneStage(
     }
     all.sort((a, b) => a.cost - b.cost);
   }
-  const best = all[0];
+  let best = all[0];
   if (best === undefined || plain === null) return null;
-  return { best, alternatives: all.slice(1, keep), plain, exact: first.values };
+  const preferred = options.preferredCapacitors;
+  if (preferred !== undefined && preferred.size > 0) {
+    // Among sets within 0.1 % (absolute error measure) of the best, take the
+    // one reusing the most capacitor values already on the bill of materials.
+    const reused = (v: ValueSet): number =>
+      Object.entries(v.values).filter(([k, x]) => isCap(k) && preferred.has(x)).length;
+    const limit = best.cost + 1e-3;
+    let most = reused(best);
+    for (const v of all) {
+      if (v.cost > limit) break;
+      const r = reused(v);
+      if (r > most) {
+        most = r;
+        best = v;
+      }
+    }
+  }
+  return { best, alternatives: all.filter((v) => v !== best).slice(0, keep - 1), plain, exact: first.values };
 }

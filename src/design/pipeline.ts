@@ -104,13 +104,17 @@ function attempt(spec: DesignSpec, proto: PrototypeDesign, position: number, wid
   const tuned: TunedStage[] = [];
   const tunedPlans: StagePlan[] = [];
   let carried = 1;
+  const usedCaps = new Set<number>();
   plans.forEach((p0, i) => {
     let p = p0;
     if (carried !== 1 && p.topology.fixedGain === undefined) {
       const target = { ...p.target, gain: p.target.gain / carried };
       if (p.topology.check(target, {}) === null) p = { ...p, target };
     }
-    const t = tuneStage(p.topology, p.target, spec, wide ? { capacitors: 12, spread: 3, keep: 12 } : {});
+    const t = tuneStage(p.topology, p.target, spec, {
+      ...(wide ? { capacitors: 12, spread: 3, keep: 12 } : {}),
+      preferredCapacitors: usedCaps,
+    });
     if (t === null) {
       throw new UnrealisableError({
         fn: "designFilter",
@@ -119,6 +123,7 @@ function attempt(spec: DesignSpec, proto: PrototypeDesign, position: number, wid
       });
     }
     carried *= t.best.figures.gain / p.target.gain;
+    for (const [k, v] of Object.entries(t.best.values)) if (k.startsWith("C")) usedCaps.add(v);
     tuned.push(t);
     tunedPlans.push(p);
   });
