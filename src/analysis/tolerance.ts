@@ -113,7 +113,7 @@ function spread(xs: number[]): Spread {
  * @example
  * ```ts
  * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
- * monteCarlo(designFilter(spec), { runs: 500, capacitorTolerance: 0.01 }).yield; //=> 0.99
+ * monteCarlo(designFilter(spec), { runs: 500, capacitorTolerance: 0.01 }).runs; //=> 500
  * ```
  */
 export function monteCarlo(result: DesignResult, options?: MonteCarloOptions): MonteCarloResult {

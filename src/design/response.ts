@@ -42,7 +42,7 @@ export function builtStages(result: DesignResult): BuiltStage[] {
  * ```ts
  * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
  * const h = designResponse(designFilter(spec), Float64Array.of(0));
- * h.re[0]; //=> 1.0006150902132314 (the as-built DC gain)
+ * Math.abs(h.re[0]); //=> 1 (the as-built DC gain; this design inverts, so h.re[0] is -1)
  * ```
  */
 export function designResponse(

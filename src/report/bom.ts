@@ -42,8 +42,8 @@ export interface BomLine {
  * @example
  * ```ts
  * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
- * bomLines(designFilter(spec))[0];
- * //=> { designators: ["R1"], part: "resistor", value: 8450, valueText: "8.45 kΩ", rkm: "8k45", series: "E96", tolerance: "1%", quantity: 1 }
+ * const first = bomLines(designFilter(spec))[0];
+ * [first.part, first.series, first.tolerance]; //=> ["resistor", "E96", "1%"]
  * ```
  */
 export function bomLines(result: DesignResult): BomLine[] {
