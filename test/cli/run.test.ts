@@ -97,8 +97,19 @@ describe("runCli", () => {
     expect(runCli(["demo"], io)).toBe(0);
     expect(io.out).toContain("vibration sensor");
     expect(io.out).toContain("MEETS the spec");
-    const io2 = fakeIo();
-    expect(runCli(["demo", "--scenario", "hydrophone", "--quiet"], io2)).toBe(0);
+    for (const scenario of ["hydrophone", "hum-notch"]) {
+      const io2 = fakeIo();
+      expect(runCli(["demo", "--scenario", scenario, "--quiet"], io2), io2.err).toBe(0);
+    }
+  });
+
+  it("checks with a real op-amp when --gbw is given", () => {
+    const io = fakeIo();
+    expect(runCli([...LP, "--gbw", "10M", "--a0", "1e5", "--json", "r.json"], io)).toBe(0);
+    expect(fromJson(io.files["r.json"] as string).verification.opamp).toEqual({ kind: "single-pole", a0: 1e5, gbwHz: 1e7 });
+    const slow = fakeIo();
+    expect(runCli([...LP, "--gbw", "2k"], slow)).toBe(1);
+    expect(slow.out).toContain("GBW");
   });
 
   it("prints help, version and the topology list", () => {
