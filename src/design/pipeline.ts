@@ -26,7 +26,15 @@ import { AUTO_MAX_ORDER, chooseFamily, choosePrototype, MARGIN_LEVELS, designPro
 import { intervalWidth, placeInInterval, transformPrototype } from "./placement.ts";
 import { describeSections, peakGrid, planStages, type StagePlan } from "./stages.ts";
 import { tuneStage, type TunedStage, type ValueSet } from "./components.ts";
-import { checkMask, partialPeaks, responseCurve, type BuiltStage, type MaskFigures } from "./verify.ts";
+import {
+  checkMask,
+  gridMarginDb,
+  maskGrid,
+  partialPeaks,
+  responseCurve,
+  type BuiltStage,
+  type MaskFigures,
+} from "./verify.ts";
 import type {
   DesignAction,
   DesignResult,
@@ -133,10 +141,45 @@ function attempt(spec: DesignSpec, proto: PrototypeDesign, position: number, wid
   return { proto, position, value, cascade, gridHz, plans: tunedPlans, plans0: plans, polarityOk, tuned, chosen, mask };
 }
 
-/** Re-tune against the mask: coordinate descent over each stage's good value sets, maximising the worst margin. */
+/**
+ * Re-tune against the mask: coordinate descent over each stage's good value
+ * sets, maximising the worst margin. Candidates are ranked on the mask grid
+ * with each stage's response computed once per candidate; the final choice is
+ * checked with the full (refined) mask check and kept only if it is better.
+ */
 function retuneToMask(spec: DesignSpec, a: Attempt): Attempt {
+  const grid = maskGrid(spec);
+  const n = grid.freqHz.length;
+  const cache = new Map<ValueSet, { re: Float64Array; im: Float64Array }>();
+  const responseOf = (i: number, v: ValueSet): { re: Float64Array; im: Float64Array } => {
+    let r = cache.get(v);
+    if (r === undefined) {
+      const h = (a.plans[i] as StagePlan).topology.response(v.values, grid.freqHz, spec.opamp);
+      r = { re: h.re, im: h.im };
+      cache.set(v, r);
+    }
+    return r;
+  };
+  const marginOf = (sets: readonly ValueSet[]): number => {
+    const re = new Float64Array(n).fill(1);
+    const im = new Float64Array(n);
+    sets.forEach((v, i) => {
+      const h = responseOf(i, v);
+      for (let k = 0; k < n; k++) {
+        const x = re[k] as number;
+        const y = im[k] as number;
+        const c = h.re[k] as number;
+        const d = h.im[k] as number;
+        re[k] = x * c - y * d;
+        im[k] = x * d + y * c;
+      }
+    });
+    const mag = new Float64Array(n);
+    for (let k = 0; k < n; k++) mag[k] = Math.hypot(re[k] as number, im[k] as number);
+    return gridMarginDb(spec, grid, mag);
+  };
   const chosen = [...a.chosen];
-  let best = a.mask;
+  let bestGrid = marginOf(chosen);
   for (let sweep = 0; sweep < 2; sweep++) {
     let improved = false;
     for (let i = 0; i < chosen.length; i++) {
@@ -145,9 +188,9 @@ function retuneToMask(spec: DesignSpec, a: Attempt): Attempt {
         if (alt === chosen[i]) continue;
         const trial = [...chosen];
         trial[i] = alt;
-        const m = checkMask(spec, built(a.plans, trial), spec.opamp);
-        if (m.marginDb > best.marginDb + 1e-9) {
-          best = m;
+        const m = marginOf(trial);
+        if (m > bestGrid + 1e-9) {
+          bestGrid = m;
           chosen[i] = alt;
           improved = true;
         }
@@ -155,7 +198,8 @@ function retuneToMask(spec: DesignSpec, a: Attempt): Attempt {
     }
     if (!improved) break;
   }
-  return { ...a, chosen, mask: best };
+  const mask = checkMask(spec, built(a.plans, chosen), spec.opamp);
+  return mask.marginDb > a.mask.marginDb ? { ...a, chosen, mask } : a;
 }
 
 /** Whether the measured polarity satisfies the spec. */

@@ -262,6 +262,63 @@ export function checkMask(spec: DesignSpec, stages: readonly BuiltStage[], opamp
   };
 }
 
+/** The mask's bands sampled on one grid (no refinement), for fast comparisons. */
+export interface MaskGrid {
+  /** Frequencies, Hz. */
+  readonly freqHz: Float64Array;
+  /** 1 for a passband sample, 2 for a stopband sample. */
+  readonly band: Uint8Array;
+}
+
+/**
+ * The mask's bands on the same log grids {@link checkMask} scans, as one array.
+ *
+ * @param spec - canonical spec
+ * @returns the grid and the band of each sample
+ */
+export function maskGrid(spec: DesignSpec): MaskGrid {
+  const bands = maskBands(spec);
+  const parts: { f: Float64Array; b: number }[] = [];
+  for (const b of bands.pass) parts.push({ f: logGrid(b[0], b[1], Math.round(400 / bands.pass.length)), b: 1 });
+  for (const b of bands.stop) parts.push({ f: logGrid(b[0], b[1], Math.round(600 / bands.stop.length)), b: 2 });
+  const n = parts.reduce((k, p) => k + p.f.length, 0);
+  const freqHz = new Float64Array(n);
+  const band = new Uint8Array(n);
+  let k = 0;
+  for (const p of parts) {
+    freqHz.set(p.f, k);
+    band.fill(p.b, k, k + p.f.length);
+    k += p.f.length;
+  }
+  return { freqHz, band };
+}
+
+/**
+ * The worst margin (as {@link checkMask}'s `marginDb`) from magnitudes sampled
+ * on a {@link maskGrid}, without refining extremes between samples.
+ *
+ * @param spec - canonical spec
+ * @param grid - the grid
+ * @param magnitude - |H| at each grid frequency
+ * @returns the smallest of the passband, stopband and gain margins, dB
+ */
+export function gridMarginDb(spec: DesignSpec, grid: MaskGrid, magnitude: Float64Array): number {
+  let peak = 0;
+  let low = Infinity;
+  let stop = 0;
+  for (let i = 0; i < magnitude.length; i++) {
+    const m = magnitude[i] as number;
+    if (grid.band[i] === 1) {
+      if (m > peak) peak = m;
+      if (m < low) low = m;
+    } else if (m > stop) stop = m;
+  }
+  const pass = spec.maxLossDb - (db(peak) - db(low));
+  const att = db(peak) - db(stop) - spec.minAttenuationDb;
+  const gain = spec.gainToleranceDb - Math.abs(db(peak) - db(spec.gain));
+  return Math.min(pass, att, gain);
+}
+
 /**
  * The frequency span a design's response curve and netlist sweep cover: a
  * decade below the lowest spec edge to a decade above the highest.
