@@ -15,6 +15,7 @@ import { DESIGN_CAUTIONS, toBomCsv, toJson, toMarkdown, toSpiceNetlist, toSvgPlo
 import { topologies } from "../topologies/index.ts";
 import { formatValue } from "../units/index.ts";
 import { SCENARIOS } from "./scenarios.ts";
+import { monteCarlo } from "../analysis/index.ts";
 
 /** What the command line reads and writes. */
 export interface CliIo {
@@ -61,6 +62,7 @@ spec options:
 
 output options:
   --json FILE  --netlist FILE  --bom FILE  --markdown FILE  --svg FILE (magnitude and mask)
+  --yield N [--seed S]    also build N boards with parts spread within their tolerance (Monte Carlo)
   --quiet                 print only the verification line
 
 exit codes: 0 meets the spec, 1 does not meet it, 2 bad input, 3 internal error
@@ -95,6 +97,8 @@ const VALUE_OPTIONS = new Set([
   "bom",
   "markdown",
   "svg",
+  "yield",
+  "seed",
   "scenario",
 ]);
 
@@ -284,6 +288,20 @@ function design(spec: unknown, o: Map<string, string | true>, io: CliIo): number
       `${r.verification.meetsSpec ? "meets" : "does not meet"} the spec: ${r.family} order ${r.order}, worst margin ${r.verification.marginDb.toFixed(3)} dB\n`,
     );
   } else io.stdout(formatSummary(r));
+  const runs = o.get("yield");
+  if (typeof runs === "string") {
+    const seed = o.get("seed");
+    const n = Number(runs);
+    const sd = typeof seed === "string" ? Number(seed) : 1;
+    if (!Number.isInteger(n) || n < 1 || n > 100000) throw new UsageError(`--yield needs a whole number of boards from 1 to 100000 (got ${runs})`);
+    if (!Number.isInteger(sd)) throw new UsageError(`--seed needs a whole number (got ${String(seed)})`);
+    const mc = monteCarlo(r, { runs: n, seed: sd });
+    io.stdout(
+      `\nMonte Carlo: ${mc.runs} boards, resistors +-${(mc.tolerances.resistor * 100).toFixed(1)} %, capacitors +-${(mc.tolerances.capacitor * 100).toFixed(1)} % (uniform): ` +
+        `${(mc.yield * 100).toFixed(1)} % meet the mask (+-${(mc.yieldStandardError * 100).toFixed(1)} %); ` +
+        `worst margin ${mc.marginDb.min.toFixed(3)} dB, median ${mc.marginDb.median.toFixed(3)} dB\n`,
+    );
+  } else if (o.has("seed")) throw new UsageError("--seed belongs with --yield");
   writeOutputs(r, o, io);
   return r.verification.meetsSpec ? 0 : 1;
 }

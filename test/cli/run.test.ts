@@ -103,6 +103,13 @@ describe("runCli", () => {
     }
   });
 
+  it("runs a Monte Carlo yield on request", () => {
+    const io = fakeIo();
+    expect(runCli([...LP, "--yield", "20", "--seed", "5"], io)).toBe(0);
+    expect(io.out).toMatch(/Monte Carlo: 20 boards, resistors \+-1\.0 %, capacitors \+-10\.0 %/);
+    expect(runCli([...LP, "--yield", "zero"], fakeIo())).toBe(2);
+  });
+
   it("checks with a real op-amp when --gbw is given", () => {
     const io = fakeIo();
     expect(runCli([...LP, "--gbw", "10M", "--a0", "1e5", "--json", "r.json"], io)).toBe(0);
