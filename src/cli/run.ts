@@ -211,7 +211,7 @@ const hz = (x: number): string => formatValue(x, { digits: 4, unit: "Hz" });
 const p4 = (x: number): string => Number(x.toPrecision(4)).toString();
 
 /** The human-readable summary printed for a design. */
-export function formatSummary(r: DesignResult): string {
+export function formatSummary(r: DesignResult, extra: readonly string[] = []): string {
   const v = r.verification;
   const out: string[] = [];
   out.push(
@@ -259,6 +259,7 @@ export function formatSummary(r: DesignResult): string {
     out.push("", "steps taken:");
     for (const a of r.actions) out.push(`  - ${a.message}`);
   }
+  if (extra.length > 0) out.push("", ...extra);
   out.push("", "cautions:");
   for (const c of DESIGN_CAUTIONS) out.push(`  - ${c}`);
   return `${out.join("\n")}\n`;
@@ -283,11 +284,7 @@ function writeOutputs(r: DesignResult, o: Map<string, string | true>, io: CliIo)
 
 function design(spec: unknown, o: Map<string, string | true>, io: CliIo): number {
   const r = designFilter(spec);
-  if (o.get("quiet") === true) {
-    io.stdout(
-      `${r.verification.meetsSpec ? "meets" : "does not meet"} the spec: ${r.family} order ${r.order}, worst margin ${r.verification.marginDb.toFixed(3)} dB\n`,
-    );
-  } else io.stdout(formatSummary(r));
+  const extra: string[] = [];
   const runs = o.get("yield");
   if (typeof runs === "string") {
     const seed = o.get("seed");
@@ -296,12 +293,17 @@ function design(spec: unknown, o: Map<string, string | true>, io: CliIo): number
     if (!Number.isInteger(n) || n < 1 || n > 100000) throw new UsageError(`--yield needs a whole number of boards from 1 to 100000 (got ${runs})`);
     if (!Number.isInteger(sd)) throw new UsageError(`--seed needs a whole number (got ${String(seed)})`);
     const mc = monteCarlo(r, { runs: n, seed: sd });
-    io.stdout(
-      `\nMonte Carlo: ${mc.runs} boards, resistors +-${(mc.tolerances.resistor * 100).toFixed(1)} %, capacitors +-${(mc.tolerances.capacitor * 100).toFixed(1)} % (uniform): ` +
+    extra.push(
+      `Monte Carlo: ${mc.runs} boards, resistors +-${(mc.tolerances.resistor * 100).toFixed(1)} %, capacitors +-${(mc.tolerances.capacitor * 100).toFixed(1)} % (uniform): ` +
         `${(mc.yield * 100).toFixed(1)} % meet the mask (+-${(mc.yieldStandardError * 100).toFixed(1)} %); ` +
-        `worst margin ${mc.marginDb.min.toFixed(3)} dB, median ${mc.marginDb.median.toFixed(3)} dB\n`,
+        `worst margin ${mc.marginDb.min.toFixed(3)} dB, median ${mc.marginDb.median.toFixed(3)} dB`,
     );
   } else if (o.has("seed")) throw new UsageError("--seed belongs with --yield");
+  if (o.get("quiet") === true) {
+    io.stdout(
+      `${r.verification.meetsSpec ? "meets" : "does not meet"} the spec: ${r.family} order ${r.order}, worst margin ${r.verification.marginDb.toFixed(3)} dB\n${extra.map((x) => `${x}\n`).join("")}`,
+    );
+  } else io.stdout(formatSummary(r, extra));
   writeOutputs(r, o, io);
   return r.verification.meetsSpec ? 0 : 1;
 }
