@@ -262,7 +262,10 @@ export function chooseFamily(spec: DesignSpec): {
         automatic: false,
         priority: null,
         candidates: [],
-        reason: `The spec names the ${spec.family} family.`,
+        reason:
+          order === null
+            ? `The spec names the ${spec.family} family; no ${spec.family} order up to 16 meets the mask, so the design uses order 16 (or the spec's fixed order) and reports its margins.`
+            : `The spec names the ${spec.family} family.`,
       },
     };
   }
