@@ -6,3 +6,4 @@
  */
 export { opampRequirements, type OpampRequirementOptions, type StageOpampRequirement } from "./opamp.ts";
 export { monteCarlo, type MonteCarloOptions, type MonteCarloResult, type Spread, type ToleranceFractions } from "./tolerance.ts";
+export { partSensitivities, type PartSensitivity } from "./sensitivity.ts";

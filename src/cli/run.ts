@@ -15,7 +15,7 @@ import { DESIGN_CAUTIONS, toBomCsv, toJson, toMarkdown, toSpiceNetlist, toSvgPlo
 import { topologies } from "../topologies/index.ts";
 import { formatValue } from "../units/index.ts";
 import { SCENARIOS } from "./scenarios.ts";
-import { monteCarlo } from "../analysis/index.ts";
+import { monteCarlo, partSensitivities } from "../analysis/index.ts";
 
 /** What the command line reads and writes. */
 export interface CliIo {
@@ -62,6 +62,7 @@ spec options:
 
 output options:
   --json FILE  --netlist FILE  --bom FILE  --markdown FILE  --svg FILE (magnitude and mask)
+  --sensitivity           list each part's sensitivities (S^f0, S^Q, S^gain)
   --yield N [--seed S]    also build N boards with parts spread within their tolerance (Monte Carlo)
   --quiet                 print only the verification line
 
@@ -70,7 +71,7 @@ exit codes: 0 meets the spec, 1 does not meet it, 2 bad input, 3 internal error
 
 class UsageError extends Error {}
 
-const FLAGS = new Set(["quiet", "help", "version"]);
+const FLAGS = new Set(["quiet", "help", "version", "sensitivity"]);
 const VALUE_OPTIONS = new Set([
   "response",
   "pass",
@@ -299,6 +300,21 @@ function design(spec: unknown, o: Map<string, string | true>, io: CliIo): number
         `worst margin ${mc.marginDb.min.toFixed(3)} dB, median ${mc.marginDb.median.toFixed(3)} dB`,
     );
   } else if (o.has("seed")) throw new UsageError("--seed belongs with --yield");
+  if (o.get("sensitivity") === true) {
+    const rows = [["stage", "part", "value", "S^f0", "S^Q", "S^fz", "S^gain"]];
+    for (const x of partSensitivities(r)) {
+      rows.push([
+        String(x.stage),
+        x.part,
+        formatValue(x.value, { digits: 3, unit: x.part.startsWith("C") ? "F" : "Ω", space: false }),
+        x.f0.toFixed(3),
+        x.q.toFixed(3),
+        x.fz.toFixed(3),
+        x.gain.toFixed(3),
+      ]);
+    }
+    extra.push("sensitivities (relative change of the figure per relative change of the part):", table(rows));
+  }
   if (o.get("quiet") === true) {
     io.stdout(
       `${r.verification.meetsSpec ? "meets" : "does not meet"} the spec: ${r.family} order ${r.order}, worst margin ${r.verification.marginDb.toFixed(3)} dB\n${extra.map((x) => `${x}\n`).join("")}`,

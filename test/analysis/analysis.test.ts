@@ -1,11 +1,17 @@
 import { describe, expect, it } from "vitest";
-import { designFilter, designResponse, type DesignResult } from "../../src/design/index.ts";
+import { designFilter, designResponse, type DesignResult, type FilterSpec } from "../../src/design/index.ts";
 import { monteCarlo, opampRequirements } from "../../src/analysis/index.ts";
 import { toSpiceNetlist } from "../../src/report/index.ts";
 import { InvalidArgumentError } from "../../src/errors.ts";
 import { requireNgspice, runAc } from "../helpers/ngspice.ts";
 
 const haveSpice = requireNgspice();
+
+const lp: FilterSpec = {
+  response: "lowpass",
+  passband: { edgeHz: 1000, maxLossDb: 1 },
+  stopband: { edgeHz: 10000, minAttenuationDb: 30 },
+};
 
 const design = designFilter({
   response: "lowpass",
@@ -92,5 +98,53 @@ describe("monteCarlo", () => {
   it("rejects bad options", () => {
     expect(() => monteCarlo(design, { runs: 0 })).toThrow(InvalidArgumentError);
     expect(() => monteCarlo(design, { capacitorTolerance: 2 })).toThrow(InvalidArgumentError);
+  });
+});
+
+describe("partSensitivities", () => {
+  it("obeys the impedance- and frequency-scaling invariants in every stage", async () => {
+    const { partSensitivities } = await import("../../src/analysis/index.ts");
+    const { loadFixture } = await import("../helpers/fixtures.ts");
+    const fx = loadFixture<{ specs: { id: string; spec: FilterSpec }[] }>("design-specs.json");
+    for (const e of fx.specs.slice(0, 12)) {
+      const r = designFilter(e.spec);
+      const s = partSensitivities(r);
+      for (const st of r.stages) {
+        const mine = s.filter((x) => x.stage === st.index);
+        const sum = (kind: "R" | "C", key: "f0" | "q" | "gain" | "fz"): number =>
+          mine.filter((x) => x.part.startsWith(kind)).reduce((a, x) => a + x[key], 0);
+        const label = `${e.id} stage ${st.index} (${st.topology})`;
+        expect(sum("R", "f0"), label).toBeCloseTo(-1, 5);
+        expect(sum("C", "f0"), label).toBeCloseTo(-1, 5);
+        expect(sum("R", "q"), label).toBeCloseTo(0, 5);
+        expect(sum("C", "q"), label).toBeCloseTo(0, 5);
+        expect(sum("R", "gain"), label).toBeCloseTo(0, 5);
+        expect(sum("C", "gain"), label).toBeCloseTo(0, 5);
+        if (st.target.fzHz !== undefined) {
+          expect(sum("R", "fz"), label).toBeCloseTo(-1, 5);
+          expect(sum("C", "fz"), label).toBeCloseTo(-1, 5);
+        }
+      }
+    }
+  });
+
+  it("matches the closed-form Sallen-Key unity-gain lowpass sensitivities", async () => {
+    const { partSensitivities } = await import("../../src/analysis/index.ts");
+    // Q = sqrt(R1 R2 C1 / C2) / (R1 + R2) with C1 the feedback capacitor
+    // (M. E. Van Valkenburg, "Analog Filter Design", 1982, ch. 7; from memory):
+    // S_R1^Q = 1/2 - R1/(R1 + R2), S_C1^Q = 1/2, S_C2^Q = -1/2, every S^f0 = -1/2.
+    const r = designFilter({ ...lp, family: "butterworth", order: 2, topology: "sallen-key-lowpass-unity" });
+    const st = r.stages[0] as DesignResult["stages"][number];
+    const byLocal = Object.fromEntries(Object.entries(st.localNames).map(([g, l]) => [l, g]));
+    const s = Object.fromEntries(partSensitivities(r).map((x) => [x.part, x]));
+    const v = (l: string): number => st.components[byLocal[l] as string] as number;
+    const get = (l: string) => s[byLocal[l] as string] as { f0: number; q: number };
+    const r1 = v("R1");
+    const r2 = v("R2");
+    expect(get("R1").q).toBeCloseTo(0.5 - r1 / (r1 + r2), 6);
+    expect(get("R2").q).toBeCloseTo(0.5 - r2 / (r1 + r2), 6);
+    expect(get("C1").q).toBeCloseTo(0.5, 6);
+    expect(get("C2").q).toBeCloseTo(-0.5, 6);
+    for (const l of ["R1", "R2", "C1", "C2"]) expect(get(l).f0).toBeCloseTo(-0.5, 6);
   });
 });

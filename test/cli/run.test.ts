@@ -103,6 +103,12 @@ describe("runCli", () => {
     }
   });
 
+  it("lists part sensitivities on request", () => {
+    const io = fakeIo();
+    expect(runCli([...LP, "--sensitivity"], io)).toBe(0);
+    expect(io.out).toMatch(/stage\s+part\s+value\s+S\^f0\s+S\^Q/);
+  });
+
   it("runs a Monte Carlo yield on request", () => {
     const io = fakeIo();
     expect(runCli([...LP, "--yield", "20", "--seed", "5"], io)).toBe(0);
