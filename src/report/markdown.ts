@@ -8,6 +8,7 @@
 import { formatValue } from "../units/index.ts";
 import type { DesignResult } from "../design/index.ts";
 import { bomLines } from "./bom.ts";
+import { opampRequirements } from "../analysis/index.ts";
 
 const f3 = (x: number): string => formatValue(x, { digits: 4, unit: "Hz" });
 const n4 = (x: number): string => Number(x.toPrecision(4)).toString();
@@ -88,6 +89,15 @@ export function toMarkdown(result: DesignResult): string {
   L.push(`| passband gain | ${dB(v.gainDb)} | ${dB(v.targetGainDb)} ± ${s.gainToleranceDb} dB | ${dB(v.gainMarginDb)} |`);
   L.push(`| polarity | ${v.polarity} | ${s.polarity} | ${v.polarityOk ? "ok" : "not met"} |`, "");
   L.push(`Op-amp model used: ${v.opamp.kind === "ideal" ? "ideal" : `single pole, A0 ${n4(v.opamp.a0)}, GBW ${f3(v.opamp.gbwHz)}`}. Worst margin of the exact (unrounded) design: ${dB(v.idealMarginDb)}.`, "");
+  L.push("## What each op-amp must do", "");
+  L.push("For a 1 V peak sinusoid at the input, anywhere in the plotted span:", "");
+  L.push("| stage | op-amps | GBW needed | peak output | at | slew rate | at |", "|---|---|---|---|---|---|---|");
+  for (const q of opampRequirements(result)) {
+    L.push(
+      `| ${q.stage} | ${q.opamps.join(", ")} | ${f3(q.gbwDemandHz)} | ${n4(q.peakOutputV)} V | ${f3(q.peakHz)} | ${formatValue(q.slewRateVPerS, { digits: 3, unit: "V" })}/s | ${f3(q.slewHz)} |`,
+    );
+  }
+  L.push("");
   if (result.warnings.length > 0) {
     L.push("## Warnings", "");
     for (const w of result.warnings) L.push(`- ${w.stage === undefined ? "" : `stage ${w.stage}: `}${w.message}`);

@@ -97,6 +97,7 @@ describe("toMarkdown", () => {
     expect(md.split("\n")[0]).toBe("# Lowpass filter: chebyshev1, " + `${result.filterOrder} poles`);
     expect(md).toContain("## Verification (as built)");
     expect(md).toContain("## Cautions");
+    expect(md).toContain("## What each op-amp must do");
     expect(md).toMatch(/isolation/);
     for (const st of result.stages) expect(md).toContain(`| ${st.index} | ${st.topologyName} |`);
   });
