@@ -252,7 +252,7 @@ function score(t: Topology, info: SectionInfo, wish: number, got: number, last: 
 function describeReason(t: Topology, info: SectionInfo, automatic: boolean, got: number, wish: number): string {
   if (!automatic) return "named in the spec";
   const q = info.q === undefined ? "" : `Q ${info.q.toFixed(3)}, `;
-  const g = Math.abs(got / wish - 1) > 1e-9 ? ` (gain fixed at ${got.toPrecision(4)} instead of ${wish.toPrecision(4)})` : "";
+  const g = Math.abs(got / wish - 1) > 1e-3 ? ` (gain fixed at ${got.toPrecision(4)} instead of ${wish.toPrecision(4)})` : "";
   const why: Record<TopologyClass, string> = {
     "sk-unity": "low Q at unity gain: fewest parts and one op-amp",
     "sk-equal": "equal-component stage: equal parts, gain set by Q",
