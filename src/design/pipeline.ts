@@ -15,6 +15,7 @@
  * @module
  */
 import { SpecError, UnrealisableError } from "../errors.ts";
+import { formatValue } from "../units/index.ts";
 import type { OpAmpModel } from "../circuit/types.ts";
 import { toSections } from "../tf/index.ts";
 import type { SectionCascade } from "../tf/types.ts";
@@ -381,7 +382,9 @@ export function designFilter(spec: unknown): DesignResult {
     }
     result = moved.mask.marginDb > a.mask.marginDb ? moved : a;
     // A real op-amp that is too slow is not cured by more order: stop if the ideal op-amp would pass.
-    if (s.opamp.kind !== "ideal") {
+    // A real op-amp far too slow is not cured by more order (higher Q needs more GBW):
+    // stop when the same parts with an ideal op-amp pass and the miss is gross.
+    if (s.opamp.kind !== "ideal" && result.mask.marginDb < -1) {
       const ideal = checkMask(s, built(result.plans, result.chosen), IDEAL);
       if (ideal.marginDb >= 0) break;
     }
@@ -449,7 +452,7 @@ function assemble(
       warnings.push({
         code: "insufficient-gbw",
         stage: index,
-        message: `the stage needs an op-amp GBW of about ${fmt(gbw, 3)} Hz for 1 % accuracy of f0 and Q; the chosen op-amp has ${fmt(s.opamp.gbwHz, 3)} Hz.`,
+        message: `the stage needs an op-amp GBW of about ${formatValue(gbw, { digits: 3, unit: "Hz" })} for 1 % accuracy of f0 and Q; the chosen op-amp has ${formatValue(s.opamp.gbwHz, { digits: 3, unit: "Hz" })}.`,
       });
     }
     return {

@@ -303,7 +303,16 @@ function assign(spec: DesignSpec, infos: readonly SectionInfo[], forced: readonl
       const got = realisableGain(t, info, wish);
       if (got === null) continue;
       // The last stage must carry the remaining gain exactly when it can.
-      const s = score(t, info, wish, got, last) + (last ? 4 * Math.abs(Math.log(got / wish)) : 0);
+      let s = score(t, info, wish, got, last) + (last ? 4 * Math.abs(Math.log(got / wish)) : 0);
+      // With a real op-amp, prefer stages whose GBW demand it meets.
+      if (spec.opamp.kind !== "ideal") {
+        try {
+          const demand = t.gbwDemandHz(baseTarget(info, (t.inverting ? -1 : 1) * got));
+          if (demand > spec.opamp.gbwHz) s += 1 + 2 * Math.log10(demand / spec.opamp.gbwHz);
+        } catch {
+          // no demand figure for this target
+        }
+      }
       if (best === null || s < best.s) best = { t, got, s };
     }
     if (best === null) {
