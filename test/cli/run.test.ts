@@ -116,6 +116,12 @@ describe("runCli", () => {
     expect(runCli([...LP, "--yield", "zero"], fakeIo())).toBe(2);
   });
 
+  it("meets the spec in the README's command-line example", () => {
+    const io = fakeIo();
+    const argv = ["design", "--response", "lowpass", "--pass", "20k", "--pass-loss", "0.5", "--stop", "60k", "--stop-atten", "60", "--gain", "6", "--gbw", "10M", "--quiet"];
+    expect(runCli(argv, io), io.out).toBe(0);
+  });
+
   it("checks with a real op-amp when --gbw is given", () => {
     const io = fakeIo();
     expect(runCli([...LP, "--gbw", "10M", "--a0", "1e5", "--json", "r.json"], io)).toBe(0);
