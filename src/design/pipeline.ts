@@ -296,6 +296,8 @@ export function designFilter(spec: unknown): DesignResult {
 
   let result: Attempt | null = null;
   let first: Attempt | null = null;
+  // The best of the attempts that missed, returned when none meets the mask.
+  let bestMiss: Attempt | null = null;
   for (; order <= lastOrder; order++) {
     const proto = choosePrototype(s, family, order);
     const feasible = intervalWidth(proto.interval) >= 0;
@@ -381,7 +383,7 @@ export function designFilter(spec: unknown): DesignResult {
       }
     }
     result = moved.mask.marginDb > a.mask.marginDb ? moved : a;
-    // A real op-amp that is too slow is not cured by more order: stop if the ideal op-amp would pass.
+    if (bestMiss === null || result.mask.marginDb > bestMiss.mask.marginDb) bestMiss = result;
     // A real op-amp far too slow is not cured by more order (higher Q needs more GBW):
     // stop when the same parts with an ideal op-amp pass and the miss is gross.
     if (s.opamp.kind !== "ideal" && result.mask.marginDb < -1) {
@@ -394,7 +396,14 @@ export function designFilter(spec: unknown): DesignResult {
       message: `Order ${order} still missed the mask after re-tuning and moving the design; raised the order to ${order + 1}.`,
     });
   }
-  const final = (result ?? first) as Attempt;
+  let final = (result ?? first) as Attempt;
+  if (!meets(s, final) && bestMiss !== null && bestMiss.mask.marginDb > final.mask.marginDb) {
+    final = bestMiss;
+    actions.push({
+      code: "kept-best-attempt",
+      message: `No order tried met the mask; kept order ${bestMiss.proto.order}, the attempt with the best worst margin (${fmt(bestMiss.mask.marginDb, 3)} dB).`,
+    });
+  }
   return assemble(s, fam.choice, family, minOrder, final, actions);
 }
 

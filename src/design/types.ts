@@ -192,7 +192,13 @@ export interface DesignWarning {
 /** Something the pipeline did to reach the result. */
 export interface DesignAction {
   /** Stable code. */
-  readonly code: "placed-in-slack" | "re-tuned-to-mask" | "moved-placement" | "raised-order" | "tightened-prototype";
+  readonly code:
+    | "placed-in-slack"
+    | "re-tuned-to-mask"
+    | "moved-placement"
+    | "raised-order"
+    | "tightened-prototype"
+    | "kept-best-attempt";
   /** What it did and why. */
   readonly message: string;
 }
