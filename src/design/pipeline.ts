@@ -9,8 +9,11 @@
  * a topology per section -> preferred values with joint re-tuning -> as-built
  * check against the mask. When the as-built circuit misses the mask the
  * pipeline re-tunes the parts against the mask itself, then moves the design
- * inside the slack towards the failing band, then (unless the spec fixes the
- * order) raises the order, and records each step it took.
+ * inside the slack towards the failing band, then (equiripple families) tries
+ * prototypes with more dB margin, then (unless the spec fixes the order)
+ * raises the order by up to two, and records each step it took. A stage with a
+ * free gain absorbs the gain error the stages before it left. When nothing
+ * meets the mask, the attempt with the best worst margin is returned, as data.
  *
  * @module
  */
