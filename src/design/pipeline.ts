@@ -220,6 +220,16 @@ function upHelpsPassband(spec: DesignSpec): boolean {
   return spec.response === "lowpass" || spec.response === "bandpass";
 }
 
+/** Why an interval is empty, in words: what each band asks of the placed parameter. */
+function infeasibleText(s: DesignSpec, proto: PrototypeDesign): string {
+  const what = proto.interval.parameter === "bandwidth" ? "bandwidth" : "natural frequency";
+  const lo = `${fmt(proto.interval.low / TWO_PI)} Hz`;
+  const hi = `${fmt(proto.interval.high / TWO_PI)} Hz`;
+  return upHelpsPassband(s)
+    ? `the passband needs a ${what} of at least ${lo}, the stopband at most ${hi}`
+    : `the passband needs a ${what} of at most ${hi}, the stopband at least ${lo}`;
+}
+
 function fmt(x: number, digits = 4): string {
   return Number(x.toPrecision(digits)).toString();
 }
@@ -304,14 +314,17 @@ export function designFilter(spec: unknown): DesignResult {
   for (; order <= lastOrder; order++) {
     const proto = choosePrototype(s, family, order);
     const feasible = intervalWidth(proto.interval) >= 0;
-    let a = attempt(s, proto, 0.5, false);
+    // Too low an order cannot meet both bands: keep the passband (the end of the
+    // interval where it is met exactly) and let the stopband fall short.
+    const start = feasible ? 0.5 : upHelpsPassband(s) ? 0 : 1;
+    let a = attempt(s, proto, start, false);
     first ??= a;
     if (order === (s.order ?? minOrder)) {
       actions.push({
         code: "placed-in-slack",
         message: feasible
           ? `Placed the ${proto.interval.parameter === "bandwidth" ? "bandwidth" : "natural frequency"} at the geometric middle of the interval where the exact design meets the mask (${fmt(proto.interval.low / TWO_PI)} Hz to ${fmt(proto.interval.high / TWO_PI)} Hz), so part rounding pushes towards neither edge first.`
-          : `Order ${order} cannot meet the mask even before rounding; placed the design between the two requirements (${fmt(proto.interval.low / TWO_PI)} Hz and ${fmt(proto.interval.high / TWO_PI)} Hz) so that both fall short by the same frequency ratio.`,
+          : `Order ${order} cannot meet the mask even before rounding: ${infeasibleText(s, proto)}; placed the design where the passband is met, so the stopband falls short.`,
       });
     }
     if (meets(s, a)) {
