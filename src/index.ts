@@ -4,7 +4,7 @@
  *
  * The root entry re-exports every layer. Each layer is also a subpath export
  * (`filterwright/units`, `/math`, `/tf`, `/approx`, `/parts`, `/scaling`,
- * `/circuit`, `/topologies`, `/design`, `/report`) for tree-shaking.
+ * `/circuit`, `/topologies`, `/design`, `/analysis`, `/report`) for tree-shaking.
  *
  * @example
  * ```ts
@@ -30,4 +30,5 @@ export * from "./scaling/index.ts";
 export * from "./circuit/index.ts";
 export * from "./topologies/index.ts";
 export * from "./design/index.ts";
+export * from "./analysis/index.ts";
 export * from "./report/index.ts";
