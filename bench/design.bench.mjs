@@ -16,7 +16,7 @@ const spec = {
 
 export const benchmarks = [
   {
-    name: "designFilter: 8th-order Chebyshev I lowpass, full pipeline",
+    name: "designFilter: 8th-order Chebyshev I lowpass, full pipeline incl. verification (256-point curve)",
     fn: () => designFilter(spec),
     note: "no scipy equivalent (scipy stops at the transfer function)",
   },
