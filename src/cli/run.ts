@@ -52,7 +52,7 @@ spec options:
   --gain-vv X            passband gain in V/V (negative: inverting)
   --polarity non-inverting|inverting|either
   --family NAME|auto     butterworth chebyshev1 chebyshev2 elliptic bessel legendre
-  --priority P           fewest-stages | flattest-delay | monotonic (automatic family)
+  --priority P           fewest-op-amps (default) | fewest-stages | flattest-delay | monotonic
   --order N              fix the prototype order
   --topology ID|auto     one topology for every stage, or ID1,ID2,... per stage
   --caps SERIES          capacitor series (default E12)

@@ -29,7 +29,7 @@ export const SCENARIOS: Readonly<Record<string, Scenario>> = {
       passband: { edgeHz: "2k", maxLossDb: 0.1 },
       stopband: { edgeHz: "24k", minAttenuationDb: 100 },
       gain: { db: 6, polarity: "non-inverting" },
-      priority: "fewest-stages",
+      priority: "fewest-op-amps",
       parts: { capacitorSeries: "E12", resistorSeries: "E96" },
     },
   },

@@ -283,6 +283,7 @@ export function chooseFamily(spec: DesignSpec): {
       family,
       order,
       stages,
+      opamps: order === null ? null : opampEstimate(spec, family, order),
       monotonic: MONOTONIC.has(family),
       ...(delay === undefined ? {} : { delayVariation: delay }),
     });
@@ -318,10 +319,12 @@ export function chooseFamily(spec: DesignSpec): {
       if (c.delay < best.delay - 1e-12) best = c;
       continue;
     }
+    const [first, second] =
+      spec.priority === "fewest-op-amps" ? (["opamps", "stages"] as const) : (["stages", "opamps"] as const);
     const better =
-      c.stages < best.stages ||
-      (c.stages === best.stages && c.opamps < best.opamps) ||
-      (c.stages === best.stages && c.opamps === best.opamps && c.slack > best.slack);
+      c[first] < best[first] ||
+      (c[first] === best[first] && c[second] < best[second]) ||
+      (c[first] === best[first] && c[second] === best[second] && c.slack > best.slack);
     if (better) best = c;
   }
   const list = scored
@@ -336,7 +339,9 @@ export function chooseFamily(spec: DesignSpec): {
       ? `${best.family} has the flattest passband group delay of the families meeting the mask`
       : spec.priority === "monotonic"
         ? `${best.family} needs the fewest stages among the families with a monotonic passband, then the fewest op-amps, then leaves the most room for part rounding`
-        : `${best.family} needs the fewest stages, then the fewest op-amps, then leaves the most room for part rounding`;
+        : spec.priority === "fewest-op-amps"
+          ? `${best.family} needs the fewest op-amps, then the fewest stages, then leaves the most room for part rounding`
+          : `${best.family} needs the fewest stages, then the fewest op-amps, then leaves the most room for part rounding`;
   return {
     family: best.family,
     order: best.order,

@@ -23,13 +23,18 @@ export type ResponseType = "lowpass" | "highpass" | "bandpass" | "bandstop";
 
 /**
  * How the family is chosen when the spec does not name one:
+ * - `fewest-op-amps`: the family whose circuit needs the fewest op-amps, then
+ *   the fewest stages (ties go to the candidate with the most room for part
+ *   rounding). Op-amps are what a board pays for in parts, power and noise,
+ *   so this is the default;
  * - `fewest-stages`: the family that meets the mask with the fewest stages
- *   (ties go to the candidate with the most room for part rounding);
+ *   (second-order sections), then the fewest op-amps; a notch section built
+ *   as a multi-amplifier stage still counts as one stage;
  * - `flattest-delay`: the family whose passband group delay varies least;
  * - `monotonic`: the fewest stages among families with a monotonic passband
  *   (Butterworth, Legendre, Bessel, Chebyshev II).
  */
-export type FamilyPriority = "fewest-stages" | "flattest-delay" | "monotonic";
+export type FamilyPriority = "fewest-op-amps" | "fewest-stages" | "flattest-delay" | "monotonic";
 
 /** Sign requirement on the passband gain. */
 export type Polarity = "non-inverting" | "inverting" | "either";
@@ -158,7 +163,7 @@ export interface FilterSpec {
   readonly family?: FamilyName | "auto";
   /**
    * What the automatic family choice optimises (ignored when a family is named).
-   * @defaultValue `"fewest-stages"`
+   * @defaultValue `"fewest-op-amps"`
    */
   readonly priority?: FamilyPriority;
   /**
@@ -236,7 +241,7 @@ export interface DesignSpec {
 }
 
 const RESPONSES: readonly ResponseType[] = ["lowpass", "highpass", "bandpass", "bandstop"];
-const PRIORITIES: readonly FamilyPriority[] = ["fewest-stages", "flattest-delay", "monotonic"];
+const PRIORITIES: readonly FamilyPriority[] = ["fewest-op-amps", "fewest-stages", "flattest-delay", "monotonic"];
 const POLARITIES: readonly Polarity[] = ["non-inverting", "inverting", "either"];
 /** Largest prototype order accepted. */
 export const MAX_SPEC_ORDER = 16;
@@ -513,7 +518,7 @@ export function validateSpec(spec: unknown): DesignSpec {
     const f = r.oneOf("family", spec["family"], [...FAMILY_NAMES, "auto"] as const);
     if (f !== undefined) family = f;
   }
-  let priority: FamilyPriority = "fewest-stages";
+  let priority: FamilyPriority = "fewest-op-amps";
   if (spec["priority"] !== undefined) {
     const p = r.oneOf("priority", spec["priority"], PRIORITIES);
     if (p !== undefined) priority = p;

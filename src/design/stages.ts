@@ -17,7 +17,10 @@
  * unity gain for low-Q lowpass/highpass at unity gain, Sallen-Key with gain
  * for low Q above unity, multiple feedback for moderate Q, inverting stages or
  * attenuation below unity, and multi-amplifier state-variable/Tow-Thomas
- * stages for high Q and for sections with finite zeros.
+ * stages for high Q and for sections with finite zeros. A single-op-amp stage
+ * whose capacitor spread would exceed a decade pays for it in the score (two
+ * points per further decade, against one point per extra op-amp), so Q above
+ * roughly 2.5 moves to a multi-amplifier stage.
  *
  * @module
  */
@@ -221,9 +224,40 @@ function gainSetByCapacitor(t: Topology, info: SectionInfo, got: number): boolea
   return false;
 }
 
+/**
+ * Capacitor spread (largest over smallest) of a single-op-amp second-order
+ * stage designed with the topology's own default choices, or 1 where that
+ * does not apply. A Sallen-Key or multiple-feedback lowpass needs a ratio
+ * that grows as 4Q^2 (times 1 + |gain| for multiple feedback), which is what
+ * pushes high-Q sections to multi-amplifier stages.
+ */
+function capacitorSpread(t: Topology, info: SectionInfo, got: number): number {
+  if (t.order !== 2 || t.opampCount !== 1) return 1;
+  try {
+    const values = t.design(baseTarget(info, (t.inverting ? -1 : 1) * got), {});
+    const caps = Object.entries(values)
+      .filter(([k]) => k.startsWith("C"))
+      .map(([, v]) => v);
+    if (caps.length < 2) return 1;
+    return Math.max(...caps) / Math.min(...caps);
+  } catch {
+    return 1;
+  }
+}
+
+/**
+ * Capacitor spread above which a single-op-amp stage starts to lose to a
+ * multi-amplifier one (common practice, no source: beyond a decade of spread
+ * the small capacitor nears board and op-amp input capacitance and the pair
+ * rarely shares a dielectric or tolerance class).
+ */
+export const CAPACITOR_SPREAD_SOFT_LIMIT = 10;
+
 function score(t: Topology, info: SectionInfo, wish: number, got: number, last: boolean): number {
   const q = info.q ?? 0.5;
   let s = t.opampCount;
+  // Two score points per decade of capacitor spread beyond the soft limit.
+  s += 2 * Math.max(0, Math.log10(capacitorSpread(t, info, got) / CAPACITOR_SPREAD_SOFT_LIMIT));
   if (Math.abs(got - 1) > 1e-9 && gainSetByCapacitor(t, info, got)) s += last ? 2 : 0.5;
   switch (classify(t)) {
     case "sk-unity":
@@ -258,7 +292,7 @@ function describeReason(t: Topology, info: SectionInfo, automatic: boolean, got:
     "sk-equal": "equal-component stage: equal parts, gain set by Q",
     "sk-gain": "low Q with gain above unity: non-inverting, one op-amp",
     mfb: "moderate Q or gain below unity: one op-amp, low sensitivity to the op-amp",
-    multi: "high Q or finite zeros: a multi-amplifier stage with independent f0 and Q",
+    multi: "high Q or finite zeros: a multi-amplifier stage with independent f0 and Q and no large capacitor spread",
     first: "first-order section",
     other: "best-scoring realisable topology",
   };

@@ -80,6 +80,8 @@ export interface FamilyCandidate {
   readonly order: number | null;
   /** Number of stages that order needs. */
   readonly stages: number | null;
+  /** Op-amps that order needs with the simplest topologies that realise its sections (an estimate before topologies are chosen). */
+  readonly opamps: number | null;
   /** Passband group-delay variation (max/min - 1) of that design, when computed. */
   readonly delayVariation?: number;
   /** Whether the family's passband is monotonic. */

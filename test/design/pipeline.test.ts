@@ -189,6 +189,22 @@ describe("designFilter outcomes", () => {
     const minStages = Math.min(...fewest.familyChoice.candidates.map((c) => c.stages ?? Infinity));
     expect(fewest.stages.length).toBe(minStages);
     expect(fewest.familyChoice.reason).toContain("fewest stages");
+    // The default priority counts op-amps first: for this anti-alias spec an
+    // elliptic design has the fewest stages but needs multi-amplifier notch stages.
+    const aa: FilterSpec = {
+      response: "lowpass",
+      passband: { edgeHz: 2000, maxLossDb: 0.1 },
+      stopband: { edgeHz: 24000, minAttenuationDb: 100 },
+    };
+    const byStages = designFilter({ ...aa, priority: "fewest-stages" });
+    const byOpamps = designFilter(aa);
+    expect(byOpamps.familyChoice.priority).toBe("fewest-op-amps");
+    const opampsOf = (r: typeof byOpamps): number =>
+      r.familyChoice.candidates.find((c) => c.family === r.family)?.opamps as number;
+    const fewestOpamps = Math.min(...byOpamps.familyChoice.candidates.map((c) => c.opamps ?? Infinity));
+    expect(opampsOf(byOpamps)).toBe(fewestOpamps);
+    expect(opampsOf(byOpamps)).toBeLessThan(opampsOf(byStages));
+    expect(byOpamps.familyChoice.reason).toContain("fewest op-amps");
     const mono = designFilter({ ...lp, priority: "monotonic" });
     expect(["butterworth", "legendre", "bessel", "chebyshev2"]).toContain(mono.family);
     const flat = designFilter({ ...lp, stopband: { edgeHz: 8000, minAttenuationDb: 30 }, priority: "flattest-delay" });

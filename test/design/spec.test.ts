@@ -26,7 +26,7 @@ describe("validateSpec", () => {
     expect(s.gain).toBe(1);
     expect(s.polarity).toBe("either");
     expect(s.family).toBe("auto");
-    expect(s.priority).toBe("fewest-stages");
+    expect(s.priority).toBe("fewest-op-amps");
     expect(s.order).toBeNull();
     expect(s.capacitorSeries).toBe("E12");
     expect(s.resistorSeries).toBe("E96");
