@@ -119,16 +119,27 @@ function tryDesign(
   }
 }
 
-/** How far a design's resistors sit from the centre of the window (1 = at an edge, > 1 outside). */
+/**
+ * How well a design's resistors sit in the window, as one sortable number.
+ * Inside the window it is the worst log distance from the centre (1 = at an
+ * edge). When the resistors spread wider than the window allows (a notch
+ * stage whose zero lies far above its pole needs R8/R9 = (fz/f0)^2), keeping
+ * most parts inside beats spreading the excess symmetrically over all of
+ * them: then the score is 2 + the number of resistors outside, plus a small
+ * term for how far the worst one strays.
+ */
 function centring(values: ComponentValues, range: { min: number; max: number }): number {
   const mid = Math.sqrt(range.min * range.max);
   const half = Math.log(range.max / mid);
   let worst = 0;
+  let outside = 0;
   for (const [k, v] of Object.entries(values)) {
     if (!isRes(k)) continue;
-    worst = Math.max(worst, Math.abs(Math.log(v / mid)) / half);
+    const d = Math.abs(Math.log(v / mid)) / half;
+    if (d > 1 + 1e-12) outside++;
+    worst = Math.max(worst, d);
   }
-  return worst;
+  return outside === 0 ? worst : 2 + outside + Math.min(worst, 1e3) / 1e4;
 }
 
 /** Capacitors of the series inside the window, best-centred first (at most `keep`). */
