@@ -226,6 +226,24 @@ describe("designFilter outcomes", () => {
     expect(r.verification.meetsSpec).toBe(true);
   });
 
+  it("keeps all but the unavoidable resistor inside the window when a notch stage's spread exceeds it", () => {
+    // Elliptic zeros far above the poles: a summing notch needs R8/R9 = (fz/f0)^2 > 100,
+    // wider than the 1k-100k window, so one resistor per stage must fall outside.
+    const r = designFilter({
+      response: "lowpass",
+      passband: { edgeHz: 2000, maxLossDb: 0.1 },
+      stopband: { edgeHz: 24000, minAttenuationDb: 100 },
+      family: "elliptic",
+    });
+    expect(r.verification.meetsSpec).toBe(true);
+    for (const stage of r.stages) {
+      const outside = Object.entries(stage.components).filter(
+        ([k, v]) => k.startsWith("R") && (v < 1000 * (1 - 1e-9) || v > 100000 * (1 + 1e-9)),
+      );
+      expect(outside.length).toBeLessThanOrEqual(1);
+    }
+  });
+
   it("warns when the op-amp's gain-bandwidth is too small and checks with that op-amp", () => {
     const r = designFilter({ ...lp, family: "chebyshev1", opamp: { a0: 1e5, gbwHz: 20000 } });
     expect(r.warnings.some((w) => w.code === "insufficient-gbw")).toBe(true);
