@@ -226,6 +226,23 @@ describe("designFilter outcomes", () => {
     expect(r.verification.meetsSpec).toBe(true);
   });
 
+  it("moves a high-Q lowpass section to a multi-amplifier stage rather than spread its capacitors beyond a decade", () => {
+    // 0.1 dB Chebyshev I: the highest section has Q near 3, where a single-op-amp
+    // lowpass needs a capacitor ratio of 4Q^2 (x 2 for multiple feedback) or more.
+    const r = designFilter({
+      response: "lowpass",
+      passband: { edgeHz: 2000, maxLossDb: 0.1 },
+      stopband: { edgeHz: 24000, minAttenuationDb: 100 },
+      family: "chebyshev1",
+      gain: { db: 6, polarity: "non-inverting" },
+    });
+    expect(r.verification.meetsSpec).toBe(true);
+    expect(r.warnings.filter((w) => w.code === "large-capacitor-ratio")).toEqual([]);
+    const highest = r.stages.reduce((a, b) => ((b.target.q ?? 0) > (a.target.q ?? 0) ? b : a));
+    expect(highest.target.q).toBeGreaterThan(2.5);
+    expect(["tow-thomas-lowpass", "state-variable-lowpass"]).toContain(highest.topology);
+  });
+
   it("keeps all but the unavoidable resistor inside the window when a notch stage's spread exceeds it", () => {
     // Elliptic zeros far above the poles: a summing notch needs R8/R9 = (fz/f0)^2 > 100,
     // wider than the 1k-100k window, so one resistor per stage must fall outside.
