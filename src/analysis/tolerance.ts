@@ -15,7 +15,6 @@
  */
 import { InvalidArgumentError } from "../errors.ts";
 import { requireInRange, requireInteger, requireOptions } from "../validate.ts";
-import { seriesTolerance } from "../parts/index.ts";
 import type { DesignResult } from "../design/index.ts";
 import { builtStages } from "../design/response.ts";
 import { checkMask, type BuiltStage } from "../design/verify.ts";
@@ -34,12 +33,12 @@ export interface MonteCarloOptions {
   readonly seed?: number;
   /**
    * Resistor tolerance as a fraction (0.01 for 1 %).
-   * @defaultValue the usual tolerance of the design's resistor series
+   * @defaultValue the spec's `parts.resistorTolerance` (the usual tolerance of its resistor series unless given)
    */
   readonly resistorTolerance?: number;
   /**
    * Capacitor tolerance as a fraction.
-   * @defaultValue the usual tolerance of the design's capacitor series
+   * @defaultValue the spec's `parts.capacitorTolerance` (the usual tolerance of its capacitor series unless given)
    */
   readonly capacitorTolerance?: number;
 }
@@ -123,11 +122,11 @@ export function monteCarlo(result: DesignResult, options?: MonteCarloOptions): M
   const seed = o["seed"] === undefined ? 1 : requireInteger(fn, "options.seed", o["seed"], { min: -(2 ** 31), max: 2 ** 32 - 1 });
   const rt =
     o["resistorTolerance"] === undefined
-      ? seriesTolerance(result.spec.resistorSeries)
+      ? result.spec.resistorTolerance
       : requireInRange(fn, "options.resistorTolerance", o["resistorTolerance"], { min: 0, max: 0.5 });
   const ct =
     o["capacitorTolerance"] === undefined
-      ? seriesTolerance(result.spec.capacitorSeries)
+      ? result.spec.capacitorTolerance
       : requireInRange(fn, "options.capacitorTolerance", o["capacitorTolerance"], { min: 0, max: 0.5 });
   if (result === null || typeof result !== "object" || !Array.isArray(result.stages)) {
     throw new InvalidArgumentError({ fn, path: "result", received: result, message: "expected a design result from designFilter" });

@@ -58,6 +58,7 @@ spec options:
   --caps SERIES          capacitor series (default E12)
   --res SERIES           resistor series (default E96)
   --r-min OHMS --r-max OHMS   resistor window (default 1k to 100k)
+  --cap-tol T --res-tol T     part tolerances, e.g. 2% or 0.02 (default: the series' usual)
   --gbw HZ [--a0 GAIN]   real op-amp (single pole); default ideal
 
 output options:
@@ -90,6 +91,8 @@ const VALUE_OPTIONS = new Set([
   "res",
   "r-min",
   "r-max",
+  "cap-tol",
+  "res-tol",
   "gbw",
   "a0",
   "spec",
@@ -135,6 +138,16 @@ function parseArgs(argv: readonly string[]): { positional: string[]; options: Ma
 function num(text: string): number | string {
   const t = text.trim();
   return t !== "" && Number.isFinite(Number(t)) ? Number(t) : text;
+}
+
+/** A tolerance written as `2%` or `0.02`; anything else is passed on for the spec check to reject. */
+function fraction(text: string): number | string {
+  const t = text.trim();
+  if (t.endsWith("%")) {
+    const v = num(t.slice(0, -1));
+    return typeof v === "number" ? v / 100 : text;
+  }
+  return num(t);
 }
 
 function edge(text: string): string | number | [string | number, string | number] {
@@ -189,6 +202,8 @@ function specFromOptions(base: Record<string, unknown>, o: Map<string, string | 
   v("res", (x) => (sub("parts")["resistorSeries"] = x.toUpperCase()));
   v("r-min", (x) => (sub("parts")["resistorMinOhm"] = num(x)));
   v("r-max", (x) => (sub("parts")["resistorMaxOhm"] = num(x)));
+  v("cap-tol", (x) => (sub("parts")["capacitorTolerance"] = fraction(x)));
+  v("res-tol", (x) => (sub("parts")["resistorTolerance"] = fraction(x)));
   const gbw = get("gbw");
   const a0 = get("a0");
   if (a0 !== undefined && gbw === undefined) throw new UsageError("--a0 needs --gbw as well");

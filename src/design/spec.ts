@@ -14,7 +14,7 @@
 import { SpecError, type Issue } from "../errors.ts";
 import type { OpAmpModel } from "../circuit/types.ts";
 import { FAMILY_NAMES, type FamilyName } from "../approx/index.ts";
-import { SERIES_NAMES, type SeriesName } from "../parts/index.ts";
+import { SERIES_NAMES, seriesTolerance, type SeriesName } from "../parts/index.ts";
 import { parseValue } from "../units/index.ts";
 import { getTopology, topologies } from "../topologies/index.ts";
 
@@ -98,6 +98,19 @@ export interface PartsSpec {
    * @defaultValue `"E96"`
    */
   readonly resistorSeries?: SeriesName;
+  /**
+   * Capacitor tolerance as a fraction (0.02 for 2 %): what the BOM asks for
+   * and what tolerance analysis assumes. Stock C0G/NP0 capacitors come in
+   * E12 values at 1 %, 2 % and 5 %, so a tight filter need not accept the
+   * series' usual 10 %.
+   * @defaultValue the usual tolerance of `capacitorSeries` (E12: 0.1)
+   */
+  readonly capacitorTolerance?: number;
+  /**
+   * Resistor tolerance as a fraction (0.001 for 0.1 %).
+   * @defaultValue the usual tolerance of `resistorSeries` (E96: 0.01)
+   */
+  readonly resistorTolerance?: number;
   /**
    * Smallest resistor wanted, ohms (common practice, no source: below about 1 kΩ
    * op-amp output current and distortion grow).
@@ -232,6 +245,10 @@ export interface DesignSpec {
   readonly capacitorSeries: SeriesName;
   /** Resistor series. */
   readonly resistorSeries: SeriesName;
+  /** Capacitor tolerance as a fraction. */
+  readonly capacitorTolerance: number;
+  /** Resistor tolerance as a fraction. */
+  readonly resistorTolerance: number;
   /** Resistor window, ohms. */
   readonly resistorRange: ValueWindow;
   /** Capacitor window, farads. */
@@ -566,6 +583,8 @@ export function validateSpec(spec: unknown): DesignSpec {
   let rMax = 1e5;
   let cMin = 1e-10;
   let cMax = 1e-5;
+  let capacitorTolerance: number | undefined;
+  let resistorTolerance: number | undefined;
   const parts = spec["parts"];
   if (parts !== undefined) {
     if (!isObject(parts)) {
@@ -573,7 +592,16 @@ export function validateSpec(spec: unknown): DesignSpec {
     } else {
       r.unknownKeys(
         parts,
-        ["capacitorSeries", "resistorSeries", "resistorMinOhm", "resistorMaxOhm", "capacitorMinF", "capacitorMaxF"],
+        [
+          "capacitorSeries",
+          "resistorSeries",
+          "capacitorTolerance",
+          "resistorTolerance",
+          "resistorMinOhm",
+          "resistorMaxOhm",
+          "capacitorMinF",
+          "capacitorMaxF",
+        ],
         "parts.",
       );
       if (parts["capacitorSeries"] !== undefined) {
@@ -584,6 +612,12 @@ export function validateSpec(spec: unknown): DesignSpec {
         const s = r.oneOf("parts.resistorSeries", parts["resistorSeries"], SERIES_NAMES);
         if (s !== undefined) resistorSeries = s;
       }
+      const tolerance = (key: "capacitorTolerance" | "resistorTolerance"): number | undefined =>
+        parts[key] === undefined
+          ? undefined
+          : r.number(`parts.${key}`, parts[key], { min: 0, max: 0.5, exclusiveMin: true }, "a tolerance as a fraction (0.01 for 1 %)");
+      capacitorTolerance = tolerance("capacitorTolerance");
+      resistorTolerance = tolerance("resistorTolerance");
       const q = (key: string, unit: string, fallback: number): number => {
         if (parts[key] === undefined) return fallback;
         return r.quantity(`parts.${key}`, parts[key], unit) ?? fallback;
@@ -634,6 +668,8 @@ export function validateSpec(spec: unknown): DesignSpec {
     stageTopologies: Object.freeze(stageTopologies),
     capacitorSeries,
     resistorSeries,
+    capacitorTolerance: capacitorTolerance ?? seriesTolerance(capacitorSeries),
+    resistorTolerance: resistorTolerance ?? seriesTolerance(resistorSeries),
     resistorRange: Object.freeze({ min: rMin, max: rMax }),
     capacitorRange: Object.freeze({ min: cMin, max: cMax }),
     opamp: Object.freeze({ ...opamp }),
@@ -687,6 +723,8 @@ export function specToInput(spec: DesignSpec): FilterSpec {
     parts: {
       capacitorSeries: spec.capacitorSeries,
       resistorSeries: spec.resistorSeries,
+      capacitorTolerance: spec.capacitorTolerance,
+      resistorTolerance: spec.resistorTolerance,
       resistorMinOhm: spec.resistorRange.min,
       resistorMaxOhm: spec.resistorRange.max,
       capacitorMinF: spec.capacitorRange.min,

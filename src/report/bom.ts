@@ -10,7 +10,6 @@
  * @module
  */
 import { formatRkm, formatValue } from "../units/index.ts";
-import { seriesTolerance } from "../parts/index.ts";
 import type { DesignResult } from "../design/index.ts";
 
 /** One line of the bill of materials. */
@@ -62,7 +61,7 @@ export function bomLines(result: DesignResult): BomLine[] {
     .sort((a, b) => rank(a.part) - rank(b.part) || a.value - b.value)
     .map((g) => {
       const series = g.part === "resistor" ? result.spec.resistorSeries : result.spec.capacitorSeries;
-      const tol = seriesTolerance(series) * 100;
+      const tol = (g.part === "resistor" ? result.spec.resistorTolerance : result.spec.capacitorTolerance) * 100;
       return {
         designators: g.designators,
         part: g.part,

@@ -54,7 +54,8 @@ export function toMarkdown(result: DesignResult): string {
   L.push(`| passband edge(s) | ${edges(s.passbandHz)}, loss at most ${s.maxLossDb} dB |`);
   L.push(`| stopband edge(s) | ${edges(s.stopbandHz)}, attenuation at least ${s.minAttenuationDb} dB |`);
   L.push(`| gain | ${n4(20 * Math.log10(s.gain))} dB (${n4(s.gain)} V/V), polarity ${s.polarity}, tolerance ${s.gainToleranceDb} dB |`);
-  L.push(`| parts | capacitors ${s.capacitorSeries}, resistors ${s.resistorSeries} in ${formatValue(s.resistorRange.min, { unit: "Ω" })} – ${formatValue(s.resistorRange.max, { unit: "Ω" })} |`);
+  const pct = (x: number): string => `${Number((x * 100).toPrecision(3))} %`;
+  L.push(`| parts | capacitors ${s.capacitorSeries} ±${pct(s.capacitorTolerance)}, resistors ${s.resistorSeries} ±${pct(s.resistorTolerance)} in ${formatValue(s.resistorRange.min, { unit: "Ω" })} – ${formatValue(s.resistorRange.max, { unit: "Ω" })} |`);
   L.push(`| op-amp | ${s.opamp.kind === "ideal" ? "ideal" : `A0 ${n4(s.opamp.a0)}, GBW ${f3(s.opamp.gbwHz)}`} |`, "");
   L.push("## Approximation", "");
   L.push(`Family **${result.family}**, prototype order ${result.order} (minimum ${result.minimumOrder}). ${result.familyChoice.reason}`, "");

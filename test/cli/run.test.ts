@@ -50,6 +50,19 @@ describe("runCli", () => {
     expect(io.files["d.svg"]?.startsWith("<svg")).toBe(true);
   });
 
+  it("takes part tolerances as percentages into the BOM and the Monte Carlo run", () => {
+    const io = fakeIo();
+    const code = runCli([...LP, "--cap-tol", "2%", "--res-tol", "0.001", "--bom", "t.csv", "--yield", "50"], io);
+    expect(code).toBe(0);
+    const rows = (io.files["t.csv"] as string).trim().split("\n").slice(1);
+    expect(rows.filter((r) => r.includes(",capacitor,")).every((r) => r.includes(",2%,"))).toBe(true);
+    expect(rows.filter((r) => r.includes(",resistor,")).every((r) => r.includes(",0.1%,"))).toBe(true);
+    expect(io.out).toMatch(/resistors \+-0\.1 %, capacitors \+-2\.0 %/);
+    const bad = fakeIo();
+    expect(runCli([...LP, "--cap-tol", "80%"], bad)).toBe(2);
+    expect(bad.err).toContain("parts.capacitorTolerance");
+  });
+
   it("designs every example spec in examples/", () => {
     const dir = join(dirname(fileURLToPath(import.meta.url)), "..", "..", "examples");
     const files = readdirSync(dir).filter((f) => f.endsWith(".json"));

@@ -18,6 +18,23 @@ function issuesOf(spec: unknown): { path: string; message: string }[] {
   throw new Error("expected a SpecError");
 }
 
+describe("validateSpec part tolerances", () => {
+  it("defaults to the series' usual tolerance and takes an explicit fraction", () => {
+    const d = validateSpec(base);
+    expect(d.capacitorTolerance).toBe(0.1);
+    expect(d.resistorTolerance).toBe(0.01);
+    const s = validateSpec({ ...base, parts: { capacitorSeries: "E24", capacitorTolerance: 0.02, resistorTolerance: 0.001 } });
+    expect(s.capacitorTolerance).toBe(0.02);
+    expect(s.resistorTolerance).toBe(0.001);
+    expect(validateSpec(specToInput(s))).toEqual(s);
+  });
+
+  it("lists a non-positive or too-large tolerance with its path", () => {
+    const issues = issuesOf({ ...base, parts: { capacitorTolerance: 0, resistorTolerance: 0.7 } });
+    expect(issues.map((i) => i.path).sort()).toEqual(["parts.capacitorTolerance", "parts.resistorTolerance"]);
+  });
+});
+
 describe("validateSpec", () => {
   it("fills every default and reads engineering notation", () => {
     const s = validateSpec(base);
