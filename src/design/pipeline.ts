@@ -28,7 +28,7 @@ import { getTopology } from "../topologies/index.ts";
 import { validateSpec, MAX_SPEC_ORDER, type DesignSpec } from "./spec.ts";
 import { AUTO_MAX_ORDER, chooseFamily, choosePrototype, MARGIN_LEVELS, designPrototype, type PrototypeDesign } from "./family.ts";
 import { intervalWidth, placeInInterval, transformPrototype } from "./placement.ts";
-import { describeSections, peakGrid, planStages, type StagePlan } from "./stages.ts";
+import { CAPACITOR_SPREAD_SOFT_LIMIT, describeSections, peakGrid, planStages, type StagePlan } from "./stages.ts";
 import { tuneStage, type TunedStage, type ValueSet } from "./components.ts";
 import {
   checkMask,
@@ -51,8 +51,8 @@ import type {
 
 const TWO_PI = 2 * Math.PI;
 const IDEAL: OpAmpModel = { kind: "ideal" };
-/** Capacitor ratio above which a warning is given (common practice, no source). */
-export const LARGE_CAPACITOR_RATIO = 10;
+/** Capacitor ratio above which a warning is given: the same decade of spread that topology choice avoids (common practice, no source). */
+export const LARGE_CAPACITOR_RATIO = CAPACITOR_SPREAD_SOFT_LIMIT;
 /** Points of the response curve stored in a result. */
 export const CURVE_POINTS = 256;
 
