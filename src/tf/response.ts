@@ -32,6 +32,7 @@ import type { Complex } from "../math/complex.ts";
 import { isCascade, requireGrid, requireSystem } from "./check.ts";
 import { fromSectionsUnchecked } from "./sections.ts";
 import type { SectionCascade, Zpk } from "./types.ts";
+import { evalZpkUnchecked } from "./zpk.ts";
 
 /** Magnitudes below this (in dB), including an exact transmission zero, are reported as this value. */
 export const MAGNITUDE_FLOOR_DB = -400;
@@ -181,47 +182,12 @@ export function zpkResponseUnchecked(system: Zpk, w: Float64Array): ComplexRespo
         continue;
       }
     }
-    const v = zpkPointSingle(system, wk);
+    // s = -0 + j wk: `-0 - Re r` is exactly `-Re r`, signed zeros included.
+    const v = evalZpkUnchecked(system, -0, wk);
     outRe[k] = v.re;
     outIm[k] = v.im;
   }
   return { re: outRe, im: outIm };
-}
-
-/** H(jw) at one point, one root at a time with Smith's division (slow, overflow-safe path). */
-function zpkPointSingle(system: Zpk, w: number): Complex {
-  let re = system.gain;
-  let im = 0;
-  const m = Math.max(system.zeros.length, system.poles.length);
-  for (let i = 0; i < m; i++) {
-    const z = system.zeros[i];
-    if (z !== undefined) {
-      const ar = -z.re;
-      const ai = w - z.im;
-      const t = re * ar - im * ai;
-      im = re * ai + im * ar;
-      re = t;
-    }
-    const p = system.poles[i];
-    if (p !== undefined) {
-      const br = -p.re;
-      const bi = w - p.im;
-      if (Math.abs(br) >= Math.abs(bi)) {
-        const r = bi / br;
-        const d = br + bi * r;
-        const t = (re + im * r) / d;
-        im = (im - re * r) / d;
-        re = t;
-      } else {
-        const r = br / bi;
-        const d = br * r + bi;
-        const t = (re * r + im) / d;
-        im = (im * r - re) / d;
-        re = t;
-      }
-    }
-  }
-  return { re, im };
 }
 
 /** Cascade response core (no checks). */

@@ -44,33 +44,42 @@ export function zpk(zeros: readonly Complex[], poles: readonly Complex[], gain: 
   });
 }
 
-/** H(s) of a zpk, no checks (internal core). */
+/**
+ * H(s) of a zpk, no checks (internal core). One root at a time with Smith's
+ * division, interleaving zeros and poles so that no partial product
+ * overflows; also the slow, overflow-safe path of the frequency response.
+ */
 export function evalZpkUnchecked(system: Zpk, sr: number, si: number): Complex {
   let re = system.gain;
   let im = 0;
-  for (const z of system.zeros) {
-    const ar = sr - z.re;
-    const ai = si - z.im;
-    const t = re * ar - im * ai;
-    im = re * ai + im * ar;
-    re = t;
-  }
-  for (const p of system.poles) {
-    const br = sr - p.re;
-    const bi = si - p.im;
-    // Smith's division (re + j im) / (br + j bi)
-    if (Math.abs(br) >= Math.abs(bi)) {
-      const r = bi / br;
-      const d = br + bi * r;
-      const t = (re + im * r) / d;
-      im = (im - re * r) / d;
+  const m = Math.max(system.zeros.length, system.poles.length);
+  for (let i = 0; i < m; i++) {
+    const z = system.zeros[i];
+    if (z !== undefined) {
+      const ar = sr - z.re;
+      const ai = si - z.im;
+      const t = re * ar - im * ai;
+      im = re * ai + im * ar;
       re = t;
-    } else {
-      const r = br / bi;
-      const d = br * r + bi;
-      const t = (re * r + im) / d;
-      im = (im * r - re) / d;
-      re = t;
+    }
+    const p = system.poles[i];
+    if (p !== undefined) {
+      const br = sr - p.re;
+      const bi = si - p.im;
+      // Smith's division (re + j im) / (br + j bi)
+      if (Math.abs(br) >= Math.abs(bi)) {
+        const r = bi / br;
+        const d = br + bi * r;
+        const t = (re + im * r) / d;
+        im = (im - re * r) / d;
+        re = t;
+      } else {
+        const r = br / bi;
+        const d = br * r + bi;
+        const t = (re * r + im) / d;
+        im = (im * r - re) / d;
+        re = t;
+      }
     }
   }
   return { re, im };
