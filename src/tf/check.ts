@@ -107,6 +107,31 @@ export function requireCascade(fn: string, path: string, value: unknown): Sectio
   return value as SectionCascade;
 }
 
+/**
+ * Require a proper zpk (no more zeros than poles) whose poles all lie in the
+ * open left half-plane (Re < 0); the argument path is `system`.
+ *
+ * @param fn - public function name
+ * @param system - a validated zpk
+ * @param why - the end of the improper-system message (after "an improper system (n zeros, m poles) ") and the whole message for a pole with Re >= 0
+ * @throws {@link InvalidArgumentError} when improper or a pole is not in the open left half-plane
+ */
+export function requireProperStable(fn: string, system: Zpk, why: { readonly improper: string; readonly unstable: string }): void {
+  if (system.zeros.length > system.poles.length) {
+    throw new InvalidArgumentError({
+      fn,
+      path: "system.zeros",
+      received: system.zeros.length,
+      message: `an improper system (${system.zeros.length} zeros, ${system.poles.length} poles) ${why.improper}`,
+    });
+  }
+  system.poles.forEach((p, i) => {
+    if (!(p.re < 0)) {
+      throw new InvalidArgumentError({ fn, path: `system.poles[${i}]`, received: p, message: why.unstable });
+    }
+  });
+}
+
 /** True when the value looks like a cascade rather than a zpk (has `sections`). */
 export function isCascade(value: unknown): value is SectionCascade {
   return typeof value === "object" && value !== null && "sections" in value;

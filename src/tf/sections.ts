@@ -23,7 +23,7 @@
 import { InvalidArgumentError } from "../errors.ts";
 import type { Complex } from "../math/complex.ts";
 import { requireOptions } from "../validate.ts";
-import { requireCascade, requireSection, requireZpk } from "./check.ts";
+import { requireCascade, requireProperStable, requireSection, requireZpk } from "./check.ts";
 import type { FirstOrderSection, NotchType, SecondOrderSection, Section, SectionCascade, SectionKind, Zpk } from "./types.ts";
 
 /** Order in which {@link toSections} lists the sections. */
@@ -63,16 +63,29 @@ function dist(a: Complex, b: Complex): number {
   return Math.hypot(a.re - b.re, a.im - b.im);
 }
 
-/** Split into real values and the upper members (im > 0) of conjugate pairs, keeping input indices. */
-function splitPairs(values: readonly Complex[]): { real: { v: Complex; i: number }[]; upper: { v: Complex; i: number }[] } {
-  const real: { v: Complex; i: number }[] = [];
-  const upper: { v: Complex; i: number }[] = [];
+/** A real value or the upper member (im > 0) of a conjugate pair, with its input index. */
+export interface PairRepresentative {
+  /** The real value as given, or the pair's mean upper member. */
+  readonly v: Complex;
+  /** The smaller input index of the value or pair. */
+  readonly i: number;
+  /** True for a real value, false for a conjugate pair. */
+  readonly real: boolean;
+}
+
+/**
+ * Real values and the upper members of conjugate pairs, in input order
+ * (conjugate-closed input assumed: each non-real value is matched with its
+ * nearest unused conjugate, and the pair is represented by their mean).
+ */
+export function pairRepresentatives(values: readonly Complex[]): PairRepresentative[] {
+  const out: PairRepresentative[] = [];
   const used = new Uint8Array(values.length);
   values.forEach((v, i) => {
     if (used[i] === 1) return;
     used[i] = 1;
     if (v.im === 0) {
-      real.push({ v, i });
+      out.push({ v, i, real: true });
       return;
     }
     // find the conjugate partner (validated to exist)
@@ -88,8 +101,16 @@ function splitPairs(values: readonly Complex[]): { real: { v: Complex; i: number
     });
     used[best] = 1;
     const u = values[best] as Complex;
-    upper.push({ v: { re: (v.re + u.re) / 2, im: (Math.abs(v.im) + Math.abs(u.im)) / 2 }, i: Math.min(i, best) });
+    out.push({ v: { re: (v.re + u.re) / 2, im: (Math.abs(v.im) + Math.abs(u.im)) / 2 }, i: Math.min(i, best), real: false });
   });
+  return out;
+}
+
+/** Split into real values and the upper members (im > 0) of conjugate pairs, keeping input indices. */
+function splitPairs(values: readonly Complex[]): { real: { v: Complex; i: number }[]; upper: { v: Complex; i: number }[] } {
+  const real: { v: Complex; i: number }[] = [];
+  const upper: { v: Complex; i: number }[] = [];
+  for (const r of pairRepresentatives(values)) (r.real ? real : upper).push({ v: r.v, i: r.i });
   return { real, upper };
 }
 
@@ -321,23 +342,9 @@ export function toSections(system: Zpk, options?: ToSectionsOptions): SectionCas
     }
     ordering = o;
   }
-  if (system.zeros.length > system.poles.length) {
-    throw new InvalidArgumentError({
-      fn,
-      path: "system.zeros",
-      received: system.zeros.length,
-      message: `an improper system (${system.zeros.length} zeros, ${system.poles.length} poles) cannot be split into sections; give no more zeros than poles`,
-    });
-  }
-  system.poles.forEach((p, i) => {
-    if (!(p.re < 0)) {
-      throw new InvalidArgumentError({
-        fn,
-        path: `system.poles[${i}]`,
-        received: p,
-        message: "section poles must lie in the open left half-plane (Re < 0)",
-      });
-    }
+  requireProperStable(fn, system, {
+    improper: "cannot be split into sections; give no more zeros than poles",
+    unstable: "section poles must lie in the open left half-plane (Re < 0)",
   });
   for (const [list, name] of [
     [system.poles, "poles"],

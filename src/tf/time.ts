@@ -31,7 +31,7 @@
 import { InvalidArgumentError } from "../errors.ts";
 import { expmUnchecked } from "../math/expm.ts";
 import { requireInRange, requireOptions } from "../validate.ts";
-import { isCascade, requireGrid, requireSystem } from "./check.ts";
+import { isCascade, requireGrid, requireProperStable, requireSystem } from "./check.ts";
 import { toSectionsUnchecked } from "./sections.ts";
 import type { SectionCascade, Zpk } from "./types.ts";
 import { evalZpkUnchecked } from "./zpk.ts";
@@ -197,23 +197,9 @@ function prepare(fn: string, system: Zpk | SectionCascade): { ss: StateSpace; dc
     });
     cascade = system;
   } else {
-    if (system.zeros.length > system.poles.length) {
-      throw new InvalidArgumentError({
-        fn,
-        path: "system.zeros",
-        received: system.zeros.length,
-        message: `an improper system (${system.zeros.length} zeros, ${system.poles.length} poles) has no finite step response; give no more zeros than poles`,
-      });
-    }
-    system.poles.forEach((p, i) => {
-      if (!(p.re < 0)) {
-        throw new InvalidArgumentError({
-          fn,
-          path: `system.poles[${i}]`,
-          received: p,
-          message: "time responses need poles in the open left half-plane (Re < 0)",
-        });
-      }
+    requireProperStable(fn, system, {
+      improper: "has no finite step response; give no more zeros than poles",
+      unstable: "time responses need poles in the open left half-plane (Re < 0)",
     });
     cascade = toSectionsUnchecked(system, "as-given");
   }

@@ -29,6 +29,7 @@ import { InvalidArgumentError } from "../errors.ts";
 import { cdiv, cmul, csqrt, type Complex } from "../math/complex.ts";
 import { requireOptions, requirePositive } from "../validate.ts";
 import { requireZpk } from "./check.ts";
+import { pairRepresentatives } from "./sections.ts";
 import type { Zpk } from "./types.ts";
 
 /** Options of {@link lowpassToLowpass} and {@link lowpassToHighpass}. */
@@ -43,34 +44,6 @@ export interface BandOptions {
   readonly w0: number;
   /** Bandwidth B (rad/s) between the band edges that the prototype's 1 rad/s maps to; > 0. */
   readonly bandwidth: number;
-}
-
-/** Upper members of conjugate pairs and real values, as one list of representatives. */
-function representatives(values: readonly Complex[]): Complex[] {
-  const out: Complex[] = [];
-  const used = new Uint8Array(values.length);
-  values.forEach((v, i) => {
-    if (used[i] === 1) return;
-    used[i] = 1;
-    if (v.im === 0) {
-      out.push(v);
-      return;
-    }
-    let best = -1;
-    let bestD = Infinity;
-    values.forEach((u, j) => {
-      if (used[j] === 1) return;
-      const d = Math.hypot(u.re - v.re, u.im + v.im);
-      if (d < bestD) {
-        bestD = d;
-        best = j;
-      }
-    });
-    used[best] = 1;
-    const u = values[best] as Complex;
-    out.push({ re: (v.re + u.re) / 2, im: (Math.abs(v.im) + Math.abs(u.im)) / 2 });
-  });
-  return out;
 }
 
 /** Both roots of x^2 - 2 h x + w0^2 = 0 (h complex), accurately. */
@@ -88,7 +61,7 @@ function quadraticPair(h: Complex, w0: number): [Complex, Complex] {
 /** Map each representative through the band transform and emit conjugate-closed roots. */
 function bandRoots(values: readonly Complex[], halfB: number, w0: number, invert: boolean): Complex[] {
   const out: Complex[] = [];
-  for (const r of representatives(values)) {
+  for (const { v: r } of pairRepresentatives(values)) {
     // bandpass: h = r B/2; bandstop: h = (B/2) / r
     const h = invert ? cdiv({ re: halfB, im: 0 }, r) : { re: r.re * halfB, im: r.im * halfB };
     const [x1, x2] = quadraticPair(h, w0);
