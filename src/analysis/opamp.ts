@@ -17,6 +17,7 @@ import { logGrid } from "../tf/index.ts";
 import { requireOptions, requirePositive } from "../validate.ts";
 import { responseSpanHz, type DesignResult } from "../design/index.ts";
 import { builtStages } from "../design/response.ts";
+import { multiplyInPlace } from "../design/verify.ts";
 
 /** Options of {@link opampRequirements}. */
 export interface OpampRequirementOptions {
@@ -72,18 +73,12 @@ export function opampRequirements(result: DesignResult, options?: OpampRequireme
   const re = new Float64Array(n).fill(1);
   const im = new Float64Array(n);
   return stages.map((s, k) => {
-    const h = s.topology.response(s.values, f, result.spec.opamp);
+    multiplyInPlace(re, im, s.topology.response(s.values, f, result.spec.opamp));
     let peak = 0;
     let peakHz = f[0] as number;
     let slew = 0;
     let slewHz = f[0] as number;
     for (let i = 0; i < n; i++) {
-      const a = re[i] as number;
-      const b = im[i] as number;
-      const c = h.re[i] as number;
-      const d = h.im[i] as number;
-      re[i] = a * c - b * d;
-      im[i] = a * d + b * c;
       const m = Math.hypot(re[i] as number, im[i] as number);
       if (m > peak) {
         peak = m;

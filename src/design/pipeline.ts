@@ -34,6 +34,7 @@ import {
   checkMask,
   gridMarginDb,
   maskGrid,
+  multiplyInPlace,
   partialPeaks,
   responseCurve,
   type BuiltStage,
@@ -167,17 +168,7 @@ function retuneToMask(spec: DesignSpec, a: Attempt): Attempt {
   const marginOf = (sets: readonly ValueSet[]): number => {
     const re = new Float64Array(n).fill(1);
     const im = new Float64Array(n);
-    sets.forEach((v, i) => {
-      const h = responseOf(i, v);
-      for (let k = 0; k < n; k++) {
-        const x = re[k] as number;
-        const y = im[k] as number;
-        const c = h.re[k] as number;
-        const d = h.im[k] as number;
-        re[k] = x * c - y * d;
-        im[k] = x * d + y * c;
-      }
-    });
+    sets.forEach((v, i) => multiplyInPlace(re, im, responseOf(i, v)));
     const mag = new Float64Array(n);
     for (let k = 0; k < n; k++) mag[k] = Math.hypot(re[k] as number, im[k] as number);
     return gridMarginDb(spec, grid, mag);

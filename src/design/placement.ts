@@ -38,6 +38,7 @@ import {
   lowpassToLowpass,
 } from "../tf/index.ts";
 import type { DesignSpec } from "./spec.ts";
+import { goldenMax } from "./verify.ts";
 
 const TWO_PI = 2 * Math.PI;
 const DB_SLACK = 1e-5;
@@ -194,30 +195,8 @@ function bestCentre(
     const iv = bandInterval(response, Math.exp(lw), wp, ws, passW, stopW);
     return Math.log(iv.high / iv.low);
   };
-  let lo = Math.log(inner[0] as number);
-  let hi = Math.log(inner[1] as number);
-  const phi = (Math.sqrt(5) - 1) / 2;
-  let x1 = hi - phi * (hi - lo);
-  let x2 = lo + phi * (hi - lo);
-  let f1 = width(x1);
-  let f2 = width(x2);
-  for (let k = 0; k < 80 && hi - lo > 1e-12; k++) {
-    if (f1 < f2) {
-      lo = x1;
-      x1 = x2;
-      f1 = f2;
-      x2 = lo + phi * (hi - lo);
-      f2 = width(x2);
-    } else {
-      hi = x2;
-      x2 = x1;
-      f2 = f1;
-      x1 = hi - phi * (hi - lo);
-      f1 = width(x1);
-    }
-  }
   const geometric = 0.5 * (Math.log(wp[0] as number) + Math.log(wp[1] as number));
-  const best = f1 > f2 ? x1 : x2;
+  const best = goldenMax(width, [Math.log(inner[0] as number), Math.log(inner[1] as number)], { iterations: 80, width: 1e-12 });
   // Keep the passband's geometric centre unless the search finds a clearly wider interval.
   const lw = width(best) > width(geometric) + 1e-9 ? best : geometric;
   const w0 = Math.exp(lw);

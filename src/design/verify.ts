@@ -51,18 +51,27 @@ export interface Samples {
 export function cascadeResponse(stages: readonly BuiltStage[], freqHz: Float64Array, opamp: OpAmpModel): Samples {
   const re = new Float64Array(freqHz.length).fill(1);
   const im = new Float64Array(freqHz.length);
-  for (const s of stages) {
-    const h = s.topology.response(s.values, freqHz, opamp);
-    for (let i = 0; i < freqHz.length; i++) {
-      const a = re[i] as number;
-      const b = im[i] as number;
-      const c = h.re[i] as number;
-      const d = h.im[i] as number;
-      re[i] = a * c - b * d;
-      im[i] = a * d + b * c;
-    }
-  }
+  for (const s of stages) multiplyInPlace(re, im, s.topology.response(s.values, freqHz, opamp));
   return { re, im };
+}
+
+/**
+ * Multiply a complex response in place by another of the same length, point
+ * by point: `(re + j im) *= (h.re + j h.im)`.
+ *
+ * @param re - real parts, overwritten
+ * @param im - imaginary parts, overwritten
+ * @param h - the factor
+ */
+export function multiplyInPlace(re: Float64Array, im: Float64Array, h: Samples): void {
+  for (let i = 0; i < re.length; i++) {
+    const a = re[i] as number;
+    const b = im[i] as number;
+    const c = h.re[i] as number;
+    const d = h.im[i] as number;
+    re[i] = a * c - b * d;
+    im[i] = a * d + b * c;
+  }
 }
 
 /** The bands of the mask as Hz intervals. */
@@ -145,15 +154,26 @@ type MagFn = (f: number) => number;
 
 const PHI = (Math.sqrt(5) - 1) / 2;
 
-function golden(fn: MagFn, a: number, b: number, maximise: boolean): { f: number; m: number } {
-  let lo = Math.log(a);
-  let hi = Math.log(b);
-  const g = (x: number): number => (maximise ? fn(Math.exp(x)) : -fn(Math.exp(x)));
+/**
+ * Golden-section search for the maximum of a unimodal function on `[lo, hi]`
+ * (J. Kiefer, "Sequential minimax search for a maximum", Proc. AMS 4, 1953).
+ *
+ * @param g - function to maximise
+ * @param lo - lower end of the interval
+ * @param hi - upper end of the interval
+ * @param stop - at most `iterations` steps, or until the interval is narrower than `width`
+ * @returns the better of the two final interior points
+ */
+export function goldenMax(
+  g: (x: number) => number,
+  [lo, hi]: readonly [number, number],
+  stop: { readonly iterations: number; readonly width: number },
+): number {
   let x1 = hi - PHI * (hi - lo);
   let x2 = lo + PHI * (hi - lo);
   let g1 = g(x1);
   let g2 = g(x2);
-  for (let k = 0; k < 60 && hi - lo > 1e-9; k++) {
+  for (let k = 0; k < stop.iterations && hi - lo > stop.width; k++) {
     if (g1 < g2) {
       lo = x1;
       x1 = x2;
@@ -168,7 +188,12 @@ function golden(fn: MagFn, a: number, b: number, maximise: boolean): { f: number
       g1 = g(x1);
     }
   }
-  const x = g1 > g2 ? x1 : x2;
+  return g1 > g2 ? x1 : x2;
+}
+
+function golden(fn: MagFn, a: number, b: number, maximise: boolean): { f: number; m: number } {
+  const g = (x: number): number => (maximise ? fn(Math.exp(x)) : -fn(Math.exp(x)));
+  const x = goldenMax(g, [Math.log(a), Math.log(b)], { iterations: 60, width: 1e-9 });
   return { f: Math.exp(x), m: fn(Math.exp(x)) };
 }
 
@@ -411,16 +436,10 @@ export function partialPeaks(
   const im = new Float64Array(gridHz.length);
   const out: { gain: number; hz: number }[] = [];
   for (const s of stages) {
-    const h = s.topology.response(s.values, gridHz, opamp);
+    multiplyInPlace(re, im, s.topology.response(s.values, gridHz, opamp));
     let best = 0;
     let at = gridHz[0] as number;
     for (let i = 0; i < gridHz.length; i++) {
-      const a = re[i] as number;
-      const b = im[i] as number;
-      const c = h.re[i] as number;
-      const d = h.im[i] as number;
-      re[i] = a * c - b * d;
-      im[i] = a * d + b * c;
       const m = Math.hypot(re[i] as number, im[i] as number);
       if (m > best) {
         best = m;
