@@ -107,13 +107,12 @@ function stepDown(t: SeriesTable, p: Pos): Pos {
   return p.j > 0 ? { j: p.j - 1, k: p.k } : { j: t.mantissas.length - 1, k: p.k - 1 };
 }
 
-// Scratch registers for the allocation-free core: position (j, k) of the
-// largest member <= x, and that member's value.
-let posJ = 0;
-let posK = 0;
-let posUp = 0;
+// Scratch registers for the allocation-free core, written by floorCore:
+// [j, k] position of the largest member <= x, [2] the value of the next member up.
+// (A typed array rather than module-level `let`s: cheaper to write in the batch loop.)
+const reg = new Float64Array(3);
 
-/** Find the largest member <= x (x > 0, finite, valid); sets posJ/posK and returns its value. */
+/** Find the largest member <= x (x > 0, finite, valid); sets `reg` and returns its value. */
 function floorCore(t: SeriesTable, x: number): number {
   const m = t.mantissas;
   let k = decadeEstimate(x) - 2;
@@ -143,27 +142,27 @@ function floorCore(t: SeriesTable, x: number): number {
     const k2 = j2 === 0 ? k + 1 : k;
     const v2 = memberValue(m[j2] as number, k2);
     if (v2 > x) {
-      posUp = v2;
+      reg[2] = v2;
       break;
     }
     j = j2;
     k = k2;
     v = v2;
   }
-  posJ = j;
-  posK = k;
+  reg[0] = j;
+  reg[1] = k;
   return v;
 }
 
 /** Value of the member just above the one found by the last {@link floorCore}. */
 function aboveCore(): number {
-  return posUp;
+  return reg[2] as number;
 }
 
 /** Position of the largest member <= x (x > 0, finite, valid). */
 export function floorPos(t: SeriesTable, x: number): Pos {
   floorCore(t, x);
-  return { j: posJ, k: posK };
+  return { j: reg[0] as number, k: reg[1] as number };
 }
 
 /** Snap a valid value; returns [chosen, down, up]. */
@@ -177,46 +176,13 @@ function snapCore(t: SeriesTable, x: number, mode: SnapMode): [number, number, n
 }
 
 /**
- * Snap a valid value, returning only the chosen member. Self-contained (no
- * shared registers, no allocation) for the batch path of {@link snapValues};
- * same steps as {@link floorCore}.
+ * Snap a valid value, returning only the chosen member (no allocation), for
+ * the batch path of {@link snapValues}.
  */
 function snapOne(t: SeriesTable, x: number, mode: SnapMode): number {
-  const m = t.mantissas;
-  const last = m.length - 1;
-  let k = decadeEstimate(x) - 2;
-  let scaled = k >= 0 && k <= 22 ? x / (POW10[k] as number) : k < 0 && k >= -22 ? x * (POW10[-k] as number) : x / memberValue(1, k);
-  if (scaled >= 1000) {
-    k += 1;
-    scaled /= 10;
-  } else if (scaled < 100) {
-    k -= 1;
-    scaled *= 10;
-  }
-  const n = Math.floor(scaled);
-  let j = t.floorIndex[n < 100 ? 100 : n > 999 ? 999 : n] as number;
-  let down = memberValue(m[j] as number, k);
-  while (down > x) {
-    if (j > 0) j--;
-    else {
-      j = last;
-      k--;
-    }
-    down = memberValue(m[j] as number, k);
-  }
-  if (down === x) return down;
-  // The estimate may be one step low: walk up while the next member is <= x.
-  let up: number;
-  for (;;) {
-    const j2 = j < last ? j + 1 : 0;
-    const k2 = j2 === 0 ? k + 1 : k;
-    up = memberValue(m[j2] as number, k2);
-    if (up > x) break;
-    j = j2;
-    k = k2;
-    down = up;
-  }
+  const down = floorCore(t, x);
   if (down === x || mode === "down") return down;
+  const up = reg[2] as number;
   if (mode === "up") return up;
   return x / down > up / x ? up : down;
 }
