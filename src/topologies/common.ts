@@ -242,6 +242,26 @@ export function placeParts(parts: readonly PartSpec[], v: ComponentValues, p: St
 }
 
 /**
+ * The parts with one local node renamed to the stage output `out` (for the
+ * variants of a multi-amplifier stage that take their output from an
+ * internal node and drop the output amplifier).
+ *
+ * @param parts - the parts in local terms
+ * @param node - the local node that becomes `out`
+ * @returns new part specs; the input is not changed
+ * @throws never
+ * @example
+ * ```ts
+ * withOutputAt([{ kind: "R", name: "R1", a: "in", b: "lp" }], "lp");
+ * //=> [{ kind: "R", name: "R1", a: "in", b: "out" }]
+ * ```
+ */
+export function withOutputAt(parts: readonly PartSpec[], node: string): PartSpec[] {
+  const m = (n: string): string => (n === node ? "out" : n);
+  return parts.map((p) => (p.kind === "OA" ? { ...p, inP: m(p.inP), inN: m(p.inN), out: m(p.out) } : { ...p, a: m(p.a), b: m(p.b) }));
+}
+
+/**
  * The stage alone, driven by `Vin` at node `in`, output at node `out` (for nodal analysis).
  *
  * @param spec - topology

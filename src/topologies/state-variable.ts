@@ -64,6 +64,7 @@ import {
   re,
   summer,
   sx,
+  withOutputAt,
   type DefinedTopology,
   type PartSpec,
 } from "./common.ts";
@@ -231,14 +232,6 @@ export const stateVariableAllpass: DefinedTopology = defineTopology({
   closedFormFinite: true,
 });
 
-/** Rename one local node to the stage output (for the variants without the output summer). */
-function withOutput(node: string): PartSpec[] {
-  const m = (n: string): string => (n === node ? "out" : n);
-  return core
-    .slice(0, 12)
-    .map((p) => (p.kind === "OA" ? { ...p, inP: m(p.inP), inN: m(p.inN), out: m(p.out) } : { ...p, a: m(p.a), b: m(p.b) }));
-}
-
 type Tap = "lowpass" | "highpass" | "bandpass";
 
 function tapResponse(tap: Tap, v: ComponentValues, s: Complex): Complex {
@@ -269,7 +262,7 @@ function makeTap(tap: Tap): DefinedTopology {
     reference: REF,
     levelCapacitor: "C1",
     levelResistor: "R2",
-    parts: withOutput(node),
+    parts: withOutputAt(core.slice(0, 12), node),
     limits: (t) =>
       (t.q as number) * gr(t) > 1 + 1e-9
         ? null

@@ -57,6 +57,7 @@ import {
   re,
   summer,
   sx,
+  withOutputAt,
   type DefinedTopology,
   type PartSpec,
 } from "./common.ts";
@@ -67,12 +68,6 @@ const REF =
 const g = (v: ComponentValues, k: string): number => v[k] as number;
 
 type Variant = "lowpass-notch" | "highpass-notch" | "notch" | "allpass" | "lowpass" | "bandpass";
-
-/** Rename one local node to the stage output (for the variants without a summer). */
-function withOutput(list: readonly PartSpec[], node: string): PartSpec[] {
-  const m = (n: string): string => (n === node ? "out" : n);
-  return list.map((p) => (p.kind === "OA" ? { ...p, inP: m(p.inP), inN: m(p.inN), out: m(p.out) } : { ...p, a: m(p.a), b: m(p.b) }));
-}
 
 const core: PartSpec[] = [
   { kind: "R", name: "R1", a: "in", b: "n1" },
@@ -93,8 +88,8 @@ const core: PartSpec[] = [
 ];
 
 function parts(variant: Variant): PartSpec[] {
-  if (variant === "lowpass") return withOutput(core.slice(0, 11), "v2");
-  if (variant === "bandpass") return withOutput(core.slice(0, 11), "v1");
+  if (variant === "lowpass") return withOutputAt(core.slice(0, 11), "v2");
+  if (variant === "bandpass") return withOutputAt(core.slice(0, 11), "v1");
   if (variant === "lowpass-notch") return [...core, { kind: "R", name: "R10", a: "v2", b: "n4" }];
   if (variant === "highpass-notch") return [...core, { kind: "R", name: "R10", a: "v3", b: "n4" }];
   return core;
