@@ -83,91 +83,50 @@ const aboveOne = (t: StageTarget): string | null =>
     ? null
     : `a non-inverting gain stage needs a gain above 1 (got ${t.gain}); for gain 1 choose the buffered RC stage`;
 
-/** Passive RC lowpass followed by a unity-gain buffer. */
-export const firstOrderLowpassBuffer: DefinedTopology = defineTopology({
-  id: "first-order-lowpass-buffer",
-  name: "RC lowpass + buffer",
-  order: 1,
-  kinds: ["lowpass"],
-  inverting: false,
-  reference: REF,
-  levelCapacitor: "C1",
-  levelResistor: "R1",
-  parts: bufferLow,
-  limits: unityGain,
-  solve: (t) => ({ C1: 1, R1: 1 / w0Of(t) }),
-  figures: (v) => ({ f0Hz: 1 / (TWO_PI * g(v, "R1") * g(v, "C1")), gain: 1 }),
-  closedForm: (v, s, a) => cdiv(nonInvertingGain(a, 1), cadd(re(1), sx(s, g(v, "R1") * g(v, "C1")))),
-  closedFormFinite: true,
-});
-
-/** Passive RC highpass followed by a unity-gain buffer. */
-export const firstOrderHighpassBuffer: DefinedTopology = defineTopology({
-  id: "first-order-highpass-buffer",
-  name: "RC highpass + buffer",
-  order: 1,
-  kinds: ["highpass"],
-  inverting: false,
-  reference: REF,
-  levelCapacitor: "C1",
-  levelResistor: "R1",
-  parts: bufferHigh,
-  limits: unityGain,
-  solve: (t) => ({ C1: 1, R1: 1 / w0Of(t) }),
-  figures: (v) => ({ f0Hz: 1 / (TWO_PI * g(v, "R1") * g(v, "C1")), gain: 1 }),
-  closedForm: (v, s, a) => {
-    const st = sx(s, g(v, "R1") * g(v, "C1"));
-    return cmul(nonInvertingGain(a, 1), cdiv(st, cadd(re(1), st)));
-  },
-  closedFormFinite: true,
-});
-
 const beta = (v: ComponentValues): number => g(v, "R3") / (g(v, "R2") + g(v, "R3"));
 
+/** Passive RC lowpass or highpass followed by a unity-gain buffer or a non-inverting gain stage `1 + R2/R3`. */
+function rcStage(kind: "lowpass" | "highpass", withGain: boolean): DefinedTopology {
+  const passive = kind === "lowpass" ? bufferLow : bufferHigh;
+  return defineTopology({
+    id: `first-order-${kind}-${withGain ? "noninverting" : "buffer"}`,
+    name: `RC ${kind} + ${withGain ? "non-inverting gain" : "buffer"}`,
+    order: 1,
+    kinds: [kind],
+    inverting: false,
+    reference: REF,
+    levelCapacitor: "C1",
+    levelResistor: "R1",
+    parts: withGain ? [...passive.slice(0, 2), ...gainNet] : passive,
+    limits: withGain ? aboveOne : unityGain,
+    solve: withGain
+      ? (t) => {
+          const r1 = 1 / w0Of(t);
+          return { C1: 1, R1: r1, R3: r1, R2: (t.gain - 1) * r1 };
+        }
+      : (t) => ({ C1: 1, R1: 1 / w0Of(t) }),
+    figures: (v) => ({ f0Hz: 1 / (TWO_PI * g(v, "R1") * g(v, "C1")), gain: withGain ? 1 + g(v, "R2") / g(v, "R3") : 1 }),
+    closedForm: (v, s, a) => {
+      const k = nonInvertingGain(a, withGain ? beta(v) : 1);
+      if (kind === "lowpass") return cdiv(k, cadd(re(1), sx(s, g(v, "R1") * g(v, "C1"))));
+      const st = sx(s, g(v, "R1") * g(v, "C1"));
+      return cmul(k, cdiv(st, cadd(re(1), st)));
+    },
+    closedFormFinite: true,
+  });
+}
+
+/** Passive RC lowpass followed by a unity-gain buffer. */
+export const firstOrderLowpassBuffer: DefinedTopology = rcStage("lowpass", false);
+
+/** Passive RC highpass followed by a unity-gain buffer. */
+export const firstOrderHighpassBuffer: DefinedTopology = rcStage("highpass", false);
+
 /** Passive RC lowpass followed by a non-inverting gain stage `1 + R2/R3`. */
-export const firstOrderLowpassNoninverting: DefinedTopology = defineTopology({
-  id: "first-order-lowpass-noninverting",
-  name: "RC lowpass + non-inverting gain",
-  order: 1,
-  kinds: ["lowpass"],
-  inverting: false,
-  reference: REF,
-  levelCapacitor: "C1",
-  levelResistor: "R1",
-  parts: [...bufferLow.slice(0, 2), ...gainNet],
-  limits: aboveOne,
-  solve: (t) => {
-    const r1 = 1 / w0Of(t);
-    return { C1: 1, R1: r1, R3: r1, R2: (t.gain - 1) * r1 };
-  },
-  figures: (v) => ({ f0Hz: 1 / (TWO_PI * g(v, "R1") * g(v, "C1")), gain: 1 + g(v, "R2") / g(v, "R3") }),
-  closedForm: (v, s, a) => cdiv(nonInvertingGain(a, beta(v)), cadd(re(1), sx(s, g(v, "R1") * g(v, "C1")))),
-  closedFormFinite: true,
-});
+export const firstOrderLowpassNoninverting: DefinedTopology = rcStage("lowpass", true);
 
 /** Passive RC highpass followed by a non-inverting gain stage `1 + R2/R3`. */
-export const firstOrderHighpassNoninverting: DefinedTopology = defineTopology({
-  id: "first-order-highpass-noninverting",
-  name: "RC highpass + non-inverting gain",
-  order: 1,
-  kinds: ["highpass"],
-  inverting: false,
-  reference: REF,
-  levelCapacitor: "C1",
-  levelResistor: "R1",
-  parts: [...bufferHigh.slice(0, 2), ...gainNet],
-  limits: aboveOne,
-  solve: (t) => {
-    const r1 = 1 / w0Of(t);
-    return { C1: 1, R1: r1, R3: r1, R2: (t.gain - 1) * r1 };
-  },
-  figures: (v) => ({ f0Hz: 1 / (TWO_PI * g(v, "R1") * g(v, "C1")), gain: 1 + g(v, "R2") / g(v, "R3") }),
-  closedForm: (v, s, a) => {
-    const st = sx(s, g(v, "R1") * g(v, "C1"));
-    return cmul(nonInvertingGain(a, beta(v)), cdiv(st, cadd(re(1), st)));
-  },
-  closedFormFinite: true,
-});
+export const firstOrderHighpassNoninverting: DefinedTopology = rcStage("highpass", true);
 
 /** Inverting first-order lowpass: R1 in, R2 || C1 feedback. */
 export const firstOrderLowpassInverting: DefinedTopology = defineTopology({
