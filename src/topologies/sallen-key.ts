@@ -64,6 +64,7 @@ import {
   sx,
   type DefinedTopology,
   type PartSpec,
+  type TopologySpec,
 } from "./common.ts";
 
 const REF =
@@ -161,6 +162,15 @@ function lowRatio(t: StageTarget, c: StageChoices): number {
   return c.capacitorRatio ?? sallenKeyLowpassMinRatio(q(t), t.gain);
 }
 
+/** Add the gain resistors R4 = R1 and R3 = (K - 1) R1 when K is not 1 (the follower has none). */
+function withGainResistors(out: Record<string, number>, k: number, r1: number): Record<string, number> {
+  if (k !== 1) {
+    out["R4"] = r1;
+    out["R3"] = (k - 1) * r1;
+  }
+  return out;
+}
+
 function lowSolve(t: StageTarget, c: StageChoices, defaultEqualResistors: boolean): Record<string, number> {
   const w0 = w0Of(t);
   const k = t.gain;
@@ -171,11 +181,7 @@ function lowSolve(t: StageTarget, c: StageChoices, defaultEqualResistors: boolea
     const cc = (1 - k) / (w0 * w0 * n);
     const r1 = (b + Math.sqrt(b * b - 4 * (1 + n) * cc)) / (2 * (1 + n));
     const out: Record<string, number> = { C2: 1, C1: 1 / (w0 * w0 * n * r1 * r1), R1: r1, R2: n * r1 };
-    if (k !== 1) {
-      out["R4"] = r1;
-      out["R3"] = (k - 1) * r1;
-    }
-    return out;
+    return withGainResistors(out, k, r1);
   }
   const m = lowRatio(t, c);
   // C2 = 1, C1 = m; a R1^2 - b R1 + cc = 0
@@ -187,11 +193,7 @@ function lowSolve(t: StageTarget, c: StageChoices, defaultEqualResistors: boolea
   const r1 = (2 * cc) / (b + Math.sqrt(disc));
   const r2 = cc / r1;
   const out: Record<string, number> = { C1: m, C2: 1, R1: r1, R2: r2 };
-  if (k !== 1) {
-    out["R4"] = r1;
-    out["R3"] = (k - 1) * r1;
-  }
-  return out;
+  return withGainResistors(out, k, r1);
 }
 
 function highSolve(t: StageTarget, c: StageChoices): Record<string, number> {
@@ -203,11 +205,7 @@ function highSolve(t: StageTarget, c: StageChoices): Record<string, number> {
   const b = 1 / (w0 * q(t));
   const r1 = (b + Math.sqrt(b * b + 4 * (r + 1) * (k - 1) * p)) / (2 * (r + 1));
   const out: Record<string, number> = { C1: r, C2: 1, R1: r1, R2: p / r1 };
-  if (k !== 1) {
-    out["R4"] = r1;
-    out["R3"] = (k - 1) * r1;
-  }
-  return out;
+  return withGainResistors(out, k, r1);
 }
 
 function equalSolve(t: StageTarget): Record<string, number> {
@@ -245,112 +243,59 @@ function lowRatioLimit(t: StageTarget, c: StageChoices, unity: boolean): string 
     : `a Sallen-Key lowpass of gain ${t.gain} at Q = ${q(t)} needs C1/C2 at least 4Q^2/(1 + 4Q^2 (K - 1)) = ${min.toPrecision(4)} (capacitorRatio ${c.capacitorRatio}); raise capacitorRatio or the gain`;
 }
 
+type Form = "unity" | "equal" | "gain";
+
+const FORM_NAME: Readonly<Record<Form, string>> = { unity: "unity gain", equal: "equal components", gain: "gain K" };
+
+/** One Sallen-Key stage: the lowpass or highpass passive network with the follower (unity) or the gain amplifier. */
+function skStage(
+  kind: "lowpass" | "highpass",
+  form: Form,
+  rules: Pick<TopologySpec, "limits" | "solve">,
+): DefinedTopology {
+  const low = kind === "lowpass";
+  return defineTopology({
+    id: `sallen-key-${kind}-${form}`,
+    name: `Sallen-Key ${kind}, ${FORM_NAME[form]}`,
+    order: 2,
+    kinds: [kind],
+    inverting: false,
+    reference: REF,
+    levelCapacitor: low ? "C2" : "C1",
+    levelResistor: "R1",
+    parts: [...(low ? lowPassive : highPassive), ...(form === "unity" ? follower : gainAmp)],
+    limits: rules.limits,
+    solve: rules.solve,
+    figures: low ? lowFigures : highFigures,
+    closedForm: low ? lowClosed : highClosed,
+    closedFormFinite: true,
+    ...(form === "equal" ? { fixedGain: (t: Omit<StageTarget, "gain">) => 3 - 1 / (t.q as number) } : {}),
+  });
+}
+
 /** Unity-gain Sallen-Key lowpass (equal resistors by default). */
-export const sallenKeyLowpassUnity: DefinedTopology = defineTopology({
-  id: "sallen-key-lowpass-unity",
-  name: "Sallen-Key lowpass, unity gain",
-  order: 2,
-  kinds: ["lowpass"],
-  inverting: false,
-  reference: REF,
-  levelCapacitor: "C2",
-  levelResistor: "R1",
-  parts: [...lowPassive, ...follower],
+export const sallenKeyLowpassUnity: DefinedTopology = skStage("lowpass", "unity", {
   limits: (t, c) => unityOnly(t) ?? lowRatioLimit(t, c, true),
   solve: (t, c) => lowSolve({ ...t, gain: 1 }, c, false),
-  figures: lowFigures,
-  closedForm: lowClosed,
-  closedFormFinite: true,
 });
 
 /** Equal-component Sallen-Key lowpass (gain fixed at 3 - 1/Q). */
-export const sallenKeyLowpassEqual: DefinedTopology = defineTopology({
-  id: "sallen-key-lowpass-equal",
-  name: "Sallen-Key lowpass, equal components",
-  order: 2,
-  kinds: ["lowpass"],
-  inverting: false,
-  reference: REF,
-  levelCapacitor: "C2",
-  levelResistor: "R1",
-  parts: [...lowPassive, ...gainAmp],
-  limits: equalLimits,
-  solve: equalSolve,
-  figures: lowFigures,
-  closedForm: lowClosed,
-  closedFormFinite: true,
-  fixedGain: (t) => 3 - 1 / (t.q as number),
-});
+export const sallenKeyLowpassEqual: DefinedTopology = skStage("lowpass", "equal", { limits: equalLimits, solve: equalSolve });
 
 /** General-gain Sallen-Key lowpass (chosen capacitor ratio). */
-export const sallenKeyLowpassGain: DefinedTopology = defineTopology({
-  id: "sallen-key-lowpass-gain",
-  name: "Sallen-Key lowpass, gain K",
-  order: 2,
-  kinds: ["lowpass"],
-  inverting: false,
-  reference: REF,
-  levelCapacitor: "C2",
-  levelResistor: "R1",
-  parts: [...lowPassive, ...gainAmp],
+export const sallenKeyLowpassGain: DefinedTopology = skStage("lowpass", "gain", {
   limits: (t, c) => aboveOne(t) ?? lowRatioLimit(t, c, false),
   solve: (t, c) => lowSolve(t, c, true),
-  figures: lowFigures,
-  closedForm: lowClosed,
-  closedFormFinite: true,
 });
 
 /** Unity-gain Sallen-Key highpass (equal capacitors by default). */
-export const sallenKeyHighpassUnity: DefinedTopology = defineTopology({
-  id: "sallen-key-highpass-unity",
-  name: "Sallen-Key highpass, unity gain",
-  order: 2,
-  kinds: ["highpass"],
-  inverting: false,
-  reference: REF,
-  levelCapacitor: "C1",
-  levelResistor: "R1",
-  parts: [...highPassive, ...follower],
+export const sallenKeyHighpassUnity: DefinedTopology = skStage("highpass", "unity", {
   limits: unityOnly,
   solve: (t, c) => highSolve({ ...t, gain: 1 }, c),
-  figures: highFigures,
-  closedForm: highClosed,
-  closedFormFinite: true,
 });
 
 /** Equal-component Sallen-Key highpass (gain fixed at 3 - 1/Q). */
-export const sallenKeyHighpassEqual: DefinedTopology = defineTopology({
-  id: "sallen-key-highpass-equal",
-  name: "Sallen-Key highpass, equal components",
-  order: 2,
-  kinds: ["highpass"],
-  inverting: false,
-  reference: REF,
-  levelCapacitor: "C1",
-  levelResistor: "R1",
-  parts: [...highPassive, ...gainAmp],
-  limits: equalLimits,
-  solve: equalSolve,
-  figures: highFigures,
-  closedForm: highClosed,
-  closedFormFinite: true,
-  fixedGain: (t) => 3 - 1 / (t.q as number),
-});
+export const sallenKeyHighpassEqual: DefinedTopology = skStage("highpass", "equal", { limits: equalLimits, solve: equalSolve });
 
 /** General-gain Sallen-Key highpass (chosen capacitor ratio, default equal). */
-export const sallenKeyHighpassGain: DefinedTopology = defineTopology({
-  id: "sallen-key-highpass-gain",
-  name: "Sallen-Key highpass, gain K",
-  order: 2,
-  kinds: ["highpass"],
-  inverting: false,
-  reference: REF,
-  levelCapacitor: "C1",
-  levelResistor: "R1",
-  parts: [...highPassive, ...gainAmp],
-  limits: aboveOne,
-  solve: highSolve,
-  figures: highFigures,
-  closedForm: highClosed,
-  closedFormFinite: true,
-});
+export const sallenKeyHighpassGain: DefinedTopology = skStage("highpass", "gain", { limits: aboveOne, solve: highSolve });
