@@ -41,7 +41,7 @@
  * @module
  */
 import type { Complex } from "../math/complex.ts";
-import type { ComponentValues, StageTarget } from "./types.ts";
+import type { ComponentValues, StageFigures, StageTarget } from "./types.ts";
 import { TWO_PI, atLeast, defineTopology, mfbKernel, re, sx, type DefinedTopology } from "./common.ts";
 
 const REF =
@@ -157,6 +157,13 @@ export const mfbHighpass: DefinedTopology = defineTopology({
   closedFormFinite: true,
 });
 
+/** f0, Q and centre gain of a multiple-feedback bandpass with pole frequency `w0` and feedback resistor `rf` (input resistor R1, capacitors C1, C2). */
+function bandpassFigures(v: ComponentValues, w0: number, rf: "R2" | "R3"): StageFigures {
+  const c1 = g(v, "C1");
+  const c2 = g(v, "C2");
+  return { f0Hz: w0 / TWO_PI, q: (w0 * g(v, rf) * c1 * c2) / (c1 + c2), gain: -(g(v, rf) * c1) / (g(v, "R1") * (c1 + c2)) };
+}
+
 /** Multiple-feedback bandpass (two resistors; gain tied to Q through the capacitor ratio). */
 export const mfbBandpass: DefinedTopology = defineTopology({
   id: "mfb-bandpass",
@@ -189,12 +196,7 @@ export const mfbBandpass: DefinedTopology = defineTopology({
     const r2 = (q(t) * (1 + r)) / (w0 * r);
     return { C1: 1, C2: r, R2: r2, R1: 1 / (w0 * w0 * r2 * r) };
   },
-  figures: (v) => {
-    const c1 = g(v, "C1");
-    const c2 = g(v, "C2");
-    const w0 = 1 / Math.sqrt(g(v, "R1") * g(v, "R2") * c1 * c2);
-    return { f0Hz: w0 / TWO_PI, q: (w0 * g(v, "R2") * c1 * c2) / (c1 + c2), gain: -(g(v, "R2") * c1) / (g(v, "R1") * (c1 + c2)) };
-  },
+  figures: (v) => bandpassFigures(v, 1 / Math.sqrt(g(v, "R1") * g(v, "R2") * g(v, "C1") * g(v, "C2")), "R2"),
   closedForm: (v, s, a) => mfbKernel([re(1 / g(v, "R1")), ZERO, sx(s, g(v, "C1")), sx(s, g(v, "C2")), re(1 / g(v, "R2"))], a),
   closedFormFinite: true,
 });
@@ -230,12 +232,7 @@ export const mfbBandpassAttenuated: DefinedTopology = defineTopology({
     const qv = q(t);
     return { C1: 1, C2: 1, R3: (2 * qv) / w0, R1: qv / (k * w0), R2: 1 / (w0 * (2 * qv - k / qv)) };
   },
-  figures: (v) => {
-    const c1 = g(v, "C1");
-    const c2 = g(v, "C2");
-    const w0 = Math.sqrt((1 / g(v, "R1") + 1 / g(v, "R2")) / (g(v, "R3") * c1 * c2));
-    return { f0Hz: w0 / TWO_PI, q: (w0 * g(v, "R3") * c1 * c2) / (c1 + c2), gain: -(g(v, "R3") * c1) / (g(v, "R1") * (c1 + c2)) };
-  },
+  figures: (v) => bandpassFigures(v, Math.sqrt((1 / g(v, "R1") + 1 / g(v, "R2")) / (g(v, "R3") * g(v, "C1") * g(v, "C2"))), "R3"),
   closedForm: (v, s, a) =>
     mfbKernel([re(1 / g(v, "R1")), re(1 / g(v, "R2")), sx(s, g(v, "C1")), sx(s, g(v, "C2")), re(1 / g(v, "R3"))], a),
   closedFormFinite: true,
