@@ -3,6 +3,7 @@
 set -euo pipefail
 cd "$(dirname "$0")"
 for script in *.py; do
+  [[ $script == _* ]] && continue # helper modules, not fixture scripts
   echo "== $script"
   python3 "$script"
 done

@@ -18,6 +18,8 @@ import numpy as np
 import scipy
 from scipy import signal
 
+from _residues import residues
+
 mp.mp.dps = 40
 SCIPY = f"scipy {scipy.__version__}"
 
@@ -43,19 +45,7 @@ def group_delay_mp(z, p, k, w):
 
 def time_mp(z, p, k, t):
     """Exact step and impulse (regular part) responses by residues; simple poles only."""
-    z = [mp.mpc(v) for v in z]
-    p = [mp.mpc(v) for v in p]
-    k = mp.mpf(k)
-    res = []
-    for i, pi in enumerate(p):
-        num = k
-        for zj in z:
-            num *= pi - zj
-        den = mp.mpf(1)
-        for j, pj in enumerate(p):
-            if j != i:
-                den *= pi - pj
-        res.append(num / den)
+    z, p, k, res = residues(z, p, k)
     h0 = h_mp(z, p, k, mp.mpf(0))
     step, imp = [], []
     for tv in t:

@@ -15,23 +15,13 @@ import numpy as np
 import scipy
 from scipy import signal
 
+from _residues import residues
+
 mp.mp.dps = 40
 
 
 def build(z, p, k):
-    z = [mp.mpc(v) for v in z]
-    p = [mp.mpc(v) for v in p]
-    k = mp.mpf(k)
-    res = []
-    for i, pi in enumerate(p):
-        num = k
-        for zj in z:
-            num *= pi - zj
-        den = mp.mpf(1)
-        for j, pj in enumerate(p):
-            if j != i:
-                den *= pi - pj
-        res.append(num / den)
+    z, p, k, res = residues(z, p, k)
     h0 = k
     for zj in z:
         h0 *= -zj
