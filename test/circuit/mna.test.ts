@@ -3,6 +3,7 @@ import { acAnalysis, transfer, assembleMna, mnaDeterminant } from "../../src/cir
 import type { Circuit, Element, OpAmpModel } from "../../src/circuit/types.ts";
 import { InvalidArgumentError, SingularCircuitError } from "../../src/errors.ts";
 import { loadFixture } from "../helpers/fixtures.ts";
+import { thrownBy } from "../helpers/throws.ts";
 import { expectArrayClose } from "../helpers/tolerance.ts";
 
 const ladder = loadFixture<{ circuit: Circuit; freqHz: number[]; re: number[]; im: number[] }>("circuit-ladder.json");
@@ -87,13 +88,8 @@ describe("acAnalysis", () => {
 
   it("names a floating node", () => {
     const c: Circuit = { title: "f", elements: [...rc.elements, { kind: "R", name: "R9", a: "x", b: "y", value: 1 }] };
-    try {
-      acAnalysis(c, { source: "V1", outputs: ["out"], freqHz: new Float64Array([1]) });
-      expect.unreachable();
-    } catch (e) {
-      expect(e).toBeInstanceOf(SingularCircuitError);
-      expect((e as SingularCircuitError).culprits).toEqual(["x", "y"]);
-    }
+    const e = thrownBy(() => acAnalysis(c, { source: "V1", outputs: ["out"], freqHz: new Float64Array([1]) }), SingularCircuitError);
+    expect(e.culprits).toEqual(["x", "y"]);
   });
 
   it("names a node reached only through an op-amp input", () => {
@@ -106,14 +102,9 @@ describe("acAnalysis", () => {
 
   it("names a loop of voltage sources", () => {
     const c: Circuit = { title: "loop", elements: [...rc.elements, { kind: "V", name: "V2", a: "in", b: "0", ac: 0 }] };
-    try {
-      acAnalysis(c, { source: "V1", outputs: ["out"], freqHz: new Float64Array([1]) });
-      expect.unreachable();
-    } catch (e) {
-      expect(e).toBeInstanceOf(SingularCircuitError);
-      expect((e as SingularCircuitError).culprits).toContain("V2");
-      expect((e as SingularCircuitError).culprits).toContain("in");
-    }
+    const e = thrownBy(() => acAnalysis(c, { source: "V1", outputs: ["out"], freqHz: new Float64Array([1]) }), SingularCircuitError);
+    expect(e.culprits).toContain("V2");
+    expect(e.culprits).toContain("in");
   });
 
   it("accepts a capacitor-only node above 0 Hz and names it at 0 Hz", () => {
@@ -127,12 +118,8 @@ describe("acAnalysis", () => {
     };
     const r = transfer(c, { source: "V1", output: "mid", freqHz: new Float64Array([50]) });
     expect(r.re[0]).toBeCloseTo(0.5, 14);
-    try {
-      transfer(c, { source: "V1", output: "mid", freqHz: new Float64Array([0, 50]) });
-      expect.unreachable();
-    } catch (e) {
-      expect((e as SingularCircuitError).culprits).toEqual(["mid"]);
-    }
+    const e = thrownBy(() => transfer(c, { source: "V1", output: "mid", freqHz: new Float64Array([0, 50]) }), SingularCircuitError);
+    expect(e.culprits).toEqual(["mid"]);
   });
 
   it("reports a pivot failure for an op-amp whose inputs are tied together", () => {
@@ -145,14 +132,9 @@ describe("acAnalysis", () => {
         { kind: "R", name: "R2", a: "out", b: "0", value: 1e3 },
       ],
     };
-    try {
-      transfer(c, { source: "V1", output: "out", freqHz: new Float64Array([1]) });
-      expect.unreachable();
-    } catch (e) {
-      expect(e).toBeInstanceOf(SingularCircuitError);
-      expect((e as SingularCircuitError).fn).toBe("transfer");
-      expect((e as SingularCircuitError).culprits).toEqual(["U1", "out", "in"]);
-    }
+    const e = thrownBy(() => transfer(c, { source: "V1", output: "out", freqHz: new Float64Array([1]) }), SingularCircuitError);
+    expect(e.fn).toBe("transfer");
+    expect(e.culprits).toEqual(["U1", "out", "in"]);
   });
 
   it("rejects unknown sources, outputs and bad frequencies with paths", () => {

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { validateCircuit } from "../../src/circuit/validate.ts";
 import type { Circuit, Element } from "../../src/circuit/types.ts";
 import { InvalidArgumentError } from "../../src/errors.ts";
+import { thrownBy } from "../helpers/throws.ts";
 
 const base: Element[] = [
   { kind: "V", name: "Vin", a: "in", b: "0", ac: 1 },
@@ -32,14 +33,9 @@ describe("validateCircuit", () => {
     [{ kind: "OA", name: "U1", inP: "out", inN: "x", out: "x", model: { kind: "perfect" } }, "elements[3].model.kind"],
     [{ kind: "OA", name: "U1", inP: "out", inN: "x", out: "0", model: { kind: "ideal" } }, "elements[3].out"],
   ])("rejects %j at %s", (el, path) => {
-    try {
-      validateCircuit(withEl(el));
-      expect.unreachable();
-    } catch (e) {
-      expect(e).toBeInstanceOf(InvalidArgumentError);
-      expect((e as InvalidArgumentError).path).toBe(path);
-      expect((e as InvalidArgumentError).fn).toBe("validateCircuit");
-    }
+    const e = thrownBy(() => validateCircuit(withEl(el)), InvalidArgumentError);
+    expect(e.path).toBe(path);
+    expect(e.fn).toBe("validateCircuit");
   });
 
   it("rejects a non-object and a missing element list", () => {
