@@ -97,6 +97,35 @@ export function requireComplexArray(fn: string, path: string, value: unknown): r
 }
 
 /**
+ * The unused value nearest to the conjugate of `v` (first one on ties), for
+ * pairing conjugates; mark `v` itself used before calling.
+ *
+ * @param values - the complex values
+ * @param v - the value whose partner is wanted
+ * @param used - 1 for indices already paired (skipped)
+ * @returns the partner's index (-1 when every value is used) and its distance from conj(v)
+ * @throws never
+ * @example
+ * ```ts
+ * nearestConjugate([{ re: -1, im: 1 }, { re: -1, im: -1 }], { re: -1, im: 1 }, Uint8Array.of(1, 0)); //=> { index: 1, distance: 0 }
+ * ```
+ */
+export function nearestConjugate(values: readonly Complex[], v: Complex, used: Uint8Array): { index: number; distance: number } {
+  let index = -1;
+  let distance = Infinity;
+  for (let j = 0; j < values.length; j++) {
+    if (used[j] === 1) continue;
+    const u = values[j] as Complex;
+    const d = Math.hypot(u.re - v.re, u.im + v.im);
+    if (d < distance) {
+      distance = d;
+      index = j;
+    }
+  }
+  return { index, distance };
+}
+
+/**
  * Require that complex values are closed under conjugation: every value with
  * a non-zero imaginary part has a partner equal to its conjugate within
  * `1e-9` relative (so the polynomial they define has real coefficients).
@@ -117,17 +146,7 @@ export function requireConjugateClosed(fn: string, path: string, values: readonl
     if (v.im === 0 || used[i] === 1) continue;
     used[i] = 1;
     const tol = 1e-9 * Math.max(Math.hypot(v.re, v.im), Number.MIN_VALUE);
-    let best = -1;
-    let bestD = Infinity;
-    for (let j = 0; j < values.length; j++) {
-      if (used[j] === 1 || j === i) continue;
-      const u = values[j] as Complex;
-      const d = Math.hypot(u.re - v.re, u.im + v.im);
-      if (d < bestD) {
-        bestD = d;
-        best = j;
-      }
-    }
+    const { index: best, distance: bestD } = nearestConjugate(values, v, used);
     if (best < 0 || bestD > tol) {
       throw new InvalidArgumentError({
         fn,

@@ -12,7 +12,7 @@
  */
 import { InvalidArgumentError } from "../errors.ts";
 import type { Complex } from "./complex.ts";
-import { requireComplex, requireComplexArray, requireNumberArray } from "./check.ts";
+import { nearestConjugate, requireComplex, requireComplexArray, requireNumberArray } from "./check.ts";
 
 /** Horner evaluation at a complex point, no argument checks (internal core). */
 export function hornerComplex(coeffs: ArrayLike<number>, zr: number, zi: number): Complex {
@@ -143,17 +143,8 @@ export function polyFromRoots(roots: readonly Complex[]): number[] {
       p = mulUnchecked(p, [1, -r.re]);
       continue;
     }
-    let best = -1;
-    let bestD = Infinity;
-    for (let j = i + 1; j < roots.length; j++) {
-      if (used[j] === 1) continue;
-      const u = roots[j] as Complex;
-      const d = Math.hypot(u.re - r.re, u.im + r.im);
-      if (d < bestD) {
-        bestD = d;
-        best = j;
-      }
-    }
+    // every index before i is already used, so the search covers j > i
+    const { index: best, distance: bestD } = nearestConjugate(roots, r, used);
     if (best < 0 || bestD > 1e-9 * Math.hypot(r.re, r.im)) {
       throw new InvalidArgumentError({
         fn: "polyFromRoots",

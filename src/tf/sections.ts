@@ -22,6 +22,7 @@
  */
 import { InvalidArgumentError } from "../errors.ts";
 import type { Complex } from "../math/complex.ts";
+import { nearestConjugate } from "../math/check.ts";
 import { requireOptions } from "../validate.ts";
 import { requireCascade, requireProperStable, requireSection, requireZpk } from "./check.ts";
 import type { FirstOrderSection, NotchType, SecondOrderSection, Section, SectionCascade, SectionKind, Zpk } from "./types.ts";
@@ -88,17 +89,8 @@ export function pairRepresentatives(values: readonly Complex[]): PairRepresentat
       out.push({ v, i, real: true });
       return;
     }
-    // find the conjugate partner (validated to exist)
-    let best = -1;
-    let bestD = Infinity;
-    values.forEach((u, j) => {
-      if (used[j] === 1) return;
-      const d = Math.hypot(u.re - v.re, u.im + v.im);
-      if (d < bestD) {
-        bestD = d;
-        best = j;
-      }
-    });
+    // the conjugate partner (validated to exist)
+    const best = nearestConjugate(values, v, used).index;
     used[best] = 1;
     const u = values[best] as Complex;
     out.push({ v: { re: (v.re + u.re) / 2, im: (Math.abs(v.im) + Math.abs(u.im)) / 2 }, i: Math.min(i, best), real: false });
