@@ -16,9 +16,9 @@
  */
 import type { Complex } from "../math/complex.ts";
 import type { Zpk } from "../tf/types.ts";
-import { InvalidArgumentError } from "../errors.ts";
+import type { InvalidArgumentError } from "../errors.ts";
 import { requireInRange, requireInteger, requireOptions } from "../validate.ts";
-import { freezeZpk, prodNeg, pushPair } from "./internal.ts";
+import { freezeZpk, prodNeg, pushPair, requireAttenuationAboveRipple } from "./internal.ts";
 import { asnImagUnit, cdUnit, degreeModulus, landenSequence, modulusOf, snUnit } from "./landen.ts";
 import type { EllipticOptions } from "./types.ts";
 import { MAX_RIPPLE_DB } from "./chebyshev1.ts";
@@ -41,14 +41,7 @@ function checkEllipticArgs(fn: string, order: number, options: EllipticOptions):
     max: MAX_ATTENUATION_DB,
     exclusiveMin: true,
   });
-  if (!(as > rp)) {
-    throw new InvalidArgumentError({
-      fn,
-      path: "options.attenuationDb",
-      received: as,
-      message: `the stopband attenuation must be greater than the passband ripple (${rp} dB)`,
-    });
-  }
+  requireAttenuationAboveRipple(fn, "options.attenuationDb", { rippleDb: rp, attenuationDb: as });
   return { rp, as };
 }
 

@@ -5,6 +5,7 @@
  *
  * @module
  */
+import { InvalidArgumentError } from "../errors.ts";
 import type { Complex } from "../math/complex.ts";
 import type { Zpk } from "../tf/types.ts";
 
@@ -101,4 +102,27 @@ export function bracketRoot(f: (x: number) => number, a: number, b: number): num
     if (Math.abs(x1 - x0) <= 2 * Number.EPSILON * Math.max(Math.abs(x0), Math.abs(x1))) break;
   }
   return Math.abs(f0) < Math.abs(f1) ? x0 : x1;
+}
+
+/**
+ * Require an elliptic stopband attenuation greater than the passband ripple.
+ *
+ * @param fn - public function name
+ * @param path - dotted path of the attenuation argument
+ * @param db - the ripple and attenuation in dB
+ * @throws {@link InvalidArgumentError} when the attenuation is not greater than the ripple
+ */
+export function requireAttenuationAboveRipple(
+  fn: string,
+  path: string,
+  db: { readonly rippleDb: number; readonly attenuationDb: number },
+): void {
+  if (!(db.attenuationDb > db.rippleDb)) {
+    throw new InvalidArgumentError({
+      fn,
+      path,
+      received: db.attenuationDb,
+      message: `the stopband attenuation must be greater than the passband ripple (${db.rippleDb} dB)`,
+    });
+  }
 }

@@ -14,7 +14,7 @@ import { butterworth, BUTTERWORTH_MAX_ORDER } from "./butterworth.ts";
 import { chebyshev1, CHEBYSHEV1_MAX_ORDER, MAX_RIPPLE_DB } from "./chebyshev1.ts";
 import { chebyshev2, CHEBYSHEV2_MAX_ORDER, MAX_ATTENUATION_DB } from "./chebyshev2.ts";
 import { elliptic, ELLIPTIC_MAX_ORDER } from "./elliptic.ts";
-import { bracketRoot, scaleZpk, zpkMagnitude } from "./internal.ts";
+import { bracketRoot, requireAttenuationAboveRipple, scaleZpk, zpkMagnitude } from "./internal.ts";
 import { legendre, LEGENDRE_MAX_ORDER } from "./legendre.ts";
 import { FAMILY_NAMES, type BesselNormalization, type FamilyName, type UnitFrequencyMeaning } from "./types.ts";
 
@@ -91,14 +91,7 @@ export function prototype(spec: PrototypeSpec): Zpk {
     case "elliptic": {
       const rippleDb = ripple();
       const attenuationDb = atten();
-      if (!(attenuationDb > rippleDb)) {
-        throw new InvalidArgumentError({
-          fn,
-          path: "attenuationDb",
-          received: attenuationDb,
-          message: `the stopband attenuation must be greater than the passband ripple (${rippleDb} dB)`,
-        });
-      }
+      requireAttenuationAboveRipple(fn, "attenuationDb", { rippleDb, attenuationDb });
       return elliptic(order, { rippleDb, attenuationDb });
     }
     case "bessel": {
