@@ -26,42 +26,43 @@ FUNCS = {
 }
 
 
+def edge_case(rng, response, edges, ratios, attens, losses):
+    """One lowpass or highpass spec: passband edge, then the stopband edge a ratio beyond it."""
+    wp = 2 * np.pi * rng.choice(edges)
+    ratio = rng.choice(ratios)
+    gp = rng.choice(losses)
+    gs = rng.choice(attens)
+    ws = wp * ratio if response == "lowpass" else wp / ratio
+    return dict(response=response, passbandW=wp, stopbandW=ws, passbandLossDb=gp, stopbandAttenuationDb=gs)
+
+
+def band_case(rng, response, centres, halves, outer_lo, outer_hi, attens, losses):
+    """One bandpass or bandstop spec: the inner band (passband for bandpass, stopband for bandstop)
+    around a centre, and the outer band edges a ratio beyond it on each side."""
+    fc = 2 * np.pi * rng.choice(centres)
+    half = rng.choice(halves)
+    lo = rng.choice(outer_lo)
+    hi = rng.choice(outer_hi)
+    inner = [fc / half, fc * half]
+    outer = [inner[0] / lo, inner[1] * hi]
+    gp = rng.choice(losses)
+    gs = rng.choice(attens)
+    wp, ws = (inner, outer) if response == "bandpass" else (outer, inner)
+    return dict(response=response, passbandW=wp, stopbandW=ws, passbandLossDb=gp, stopbandAttenuationDb=gs)
+
+
 def specs():
     rng = random.Random(20261201)
-    out = []
     losses = [0.1, 0.25, 0.5, 1.0, 2.0, 3.0]
-    for i in range(18):
-        wp = 2 * np.pi * rng.choice([20.0, 150.0, 1e3, 4.8e3, 20e3, 1.2e5])
-        ratio = rng.choice([1.05, 1.2, 1.5, 2.0, 3.0, 5.0, 10.0])
-        gp = rng.choice(losses)
-        gs = rng.choice([20.0, 30.0, 40.0, 60.0, 80.0, 100.0])
-        out.append(dict(response="lowpass", passbandW=wp, stopbandW=wp * ratio, passbandLossDb=gp, stopbandAttenuationDb=gs))
-    for i in range(18):
-        wp = 2 * np.pi * rng.choice([0.5, 10.0, 300.0, 2e3, 50e3])
-        ratio = rng.choice([1.1, 1.3, 2.0, 2.5, 4.0, 8.0])
-        gp = rng.choice(losses)
-        gs = rng.choice([15.0, 25.0, 40.0, 55.0, 70.0])
-        out.append(dict(response="highpass", passbandW=wp, stopbandW=wp / ratio, passbandLossDb=gp, stopbandAttenuationDb=gs))
-    for i in range(18):
-        fc = 2 * np.pi * rng.choice([60.0, 1e3, 10.7e3, 40e3, 455e3])
-        half = rng.choice([1.05, 1.1, 1.3, 1.6, 2.0])
-        lo_s = rng.choice([1.2, 1.5, 2.0, 3.0])
-        hi_s = rng.choice([1.15, 1.4, 2.2, 3.5])
-        wp = [fc / half, fc * half]
-        ws = [wp[0] / lo_s, wp[1] * hi_s]
-        gp = rng.choice(losses)
-        gs = rng.choice([20.0, 35.0, 50.0, 65.0])
-        out.append(dict(response="bandpass", passbandW=wp, stopbandW=ws, passbandLossDb=gp, stopbandAttenuationDb=gs))
-    for i in range(18):
-        fc = 2 * np.pi * rng.choice([50.0, 60.0, 400.0, 19e3, 38e3])
-        half_s = rng.choice([1.02, 1.05, 1.1, 1.2])
-        lo_p = rng.choice([1.3, 1.6, 2.0, 3.0])
-        hi_p = rng.choice([1.25, 1.5, 2.5, 4.0])
-        ws = [fc / half_s, fc * half_s]
-        wp = [ws[0] / lo_p, ws[1] * hi_p]
-        gp = rng.choice(losses)
-        gs = rng.choice([20.0, 30.0, 45.0, 60.0])
-        out.append(dict(response="bandstop", passbandW=wp, stopbandW=ws, passbandLossDb=gp, stopbandAttenuationDb=gs))
+    out = []
+    out += [edge_case(rng, "lowpass", [20.0, 150.0, 1e3, 4.8e3, 20e3, 1.2e5], [1.05, 1.2, 1.5, 2.0, 3.0, 5.0, 10.0],
+                      [20.0, 30.0, 40.0, 60.0, 80.0, 100.0], losses) for _ in range(18)]
+    out += [edge_case(rng, "highpass", [0.5, 10.0, 300.0, 2e3, 50e3], [1.1, 1.3, 2.0, 2.5, 4.0, 8.0],
+                      [15.0, 25.0, 40.0, 55.0, 70.0], losses) for _ in range(18)]
+    out += [band_case(rng, "bandpass", [60.0, 1e3, 10.7e3, 40e3, 455e3], [1.05, 1.1, 1.3, 1.6, 2.0], [1.2, 1.5, 2.0, 3.0],
+                      [1.15, 1.4, 2.2, 3.5], [20.0, 35.0, 50.0, 65.0], losses) for _ in range(18)]
+    out += [band_case(rng, "bandstop", [50.0, 60.0, 400.0, 19e3, 38e3], [1.02, 1.05, 1.1, 1.2], [1.3, 1.6, 2.0, 3.0],
+                      [1.25, 1.5, 2.5, 4.0], [20.0, 30.0, 45.0, 60.0], losses) for _ in range(18)]
     return out
 
 
