@@ -183,7 +183,7 @@ export function zpkResponseUnchecked(system: Zpk, w: Float64Array): ComplexRespo
       }
     }
     // s = -0 + j wk: `-0 - Re r` is exactly `-Re r`, signed zeros included.
-    const v = evalZpkUnchecked(system, -0, wk);
+    const v = evalZpkUnchecked(system, -0, wk, true);
     outRe[k] = v.re;
     outIm[k] = v.im;
   }

@@ -44,45 +44,58 @@ export function zpk(zeros: readonly Complex[], poles: readonly Complex[], gain: 
   });
 }
 
-/**
- * H(s) of a zpk, no checks (internal core). One root at a time with Smith's
- * division, interleaving zeros and poles so that no partial product
- * overflows; also the slow, overflow-safe path of the frequency response.
- */
-export function evalZpkUnchecked(system: Zpk, sr: number, si: number): Complex {
-  let re = system.gain;
-  let im = 0;
-  const m = Math.max(system.zeros.length, system.poles.length);
-  for (let i = 0; i < m; i++) {
-    const z = system.zeros[i];
-    if (z !== undefined) {
-      const ar = sr - z.re;
-      const ai = si - z.im;
-      const t = re * ar - im * ai;
-      im = re * ai + im * ar;
-      re = t;
-    }
-    const p = system.poles[i];
-    if (p !== undefined) {
-      const br = sr - p.re;
-      const bi = si - p.im;
-      // Smith's division (re + j im) / (br + j bi)
-      if (Math.abs(br) >= Math.abs(bi)) {
-        const r = bi / br;
-        const d = br + bi * r;
-        const t = (re + im * r) / d;
-        im = (im - re * r) / d;
-        re = t;
-      } else {
-        const r = br / bi;
-        const d = br * r + bi;
-        const t = (re * r + im) / d;
-        im = (im * r - re) / d;
-        re = t;
-      }
-    }
+/** Running product `[re, im]` of the factor-by-factor evaluation (no allocation per factor). */
+const acc = new Float64Array(2);
+
+/** acc *= (ar + j ai). */
+function mulFactor(ar: number, ai: number): void {
+  const re = acc[0] as number;
+  const im = acc[1] as number;
+  acc[0] = re * ar - im * ai;
+  acc[1] = re * ai + im * ar;
+}
+
+/** acc /= (br + j bi), by Smith's division. */
+function divFactor(br: number, bi: number): void {
+  const re = acc[0] as number;
+  const im = acc[1] as number;
+  if (Math.abs(br) >= Math.abs(bi)) {
+    const r = bi / br;
+    const d = br + bi * r;
+    acc[0] = (re + im * r) / d;
+    acc[1] = (im - re * r) / d;
+  } else {
+    const r = br / bi;
+    const d = br * r + bi;
+    acc[0] = (re * r + im) / d;
+    acc[1] = (im * r - re) / d;
   }
-  return { re, im };
+}
+
+/**
+ * H(s) of a zpk, no checks (internal core): the gain times each factor
+ * `(s - z_i)`, divided by each `(s - p_j)` with Smith's division. With
+ * `interleave` the zeros and poles alternate, so that no partial product
+ * overflows (the slow, overflow-safe path of the frequency response);
+ * otherwise all zeros come first, then all poles.
+ */
+export function evalZpkUnchecked(system: Zpk, sr: number, si: number, interleave = false): Complex {
+  const { zeros, poles } = system;
+  acc[0] = system.gain;
+  acc[1] = 0;
+  if (interleave) {
+    const m = Math.max(zeros.length, poles.length);
+    for (let i = 0; i < m; i++) {
+      const z = zeros[i];
+      if (z !== undefined) mulFactor(sr - z.re, si - z.im);
+      const p = poles[i];
+      if (p !== undefined) divFactor(sr - p.re, si - p.im);
+    }
+  } else {
+    for (const z of zeros) mulFactor(sr - z.re, si - z.im);
+    for (const p of poles) divFactor(sr - p.re, si - p.im);
+  }
+  return { re: acc[0] as number, im: acc[1] as number };
 }
 
 /**
