@@ -38,7 +38,20 @@ export interface ErrorDetails {
   readonly message: string;
 }
 
-/** Render a received value for an error message without throwing. */
+/**
+ * Render a received value for an error message without throwing: strings are
+ * quoted, `NaN` and `undefined` are named, objects are shown as JSON cut to
+ * 80 characters.
+ *
+ * @param value - any value
+ * @returns a short printable description
+ * @throws never
+ * @example
+ * ```ts
+ * describeValue("4k7k"); //=> "\"4k7k\""
+ * describeValue(Number.NaN); //=> "NaN"
+ * ```
+ */
 export function describeValue(value: unknown): string {
   if (typeof value === "string") return JSON.stringify(value);
   if (typeof value === "number") {

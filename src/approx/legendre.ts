@@ -124,8 +124,21 @@ export function legendreLCoefficients(order: number): readonly Rat[] {
   return out;
 }
 
-/** Coefficients of L_n(u) as decimal strings "p/q" (ascending powers), for display and tests. */
+/**
+ * The exact coefficients of Papoulis' L_n(u) (with u = w^2, so that
+ * |H(jw)|^2 = 1 / (1 + L_n(w^2))) as rational strings `"p"` or `"p/q"`, in
+ * ascending powers of u, for display and for checking against published tables.
+ *
+ * @param order - filter order, 1 to {@link LEGENDRE_MAX_ORDER}
+ * @returns the coefficients of u^0, u^1, ..., u^n
+ * @throws {@link InvalidArgumentError} when `order` is not an integer in range
+ * @example
+ * ```ts
+ * legendreLCoefficientStrings(3); //=> ["0", "1", "-3", "3"]   (L_3 = 3u^3 - 3u^2 + u)
+ * ```
+ */
 export function legendreLCoefficientStrings(order: number): string[] {
+  requireInteger("legendreLCoefficientStrings", "order", order, { min: 1, max: LEGENDRE_MAX_ORDER });
   return legendreLCoefficients(order).map((c) => (c.d === 1n ? `${c.n}` : `${c.n}/${c.d}`));
 }
 

@@ -25,6 +25,13 @@ describe("legendre", () => {
     expect(legendreLCoefficientStrings(5)).toEqual(["0", "1", "-8", "28", "-40", "20"]);
   });
 
+  it("legendreLCoefficientStrings rejects orders outside 1-20 with a typed error naming the field", () => {
+    for (const bad of [0, 21, 2.5, Number.NaN]) {
+      expect(() => legendreLCoefficientStrings(bad)).toThrow(InvalidArgumentError);
+      expect(() => legendreLCoefficientStrings(bad)).toThrow(/order/);
+    }
+  });
+
   it("is -3.0103 dB at 1 rad/s and coincides with Butterworth at orders 1 and 2", () => {
     for (let n = 1; n <= 20; n++) expectClose(20 * Math.log10(magnitude(legendre(n), 1)), -10 * Math.log10(2), { rel: 1e-11 });
     expectComplexSetClose(legendre(1).poles, butterworth(1).poles, { rel: 1e-15 });
