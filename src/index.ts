@@ -20,7 +20,6 @@
  * @module
  */
 export * from "./errors.ts";
-export * from "./validate.ts";
 export * from "./units/index.ts";
 export * from "./math/index.ts";
 export * from "./tf/index.ts";

@@ -18,6 +18,7 @@ import { requireOptions, requirePositive } from "../validate.ts";
 import { responseSpanHz, type DesignResult } from "../design/index.ts";
 import { builtStages } from "../design/response.ts";
 import { multiplyInPlace } from "../design/verify.ts";
+import { requireDesignResult } from "../design/check.ts";
 
 /** Options of {@link opampRequirements}. */
 export interface OpampRequirementOptions {
@@ -63,6 +64,7 @@ export interface StageOpampRequirement {
  * ```
  */
 export function opampRequirements(result: DesignResult, options?: OpampRequirementOptions): StageOpampRequirement[] {
+  requireDesignResult("opampRequirements", result);
   const fn = "opampRequirements";
   const o = requireOptions(fn, "options", options);
   const amp = o["inputPeakV"] === undefined ? 1 : requirePositive(fn, "options.inputPeakV", o["inputPeakV"]);

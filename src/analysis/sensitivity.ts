@@ -17,6 +17,7 @@
  */
 import type { DesignResult } from "../design/index.ts";
 import { builtStages } from "../design/response.ts";
+import { requireDesignResult } from "../design/check.ts";
 
 /** Sensitivities of one stage's figures to one part. */
 export interface PartSensitivity {
@@ -49,7 +50,7 @@ function rel(hi: number | undefined, lo: number | undefined, mid: number | undef
  *
  * @param result - a design
  * @returns one entry per part, in cascade order
- * @throws never (an unknown topology id in a hand-made result throws the registry's `InvalidArgumentError`)
+ * @throws {@link InvalidArgumentError} when `result` is not a design result (the path names the first bad field)
  * @example
  * ```ts
  * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
@@ -58,6 +59,7 @@ function rel(hi: number | undefined, lo: number | undefined, mid: number | undef
  * ```
  */
 export function partSensitivities(result: DesignResult): PartSensitivity[] {
+  requireDesignResult("partSensitivities", result);
   const out: PartSensitivity[] = [];
   builtStages(result).forEach((b, k) => {
     const st = result.stages[k] as DesignResult["stages"][number];

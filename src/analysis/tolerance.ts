@@ -18,6 +18,7 @@ import { requireInRange, requireInteger, requireOptions } from "../validate.ts";
 import type { DesignResult } from "../design/index.ts";
 import { builtStages } from "../design/response.ts";
 import { checkMask, type BuiltStage } from "../design/verify.ts";
+import { requireDesignResult } from "../design/check.ts";
 
 /** Options of {@link monteCarlo}. */
 export interface MonteCarloOptions {
@@ -116,6 +117,7 @@ function spread(xs: number[]): Spread {
  * ```
  */
 export function monteCarlo(result: DesignResult, options?: MonteCarloOptions): MonteCarloResult {
+  requireDesignResult("monteCarlo", result);
   const fn = "monteCarlo";
   const o = requireOptions(fn, "options", options);
   const runs = o["runs"] === undefined ? 200 : requireInteger(fn, "options.runs", o["runs"], { min: 1, max: 100000 });

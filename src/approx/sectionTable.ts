@@ -128,6 +128,12 @@ export function formatSectionTable(rows: readonly SectionRow[], options?: Format
   const digits = opts["digits"] === undefined ? 4 : requireInteger(fn, "options.digits", opts["digits"], { min: 1, max: 15 });
   const num = (x: number | undefined): string => (x === undefined ? "-" : x.toPrecision(digits));
   const table: string[][] = [["#", "order", "w0 (rad/s)", "Q", "wz (rad/s)", "kind"]];
+  (rows as readonly unknown[]).forEach((r, i) => {
+    const row = r as Partial<SectionRow> | null;
+    if (typeof row !== "object" || row === null || (row.order !== 1 && row.order !== 2) || typeof row.kind !== "string" || !(typeof row.w0 === "number" && row.w0 > 0)) {
+      throw new InvalidArgumentError({ fn, path: `rows[${i}]`, received: r, message: "expected a section row from sectionTable ({ index, order, w0, kind, ... })" });
+    }
+  });
   for (const r of rows as readonly SectionRow[]) {
     const kind = r.notchType === undefined ? r.kind : `${r.kind} (${r.notchType})`;
     table.push([String(r.index), String(r.order), num(r.w0), num(r.q), num(r.wz), kind]);

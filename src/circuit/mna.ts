@@ -239,6 +239,7 @@ export function checkStructure(fn: string, circuit: Circuit, dc: boolean): void 
  * ```
  */
 export function assembleMna(circuit: Circuit): MnaSystem {
+  checkCircuit("assembleMna", circuit);
   const nodes = nodesOf(circuit);
   const nodeIndex = new Map<string, number>();
   nodes.forEach((n, i) => nodeIndex.set(n, i));
@@ -514,6 +515,14 @@ export function transfer(circuit: Circuit, options: TransferOptions): ComplexRes
  * ```
  */
 export function mnaDeterminant(sys: MnaSystem, s: Complex): Complex {
+  const fn = "mnaDeterminant";
+  const size = sys?.n;
+  if (typeof size !== "number" || !Number.isInteger(size) || size < 1 || !(sys.g instanceof Float64Array) || !(sys.c instanceof Float64Array) || sys.g.length !== size * size || sys.c.length !== size * size) {
+    throw new InvalidArgumentError({ fn, path: "sys", received: sys, message: "expected an MNA system from assembleMna" });
+  }
+  if (typeof s !== "object" || s === null || !Number.isFinite(s.re) || !Number.isFinite(s.im)) {
+    throw new InvalidArgumentError({ fn, path: "s", received: s, message: "expected a complex frequency { re, im } with finite parts" });
+  }
   const { n, g, c } = sys;
   const ar = new Float64Array(n * n);
   const ai = new Float64Array(n * n);

@@ -13,6 +13,7 @@
  *
  * @module
  */
+import { requireFinite } from "../validate.ts";
 import { InvalidArgumentError } from "../errors.ts";
 import type { Circuit, Element, OpAmpModel } from "./types.ts";
 import { checkCircuit } from "./validate.ts";
@@ -57,6 +58,7 @@ export const SPICE_IDEAL_OPAMP_GAIN = 1e9;
  * ```
  */
 export function spiceNumber(v: number): string {
+  requireFinite("spiceNumber", "v", v);
   if (v === 0) return "0";
   return v.toExponential().replace("e+", "e").replace(/e0$/, "");
 }

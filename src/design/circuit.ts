@@ -8,6 +8,7 @@
 import type { Circuit, Element, OpAmpModel } from "../circuit/types.ts";
 import { getTopology } from "../topologies/index.ts";
 import type { DesignResult } from "./types.ts";
+import { requireDesignResult } from "./check.ts";
 
 /** Options of {@link designCircuit}. */
 export interface DesignCircuitOptions {
@@ -40,6 +41,7 @@ export interface DesignCircuitOptions {
  * ```
  */
 export function designCircuit(result: DesignResult, options: DesignCircuitOptions = {}): Circuit {
+  requireDesignResult("designCircuit", result);
   const opamp = options.opamp ?? result.spec.opamp;
   const source = options.sourceName ?? "Vin";
   const elements: Element[] = [{ kind: "V", name: source, a: "in", b: "0", ac: 1 }];

@@ -26,6 +26,7 @@ import type { FamilyName } from "../approx/index.ts";
 import type { ComponentValues } from "../topologies/types.ts";
 import { getTopology } from "../topologies/index.ts";
 import { validateSpec, MAX_SPEC_ORDER, type DesignSpec } from "./spec.ts";
+import { deepFreeze, registerDesignResult } from "./check.ts";
 import { AUTO_MAX_ORDER, chooseFamily, choosePrototype, MARGIN_LEVELS, designPrototype, type PrototypeDesign } from "./family.ts";
 import { intervalWidth, placeInInterval, transformPrototype } from "./placement.ts";
 import { CAPACITOR_SPREAD_SOFT_LIMIT, describeSections, peakGrid, planStages, type StagePlan } from "./stages.ts";
@@ -528,7 +529,7 @@ function assemble(
     ...(p.attenuationDb === undefined ? {} : { designAttenuationDb: p.attenuationDb }),
   };
   const order = p.order;
-  return deepFreeze({
+  return registerDesignResult(deepFreeze({
     spec: s,
     family,
     familyChoice: choice,
@@ -558,13 +559,5 @@ function assemble(
     },
     warnings,
     actions,
-  });
-}
-
-function deepFreeze<T>(x: T): T {
-  if (x !== null && typeof x === "object" && !Object.isFrozen(x)) {
-    Object.freeze(x);
-    for (const v of Object.values(x as object)) deepFreeze(v);
-  }
-  return x;
+  }));
 }

@@ -10,6 +10,7 @@ import { InvalidArgumentError } from "../errors.ts";
 import { getTopology } from "../topologies/index.ts";
 import type { DesignResult } from "./types.ts";
 import { cascadeResponse, type BuiltStage } from "./verify.ts";
+import { requireDesignResult } from "./check.ts";
 
 /** Options of {@link designResponse}. */
 export interface DesignResponseOptions {
@@ -50,6 +51,7 @@ export function designResponse(
   freqHz: Float64Array,
   options: DesignResponseOptions = {},
 ): ComplexResponse {
+  requireDesignResult("designResponse", result);
   if (!(freqHz instanceof Float64Array) || freqHz.some((f) => !(f >= 0) || !Number.isFinite(f))) {
     throw new InvalidArgumentError({
       fn: "designResponse",

@@ -11,7 +11,7 @@
  *
  * @module
  */
-import { SpecError, type Issue } from "../errors.ts";
+import { InvalidArgumentError, SpecError, type Issue } from "../errors.ts";
 import type { OpAmpModel } from "../circuit/types.ts";
 import { FAMILY_NAMES, type FamilyName } from "../approx/index.ts";
 import { SERIES_NAMES, seriesTolerance, type SeriesName } from "../parts/index.ts";
@@ -651,7 +651,7 @@ export function validateSpec(spec: unknown): DesignSpec {
 
   if (r.issues.length > 0) throw new SpecError("validateSpec", r.issues);
 
-  return Object.freeze({
+  return rememberSpec(Object.freeze({
     response: response as ResponseType,
     passbandHz: Object.freeze([...(passbandHz as number[])]),
     stopbandHz: Object.freeze([...(stopbandHz as number[])]),
@@ -673,7 +673,7 @@ export function validateSpec(spec: unknown): DesignSpec {
     resistorRange: Object.freeze({ min: rMin, max: rMax }),
     capacitorRange: Object.freeze({ min: cMin, max: cMax }),
     opamp: Object.freeze({ ...opamp }),
-  });
+  }));
 }
 
 function getTopologySafe(id: string): unknown {
@@ -684,13 +684,85 @@ function getTopologySafe(id: string): unknown {
   }
 }
 
+const canonical = new WeakSet<object>();
+
+function rememberSpec(spec: DesignSpec): DesignSpec {
+  canonical.add(spec);
+  return spec;
+}
+
+/**
+ * Check that a value has the shape of a canonical {@link DesignSpec} (as
+ * {@link validateSpec} returns it) before a function reads it. Specs made by
+ * `validateSpec` in this process pass at once; anything else is checked field
+ * by field (types and finiteness; the values themselves are re-checked by
+ * `validateSpec` where a result is read back).
+ *
+ * @param fn - public function name, for the error
+ * @param value - the argument received
+ * @param path - path of the argument (e.g. `"spec"` or `"result.spec"`)
+ * @returns the value as a spec
+ * @throws {@link InvalidArgumentError} naming the first bad field
+ */
+export function requireDesignSpec(fn: string, value: unknown, path = "spec"): DesignSpec {
+  if (typeof value === "object" && value !== null && canonical.has(value)) return value as DesignSpec;
+  const fail = (field: string, message: string, received: unknown): never => {
+    throw new InvalidArgumentError({ fn, path: field === "" ? path : `${path}.${field}`, received, message });
+  };
+  if (!isObject(value)) return fail("", "expected a canonical spec object (from validateSpec)", value);
+  const v = value;
+  const num = (k: string, positive: boolean): void => {
+    const x = v[k];
+    if (typeof x !== "number" || !Number.isFinite(x) || (positive && !(x > 0))) {
+      fail(k, positive ? "expected a finite number greater than zero" : "expected a finite number", x);
+    }
+  };
+  const str = (k: string): void => {
+    if (typeof v[k] !== "string") fail(k, "expected a string", v[k]);
+  };
+  const edges = (k: string): void => {
+    const a = v[k];
+    if (!Array.isArray(a) || a.length < 1 || a.length > 2 || a.some((x) => typeof x !== "number" || !(x > 0) || !Number.isFinite(x))) {
+      fail(k, "expected one or two band edges in Hz, each a finite number greater than zero", a);
+    }
+  };
+  const window = (k: string): void => {
+    const w = v[k];
+    if (!isObject(w) || typeof w["min"] !== "number" || typeof w["max"] !== "number" || !(w["min"] > 0) || !(w["max"] > w["min"]) || !Number.isFinite(w["max"])) {
+      fail(k, "expected { min, max } with 0 < min < max", w);
+    }
+  };
+  str("response");
+  edges("passbandHz");
+  edges("stopbandHz");
+  if (v["passbandTopHz"] !== null) num("passbandTopHz", true);
+  num("maxLossDb", true);
+  num("minAttenuationDb", true);
+  num("gain", true);
+  num("gainToleranceDb", true);
+  num("capacitorTolerance", true);
+  num("resistorTolerance", true);
+  for (const k of ["polarity", "family", "priority", "topology", "capacitorSeries", "resistorSeries"]) str(k);
+  if (v["order"] !== null) num("order", true);
+  if (!Array.isArray(v["stageTopologies"]) || v["stageTopologies"].some((x) => typeof x !== "string")) {
+    fail("stageTopologies", "expected an array of topology ids", v["stageTopologies"]);
+  }
+  window("resistorRange");
+  window("capacitorRange");
+  const oa = v["opamp"];
+  if (!isObject(oa) || (oa["kind"] !== "ideal" && (typeof oa["a0"] !== "number" || typeof oa["gbwHz"] !== "number"))) {
+    fail("opamp", 'expected { kind: "ideal" } or a single-pole model { kind, a0, gbwHz }', oa);
+  }
+  return value as unknown as DesignSpec;
+}
+
 /**
  * Turn a canonical {@link DesignSpec} back into the {@link FilterSpec} a user
  * would write (numbers only), so a result can be re-designed or stored.
  *
  * @param spec - a validated spec
  * @returns an equivalent {@link FilterSpec} that {@link validateSpec} maps back to `spec`
- * @throws never
+ * @throws {@link InvalidArgumentError} when `spec` is not a canonical spec (the path names the field)
  * @example
  * ```ts
  * specToInput(validateSpec({ response: "lowpass", passband: { edgeHz: 1000, maxLossDb: 1 },
@@ -698,6 +770,7 @@ function getTopologySafe(id: string): unknown {
  * ```
  */
 export function specToInput(spec: DesignSpec): FilterSpec {
+  requireDesignSpec("specToInput", spec);
   const edge = (e: readonly number[]): EdgeInput =>
     e.length === 1 ? (e[0] as number) : ([e[0] as number, e[1] as number] as const);
   const gain: GainSpec = {

@@ -21,7 +21,7 @@
 import type { OpAmpModel } from "../circuit/types.ts";
 import type { ComponentValues, Topology } from "../topologies/types.ts";
 import { logGrid } from "../tf/index.ts";
-import type { DesignSpec } from "./spec.ts";
+import { requireDesignSpec, type DesignSpec } from "./spec.ts";
 import type { ResponseCurve } from "./types.ts";
 
 /** A stage as placed on the board. */
@@ -350,7 +350,7 @@ export function gridMarginDb(spec: DesignSpec, grid: MaskGrid, magnitude: Float6
  *
  * @param spec - canonical spec
  * @returns `[startHz, stopHz]`
- * @throws never
+ * @throws {@link InvalidArgumentError} when `spec` is not a canonical spec (the path names the field)
  * @example
  * ```ts
  * responseSpanHz(validateSpec({ response: "lowpass", passband: { edgeHz: 1000, maxLossDb: 1 },
@@ -358,6 +358,7 @@ export function gridMarginDb(spec: DesignSpec, grid: MaskGrid, magnitude: Float6
  * ```
  */
 export function responseSpanHz(spec: DesignSpec): readonly [number, number] {
+  requireDesignSpec("responseSpanHz", spec);
   const all = [...spec.passbandHz, ...spec.stopbandHz];
   const lo = Math.min(...all);
   const hi = Math.max(...all);

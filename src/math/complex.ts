@@ -5,6 +5,10 @@
  * (R. L. Smith, "Algorithm 116: Complex division", Commun. ACM 5(8):435, 1962);
  * the modulus uses `Math.hypot`. All functions are pure and return fresh objects.
  *
+ * These are the primitives of the numerical core and sit in inner loops, so,
+ * unlike the rest of the public API, they do not check their arguments: pass
+ * `{ re, im }` objects with finite parts (NaN in gives NaN out).
+ *
  * @module
  */
 

@@ -269,6 +269,17 @@ export function complexLuFactor(a: ComplexMatrix): ComplexLu {
  */
 export function complexLuSolve(lu: ComplexLu, b: ComplexVector): ComplexVector {
   const fn = "complexLuSolve";
+  const n = lu?.n;
+  if (
+    typeof n !== "number" || !Number.isInteger(n) || n < 1 ||
+    !(lu.re instanceof Float64Array) || !(lu.im instanceof Float64Array) || !(lu.pivots instanceof Int32Array) ||
+    lu.re.length !== n * n || lu.im.length !== n * n || lu.pivots.length !== n || typeof lu.singularColumn !== "number"
+  ) {
+    throw new InvalidArgumentError({ fn, path: "lu", received: lu, message: "expected the factors returned by complexLuFactor" });
+  }
+  if (typeof b !== "object" || b === null) {
+    throw new InvalidArgumentError({ fn, path: "b", received: b, message: `expected { re, im } Float64Arrays of length ${n}` });
+  }
   if (lu.singularColumn >= 0) {
     throw new InvalidArgumentError({
       fn,

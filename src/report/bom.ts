@@ -11,6 +11,7 @@
  */
 import { formatRkm, formatValue } from "../units/index.ts";
 import type { DesignResult } from "../design/index.ts";
+import { requireDesignResult } from "../design/check.ts";
 
 /** One line of the bill of materials. */
 export interface BomLine {
@@ -37,7 +38,7 @@ export interface BomLine {
  *
  * @param result - a design
  * @returns lines: resistors by ascending value, then capacitors, then op-amps
- * @throws never
+ * @throws {@link InvalidArgumentError} when `result` is not a design result (the path names the first bad field)
  * @example
  * ```ts
  * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
@@ -46,6 +47,7 @@ export interface BomLine {
  * ```
  */
 export function bomLines(result: DesignResult): BomLine[] {
+  requireDesignResult("bomLines", result);
   const groups = new Map<string, { part: "resistor" | "capacitor"; value: number; designators: string[] }>();
   for (const stage of result.stages) {
     for (const [d, v] of Object.entries(stage.components)) {
@@ -96,7 +98,7 @@ function csvField(x: string): string {
  *
  * @param result - a design
  * @returns CSV text (CRLF line ends, UTF-8; values use Ω and µ)
- * @throws never
+ * @throws {@link InvalidArgumentError} when `result` is not a design result (the path names the first bad field)
  * @example
  * ```ts
  * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
@@ -105,6 +107,7 @@ function csvField(x: string): string {
  * ```
  */
 export function toBomCsv(result: DesignResult): string {
+  requireDesignResult("toBomCsv", result);
   const rows = [["designators", "part", "value", "rkm", "series", "tolerance", "quantity"]];
   for (const l of bomLines(result)) {
     rows.push([l.designators.join(", "), l.part, l.valueText, l.rkm, l.series, l.tolerance, String(l.quantity)]);

@@ -9,6 +9,7 @@ import { formatValue } from "../units/index.ts";
 import type { DesignResult } from "../design/index.ts";
 import { bomLines } from "./bom.ts";
 import { opampRequirements } from "../analysis/index.ts";
+import { requireDesignResult } from "../design/check.ts";
 
 const f3 = (x: number): string => formatValue(x, { digits: 4, unit: "Hz" });
 const n4 = (x: number): string => Number(x.toPrecision(4)).toString();
@@ -31,7 +32,7 @@ function edges(e: readonly number[]): string {
  *
  * @param result - a design
  * @returns Markdown text
- * @throws never
+ * @throws {@link InvalidArgumentError} when `result` is not a design result (the path names the first bad field)
  * @example
  * ```ts
  * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
@@ -39,6 +40,7 @@ function edges(e: readonly number[]): string {
  * ```
  */
 export function toMarkdown(result: DesignResult): string {
+  requireDesignResult("toMarkdown", result);
   const s = result.spec;
   const v = result.verification;
   const L: string[] = [];

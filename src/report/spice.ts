@@ -6,6 +6,7 @@
 import { circuitToSpice } from "../circuit/index.ts";
 import { designCircuit, responseSpanHz, type DesignResult } from "../design/index.ts";
 import type { OpAmpModel } from "../circuit/types.ts";
+import { requireDesignResult } from "../design/check.ts";
 
 /** Options of {@link toSpiceNetlist}. */
 export interface SpiceNetlistOptions {
@@ -48,6 +49,7 @@ export interface SpiceNetlistOptions {
  * ```
  */
 export function toSpiceNetlist(result: DesignResult, options: SpiceNetlistOptions = {}): string {
+  requireDesignResult("toSpiceNetlist", result);
   const [lo, hi] = responseSpanHz(result.spec);
   const circuit = designCircuit(result, options.opamp === undefined ? {} : { opamp: options.opamp });
   const v = result.verification;

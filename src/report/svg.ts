@@ -6,6 +6,7 @@
  */
 import { formatValue } from "../units/index.ts";
 import type { DesignResult } from "../design/index.ts";
+import { requireDesignResult } from "../design/check.ts";
 
 /** Options of {@link toSvgPlot}. */
 export interface SvgPlotOptions {
@@ -40,7 +41,7 @@ const r1 = (x: number): string => (Math.round(x * 10) / 10).toString();
  * @param result - a design
  * @param options - plot kind and size
  * @returns SVG text
- * @throws never
+ * @throws {@link InvalidArgumentError} when `result` is not a design result (the path names the first bad field)
  * @example
  * ```ts
  * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
@@ -48,6 +49,7 @@ const r1 = (x: number): string => (Math.round(x * 10) / 10).toString();
  * ```
  */
 export function toSvgPlot(result: DesignResult, options: SvgPlotOptions = {}): string {
+  requireDesignResult("toSvgPlot", result);
   const kind = options.kind ?? "magnitude";
   const W = options.width ?? 720;
   const H = options.height ?? 420;

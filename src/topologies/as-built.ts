@@ -11,7 +11,7 @@
  */
 import type { OpAmpModel } from "../circuit/types.ts";
 import { checkCircuit } from "../circuit/validate.ts";
-import { ConvergenceError } from "../errors.ts";
+import { ConvergenceError, InvalidArgumentError } from "../errors.ts";
 import { circuitPole, checkValues } from "./common.ts";
 import type { ComponentValues, Topology } from "./types.ts";
 
@@ -44,6 +44,9 @@ export interface AsBuiltPole {
  */
 export function asBuiltPole(topology: Topology, values: ComponentValues, opamp: OpAmpModel): AsBuiltPole {
   const fn = "asBuiltPole";
+  if (typeof topology !== "object" || topology === null || !Array.isArray(topology.componentNames) || typeof topology.elements !== "function") {
+    throw new InvalidArgumentError({ fn, path: "topology", received: topology, message: "expected a topology from the registry (see getTopology)" });
+  }
   checkValues(fn, topology.componentNames, values);
   const circuit = checkCircuit(fn, {
     title: topology.name,

@@ -40,6 +40,7 @@
  *
  * @module
  */
+import { requirePositive } from "../validate.ts";
 import type { Complex } from "../math/complex.ts";
 import type { ComponentValues, StageFigures, StageTarget } from "./types.ts";
 import { TWO_PI, atLeast, defineTopology, mfbKernel, re, sx, type DefinedTopology } from "./common.ts";
@@ -68,6 +69,11 @@ const ZERO: Complex = { re: 0, im: 0 };
  * ```
  */
 export function mfbLowpassMinRatio(qv: number, gainMagnitude: number): number {
+  const fn = "mfbLowpassMinRatio";
+  return mfbMinRatio(requirePositive(fn, "q", qv), requirePositive(fn, "gainMagnitude", gainMagnitude));
+}
+
+function mfbMinRatio(qv: number, gainMagnitude: number): number {
   return 4 * qv * qv * (1 + gainMagnitude);
 }
 
@@ -91,7 +97,7 @@ export const mfbLowpass: DefinedTopology = defineTopology({
   ],
   limits: (t, c) => {
     if (c.capacitorRatio === undefined) return null;
-    const min = mfbLowpassMinRatio(q(t), Math.abs(t.gain));
+    const min = mfbMinRatio(q(t), Math.abs(t.gain));
     return atLeast(c.capacitorRatio, min)
       ? null
       : `a multiple-feedback lowpass of gain ${t.gain} at Q = ${q(t)} needs its grounded capacitor C1 at least 4Q^2 (1 + |K|) = ${min.toPrecision(4)} times C2 (capacitorRatio ${c.capacitorRatio}); raise capacitorRatio or lower the gain`;
@@ -99,7 +105,7 @@ export const mfbLowpass: DefinedTopology = defineTopology({
   solve: (t, c) => {
     const w0 = w0Of(t);
     const k = Math.abs(t.gain);
-    const m = c.capacitorRatio ?? mfbLowpassMinRatio(q(t), k);
+    const m = c.capacitorRatio ?? mfbMinRatio(q(t), k);
     // C2 = 1, C1 = m: w0^2 m R2^2 - (m w0/Q) R2 + (1 + K) = 0
     const a = w0 * w0 * m;
     const b = (m * w0) / q(t);

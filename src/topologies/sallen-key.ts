@@ -49,6 +49,7 @@
  *
  * @module
  */
+import { requireInRange, requirePositive } from "../validate.ts";
 import type { Complex } from "../math/complex.ts";
 import type { ComponentValues, StageChoices, StageTarget } from "./types.ts";
 import {
@@ -155,11 +156,16 @@ function highClosed(v: ComponentValues, s: Complex, a: Complex | null): Complex 
  * ```
  */
 export function sallenKeyLowpassMinRatio(qv: number, k: number): number {
+  const fn = "sallenKeyLowpassMinRatio";
+  return skMinRatio(requirePositive(fn, "q", qv), requireInRange(fn, "k", k, { min: 1, max: 1e6 }));
+}
+
+function skMinRatio(qv: number, k: number): number {
   return (4 * qv * qv) / (1 + 4 * qv * qv * (k - 1));
 }
 
 function lowRatio(t: StageTarget, c: StageChoices): number {
-  return c.capacitorRatio ?? sallenKeyLowpassMinRatio(q(t), t.gain);
+  return c.capacitorRatio ?? skMinRatio(q(t), t.gain);
 }
 
 /** Add the gain resistors R4 = R1 and R3 = (K - 1) R1 when K is not 1 (the follower has none). */
@@ -236,7 +242,7 @@ function lowRatioLimit(t: StageTarget, c: StageChoices, unity: boolean): string 
     return "a Sallen-Key lowpass takes either capacitorRatio (C1/C2) or resistorRatio (R2/R1), not both; drop one";
   }
   if (c.capacitorRatio === undefined) return null;
-  const min = sallenKeyLowpassMinRatio(q(t), t.gain);
+  const min = skMinRatio(q(t), t.gain);
   if (atLeast(c.capacitorRatio, min)) return null;
   return unity
     ? `a unity-gain Sallen-Key lowpass needs its feedback capacitor C1 at least 4Q^2 = ${min.toPrecision(4)} times its grounded capacitor C2 (capacitorRatio ${c.capacitorRatio}); raise capacitorRatio or choose an equal-component or multiple-feedback stage`

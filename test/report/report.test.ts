@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { designFilter, type FilterSpec } from "../../src/design/index.ts";
 import { bomLines, fromJson, toBomCsv, toJson, toMarkdown, toSpiceNetlist } from "../../src/report/index.ts";
-import { ParseError } from "../../src/errors.ts";
+import { InvalidArgumentError, ParseError } from "../../src/errors.ts";
 import { parseValue } from "../../src/units/index.ts";
 
 const spec: FilterSpec = {
@@ -112,5 +112,31 @@ describe("toSvgPlot", () => {
     expect((mag.match(/fill="#f4c7c3"/g) ?? []).length).toBe(2);
     const gd = toSvgPlot(result, { kind: "group-delay" });
     expect(gd).toContain("group delay");
+  });
+});
+
+const SPEC_FOR_CHECKS: FilterSpec = {
+  response: "lowpass",
+  passband: { edgeHz: 1000, maxLossDb: 1 },
+  stopband: { edgeHz: 4000, minAttenuationDb: 40 },
+};
+
+describe("report functions given something that is not a design result", () => {
+  it("name the first bad field of a hand-edited result instead of failing deep inside", () => {
+    const good = designFilter(SPEC_FOR_CHECKS);
+    const edited = JSON.parse(JSON.stringify(good)) as Record<string, unknown>;
+    (edited["stages"] as Record<string, unknown>[])[0]!["components"] = { R1: -4700 };
+    for (const f of [toBomCsv, toMarkdown, toSpiceNetlist, toJson]) {
+      let caught: unknown;
+      try {
+        f(edited as never);
+      } catch (e) {
+        caught = e;
+      }
+      expect(caught).toBeInstanceOf(InvalidArgumentError);
+      expect((caught as InvalidArgumentError).path).toBe("result.stages.0.components.R1");
+    }
+    // an unedited copy read back from JSON (not the same object) passes the full check
+    expect(toBomCsv(JSON.parse(JSON.stringify(good)) as never)).toBe(toBomCsv(good));
   });
 });

@@ -1,0 +1,205 @@
+/**
+ * Checking that a value is a design result before using it: the structure and
+ * numbers of every field a consumer reads (spec, stages, verification). A
+ * result returned by `designFilter` or `fromJson` in this process is known good
+ * and passes at once; anything else (a hand-built or edited object) is checked
+ * field by field, and the first bad field is reported with its path.
+ *
+ * @module
+ */
+import { FilterwrightError, InvalidArgumentError, type ErrorDetails } from "../errors.ts";
+import { getTopology } from "../topologies/index.ts";
+import { specToInput, validateSpec } from "./spec.ts";
+import type { DesignResult } from "./types.ts";
+
+const known = new WeakSet<object>();
+
+/**
+ * Freeze a plain-data value and everything inside it.
+ *
+ * @param x - plain data (objects, arrays, numbers, strings)
+ * @returns the same value, deeply frozen
+ */
+export function deepFreeze<T>(x: T): T {
+  if (x !== null && typeof x === "object" && !Object.isFrozen(x)) {
+    Object.freeze(x);
+    for (const v of Object.values(x as object)) deepFreeze(v);
+  }
+  return x;
+}
+
+/**
+ * Mark a result as produced by this library (called by `designFilter` and
+ * `fromJson`), so later checks pass without walking it again.
+ *
+ * @param result - a result built and checked by this library
+ * @returns the same result
+ */
+export function registerDesignResult<T extends DesignResult>(result: T): T {
+  known.add(result);
+  return result;
+}
+
+type Raw = Record<string, unknown>;
+
+/** Builds the error thrown for a bad field: `ParseError` when reading JSON, `InvalidArgumentError` for an argument. */
+export type ResultErrorFactory = (details: ErrorDetails) => FilterwrightError;
+
+class Checker {
+  constructor(
+    private readonly fn: string,
+    private readonly make: ResultErrorFactory,
+  ) {}
+
+  fail(path: string, message: string, received?: unknown): never {
+    throw this.make({ fn: this.fn, path, message, ...(arguments.length >= 3 ? { received } : {}) });
+  }
+
+  obj(path: string, v: unknown): Raw {
+    if (typeof v !== "object" || v === null || Array.isArray(v)) this.fail(path, "expected an object", v);
+    return v as Raw;
+  }
+
+  arr(path: string, v: unknown): unknown[] {
+    if (!Array.isArray(v)) this.fail(path, "expected an array", v);
+    return v as unknown[];
+  }
+
+  num(path: string, v: unknown, positive = false): number {
+    if (typeof v !== "number" || !Number.isFinite(v) || (positive && !(v > 0))) {
+      this.fail(path, positive ? "expected a finite number greater than zero" : "expected a finite number", v);
+    }
+    return v as number;
+  }
+
+  str(path: string, v: unknown): string {
+    if (typeof v !== "string") this.fail(path, "expected a string", v);
+    return v as string;
+  }
+
+  bool(path: string, v: unknown): boolean {
+    if (typeof v !== "boolean") this.fail(path, "expected true or false", v);
+    return v as boolean;
+  }
+
+  figures(path: string, v: unknown): void {
+    const f = this.obj(path, v);
+    this.num(`${path}.f0Hz`, f["f0Hz"], true);
+    this.num(`${path}.gain`, f["gain"]);
+    if (f["q"] !== undefined) this.num(`${path}.q`, f["q"], true);
+    if (f["fzHz"] !== undefined) this.num(`${path}.fzHz`, f["fzHz"], true);
+  }
+
+  errors(path: string, v: unknown): void {
+    const e = this.obj(path, v);
+    for (const k of ["f0", "q", "fz", "gain"]) this.num(`${path}.${k}`, e[k]);
+  }
+}
+
+function topologyOrFail(c: Checker, path: string, id: string): ReturnType<typeof getTopology> {
+  try {
+    return getTopology(id);
+  } catch {
+    return c.fail(path, "unknown topology id", id);
+  }
+}
+
+
+
+
+/**
+ * Check the shape and numbers of a design result, throwing the first problem.
+ *
+ * @param fn - public function name, for the error
+ * @param value - the value to check
+ * @param options - `prefix` of every error path (e.g. `"result"`), and the error factory
+ * @returns the value as a result, with its spec re-validated (not frozen)
+ * @throws whatever `options.make` builds, naming the first bad field
+ */
+export function checkDesignResult(
+  fn: string,
+  value: unknown,
+  options: { readonly prefix: string; readonly make: ResultErrorFactory },
+): DesignResult {
+  const c = new Checker(fn, options.make);
+  const prefix = options.prefix;
+  const r = c.obj(prefix, value);
+  // The spec must still be a valid spec and already canonical.
+  const specRaw = c.obj(`${prefix}.spec`, r["spec"]);
+  let spec;
+  try {
+    spec = validateSpec(specToInput(specRaw as never));
+  } catch (e) {
+    c.fail(`${prefix}.spec`, `the stored spec is not valid (${e instanceof Error ? e.message : String(e)})`);
+  }
+  c.str(`${prefix}.family`, r["family"]);
+  c.num(`${prefix}.order`, r["order"], true);
+  c.num(`${prefix}.filterOrder`, r["filterOrder"], true);
+  c.num(`${prefix}.minimumOrder`, r["minimumOrder"], true);
+  c.obj(`${prefix}.familyChoice`, r["familyChoice"]);
+  const pl = c.obj(`${prefix}.placement`, r["placement"]);
+  for (const k of ["lowHz", "highHz", "chosenHz", "position"]) c.num(`${prefix}.placement.${k}`, pl[k]);
+  const stages = c.arr(`${prefix}.stages`, r["stages"]);
+  if (stages.length === 0) c.fail(`${prefix}.stages`, "expected at least one stage", stages);
+  stages.forEach((sv, i) => {
+    const p = `${prefix}.stages.${i}`;
+    const s = c.obj(p, sv);
+    const id = c.str(`${p}.topology`, s["topology"]);
+    const topology = topologyOrFail(c, `${p}.topology`, id);
+    c.num(`${p}.index`, s["index"], true);
+    const comps = c.obj(`${p}.components`, s["components"]);
+    const local = c.obj(`${p}.localNames`, s["localNames"]);
+    for (const [k, v] of Object.entries(comps)) {
+      c.num(`${p}.components.${k}`, v, true);
+      const ln = c.str(`${p}.localNames.${k}`, local[k]);
+      if (!topology.componentNames.includes(ln)) c.fail(`${p}.localNames.${k}`, `not a component of ${id}`, ln);
+    }
+    c.arr(`${p}.opamps`, s["opamps"]).forEach((u, k) => c.str(`${p}.opamps.${k}`, u));
+    c.figures(`${p}.target`, s["target"]);
+    c.figures(`${p}.asBuilt`, s["asBuilt"]);
+    c.errors(`${p}.errors`, s["errors"]);
+    c.errors(`${p}.plainSnapErrors`, s["plainSnapErrors"]);
+    c.num(`${p}.peakGain`, s["peakGain"]);
+    c.num(`${p}.peakHz`, s["peakHz"]);
+    c.num(`${p}.gbwDemandHz`, s["gbwDemandHz"]);
+  });
+  const v = c.obj(`${prefix}.verification`, r["verification"]);
+  c.bool(`${prefix}.verification.meetsSpec`, v["meetsSpec"]);
+  for (const k of [
+    "passbandLossDb",
+    "passbandMarginDb",
+    "stopbandAttenuationDb",
+    "stopbandMarginDb",
+    "gainDb",
+    "gainErrorDb",
+    "gainMarginDb",
+    "marginDb",
+    "idealMarginDb",
+  ]) {
+    c.num(`${prefix}.verification.${k}`, v[k]);
+  }
+  const curve = c.obj(`${prefix}.verification.curve`, v["curve"]);
+  const n = c.arr(`${prefix}.verification.curve.freqHz`, curve["freqHz"]).length;
+  for (const k of ["freqHz", "magnitudeDb", "phaseDeg", "groupDelayS"]) {
+    const a = c.arr(`${prefix}.verification.curve.${k}`, curve[k]);
+    if (a.length !== n) c.fail(`${prefix}.verification.curve.${k}`, `expected ${n} values like freqHz`, a.length);
+    a.forEach((x, j) => c.num(`${prefix}.verification.curve.${k}.${j}`, x));
+  }
+  c.arr(`${prefix}.warnings`, r["warnings"]);
+  c.arr(`${prefix}.actions`, r["actions"]);
+  return { ...(r as unknown as DesignResult), spec: spec as DesignResult["spec"] };
+}
+
+/**
+ * The check every public function that takes a design result runs first.
+ *
+ * @param fn - public function name, for the error
+ * @param value - the argument received
+ * @returns the argument as a result
+ * @throws {@link InvalidArgumentError} naming the first bad field (path starting `result`)
+ */
+export function requireDesignResult(fn: string, value: unknown): DesignResult {
+  if (typeof value === "object" && value !== null && known.has(value)) return value as DesignResult;
+  checkDesignResult(fn, value, { prefix: "result", make: (d) => new InvalidArgumentError(d) });
+  return value as DesignResult;
+}
