@@ -192,43 +192,93 @@ export function zpkResponseUnchecked(system: Zpk, w: Float64Array): ComplexRespo
 
 /** Cascade response core (no checks). */
 export function cascadeResponseUnchecked(cascade: SectionCascade, w: Float64Array): ComplexResponse {
-  const outRe = new Float64Array(w.length).fill(cascade.gain);
-  const outIm = new Float64Array(w.length);
-  for (const sec of cascade.sections) {
-    const [b2, b1, b0] = sec.num;
-    const [a2, a1, a0] = sec.den;
-    for (let k = 0; k < w.length; k++) {
-      const wk = w[k] as number;
-      const w2 = wk * wk;
-      const nr = b0 - b2 * w2;
-      const ni = b1 * wk;
-      const dr = a0 - a2 * w2;
-      const di = a1 * wk;
-      const m = dr * dr + di * di;
-      let vr: number;
-      let vi: number;
-      if (m > 1e-290 && m < 1e290) {
-        const inv = 1 / m;
-        vr = (nr * dr + ni * di) * inv;
-        vi = (ni * dr - nr * di) * inv;
-      } else if (Math.abs(dr) >= Math.abs(di)) {
-        const r = di / dr;
-        const d = dr + di * r;
-        vr = (nr + ni * r) / d;
-        vi = (ni - nr * r) / d;
-      } else {
-        const r = dr / di;
-        const d = dr * r + di;
-        vr = (nr * r + ni) / d;
-        vi = (ni * r - nr) / d;
-      }
-      const re = outRe[k] as number;
-      const im = outIm[k] as number;
-      outRe[k] = re * vr - im * vi;
-      outIm[k] = re * vi + im * vr;
+  const n = w.length;
+  const outRe = new Float64Array(n);
+  const outIm = new Float64Array(n);
+  const m = cascade.sections.length;
+  // Coefficients packed as [b2, b1, b0, a2, a1, a0] per section.
+  const c = new Float64Array(6 * m);
+  cascade.sections.forEach((sec, i) => {
+    c.set(sec.num, 6 * i);
+    c.set(sec.den, 6 * i + 3);
+  });
+  const k0 = cascade.gain;
+  // Point by point: numerator and denominator products meet in one division;
+  // where either leaves the comfortable range, the point is redone one
+  // section at a time (each with Smith's division).
+  for (let k = 0; k < n; k++) {
+    const wk = w[k] as number;
+    const w2 = wk * wk;
+    let nr = 1;
+    let ni = 0;
+    let dr = 1;
+    let di = 0;
+    for (let i = 0; i < 6 * m; i += 6) {
+      const fr = (c[i + 2] as number) - (c[i] as number) * w2;
+      const fi = (c[i + 1] as number) * wk;
+      const t = nr * fr - ni * fi;
+      ni = nr * fi + ni * fr;
+      nr = t;
+      const gr = (c[i + 5] as number) - (c[i + 3] as number) * w2;
+      const gi = (c[i + 4] as number) * wk;
+      const u = dr * gr - di * gi;
+      di = dr * gi + di * gr;
+      dr = u;
     }
+    const nm = nr * nr + ni * ni;
+    const dm = dr * dr + di * di;
+    if (nm > 1e-280 && nm < 1e280 && dm > 1e-280 && dm < 1e280) {
+      const inv = k0 / dm;
+      const re = (nr * dr + ni * di) * inv;
+      const im = (ni * dr - nr * di) * inv;
+      if (Number.isFinite(re) && Number.isFinite(im)) {
+        outRe[k] = re;
+        outIm[k] = im;
+        continue;
+      }
+    }
+    cascadePointBySection(c, m, k0, wk, k, outRe, outIm);
   }
   return { re: outRe, im: outIm };
+}
+
+/** One grid point of a cascade, one section at a time with Smith's division (slow, overflow-safe path). */
+function cascadePointBySection(
+  c: Float64Array,
+  m: number,
+  k0: number,
+  wk: number,
+  k: number,
+  outRe: Float64Array,
+  outIm: Float64Array,
+): void {
+  const w2 = wk * wk;
+  let re = k0;
+  let im = 0;
+  for (let i = 0; i < 6 * m; i += 6) {
+    const nr = (c[i + 2] as number) - (c[i] as number) * w2;
+    const ni = (c[i + 1] as number) * wk;
+    const dr = (c[i + 5] as number) - (c[i + 3] as number) * w2;
+    const di = (c[i + 4] as number) * wk;
+    let vr: number;
+    let vi: number;
+    if (Math.abs(dr) >= Math.abs(di)) {
+      const r = di / dr;
+      const d = dr + di * r;
+      vr = (nr + ni * r) / d;
+      vi = (ni - nr * r) / d;
+    } else {
+      const r = dr / di;
+      const d = dr * r + di;
+      vr = (nr * r + ni) / d;
+      vi = (ni * r - nr) / d;
+    }
+    const t = re * vr - im * vi;
+    im = re * vi + im * vr;
+    re = t;
+  }
+  outRe[k] = re;
+  outIm[k] = im;
 }
 
 /**
