@@ -162,6 +162,16 @@ export function checkDesignResult(
     c.num(`${p}.peakGain`, s["peakGain"]);
     c.num(`${p}.peakHz`, s["peakHz"]);
     c.num(`${p}.gbwDemandHz`, s["gbwDemandHz"]);
+    if (s["asBuiltWithOpamp"] !== undefined) {
+      const w = c.obj(`${p}.asBuiltWithOpamp`, s["asBuiltWithOpamp"]);
+      c.num(`${p}.asBuiltWithOpamp.f0Hz`, w["f0Hz"], true);
+      if (w["q"] !== undefined) c.num(`${p}.asBuiltWithOpamp.q`, w["q"]);
+    }
+    if (s["predistortion"] !== undefined) {
+      const d = c.obj(`${p}.predistortion`, s["predistortion"]);
+      c.num(`${p}.predistortion.f0Factor`, d["f0Factor"], true);
+      c.num(`${p}.predistortion.qFactor`, d["qFactor"], true);
+    }
   });
   const v = c.obj(`${prefix}.verification`, r["verification"]);
   c.bool(`${prefix}.verification.meetsSpec`, v["meetsSpec"]);

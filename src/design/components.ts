@@ -25,10 +25,17 @@
  *    largest of the relative f0, Q and fz errors and half the relative gain
  *    error, plus a tenth of their sum to break ties (common practice, no
  *    source).
+ * 4. With a real op-amp (pre-distorted stages), the best candidates of step 3
+ *    are ranked again by the pole they have WITH that op-amp (`asBuiltPole`)
+ *    against the wanted f0 and Q: the search itself aims at the pre-distorted
+ *    target with the cheap ideal figures (to first order the same thing), and
+ *    the exact evaluation of a few dozen finalists settles the choice.
  *
  * @module
  */
 import { isInSeries, nextInSeries, seriesValuesInRange, snapToSeries } from "../parts/index.ts";
+import type { OpAmpModel } from "../circuit/types.ts";
+import { asBuiltPole } from "../topologies/index.ts";
 import type { ComponentValues, StageChoices, StageFigures, StageTarget, Topology } from "../topologies/types.ts";
 import type { DesignSpec } from "./spec.ts";
 import type { StageErrors } from "./types.ts";
@@ -39,10 +46,12 @@ export interface ValueSet {
   readonly values: ComponentValues;
   /** Ideal-op-amp figures of these values. */
   readonly figures: StageFigures;
-  /** Relative errors against the target. */
+  /** Relative errors against the target (with op-amp scoring: the pole with the op-amp against the wanted target). */
   readonly errors: StageErrors;
   /** Scalar error used for ranking. */
   readonly cost: number;
+  /** The pole these values have with the op-amp (set only under op-amp scoring). */
+  readonly withOpamp?: { readonly f0Hz: number; readonly q?: number };
 }
 
 /** Result of tuning one stage. */
@@ -345,6 +354,37 @@ export interface TuneOptions {
    * @defaultValue none
    */
   readonly preferredCapacitors?: ReadonlySet<number>;
+  /**
+   * Rank the finalists by the pole they have with this op-amp against the
+   * wanted target (the `target` argument is then the pre-distorted one).
+   * @defaultValue none (ideal-op-amp figures against `target`)
+   */
+  readonly opampScoring?: OpampScoring;
+}
+
+/** How {@link tuneStage} scores candidates with a real op-amp. */
+export interface OpampScoring {
+  /** The op-amp model the stage is built with. */
+  readonly opamp: OpAmpModel;
+  /** The pole f0 and Q the stage must have with that op-amp (gain and fz are taken from the design target). */
+  readonly wanted: StageTarget;
+  /** Number of best candidates evaluated with the op-amp. @defaultValue 24 */
+  readonly count?: number;
+}
+
+/** The same set scored by its pole with the op-amp; null when that pole cannot be found. */
+function rescore(t: Topology, v: ValueSet, target: StageTarget, scoring: OpampScoring): ValueSet | null {
+  let pole: { f0Hz: number; q?: number };
+  try {
+    pole = asBuiltPole(t, v.values, scoring.opamp);
+  } catch {
+    return null;
+  }
+  if (!Number.isFinite(pole.f0Hz) || (pole.q !== undefined && !(pole.q > 0))) return null;
+  const poleErrors = stageErrors({ ...v.figures, f0Hz: pole.f0Hz, ...(pole.q === undefined ? {} : { q: pole.q }) }, scoring.wanted);
+  const errors = { ...stageErrors(v.figures, target), f0: poleErrors.f0, q: poleErrors.q };
+  const cost = costOf(errors);
+  return Number.isFinite(cost) ? { values: v.values, figures: v.figures, errors, cost, withOpamp: pole } : null;
 }
 
 /**
@@ -394,8 +434,25 @@ export function tuneStage(
     }
     all.sort((a, b) => a.cost - b.cost);
   }
+  let plainSet = plain;
+  const scoring = options.opampScoring;
+  if (scoring !== undefined) {
+    const finalists = all.slice(0, Math.max(scoring.count ?? 24, keep));
+    const rescored: ValueSet[] = [];
+    for (const v of finalists) {
+      const r = rescore(t, v, target, scoring);
+      if (r !== null) rescored.push(r);
+    }
+    // When no finalist's pole can be found with the op-amp, keep the ideal ranking.
+    if (rescored.length > 0) {
+      rescored.sort((a, b) => a.cost - b.cost);
+      all.length = 0;
+      all.push(...rescored);
+    }
+    plainSet = plain === null ? null : (rescore(t, plain, target, scoring) ?? plain);
+  }
   let best = all[0];
-  if (best === undefined || plain === null) return null;
+  if (best === undefined || plainSet === null) return null;
   const preferred = options.preferredCapacitors;
   if (preferred !== undefined && preferred.size > 0) {
     // Among sets within 0.1 % (absolute error measure) of the best, take the
@@ -413,5 +470,5 @@ export function tuneStage(
       }
     }
   }
-  return { best, alternatives: all.filter((v) => v !== best).slice(0, keep - 1), plain, exact: first.values };
+  return { best, alternatives: all.filter((v) => v !== best).slice(0, keep - 1), plain: plainSet, exact: first.values };
 }

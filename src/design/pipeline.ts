@@ -6,8 +6,9 @@
  * the middle of the mask's slack -> transformed and split into sections
  * ordered by ascending Q (the usual ordering for dynamic range in lowpass
  * cascades; common practice, no source) -> gain distributed for equal peaks ->
- * a topology per section -> preferred values with joint re-tuning -> as-built
- * check against the mask. When the as-built circuit misses the mask the
+ * a topology per section -> (real op-amp) each second-order stage's target
+ * pre-distorted so the stage lands on its pole WITH that op-amp -> preferred
+ * values with joint re-tuning -> as-built check against the mask. When the as-built circuit misses the mask the
  * pipeline re-tunes the parts against the mask itself, then moves the design
  * inside the slack towards the failing band, then (equiripple families) tries
  * prototypes with more dB margin, then (unless the spec fixes the order)
@@ -24,13 +25,14 @@ import { toSections } from "../tf/index.ts";
 import type { SectionCascade } from "../tf/types.ts";
 import type { FamilyName } from "../approx/index.ts";
 import type { ComponentValues } from "../topologies/types.ts";
-import { getTopology } from "../topologies/index.ts";
+import { asBuiltPole, getTopology } from "../topologies/index.ts";
 import { validateSpec, MAX_SPEC_ORDER, type DesignSpec } from "./spec.ts";
 import { deepFreeze, registerDesignResult } from "./check.ts";
 import { AUTO_MAX_ORDER, chooseFamily, choosePrototype, MARGIN_LEVELS, designPrototype, type PrototypeDesign } from "./family.ts";
 import { intervalWidth, placeInInterval, transformPrototype } from "./placement.ts";
 import { CAPACITOR_SPREAD_SOFT_LIMIT, describeSections, peakGrid, planStages, type StagePlan } from "./stages.ts";
-import { tuneStage, type TunedStage, type ValueSet } from "./components.ts";
+import { stageErrors, tuneStage, type TunedStage, type ValueSet } from "./components.ts";
+import { predistortTarget, type PredistortionOutcome } from "./predistort.ts";
 import {
   checkMask,
   gridMarginDb,
@@ -71,6 +73,8 @@ interface Attempt {
   readonly tuned: readonly TunedStage[];
   readonly chosen: readonly ValueSet[];
   readonly mask: MaskFigures;
+  /** Per stage: the finite-GBW pre-distortion (null when not attempted: ideal op-amp or first order). */
+  readonly predistortion: readonly (PredistortionOutcome | null)[];
 }
 
 function built(plans: readonly StagePlan[], sets: readonly { values: ComponentValues }[]): BuiltStage[] {
@@ -117,6 +121,7 @@ function attempt(spec: DesignSpec, proto: PrototypeDesign, position: number, wid
   // Tune stage by stage; a stage with a free gain absorbs the gain error the stages before it left.
   const tuned: TunedStage[] = [];
   const tunedPlans: StagePlan[] = [];
+  const predistortion: (PredistortionOutcome | null)[] = [];
   let carried = 1;
   const usedCaps = new Set<number>();
   plans.forEach((p0, i) => {
@@ -125,9 +130,13 @@ function attempt(spec: DesignSpec, proto: PrototypeDesign, position: number, wid
       const target = { ...p.target, gain: p.target.gain / carried };
       if (p.topology.check(target, {}) === null) p = { ...p, target };
     }
-    const t = tuneStage(p.topology, p.target, spec, {
+    // A real op-amp: design for the target that lands on the wanted pole with it.
+    const pd = spec.opamp.kind !== "ideal" && p.target.order === 2 ? predistortTarget(p.topology, p.target, spec.opamp) : null;
+    predistortion.push(pd);
+    const t = tuneStage(p.topology, pd?.ok === true ? pd.target : p.target, spec, {
       ...(wide ? { capacitors: 12, spread: 3, keep: 12 } : {}),
       preferredCapacitors: usedCaps,
+      ...(pd?.ok === true ? { opampScoring: { opamp: spec.opamp, wanted: p.target } } : {}),
     });
     if (t === null) {
       throw new UnrealisableError({
@@ -144,7 +153,7 @@ function attempt(spec: DesignSpec, proto: PrototypeDesign, position: number, wid
   const chosen = tuned.map((t) => t.best);
   const mask = checkMask(spec, built(tunedPlans, chosen), spec.opamp);
   const gridHz = grid.map((w) => w / TWO_PI);
-  return { proto, position, value, cascade, gridHz, plans: tunedPlans, plans0: plans, polarityOk, tuned, chosen, mask };
+  return { proto, position, value, cascade, gridHz, plans: tunedPlans, plans0: plans, polarityOk, tuned, chosen, mask, predistortion };
 }
 
 /**
@@ -465,6 +474,22 @@ function assemble(
         });
       }
     }
+    const pd = a.predistortion[i] ?? null;
+    if (pd !== null && !pd.ok) {
+      warnings.push({
+        code: "predistortion-failed",
+        stage: index,
+        message: `the stage could not be pre-distorted for the op-amp's finite gain-bandwidth (${pd.reason}); it is designed for its ideal-op-amp target, so its pole moves with this op-amp. Choose a faster op-amp.`,
+      });
+    }
+    let withOpamp: { f0Hz: number; q?: number } | undefined = set.withOpamp;
+    if (withOpamp === undefined && s.opamp.kind !== "ideal") {
+      try {
+        withOpamp = asBuiltPole(p.topology, set.values, s.opamp);
+      } catch {
+        withOpamp = undefined;
+      }
+    }
     if (s.opamp.kind !== "ideal" && gbw > s.opamp.gbwHz) {
       warnings.push({
         code: "insufficient-gbw",
@@ -484,13 +509,22 @@ function assemble(
       opamps: nm.opamps,
       target: figures(p.target),
       asBuilt: figures(set.figures),
-      errors: set.errors,
-      plainSnapErrors: tuned.plain.errors,
+      errors: set.withOpamp === undefined ? set.errors : stageErrors(set.figures, p.target),
+      plainSnapErrors: tuned.plain.withOpamp === undefined ? tuned.plain.errors : stageErrors(tuned.plain.figures, p.target),
+      ...(withOpamp === undefined ? {} : { asBuiltWithOpamp: { f0Hz: withOpamp.f0Hz, ...(withOpamp.q === undefined ? {} : { q: withOpamp.q }) } }),
+      ...(pd?.ok === true ? { predistortion: { f0Factor: pd.f0Factor, qFactor: pd.qFactor } } : {}),
       peakGain: peak.gain,
       peakHz: peak.hz,
       gbwDemandHz: gbw,
     };
   });
+  const corrected = stages.filter((st) => st.predistortion !== undefined);
+  if (corrected.length > 0) {
+    actions.push({
+      code: "predistorted-for-gbw",
+      message: `Pre-distorted ${corrected.length === 1 ? "stage" : "stages"} ${corrected.map((st) => `${st.index} (f0 x${fmt(st.predistortion?.f0Factor ?? 1, 5)}, Q x${fmt(st.predistortion?.qFactor ?? 1, 5)})`).join(", ")} for the op-amp's ${formatValue((s.opamp as { gbwHz: number }).gbwHz, { digits: 3, unit: "Hz" })} gain-bandwidth, so each stage built with it has the wanted f0 and Q; the preferred values were chosen by their pole with that op-amp.`,
+    });
+  }
   // Gain distribution: say so when an internal node peaks above the output.
   const outPeak = (peaks[peaks.length - 1] as { gain: number }).gain;
   peaks.slice(0, -1).forEach((p, i) => {

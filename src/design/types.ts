@@ -60,7 +60,11 @@ export interface DesignStage {
   readonly target: StageFigureSet;
   /** What the stage realises with the preferred values on the board (ideal op-amp). */
   readonly asBuilt: StageFigureSet;
-  /** Relative errors of `asBuilt` against `target`. */
+  /**
+   * Relative errors of `asBuilt` against `target`. For a stage pre-distorted
+   * for a real op-amp these include the deliberate pre-distortion; the pole it
+   * really has with that op-amp is `asBuiltWithOpamp`.
+   */
   readonly errors: StageErrors;
   /** Relative errors had each part been rounded to its nearest preferred value on its own (before joint re-tuning). */
   readonly plainSnapErrors: StageErrors;
@@ -70,6 +74,18 @@ export interface DesignStage {
   readonly peakHz: number;
   /** Gain-bandwidth product (Hz) the stage's op-amp needs for about 1 % accuracy of f0 and Q. */
   readonly gbwDemandHz: number;
+  /**
+   * The pole the preferred values on the board have WITH the spec's op-amp
+   * model (f0 in Hz; Q for a second-order stage). Present only when the spec
+   * names a non-ideal op-amp (and the pole could be found).
+   */
+  readonly asBuiltWithOpamp?: { readonly f0Hz: number; readonly q?: number };
+  /**
+   * How the stage's design target was pre-distorted for the op-amp's finite
+   * gain-bandwidth: design f0 / wanted f0 and design Q / wanted Q. Present
+   * only for pre-distorted stages (second order, non-ideal op-amp).
+   */
+  readonly predistortion?: { readonly f0Factor: number; readonly qFactor: number };
 }
 
 /** Why the family was chosen. */
@@ -184,6 +200,7 @@ export interface DesignWarning {
     | "insufficient-gbw"
     | "polarity"
     | "gain-not-distributed"
+    | "predistortion-failed"
     | "spec-not-met";
   /** Stage index (from 1), when the warning is about one stage. */
   readonly stage?: number;
@@ -200,7 +217,8 @@ export interface DesignAction {
     | "moved-placement"
     | "raised-order"
     | "tightened-prototype"
-    | "kept-best-attempt";
+    | "kept-best-attempt"
+    | "predistorted-for-gbw";
   /** What it did and why. */
   readonly message: string;
 }
