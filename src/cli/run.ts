@@ -234,16 +234,37 @@ export function formatSummary(r: DesignResult, extra: readonly string[] = []): s
     `${r.family} ${r.spec.response}, ${r.filterOrder} poles in ${r.stages.length} stage${r.stages.length === 1 ? "" : "s"} (prototype order ${r.order}, minimum ${r.minimumOrder})`,
   );
   out.push(`why: ${r.familyChoice.reason}`, "");
-  const rows: string[][] = [["stage", "topology", "kind", "f0 target", "f0 built", "Q target", "Q built", "gain", "peak to here", "GBW need", "parts"]];
+  // Columns for the pole with the real op-amp, only when the design has them.
+  const real = r.stages.some((s) => s.asBuiltWithOpamp !== undefined);
+  const rows: string[][] = [
+    [
+      "stage",
+      "topology",
+      "kind",
+      "f0 target",
+      "f0 built",
+      ...(real ? ["f0 w/ op-amp"] : []),
+      "Q target",
+      "Q built",
+      ...(real ? ["Q w/ op-amp"] : []),
+      "gain",
+      "peak to here",
+      "GBW need",
+      "parts",
+    ],
+  ];
   for (const s of r.stages) {
+    const w = s.asBuiltWithOpamp;
     rows.push([
       String(s.index),
       s.topology,
       s.kind,
       hz(s.target.f0Hz),
       hz(s.asBuilt.f0Hz),
+      ...(real ? [w === undefined ? "-" : hz(w.f0Hz)] : []),
       s.target.q === undefined ? "-" : p4(s.target.q),
       s.asBuilt.q === undefined ? "-" : p4(s.asBuilt.q),
+      ...(real ? [w?.q === undefined ? "-" : p4(w.q)] : []),
       p4(s.asBuilt.gain),
       `${(20 * Math.log10(s.peakGain)).toFixed(2)} dB`,
       hz(s.gbwDemandHz),

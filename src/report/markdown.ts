@@ -67,13 +67,24 @@ export function toMarkdown(result: DesignResult): string {
     "",
   );
   L.push("## Stages", "");
+  // Columns for the pole with the real op-amp, only when the design has them.
+  const withOpamp = result.stages.some((st) => st.asBuiltWithOpamp !== undefined);
   L.push(
-    "| stage | topology | kind | f0 target | f0 as built | Q target | Q as built | gain target | gain as built | peak gain to here | GBW needed |",
-    "|---|---|---|---|---|---|---|---|---|---|---|",
+    `| stage | topology | kind | f0 target | f0 as built |${withOpamp ? " f0 with op-amp |" : ""} Q target | Q as built |${withOpamp ? " Q with op-amp |" : ""} gain target | gain as built | peak gain to here | GBW needed |`,
+    `|---|---|---|---|---|${withOpamp ? "---|" : ""}---|---|${withOpamp ? "---|" : ""}---|---|---|---|`,
   );
   for (const st of result.stages) {
+    const w = st.asBuiltWithOpamp;
+    const f0w = withOpamp ? ` ${w === undefined ? "–" : f3(w.f0Hz)} |` : "";
+    const qw = withOpamp ? ` ${w?.q === undefined ? "–" : n4(w.q)} |` : "";
     L.push(
-      `| ${st.index} | ${st.topologyName} | ${st.kind} | ${f3(st.target.f0Hz)} | ${f3(st.asBuilt.f0Hz)} | ${st.target.q === undefined ? "–" : n4(st.target.q)} | ${st.asBuilt.q === undefined ? "–" : n4(st.asBuilt.q)} | ${n4(st.target.gain)} | ${n4(st.asBuilt.gain)} | ${dB(20 * Math.log10(st.peakGain), 2)} at ${f3(st.peakHz)} | ${f3(st.gbwDemandHz)} |`,
+      `| ${st.index} | ${st.topologyName} | ${st.kind} | ${f3(st.target.f0Hz)} | ${f3(st.asBuilt.f0Hz)} |${f0w} ${st.target.q === undefined ? "–" : n4(st.target.q)} | ${st.asBuilt.q === undefined ? "–" : n4(st.asBuilt.q)} |${qw} ${n4(st.target.gain)} | ${n4(st.asBuilt.gain)} | ${dB(20 * Math.log10(st.peakGain), 2)} at ${f3(st.peakHz)} | ${f3(st.gbwDemandHz)} |`,
+    );
+  }
+  if (withOpamp) {
+    L.push(
+      "",
+      "\"as built\" is the pole of the preferred values with an ideal op-amp; \"with op-amp\" is the pole the same values have with the spec's op-amp model.",
     );
   }
   L.push("");
@@ -81,8 +92,14 @@ export function toMarkdown(result: DesignResult): string {
     const parts = Object.entries(st.components)
       .map(([k, x]) => `${k} = ${formatValue(x, { digits: 3, unit: k.startsWith("C") ? "F" : "Ω" })}`)
       .join(", ");
+    const pd = st.predistortion;
+    const w = st.asBuiltWithOpamp;
+    const real =
+      pd === undefined || w === undefined
+        ? ""
+        : ` Pre-distorted for the op-amp's gain-bandwidth (design f0 x${n4(pd.f0Factor)}, Q x${n4(pd.qFactor)}); with the op-amp: f0 error ${pct(Math.abs(w.f0Hz / st.target.f0Hz - 1))}${w.q === undefined || st.target.q === undefined ? "" : `, Q error ${pct(Math.abs(w.q / st.target.q - 1))}`}.`;
     L.push(
-      `- Stage ${st.index} (${st.topology}; ${st.topologyReason}): ${parts}; ${st.opamps.join(", ")}. f0 error ${pct(st.errors.f0)} (plain rounding: ${pct(st.plainSnapErrors.f0)}), Q error ${pct(st.errors.q)} (plain rounding: ${pct(st.plainSnapErrors.q)}).`,
+      `- Stage ${st.index} (${st.topology}; ${st.topologyReason}): ${parts}; ${st.opamps.join(", ")}. f0 error ${pct(st.errors.f0)} (plain rounding: ${pct(st.plainSnapErrors.f0)}), Q error ${pct(st.errors.q)} (plain rounding: ${pct(st.plainSnapErrors.q)}).${real}`,
     );
   }
   L.push("", "## Verification (as built)", "");
