@@ -171,6 +171,7 @@ export function checkDesignResult(
       const d = c.obj(`${p}.predistortion`, s["predistortion"]);
       c.num(`${p}.predistortion.f0Factor`, d["f0Factor"], true);
       c.num(`${p}.predistortion.qFactor`, d["qFactor"], true);
+      c.num(`${p}.predistortion.gainFactor`, d["gainFactor"], true);
     }
   });
   const v = c.obj(`${prefix}.verification`, r["verification"]);

@@ -512,7 +512,7 @@ function assemble(
       errors: set.withOpamp === undefined ? set.errors : stageErrors(set.figures, p.target),
       plainSnapErrors: tuned.plain.withOpamp === undefined ? tuned.plain.errors : stageErrors(tuned.plain.figures, p.target),
       ...(withOpamp === undefined ? {} : { asBuiltWithOpamp: { f0Hz: withOpamp.f0Hz, ...(withOpamp.q === undefined ? {} : { q: withOpamp.q }) } }),
-      ...(pd?.ok === true ? { predistortion: { f0Factor: pd.f0Factor, qFactor: pd.qFactor } } : {}),
+      ...(pd?.ok === true ? { predistortion: { f0Factor: pd.f0Factor, qFactor: pd.qFactor, gainFactor: pd.gainFactor } } : {}),
       peakGain: peak.gain,
       peakHz: peak.hz,
       gbwDemandHz: gbw,
@@ -522,7 +522,7 @@ function assemble(
   if (corrected.length > 0) {
     actions.push({
       code: "predistorted-for-gbw",
-      message: `Pre-distorted ${corrected.length === 1 ? "stage" : "stages"} ${corrected.map((st) => `${st.index} (f0 x${fmt(st.predistortion?.f0Factor ?? 1, 5)}, Q x${fmt(st.predistortion?.qFactor ?? 1, 5)})`).join(", ")} for the op-amp's ${formatValue((s.opamp as { gbwHz: number }).gbwHz, { digits: 3, unit: "Hz" })} gain-bandwidth, so each stage built with it has the wanted f0 and Q; the preferred values were chosen by their pole with that op-amp.`,
+      message: `Pre-distorted ${corrected.length === 1 ? "stage" : "stages"} ${corrected.map((st) => `${st.index} (f0 x${fmt(st.predistortion?.f0Factor ?? 1, 5)}, Q x${fmt(st.predistortion?.qFactor ?? 1, 5)}${(st.predistortion?.gainFactor ?? 1) === 1 ? "" : `, gain x${fmt(st.predistortion?.gainFactor ?? 1, 5)}`})`).join(", ")} for the op-amp's ${formatValue((s.opamp as { gbwHz: number }).gbwHz, { digits: 3, unit: "Hz" })} gain-bandwidth, so each stage built with it has the wanted f0 and Q; the preferred values were chosen by their pole with that op-amp.`,
     });
   }
   // Gain distribution: say so when an internal node peaks above the output.

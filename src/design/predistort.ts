@@ -17,7 +17,11 @@
  * f0_built and its Q by Q_want / Q_built; repeat. The shift varies slowly
  * with the target, so each step shrinks the error by roughly the relative
  * shift itself (a few per cent for a modest op-amp): 1e-6 is reached in three
- * to six steps. When the error grows, the pole cannot be found, or the
+ * to six steps. A bandpass stage whose gain is free also has its gain
+ * corrected: finite loop gain lowers the response at f0 below the ideal
+ * figure (once the pole is right, nothing else makes up for it), so the
+ * target gain is scaled by |H_want(f0)| / |H_built(f0)| in the same loop.
+ * When the error grows, the pole cannot be found, or the
  * corrected target is not realisable, the iteration stops and the caller
  * keeps the uncorrected design.
  *
@@ -44,6 +48,8 @@ export interface PredistortedTarget {
   readonly f0Factor: number;
   /** Design Q / wanted Q. */
   readonly qFactor: number;
+  /** Design gain / wanted gain (1 unless the gain is corrected: bandpass stages with a free gain). */
+  readonly gainFactor: number;
   /** Correction steps taken. */
   readonly steps: number;
 }
@@ -59,8 +65,8 @@ export interface PredistortionFailure {
 /** The outcome of {@link predistortTarget}. */
 export type PredistortionOutcome = PredistortedTarget | PredistortionFailure;
 
-function withFigures(t: Topology, base: StageTarget, f0Hz: number, q: number): StageTarget {
-  const next = { ...base, f0Hz, q };
+function withFigures(t: Topology, base: StageTarget, f0Hz: number, q: number, gain: number): StageTarget {
+  const next = { ...base, f0Hz, q, gain };
   if (t.fixedGain === undefined) return next;
   return { ...next, gain: t.fixedGain(next) };
 }
@@ -81,15 +87,25 @@ export function predistortTarget(t: Topology, wanted: StageTarget, opamp: OpAmpM
   }
   let cur = wanted;
   let last = Infinity;
+  // The gain at f0 is corrected too where it is free and defined at f0 (bandpass).
+  const fixGain = wanted.kind === "bandpass" && t.fixedGain === undefined;
+  const atF0 = new Float64Array([wanted.f0Hz]);
   for (let step = 0; step <= PREDISTORTION_MAX_STEPS; step++) {
     const why = t.check(cur, {});
     if (why !== null) return { ok: false, reason: `the corrected target (f0 ${cur.f0Hz.toPrecision(5)} Hz, Q ${(cur.q ?? NaN).toPrecision(4)}) is not realisable: ${why}` };
     let f0Built: number;
     let qBuilt: number;
+    let kg = 1;
     try {
-      const pole = asBuiltPole(t, t.design(cur, {}), opamp);
+      const values = t.design(cur, {});
+      const pole = asBuiltPole(t, values, opamp);
       f0Built = pole.f0Hz;
       qBuilt = pole.q ?? NaN;
+      if (fixGain) {
+        const h = t.response(values, atF0, opamp);
+        kg = Math.abs(wanted.gain) / Math.hypot(h.re[0] as number, h.im[0] as number);
+        if (!(kg > 0) || !Number.isFinite(kg)) return { ok: false, reason: "the gain at f0 with this op-amp is not finite" };
+      }
     } catch (e) {
       return { ok: false, reason: `the pole with this op-amp could not be found (${e instanceof Error ? e.message : String(e)})` };
     }
@@ -98,8 +114,15 @@ export function predistortTarget(t: Topology, wanted: StageTarget, opamp: OpAmpM
     }
     const kf = wanted.f0Hz / f0Built;
     const kq = qWant / qBuilt;
-    const err = Math.max(Math.abs(kf - 1), Math.abs(kq - 1));
-    const done = { ok: true as const, target: cur, f0Factor: cur.f0Hz / wanted.f0Hz, qFactor: (cur.q as number) / qWant, steps: step };
+    const err = Math.max(Math.abs(kf - 1), Math.abs(kq - 1), Math.abs(kg - 1));
+    const done = {
+      ok: true as const,
+      target: cur,
+      f0Factor: cur.f0Hz / wanted.f0Hz,
+      qFactor: (cur.q as number) / qWant,
+      gainFactor: cur.gain / wanted.gain,
+      steps: step,
+    };
     if (err <= PREDISTORTION_TOLERANCE) return done;
     if (step > 0 && !(err < last)) {
       return { ok: false, reason: `the correction diverges (pole error ${(100 * err).toPrecision(3)} % after step ${step}, ${(100 * last).toPrecision(3)} % before)` };
@@ -110,7 +133,7 @@ export function predistortTarget(t: Topology, wanted: StageTarget, opamp: OpAmpM
         : { ok: false, reason: `the correction did not converge in ${PREDISTORTION_MAX_STEPS} steps (pole error still ${(100 * err).toPrecision(3)} %)` };
     }
     last = err;
-    cur = withFigures(t, cur, cur.f0Hz * kf, (cur.q as number) * kq);
+    cur = withFigures(t, cur, cur.f0Hz * kf, (cur.q as number) * kq, cur.gain * kg);
   }
   return { ok: false, reason: "the correction did not converge" };
 }

@@ -82,10 +82,12 @@ export interface DesignStage {
   readonly asBuiltWithOpamp?: { readonly f0Hz: number; readonly q?: number };
   /**
    * How the stage's design target was pre-distorted for the op-amp's finite
-   * gain-bandwidth: design f0 / wanted f0 and design Q / wanted Q. Present
-   * only for pre-distorted stages (second order, non-ideal op-amp).
+   * gain-bandwidth: design f0 / wanted f0, design Q / wanted Q and design
+   * gain / wanted gain (1 except for bandpass stages with a free gain, whose
+   * gain at f0 is corrected too). Present only for pre-distorted stages
+   * (second order, non-ideal op-amp).
    */
-  readonly predistortion?: { readonly f0Factor: number; readonly qFactor: number };
+  readonly predistortion?: { readonly f0Factor: number; readonly qFactor: number; readonly gainFactor: number };
 }
 
 /** Why the family was chosen. */

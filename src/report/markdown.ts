@@ -97,7 +97,7 @@ export function toMarkdown(result: DesignResult): string {
     const real =
       pd === undefined || w === undefined
         ? ""
-        : ` Pre-distorted for the op-amp's gain-bandwidth (design f0 x${n4(pd.f0Factor)}, Q x${n4(pd.qFactor)}); with the op-amp: f0 error ${pct(Math.abs(w.f0Hz / st.target.f0Hz - 1))}${w.q === undefined || st.target.q === undefined ? "" : `, Q error ${pct(Math.abs(w.q / st.target.q - 1))}`}.`;
+        : ` Pre-distorted for the op-amp's gain-bandwidth (design f0 x${n4(pd.f0Factor)}, Q x${n4(pd.qFactor)}${pd.gainFactor === 1 ? "" : `, gain x${n4(pd.gainFactor)}`}); with the op-amp: f0 error ${pct(Math.abs(w.f0Hz / st.target.f0Hz - 1))}${w.q === undefined || st.target.q === undefined ? "" : `, Q error ${pct(Math.abs(w.q / st.target.q - 1))}`}.`;
     L.push(
       `- Stage ${st.index} (${st.topology}; ${st.topologyReason}): ${parts}; ${st.opamps.join(", ")}. f0 error ${pct(st.errors.f0)} (plain rounding: ${pct(st.plainSnapErrors.f0)}), Q error ${pct(st.errors.q)} (plain rounding: ${pct(st.plainSnapErrors.q)}).${real}`,
     );
