@@ -29,6 +29,8 @@ export { designCircuit, type DesignCircuitOptions } from "./circuit.ts";
 export type {
   DesignResult,
   DesignStage,
+  StagePole,
+  StagePredistortion,
   StageFigureSet,
   StageErrors,
   FamilyCandidate,

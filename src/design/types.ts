@@ -79,7 +79,7 @@ export interface DesignStage {
    * model (f0 in Hz; Q for a second-order stage). Present only when the spec
    * names a non-ideal op-amp (and the pole could be found).
    */
-  readonly asBuiltWithOpamp?: { readonly f0Hz: number; readonly q?: number };
+  readonly asBuiltWithOpamp?: StagePole;
   /**
    * How the stage's design target was pre-distorted for the op-amp's finite
    * gain-bandwidth: design f0 / wanted f0, design Q / wanted Q and design
@@ -87,7 +87,25 @@ export interface DesignStage {
    * gain at f0 is corrected too). Present only for pre-distorted stages
    * (second order, non-ideal op-amp).
    */
-  readonly predistortion?: { readonly f0Factor: number; readonly qFactor: number; readonly gainFactor: number };
+  readonly predistortion?: StagePredistortion;
+}
+
+/** The pole of a built stage with the spec's op-amp model. */
+export interface StagePole {
+  /** Pole frequency in Hz. */
+  readonly f0Hz: number;
+  /** Pole Q (second-order stages only). */
+  readonly q?: number;
+}
+
+/** How a stage's design target was pre-distorted for a finite-GBW op-amp. */
+export interface StagePredistortion {
+  /** Design f0 / wanted f0. */
+  readonly f0Factor: number;
+  /** Design Q / wanted Q. */
+  readonly qFactor: number;
+  /** Design gain / wanted gain (1 unless the stage's gain at f0 was corrected). */
+  readonly gainFactor: number;
 }
 
 /** Why the family was chosen. */
