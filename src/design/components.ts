@@ -372,6 +372,27 @@ export interface OpampScoring {
   readonly count?: number;
 }
 
+/**
+ * The target the ideal figures of sets near one exact design are scored
+ * against: the wanted pole divided by the shift the op-amp gives that exact
+ * design (its own capacitor ratio and impedance level), so that to first order
+ * the score is that of the pole with the op-amp. Without op-amp scoring, or
+ * when the pole cannot be found, the design target itself.
+ */
+function localTarget(t: Topology, target: StageTarget, exact: ComponentValues, scoring: OpampScoring | undefined): StageTarget {
+  if (scoring === undefined || target.q === undefined || scoring.wanted.q === undefined) return target;
+  try {
+    const ideal = t.figures(exact);
+    const pole = asBuiltPole(t, exact, scoring.opamp);
+    if (pole.q === undefined || ideal.q === undefined || !(pole.q > 0) || !(pole.f0Hz > 0)) return target;
+    const f0Hz = (scoring.wanted.f0Hz * ideal.f0Hz) / pole.f0Hz;
+    const q = (scoring.wanted.q * ideal.q) / pole.q;
+    return Number.isFinite(f0Hz) && Number.isFinite(q) ? { ...target, f0Hz, q } : target;
+  } catch {
+    return target;
+  }
+}
+
 /** The same set scored by its pole with the op-amp; null when that pole cannot be found. */
 function rescore(t: Topology, v: ValueSet, target: StageTarget, scoring: OpampScoring): ValueSet | null {
   let pole: { f0Hz: number; q?: number };
@@ -418,11 +439,12 @@ export function tuneStage(
   }
   const first = bases[0] as (typeof bases)[number];
   const plain = evaluate(t, plainSnap(first.values, spec), target);
+  const scoring = options.opampScoring;
   const all: ValueSet[] = [];
   for (const base of bases) {
     const designs = Number.isNaN(base.c) ? [base.values] : stockCapacitorDesigns(t, target, spec, base);
     for (const exact of designs) {
-      all.push(...searchResistors(t, target, exact, spec, options.spread ?? 2, keep));
+      all.push(...searchResistors(t, localTarget(t, target, exact, scoring), exact, spec, options.spread ?? 2, keep));
     }
   }
   all.sort((a, b) => a.cost - b.cost);
@@ -430,12 +452,11 @@ export function tuneStage(
   if ((all[0]?.cost ?? Infinity) > 3e-3 && (options.spread ?? 2) < 3) {
     for (const base of bases.slice(0, 4)) {
       const designs = Number.isNaN(base.c) ? [base.values] : stockCapacitorDesigns(t, target, spec, base);
-      for (const exact of designs) all.push(...searchResistors(t, target, exact, spec, 3, keep));
+      for (const exact of designs) all.push(...searchResistors(t, localTarget(t, target, exact, scoring), exact, spec, 3, keep));
     }
     all.sort((a, b) => a.cost - b.cost);
   }
   let plainSet = plain;
-  const scoring = options.opampScoring;
   if (scoring !== undefined) {
     const finalists = all.slice(0, Math.max(scoring.count ?? 24, keep));
     const rescored: ValueSet[] = [];
