@@ -25,11 +25,12 @@
  *    largest of the relative f0, Q and fz errors and half the relative gain
  *    error, plus a tenth of their sum to break ties (common practice, no
  *    source).
- * 4. With a real op-amp (pre-distorted stages), the best candidates of step 3
- *    are ranked again by the pole they have WITH that op-amp (`asBuiltPole`)
- *    against the wanted f0 and Q: the search itself aims at the pre-distorted
- *    target with the cheap ideal figures (to first order the same thing), and
- *    the exact evaluation of a few dozen finalists settles the choice.
+ * 4. With a real op-amp (pre-distorted stages), step 3 scores the ideal
+ *    figures of each exact design's neighbours against the wanted f0 and Q
+ *    divided by the shift the op-amp gives that exact design (one
+ *    `asBuiltPole` per exact design; to first order the error of the pole with
+ *    the op-amp), and the best few dozen candidates are then ranked again by
+ *    the pole they really have WITH that op-amp (`asBuiltPole`).
  *
  * @module
  */
