@@ -494,7 +494,11 @@ function assemble(
       warnings.push({
         code: "insufficient-gbw",
         stage: index,
-        message: `the stage needs an op-amp GBW of about ${formatValue(gbw, { digits: 3, unit: "Hz" })} for 1 % accuracy of f0 and Q; the chosen op-amp has ${formatValue(s.opamp.gbwHz, { digits: 3, unit: "Hz" })}.`,
+        message:
+          `the stage needs an op-amp GBW of about ${formatValue(gbw, { digits: 3, unit: "Hz" })} for 1 % accuracy of f0 and Q without correction; the chosen op-amp has ${formatValue(s.opamp.gbwHz, { digits: 3, unit: "Hz" })}.` +
+          (pd !== null && pd.ok
+            ? " The stage is pre-distorted for this op-amp, so its pole is right as built, but it depends on the op-amp's actual GBW (which varies between parts and with temperature): a faster op-amp is the more robust choice."
+            : ""),
       });
     }
     return {
