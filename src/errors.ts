@@ -90,6 +90,8 @@ export class FilterwrightError extends Error {
   readonly path: string;
   /** The value received, as given. */
   readonly received: unknown;
+  /** The bare reason (what is wrong and what to change), without the function, path and received value. */
+  readonly reason: string;
 
   /**
    * @param code - stable error code
@@ -104,6 +106,7 @@ export class FilterwrightError extends Error {
     this.fn = details.fn;
     this.path = details.path;
     this.received = details.received;
+    this.reason = details.message;
   }
 }
 

@@ -11,7 +11,7 @@
  *
  * @module
  */
-import { InvalidArgumentError, SpecError, type Issue } from "../errors.ts";
+import { FilterwrightError, InvalidArgumentError, SpecError, type Issue } from "../errors.ts";
 import type { OpAmpModel } from "../circuit/types.ts";
 import { FAMILY_NAMES, type FamilyName } from "../approx/index.ts";
 import { SERIES_NAMES, seriesTolerance, type SeriesName } from "../parts/index.ts";
@@ -315,7 +315,7 @@ class Reader {
       try {
         return parseValue(value, { unit });
       } catch (e) {
-        const why = e instanceof Error ? e.message : String(e);
+        const why = e instanceof FilterwrightError ? e.reason : e instanceof Error ? e.message : String(e);
         this.add(path, `could not read ${JSON.stringify(value)} as ${unit} (${why})`, value);
         return undefined;
       }
