@@ -1,9 +1,10 @@
 /**
- * The analysis layer: what a finished design asks of its op-amps, and how
- * part tolerances spread it against the mask.
+ * The analysis layer: what a finished design asks of its op-amps, how
+ * part tolerances spread it against the mask, and its output noise.
  *
  * @module
  */
 export { opampRequirements, type OpampRequirementOptions, type StageOpampRequirement } from "./opamp.ts";
 export { monteCarlo, type MonteCarloOptions, type MonteCarloResult, type Spread, type ToleranceFractions } from "./tolerance.ts";
 export { partSensitivities, type PartSensitivity } from "./sensitivity.ts";
+export { noiseAnalysis, BOLTZMANN_J_PER_K, type NoiseAnalysisOptions, type NoiseAnalysisResult, type NoiseContributor } from "./noise.ts";
