@@ -13,9 +13,9 @@ import { describeValue, FilterwrightError, SpecError } from "../errors.ts";
 import { designFilter, type DesignResult, type FilterSpec } from "../design/index.ts";
 import { DESIGN_CAUTIONS, toBomCsv, toJson, toMarkdown, toSpiceNetlist, toSvgPlot } from "../report/index.ts";
 import { topologies } from "../topologies/index.ts";
-import { formatValue } from "../units/index.ts";
+import { formatValue, parseValue } from "../units/index.ts";
 import { SCENARIOS } from "./scenarios.ts";
-import { monteCarlo, partSensitivities } from "../analysis/index.ts";
+import { monteCarlo, noiseAnalysis, partSensitivities } from "../analysis/index.ts";
 
 /** What the command line reads and writes. */
 export interface CliIo {
@@ -65,6 +65,8 @@ output options:
   --json FILE  --netlist FILE  --bom FILE  --markdown FILE  --svg FILE (magnitude and mask)
   --sensitivity           list each part's sensitivities (S^f0, S^Q, S^gain)
   --yield N [--seed S]    also build N boards with parts spread within their tolerance (Monte Carlo)
+  --noise EN [--noise-in IN]  output noise: resistors plus op-amp voltage noise EN (V/rtHz, e.g. 8n; 0 for
+                          resistors only) and current noise IN (A/rtHz, e.g. 1p); RMS over the response span
   --quiet                 print only the verification line
 
 exit codes: 0 meets the spec, 1 does not meet it, 2 bad input, 3 internal error
@@ -102,6 +104,8 @@ const VALUE_OPTIONS = new Set([
   "markdown",
   "svg",
   "yield",
+  "noise",
+  "noise-in",
   "seed",
   "scenario",
 ]);
@@ -336,6 +340,30 @@ function design(spec: unknown, o: Map<string, string | true>, io: CliIo): number
         `worst margin ${mc.marginDb.min.toFixed(3)} dB, median ${mc.marginDb.median.toFixed(3)} dB`,
     );
   } else if (o.has("seed")) throw new UsageError("--seed belongs with --yield");
+  const en = o.get("noise");
+  if (typeof en === "string") {
+    const density = (text: string, unit: string, flag: string): number => {
+      try {
+        return parseValue(text, { allowZero: true });
+      } catch {
+        throw new UsageError(`${flag} needs a noise density in ${unit}, such as 8n or 0 (got ${text})`);
+      }
+    };
+    const inText = o.get("noise-in");
+    const nz = noiseAnalysis(r, {
+      opampVoltageNoise: density(en, "V/rtHz", "--noise"),
+      ...(typeof inText === "string" ? { opampCurrentNoise: density(inText, "A/rtHz", "--noise-in") } : {}),
+    });
+    const [lo, hi] = nz.bandHz;
+    const top = nz.topContributors
+      .slice(0, 5)
+      .map((c) => `${c.name} ${(c.powerFraction * 100).toFixed(1)} %`)
+      .join(", ");
+    extra.push(
+      `output noise ${formatValue(lo, { digits: 3, unit: "Hz" })} to ${formatValue(hi, { digits: 3, unit: "Hz" })}: ` +
+        `${formatValue(nz.totalRmsV, { digits: 3, unit: "V" })} rms at the output; largest contributors: ${top}`,
+    );
+  } else if (o.has("noise-in")) throw new UsageError("--noise-in belongs with --noise");
   if (o.get("sensitivity") === true) {
     const rows = [["stage", "part", "value", "S^f0", "S^Q", "S^fz", "S^gain"]];
     for (const x of partSensitivities(r)) {

@@ -63,6 +63,17 @@ describe("runCli", () => {
     expect(bad.err).toContain("parts.capacitorTolerance");
   });
 
+  it("prints the output noise and its largest contributors with --noise", () => {
+    const io = fakeIo();
+    expect(runCli([...LP, "--noise", "8n", "--noise-in", "1p"], io)).toBe(0);
+    expect(io.out).toMatch(/output noise 100 Hz to 50 kHz: [\d.]+ [nµm]?V rms at the output; largest contributors: \S+ [\d.]+ %/);
+    const bad = fakeIo();
+    expect(runCli([...LP, "--noise", "loud"], bad)).toBe(2);
+    expect(bad.err).toContain("--noise");
+    const orphan = fakeIo();
+    expect(runCli([...LP, "--noise-in", "1p"], orphan)).toBe(2);
+  });
+
   it("designs every example spec in examples/", () => {
     const dir = join(dirname(fileURLToPath(import.meta.url)), "..", "..", "examples");
     const files = readdirSync(dir).filter((f) => f.endsWith(".json"));
