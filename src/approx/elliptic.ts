@@ -1,8 +1,10 @@
 /**
  * Elliptic (Cauer) lowpass prototype: equiripple passband and stopband.
  *
- * Method (S. J. Orfanidis, "Lecture notes on elliptic filter design",
- * Rutgers University, 2006): eps_p = sqrt(10^(Rp/10) - 1),
+ * Method (H. J. Orchard and A. N. Willson Jr., "Elliptic functions for filter
+ * design", IEEE Trans. Circuits Syst. I 44(4):273-287, 1997; R. W. Daniels,
+ * "Approximation Methods for Electronic Filter Design", McGraw-Hill, 1974,
+ * ch. 5): eps_p = sqrt(10^(Rp/10) - 1),
  * eps_s = sqrt(10^(As/10) - 1), discrimination modulus k1 = eps_p / eps_s;
  * the selectivity modulus k solves the degree equation n K'/K = K1'/K1
  * exactly (by nomes), so the passband edge is 1 rad/s with loss exactly Rp and

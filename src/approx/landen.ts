@@ -10,12 +10,13 @@
  * inverse sn of an imaginary argument by the descending recursion; the degree
  * equation from the nome q = exp(-pi K'/(n K)) by theta-function series.
  * Accuracy: a few ulp for moduli whose complement is representable.
- * References: S. J. Orfanidis, "Lecture notes on elliptic filter design",
- * Rutgers University, 2006 (sections on Landen transformations, on the
- * functions sn, cd and their inverses, and on the exact solution of the
- * degree equation by nomes); M. Abramowitz and I. A. Stegun, "Handbook of
+ * References: H. J. Orchard and A. N. Willson Jr., "Elliptic functions for
+ * filter design", IEEE Trans. Circuits Syst. I 44(4):273-287, 1997 (Landen
+ * transformations for sn, cd and their inverses in filter design);
+ * M. Abramowitz and I. A. Stegun, "Handbook of
  * Mathematical Functions", NBS, 1964, 16.12 (descending Landen
- * transformation) and 17.6 (arithmetic-geometric mean).
+ * transformation), 16.38 (theta functions: the degree equation by nomes) and
+ * 17.6 (arithmetic-geometric mean).
  *
  * @module
  */

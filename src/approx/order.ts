@@ -16,8 +16,9 @@
  * Legendre, which have no closed form, are searched order by order on the
  * prototype magnitude. References: R. Schaumann and M. E. Van Valkenburg,
  * "Design of Analog Filters", Oxford University Press, 2001 (order formulas
- * and frequency transformations); S. J. Orfanidis, "Lecture notes on elliptic
- * filter design", 2006 (elliptic degree equation). Natural frequencies follow
+ * and frequency transformations); H. J. Orchard and A. N. Willson Jr.,
+ * "Elliptic functions for filter design", IEEE Trans. Circuits Syst. I
+ * 44(4):273-287, 1997 (elliptic degree equation). Natural frequencies follow
  * scipy.signal.buttord/cheb1ord/cheb2ord/ellipord (analog=True).
  *
  * @module
