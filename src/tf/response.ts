@@ -28,7 +28,7 @@
  * @module
  */
 import { InvalidArgumentError } from "../errors.ts";
-import type { Complex } from "../math/complex.ts";
+import { cdiv, cmul, type Complex } from "../math/complex.ts";
 import { isCascade, requireGrid, requireSystem } from "./check.ts";
 import { fromSectionsUnchecked } from "./sections.ts";
 import type { SectionCascade, Zpk } from "./types.ts";
@@ -146,6 +146,33 @@ function productAt(f: PackedFactors, wk: number): void {
   acc[1] = im;
 }
 
+/**
+ * Store `k0 * (nr + j ni) / (dr + j di)` at index `k` when both products are
+ * comfortably inside the floating-point range and the quotient is finite;
+ * returns false (storing nothing) when the point needs the slow, overflow-safe path.
+ */
+function storeQuotient(
+  k0: number,
+  nr: number,
+  ni: number,
+  dr: number,
+  di: number,
+  outRe: Float64Array,
+  outIm: Float64Array,
+  k: number,
+): boolean {
+  const nm = nr * nr + ni * ni;
+  const dm = dr * dr + di * di;
+  if (!(nm > 1e-280 && nm < 1e280 && dm > 1e-280 && dm < 1e280)) return false;
+  const inv = k0 / dm;
+  const re = (nr * dr + ni * di) * inv;
+  const im = (ni * dr - nr * di) * inv;
+  if (!Number.isFinite(re) || !Number.isFinite(im)) return false;
+  outRe[k] = re;
+  outIm[k] = im;
+  return true;
+}
+
 /** Zpk response core (no checks). */
 export function zpkResponseUnchecked(system: Zpk, w: Float64Array): ComplexResponse {
   const n = w.length;
@@ -170,18 +197,7 @@ export function zpkResponseUnchecked(system: Zpk, w: Float64Array): ComplexRespo
     productAt(pf, wk);
     const dr = acc[0] as number;
     const di = acc[1] as number;
-    const nm = nr * nr + ni * ni;
-    const dm = dr * dr + di * di;
-    if (nm > 1e-280 && nm < 1e280 && dm > 1e-280 && dm < 1e280) {
-      const inv = k0 / dm;
-      const re = (nr * dr + ni * di) * inv;
-      const im = (ni * dr - nr * di) * inv;
-      if (Number.isFinite(re) && Number.isFinite(im)) {
-        outRe[k] = re;
-        outIm[k] = im;
-        continue;
-      }
-    }
+    if (storeQuotient(k0, nr, ni, dr, di, outRe, outIm, k)) continue;
     // s = -0 + j wk: `-0 - Re r` is exactly `-Re r`, signed zeros included.
     const v = evalZpkUnchecked(system, -0, wk, true);
     outRe[k] = v.re;
@@ -225,18 +241,7 @@ export function cascadeResponseUnchecked(cascade: SectionCascade, w: Float64Arra
       di = dr * gi + di * gr;
       dr = u;
     }
-    const nm = nr * nr + ni * ni;
-    const dm = dr * dr + di * di;
-    if (nm > 1e-280 && nm < 1e280 && dm > 1e-280 && dm < 1e280) {
-      const inv = k0 / dm;
-      const re = (nr * dr + ni * di) * inv;
-      const im = (ni * dr - nr * di) * inv;
-      if (Number.isFinite(re) && Number.isFinite(im)) {
-        outRe[k] = re;
-        outIm[k] = im;
-        continue;
-      }
-    }
+    if (storeQuotient(k0, nr, ni, dr, di, outRe, outIm, k)) continue;
     cascadePointBySection(c, m, k0, wk, k, outRe, outIm);
   }
   return { re: outRe, im: outIm };
@@ -253,32 +258,14 @@ function cascadePointBySection(
   outIm: Float64Array,
 ): void {
   const w2 = wk * wk;
-  let re = k0;
-  let im = 0;
+  let v: Complex = { re: k0, im: 0 };
   for (let i = 0; i < 6 * m; i += 6) {
-    const nr = (c[i + 2] as number) - (c[i] as number) * w2;
-    const ni = (c[i + 1] as number) * wk;
-    const dr = (c[i + 5] as number) - (c[i + 3] as number) * w2;
-    const di = (c[i + 4] as number) * wk;
-    let vr: number;
-    let vi: number;
-    if (Math.abs(dr) >= Math.abs(di)) {
-      const r = di / dr;
-      const d = dr + di * r;
-      vr = (nr + ni * r) / d;
-      vi = (ni - nr * r) / d;
-    } else {
-      const r = dr / di;
-      const d = dr * r + di;
-      vr = (nr * r + ni) / d;
-      vi = (ni * r - nr) / d;
-    }
-    const t = re * vr - im * vi;
-    im = re * vi + im * vr;
-    re = t;
+    const num = { re: (c[i + 2] as number) - (c[i] as number) * w2, im: (c[i + 1] as number) * wk };
+    const den = { re: (c[i + 5] as number) - (c[i + 3] as number) * w2, im: (c[i + 4] as number) * wk };
+    v = cmul(v, cdiv(num, den));
   }
-  outRe[k] = re;
-  outIm[k] = im;
+  outRe[k] = v.re;
+  outIm[k] = v.im;
 }
 
 /**
