@@ -30,7 +30,7 @@ import { validateSpec, MAX_SPEC_ORDER, type DesignSpec } from "./spec.ts";
 import { deepFreeze, registerDesignResult } from "./check.ts";
 import { AUTO_MAX_ORDER, chooseFamily, choosePrototype, MARGIN_LEVELS, designPrototype, type PrototypeDesign } from "./family.ts";
 import { intervalWidth, placeInInterval, transformPrototype } from "./placement.ts";
-import { CAPACITOR_SPREAD_SOFT_LIMIT, describeSections, peakGrid, planStages, type StagePlan } from "./stages.ts";
+import { CAPACITOR_SPREAD_SOFT_LIMIT, capacitorSpreadOf, describeSections, peakGrid, planStages, type StagePlan } from "./stages.ts";
 import { stageErrors, tuneStage, type TunedStage, type ValueSet } from "./components.ts";
 import { predistortTarget, type PredistortionOutcome } from "./predistort.ts";
 import {
@@ -463,16 +463,13 @@ function assemble(
         message: `${outC.map(([k, v]) => `${k} = ${v.toExponential(2)} F`).join(", ")} outside the capacitor window.`,
       });
     }
-    if (cs.length >= 2) {
-      const vals = cs.map(([, v]) => v);
-      const ratio = Math.max(...vals) / Math.min(...vals);
-      if (ratio > LARGE_CAPACITOR_RATIO) {
-        warnings.push({
-          code: "large-capacitor-ratio",
-          stage: index,
-          message: `capacitor ratio ${fmt(ratio, 3)} exceeds ${LARGE_CAPACITOR_RATIO}; the stage's Q depends on it, so buy tight-tolerance capacitors or name a different topology.`,
-        });
-      }
+    const ratio = capacitorSpreadOf(nm.components);
+    if (ratio > LARGE_CAPACITOR_RATIO) {
+      warnings.push({
+        code: "large-capacitor-ratio",
+        stage: index,
+        message: `capacitor ratio ${fmt(ratio, 3)} exceeds ${LARGE_CAPACITOR_RATIO}; the stage's Q depends on it, so buy tight-tolerance capacitors or name a different topology.`,
+      });
     }
     const pd = a.predistortion[i] ?? null;
     if (pd !== null && !pd.ok) {

@@ -234,15 +234,21 @@ function gainSetByCapacitor(t: Topology, info: SectionInfo, got: number): boolea
 function capacitorSpread(t: Topology, info: SectionInfo, got: number): number {
   if (t.order !== 2 || t.opampCount !== 1) return 1;
   try {
-    const values = t.design(baseTarget(info, (t.inverting ? -1 : 1) * got), {});
-    const caps = Object.entries(values)
-      .filter(([k]) => k.startsWith("C"))
-      .map(([, v]) => v);
-    if (caps.length < 2) return 1;
-    return Math.max(...caps) / Math.min(...caps);
+    return capacitorSpreadOf(t.design(baseTarget(info, (t.inverting ? -1 : 1) * got), {}));
   } catch {
     return 1;
   }
+}
+
+/**
+ * Largest capacitor over smallest among a stage's values (designators
+ * starting with `C`); 1 when the stage has fewer than two capacitors.
+ */
+export function capacitorSpreadOf(values: Readonly<Record<string, number>>): number {
+  const caps = Object.entries(values)
+    .filter(([k]) => k.startsWith("C"))
+    .map(([, v]) => v);
+  return caps.length < 2 ? 1 : Math.max(...caps) / Math.min(...caps);
 }
 
 /**
