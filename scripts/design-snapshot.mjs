@@ -7,7 +7,8 @@
 // The corpus: the end-to-end specs of test/fixtures/design-specs.json, the
 // examples/*.json specs, and N seeded random specs (scripts/spec-corpus.mjs).
 // A fingerprint is a SHA-256 of the result's JSON (`toJson`), so any change of
-// a part value, a margin bit or an action shows.
+// a part value, a margin bit or an action shows; a second one covers the BOM
+// alone, to tell a change of figures from a change of parts.
 import { createHash } from "node:crypto";
 import { readFileSync, readdirSync, writeFileSync } from "node:fs";
 import { dirname, join } from "node:path";
@@ -16,7 +17,7 @@ import { performance } from "node:perf_hooks";
 import { randomSpecs } from "./spec-corpus.mjs";
 
 const root = join(dirname(fileURLToPath(import.meta.url)), "..");
-const { designFilter, toJson } = await import(join(root, "dist", "index.js"));
+const { designFilter, toJson, toBomCsv } = await import(join(root, "dist", "index.js"));
 
 const args = process.argv.slice(2);
 const opt = (name, fallback) => {
@@ -43,7 +44,11 @@ for (const { id, spec } of corpus()) {
   try {
     const r = designFilter(spec);
     const text = toJson(r);
-    entry = { hash: createHash("sha256").update(text).digest("hex").slice(0, 16), meets: r.verification.meetsSpec };
+    entry = {
+      hash: createHash("sha256").update(text).digest("hex").slice(0, 16),
+      parts: createHash("sha256").update(toBomCsv(r)).digest("hex").slice(0, 16),
+      meets: r.verification.meetsSpec,
+    };
   } catch (e) {
     entry = { error: e && e.code ? e.code : String(e) };
   }
@@ -56,14 +61,16 @@ const compare = opt("--compare", undefined);
 if (compare) {
   const before = JSON.parse(readFileSync(compare, "utf8"));
   let same = 0;
+  let sameParts = 0;
   const changed = [];
   for (const [id, e] of Object.entries(results)) {
     const b = before[id];
     if (!b) continue;
     if ((b.hash ?? b.error) === (e.hash ?? e.error)) same++;
+    else if (b.parts !== undefined && b.parts === e.parts && b.meets === e.meets) sameParts++;
     else changed.push(`${id}: ${b.hash ?? b.error} (meets ${b.meets}) -> ${e.hash ?? e.error} (meets ${e.meets})`);
   }
-  console.log(`${same} identical, ${changed.length} changed`);
+  console.log(`${same} identical, ${sameParts} with the same parts and verdict (figures differ), ${changed.length} changed`);
   for (const c of changed) console.log(`  ${c}`);
 }
 const out = opt("--out", undefined);
