@@ -27,6 +27,7 @@ import { luFactorInPlace, luSolveInPlace } from "../math/linear.ts";
 import type { ComplexResponse } from "../tf/response.ts";
 import type { Circuit } from "./types.ts";
 import { checkCircuit } from "./validate.ts";
+import { applyStamps, elementValues, nodesOf, stampProgram } from "./stamps.ts";
 
 
 /** The assembled MNA equations `(G + s C) x = b` of a circuit. */
@@ -97,33 +98,6 @@ class UnionFind {
     this.parent.set(ra, rb);
     return true;
   }
-}
-
-function nodesOf(circuit: Circuit): string[] {
-  const seen = new Set<string>();
-  const out: string[] = [];
-  const add = (n: string): void => {
-    if (n !== "0" && !seen.has(n)) {
-      seen.add(n);
-      out.push(n);
-    }
-  };
-  for (const e of circuit.elements) {
-    if (e.kind === "OA") {
-      add(e.inP);
-      add(e.inN);
-      add(e.out);
-    } else if (e.kind === "E") {
-      add(e.a);
-      add(e.b);
-      add(e.cp);
-      add(e.cn);
-    } else {
-      add(e.a);
-      add(e.b);
-    }
-  }
-  return out;
 }
 
 /** Nodes not reachable from ground through the given edges. */
@@ -240,90 +214,11 @@ export function checkStructure(fn: string, circuit: Circuit, dc: boolean): void 
  */
 export function assembleMna(circuit: Circuit): MnaSystem {
   checkCircuit("assembleMna", circuit);
-  const nodes = nodesOf(circuit);
-  const nodeIndex = new Map<string, number>();
-  nodes.forEach((n, i) => nodeIndex.set(n, i));
-  const unknowns = nodes.map((v) => `v(${v})`);
-  const unknownNodes: string[][] = nodes.map((v) => [v]);
-  for (const e of circuit.elements) {
-    if (e.kind === "V" || e.kind === "L") {
-      unknowns.push(`i(${e.name})`);
-      unknownNodes.push([e.a, e.b].filter((x) => x !== "0"));
-    } else if (e.kind === "E") {
-      unknowns.push(`i(${e.name})`);
-      unknownNodes.push([...new Set([e.a, e.b, e.cp, e.cn])].filter((x) => x !== "0"));
-    } else if (e.kind === "OA") {
-      unknowns.push(`i(${e.name})`);
-      unknownNodes.push([...new Set([e.out, e.inP, e.inN])].filter((x) => x !== "0"));
-    }
-  }
-  const n = unknowns.length;
-  const g = new Float64Array(n * n);
-  const c = new Float64Array(n * n);
-  const sourceRow = new Map<string, number>();
-  const idx = (node: string): number => (node === "0" ? -1 : (nodeIndex.get(node) as number));
-  const add = (m: Float64Array, i: number, j: number, v: number): void => {
-    if (i >= 0 && j >= 0) m[i * n + j] = (m[i * n + j] as number) + v;
-  };
-  const stampAdmittance = (m: Float64Array, a: number, b: number, y: number): void => {
-    add(m, a, a, y);
-    add(m, b, b, y);
-    add(m, a, b, -y);
-    add(m, b, a, -y);
-  };
-  let k = nodes.length;
-  for (const e of circuit.elements) {
-    switch (e.kind) {
-      case "R":
-        stampAdmittance(g, idx(e.a), idx(e.b), 1 / e.value);
-        break;
-      case "C":
-        stampAdmittance(c, idx(e.a), idx(e.b), e.value);
-        break;
-      case "L":
-      case "V":
-      case "E": {
-        const a = idx(e.a);
-        const b = idx(e.b);
-        // The branch current flows from a through the element to b.
-        add(g, a, k, 1);
-        add(g, b, k, -1);
-        add(g, k, a, 1);
-        add(g, k, b, -1);
-        if (e.kind === "L") add(c, k, k, -e.value);
-        if (e.kind === "V") sourceRow.set(e.name, k);
-        if (e.kind === "E") {
-          add(g, k, idx(e.cp), -e.gain);
-          add(g, k, idx(e.cn), e.gain);
-        }
-        k++;
-        break;
-      }
-      case "OA": {
-        const o = idx(e.out);
-        const p = idx(e.inP);
-        const q = idx(e.inN);
-        // Current i_k flows from the output node into the op-amp.
-        add(g, o, k, 1);
-        add(g, k, p, 1);
-        add(g, k, q, -1);
-        const m = e.model;
-        if (m.kind !== "ideal") {
-          const rout = m.kind === "single-pole-rout" ? m.routOhm : 0;
-          const tau = 1 / (2 * Math.PI * m.gbwHz);
-          // (1/a0 + s tau)(v_out - rout i) - (v+ - v-) = 0, written with the sign of v+ - v- flipped.
-          add(g, k, o, -1 / m.a0);
-          add(c, k, o, -tau);
-          add(g, k, k, rout / m.a0);
-          add(c, k, k, rout * tau);
-        }
-        k++;
-        break;
-      }
-      default:
-        break;
-    }
-  }
+  const p = stampProgram(circuit);
+  const g = new Float64Array(p.n * p.n);
+  const c = new Float64Array(p.n * p.n);
+  applyStamps(p, elementValues(circuit), g, c);
+  const { n, unknowns, nodeIndex, sourceRow, nodes, unknownNodes } = p;
   return { n, g, c, unknowns, nodeIndex, sourceRow, nodes, unknownNodes };
 }
 

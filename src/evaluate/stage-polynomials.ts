@@ -1,0 +1,448 @@
+/**
+ * A stage's as-built transfer function as real polynomials in s, from its
+ * own elements and the op-amp model, for any topology and any model degree.
+ *
+ * Method: the stage's nodal equations `(G + s C) x = b` (its stamp program,
+ * compiled once per topology and op-amp model) give, by Cramer's rule,
+ * `H(s) = N(s) / D(s)` with `D(s) = det(G + s C)` and `N(s) = D(s) x_out(s)`.
+ * Both are polynomials of degree at most the number of rows of `C` that hold
+ * a stamp. They are sampled at `M` points `s_k = r exp(j pi (2k + 1) / M)` on
+ * a circle of radius r (the stage's natural frequency, so the scaled
+ * coefficients stay near unity), one complex LU factorisation per conjugate
+ * pair of points, and their coefficients recovered by the inverse discrete
+ * Fourier transform (the interpolation of polynomials at roots of unity:
+ * J. W. Cooley & J. W. Tukey, "An algorithm for the machine calculation of
+ * complex Fourier series", Math. Comp. 19:297-301, 1965, used here as a
+ * plain O(M^2) sum since M <= 16). Coefficients below
+ * {@link COEFFICIENT_FLOOR} of the largest are the transform's rounding
+ * noise (the degree bound exceeds the true degree) and are set to zero.
+ *
+ * Accuracy: each scaled coefficient carries an absolute error of a few ulps
+ * of the largest one; against the closed forms and the nodal analysis the
+ * response agrees to better than 1e-10 relative over four decades about the
+ * stage's f0 (test/evaluate/stage-polynomials.test.ts).
+ *
+ * @module
+ */
+import { elementValues, stampProgram, applyStamps, type StampProgram } from "../circuit/stamps.ts";
+import type { Element, OpAmpModel } from "../circuit/types.ts";
+import { luFactorInPlace, luSolveInPlace } from "../math/linear.ts";
+import type { ComponentValues, Topology } from "../topologies/types.ts";
+import type { ScaledRational } from "./types.ts";
+
+/** Smallest rounding noise assumed on a circle, relative to its largest coefficient (about 20 ulps). */
+export const COEFFICIENT_FLOOR = 4e-15;
+
+/** How far above a circle's noise a coefficient must stand to be kept. */
+export const SIGNAL_TO_NOISE = 8;
+
+/** Ratio of neighbouring sample circles. */
+const CIRCLE_RATIO = 10;
+
+/** Most circles sampled (fifteen decades). */
+const MAX_CIRCLES = 16;
+
+/** A stage's stamp program with the scratch its per-board evaluation needs. */
+export interface CompiledStage {
+  /** The topology's component names, the order per-board values come in. */
+  readonly componentNames: readonly string[];
+  /** The stamp program of the stage driven by a unit source. */
+  readonly program: StampProgram;
+  /** For each element, the index of its component in `componentNames`, or -1 (source, op-amp). */
+  readonly componentOfElement: Int32Array;
+  /** Unknown index of the output node voltage. */
+  readonly output: number;
+  /** Row of the driving source. */
+  readonly sourceRow: number;
+  /** Number of sample points M (even, greater than the degree bound). */
+  readonly points: number;
+  /** Upper bound on the degree of numerator and denominator. */
+  readonly degreeBound: number;
+  /** Angular frequencies (rad/s) where the polynomials will be evaluated: the sample circles cover them. */
+  readonly spanRadS: readonly [number, number];
+  /** Highest op-amp gain-bandwidth product in rad/s (0 for ideal op-amps): where the top sample circle goes. */
+  readonly bandwidthRadS: number;
+  /** `cos(m theta_k)` at `k * M + m`, for the inverse transform. */
+  readonly cosTable: Float64Array;
+  /** `sin(m theta_k)` at `k * M + m`. */
+  readonly sinTable: Float64Array;
+  /** Scratch: element values, matrices, pivots, right-hand side, solution, samples. */
+  readonly scratch: {
+    readonly values: Float64Array;
+    readonly g: Float64Array;
+    readonly c: Float64Array;
+    readonly ar: Float64Array;
+    readonly ai: Float64Array;
+    readonly piv: Int32Array;
+    readonly b: { readonly re: Float64Array; readonly im: Float64Array };
+    readonly x: { readonly re: Float64Array; readonly im: Float64Array };
+    readonly nRe: Float64Array;
+    readonly nIm: Float64Array;
+    readonly dRe: Float64Array;
+    readonly dIm: Float64Array;
+    readonly radii: Float64Array;
+    readonly rowScale: Float64Array;
+    readonly colScale: Float64Array;
+    readonly exponent: Float64Array;
+    readonly noise: Float64Array;
+    readonly numSets: Float64Array;
+    readonly denSets: Float64Array;
+  };
+}
+
+/** The stage as a circuit driven at "in" by a unit source, output at "out". */
+function stageElements(topology: Topology, nominal: ComponentValues, opamp: OpAmpModel): Element[] {
+  return [
+    { kind: "V", name: "Vin", a: "in", b: "0", ac: 1 },
+    ...topology.elements(nominal, { input: "in", output: "out", nodePrefix: "x_", opamp }),
+  ];
+}
+
+/** Two decades either side of the stage's ideal f0, rad/s. */
+function defaultSpan(topology: Topology, nominal: ComponentValues): readonly [number, number] {
+  const w0 = 2 * Math.PI * topology.figures(nominal).f0Hz;
+  return [w0 / 100, w0 * 100];
+}
+
+/** Rows of `C` that hold a stamp: an upper bound on the degree of `det(G + s C)`. */
+function degreeBound(p: StampProgram): number {
+  const rows = new Set<number>();
+  for (let i = 0; i < p.entry.length; i++) if (p.matrix[i] === 1) rows.add(Math.floor((p.entry[i] as number) / p.n));
+  return rows.size;
+}
+
+/**
+ * Compile a stage: its stamp program with the given op-amp model, and the
+ * scratch for {@link stagePolynomialsInto}. No checks (internal: the
+ * topology and values come from the design layer or a checked caller).
+ *
+ * @param topology - the stage's topology
+ * @param nominal - component values (any valid set; only the structure is kept)
+ * @param opamp - op-amp model for every op-amp of the stage
+ * @param spanRadS - angular frequencies where the result will be evaluated (the
+ *   sample circles reach a decade beyond); by default two decades about the stage's f0
+ * @returns the compiled stage
+ */
+export function compileStage(
+  topology: Topology,
+  nominal: ComponentValues,
+  opamp: OpAmpModel,
+  spanRadS: readonly [number, number] = [0, 0],
+): CompiledStage {
+  const elements = stageElements(topology, nominal, opamp);
+  const circuit = { title: topology.id, elements };
+  const program = stampProgram(circuit);
+  const names = topology.componentNames;
+  const componentOfElement = Int32Array.from(elements, (e) => names.indexOf(e.name));
+  const n = program.n;
+  const bound = degreeBound(program);
+  // at least one spare power above the bound, to measure each circle's noise
+  const points = 2 * Math.ceil((bound + 2) / 2);
+  const cosTable = new Float64Array(points * points);
+  const sinTable = new Float64Array(points * points);
+  for (let k = 0; k < points; k++) {
+    const theta = (Math.PI * (2 * k + 1)) / points;
+    for (let m = 0; m < points; m++) {
+      cosTable[k * points + m] = Math.cos(m * theta);
+      sinTable[k * points + m] = Math.sin(m * theta);
+    }
+  }
+  const values = elementValues(circuit);
+  const half = points / 2;
+  return {
+    componentNames: names,
+    program,
+    componentOfElement,
+    output: program.nodeIndex.get("out") as number,
+    sourceRow: program.sourceRow.get("Vin") as number,
+    points,
+    degreeBound: bound,
+    spanRadS: spanRadS[1] > 0 ? spanRadS : defaultSpan(topology, nominal),
+    bandwidthRadS: opamp.kind === "ideal" ? 0 : 2 * Math.PI * opamp.gbwHz,
+    cosTable,
+    sinTable,
+    scratch: {
+      values,
+      g: new Float64Array(n * n),
+      c: new Float64Array(n * n),
+      ar: new Float64Array(n * n),
+      ai: new Float64Array(n * n),
+      piv: new Int32Array(n),
+      b: { re: new Float64Array(n), im: new Float64Array(n) },
+      x: { re: new Float64Array(n), im: new Float64Array(n) },
+      nRe: new Float64Array(half),
+      nIm: new Float64Array(half),
+      dRe: new Float64Array(half),
+      dIm: new Float64Array(half),
+      radii: new Float64Array(MAX_CIRCLES),
+      rowScale: new Float64Array(n),
+      colScale: new Float64Array(n),
+      exponent: new Float64Array(1),
+      noise: new Float64Array(MAX_CIRCLES),
+      numSets: new Float64Array(MAX_CIRCLES * points),
+      denSets: new Float64Array(MAX_CIRCLES * points),
+    },
+  };
+}
+
+/** Sign of the row permutation recorded in `piv` (piv[i] = row moved to i). */
+function permutationSign(piv: Int32Array, seen: Uint8Array): number {
+  seen.fill(0);
+  let sign = 1;
+  for (let i = 0; i < piv.length; i++) {
+    if (seen[i] === 1) continue;
+    let len = 0;
+    let j = i;
+    while (seen[j] === 0) {
+      seen[j] = 1;
+      j = piv[j] as number;
+      len++;
+    }
+    if (len % 2 === 0) sign = -sign;
+  }
+  return sign;
+}
+
+const seenScratch = new Map<number, Uint8Array>();
+
+/** Sample `D` and `N` at the upper-half sample points; false when a point is singular. */
+function sample(cs: CompiledStage, radius: number): boolean {
+  const { program, scratch: sc, points, sourceRow, output } = cs;
+  const n = program.n;
+  const nn = n * n;
+  const seen = seenScratch.get(n) ?? new Uint8Array(n);
+  seenScratch.set(n, seen);
+  for (let k = 0; k < points / 2; k++) {
+    // s_k = r e^{j theta_k}: the m = 1 column of the tables holds cos and sin of theta_k.
+    const sr = radius * (cs.cosTable[k * points + 1] as number);
+    const si = radius * (cs.sinTable[k * points + 1] as number);
+    for (let i = 0; i < nn; i++) {
+      const ci = sc.c[i] as number;
+      sc.ar[i] = (sc.g[i] as number) + sr * ci;
+      sc.ai[i] = si * ci;
+    }
+    const exponent = equilibrate(n, sc.ar, sc.ai, sc.rowScale, sc.colScale);
+    if (Number.isNaN(exponent) || luFactorInPlace(n, sc.ar, sc.ai, sc.piv) >= 0) return false;
+    let dr = permutationSign(sc.piv, seen);
+    let di = 0;
+    for (let i = 0; i < n; i++) {
+      const pr = sc.ar[i * n + i] as number;
+      const pi = sc.ai[i * n + i] as number;
+      const t = dr * pr - di * pi;
+      di = dr * pi + di * pr;
+      dr = t;
+    }
+    // det(A) = det(R A C) 2^exponent, taken relative to the first sample's exponent.
+    if (k === 0 && radius === sc.radii[0]) sc.exponent[0] = exponent;
+    const unit = Math.pow(2, exponent - (sc.exponent[0] as number));
+    dr *= unit;
+    di *= unit;
+    // A x = b with b the unit source: (R A C) y = R b, x = C y.
+    sc.b.re.fill(0);
+    sc.b.im.fill(0);
+    sc.b.re[sourceRow] = sc.rowScale[sourceRow] as number;
+    luSolveInPlace(n, { re: sc.ar, im: sc.ai, pivots: sc.piv }, sc.b, sc.x);
+    const xr = (sc.x.re[output] as number) * (sc.colScale[output] as number);
+    const xi = (sc.x.im[output] as number) * (sc.colScale[output] as number);
+    sc.dRe[k] = dr;
+    sc.dIm[k] = di;
+    sc.nRe[k] = dr * xr - di * xi;
+    sc.nIm[k] = dr * xi + di * xr;
+  }
+  return true;
+}
+
+/**
+ * Scale the rows, then the columns, of `A` by powers of two so that each has
+ * its largest entry in [1, 2) (exact: no rounding). This removes the spread
+ * of conductances, capacitances and op-amp terms that would otherwise enter
+ * the LU factorisation's error (A. van der Sluis, "Condition numbers and
+ * equilibration of matrices", Numer. Math. 14:14-23, 1969).
+ *
+ * @returns the base-2 exponent e with det(A) = det(R A C) 2^e, or NaN for a zero row or column
+ */
+function equilibrate(n: number, ar: Float64Array, ai: Float64Array, rows: Float64Array, cols: Float64Array): number {
+  let exponent = 0;
+  for (let i = 0; i < n; i++) {
+    let m = 0;
+    for (let j = 0; j < n; j++) m = Math.max(m, Math.abs(ar[i * n + j] as number) + Math.abs(ai[i * n + j] as number));
+    if (!(m > 0)) return NaN;
+    const e = Math.floor(Math.log2(m));
+    const f = Math.pow(2, -e);
+    rows[i] = f;
+    exponent += e;
+    for (let j = 0; j < n; j++) {
+      ar[i * n + j] = (ar[i * n + j] as number) * f;
+      ai[i * n + j] = (ai[i * n + j] as number) * f;
+    }
+  }
+  for (let j = 0; j < n; j++) {
+    let m = 0;
+    for (let i = 0; i < n; i++) m = Math.max(m, Math.abs(ar[i * n + j] as number) + Math.abs(ai[i * n + j] as number));
+    if (!(m > 0)) return NaN;
+    const e = Math.floor(Math.log2(m));
+    const f = Math.pow(2, -e);
+    cols[j] = f;
+    exponent += e;
+    for (let i = 0; i < n; i++) {
+      ar[i * n + j] = (ar[i * n + j] as number) * f;
+      ai[i * n + j] = (ai[i * n + j] as number) * f;
+    }
+  }
+  return exponent;
+}
+
+/**
+ * Inverse transform of conjugate-symmetric samples into `points` real
+ * coefficients, descending (`out[at]` multiplies z^(M-1), `out[at + M - 1]` is
+ * the constant term), in units of the circle's radius.
+ */
+function coefficients(cs: CompiledStage, re: Float64Array, im: Float64Array, out: Float64Array, at: number): void {
+  const { points, cosTable, sinTable } = cs;
+  const half = points / 2;
+  for (let m = 0; m < points; m++) {
+    // c_m = (1/M) sum_k P_k e^{-j m theta_k}; the conjugate points double the real part.
+    let sum = 0;
+    for (let k = 0; k < half; k++) {
+      const t = k * points + m;
+      sum += (re[k] as number) * (cosTable[t] as number) + (im[k] as number) * (sinTable[t] as number);
+    }
+    out[at + points - 1 - m] = (2 * sum) / points;
+  }
+}
+
+/**
+ * Merge the coefficient sets of several circles into one set in units of the
+ * base radius. Each circle's rounding noise is measured on its spare
+ * coefficients (the powers above the degree bound, exactly zero in truth),
+ * with a floor of a few ulps of its largest coefficient; each coefficient is
+ * taken from the circle where it stands highest above that noise, and set to
+ * zero when it stands less than {@link SIGNAL_TO_NOISE} above it on every
+ * circle.
+ */
+function merge(cs: CompiledStage, sets: Float64Array, base: number, circles: number, out: Float64Array): void {
+  const { radii, noise } = cs.scratch;
+  const M = cs.points;
+  const spare = M - 1 - cs.degreeBound;
+  for (let i = 0; i < circles; i++) {
+    let big = 0;
+    let zero = 0;
+    for (let m = 0; m < M; m++) {
+      const x = Math.abs(sets[i * M + m] as number);
+      big = Math.max(big, x);
+      if (m < spare) zero = Math.max(zero, x);
+    }
+    noise[i] = 2 * Math.max(zero, COEFFICIENT_FLOOR * big);
+  }
+  for (let m = 0; m < M; m++) {
+    const power = M - 1 - m;
+    let best = -1;
+    let bestRatio = SIGNAL_TO_NOISE;
+    for (let i = 0; m >= spare && i < circles; i++) {
+      const r = Math.abs(sets[i * M + m] as number) / (noise[i] as number);
+      if (r >= bestRatio) {
+        bestRatio = r;
+        best = i;
+      }
+    }
+    out[m] = best < 0 ? 0 : (sets[best * M + m] as number) * Math.pow(base / (radii[best] as number), power);
+  }
+}
+
+/**
+ * The stage's transfer function with the given component values, written as
+ * coefficients in `z = s / radius`, descending, into `num` and `den` (each of
+ * length `cs.points`, leading zeros where the degree is lower; the hot path
+ * of per-board evaluation, no checks). The
+ * common scale of numerator and denominator is fixed so that the largest
+ * denominator coefficient is 1.
+ *
+ * @param cs - the compiled stage
+ * @param values - component values in `cs.componentNames` order
+ * @param radius - the scale (rad/s), about the stage's natural frequency
+ * @param num - numerator coefficients, written
+ * @param den - denominator coefficients, written
+ * @returns the radius actually used (it is nudged when a sample point lands on a pole), or 0 when the stage is singular
+ */
+export function stagePolynomialsInto(
+  cs: CompiledStage,
+  values: Float64Array,
+  radius: number,
+  num: Float64Array,
+  den: Float64Array,
+): number {
+  const sc = cs.scratch;
+  const map = cs.componentOfElement;
+  for (let e = 0; e < map.length; e++) {
+    const j = map[e] as number;
+    if (j >= 0) sc.values[e] = values[j] as number;
+  }
+  applyStamps(cs.program, sc.values, sc.g, sc.c);
+  let r = radius;
+  let ok = sampleCircles(cs, r);
+  for (let tries = 0; !ok && tries < 4; tries++) {
+    r *= 1.0905077326652577; // 2^(1/8): away from a pole that sits on a sample point
+    ok = sampleCircles(cs, r);
+  }
+  if (ok === 0) return 0;
+  merge(cs, sc.denSets, r, ok, den);
+  merge(cs, sc.numSets, r, ok, num);
+  let big = 0;
+  for (let m = 0; m < cs.points; m++) big = Math.max(big, Math.abs(den[m] as number));
+  if (!(big > 0) || !Number.isFinite(big)) return 0;
+  for (let m = 0; m < cs.points; m++) {
+    den[m] = (den[m] as number) / big;
+    num[m] = (num[m] as number) / big;
+  }
+  return r;
+}
+
+/**
+ * Sample every circle, from `radius` up by {@link CIRCLE_RATIO} to past the
+ * op-amps' bandwidth, and transform each; returns the number of circles, or
+ * 0 when a sample point is singular.
+ */
+function sampleCircles(cs: CompiledStage, radius: number): number {
+  const sc = cs.scratch;
+  const top = Math.max(cs.bandwidthRadS * 4, cs.spanRadS[1], radius * CIRCLE_RATIO);
+  // Circles stand a whole number of ratios from the base radius, from below the span (or a ratio below the radius) up.
+  const below = Math.max(1, Math.ceil(Math.log(radius / Math.min(cs.spanRadS[0], radius)) / Math.log(CIRCLE_RATIO) - 1e-9));
+  let circles = 0;
+  for (let r = radius / Math.pow(CIRCLE_RATIO, below); circles < MAX_CIRCLES; r *= CIRCLE_RATIO) {
+    sc.radii[circles] = r;
+    if (!sample(cs, r)) return 0;
+    coefficients(cs, sc.dRe, sc.dIm, sc.denSets, circles * cs.points);
+    coefficients(cs, sc.nRe, sc.nIm, sc.numSets, circles * cs.points);
+    circles++;
+    if (r >= top) break;
+  }
+  return circles;
+}
+
+/** Copy without the leading zeros. */
+function trimmed(a: Float64Array): Float64Array {
+  let first = 0;
+  while (first < a.length - 1 && a[first] === 0) first++;
+  return a.slice(first);
+}
+
+/**
+ * A stage's as-built transfer function as polynomials in the scaled variable
+ * `z = s / scale`, numerator and denominator in descending powers (numpy's
+ * convention), with every degree the op-amp model adds. Internal: no checks.
+ *
+ * @param topology - the stage's topology
+ * @param values - its component values
+ * @param opamp - op-amp model for every op-amp of the stage
+ * @returns the rational function, or null when the stage's equations are singular
+ */
+export function stagePolynomials(topology: Topology, values: ComponentValues, opamp: OpAmpModel): ScaledRational | null {
+  const cs = compileStage(topology, values, opamp);
+  const v = Float64Array.from(cs.componentNames, (name) => values[name] as number);
+  const num = new Float64Array(cs.points);
+  const den = new Float64Array(cs.points);
+  const radius = 2 * Math.PI * topology.figures(values).f0Hz;
+  const r = stagePolynomialsInto(cs, v, radius, num, den);
+  if (r === 0) return null;
+  return { num: trimmed(num), den: trimmed(den), scale: r };
+}

@@ -1,0 +1,89 @@
+import { describe, expect, it } from "vitest";
+import fc from "fast-check";
+import { topologies } from "../../src/topologies/registry.ts";
+import { acAnalysis } from "../../src/circuit/mna.ts";
+import type { Element, OpAmpModel } from "../../src/circuit/types.ts";
+import type { ComponentValues, Topology } from "../../src/topologies/types.ts";
+import { stagePolynomials } from "../../src/evaluate/stage-polynomials.ts";
+import { cascadeMagnitudeSquared, cascadeResponse } from "../../src/evaluate/cascade.ts";
+import { realisableArb } from "../topologies/arbitraries.ts";
+
+/** MNA of the topology's own elements, driven by Vin at "in", output "out": the reference. */
+function mnaOf(topo: Topology, v: ComponentValues, freqHz: Float64Array, opamp: OpAmpModel) {
+  const elements: Element[] = [
+    { kind: "V", name: "Vin", a: "in", b: "0", ac: 1 },
+    ...topo.elements(v, { input: "in", output: "out", nodePrefix: "k_", opamp }),
+  ];
+  return acAnalysis({ title: topo.id, elements }, { source: "Vin", outputs: ["out"], freqHz }).outputs["out"]!;
+}
+
+const caseArb = (topo: Topology) =>
+  fc.record({
+    design: realisableArb(topo),
+    spread: fc.array(fc.double({ min: 0.7, max: 1.4, noNaN: true }), { minLength: 12, maxLength: 12 }),
+    freqs: fc.array(fc.double({ min: -2, max: 2, noNaN: true }), { minLength: 1, maxLength: 8 }),
+    model: fc.constantFrom("ideal", "single-pole", "single-pole-rout"),
+    a0Log: fc.double({ min: 3, max: 7, noNaN: true }),
+    gbwLog: fc.double({ min: 0.5, max: 4, noNaN: true }),
+    rout: fc.double({ min: 1, max: 200, noNaN: true }),
+  });
+
+const worst: Record<string, { mag: number; deg: number }> = {};
+
+describe("stagePolynomials", () => {
+  for (const topo of topologies) {
+    it(`${topo.id}: polynomials agree with nodal analysis to 1e-9 dB and 1e-7 degree`, () => {
+      fc.assert(
+        fc.property(caseArb(topo), ({ design, spread, freqs, model, a0Log, gbwLog, rout }) => {
+          const v0 = topo.design(design.target, design.choices);
+          const v: Record<string, number> = {};
+          topo.componentNames.forEach((n, i) => {
+            v[n] = (v0[n] as number) * (spread[i % spread.length] as number);
+          });
+          // Boards only: a resistor below 1 ohm (a gain resistor for K = 1 + 1e-9) is a wire, not a part,
+          // and its 1e11 conductance spread is beyond what any double-precision nodal solution resolves.
+          fc.pre(topo.componentNames.every((n) => !n.startsWith("R") || (v[n]! >= 1 && v[n]! <= 1e9)));
+          const f0 = design.target.f0Hz;
+          const opamp: OpAmpModel =
+            model === "ideal"
+              ? { kind: "ideal" }
+              : model === "single-pole"
+                ? { kind: "single-pole", a0: 10 ** a0Log, gbwHz: f0 * 10 ** gbwLog }
+                : { kind: "single-pole-rout", a0: 10 ** a0Log, gbwHz: f0 * 10 ** gbwLog, routOhm: rout };
+          const freqHz = Float64Array.from(freqs.map((x) => f0 * 10 ** x));
+          const p = stagePolynomials(topo, v, opamp);
+          expect(p).not.toBeNull();
+          const w = freqHz.map((f) => 2 * Math.PI * f);
+          const h = cascadeResponse([p!], w);
+          const m2 = cascadeMagnitudeSquared([p!], w);
+          const floor = 1e-6 * Math.abs(design.target.gain);
+          // the references: nodal analysis of the stage's own elements, and its closed form
+          for (const m of [mnaOf(topo, v, freqHz, opamp), topo.response(v, freqHz, opamp)]) {
+            for (let i = 0; i < freqHz.length; i++) {
+              const d = Math.hypot(h.re[i]! - m.re[i]!, h.im[i]! - m.im[i]!);
+              expect(d / Math.abs(design.target.gain), `f = ${freqHz[i]} Hz (${opamp.kind})`).toBeLessThan(1e-10);
+              const ref = Math.hypot(m.re[i]!, m.im[i]!);
+              if (ref < floor) continue; // deep in a notch: the absolute comparison above covers it
+              const magDb = Math.abs(10 * Math.log10(m2[i]!) - 20 * Math.log10(ref));
+              let dp = Math.atan2(h.im[i]!, h.re[i]!) - Math.atan2(m.im[i]!, m.re[i]!);
+              dp -= 2 * Math.PI * Math.round(dp / (2 * Math.PI));
+              const deg = Math.abs((dp * 180) / Math.PI);
+              const w0 = (worst[topo.id] ??= { mag: 0, deg: 0 });
+              w0.mag = Math.max(w0.mag, magDb);
+              w0.deg = Math.max(w0.deg, deg);
+              expect(magDb, `f = ${freqHz[i]} Hz (${opamp.kind})`).toBeLessThan(1e-9);
+              expect(deg, `f = ${freqHz[i]} Hz (${opamp.kind})`).toBeLessThan(1e-7);
+            }
+          }
+        }),
+        { numRuns: 40 },
+      );
+    });
+  }
+
+  it("reports the worst agreement per topology", () => {
+    const rows = Object.entries(worst).map(([id, e]) => `${id}: ${e.mag.toExponential(2)} dB, ${e.deg.toExponential(2)} deg`);
+    console.log(rows.join("\n"));
+    expect(rows.length).toBe(topologies.length);
+  });
+});
