@@ -17,6 +17,30 @@
  */
 import type { ScaledRational } from "./types.ts";
 
+/** Scratch written by {@link atImaginary}: real and imaginary part. */
+const value = new Float64Array(2);
+
+/** A real polynomial (descending coefficients) at `z = j x`, written into {@link value}. */
+function atImaginary(c: Float64Array, x: number): void {
+  let pr = c[0] as number;
+  let pi = 0;
+  for (let i = 1; i < c.length; i++) {
+    const t = -pi * x + (c[i] as number);
+    pi = pr * x;
+    pr = t;
+  }
+  value[0] = pr;
+  value[1] = pi;
+}
+
+/** `|num(j x)|^2 / |den(j x)|^2` of one stage at `x = w / scale`. */
+function stageMagnitudeSquared(num: Float64Array, den: Float64Array, x: number): number {
+  atImaginary(num, x);
+  const n2 = (value[0] as number) * (value[0] as number) + (value[1] as number) * (value[1] as number);
+  atImaginary(den, x);
+  return n2 / ((value[0] as number) * (value[0] as number) + (value[1] as number) * (value[1] as number));
+}
+
 /**
  * `|num(j x)|^2 / |den(j x)|^2` at `x = w / scale` for one stage, multiplied
  * into `out` (so a cascade is a loop over its stages on one buffer).
@@ -35,26 +59,7 @@ export function multiplyMagnitudeSquared(
   out: Float64Array,
 ): void {
   const inv = 1 / scale;
-  const nn = num.length;
-  const nd = den.length;
-  for (let k = 0; k < w.length; k++) {
-    const x = (w[k] as number) * inv;
-    let pr = num[0] as number;
-    let pi = 0;
-    for (let i = 1; i < nn; i++) {
-      const t = -pi * x + (num[i] as number);
-      pi = pr * x;
-      pr = t;
-    }
-    let qr = den[0] as number;
-    let qi = 0;
-    for (let i = 1; i < nd; i++) {
-      const t = -qi * x + (den[i] as number);
-      qi = qr * x;
-      qr = t;
-    }
-    out[k] = ((out[k] as number) * (pr * pr + pi * pi)) / (qr * qr + qi * qi);
-  }
+  for (let k = 0; k < w.length; k++) out[k] = (out[k] as number) * stageMagnitudeSquared(num, den, (w[k] as number) * inv);
 }
 
 /**
@@ -77,24 +82,14 @@ export function multiplyResponse(
   im: Float64Array,
 ): void {
   const inv = 1 / scale;
-  const nn = num.length;
-  const nd = den.length;
   for (let k = 0; k < w.length; k++) {
     const x = (w[k] as number) * inv;
-    let pr = num[0] as number;
-    let pi = 0;
-    for (let i = 1; i < nn; i++) {
-      const t = -pi * x + (num[i] as number);
-      pi = pr * x;
-      pr = t;
-    }
-    let qr = den[0] as number;
-    let qi = 0;
-    for (let i = 1; i < nd; i++) {
-      const t = -qi * x + (den[i] as number);
-      qi = qr * x;
-      qr = t;
-    }
+    atImaginary(num, x);
+    const pr = value[0] as number;
+    const pi = value[1] as number;
+    atImaginary(den, x);
+    const qr = value[0] as number;
+    const qi = value[1] as number;
     // h = p / q, then (re + j im) *= h
     const d = qr * qr + qi * qi;
     const hr = (pr * qr + pi * qi) / d;
@@ -136,4 +131,20 @@ export function cascadeResponse(stages: readonly ScaledRational[], w: Float64Arr
   const im = new Float64Array(w.length);
   for (const s of stages) multiplyResponse(s.num, s.den, s.scale, w, re, im);
   return { re, im };
+}
+
+/**
+ * `|H(j w)|^2` of a cascade at one angular frequency (no allocation).
+ *
+ * @param stages - the stages
+ * @param w - angular frequency, rad/s
+ * @returns the magnitude squared
+ */
+export function magnitudeSquaredAt(stages: readonly ScaledRational[], w: number): number {
+  let out = 1;
+  for (let s = 0; s < stages.length; s++) {
+    const st = stages[s] as ScaledRational;
+    out *= stageMagnitudeSquared(st.num, st.den, w / st.scale);
+  }
+  return out;
 }

@@ -206,7 +206,7 @@ function permutationSign(piv: Int32Array, seen: Uint8Array): number {
 const seenScratch = new Map<number, Uint8Array>();
 
 /** Sample `D` and `N` at the upper-half sample points; false when a point is singular. */
-function sample(cs: CompiledStage, radius: number): boolean {
+function sample(cs: CompiledStage, radius: number, first: boolean): boolean {
   const { program, scratch: sc, points, sourceRow, output } = cs;
   const n = program.n;
   const nn = n * n;
@@ -233,8 +233,8 @@ function sample(cs: CompiledStage, radius: number): boolean {
       dr = t;
     }
     // det(A) = det(R A C) 2^exponent, taken relative to the first sample's exponent.
-    if (k === 0 && radius === sc.radii[0]) sc.exponent[0] = exponent;
-    const unit = Math.pow(2, exponent - (sc.exponent[0] as number));
+    if (k === 0 && first) sc.exponent[0] = exponent;
+    const unit = powerOfTwo(exponent - (sc.exponent[0] as number));
     dr *= unit;
     di *= unit;
     // A x = b with b the unit source: (R A C) y = R b, x = C y.
@@ -267,8 +267,8 @@ function equilibrate(n: number, ar: Float64Array, ai: Float64Array, rows: Float6
     let m = 0;
     for (let j = 0; j < n; j++) m = Math.max(m, Math.abs(ar[i * n + j] as number) + Math.abs(ai[i * n + j] as number));
     if (!(m > 0)) return NaN;
-    const e = Math.floor(Math.log2(m));
-    const f = Math.pow(2, -e);
+    const e = binaryExponent(m);
+    const f = powerOfTwo(-e);
     rows[i] = f;
     exponent += e;
     for (let j = 0; j < n; j++) {
@@ -280,8 +280,8 @@ function equilibrate(n: number, ar: Float64Array, ai: Float64Array, rows: Float6
     let m = 0;
     for (let i = 0; i < n; i++) m = Math.max(m, Math.abs(ar[i * n + j] as number) + Math.abs(ai[i * n + j] as number));
     if (!(m > 0)) return NaN;
-    const e = Math.floor(Math.log2(m));
-    const f = Math.pow(2, -e);
+    const e = binaryExponent(m);
+    const f = powerOfTwo(-e);
     cols[j] = f;
     exponent += e;
     for (let i = 0; i < n; i++) {
@@ -290,6 +290,29 @@ function equilibrate(n: number, ar: Float64Array, ai: Float64Array, rows: Float6
     }
   }
   return exponent;
+}
+
+// The exponent field of a double, read and written through a shared buffer
+// (IEEE 754 binary64; the word order is found once, at load).
+const bits = new Float64Array(1);
+const words = new Uint32Array(bits.buffer);
+bits[0] = 1;
+const HIGH = words[1] === 0x3ff00000 ? 1 : 0;
+const LOW = 1 - HIGH;
+
+/** floor(log2 x) for a positive finite x, exactly. */
+function binaryExponent(x: number): number {
+  bits[0] = x;
+  const field = ((words[HIGH] as number) >>> 20) & 0x7ff;
+  return field === 0 ? Math.floor(Math.log2(x)) : field - 1023;
+}
+
+/** 2^e exactly, for -1022 <= e <= 1023. */
+function powerOfTwo(e: number): number {
+  if (e < -1022 || e > 1023) return Math.pow(2, e);
+  words[LOW] = 0;
+  words[HIGH] = (e + 1023) << 20;
+  return bits[0] as number;
 }
 
 /**
@@ -410,7 +433,7 @@ function sampleCircles(cs: CompiledStage, radius: number): number {
   let circles = 0;
   for (let r = radius / Math.pow(CIRCLE_RATIO, below); circles < MAX_CIRCLES; r *= CIRCLE_RATIO) {
     sc.radii[circles] = r;
-    if (!sample(cs, r)) return 0;
+    if (!sample(cs, r, circles === 0)) return 0;
     coefficients(cs, sc.dRe, sc.dIm, sc.denSets, circles * cs.points);
     coefficients(cs, sc.nRe, sc.nIm, sc.numSets, circles * cs.points);
     circles++;

@@ -1,0 +1,160 @@
+/**
+ * Monte Carlo boards: every part drawn within its tolerance, each board's
+ * stages turned into polynomials and checked against the mask.
+ *
+ * Method: the draws come in batches of {@link BATCH} boards, each batch from
+ * its own Mulberry32 stream seeded by the run's seed and the batch number
+ * (mixed by the MurmurHash3 finaliser, A. Appleby, 2011, public domain), so
+ * board k is the same board whatever the batch size of the caller, the
+ * number of worker threads or how many boards run after it. A part is drawn
+ * uniformly within +-tolerance (the bound a "+-t %" part guarantees; common
+ * practice, no source), or normally with the tolerance as three standard
+ * deviations and draws beyond it drawn again (parts outside their
+ * tolerance are not sold; Box-Muller transform, G. E. P. Box & M. E.
+ * Muller, Ann. Math. Statist. 29(2):610-611, 1958). The draws of a batch are
+ * stored structure-of-arrays (one row of parts per board) in one typed
+ * array; nothing is allocated per board.
+ *
+ * @module
+ */
+import { mulberry32 } from "../math/random.ts";
+import { stagePolynomialsInto, type CompiledStage } from "./stage-polynomials.ts";
+import { maskFigures, type MaskPlan } from "./mask.ts";
+import type { ScaledRational } from "./types.ts";
+
+/** Boards drawn from one random stream. */
+export const BATCH = 256;
+
+/** A stage of the board: its compiled form, nominal values and tolerances (component order). */
+export interface BoardStage {
+  /** The compiled stage. */
+  readonly compiled: CompiledStage;
+  /** Nominal component values, in `compiled.componentNames` order. */
+  readonly nominal: Float64Array;
+  /** Tolerance of each component as a fraction (0.01 for 1 %). */
+  readonly tolerance: Float64Array;
+  /** The scale of the stage's polynomials, rad/s (about its f0). */
+  readonly radius: number;
+}
+
+/** How part values spread within their tolerance. */
+export type PartDistribution = "uniform" | "normal";
+
+/** Options of {@link runBoards}. */
+export interface BoardRunOptions {
+  /** Boards to build. */
+  readonly boards: number;
+  /** Seed of the run. */
+  readonly seed: number;
+  /** Part spread. */
+  readonly distribution: PartDistribution;
+}
+
+/** What the boards did. */
+export interface BoardRun {
+  /** Boards built. */
+  readonly boards: number;
+  /** Boards that met the mask (margin >= 0); boards whose equations were singular count as failed. */
+  readonly passed: number;
+  /** Worst margin of each board, dB (NaN for a singular board). */
+  readonly marginDb: Float64Array;
+  /** Passband loss of each board, dB. */
+  readonly passbandLossDb: Float64Array;
+  /** Stopband attenuation of each board, dB. */
+  readonly stopbandAttenuationDb: Float64Array;
+  /** Passband level of each board, dB. */
+  readonly gainDb: Float64Array;
+  /** Index of the board with the smallest margin. */
+  readonly worstBoard: number;
+  /** That board's component values, per stage in component order. */
+  readonly worstValues: readonly Float64Array[];
+}
+
+/** MurmurHash3's 32-bit finaliser of `seed` and `batch`. */
+function batchSeed(seed: number, batch: number): number {
+  let h = (seed ^ Math.imul(batch + 1, 0x9e3779b1)) >>> 0;
+  h ^= h >>> 16;
+  h = Math.imul(h, 0x85ebca6b);
+  h ^= h >>> 13;
+  h = Math.imul(h, 0xc2b2ae35);
+  h ^= h >>> 16;
+  return h >>> 0;
+}
+
+/** A relative deviation in [-1, 1] (times the tolerance later), uniform or normal with sigma 1/3. */
+function deviation(next: () => number, distribution: PartDistribution): number {
+  if (distribution === "uniform") return 2 * next() - 1;
+  for (;;) {
+    const u = 1 - next(); // (0, 1]
+    const v = next();
+    const z = (Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * v)) / 3;
+    if (z >= -1 && z <= 1) return z;
+  }
+}
+
+/**
+ * Build and check Monte Carlo boards (internal hot path: no checks).
+ *
+ * @param stages - the board's stages
+ * @param plan - the mask
+ * @param options - boards, seed, distribution
+ * @returns per-board figures and the worst board
+ */
+export function runBoards(stages: readonly BoardStage[], plan: MaskPlan, options: BoardRunOptions): BoardRun {
+  const { boards, seed, distribution } = options;
+  const parts = stages.reduce((k, s) => k + s.nominal.length, 0);
+  const draws = new Float64Array(BATCH * parts);
+  const values = stages.map((s) => new Float64Array(s.nominal.length));
+  const polys: ScaledRational[] = stages.map((s) => ({
+    num: new Float64Array(s.compiled.points),
+    den: new Float64Array(s.compiled.points),
+    scale: s.radius,
+  }));
+  const out = {
+    marginDb: new Float64Array(boards),
+    passbandLossDb: new Float64Array(boards),
+    stopbandAttenuationDb: new Float64Array(boards),
+    gainDb: new Float64Array(boards),
+  };
+  let passed = 0;
+  let worstBoard = 0;
+  let worstMargin = Infinity;
+  let worstValues = values.map((v) => v.slice());
+  for (let start = 0; start < boards; start += BATCH) {
+    const next = mulberry32(batchSeed(seed, start / BATCH));
+    const count = Math.min(BATCH, boards - start);
+    for (let i = 0; i < count * parts; i++) draws[i] = deviation(next, distribution);
+    for (let b = 0; b < count; b++) {
+      let at = b * parts;
+      let ok = true;
+      for (let s = 0; s < stages.length; s++) {
+        const st = stages[s] as BoardStage;
+        const v = values[s] as Float64Array;
+        for (let j = 0; j < v.length; j++) v[j] = (st.nominal[j] as number) * (1 + (st.tolerance[j] as number) * (draws[at++] as number));
+        const p = polys[s] as { num: Float64Array; den: Float64Array; scale: number };
+        p.scale = stagePolynomialsInto(st.compiled, v, st.radius, p.num, p.den);
+        if (p.scale === 0) ok = false;
+      }
+      const k = start + b;
+      if (!ok) {
+        out.marginDb[k] = NaN;
+        out.passbandLossDb[k] = NaN;
+        out.stopbandAttenuationDb[k] = NaN;
+        out.gainDb[k] = NaN;
+        continue;
+      }
+      const m = maskFigures(polys, plan);
+      out.marginDb[k] = m.marginDb;
+      out.passbandLossDb[k] = m.passbandLossDb;
+      out.stopbandAttenuationDb[k] = m.stopbandAttenuationDb;
+      out.gainDb[k] = m.gainDb;
+      if (m.marginDb >= 0) passed++;
+      if (m.marginDb < worstMargin) {
+        worstMargin = m.marginDb;
+        worstBoard = k;
+        worstValues = values.map((x) => x.slice());
+      }
+    }
+  }
+  return { boards, passed, ...out, worstBoard, worstValues };
+}
