@@ -3,7 +3,7 @@ import fc from "fast-check";
 import { bessel, besselDelayGroupDelay, besselDelayMagnitude } from "../../src/approx/bessel.ts";
 import { InvalidArgumentError } from "../../src/errors.ts";
 import { expectClose, expectComplexSetClose } from "../helpers/tolerance.ts";
-import { magnitude, magnitudeDb, mpmathCases, roots, scipyCases } from "./prototypeFixtures.ts";
+import { magnitude, magnitudeDb, mpmathCases, roots, scipyCases } from "./prototype-fixtures.ts";
 
 function poleGroupDelay(poles: readonly { re: number; im: number }[], w: number): number {
   let t = 0;

@@ -3,7 +3,7 @@ import fc from "fast-check";
 import { butterworth } from "../../src/approx/butterworth.ts";
 import { InvalidArgumentError } from "../../src/errors.ts";
 import { expectClose, expectComplexSetClose } from "../helpers/tolerance.ts";
-import { magnitude, magnitudeDb, roots, scipyCases } from "./prototypeFixtures.ts";
+import { magnitude, magnitudeDb, roots, scipyCases } from "./prototype-fixtures.ts";
 
 describe("butterworth", () => {
   it("matches scipy.signal.buttap for every order 1-64 (poles 1e-10 relative, gain 1e-12)", () => {

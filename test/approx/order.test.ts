@@ -7,7 +7,7 @@ import { InvalidArgumentError, SpecError, UnrealisableError } from "../../src/er
 import type { FamilyName } from "../../src/approx/types.ts";
 import { loadFixture } from "../helpers/fixtures.ts";
 import { expectArrayClose } from "../helpers/tolerance.ts";
-import { magnitudeDb } from "./prototypeFixtures.ts";
+import { magnitudeDb } from "./prototype-fixtures.ts";
 
 interface OrderCase {
   family: FamilyName;
