@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { MAX_BESSEL_ORDER, reverseBesselCoefficients, reverseBesselRoots } from "../../src/math/bessel.ts";
+import { REVERSE_BESSEL_MAX_ORDER, reverseBesselCoefficients, reverseBesselRoots } from "../../src/math/bessel.ts";
 import { polyRoots } from "../../src/math/roots.ts";
 import { InvalidArgumentError } from "../../src/errors.ts";
 import { loadFixture } from "../helpers/fixtures.ts";
@@ -35,7 +35,7 @@ describe("reverseBesselCoefficients", () => {
 
   it("rejects orders out of range", () => {
     expect(() => reverseBesselRoots(0)).toThrow(InvalidArgumentError);
-    expect(() => reverseBesselRoots(MAX_BESSEL_ORDER + 1)).toThrow(/order/);
+    expect(() => reverseBesselRoots(REVERSE_BESSEL_MAX_ORDER + 1)).toThrow(/order/);
     expect(() => reverseBesselCoefficients(2.5)).toThrow(InvalidArgumentError);
   });
 });
