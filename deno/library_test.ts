@@ -1,16 +1,11 @@
 // The sources run unchanged under Deno (imports end in .ts), so notebooks can
-// import filterwright straight from src/. These tests check that path: no
-// std library imports, so they run offline.
-import {
-  butterworth,
-  designFilter,
-  eSeries,
-  formatValue,
-  frequencyResponse,
-  parseValue,
-  snapToSeries,
-  toSpiceNetlist,
-} from "../src/index.ts";
+// import filterwright straight from src/. These tests check that path, for
+// the root entry and the layer entries: no std library imports, so they run
+// offline.
+import { designFilter, formatValue, parseValue, toSpiceNetlist } from "../src/index.ts";
+import { butterworth } from "../src/approx/index.ts";
+import { eSeries, snapToSeries } from "../src/parts/index.ts";
+import { frequencyResponse } from "../src/tf/index.ts";
 
 function assert(condition: unknown, message: string): asserts condition {
   if (!condition) throw new Error(message);

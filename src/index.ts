@@ -2,9 +2,14 @@
  * filterwright: design analog active filters from a specification to a
  * verified circuit of preferred-value parts.
  *
- * The root entry re-exports every layer. Each layer is also a subpath export
- * (`filterwright/units`, `/math`, `/tf`, `/approx`, `/parts`, `/scaling`,
- * `/circuit`, `/topologies`, `/design`, `/analysis`, `/report`) for tree-shaking.
+ * The root entry is the design API: {@link designFilter} and the spec it
+ * validates, the result types, the reports of a finished design (SPICE
+ * netlist, BOM, JSON, Markdown, SVG), its analyses (Monte Carlo yield, part
+ * sensitivities, noise, op-amp requirements), the typed errors, and
+ * {@link parseValue} / {@link formatValue} for the values in a spec and a
+ * result. The layers underneath are subpath exports (`filterwright/units`,
+ * `/math`, `/tf`, `/approx`, `/parts`, `/scaling`, `/circuit`, `/topologies`,
+ * `/design`, `/analysis`, `/report`), each with its full API.
  *
  * @example
  * ```ts
@@ -19,15 +24,74 @@
  *
  * @module
  */
-export * from "./errors.ts";
-export * from "./units/index.ts";
-export * from "./math/index.ts";
-export * from "./tf/index.ts";
-export * from "./approx/index.ts";
-export * from "./parts/index.ts";
-export * from "./scaling/index.ts";
-export * from "./circuit/index.ts";
-export * from "./topologies/index.ts";
-export * from "./design/index.ts";
-export * from "./analysis/index.ts";
-export * from "./report/index.ts";
+export {
+  FilterwrightError,
+  InvalidArgumentError,
+  ParseError,
+  UnrealisableError,
+  SingularCircuitError,
+  SpecError,
+  ConvergenceError,
+  type ErrorCode,
+  type ErrorDetails,
+  type Issue,
+} from "./errors.ts";
+export { parseValue, formatValue, type ParseValueOptions, type FormatValueOptions } from "./units/index.ts";
+export {
+  designFilter,
+  validateSpec,
+  type FilterSpec,
+  type DesignSpec,
+  type ResponseType,
+  type FamilyPriority,
+  type Polarity,
+  type SpecQuantity,
+  type EdgeInput,
+  type PassbandSpec,
+  type StopbandSpec,
+  type GainSpec,
+  type PartsSpec,
+  type OpAmpSpec,
+  type ValueWindow,
+  type DesignResult,
+  type DesignStage,
+  type StagePole,
+  type StagePredistortion,
+  type StageFigureSet,
+  type StageErrors,
+  type FamilyCandidate,
+  type FamilyChoice,
+  type Placement,
+  type ResponseCurve,
+  type Verification,
+  type DesignWarning,
+  type DesignAction,
+} from "./design/index.ts";
+export {
+  monteCarlo,
+  partSensitivities,
+  noiseAnalysis,
+  opampRequirements,
+  type MonteCarloOptions,
+  type MonteCarloResult,
+  type Spread,
+  type ToleranceFractions,
+  type PartSensitivity,
+  type NoiseAnalysisOptions,
+  type NoiseAnalysisResult,
+  type NoiseContributor,
+  type OpampRequirementOptions,
+  type StageOpampRequirement,
+} from "./analysis/index.ts";
+export {
+  toSpiceNetlist,
+  toBomCsv,
+  bomLines,
+  toJson,
+  fromJson,
+  toMarkdown,
+  toSvgPlot,
+  type SpiceNetlistOptions,
+  type BomLine,
+  type SvgPlotOptions,
+} from "./report/index.ts";

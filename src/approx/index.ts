@@ -54,5 +54,5 @@ export type {
   MinimumOrderSpec,
   OrderResponse,
 } from "./order.ts";
-export { formatSectionTable, sectionTable } from "./sectionTable.ts";
-export type { FormatSectionTableOptions, SectionRow, SectionTableOptions } from "./sectionTable.ts";
+export { formatSectionTable, sectionTable } from "./section-table.ts";
+export type { FormatSectionTableOptions, SectionRow, SectionTableOptions } from "./section-table.ts";

@@ -87,7 +87,12 @@ export interface MinimumOrderResult {
   readonly prototype: PrototypeSpec;
 }
 
-/** How far the Bessel and Legendre order searches go before giving up. */
+/**
+ * How far the Bessel and Legendre order searches of {@link minimumOrder} go
+ * before giving up. They evaluate the magnitude without roots, so they look
+ * past the prototypes' own limits ({@link familyMaxOrder}) and report such an
+ * order with `beyondRange: true`.
+ */
 export const ORDER_SEARCH_LIMIT: Readonly<Record<"bessel" | "legendre", number>> = Object.freeze({ bessel: 100, legendre: 60 });
 
 interface CheckedSpec {
@@ -345,6 +350,14 @@ export function minimumOrder(spec: MinimumOrderSpec): MinimumOrderResult {
   });
 }
 
+/**
+ * How far {@link besselOrderForDelay} searches. The group delay comes from
+ * the polynomial recurrence, without roots, so the search is not bound by the
+ * prototype's {@link BESSEL_MAX_ORDER}; orders beyond it are answered with
+ * `beyondRange: true`.
+ */
+const BESSEL_DELAY_SEARCH_LIMIT = 200;
+
 /** Arguments of {@link besselOrderForDelay}. */
 export interface BesselDelaySpec {
   /** Largest allowed deviation of the group delay from its DC value, percent (greater than 0, below 100). */
@@ -370,7 +383,7 @@ export interface BesselDelayResult {
   readonly delayErrorPercent: number;
   /** True when `order` exceeds the Bessel prototype range. */
   readonly beyondRange: boolean;
-  /** Highest order {@link bessel} accepts. */
+  /** Highest order {@link bessel} accepts ({@link BESSEL_MAX_ORDER}). */
   readonly maxOrder: number;
 }
 
@@ -379,7 +392,8 @@ export interface BesselDelayResult {
  * `maxDelayErrorPercent` of its DC value from DC up to `upToW` (the delay of
  * a Bessel filter falls monotonically with frequency; it is checked on 64
  * points across the band). Evaluated without roots, by the Bessel polynomial
- * recurrence, so orders past 30 are answered too (`beyondRange: true`).
+ * recurrence, so orders past {@link BESSEL_MAX_ORDER} are answered too
+ * (`beyondRange: true`), up to the search limit of order 200.
  *
  * @param spec - delay error limit, band edge and optional DC delay
  * @returns the order and the error it reaches at the band edge
@@ -401,8 +415,7 @@ export function besselOrderForDelay(spec: BesselDelaySpec): BesselDelayResult {
   const up = requirePositive(fn, "upToW", s["upToW"]);
   const delay = s["delaySeconds"] === undefined ? 1 : requirePositive(fn, "delaySeconds", s["delaySeconds"]);
   const wn = up * delay;
-  const limit = 200;
-  for (let n = 1; n <= limit; n++) {
+  for (let n = 1; n <= BESSEL_DELAY_SEARCH_LIMIT; n++) {
     let worst = 0;
     for (let i = 1; i <= 64; i++) {
       const e = Math.abs(1 - besselDelayGroupDelay(n, (wn * i) / 64)) * 100;
@@ -418,6 +431,6 @@ export function besselOrderForDelay(spec: BesselDelaySpec): BesselDelayResult {
     fn,
     path: "upToW",
     received: up,
-    message: `a Bessel filter would need more than order ${limit} to keep the delay within ${pct} % that far; lower upToW or allow more error`,
+    message: `a Bessel filter would need more than order ${BESSEL_DELAY_SEARCH_LIMIT} to keep the delay within ${pct} % that far; lower upToW or allow more error`,
   });
 }

@@ -21,8 +21,14 @@ import { requireInteger } from "../validate.ts";
 import type { Complex } from "./complex.ts";
 import { polyRoots } from "./roots.ts";
 
-/** Highest supported order of the reverse Bessel polynomial helpers. */
-export const MAX_BESSEL_ORDER = 40;
+/**
+ * Highest order of the reverse Bessel polynomial helpers
+ * ({@link reverseBesselCoefficients}, {@link reverseBesselRoots}): roots to
+ * about 1e-15 relative up to order 30, a few times 1e-12 at order 40. The
+ * Bessel-Thomson filter prototype stops earlier, at `BESSEL_MAX_ORDER` (30)
+ * in `approx/bessel.ts`, where the roots are still at full accuracy.
+ */
+export const REVERSE_BESSEL_MAX_ORDER = 40;
 
 function factorial(n: number): bigint {
   let f = 1n;
@@ -43,7 +49,7 @@ function exactCoefficients(n: number): bigint[] {
  * Coefficients of the reverse Bessel polynomial `theta_n`, descending powers,
  * each rounded to the nearest double (exact up to order 10).
  *
- * @param order - polynomial order n, 0 to {@link MAX_BESSEL_ORDER}
+ * @param order - polynomial order n, 0 to {@link REVERSE_BESSEL_MAX_ORDER}
  * @returns `[a_n, ..., a_0]` with `a_n = 1` and `a_0 = (2n)! / (2^n n!)`
  * @throws {@link InvalidArgumentError} when `order` is not an integer in range
  * @example
@@ -52,7 +58,7 @@ function exactCoefficients(n: number): bigint[] {
  * ```
  */
 export function reverseBesselCoefficients(order: number): number[] {
-  requireInteger("reverseBesselCoefficients", "order", order, { min: 0, max: MAX_BESSEL_ORDER });
+  requireInteger("reverseBesselCoefficients", "order", order, { min: 0, max: REVERSE_BESSEL_MAX_ORDER });
   return exactCoefficients(order).map((c) => Number(c));
 }
 
@@ -63,7 +69,7 @@ export function reverseBesselCoefficients(order: number): number[] {
  * error about 1e-15 up to order 30 (worst measured against mpmath 50-digit
  * roots), a few times 1e-12 at order 40.
  *
- * @param order - polynomial order n, 1 to {@link MAX_BESSEL_ORDER}
+ * @param order - polynomial order n, 1 to {@link REVERSE_BESSEL_MAX_ORDER}
  * @returns the n roots, all in the left half-plane, sorted as by {@link polyRoots}
  * @throws {@link InvalidArgumentError} when `order` is not an integer in range
  * @example
@@ -72,7 +78,7 @@ export function reverseBesselCoefficients(order: number): number[] {
  * ```
  */
 export function reverseBesselRoots(order: number): Complex[] {
-  requireInteger("reverseBesselRoots", "order", order, { min: 1, max: MAX_BESSEL_ORDER });
+  requireInteger("reverseBesselRoots", "order", order, { min: 1, max: REVERSE_BESSEL_MAX_ORDER });
   const exact = exactCoefficients(order);
   const hi = exact.map((c) => Number(c));
   const lo = exact.map((c, i) => Number(c - BigInt(hi[i] as number)));

@@ -8,7 +8,7 @@
 export * from "./complex.ts";
 export { polyAdd, polyDerivative, polyEval, polyEvalReal, polyFromRoots, polyMul } from "./polynomial.ts";
 export { polyRoots, type PolyRootsOptions } from "./roots.ts";
-export { MAX_BESSEL_ORDER, reverseBesselCoefficients, reverseBesselRoots } from "./bessel.ts";
+export { REVERSE_BESSEL_MAX_ORDER, reverseBesselCoefficients, reverseBesselRoots } from "./bessel.ts";
 export { expm, type RealMatrix } from "./expm.ts";
 export {
   complexLuFactor,

@@ -8,7 +8,7 @@ import { BOLTZMANN_J_PER_K, noiseAnalysis } from "../../src/analysis/index.ts";
 import { circuitToSpice } from "../../src/circuit/spice.ts";
 import type { Circuit, Element } from "../../src/circuit/types.ts";
 import { InvalidArgumentError } from "../../src/errors.ts";
-import { requireNgspice } from "../helpers/ngspice.ts";
+import { assertNgspice, requireNgspice } from "../helpers/ngspice.ts";
 import { relErr } from "../helpers/tolerance.ts";
 
 const haveSpice = requireNgspice();
@@ -29,6 +29,7 @@ interface SpiceNoise {
  * device `onoise_r1` ... when a summary interval is set).
  */
 function runNoise(circuit: Circuit, band: { startHz: number; stopHz: number }, vectors: readonly string[]): SpiceNoise {
+  assertNgspice();
   const dir = mkdtempSync(join(tmpdir(), "fw-noise-"));
   try {
     const cir = join(dir, "noise.cir");
@@ -117,12 +118,11 @@ function mapValues(r: DesignResult, f: (name: string, v: number) => number): Des
 
 describe("noiseAnalysis against ngspice .noise (resistor thermal noise, ideal op-amps)", () => {
   for (const [label, spec] of Object.entries(designs)) {
-    it(`matches the output density and per-resistor spectra: ${label}`, () => {
+    it.skipIf(!haveSpice)(`matches the output density and per-resistor spectra: ${label}`, () => {
       const r = designFilter(spec);
       expect(r.spec.opamp.kind).toBe("ideal");
       const band = decadeBand(r);
       const ours = noiseAnalysis(r, { bandHz: [band.startHz, band.stopHz], points: band.points, temperatureK: T_SPICE });
-      if (!haveSpice) return;
       const circuit = designCircuit(r);
       const resistors = circuit.elements.filter((e) => e.kind === "R").map((e) => e.name);
       const sim = runNoise(circuit, band, ["onoise_spectrum", ...resistors.map((n) => `onoise_${n.toLowerCase()}`)]);
@@ -174,17 +174,24 @@ function withOpampNoiseAsResistors(circuit: Circuit, en: number, inoise: number,
 }
 
 describe("noiseAnalysis op-amp noise against ngspice", () => {
-  it("matches en and in drawn as equivalent noisy resistors", () => {
-    const spec = designs["lowpass (multiple feedback, vibration sensor)"] as FilterSpec;
+  const spec = designs["lowpass (multiple feedback, vibration sensor)"] as FilterSpec;
+  const en = 7e-9;
+  const inoise = 2e-12;
+  function withOpampNoise(): { r: DesignResult; band: ReturnType<typeof decadeBand>; ours: ReturnType<typeof noiseAnalysis> } {
     const r = designFilter({ ...spec, gain: { db: 10 } });
     const band = decadeBand(r);
-    const en = 7e-9;
-    const inoise = 2e-12;
     const ours = noiseAnalysis(r, { bandHz: [band.startHz, band.stopHz], points: band.points, opampVoltageNoise: en, opampCurrentNoise: inoise });
-    const names = Object.keys(ours.contributions);
+    return { r, band, ours };
+  }
+
+  it("lists each op-amp's en and in as contributions", () => {
+    const names = Object.keys(withOpampNoise().ours.contributions);
     expect(names).toContain("U1.en");
     expect(names.some((n) => n.endsWith(".in-"))).toBe(true);
-    if (!haveSpice) return;
+  });
+
+  it.skipIf(!haveSpice)("matches en and in drawn as equivalent noisy resistors", () => {
+    const { r, band, ours } = withOpampNoise();
     const { circuit, extra } = withOpampNoiseAsResistors(designCircuit(r), en, inoise, T_SPICE);
     const sim = runNoiseWithExtra(circuit, extra, band);
     let worst = 0;
@@ -218,6 +225,7 @@ describe("noiseAnalysis op-amp noise against ngspice", () => {
 });
 
 function runNoiseWithExtra(circuit: Circuit, extra: readonly string[], band: { startHz: number; stopHz: number }): Float64Array {
+  assertNgspice();
   const dir = mkdtempSync(join(tmpdir(), "fw-noise-"));
   try {
     const cir = join(dir, "noise.cir");

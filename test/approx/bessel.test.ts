@@ -1,9 +1,12 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { bessel, besselDelayGroupDelay, besselDelayMagnitude } from "../../src/approx/bessel.ts";
+import { bessel, BESSEL_MAX_ORDER, besselDelayGroupDelay, besselDelayMagnitude } from "../../src/approx/bessel.ts";
+import { familyMaxOrder } from "../../src/approx/prototype.ts";
+import { besselOrderForDelay } from "../../src/approx/order.ts";
+import { REVERSE_BESSEL_MAX_ORDER } from "../../src/math/bessel.ts";
 import { InvalidArgumentError } from "../../src/errors.ts";
 import { expectClose, expectComplexSetClose } from "../helpers/tolerance.ts";
-import { magnitude, magnitudeDb, mpmathCases, roots, scipyCases } from "./prototypeFixtures.ts";
+import { magnitude, magnitudeDb, mpmathCases, roots, scipyCases } from "./prototype-fixtures.ts";
 
 function poleGroupDelay(poles: readonly { re: number; im: number }[], w: number): number {
   let t = 0;
@@ -64,7 +67,17 @@ describe("bessel", () => {
   });
 
   it("rejects unknown normalisations and orders outside 1-30", () => {
-    expect(() => bessel(31)).toThrow(InvalidArgumentError);
+    expect(BESSEL_MAX_ORDER).toBe(30);
+    expect(bessel(BESSEL_MAX_ORDER).poles.length).toBe(30);
+    expect(() => bessel(BESSEL_MAX_ORDER + 1)).toThrow(InvalidArgumentError);
+    expect(() => bessel(0)).toThrow(InvalidArgumentError);
     expect(() => bessel(4, { normalization: "mag" as "magnitude" })).toThrow(/options\.normalization/);
+  });
+
+  it("has one order limit, BESSEL_MAX_ORDER, for the prototype, the family table and the delay search's range", () => {
+    expect(familyMaxOrder("bessel")).toBe(BESSEL_MAX_ORDER);
+    expect(besselOrderForDelay({ maxDelayErrorPercent: 1, upToW: 2 }).maxOrder).toBe(BESSEL_MAX_ORDER);
+    // The polynomial helpers underneath reach further; the prototype never asks them past their limit.
+    expect(BESSEL_MAX_ORDER).toBeLessThanOrEqual(REVERSE_BESSEL_MAX_ORDER);
   });
 });

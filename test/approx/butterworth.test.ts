@@ -2,8 +2,9 @@ import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { butterworth } from "../../src/approx/butterworth.ts";
 import { InvalidArgumentError } from "../../src/errors.ts";
+import { thrownBy } from "../helpers/throws.ts";
 import { expectClose, expectComplexSetClose } from "../helpers/tolerance.ts";
-import { magnitude, magnitudeDb, roots, scipyCases } from "./prototypeFixtures.ts";
+import { magnitude, magnitudeDb, roots, scipyCases } from "./prototype-fixtures.ts";
 
 describe("butterworth", () => {
   it("matches scipy.signal.buttap for every order 1-64 (poles 1e-10 relative, gain 1e-12)", () => {
@@ -51,11 +52,8 @@ describe("butterworth", () => {
     for (const bad of [0, 65, 2.5, Number.NaN, "3" as unknown as number]) {
       expect(() => butterworth(bad)).toThrow(InvalidArgumentError);
     }
-    try {
-      butterworth(0);
-    } catch (e) {
-      expect((e as InvalidArgumentError).path).toBe("order");
-      expect((e as InvalidArgumentError).fn).toBe("butterworth");
-    }
+    const e = thrownBy(() => butterworth(0), InvalidArgumentError);
+    expect(e.path).toBe("order");
+    expect(e.fn).toBe("butterworth");
   });
 });

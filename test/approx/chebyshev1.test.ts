@@ -3,7 +3,7 @@ import fc from "fast-check";
 import { chebyshev1 } from "../../src/approx/chebyshev1.ts";
 import { InvalidArgumentError } from "../../src/errors.ts";
 import { expectClose, expectComplexSetClose } from "../helpers/tolerance.ts";
-import { magnitudeDb, roots, scipyCases } from "./prototypeFixtures.ts";
+import { magnitudeDb, roots, scipyCases } from "./prototype-fixtures.ts";
 
 describe("chebyshev1", () => {
   it("matches scipy.signal.cheb1ap for orders 1-64 at 0.5, 1 and 3 dB ripple", () => {

@@ -3,7 +3,7 @@ import fc from "fast-check";
 import { chebyshev2 } from "../../src/approx/chebyshev2.ts";
 import { InvalidArgumentError } from "../../src/errors.ts";
 import { expectClose, expectComplexSetClose } from "../helpers/tolerance.ts";
-import { magnitudeDb, roots, scipyCases } from "./prototypeFixtures.ts";
+import { magnitudeDb, roots, scipyCases } from "./prototype-fixtures.ts";
 
 describe("chebyshev2", () => {
   it("matches scipy.signal.cheb2ap for orders 1-64 at 20, 50 and 80 dB", () => {

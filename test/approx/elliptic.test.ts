@@ -3,7 +3,7 @@ import fc from "fast-check";
 import { elliptic, ellipticStopbandEdge } from "../../src/approx/elliptic.ts";
 import { InvalidArgumentError } from "../../src/errors.ts";
 import { expectClose, expectComplexSetClose } from "../helpers/tolerance.ts";
-import { magnitudeDb, mpmathCases, type PrototypeCase, roots, scipyCases, setError } from "./prototypeFixtures.ts";
+import { magnitudeDb, mpmathCases, type PrototypeCase, roots, scipyCases, setError } from "./prototype-fixtures.ts";
 
 describe("elliptic", () => {
   it("matches scipy.signal.ellipap (1e-10) where scipy is accurate, and the mpmath 50-digit reference (1e-12) everywhere", () => {

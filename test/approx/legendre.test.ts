@@ -4,7 +4,7 @@ import { legendre, legendreL, legendreLCoefficientStrings, legendreMagnitude } f
 import { butterworth } from "../../src/approx/butterworth.ts";
 import { InvalidArgumentError } from "../../src/errors.ts";
 import { expectClose, expectComplexSetClose } from "../helpers/tolerance.ts";
-import { magnitude, mpmathCases, roots } from "./prototypeFixtures.ts";
+import { magnitude, mpmathCases, roots } from "./prototype-fixtures.ts";
 
 describe("legendre", () => {
   it("matches the mpmath 50-digit reference (exact rational L_n, polyroots) for orders 1-20 to 1e-13", () => {

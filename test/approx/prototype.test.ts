@@ -16,7 +16,7 @@ import { legendre } from "../../src/approx/legendre.ts";
 import { FAMILY_NAMES, type FamilyName } from "../../src/approx/types.ts";
 import { InvalidArgumentError } from "../../src/errors.ts";
 import { expectClose } from "../helpers/tolerance.ts";
-import { magnitude, magnitudeDb } from "./prototypeFixtures.ts";
+import { magnitude, magnitudeDb } from "./prototype-fixtures.ts";
 
 const DB3 = 10 * Math.log10(2);
 

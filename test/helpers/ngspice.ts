@@ -1,9 +1,11 @@
 /**
  * Run ngspice in batch mode on a netlist and read back an AC analysis.
  *
- * Tests that need ngspice call {@link requireNgspice}: when ngspice is missing
- * the test is skipped locally but FAILS when the CI environment variable is
- * set, so a CI machine without ngspice can never pass silently.
+ * Tests that need ngspice are declared with `it.skipIf(!requireNgspice())`
+ * (or `describe.skipIf`): when ngspice is missing they show as skipped
+ * locally, but under CI (the CI environment variable set) they run and FAIL,
+ * because every simulation first calls {@link assertNgspice}. So a CI machine
+ * without ngspice can never pass silently, and the file's other tests still run.
  */
 import { spawnSync } from "node:child_process";
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
@@ -22,13 +24,18 @@ export function hasNgspice(): boolean {
 }
 
 /**
- * Whether ngspice tests should run. Throws under CI when ngspice is missing,
- * so the suite fails instead of skipping.
+ * Whether the ngspice tests run, for `it.skipIf(!requireNgspice())`: true when
+ * ngspice is on the PATH, false locally without it (the tests are skipped),
+ * and always true under CI, where a missing ngspice then fails each test in
+ * {@link assertNgspice}.
  */
 export function requireNgspice(): boolean {
-  if (hasNgspice()) return true;
-  if (process.env["CI"]) throw new Error("ngspice is required under CI but was not found on the PATH");
-  return false;
+  return hasNgspice() || Boolean(process.env["CI"]);
+}
+
+/** Throw when ngspice is not on the PATH. Every simulation calls this first. */
+export function assertNgspice(): void {
+  if (!hasNgspice()) throw new Error("ngspice is required (the CI environment variable is set) but was not found on the PATH");
 }
 
 /** One AC sweep read back from ngspice: frequencies (Hz) and complex values of the probed vectors. */
@@ -47,6 +54,7 @@ export interface AcResult {
  * @param nodes - node names to read, e.g. `["out"]`
  */
 export function runAc(netlist: string, nodes: readonly string[]): AcResult {
+  assertNgspice();
   const dir = mkdtempSync(join(tmpdir(), "fw-ngspice-"));
   try {
     const cir = join(dir, "circuit.cir");

@@ -1,15 +1,28 @@
 /**
- * Bad input never yields NaN or a stack trace from deep inside: every
- * function exported from the package root is called with a battery of wrong
+ * Bad input never yields NaN, Infinity or a stack trace from deep inside:
+ * every function exported from the package root and from every subpath export
+ * (the entries of package.json `exports`) is called with a battery of wrong
  * arguments, and each call must either throw a FilterwrightError (typed, with
- * a field path) or return a value that contains no NaN.
+ * a field path) or return a value that contains no NaN and no ±Infinity,
+ * however deep in nested objects, arrays or typed arrays.
  *
  * The complex-arithmetic primitives (cadd, cmul, ...) are the one documented
  * exception: they sit in inner loops and, like the rest of the numerical core,
  * assume valid input (src/math/complex.ts says so in its header).
  */
 import { describe, expect, it } from "vitest";
-import * as fw from "../../src/index.ts";
+import { readFileSync } from "node:fs";
+import { FilterwrightError } from "../../src/errors.ts";
+
+/** The package's entry points, read from package.json `exports`: "." is src/index.ts, "./x" is src/x/index.ts. */
+const subpaths = Object.keys(
+  (JSON.parse(readFileSync(new URL("../../package.json", import.meta.url), "utf8")) as { exports: Record<string, unknown> }).exports,
+).filter((k) => k !== "./package.json");
+const modules: [string, Record<string, unknown>][] = [];
+for (const k of subpaths) {
+  const file = k === "." ? "../../src/index.ts" : `../../src/${k.slice(2)}/index.ts`;
+  modules.push([k === "." ? "filterwright" : `filterwright/${k.slice(2)}`, (await import(file)) as Record<string, unknown>]);
+}
 
 const UNCHECKED_PRIMITIVES = new Set([
   "complex",
@@ -41,33 +54,67 @@ const BAD_ARGUMENTS: readonly (readonly unknown[])[] = [
   [{}, {}],
   [1, { bogus: Number.NaN }],
   [{ re: Number.NaN, im: 0 }],
+  [0],
+  [Number.MAX_VALUE],
+  [Number.MIN_VALUE],
+  [Number.NEGATIVE_INFINITY],
+  [1, Number.POSITIVE_INFINITY],
+  [1, 0],
+  [new Float64Array([Number.POSITIVE_INFINITY])],
+  [[Number.POSITIVE_INFINITY, 1]],
+  [{ re: Number.POSITIVE_INFINITY, im: 0 }],
 ];
 
-function containsNaN(value: unknown, seen = new Set<unknown>()): boolean {
-  if (typeof value === "number") return Number.isNaN(value);
-  if (typeof value !== "object" || value === null || seen.has(value)) return false;
+/** The path of the first NaN or ±Infinity in a value (nested objects, arrays, typed arrays), or null. */
+function firstNonFinite(value: unknown, path = "result", seen = new Set<unknown>()): string | null {
+  if (typeof value === "number") return Number.isFinite(value) ? null : `${path} = ${value}`;
+  if (typeof value !== "object" || value === null || seen.has(value)) return null;
   seen.add(value);
-  if (ArrayBuffer.isView(value)) return Array.from(value as unknown as ArrayLike<number>).some((x) => Number.isNaN(x));
-  return Object.values(value).some((v) => containsNaN(v, seen));
+  if (ArrayBuffer.isView(value) && !(value instanceof DataView)) {
+    const a = value as unknown as ArrayLike<number>;
+    for (let i = 0; i < a.length; i++) if (!Number.isFinite(a[i])) return `${path}[${i}] = ${a[i]}`;
+    return null;
+  }
+  for (const [k, v] of Object.entries(value)) {
+    const found = firstNonFinite(v, `${path}.${k}`, seen);
+    if (found !== null) return found;
+  }
+  return null;
 }
 
-const functions = Object.entries(fw).filter(
-  ([name, f]) => typeof f === "function" && !/^[A-Z]/.test(name) && !UNCHECKED_PRIMITIVES.has(name),
-) as [string, (...args: unknown[]) => unknown][];
+/** Every public function once (a function exported from the root and a subpath is called once), named by where it is first exported. */
+const functions: [string, (...args: unknown[]) => unknown][] = [];
+const listed = new Set<unknown>();
+for (const [entry, mod] of modules) {
+  for (const [name, f] of Object.entries(mod)) {
+    if (typeof f !== "function" || /^[A-Z]/.test(name) || UNCHECKED_PRIMITIVES.has(name) || listed.has(f)) continue;
+    listed.add(f);
+    functions.push([`${entry}: ${name}`, f as (...args: unknown[]) => unknown]);
+  }
+}
 
 describe("every public function rejects bad input with a typed error", () => {
-  it("covers the public API", () => {
+  it("covers the public API: the root and every subpath export", () => {
+    expect(modules.map(([entry]) => entry)).toContain("filterwright/topologies");
+    expect(modules.length).toBe(subpaths.length);
     expect(functions.length).toBeGreaterThan(80);
+  });
+
+  it("finds NaN and ±Infinity at any depth of a result", () => {
+    expect(firstNonFinite({ a: [1, { b: new Float64Array([0, Number.NEGATIVE_INFINITY]) }] })).toBe("result.a.1.b[1] = -Infinity");
+    expect(firstNonFinite([{ x: Number.POSITIVE_INFINITY }])).toBe("result.0.x = Infinity");
+    expect(firstNonFinite({ re: new Float32Array([Number.NaN]) })).toBe("result.re[0] = NaN");
+    expect(firstNonFinite({ ok: [1, -2, 1e308], text: "Infinity" })).toBeNull();
   });
 
   it.each(functions)("%s", (_name, f) => {
     const problems: string[] = [];
     for (const args of BAD_ARGUMENTS) {
       try {
-        const r = f(...args);
-        if (containsNaN(r)) problems.push(`returned NaN for ${JSON.stringify(args)}`);
+        const bad = firstNonFinite(f(...args));
+        if (bad !== null) problems.push(`returned ${bad} for ${JSON.stringify(args)}`);
       } catch (e) {
-        if (!(e instanceof fw.FilterwrightError)) {
+        if (!(e instanceof FilterwrightError)) {
           problems.push(`threw ${(e as Error)?.constructor?.name} for ${JSON.stringify(args)}: ${(e as Error)?.message}`);
         } else {
           expect(e.fn.length).toBeGreaterThan(0);

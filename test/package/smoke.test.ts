@@ -9,6 +9,7 @@ import { existsSync, readFileSync } from "node:fs";
 import { spawnSync } from "node:child_process";
 import { fileURLToPath } from "node:url";
 import { dirname, join } from "node:path";
+import * as source from "../../src/index.ts";
 
 const root = join(dirname(fileURLToPath(import.meta.url)), "..", "..");
 const built = existsSync(join(root, "dist", "index.js"));
@@ -32,5 +33,12 @@ describe.skipIf(!built)("built package", () => {
     expect(esm.length).toBeGreaterThan(0);
     expect(cjs).toEqual(esm);
     expect(esm).not.toContain("default");
+  });
+
+  it("the built root exposes the names of src/index.ts, and no layer's internals", () => {
+    const esm = JSON.parse(run(`const m = await import("filterwright"); console.log(JSON.stringify(Object.keys(m).sort()))`, "module")) as string[];
+    expect(esm).toEqual(Object.keys(source).sort());
+    expect(esm).not.toContain("GBW_DEMAND_A0");
+    expect(esm).not.toContain("DEFAULT_LEVEL_OHMS");
   });
 });

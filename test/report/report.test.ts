@@ -3,6 +3,7 @@ import { designFilter, type FilterSpec } from "../../src/design/index.ts";
 import { bomLines, fromJson, toBomCsv, toJson, toMarkdown, toSpiceNetlist } from "../../src/report/index.ts";
 import { InvalidArgumentError, ParseError } from "../../src/errors.ts";
 import { parseValue } from "../../src/units/index.ts";
+import { thrownBy } from "../helpers/throws.ts";
 
 const spec: FilterSpec = {
   response: "lowpass",
@@ -78,13 +79,7 @@ describe("toJson / fromJson", () => {
     const bad = structuredClone(data);
     const first = Object.keys(bad.result.stages[0].components)[0] as string;
     bad.result.stages[0].components[first] = -1;
-    try {
-      fromJson(JSON.stringify(bad));
-      expect.fail("expected a ParseError");
-    } catch (e) {
-      expect(e).toBeInstanceOf(ParseError);
-      expect((e as ParseError).path).toBe(`result.stages.0.components.${first}`);
-    }
+    expect(thrownBy(() => fromJson(JSON.stringify(bad)), ParseError).path).toBe(`result.stages.0.components.${first}`);
     const badSpec = structuredClone(data);
     badSpec.result.spec.maxLossDb = "x";
     expect(() => fromJson(JSON.stringify(badSpec))).toThrow(ParseError);

@@ -23,6 +23,12 @@ function sampleTarget(t: DefinedTopology): StageTarget {
   };
 }
 
+/** (a.re + j a.im) / (b.re + j b.im) as [re, im]. */
+function divide([ar, ai]: readonly [number, number], [br, bi]: readonly [number, number]): [number, number] {
+  const d = br * br + bi * bi;
+  return [(ar * br + ai * bi) / d, (ai * br - ar * bi) / d];
+}
+
 describe("Topology.gbwDemandHz", () => {
   it("matches numpy roots of hand-derived characteristic polynomials to 0.2 %", () => {
     for (const c of fixture.cases) {
@@ -31,12 +37,32 @@ describe("Topology.gbwDemandHz", () => {
     }
   });
 
-  for (const topo of topologies as readonly DefinedTopology[]) {
+  // A first-order stage's criterion is its response at f0: within the change a 1 % shift of f0 makes there.
+  const [limitRe, limitIm] = divide([1, 1], [1, 1 / 1.01]);
+  const firstOrderLimit = Math.hypot(limitRe - 1, limitIm);
+  for (const topo of (topologies as readonly DefinedTopology[]).filter((t) => t.order === 1)) {
+    it(`${topo.id}: the demand keeps the response at f0 within a 1 % f0 shift and a GBW 2 % lower does not`, () => {
+      const target = sampleTarget(topo);
+      const d = topo.gbwDemandHz(target);
+      expect(Number.isFinite(d) && d > target.f0Hz).toBe(true);
+      const v = topo.design(target, {});
+      const f = new Float64Array([topo.figures(v).f0Hz]);
+      const ideal = topo.response(v, f, { kind: "ideal" });
+      const at = (g: number) => {
+        const h = topo.response(v, f, { kind: "single-pole", a0: GBW_DEMAND_A0, gbwHz: g });
+        const [re, im] = divide([h.re[0] as number, h.im[0] as number], [ideal.re[0] as number, ideal.im[0] as number]);
+        return Math.hypot(re - 1, im);
+      };
+      expect(at(d)).toBeLessThanOrEqual(firstOrderLimit * (1 + 1e-9));
+      expect(at(d / 1.02)).toBeGreaterThan(firstOrderLimit);
+    });
+  }
+
+  for (const topo of (topologies as readonly DefinedTopology[]).filter((t) => t.order === 2)) {
     it(`${topo.id}: the demand keeps the pole within 1 % and a GBW 2 % lower does not`, () => {
       const target = sampleTarget(topo);
       const d = topo.gbwDemandHz(target);
       expect(Number.isFinite(d) && d > target.f0Hz).toBe(true);
-      if (topo.order === 1) return; // response criterion, covered by the fixture
       const v = topo.design(target, {});
       const ideal = topo.figures(v);
       const at = (g: number) => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { formatSectionTable, sectionTable } from "../../src/approx/sectionTable.ts";
+import { formatSectionTable, sectionTable } from "../../src/approx/section-table.ts";
 import { butterworth } from "../../src/approx/butterworth.ts";
 import { bessel } from "../../src/approx/bessel.ts";
 import { chebyshev1 } from "../../src/approx/chebyshev1.ts";
