@@ -3,8 +3,12 @@
  * prototype with a little of the mask's slack kept back for part rounding.
  *
  * The minimum order comes from the approximation layer's order formulas and is
- * then confirmed (or raised) by checking the actual prototype against the mask
- * (see placement.ts). For the equiripple families the prototype is designed
+ * then confirmed (or raised) by checking the actual prototype against the mask:
+ * the prototype meets it when placement.ts finds a non-empty interval for it.
+ * This module returns the family, the order and the prototype; placing the
+ * prototype (its interval) is the next step's business.
+ *
+ * For the equiripple families the prototype is designed
  * with a smaller ripple and/or a larger stopband attenuation than the spec
  * allows whenever the minimum order has room for it, so the ripple valleys and
  * stopband peaks keep a dB margin that part rounding can use (common practice,
@@ -17,15 +21,8 @@ import { groupDelay, logGrid } from "../tf/index.ts";
 import { minimumOrder, prototype, type FamilyName } from "../approx/index.ts";
 import { topologiesFor } from "../topologies/index.ts";
 import type { DesignSpec } from "./spec.ts";
-import {
-  feasibleInterval,
-  intervalWidth,
-  placeInInterval,
-  prototypeEdges,
-  transformPrototype,
-  type FeasibleInterval,
-  type PrototypeEdges,
-} from "./placement.ts";
+import { TWO_PI } from "../units/constants.ts";
+import { intervalWidth, placeInInterval, prototypeInterval, transformPrototype } from "./placement.ts";
 import type { FamilyCandidate, FamilyChoice } from "./types.ts";
 
 /** Highest prototype order the automatic choices consider. */
@@ -64,8 +61,8 @@ const TYPICAL_FREQUENCY_ERROR = 0.003;
 const TYPICAL_PASSBAND_DB_ERROR = 0.05;
 const TYPICAL_STOPBAND_DB_ERROR = 0.5;
 
-/** A prototype with its edges and the interval it leaves. */
-export interface PrototypeDesign {
+/** A normalised lowpass prototype of a family and order, with the margins it was designed with. */
+export interface Prototype {
   /** Family. */
   readonly family: FamilyName;
   /** Prototype order. */
@@ -76,10 +73,6 @@ export interface PrototypeDesign {
   readonly rippleDb?: number;
   /** Design attenuation, dB (Chebyshev II, elliptic). */
   readonly attenuationDb?: number;
-  /** W_p*, W_s* of the prototype against the spec's Ap, As. */
-  readonly edges: PrototypeEdges;
-  /** Feasible interval of the transform parameter. */
-  readonly interval: FeasibleInterval;
 }
 
 /**
@@ -89,14 +82,14 @@ export interface PrototypeDesign {
  * @param family - family
  * @param order - prototype order
  * @param level - how much ripple/attenuation margin to design in
- * @returns the prototype and its feasible interval
+ * @returns the prototype
  */
 export function designPrototype(
   spec: DesignSpec,
   family: FamilyName,
   order: number,
   level: MarginLevel,
-): PrototypeDesign {
+): Prototype {
   const rippleDb = spec.maxLossDb * level.rippleFraction;
   const attenuationDb = spec.minAttenuationDb + level.extraAttenuationDb;
   let zpk: Zpk;
@@ -116,11 +109,10 @@ export function designPrototype(
     default:
       zpk = prototype({ family, order });
   }
-  const edges = prototypeEdges(zpk, spec.maxLossDb, spec.minAttenuationDb);
-  const interval = feasibleInterval(spec, edges);
-  const base = { family, order, zpk, edges, interval };
   return {
-    ...base,
+    family,
+    order,
+    zpk,
     ...(family === "chebyshev1" || family === "elliptic" ? { rippleDb } : {}),
     ...(family === "chebyshev2" || family === "elliptic" ? { attenuationDb } : {}),
   };
@@ -128,7 +120,13 @@ export function designPrototype(
 
 const EXACT: MarginLevel = MARGIN_LEVELS[MARGIN_LEVELS.length - 1] as MarginLevel;
 
-function isEquiripple(family: FamilyName): boolean {
+/** Log-width of the interval in which the prototype's exact design meets the mask (negative: it cannot). */
+function slackOf(spec: DesignSpec, p: Prototype): number {
+  return intervalWidth(prototypeInterval(spec, p.zpk));
+}
+
+/** Whether a family is equiripple (its prototype can hold back part of the ripple or attenuation). */
+export function isEquiripple(family: FamilyName): boolean {
   return family === "chebyshev1" || family === "chebyshev2" || family === "elliptic";
 }
 
@@ -144,8 +142,8 @@ export function familyMinimumOrder(spec: DesignSpec, family: FamilyName, maxOrde
     const est = minimumOrder({
       family,
       response: spec.response,
-      passbandW: spec.passbandHz.map((f) => 2 * Math.PI * f),
-      stopbandW: spec.stopbandHz.map((f) => 2 * Math.PI * f),
+      passbandW: spec.passbandHz.map((f) => TWO_PI * f),
+      stopbandW: spec.stopbandHz.map((f) => TWO_PI * f),
       passbandLossDb: spec.maxLossDb,
       stopbandAttenuationDb: spec.minAttenuationDb,
     } as Parameters<typeof minimumOrder>[0]);
@@ -155,13 +153,9 @@ export function familyMinimumOrder(spec: DesignSpec, family: FamilyName, maxOrde
     start = 1;
   }
   for (let n = start; n <= maxOrder; n++) {
-    const p = designPrototype(spec, family, n, EXACT);
-    if (intervalWidth(p.interval) >= 0) {
+    if (slackOf(spec, designPrototype(spec, family, n, EXACT)) >= 0) {
       // The formula may overestimate by one; check the order below as well.
-      if (n === start && n > 1) {
-        const below = designPrototype(spec, family, n - 1, EXACT);
-        if (intervalWidth(below.interval) >= 0) return n - 1;
-      }
+      if (n === start && n > 1 && slackOf(spec, designPrototype(spec, family, n - 1, EXACT)) >= 0) return n - 1;
       return n;
     }
   }
@@ -177,15 +171,15 @@ export function familyMinimumOrder(spec: DesignSpec, family: FamilyName, maxOrde
  * smaller-of-the-two wins (common practice, no source). The exact level is
  * used when the order is too low to meet the mask at all.
  */
-export function choosePrototype(spec: DesignSpec, family: FamilyName, order: number): PrototypeDesign {
+export function choosePrototype(spec: DesignSpec, family: FamilyName, order: number): Prototype {
   const exact = designPrototype(spec, family, order, EXACT);
-  const full = intervalWidth(exact.interval);
+  const full = slackOf(spec, exact);
   if (!isEquiripple(family) || !(full > 0)) return exact;
   let best = exact;
   let bestScore = 0;
   for (const level of MARGIN_LEVELS.slice(0, -1)) {
     const p = designPrototype(spec, family, order, level);
-    const width = intervalWidth(p.interval);
+    const width = slackOf(spec, p);
     if (!(width > 0)) continue;
     const freq = width / 2 / TYPICAL_FREQUENCY_ERROR;
     const passDb = (spec.maxLossDb * (1 - level.rippleFraction)) / TYPICAL_PASSBAND_DB_ERROR;
@@ -198,6 +192,27 @@ export function choosePrototype(spec: DesignSpec, family: FamilyName, order: num
     }
   }
   return best;
+}
+
+/**
+ * The margin levels stricter than the prototype's own, for redesigning an
+ * equiripple prototype with more dB margin: at most three of them (the
+ * nearest, a middle one and the strictest), least strict first. Empty for the
+ * other families.
+ *
+ * @param spec - canonical spec
+ * @param proto - the prototype as designed
+ * @returns the levels to try, in order
+ */
+export function stricterLevels(spec: DesignSpec, proto: Prototype): MarginLevel[] {
+  if (!isEquiripple(proto.family)) return [];
+  const current = proto.rippleDb !== undefined ? proto.rippleDb / spec.maxLossDb : 1;
+  const extra = proto.attenuationDb !== undefined ? proto.attenuationDb - spec.minAttenuationDb : 0;
+  const stricter = MARGIN_LEVELS.filter(
+    (l) => l.rippleFraction < current - 1e-12 || l.extraAttenuationDb > extra + 1e-12,
+  ).reverse();
+  if (stricter.length <= 3) return stricter;
+  return [stricter[0], stricter[Math.floor(stricter.length / 2)], stricter[stricter.length - 1]] as MarginLevel[];
 }
 
 /** Number of stages a prototype order needs for the spec's response. */
@@ -220,9 +235,10 @@ function opampEstimate(spec: DesignSpec, family: FamilyName, order: number): num
   return stages * notchOpamps;
 }
 
-function delayVariation(spec: DesignSpec, p: PrototypeDesign): number {
-  const zpk = transformPrototype(spec, p.zpk, p.interval, placeInInterval(p.interval, 0.5));
-  const pb = spec.passbandHz.map((f) => 2 * Math.PI * f);
+function delayVariation(spec: DesignSpec, p: Prototype): number {
+  const interval = prototypeInterval(spec, p.zpk);
+  const zpk = transformPrototype(spec, p.zpk, interval, placeInInterval(interval, 0.5));
+  const pb = spec.passbandHz.map((f) => TWO_PI * f);
   let w: Float64Array;
   if (spec.response === "lowpass") w = logGrid((pb[0] as number) / 100, pb[0] as number, 200);
   else if (spec.response === "highpass") w = logGrid(pb[0] as number, (pb[0] as number) * 100, 200);
@@ -288,13 +304,12 @@ export function chooseFamily(spec: DesignSpec): {
       ...(delay === undefined ? {} : { delayVariation: delay }),
     });
     if (order !== null && pool.includes(family)) {
-      const p = designPrototype(spec, family, order, EXACT);
       scored.push({
         family,
         order,
         stages: stages as number,
         opamps: opampEstimate(spec, family, order),
-        slack: intervalWidth(p.interval),
+        slack: slackOf(spec, designPrototype(spec, family, order, EXACT)),
         delay: delay ?? 0,
       });
     }
