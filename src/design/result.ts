@@ -8,6 +8,7 @@
 import type { OpAmpModel } from "../circuit/types.ts";
 import type { FamilyName } from "../approx/index.ts";
 import { asBuiltPole } from "../topologies/index.ts";
+import type { AsBuiltPole } from "../topologies/as-built.ts";
 import type { StageFigures } from "../topologies/types.ts";
 import { formatValue } from "../units/index.ts";
 import { TWO_PI } from "../units/constants.ts";
@@ -19,7 +20,7 @@ import type { PredistortionOutcome } from "./predistort.ts";
 import { checkMask, partialPeaks, responseCurve, type BuiltStage } from "./verify.ts";
 import { boardStages, polarityMet, type Attempt } from "./attempt.ts";
 import { significant } from "./text.ts";
-import type { StageFigureSet, DesignAction, DesignResult, DesignStage, DesignWarning, FamilyChoice, Placement, Verification } from "./types.ts";
+import type { DesignAction, DesignResult, DesignStage, DesignWarning, FamilyChoice, Placement, Verification } from "./types.ts";
 
 const IDEAL: OpAmpModel = { kind: "ideal" };
 /** Capacitor ratio above which a warning is given: the same decade of spread that topology choice avoids (common practice, no source). */
@@ -61,7 +62,7 @@ function designators(plans: readonly StagePlan[], sets: readonly ValueSet[]): St
 }
 
 /** The figures as stored in a result: only the fields that are set. */
-function storedFigures(f: StageFigures): StageFigureSet {
+function storedFigures(f: StageFigures): StageFigures {
   return {
     f0Hz: f.f0Hz,
     ...(f.q === undefined ? {} : { q: f.q }),
@@ -127,7 +128,7 @@ function opampWarnings(spec: DesignSpec, index: number, pd: PredistortionOutcome
 }
 
 /** The pole the values on the board have with the spec's op-amp (from the value search, or found here); undefined with an ideal op-amp or when none is found. */
-function poleWithOpamp(spec: DesignSpec, plan: StagePlan, set: ValueSet): ValueSet["withOpamp"] {
+function poleWithOpamp(spec: DesignSpec, plan: StagePlan, set: ValueSet): AsBuiltPole | undefined {
   if (set.withOpamp !== undefined || spec.opamp.kind === "ideal") return set.withOpamp;
   try {
     return asBuiltPole(plan.topology, set.values, spec.opamp);
