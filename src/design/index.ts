@@ -6,6 +6,7 @@
  */
 export {
   validateSpec,
+  checkSpec,
   specToInput,
   MAX_SPEC_ORDER,
   type FilterSpec,
