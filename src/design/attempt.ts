@@ -149,7 +149,7 @@ function tuneCascade(spec: DesignSpec, exactPlans: readonly StagePlan[], wide: b
       });
     }
     const gainPredistortion = pd?.ok === true && plan.topology.fixedGain === undefined ? pd.gainFactor : 1;
-    carried *= t.best.figures.gain / plan.target.gain;
+    carried *= t.best.figures.gain / gainPredistortion / exact.target.gain;
     for (const [k, v] of Object.entries(t.best.values)) if (k.startsWith("C")) usedCaps.add(v);
     out.plans.push(plan);
     out.tuned.push(t);
