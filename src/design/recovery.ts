@@ -290,7 +290,7 @@ export function searchDesign(spec: DesignSpec, family: FamilyName, orders: Order
     const outcome = designAtOrder(spec, family, order, { placement: order === orders.first, actions });
     final = outcome.attempt;
     if (outcome.laddered && !outcome.met) bestMiss = bestMiss === null ? final : better(bestMiss, final);
-    if (outcome.met || outcome.opampTooSlow || spec.order !== null || (order === orders.last && outcome.laddered)) break;
+    if (outcome.met || outcome.opampTooSlow || spec.order !== null || order === orders.last) break;
     const why = outcome.laddered ? "still missed the mask after re-tuning and moving the design" : "cannot meet the mask";
     actions.push({ code: "raised-order", message: `Order ${order} ${why}; raised the order to ${order + 1}.` });
   }
