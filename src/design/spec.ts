@@ -638,9 +638,22 @@ function readSpec(spec: unknown): { readonly issues: readonly Issue[]; readonly 
   };
 }
 
+/** A copy of a received value that is plain JSON-safe data: non-finite numbers become their text (`"NaN"`, `"Infinity"`). */
+function jsonSafe(value: unknown, seen = new Set<unknown>()): unknown {
+  if (typeof value === "number") return Number.isFinite(value) ? value : String(value);
+  if (typeof value !== "object" || value === null) return value;
+  if (seen.has(value)) return "[circular]";
+  seen.add(value);
+  if (Array.isArray(value)) return value.map((v) => jsonSafe(v, seen));
+  return Object.fromEntries(Object.entries(value).map(([k, v]) => [k, jsonSafe(v, seen)]));
+}
+
 /**
  * Check a filter specification without throwing: every problem
- * {@link validateSpec} would report, as data.
+ * {@link validateSpec} would report, as data. The issues are those of the
+ * {@link SpecError} `validateSpec` throws, with the same paths and messages;
+ * a received value is copied as JSON-safe data (a non-finite number as its
+ * text, `"NaN"`), so no NaN leaves the library in a returned value.
  *
  * @param spec - the specification as written (from code or parsed JSON)
  * @returns the issues, each with the dotted path of its field, a message and the value received; empty when the spec is valid
@@ -655,7 +668,7 @@ function readSpec(spec: unknown): { readonly issues: readonly Issue[]; readonly 
  * ```
  */
 export function checkSpec(spec: unknown): readonly Issue[] {
-  return readSpec(spec).issues;
+  return readSpec(spec).issues.map((i) => ("received" in i ? { ...i, received: jsonSafe(i.received) } : i));
 }
 
 /**

@@ -180,3 +180,15 @@ describe("checkSpec", () => {
     expect(checkSpec(spec).map((i) => i.path)).toEqual(["response"]);
   });
 });
+
+describe("checkSpec received values", () => {
+  it("copies a non-finite received number as its text, so the returned issues hold no NaN", () => {
+    const issues = checkSpec({ ...base, passband: { edgeHz: Number.NaN, maxLossDb: Number.POSITIVE_INFINITY } });
+    expect(issues.map((i) => [i.path, i.received])).toEqual([
+      ["passband.edgeHz", "NaN"],
+      ["passband.maxLossDb", "Infinity"],
+    ]);
+    expect(checkSpec({ ...base, extra: { re: Number.NaN } }).map((i) => i.received)).toEqual([{ re: "NaN" }]);
+    expect(checkSpec([Number.NaN])[0]?.received).toEqual(["NaN"]);
+  });
+});
