@@ -258,36 +258,48 @@ function delayVariation(spec: DesignSpec, p: Prototype): number {
   return lo > 0 ? hi / lo - 1 : Infinity;
 }
 
-/**
- * Choose the family (or take the named one) and its minimum order.
- *
- * @param spec - canonical spec
- * @returns the family, the minimum order (null when the named family cannot meet the mask within the order limit) and the choice record
- */
-export function chooseFamily(spec: DesignSpec): {
+/** The family, its minimum order and the record of the choice. */
+export interface FamilyOutcome {
+  /** The family. */
   readonly family: FamilyName;
+  /** Its minimum order, `null` when none up to the limit meets the mask. */
   readonly order: number | null;
+  /** How it was chosen. */
   readonly choice: FamilyChoice;
-} {
-  if (spec.family !== "auto") {
-    const order = familyMinimumOrder(spec, spec.family, 16);
-    return {
-      family: spec.family,
-      order,
-      choice: {
-        automatic: false,
-        priority: null,
-        candidates: [],
-        reason:
-          order === null
-            ? `The spec names the ${spec.family} family; no ${spec.family} order up to 16 meets the mask, so the design uses order 16 (or the spec's fixed order) and reports its margins.`
-            : `The spec names the ${spec.family} family.`,
-      },
-    };
-  }
-  const pool = spec.priority === "monotonic" ? ALL_FAMILIES.filter((f) => MONOTONIC.has(f)) : ALL_FAMILIES;
+}
+
+/** A family that meets the mask, with what the automatic choice compares. */
+interface Scored {
+  readonly family: FamilyName;
+  readonly order: number;
+  readonly stages: number;
+  readonly opamps: number;
+  readonly slack: number;
+  readonly delay: number;
+}
+
+/** The family the spec names, with its minimum order up to 16. */
+function namedFamily(spec: DesignSpec, family: FamilyName): FamilyOutcome {
+  const order = familyMinimumOrder(spec, family, 16);
+  return {
+    family,
+    order,
+    choice: {
+      automatic: false,
+      priority: null,
+      candidates: [],
+      reason:
+        order === null
+          ? `The spec names the ${family} family; no ${family} order up to 16 meets the mask, so the design uses order 16 (or the spec's fixed order) and reports its margins.`
+          : `The spec names the ${family} family.`,
+    },
+  };
+}
+
+/** Every family's minimum order and figures (the candidates), and those of the pool that meet the mask (scored). */
+function compareFamilies(spec: DesignSpec, pool: readonly FamilyName[]): { candidates: FamilyCandidate[]; scored: Scored[] } {
   const candidates: FamilyCandidate[] = [];
-  const scored: { family: FamilyName; order: number; stages: number; opamps: number; slack: number; delay: number }[] = [];
+  const scored: Scored[] = [];
   for (const family of ALL_FAMILIES) {
     const order = familyMinimumOrder(spec, family, AUTO_MAX_ORDER);
     const stages = order === null ? null : stageCount(spec, order);
@@ -314,21 +326,12 @@ export function chooseFamily(spec: DesignSpec): {
       });
     }
   }
-  if (scored.length === 0) {
-    // Nothing meets the mask within the limit: fall back to the most selective family at the limit.
-    const family: FamilyName = spec.priority === "monotonic" ? "chebyshev2" : "elliptic";
-    return {
-      family,
-      order: null,
-      choice: {
-        automatic: true,
-        priority: spec.priority,
-        candidates,
-        reason: `No ${spec.priority === "monotonic" ? "monotonic " : ""}family meets the mask with a prototype order up to ${AUTO_MAX_ORDER}; ${family} is the most selective candidate and is used at that limit.`,
-      },
-    };
-  }
-  let best = scored[0] as (typeof scored)[number];
+  return { candidates, scored };
+}
+
+/** The best of the scored families under the spec's priority (ties: more slack). */
+function bestFamily(spec: DesignSpec, scored: readonly Scored[]): Scored {
+  let best = scored[0] as Scored;
   for (const c of scored.slice(1)) {
     if (spec.priority === "flattest-delay") {
       if (c.delay < best.delay - 1e-12) best = c;
@@ -342,6 +345,11 @@ export function chooseFamily(spec: DesignSpec): {
       (c[first] === best[first] && c[second] === best[second] && c.slack > best.slack);
     if (better) best = c;
   }
+  return best;
+}
+
+/** Why the best family won, with every scored family's minimum order. */
+function choiceReason(spec: DesignSpec, best: Scored, scored: readonly Scored[]): string {
   const list = scored
     .map((c) =>
       spec.priority === "flattest-delay"
@@ -357,14 +365,37 @@ export function chooseFamily(spec: DesignSpec): {
         : spec.priority === "fewest-op-amps"
           ? `${best.family} needs the fewest op-amps, then the fewest stages, then leaves the most room for part rounding`
           : `${best.family} needs the fewest stages, then the fewest op-amps, then leaves the most room for part rounding`;
+  return `Priority ${spec.priority}: ${why}. Minimum orders: ${list}.`;
+}
+
+/**
+ * Choose the family (or take the named one) and its minimum order.
+ *
+ * @param spec - canonical spec
+ * @returns the family, the minimum order (null when the named family cannot meet the mask within the order limit) and the choice record
+ */
+export function chooseFamily(spec: DesignSpec): FamilyOutcome {
+  if (spec.family !== "auto") return namedFamily(spec, spec.family);
+  const pool = spec.priority === "monotonic" ? ALL_FAMILIES.filter((f) => MONOTONIC.has(f)) : ALL_FAMILIES;
+  const { candidates, scored } = compareFamilies(spec, pool);
+  if (scored.length === 0) {
+    // Nothing meets the mask within the limit: fall back to the most selective family at the limit.
+    const family: FamilyName = spec.priority === "monotonic" ? "chebyshev2" : "elliptic";
+    return {
+      family,
+      order: null,
+      choice: {
+        automatic: true,
+        priority: spec.priority,
+        candidates,
+        reason: `No ${spec.priority === "monotonic" ? "monotonic " : ""}family meets the mask with a prototype order up to ${AUTO_MAX_ORDER}; ${family} is the most selective candidate and is used at that limit.`,
+      },
+    };
+  }
+  const best = bestFamily(spec, scored);
   return {
     family: best.family,
     order: best.order,
-    choice: {
-      automatic: true,
-      priority: spec.priority,
-      candidates,
-      reason: `Priority ${spec.priority}: ${why}. Minimum orders: ${list}.`,
-    },
+    choice: { automatic: true, priority: spec.priority, candidates, reason: choiceReason(spec, best, scored) },
   };
 }
