@@ -12,8 +12,7 @@
  *
  * @module
  */
-import type { DesignSpec } from "./spec.ts";
-import { validateSpec } from "./spec.ts";
+import { validateSpec, type DesignSpec } from "./spec.ts";
 import { chooseFamily } from "./family.ts";
 import { orderRange, searchDesign } from "./recovery.ts";
 import { assembleResult } from "./result.ts";
@@ -45,9 +44,9 @@ export { LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./result.ts";
  * ```
  */
 export function designFilter(spec: unknown): DesignResult {
-  const s: DesignSpec = validateSpec(spec);
-  const { family, order, choice } = chooseFamily(s);
-  const orders = orderRange(s, order);
-  const { attempt, actions } = searchDesign(s, family, orders);
-  return assembleResult(s, { family, choice, minimumOrder: orders.minimum, actions }, attempt);
+  const canonical: DesignSpec = validateSpec(spec);
+  const { family, order, choice } = chooseFamily(canonical);
+  const orders = orderRange(canonical, order);
+  const { attempt, actions } = searchDesign(canonical, family, orders);
+  return assembleResult(canonical, { family, choice, minimumOrder: orders.minimum, actions }, attempt);
 }
