@@ -37,6 +37,7 @@
 import { isInSeries, nextInSeries, seriesValuesInRange, snapToSeries } from "../parts/index.ts";
 import type { OpAmpModel } from "../circuit/types.ts";
 import { asBuiltPole } from "../topologies/index.ts";
+import type { AsBuiltPole } from "../topologies/as-built.ts";
 import type { ComponentValues, StageChoices, StageFigures, StageTarget, Topology } from "../topologies/types.ts";
 import type { DesignSpec } from "./spec.ts";
 import type { StageErrors } from "./types.ts";
@@ -52,7 +53,7 @@ export interface ValueSet {
   /** Scalar error used for ranking. */
   readonly cost: number;
   /** The pole these values have with the op-amp (set only under op-amp scoring). */
-  readonly withOpamp?: { readonly f0Hz: number; readonly q?: number };
+  readonly withOpamp?: AsBuiltPole;
 }
 
 /** Result of tuning one stage. */
@@ -396,7 +397,7 @@ function localTarget(t: Topology, target: StageTarget, exact: ComponentValues, s
 
 /** The same set scored by its pole with the op-amp; null when that pole cannot be found. */
 function rescore(t: Topology, v: ValueSet, target: StageTarget, scoring: OpampScoring): ValueSet | null {
-  let pole: { f0Hz: number; q?: number };
+  let pole: AsBuiltPole;
   try {
     pole = asBuiltPole(t, v.values, scoring.opamp);
   } catch {

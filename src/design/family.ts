@@ -3,8 +3,12 @@
  * prototype with a little of the mask's slack kept back for part rounding.
  *
  * The minimum order comes from the approximation layer's order formulas and is
- * then confirmed (or raised) by checking the actual prototype against the mask
- * (see placement.ts). For the equiripple families the prototype is designed
+ * then confirmed (or raised) by checking the actual prototype against the mask:
+ * the prototype meets it when placement.ts finds a non-empty interval for it.
+ * This module returns the family, the order and the prototype; placing the
+ * prototype (its interval) is the next step's business.
+ *
+ * For the equiripple families the prototype is designed
  * with a smaller ripple and/or a larger stopband attenuation than the spec
  * allows whenever the minimum order has room for it, so the ripple valleys and
  * stopband peaks keep a dB margin that part rounding can use (common practice,
@@ -17,15 +21,8 @@ import { groupDelay, logGrid } from "../tf/index.ts";
 import { minimumOrder, prototype, type FamilyName } from "../approx/index.ts";
 import { topologiesFor } from "../topologies/index.ts";
 import type { DesignSpec } from "./spec.ts";
-import {
-  feasibleInterval,
-  intervalWidth,
-  placeInInterval,
-  prototypeEdges,
-  transformPrototype,
-  type FeasibleInterval,
-  type PrototypeEdges,
-} from "./placement.ts";
+import { TWO_PI } from "../units/constants.ts";
+import { intervalWidth, placeInInterval, prototypeInterval, transformPrototype } from "./placement.ts";
 import type { FamilyCandidate, FamilyChoice } from "./types.ts";
 
 /** Highest prototype order the automatic choices consider. */
@@ -64,8 +61,8 @@ const TYPICAL_FREQUENCY_ERROR = 0.003;
 const TYPICAL_PASSBAND_DB_ERROR = 0.05;
 const TYPICAL_STOPBAND_DB_ERROR = 0.5;
 
-/** A prototype with its edges and the interval it leaves. */
-export interface PrototypeDesign {
+/** A normalised lowpass prototype of a family and order, with the margins it was designed with. */
+export interface Prototype {
   /** Family. */
   readonly family: FamilyName;
   /** Prototype order. */
@@ -76,10 +73,6 @@ export interface PrototypeDesign {
   readonly rippleDb?: number;
   /** Design attenuation, dB (Chebyshev II, elliptic). */
   readonly attenuationDb?: number;
-  /** W_p*, W_s* of the prototype against the spec's Ap, As. */
-  readonly edges: PrototypeEdges;
-  /** Feasible interval of the transform parameter. */
-  readonly interval: FeasibleInterval;
 }
 
 /**
@@ -89,14 +82,14 @@ export interface PrototypeDesign {
  * @param family - family
  * @param order - prototype order
  * @param level - how much ripple/attenuation margin to design in
- * @returns the prototype and its feasible interval
+ * @returns the prototype
  */
 export function designPrototype(
   spec: DesignSpec,
   family: FamilyName,
   order: number,
   level: MarginLevel,
-): PrototypeDesign {
+): Prototype {
   const rippleDb = spec.maxLossDb * level.rippleFraction;
   const attenuationDb = spec.minAttenuationDb + level.extraAttenuationDb;
   let zpk: Zpk;
@@ -116,11 +109,10 @@ export function designPrototype(
     default:
       zpk = prototype({ family, order });
   }
-  const edges = prototypeEdges(zpk, spec.maxLossDb, spec.minAttenuationDb);
-  const interval = feasibleInterval(spec, edges);
-  const base = { family, order, zpk, edges, interval };
   return {
-    ...base,
+    family,
+    order,
+    zpk,
     ...(family === "chebyshev1" || family === "elliptic" ? { rippleDb } : {}),
     ...(family === "chebyshev2" || family === "elliptic" ? { attenuationDb } : {}),
   };
@@ -128,7 +120,13 @@ export function designPrototype(
 
 const EXACT: MarginLevel = MARGIN_LEVELS[MARGIN_LEVELS.length - 1] as MarginLevel;
 
-function isEquiripple(family: FamilyName): boolean {
+/** Log-width of the interval in which the prototype's exact design meets the mask (negative: it cannot). */
+function slackOf(spec: DesignSpec, p: Prototype): number {
+  return intervalWidth(prototypeInterval(spec, p.zpk));
+}
+
+/** Whether a family is equiripple (its prototype can hold back part of the ripple or attenuation). */
+export function isEquiripple(family: FamilyName): boolean {
   return family === "chebyshev1" || family === "chebyshev2" || family === "elliptic";
 }
 
@@ -144,8 +142,8 @@ export function familyMinimumOrder(spec: DesignSpec, family: FamilyName, maxOrde
     const est = minimumOrder({
       family,
       response: spec.response,
-      passbandW: spec.passbandHz.map((f) => 2 * Math.PI * f),
-      stopbandW: spec.stopbandHz.map((f) => 2 * Math.PI * f),
+      passbandW: spec.passbandHz.map((f) => TWO_PI * f),
+      stopbandW: spec.stopbandHz.map((f) => TWO_PI * f),
       passbandLossDb: spec.maxLossDb,
       stopbandAttenuationDb: spec.minAttenuationDb,
     } as Parameters<typeof minimumOrder>[0]);
@@ -155,13 +153,9 @@ export function familyMinimumOrder(spec: DesignSpec, family: FamilyName, maxOrde
     start = 1;
   }
   for (let n = start; n <= maxOrder; n++) {
-    const p = designPrototype(spec, family, n, EXACT);
-    if (intervalWidth(p.interval) >= 0) {
+    if (slackOf(spec, designPrototype(spec, family, n, EXACT)) >= 0) {
       // The formula may overestimate by one; check the order below as well.
-      if (n === start && n > 1) {
-        const below = designPrototype(spec, family, n - 1, EXACT);
-        if (intervalWidth(below.interval) >= 0) return n - 1;
-      }
+      if (n === start && n > 1 && slackOf(spec, designPrototype(spec, family, n - 1, EXACT)) >= 0) return n - 1;
       return n;
     }
   }
@@ -177,15 +171,15 @@ export function familyMinimumOrder(spec: DesignSpec, family: FamilyName, maxOrde
  * smaller-of-the-two wins (common practice, no source). The exact level is
  * used when the order is too low to meet the mask at all.
  */
-export function choosePrototype(spec: DesignSpec, family: FamilyName, order: number): PrototypeDesign {
+export function choosePrototype(spec: DesignSpec, family: FamilyName, order: number): Prototype {
   const exact = designPrototype(spec, family, order, EXACT);
-  const full = intervalWidth(exact.interval);
+  const full = slackOf(spec, exact);
   if (!isEquiripple(family) || !(full > 0)) return exact;
   let best = exact;
   let bestScore = 0;
   for (const level of MARGIN_LEVELS.slice(0, -1)) {
     const p = designPrototype(spec, family, order, level);
-    const width = intervalWidth(p.interval);
+    const width = slackOf(spec, p);
     if (!(width > 0)) continue;
     const freq = width / 2 / TYPICAL_FREQUENCY_ERROR;
     const passDb = (spec.maxLossDb * (1 - level.rippleFraction)) / TYPICAL_PASSBAND_DB_ERROR;
@@ -198,6 +192,27 @@ export function choosePrototype(spec: DesignSpec, family: FamilyName, order: num
     }
   }
   return best;
+}
+
+/**
+ * The margin levels stricter than the prototype's own, for redesigning an
+ * equiripple prototype with more dB margin: at most three of them (the
+ * nearest, a middle one and the strictest), least strict first. Empty for the
+ * other families.
+ *
+ * @param spec - canonical spec
+ * @param proto - the prototype as designed
+ * @returns the levels to try, in order
+ */
+export function stricterLevels(spec: DesignSpec, proto: Prototype): MarginLevel[] {
+  if (!isEquiripple(proto.family)) return [];
+  const current = proto.rippleDb !== undefined ? proto.rippleDb / spec.maxLossDb : 1;
+  const extra = proto.attenuationDb !== undefined ? proto.attenuationDb - spec.minAttenuationDb : 0;
+  const stricter = MARGIN_LEVELS.filter(
+    (l) => l.rippleFraction < current - 1e-12 || l.extraAttenuationDb > extra + 1e-12,
+  ).reverse();
+  if (stricter.length <= 3) return stricter;
+  return [stricter[0], stricter[Math.floor(stricter.length / 2)], stricter[stricter.length - 1]] as MarginLevel[];
 }
 
 /** Number of stages a prototype order needs for the spec's response. */
@@ -220,9 +235,10 @@ function opampEstimate(spec: DesignSpec, family: FamilyName, order: number): num
   return stages * notchOpamps;
 }
 
-function delayVariation(spec: DesignSpec, p: PrototypeDesign): number {
-  const zpk = transformPrototype(spec, p.zpk, p.interval, placeInInterval(p.interval, 0.5));
-  const pb = spec.passbandHz.map((f) => 2 * Math.PI * f);
+function delayVariation(spec: DesignSpec, p: Prototype): number {
+  const interval = prototypeInterval(spec, p.zpk);
+  const zpk = transformPrototype(spec, p.zpk, interval, placeInInterval(interval, 0.5));
+  const pb = spec.passbandHz.map((f) => TWO_PI * f);
   let w: Float64Array;
   if (spec.response === "lowpass") w = logGrid((pb[0] as number) / 100, pb[0] as number, 200);
   else if (spec.response === "highpass") w = logGrid(pb[0] as number, (pb[0] as number) * 100, 200);
@@ -242,36 +258,48 @@ function delayVariation(spec: DesignSpec, p: PrototypeDesign): number {
   return lo > 0 ? hi / lo - 1 : Infinity;
 }
 
-/**
- * Choose the family (or take the named one) and its minimum order.
- *
- * @param spec - canonical spec
- * @returns the family, the minimum order (null when the named family cannot meet the mask within the order limit) and the choice record
- */
-export function chooseFamily(spec: DesignSpec): {
+/** The family, its minimum order and the record of the choice. */
+export interface FamilyOutcome {
+  /** The family. */
   readonly family: FamilyName;
+  /** Its minimum order, `null` when none up to the limit meets the mask. */
   readonly order: number | null;
+  /** How it was chosen. */
   readonly choice: FamilyChoice;
-} {
-  if (spec.family !== "auto") {
-    const order = familyMinimumOrder(spec, spec.family, 16);
-    return {
-      family: spec.family,
-      order,
-      choice: {
-        automatic: false,
-        priority: null,
-        candidates: [],
-        reason:
-          order === null
-            ? `The spec names the ${spec.family} family; no ${spec.family} order up to 16 meets the mask, so the design uses order 16 (or the spec's fixed order) and reports its margins.`
-            : `The spec names the ${spec.family} family.`,
-      },
-    };
-  }
-  const pool = spec.priority === "monotonic" ? ALL_FAMILIES.filter((f) => MONOTONIC.has(f)) : ALL_FAMILIES;
+}
+
+/** A family that meets the mask, with what the automatic choice compares. */
+interface Scored {
+  readonly family: FamilyName;
+  readonly order: number;
+  readonly stages: number;
+  readonly opamps: number;
+  readonly slack: number;
+  readonly delay: number;
+}
+
+/** The family the spec names, with its minimum order up to 16. */
+function namedFamily(spec: DesignSpec, family: FamilyName): FamilyOutcome {
+  const order = familyMinimumOrder(spec, family, 16);
+  return {
+    family,
+    order,
+    choice: {
+      automatic: false,
+      priority: null,
+      candidates: [],
+      reason:
+        order === null
+          ? `The spec names the ${family} family; no ${family} order up to 16 meets the mask, so the design uses order 16 (or the spec's fixed order) and reports its margins.`
+          : `The spec names the ${family} family.`,
+    },
+  };
+}
+
+/** Every family's minimum order and figures (the candidates), and those of the pool that meet the mask (scored). */
+function compareFamilies(spec: DesignSpec, pool: readonly FamilyName[]): { candidates: FamilyCandidate[]; scored: Scored[] } {
   const candidates: FamilyCandidate[] = [];
-  const scored: { family: FamilyName; order: number; stages: number; opamps: number; slack: number; delay: number }[] = [];
+  const scored: Scored[] = [];
   for (const family of ALL_FAMILIES) {
     const order = familyMinimumOrder(spec, family, AUTO_MAX_ORDER);
     const stages = order === null ? null : stageCount(spec, order);
@@ -288,32 +316,22 @@ export function chooseFamily(spec: DesignSpec): {
       ...(delay === undefined ? {} : { delayVariation: delay }),
     });
     if (order !== null && pool.includes(family)) {
-      const p = designPrototype(spec, family, order, EXACT);
       scored.push({
         family,
         order,
         stages: stages as number,
         opamps: opampEstimate(spec, family, order),
-        slack: intervalWidth(p.interval),
+        slack: slackOf(spec, designPrototype(spec, family, order, EXACT)),
         delay: delay ?? 0,
       });
     }
   }
-  if (scored.length === 0) {
-    // Nothing meets the mask within the limit: fall back to the most selective family at the limit.
-    const family: FamilyName = spec.priority === "monotonic" ? "chebyshev2" : "elliptic";
-    return {
-      family,
-      order: null,
-      choice: {
-        automatic: true,
-        priority: spec.priority,
-        candidates,
-        reason: `No ${spec.priority === "monotonic" ? "monotonic " : ""}family meets the mask with a prototype order up to ${AUTO_MAX_ORDER}; ${family} is the most selective candidate and is used at that limit.`,
-      },
-    };
-  }
-  let best = scored[0] as (typeof scored)[number];
+  return { candidates, scored };
+}
+
+/** The best of the scored families under the spec's priority (ties: more slack). */
+function bestFamily(spec: DesignSpec, scored: readonly Scored[]): Scored {
+  let best = scored[0] as Scored;
   for (const c of scored.slice(1)) {
     if (spec.priority === "flattest-delay") {
       if (c.delay < best.delay - 1e-12) best = c;
@@ -327,6 +345,11 @@ export function chooseFamily(spec: DesignSpec): {
       (c[first] === best[first] && c[second] === best[second] && c.slack > best.slack);
     if (better) best = c;
   }
+  return best;
+}
+
+/** Why the best family won, with every scored family's minimum order. */
+function choiceReason(spec: DesignSpec, best: Scored, scored: readonly Scored[]): string {
   const list = scored
     .map((c) =>
       spec.priority === "flattest-delay"
@@ -342,14 +365,37 @@ export function chooseFamily(spec: DesignSpec): {
         : spec.priority === "fewest-op-amps"
           ? `${best.family} needs the fewest op-amps, then the fewest stages, then leaves the most room for part rounding`
           : `${best.family} needs the fewest stages, then the fewest op-amps, then leaves the most room for part rounding`;
+  return `Priority ${spec.priority}: ${why}. Minimum orders: ${list}.`;
+}
+
+/**
+ * Choose the family (or take the named one) and its minimum order.
+ *
+ * @param spec - canonical spec
+ * @returns the family, the minimum order (null when the named family cannot meet the mask within the order limit) and the choice record
+ */
+export function chooseFamily(spec: DesignSpec): FamilyOutcome {
+  if (spec.family !== "auto") return namedFamily(spec, spec.family);
+  const pool = spec.priority === "monotonic" ? ALL_FAMILIES.filter((f) => MONOTONIC.has(f)) : ALL_FAMILIES;
+  const { candidates, scored } = compareFamilies(spec, pool);
+  if (scored.length === 0) {
+    // Nothing meets the mask within the limit: fall back to the most selective family at the limit.
+    const family: FamilyName = spec.priority === "monotonic" ? "chebyshev2" : "elliptic";
+    return {
+      family,
+      order: null,
+      choice: {
+        automatic: true,
+        priority: spec.priority,
+        candidates,
+        reason: `No ${spec.priority === "monotonic" ? "monotonic " : ""}family meets the mask with a prototype order up to ${AUTO_MAX_ORDER}; ${family} is the most selective candidate and is used at that limit.`,
+      },
+    };
+  }
+  const best = bestFamily(spec, scored);
   return {
     family: best.family,
     order: best.order,
-    choice: {
-      automatic: true,
-      priority: spec.priority,
-      candidates,
-      reason: `Priority ${spec.priority}: ${why}. Minimum orders: ${list}.`,
-    },
+    choice: { automatic: true, priority: spec.priority, candidates, reason: choiceReason(spec, best, scored) },
   };
 }

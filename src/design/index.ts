@@ -6,6 +6,7 @@
  */
 export {
   validateSpec,
+  checkSpec,
   specToInput,
   MAX_SPEC_ORDER,
   type FilterSpec,
@@ -26,12 +27,12 @@ export { designFilter, LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./pipeline.ts
 export { responseSpanHz } from "./verify.ts";
 export { designResponse, type DesignResponseOptions } from "./response.ts";
 export { designCircuit, type DesignCircuitOptions } from "./circuit.ts";
+export type { StageFigures } from "../topologies/types.ts";
+export type { AsBuiltPole } from "../topologies/as-built.ts";
 export type {
   DesignResult,
   DesignStage,
-  StagePole,
   StagePredistortion,
-  StageFigureSet,
   StageErrors,
   FamilyCandidate,
   FamilyChoice,

@@ -37,10 +37,10 @@ import {
   lowpassToHighpass,
   lowpassToLowpass,
 } from "../tf/index.ts";
+import { TWO_PI } from "../units/constants.ts";
 import type { DesignSpec } from "./spec.ts";
 import { goldenMax } from "./verify.ts";
 
-const TWO_PI = 2 * Math.PI;
 const DB_SLACK = 1e-5;
 
 /** Magnitude of a zpk system at the given angular frequencies. */
@@ -202,6 +202,23 @@ function bestCentre(
   const w0 = Math.exp(lw);
   const iv = bandInterval(response, w0, wp, ws, passW, stopW);
   return { parameter: "bandwidth", low: iv.low, high: iv.high, centre: w0 };
+}
+
+/**
+ * The interval in which a prototype's exact design meets the spec's mask: its
+ * edges W_p*, W_s* against the spec's Ap, As, mapped through the transform.
+ *
+ * @param spec - canonical spec
+ * @param zpk - normalised lowpass prototype
+ * @returns the interval in rad/s (empty, `high < low`, when the prototype cannot meet the mask)
+ */
+export function prototypeInterval(spec: DesignSpec, zpk: Zpk): FeasibleInterval {
+  return feasibleInterval(spec, prototypeEdges(zpk, spec.maxLossDb, spec.minAttenuationDb));
+}
+
+/** Whether raising the placed parameter helps the passband (true: lowpass, bandpass) or the stopband. */
+export function upHelpsPassband(spec: DesignSpec): boolean {
+  return spec.response === "lowpass" || spec.response === "bandpass";
 }
 
 /** Log-width of an interval (negative when infeasible). */

@@ -383,6 +383,294 @@ class Reader {
   }
 }
 
+type Bands = Pick<DesignSpec, "response" | "passbandHz" | "stopbandHz" | "passbandTopHz" | "maxLossDb" | "minAttenuationDb">;
+type GainPart = Pick<DesignSpec, "gain" | "polarity" | "gainToleranceDb">;
+type FamilyPart = Pick<DesignSpec, "family" | "priority" | "order">;
+type TopologyPart = Pick<DesignSpec, "topology" | "stageTopologies">;
+type PartsPart = Pick<
+  DesignSpec,
+  "capacitorSeries" | "resistorSeries" | "capacitorTolerance" | "resistorTolerance" | "resistorRange" | "capacitorRange"
+>;
+/** A part of the spec as read, with `undefined` where a field had an issue. */
+type AsRead<T> = { -readonly [K in keyof T]: T[K] | undefined };
+
+/** The edge ordering each response needs, as an issue on `stopband.edgeHz` when it is broken. */
+function readEdgeOrder(r: Reader, response: ResponseType, passbandHz: readonly number[], stopbandHz: readonly number[]): void {
+  const [p1, p2] = [passbandHz[0] as number, passbandHz[1] as number];
+  const [s1, s2] = [stopbandHz[0] as number, stopbandHz[1] as number];
+  if (response === "lowpass" && !(p1 < s1)) {
+    r.add("stopband.edgeHz", `a lowpass stopband edge must lie above the passband edge (${p1} Hz)`, s1);
+  } else if (response === "highpass" && !(s1 < p1)) {
+    r.add("stopband.edgeHz", `a highpass stopband edge must lie below the passband edge (${p1} Hz)`, s1);
+  } else if (response === "bandpass" && !(s1 < p1 && p2 < s2)) {
+    r.add("stopband.edgeHz", `bandpass stopband edges must lie outside the passband edges (${p1} Hz, ${p2} Hz)`, [s1, s2]);
+  } else if (response === "bandstop" && !(p1 < s1 && s2 < p2)) {
+    r.add("stopband.edgeHz", `bandstop stopband edges must lie inside the passband edges (${p1} Hz, ${p2} Hz)`, [s1, s2]);
+  }
+}
+
+/**
+ * The top of the checked passband (`passband.topHz`): only a highpass or
+ * bandstop passband has one. When the response itself is invalid, only the
+ * value is checked (the response's own issue is the one to report).
+ */
+function readPassbandTop(r: Reader, response: ResponseType | undefined, pb: Raw, passbandHz: readonly number[] | undefined): number | null {
+  if (pb["topHz"] === undefined) return null;
+  if (response !== undefined && response !== "highpass" && response !== "bandstop") {
+    r.add("passband.topHz", "only a highpass or bandstop passband has a top frequency", pb["topHz"]);
+    return null;
+  }
+  const top = r.quantity("passband.topHz", pb["topHz"], "Hz");
+  const upper = passbandHz?.[passbandHz.length - 1];
+  if (top !== undefined && upper !== undefined && !(top > upper)) {
+    r.add("passband.topHz", `must lie above the upper passband edge (${upper} Hz)`, pb["topHz"]);
+    return null;
+  }
+  return top ?? null;
+}
+
+/** The response, the two bands and their limits. */
+function readBands(r: Reader, spec: Raw): AsRead<Bands> {
+  const response = r.oneOf("response", spec["response"], RESPONSES);
+  const edgeCount: 1 | 2 | undefined =
+    response === undefined ? undefined : response === "lowpass" || response === "highpass" ? 1 : 2;
+  let passbandHz: number[] | undefined;
+  let stopbandHz: number[] | undefined;
+  let maxLossDb: number | undefined;
+  let minAttenuationDb: number | undefined;
+  const pb = spec["passband"];
+  if (!isObject(pb)) {
+    r.add("passband", "expected an object { edgeHz, maxLossDb }", pb);
+  } else {
+    r.unknownKeys(pb, ["edgeHz", "maxLossDb", "topHz"], "passband.");
+    passbandHz = r.edges("passband.edgeHz", pb["edgeHz"], edgeCount);
+    maxLossDb = r.number("passband.maxLossDb", pb["maxLossDb"], { min: 0, max: 20, exclusiveMin: true }, "a loss in dB");
+  }
+  const sb = spec["stopband"];
+  if (!isObject(sb)) {
+    r.add("stopband", "expected an object { edgeHz, minAttenuationDb }", sb);
+  } else {
+    r.unknownKeys(sb, ["edgeHz", "minAttenuationDb"], "stopband.");
+    stopbandHz = r.edges("stopband.edgeHz", sb["edgeHz"], edgeCount);
+    minAttenuationDb = r.number("stopband.minAttenuationDb", sb["minAttenuationDb"], { min: 0, max: 200, exclusiveMin: true }, "an attenuation in dB");
+  }
+  if (maxLossDb !== undefined && minAttenuationDb !== undefined && !(minAttenuationDb > maxLossDb)) {
+    r.add("stopband.minAttenuationDb", `the stopband attenuation must exceed the passband loss (${maxLossDb} dB)`, minAttenuationDb);
+  }
+  if (response !== undefined && passbandHz !== undefined && stopbandHz !== undefined) readEdgeOrder(r, response, passbandHz, stopbandHz);
+  const passbandTopHz = isObject(pb) ? readPassbandTop(r, response, pb, passbandHz) : null;
+  return { response, passbandHz, stopbandHz, passbandTopHz, maxLossDb, minAttenuationDb };
+}
+
+/** The passband gain (`gain`: dB or V/V), its polarity and tolerance. */
+function readGain(r: Reader, g: unknown): GainPart {
+  const out = { gain: 1, polarity: "either" as Polarity, gainToleranceDb: 0.25 };
+  if (g === undefined) return out;
+  if (!isObject(g)) {
+    r.add("gain", "expected an object { db } or { vPerV }", g);
+    return out;
+  }
+  r.unknownKeys(g, ["db", "vPerV", "polarity", "toleranceDb"], "gain.");
+  const hasDb = g["db"] !== undefined;
+  const hasVv = g["vPerV"] !== undefined;
+  if (hasDb && hasVv) r.add("gain", "give the gain as db or as vPerV, not both", g);
+  if (hasDb) {
+    const db = r.number("gain.db", g["db"], { min: -60, max: 80 }, "a gain in dB");
+    if (db !== undefined) out.gain = 10 ** (db / 20);
+  }
+  if (hasVv) {
+    const v = g["vPerV"];
+    if (typeof v !== "number" || !Number.isFinite(v) || v === 0) {
+      r.add("gain.vPerV", "expected a finite, non-zero gain in V/V (negative for inverting)", v);
+    } else if (Math.abs(v) < 1e-3 || Math.abs(v) > 1e4) {
+      r.add("gain.vPerV", "expected a gain magnitude from 0.001 to 10000 V/V", v);
+    } else {
+      out.gain = Math.abs(v);
+      if (v < 0) out.polarity = "inverting";
+    }
+  }
+  if (g["polarity"] !== undefined) {
+    const p = r.oneOf("gain.polarity", g["polarity"], POLARITIES);
+    if (p !== undefined) {
+      if (hasVv && typeof g["vPerV"] === "number" && g["vPerV"] < 0 && p === "non-inverting") {
+        r.add("gain.polarity", "a negative vPerV asks for an inverting filter", p);
+      } else out.polarity = p;
+    }
+  }
+  if (g["toleranceDb"] !== undefined) {
+    const t = r.number("gain.toleranceDb", g["toleranceDb"], { min: 0, max: 20, exclusiveMin: true }, "a tolerance in dB");
+    if (t !== undefined) out.gainToleranceDb = t;
+  }
+  return out;
+}
+
+/** The family, the priority of the automatic choice and a fixed order. */
+function readFamily(r: Reader, spec: Raw): FamilyPart {
+  let family: FamilyName | "auto" = "auto";
+  if (spec["family"] !== undefined) family = r.oneOf("family", spec["family"], [...FAMILY_NAMES, "auto"] as const) ?? family;
+  let priority: FamilyPriority = "fewest-op-amps";
+  if (spec["priority"] !== undefined) priority = r.oneOf("priority", spec["priority"], PRIORITIES) ?? priority;
+  let order: number | null = null;
+  const o = spec["order"];
+  if (o !== undefined) {
+    if (typeof o !== "number" || !Number.isInteger(o) || o < 1 || o > MAX_SPEC_ORDER) {
+      r.add("order", `expected an integer from 1 to ${MAX_SPEC_ORDER}`, o);
+    } else order = o;
+  }
+  return { family, priority, order };
+}
+
+/** The topology: `"auto"`, one id for every stage, or one entry per stage. */
+function readTopology(r: Reader, t: unknown): TopologyPart {
+  const ids = topologies.map((x) => x.id);
+  const checkId = (path: string, id: unknown): string | undefined => {
+    if (id === "auto") return "auto";
+    if (typeof id !== "string" || getTopologySafe(id) === undefined) {
+      r.add(path, `expected "auto" or a topology id: ${listOf(ids)}`, id);
+      return undefined;
+    }
+    return id;
+  };
+  if (t === undefined) return { topology: "auto", stageTopologies: [] };
+  if (!Array.isArray(t)) return { topology: checkId("topology", t) ?? "auto", stageTopologies: [] };
+  if (t.length === 0) r.add("topology", "expected at least one entry (or a single id, or \"auto\")", t);
+  const stageTopologies: string[] = [];
+  t.forEach((id, i) => {
+    const v = checkId(`topology.${i}`, id);
+    if (v !== undefined) stageTopologies.push(v);
+  });
+  return { topology: "auto", stageTopologies };
+}
+
+const PARTS_KEYS = [
+  "capacitorSeries",
+  "resistorSeries",
+  "capacitorTolerance",
+  "resistorTolerance",
+  "resistorMinOhm",
+  "resistorMaxOhm",
+  "capacitorMinF",
+  "capacitorMaxF",
+] as const;
+
+/** The part series, their tolerances and the value windows (`parts`). */
+function readParts(r: Reader, parts: unknown): PartsPart {
+  let capacitorSeries: SeriesName = "E12";
+  let resistorSeries: SeriesName = "E96";
+  const window = { rMin: 1e3, rMax: 1e5, cMin: 1e-10, cMax: 1e-5 };
+  let capacitorTolerance: number | undefined;
+  let resistorTolerance: number | undefined;
+  if (parts !== undefined && !isObject(parts)) r.add("parts", "expected an object", parts);
+  if (isObject(parts)) {
+    r.unknownKeys(parts, PARTS_KEYS, "parts.");
+    if (parts["capacitorSeries"] !== undefined) capacitorSeries = r.oneOf("parts.capacitorSeries", parts["capacitorSeries"], SERIES_NAMES) ?? capacitorSeries;
+    if (parts["resistorSeries"] !== undefined) resistorSeries = r.oneOf("parts.resistorSeries", parts["resistorSeries"], SERIES_NAMES) ?? resistorSeries;
+    const tolerance = (key: "capacitorTolerance" | "resistorTolerance"): number | undefined =>
+      parts[key] === undefined
+        ? undefined
+        : r.number(`parts.${key}`, parts[key], { min: 0, max: 0.5, exclusiveMin: true }, "a tolerance as a fraction (0.01 for 1 %)");
+    capacitorTolerance = tolerance("capacitorTolerance");
+    resistorTolerance = tolerance("resistorTolerance");
+    const q = (key: string, unit: string, fallback: number): number =>
+      parts[key] === undefined ? fallback : (r.quantity(`parts.${key}`, parts[key], unit) ?? fallback);
+    window.rMin = q("resistorMinOhm", "Ω", window.rMin);
+    window.rMax = q("resistorMaxOhm", "Ω", window.rMax);
+    window.cMin = q("capacitorMinF", "F", window.cMin);
+    window.cMax = q("capacitorMaxF", "F", window.cMax);
+    if (!(window.rMin * 2 <= window.rMax)) {
+      r.add("parts.resistorMaxOhm", `the resistor window must span at least a factor of 2 (minimum is ${window.rMin} Ω)`, window.rMax);
+    }
+    if (!(window.cMin * 2 <= window.cMax)) {
+      r.add("parts.capacitorMaxF", `the capacitor window must span at least a factor of 2 (minimum is ${window.cMin} F)`, window.cMax);
+    }
+  }
+  return {
+    capacitorSeries,
+    resistorSeries,
+    capacitorTolerance: capacitorTolerance ?? seriesTolerance(capacitorSeries),
+    resistorTolerance: resistorTolerance ?? seriesTolerance(resistorSeries),
+    resistorRange: Object.freeze({ min: window.rMin, max: window.rMax }),
+    capacitorRange: Object.freeze({ min: window.cMin, max: window.cMax }),
+  };
+}
+
+/** The op-amp: `"ideal"` or a single-pole model `{ a0, gbwHz }`. */
+function readOpamp(r: Reader, oa: unknown): OpAmpModel {
+  if (oa === undefined || oa === "ideal") return { kind: "ideal" };
+  if (!isObject(oa)) {
+    r.add("opamp", 'expected "ideal" or an object { a0, gbwHz }', oa);
+    return { kind: "ideal" };
+  }
+  r.unknownKeys(oa, ["a0", "gbwHz"], "opamp.");
+  const a0 = r.number("opamp.a0", oa["a0"], { min: 10, max: 1e9 }, "an open-loop gain in V/V");
+  const gbw = r.quantity("opamp.gbwHz", oa["gbwHz"], "Hz");
+  return a0 !== undefined && gbw !== undefined ? { kind: "single-pole", a0, gbwHz: gbw } : { kind: "ideal" };
+}
+
+/** Read a whole spec: every issue, and the canonical spec when there is none. */
+function readSpec(spec: unknown): { readonly issues: readonly Issue[]; readonly spec: DesignSpec | null } {
+  if (!isObject(spec)) return { issues: [{ path: "", message: "expected a specification object", received: spec }], spec: null };
+  const r = new Reader();
+  r.unknownKeys(spec, TOP_KEYS, "");
+  const bands = readBands(r, spec);
+  const gain = readGain(r, spec["gain"]);
+  const family = readFamily(r, spec);
+  const topology = readTopology(r, spec["topology"]);
+  const parts = readParts(r, spec["parts"]);
+  const opamp = readOpamp(r, spec["opamp"]);
+  if (r.issues.length > 0) return { issues: r.issues, spec: null };
+  return {
+    issues: [],
+    spec: rememberSpec(Object.freeze({
+      response: bands.response as ResponseType,
+      passbandHz: Object.freeze([...(bands.passbandHz as number[])]),
+      stopbandHz: Object.freeze([...(bands.stopbandHz as number[])]),
+      passbandTopHz: bands.passbandTopHz ?? null,
+      maxLossDb: bands.maxLossDb as number,
+      minAttenuationDb: bands.minAttenuationDb as number,
+      ...gain,
+      ...family,
+      topology: topology.topology,
+      stageTopologies: Object.freeze(topology.stageTopologies),
+      ...parts,
+      opamp: Object.freeze({ ...opamp }),
+    })),
+  };
+}
+
+/** A copy of a received value that is plain JSON-safe data: non-finite numbers become their text (`"NaN"`, `"Infinity"`). */
+function jsonSafe(value: unknown, seen = new Set<unknown>()): unknown {
+  if (typeof value === "number") return Number.isFinite(value) ? value : String(value);
+  if (typeof value !== "object" || value === null) return value;
+  if (seen.has(value)) return "[circular]";
+  seen.add(value);
+  if (Array.isArray(value)) return value.map((v) => jsonSafe(v, seen));
+  return Object.fromEntries(Object.entries(value).map(([k, v]) => [k, jsonSafe(v, seen)]));
+}
+
+/**
+ * Check a filter specification without throwing: every problem
+ * {@link validateSpec} would report, as data. The issues are those of the
+ * {@link SpecError} `validateSpec` throws, with the same paths and messages;
+ * a received value is copied as JSON-safe data (a non-finite number as its
+ * text, `"NaN"`), so no NaN leaves the library in a returned value.
+ *
+ * @param spec - the specification as written (from code or parsed JSON)
+ * @returns the issues, each with the dotted path of its field, a message and the value received; empty when the spec is valid
+ * @example
+ * ```ts
+ * checkSpec({
+ *   response: "lowpass",
+ *   passband: { edgeHz: "1k", maxLossDb: 1 },
+ *   stopband: { edgeHz: 500, minAttenuationDb: 40 },
+ * });
+ * //=> [{ path: "stopband.edgeHz", message: "a lowpass stopband edge must lie above the passband edge (1000 Hz)", received: 500 }]
+ * ```
+ */
+export function checkSpec(spec: unknown): readonly Issue[] {
+  return readSpec(spec).issues.map((i) => ("received" in i ? { ...i, received: jsonSafe(i.received) } : i));
+}
+
 /**
  * Validate a filter specification and bring it to canonical form.
  *
@@ -404,276 +692,9 @@ class Reader {
  * ```
  */
 export function validateSpec(spec: unknown): DesignSpec {
-  const r = new Reader();
-  if (!isObject(spec)) {
-    throw new SpecError("validateSpec", [
-      { path: "", message: "expected a specification object", received: spec },
-    ]);
-  }
-  r.unknownKeys(spec, TOP_KEYS, "");
-
-  const response = r.oneOf("response", spec["response"], RESPONSES);
-  const edgeCount: 1 | 2 | undefined =
-    response === undefined ? undefined : response === "lowpass" || response === "highpass" ? 1 : 2;
-
-  let passbandHz: number[] | undefined;
-  let stopbandHz: number[] | undefined;
-  let maxLossDb: number | undefined;
-  let minAttenuationDb: number | undefined;
-
-  const pb = spec["passband"];
-  if (!isObject(pb)) {
-    r.add("passband", "expected an object { edgeHz, maxLossDb }", pb);
-  } else {
-    r.unknownKeys(pb, ["edgeHz", "maxLossDb", "topHz"], "passband.");
-    passbandHz = r.edges("passband.edgeHz", pb["edgeHz"], edgeCount);
-    maxLossDb = r.number("passband.maxLossDb", pb["maxLossDb"], { min: 0, max: 20, exclusiveMin: true }, "a loss in dB");
-  }
-  const sb = spec["stopband"];
-  if (!isObject(sb)) {
-    r.add("stopband", "expected an object { edgeHz, minAttenuationDb }", sb);
-  } else {
-    r.unknownKeys(sb, ["edgeHz", "minAttenuationDb"], "stopband.");
-    stopbandHz = r.edges("stopband.edgeHz", sb["edgeHz"], edgeCount);
-    minAttenuationDb = r.number(
-      "stopband.minAttenuationDb",
-      sb["minAttenuationDb"],
-      { min: 0, max: 200, exclusiveMin: true },
-      "an attenuation in dB",
-    );
-  }
-  if (maxLossDb !== undefined && minAttenuationDb !== undefined && !(minAttenuationDb > maxLossDb)) {
-    r.add(
-      "stopband.minAttenuationDb",
-      `the stopband attenuation must exceed the passband loss (${maxLossDb} dB)`,
-      minAttenuationDb,
-    );
-  }
-  // Edge ordering per response.
-  if (response !== undefined && passbandHz !== undefined && stopbandHz !== undefined) {
-    const [p1, p2] = [passbandHz[0] as number, passbandHz[1] as number];
-    const [s1, s2] = [stopbandHz[0] as number, stopbandHz[1] as number];
-    if (response === "lowpass" && !(p1 < s1)) {
-      r.add("stopband.edgeHz", `a lowpass stopband edge must lie above the passband edge (${p1} Hz)`, s1);
-    } else if (response === "highpass" && !(s1 < p1)) {
-      r.add("stopband.edgeHz", `a highpass stopband edge must lie below the passband edge (${p1} Hz)`, s1);
-    } else if (response === "bandpass" && !(s1 < p1 && p2 < s2)) {
-      r.add(
-        "stopband.edgeHz",
-        `bandpass stopband edges must lie outside the passband edges (${p1} Hz, ${p2} Hz)`,
-        [s1, s2],
-      );
-    } else if (response === "bandstop" && !(p1 < s1 && s2 < p2)) {
-      r.add(
-        "stopband.edgeHz",
-        `bandstop stopband edges must lie inside the passband edges (${p1} Hz, ${p2} Hz)`,
-        [s1, s2],
-      );
-    }
-  }
-
-  // Top of the checked passband.
-  let passbandTopHz: number | null = null;
-  if (isObject(pb) && pb["topHz"] !== undefined) {
-    if (response !== "highpass" && response !== "bandstop") {
-      r.add("passband.topHz", "only a highpass or bandstop passband has a top frequency", pb["topHz"]);
-    } else {
-      const top = r.quantity("passband.topHz", pb["topHz"], "Hz");
-      const upper = passbandHz?.[passbandHz.length - 1];
-      if (top !== undefined && upper !== undefined && !(top > upper)) {
-        r.add("passband.topHz", `must lie above the upper passband edge (${upper} Hz)`, pb["topHz"]);
-      } else if (top !== undefined) passbandTopHz = top;
-    }
-  }
-
-  // Gain.
-  let gain = 1;
-  let polarity: Polarity = "either";
-  let gainToleranceDb = 0.25;
-  const g = spec["gain"];
-  if (g !== undefined) {
-    if (!isObject(g)) {
-      r.add("gain", "expected an object { db } or { vPerV }", g);
-    } else {
-      r.unknownKeys(g, ["db", "vPerV", "polarity", "toleranceDb"], "gain.");
-      const hasDb = g["db"] !== undefined;
-      const hasVv = g["vPerV"] !== undefined;
-      if (hasDb && hasVv) r.add("gain", "give the gain as db or as vPerV, not both", g);
-      if (hasDb) {
-        const db = r.number("gain.db", g["db"], { min: -60, max: 80 }, "a gain in dB");
-        if (db !== undefined) gain = 10 ** (db / 20);
-      }
-      if (hasVv) {
-        const v = g["vPerV"];
-        if (typeof v !== "number" || !Number.isFinite(v) || v === 0) {
-          r.add("gain.vPerV", "expected a finite, non-zero gain in V/V (negative for inverting)", v);
-        } else if (Math.abs(v) < 1e-3 || Math.abs(v) > 1e4) {
-          r.add("gain.vPerV", "expected a gain magnitude from 0.001 to 10000 V/V", v);
-        } else {
-          gain = Math.abs(v);
-          if (v < 0) polarity = "inverting";
-        }
-      }
-      if (g["polarity"] !== undefined) {
-        const p = r.oneOf("gain.polarity", g["polarity"], POLARITIES);
-        if (p !== undefined) {
-          if (hasVv && typeof g["vPerV"] === "number" && g["vPerV"] < 0 && p === "non-inverting") {
-            r.add("gain.polarity", "a negative vPerV asks for an inverting filter", p);
-          } else polarity = p;
-        }
-      }
-      if (g["toleranceDb"] !== undefined) {
-        const t = r.number("gain.toleranceDb", g["toleranceDb"], { min: 0, max: 20, exclusiveMin: true }, "a tolerance in dB");
-        if (t !== undefined) gainToleranceDb = t;
-      }
-    }
-  }
-
-  // Family, priority, order.
-  let family: FamilyName | "auto" = "auto";
-  if (spec["family"] !== undefined) {
-    const f = r.oneOf("family", spec["family"], [...FAMILY_NAMES, "auto"] as const);
-    if (f !== undefined) family = f;
-  }
-  let priority: FamilyPriority = "fewest-op-amps";
-  if (spec["priority"] !== undefined) {
-    const p = r.oneOf("priority", spec["priority"], PRIORITIES);
-    if (p !== undefined) priority = p;
-  }
-  let order: number | null = null;
-  if (spec["order"] !== undefined) {
-    const o = spec["order"];
-    if (typeof o !== "number" || !Number.isInteger(o) || o < 1 || o > MAX_SPEC_ORDER) {
-      r.add("order", `expected an integer from 1 to ${MAX_SPEC_ORDER}`, o);
-    } else order = o;
-  }
-
-  // Topology.
-  let topology = "auto";
-  let stageTopologies: string[] = [];
-  const t = spec["topology"];
-  const ids = topologies.map((x) => x.id);
-  const checkId = (path: string, id: unknown): string | undefined => {
-    if (id === "auto") return "auto";
-    if (typeof id !== "string" || getTopologySafe(id) === undefined) {
-      r.add(path, `expected "auto" or a topology id: ${listOf(ids)}`, id);
-      return undefined;
-    }
-    return id;
-  };
-  if (t !== undefined) {
-    if (Array.isArray(t)) {
-      if (t.length === 0) r.add("topology", "expected at least one entry (or a single id, or \"auto\")", t);
-      const out: string[] = [];
-      t.forEach((id, i) => {
-        const v = checkId(`topology.${i}`, id);
-        if (v !== undefined) out.push(v);
-      });
-      stageTopologies = out;
-    } else {
-      const v = checkId("topology", t);
-      if (v !== undefined) topology = v;
-    }
-  }
-
-  // Parts.
-  let capacitorSeries: SeriesName = "E12";
-  let resistorSeries: SeriesName = "E96";
-  let rMin = 1e3;
-  let rMax = 1e5;
-  let cMin = 1e-10;
-  let cMax = 1e-5;
-  let capacitorTolerance: number | undefined;
-  let resistorTolerance: number | undefined;
-  const parts = spec["parts"];
-  if (parts !== undefined) {
-    if (!isObject(parts)) {
-      r.add("parts", "expected an object", parts);
-    } else {
-      r.unknownKeys(
-        parts,
-        [
-          "capacitorSeries",
-          "resistorSeries",
-          "capacitorTolerance",
-          "resistorTolerance",
-          "resistorMinOhm",
-          "resistorMaxOhm",
-          "capacitorMinF",
-          "capacitorMaxF",
-        ],
-        "parts.",
-      );
-      if (parts["capacitorSeries"] !== undefined) {
-        const s = r.oneOf("parts.capacitorSeries", parts["capacitorSeries"], SERIES_NAMES);
-        if (s !== undefined) capacitorSeries = s;
-      }
-      if (parts["resistorSeries"] !== undefined) {
-        const s = r.oneOf("parts.resistorSeries", parts["resistorSeries"], SERIES_NAMES);
-        if (s !== undefined) resistorSeries = s;
-      }
-      const tolerance = (key: "capacitorTolerance" | "resistorTolerance"): number | undefined =>
-        parts[key] === undefined
-          ? undefined
-          : r.number(`parts.${key}`, parts[key], { min: 0, max: 0.5, exclusiveMin: true }, "a tolerance as a fraction (0.01 for 1 %)");
-      capacitorTolerance = tolerance("capacitorTolerance");
-      resistorTolerance = tolerance("resistorTolerance");
-      const q = (key: string, unit: string, fallback: number): number => {
-        if (parts[key] === undefined) return fallback;
-        return r.quantity(`parts.${key}`, parts[key], unit) ?? fallback;
-      };
-      rMin = q("resistorMinOhm", "Ω", rMin);
-      rMax = q("resistorMaxOhm", "Ω", rMax);
-      cMin = q("capacitorMinF", "F", cMin);
-      cMax = q("capacitorMaxF", "F", cMax);
-      if (!(rMin * 2 <= rMax)) {
-        r.add("parts.resistorMaxOhm", `the resistor window must span at least a factor of 2 (minimum is ${rMin} Ω)`, rMax);
-      }
-      if (!(cMin * 2 <= cMax)) {
-        r.add("parts.capacitorMaxF", `the capacitor window must span at least a factor of 2 (minimum is ${cMin} F)`, cMax);
-      }
-    }
-  }
-
-  // Op-amp.
-  let opamp: OpAmpModel = { kind: "ideal" };
-  const oa = spec["opamp"];
-  if (oa !== undefined && oa !== "ideal") {
-    if (!isObject(oa)) {
-      r.add("opamp", 'expected "ideal" or an object { a0, gbwHz }', oa);
-    } else {
-      r.unknownKeys(oa, ["a0", "gbwHz"], "opamp.");
-      const a0 = r.number("opamp.a0", oa["a0"], { min: 10, max: 1e9 }, "an open-loop gain in V/V");
-      const gbw = r.quantity("opamp.gbwHz", oa["gbwHz"], "Hz");
-      if (a0 !== undefined && gbw !== undefined) opamp = { kind: "single-pole", a0, gbwHz: gbw };
-    }
-  }
-
-  if (r.issues.length > 0) throw new SpecError("validateSpec", r.issues);
-
-  return rememberSpec(Object.freeze({
-    response: response as ResponseType,
-    passbandHz: Object.freeze([...(passbandHz as number[])]),
-    stopbandHz: Object.freeze([...(stopbandHz as number[])]),
-    passbandTopHz,
-    maxLossDb: maxLossDb as number,
-    minAttenuationDb: minAttenuationDb as number,
-    gain,
-    polarity,
-    gainToleranceDb,
-    family,
-    priority,
-    order,
-    topology,
-    stageTopologies: Object.freeze(stageTopologies),
-    capacitorSeries,
-    resistorSeries,
-    capacitorTolerance: capacitorTolerance ?? seriesTolerance(capacitorSeries),
-    resistorTolerance: resistorTolerance ?? seriesTolerance(resistorSeries),
-    resistorRange: Object.freeze({ min: rMin, max: rMax }),
-    capacitorRange: Object.freeze({ min: cMin, max: cMax }),
-    opamp: Object.freeze({ ...opamp }),
-  }));
+  const read = readSpec(spec);
+  if (read.spec === null) throw new SpecError("validateSpec", read.issues);
+  return read.spec;
 }
 
 function getTopologySafe(id: string): unknown {

@@ -29,9 +29,8 @@ import { frequencyResponse, logGrid } from "../tf/index.ts";
 import type { StageKind, StageTarget, Topology } from "../topologies/types.ts";
 import { getTopology, topologiesFor } from "../topologies/index.ts";
 import { SpecError, UnrealisableError } from "../errors.ts";
+import { TWO_PI } from "../units/constants.ts";
 import type { DesignSpec } from "./spec.ts";
-
-const TWO_PI = 2 * Math.PI;
 
 /** One section of the target, described for the topology layer. */
 export interface SectionInfo {

@@ -9,20 +9,9 @@
  * @module
  */
 import type { FamilyName } from "../approx/index.ts";
-import type { StageKind } from "../topologies/types.ts";
+import type { AsBuiltPole } from "../topologies/as-built.ts";
+import type { StageFigures, StageKind } from "../topologies/types.ts";
 import type { DesignSpec, FamilyPriority } from "./spec.ts";
-
-/** The figures that describe one stage: pole frequency, Q, zero frequency and gain. */
-export interface StageFigureSet {
-  /** Pole frequency in Hz. */
-  readonly f0Hz: number;
-  /** Pole Q (absent for a first-order stage). */
-  readonly q?: number;
-  /** Zero frequency in Hz (notch kinds only). */
-  readonly fzHz?: number;
-  /** Gain at the stage's reference frequency, V/V, sign included. */
-  readonly gain: number;
-}
 
 /** Relative errors of the as-built figures against the target (0.01 = 1 %). */
 export interface StageErrors {
@@ -57,9 +46,9 @@ export interface DesignStage {
   /** Op-amp designators used by the stage (`U1`, ...). */
   readonly opamps: readonly string[];
   /** What the stage should realise. */
-  readonly target: StageFigureSet;
+  readonly target: StageFigures;
   /** What the stage realises with the preferred values on the board (ideal op-amp). */
-  readonly asBuilt: StageFigureSet;
+  readonly asBuilt: StageFigures;
   /**
    * Relative errors of `asBuilt` against `target`. For a stage pre-distorted
    * for a real op-amp these include the deliberate pre-distortion; the pole it
@@ -79,7 +68,7 @@ export interface DesignStage {
    * model (f0 in Hz; Q for a second-order stage). Present only when the spec
    * names a non-ideal op-amp (and the pole could be found).
    */
-  readonly asBuiltWithOpamp?: StagePole;
+  readonly asBuiltWithOpamp?: AsBuiltPole;
   /**
    * How the stage's design target was pre-distorted for the op-amp's finite
    * gain-bandwidth: design f0 / wanted f0, design Q / wanted Q and design
@@ -88,14 +77,6 @@ export interface DesignStage {
    * (second order, non-ideal op-amp).
    */
   readonly predistortion?: StagePredistortion;
-}
-
-/** The pole of a built stage with the spec's op-amp model. */
-export interface StagePole {
-  /** Pole frequency in Hz. */
-  readonly f0Hz: number;
-  /** Pole Q (second-order stages only). */
-  readonly q?: number;
 }
 
 /** How a stage's design target was pre-distorted for a finite-GBW op-amp. */

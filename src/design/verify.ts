@@ -21,6 +21,7 @@
 import type { OpAmpModel } from "../circuit/types.ts";
 import type { ComponentValues, Topology } from "../topologies/types.ts";
 import { logGrid } from "../tf/index.ts";
+import { TWO_PI } from "../units/constants.ts";
 import { requireDesignSpec, type DesignSpec } from "./spec.ts";
 import type { ResponseCurve } from "./types.ts";
 
@@ -403,18 +404,18 @@ export function responseCurve(
     magnitudeDb.push(db(Math.hypot(re, im)));
     const ph = Math.atan2(im, re);
     if (!Number.isNaN(prev)) {
-      while (ph + offset - prev > Math.PI) offset -= 2 * Math.PI;
-      while (ph + offset - prev < -Math.PI) offset += 2 * Math.PI;
+      while (ph + offset - prev > Math.PI) offset -= TWO_PI;
+      while (ph + offset - prev < -Math.PI) offset += TWO_PI;
     }
     prev = ph + offset;
     phaseDeg.push((prev * 180) / Math.PI);
     const pa = Math.atan2(h.im[3 * i] as number, h.re[3 * i] as number);
     const pb = Math.atan2(h.im[3 * i + 2] as number, h.re[3 * i + 2] as number);
     let dp = pb - pa;
-    while (dp > Math.PI) dp -= 2 * Math.PI;
-    while (dp < -Math.PI) dp += 2 * Math.PI;
+    while (dp > Math.PI) dp -= TWO_PI;
+    while (dp < -Math.PI) dp += TWO_PI;
     const x = f[i] as number;
-    groupDelayS.push(-dp / (2 * Math.PI * (2 * d * x)));
+    groupDelayS.push(-dp / (TWO_PI * (2 * d * x)));
   }
   return { freqHz: Array.from(f), magnitudeDb, phaseDeg, groupDelayS };
 }

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { SpecError } from "../../src/errors.ts";
-import { specToInput, validateSpec } from "../../src/design/spec.ts";
+import { checkSpec, specToInput, validateSpec } from "../../src/design/spec.ts";
+import { thrownBy } from "../helpers/throws.ts";
 
 const base = {
   response: "lowpass",
@@ -147,5 +148,47 @@ describe("validateSpec", () => {
       opamp: { a0: 1e5, gbwHz: 1e6 },
     });
     expect(validateSpec(specToInput(s))).toEqual(s);
+  });
+});
+
+describe("checkSpec", () => {
+  it("returns no issue for a valid spec", () => {
+    expect(checkSpec(base)).toEqual([]);
+  });
+
+  it("returns the same issues validateSpec throws, with paths, messages and the values received", () => {
+    const bad = {
+      response: "lowpass",
+      passband: { edgeHz: "1k", maxLossDb: 1 },
+      stopband: { edgeHz: 500, minAttenuationDb: 40 },
+      gain: { db: 100 },
+      parts: { resistorSeries: "E7" },
+      opamp: { a0: 1e5, gbwHz: -1 },
+    };
+    const issues = checkSpec(bad);
+    expect(issues.map((i) => i.path)).toEqual(["stopband.edgeHz", "gain.db", "parts.resistorSeries", "opamp.gbwHz"]);
+    expect(issues[0]).toEqual({ path: "stopband.edgeHz", message: "a lowpass stopband edge must lie above the passband edge (1000 Hz)", received: 500 });
+    expect(thrownBy(() => validateSpec(bad), SpecError).issues).toEqual(issues);
+  });
+
+  it("reports a non-object spec at the empty path", () => {
+    expect(checkSpec(null)).toEqual([{ path: "", message: "expected a specification object", received: null }]);
+  });
+
+  it("reports only the response when an invalid response comes with a passband top", () => {
+    const spec = { ...base, response: "notch", passband: { ...base.passband, topHz: "20k" } };
+    expect(checkSpec(spec).map((i) => i.path)).toEqual(["response"]);
+  });
+});
+
+describe("checkSpec received values", () => {
+  it("copies a non-finite received number as its text, so the returned issues hold no NaN", () => {
+    const issues = checkSpec({ ...base, passband: { edgeHz: Number.NaN, maxLossDb: Number.POSITIVE_INFINITY } });
+    expect(issues.map((i) => [i.path, i.received])).toEqual([
+      ["passband.edgeHz", "NaN"],
+      ["passband.maxLossDb", "Infinity"],
+    ]);
+    expect(checkSpec({ ...base, extra: { re: Number.NaN } }).map((i) => i.received)).toEqual([{ re: "NaN" }]);
+    expect(checkSpec([Number.NaN])[0]?.received).toEqual(["NaN"]);
   });
 });

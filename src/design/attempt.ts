@@ -1,0 +1,193 @@
+/**
+ * One attempt at a design: a prototype placed at one position of its interval,
+ * transformed and split into sections ordered by ascending Q (the usual
+ * ordering for dynamic range in lowpass cascades; common practice, no
+ * source), a topology and a gain per section, each second-order stage's
+ * target pre-distorted for a real op-amp, preferred values per stage, and the
+ * as-built check against the mask. A stage with a free gain absorbs the gain
+ * error the stages before it left.
+ *
+ * @module
+ */
+import { SpecError, UnrealisableError } from "../errors.ts";
+import { toSections } from "../tf/index.ts";
+import { getTopology } from "../topologies/index.ts";
+import type { ComponentValues } from "../topologies/types.ts";
+import { TWO_PI } from "../units/constants.ts";
+import type { DesignSpec } from "./spec.ts";
+import type { Prototype } from "./family.ts";
+import { placeInInterval, transformPrototype, type FeasibleInterval } from "./placement.ts";
+import { describeSections, peakGrid, planStages, type SectionInfo, type StagePlan } from "./stages.ts";
+import { tuneStage, type TunedStage, type ValueSet } from "./components.ts";
+import { predistortTarget, type PredistortionOutcome } from "./predistort.ts";
+import { checkMask, type BuiltStage, type MaskFigures } from "./verify.ts";
+
+/** A prototype with the interval placement found for it. */
+export interface PlacedPrototype {
+  /** The prototype. */
+  readonly proto: Prototype;
+  /** Where its exact design meets the mask. */
+  readonly interval: FeasibleInterval;
+}
+
+/** How an attempt is built. */
+export interface AttemptOptions {
+  /** Log position inside the interval (0 = low end, 0.5 = geometric middle, 1 = high end). */
+  readonly position: number;
+  /** Search more capacitors and neighbouring values per stage (the re-tuning steps). */
+  readonly wide: boolean;
+}
+
+/** A design built at one prototype and position, checked against the mask. */
+export interface Attempt extends PlacedPrototype {
+  /** Log position inside the interval. */
+  readonly position: number;
+  /** The placed parameter, rad/s. */
+  readonly value: number;
+  /** The grid the stage peaks are read on, Hz. */
+  readonly gridHz: Float64Array;
+  /** Plans with the gain corrections applied (what each stage was tuned for). */
+  readonly plans: readonly StagePlan[];
+  /** Plans before gain correction (the exact design's targets). */
+  readonly exactPlans: readonly StagePlan[];
+  /** Per stage: the value search. */
+  readonly tuned: readonly TunedStage[];
+  /** Per stage: the values on the board. */
+  readonly chosen: readonly ValueSet[];
+  /** The as-built circuit against the mask. */
+  readonly mask: MaskFigures;
+  /** Per stage: the finite-GBW pre-distortion (null when not attempted: ideal op-amp or first order). */
+  readonly predistortion: readonly (PredistortionOutcome | null)[];
+}
+
+/**
+ * The stages as built from plans and value sets.
+ *
+ * @param plans - the stage plans
+ * @param sets - one value set per plan
+ * @returns topology and values per stage
+ */
+export function boardStages(plans: readonly StagePlan[], sets: readonly { values: ComponentValues }[]): BuiltStage[] {
+  return plans.map((p, i) => ({ topology: p.topology, values: (sets[i] as { values: ComponentValues }).values }));
+}
+
+/**
+ * The topology asked for each stage: the spec's per-stage list, `"auto"`
+ * everywhere, or one named topology wherever it fits (kind and order) with
+ * the other stages (a first-order section, say) chosen automatically.
+ *
+ * @throws {@link SpecError} when the per-stage list has the wrong length or the named topology fits no stage
+ */
+function requestedTopologies(spec: DesignSpec, infos: readonly SectionInfo[]): string[] {
+  const n = infos.length;
+  if (spec.stageTopologies.length > 0) {
+    if (spec.stageTopologies.length !== n) {
+      throw new SpecError("designFilter", [
+        {
+          path: "topology",
+          message: `this design has ${n} stage${n === 1 ? "" : "s"}; give one topology entry per stage (or a single id, or "auto")`,
+          received: spec.stageTopologies,
+        },
+      ]);
+    }
+    return [...spec.stageTopologies];
+  }
+  if (spec.topology === "auto") return infos.map(() => "auto");
+  const t = getTopology(spec.topology);
+  const ids = infos.map((info) => (t.order === info.order && t.kinds.includes(info.kind) ? t.id : "auto"));
+  if (!ids.includes(t.id)) {
+    throw new SpecError("designFilter", [
+      {
+        path: "topology",
+        message: `topology "${t.id}" realises ${t.kinds.join("/")} stages of order ${t.order}, and this design has none (its stages are ${infos.map((i) => `${i.kind} order ${i.order}`).join(", ")})`,
+        received: spec.topology,
+      },
+    ]);
+  }
+  return ids;
+}
+
+/** What tuning the stages one after the other gives. */
+interface TunedCascade {
+  readonly plans: StagePlan[];
+  readonly tuned: TunedStage[];
+  readonly predistortion: (PredistortionOutcome | null)[];
+}
+
+/** The plan with its gain target divided by the gain error carried from the stages before it, when the stage's gain is free and the corrected target is realisable. */
+function absorbGainError(plan: StagePlan, carried: number): StagePlan {
+  if (carried === 1 || plan.topology.fixedGain !== undefined) return plan;
+  const target = { ...plan.target, gain: plan.target.gain / carried };
+  return plan.topology.check(target, {}) === null ? { ...plan, target } : plan;
+}
+
+/**
+ * Tune stage by stage. Each stage with a free gain absorbs the gain error the
+ * stages before it left; the error a stage leaves is measured against its own
+ * uncorrected target, so every stage's error is corrected once. With a real
+ * op-amp each second-order stage is designed for the pre-distorted target
+ * that lands on its pole with that op-amp; a deliberate gain pre-distortion
+ * (a free-gain bandpass) is taken back out, since the op-amp undoes it.
+ */
+function tuneCascade(spec: DesignSpec, exactPlans: readonly StagePlan[], wide: boolean): TunedCascade {
+  const out: TunedCascade = { plans: [], tuned: [], predistortion: [] };
+  let carried = 1;
+  const usedCaps = new Set<number>();
+  exactPlans.forEach((exact, i) => {
+    const plan = absorbGainError(exact, carried);
+    const pd = spec.opamp.kind !== "ideal" && plan.target.order === 2 ? predistortTarget(plan.topology, plan.target, spec.opamp) : null;
+    const t = tuneStage(plan.topology, pd?.ok === true ? pd.target : plan.target, spec, {
+      ...(wide ? { capacitors: 12, spread: 3, keep: 12 } : {}),
+      preferredCapacitors: usedCaps,
+      ...(pd?.ok === true ? { opampScoring: { opamp: spec.opamp, wanted: plan.target } } : {}),
+    });
+    if (t === null) {
+      throw new UnrealisableError({
+        fn: "designFilter",
+        path: `stages.${i}`,
+        message: `topology "${plan.topology.id}" gives no usable values for stage ${i + 1} (${plan.target.kind}, f0 ${plan.target.f0Hz.toPrecision(4)} Hz) with capacitors between ${spec.capacitorRange.min} F and ${spec.capacitorRange.max} F; widen parts.capacitorMinF/capacitorMaxF or name another topology`,
+      });
+    }
+    const gainPredistortion = pd?.ok === true && plan.topology.fixedGain === undefined ? pd.gainFactor : 1;
+    carried *= t.best.figures.gain / gainPredistortion / exact.target.gain;
+    for (const [k, v] of Object.entries(t.best.values)) if (k.startsWith("C")) usedCaps.add(v);
+    out.plans.push(plan);
+    out.tuned.push(t);
+    out.predistortion.push(pd);
+  });
+  return out;
+}
+
+/**
+ * Build and check one attempt.
+ *
+ * @param spec - canonical spec
+ * @param placed - the prototype and its interval
+ * @param options - position inside the interval and search width
+ * @returns the attempt, checked against the mask
+ * @throws {@link SpecError} when the spec's topologies do not fit the stages
+ * @throws {@link UnrealisableError} when a stage gets no usable values
+ */
+export function buildAttempt(spec: DesignSpec, placed: PlacedPrototype, options: AttemptOptions): Attempt {
+  const { proto, interval } = placed;
+  const value = placeInInterval(interval, options.position);
+  const cascade = toSections(transformPrototype(spec, proto.zpk, interval, value), { order: "ascending-q" });
+  const grid = peakGrid(cascade);
+  const infos = describeSections(cascade, grid);
+  const { plans: exactPlans } = planStages(spec, infos, { forced: requestedTopologies(spec, infos) });
+  const { plans, tuned, predistortion } = tuneCascade(spec, exactPlans, options.wide);
+  const chosen = tuned.map((t) => t.best);
+  const mask = checkMask(spec, boardStages(plans, chosen), spec.opamp);
+  const gridHz = grid.map((w) => w / TWO_PI);
+  return { proto, interval, position: options.position, value, gridHz, plans, exactPlans, tuned, chosen, mask, predistortion };
+}
+
+/** Whether the attempt's measured polarity satisfies the spec. */
+export function polarityMet(spec: DesignSpec, a: Attempt): boolean {
+  return spec.polarity === "either" || a.mask.polarity === spec.polarity;
+}
+
+/** Whether the attempt meets the mask and the polarity. */
+export function meetsSpec(spec: DesignSpec, a: Attempt): boolean {
+  return a.mask.marginDb >= 0 && polarityMet(spec, a);
+}
