@@ -20,6 +20,7 @@ const ROOT_NAMES = [
   "SpecError",
   "UnrealisableError",
   "bomLines",
+  "checkSpec",
   "designFilter",
   "formatValue",
   "fromJson",
