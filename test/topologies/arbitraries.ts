@@ -4,7 +4,6 @@
  * what the topology can realise by filtering through its own `check`.
  */
 import fc from "fast-check";
-import type { DefinedTopology } from "../../src/topologies/common.ts";
 import type { StageChoices, StageTarget, Topology } from "../../src/topologies/types.ts";
 
 const logUniform = (lo: number, hi: number): fc.Arbitrary<number> =>
@@ -21,7 +20,7 @@ export function targetArb(topo: Topology): fc.Arbitrary<StageTarget> {
       fzRatio: logUniform(1.02, 20),
     })
     .map(({ kind, f0Hz, q, gain, fzRatio }) => {
-      const fixed = (topo as DefinedTopology).fixedGain;
+      const fixed = (topo as Topology).fixedGain;
       let g = gain;
       if (topo.id.includes("unity") || topo.id.includes("buffer")) g = 1;
       if (fixed !== undefined) g = fixed({ order: topo.order, kind, f0Hz, q });

@@ -1,27 +1,25 @@
 /**
- * Shared machinery behind every topology file: argument checks, impedance
- * level, element placement, response evaluation (closed form or nodal
- * analysis) and the numerical GBW demand.
+ * The topology framework: a topology file states its parts, its design
+ * equations, its ideal figures and its closed-form response
+ * ({@link TopologySpec}); {@link defineTopology} turns that into a
+ * {@link Topology} with the public checks, the realisable-range check,
+ * impedance-level scaling, element placement, response evaluation (closed
+ * form, or nodal analysis where the closed form takes only the ideal op-amp)
+ * and the GBW demand (`as-built.ts`).
  *
- * GBW demand method: the stage is designed for the target, its op-amps are
- * replaced by the single-pole model (a0 = 1e12, so the gain-bandwidth product
- * alone matters), and the dominant natural frequency is found as a zero of
- * the nodal determinant `det(G + s C)` by Muller's method (D. E. Muller,
- * "A method for solving algebraic equations using an automatic computer",
- * MTAC 10:208-215, 1956), started from the ideal pole. The smallest GBW for
- * which the pole's f0 and Q both stay within 1 % of target is found by
- * doubling and then bisection in log(GBW) to 0.1 %. A first-order stage has
- * no Q, and its op-amp adds a pole rather than moving the stage's own, so
- * there the criterion is on the response at f0: `|H(j w0)/H_ideal(j w0) - 1|`
- * may not exceed what a 1 % shift of f0 would cause (about 0.70 %).
+ * Arguments are checked here, once, at the topology's public methods; the
+ * topology files' equations and the kernels beneath are unchecked.
  *
  * @module
  */
 import type { Circuit, Element, OpAmpModel } from "../circuit/types.ts";
-import { assembleMna, checkStructure, mnaDeterminant, solveMna } from "../circuit/mna.ts";
+import { assembleMna, checkStructure, solveMna } from "../circuit/mna.ts";
 import { checkCircuit } from "../circuit/validate.ts";
 import { InvalidArgumentError, UnrealisableError } from "../errors.ts";
-import { cadd, cdiv, cmul, csub, type Complex } from "../math/complex.ts";
+import { TWO_PI } from "../units/constants.ts";
+import { requirePositive } from "../validate.ts";
+import { gbwDemand } from "./as-built.ts";
+import { openLoopGain, type ClosedForm } from "./kernels.ts";
 import type {
   ComponentValues,
   StageChoices,
@@ -32,35 +30,57 @@ import type {
   Topology,
 } from "./types.ts";
 
-/** 2 pi. */
-export const TWO_PI = 2 * Math.PI;
-
-/** Impedance level used when neither a capacitor nor a resistor is chosen: the level resistor is 10 kOhm. */
+/**
+ * Impedance level used when neither a capacitor nor a resistor is chosen: the level resistor is 10 kOhm.
+ *
+ * @internal
+ */
 export const DEFAULT_LEVEL_OHMS = 10_000;
 
-/** Relative slack used when comparing a target with an exact limit (rounding of the caller's arithmetic). */
+/**
+ * Relative slack used when comparing a target with an exact limit (rounding of the caller's arithmetic).
+ *
+ * @internal
+ */
 export const LIMIT_SLACK = 1e-9;
 
 /**
- * Largest `|H(j w0) / H_ideal(j w0) - 1|` accepted for a first-order stage:
- * the change a 1 % shift of f0 makes, `|(1 + j) / (1 + j / 1.01) - 1|`.
+ * The value of part `name` (ohms, farads) in a set of component values the
+ * framework has already checked.
+ *
+ * @param v - component values
+ * @param name - designator, e.g. `"R2"`
+ * @returns the value
+ * @throws never
+ * @example
+ * ```ts
+ * valueOf({ R2: 4700 }, "R2"); //=> 4700
+ * ```
  */
-export const FIRST_ORDER_DEVIATION: number = (() => {
-  const c = 1 / 1.01;
-  const d = 1 + c * c;
-  return Math.hypot((1 + c) / d - 1, (1 - c) / d);
-})();
+export function valueOf(v: ComponentValues, name: string): number {
+  return v[name] as number;
+}
 
-/** DC gain of the op-amp model used to compute the GBW demand. */
-export const GBW_DEMAND_A0 = 1e12;
+/**
+ * The conductance `1 / R` (siemens) of resistor `name`.
+ *
+ * @param v - component values
+ * @param name - designator of a resistor
+ * @returns the conductance
+ * @throws never
+ * @example
+ * ```ts
+ * conductanceOf({ R1: 1000 }, "R1"); //=> 0.001
+ * ```
+ */
+export function conductanceOf(v: ComponentValues, name: string): number {
+  return 1 / (v[name] as number);
+}
 
 /** A part of a stage in local terms: nodes `in`, `out`, `0` are external; any other node is internal. */
 export type PartSpec =
   | { readonly kind: "R" | "C"; readonly name: string; readonly a: string; readonly b: string }
   | { readonly kind: "OA"; readonly name: string; readonly inP: string; readonly inN: string; readonly out: string };
-
-/** Closed-form response kernel: `H(s)` given values and the op-amp open-loop gain `a` (`null` = ideal). */
-export type ClosedForm = (v: ComponentValues, s: Complex, a: Complex | null) => Complex;
 
 /** Everything a topology file specifies; {@link defineTopology} adds the checks and shared behaviour. */
 export interface TopologySpec {
@@ -96,15 +116,8 @@ export interface TopologySpec {
   readonly fixedGain?: (t: Omit<StageTarget, "gain">) => number;
 }
 
-/** A topology built by this module's `defineTopology` (the same shape as {@link Topology}). */
-export type DefinedTopology = Topology;
-
 function bad(fn: string, path: string, received: unknown, message: string): never {
   throw new InvalidArgumentError({ fn, path, received, message });
-}
-
-function positive(fn: string, path: string, v: unknown): void {
-  if (typeof v !== "number" || !Number.isFinite(v) || v <= 0) bad(fn, path, v, "expected a finite number greater than zero");
 }
 
 /**
@@ -131,16 +144,16 @@ export function checkShape(fn: string, spec: TopologySpec, t: StageTarget, c: St
   if (!spec.kinds.includes(t.kind)) {
     bad(fn, "target.kind", t.kind, `${spec.name} realises ${spec.kinds.map((k) => `"${k}"`).join(", ")}; choose a topology for "${t.kind}"`);
   }
-  positive(fn, "target.f0Hz", t.f0Hz);
-  if (spec.order === 2) positive(fn, "target.q", t.q);
+  requirePositive(fn, "target.f0Hz", t.f0Hz);
+  if (spec.order === 2) requirePositive(fn, "target.q", t.q);
   if (typeof t.gain !== "number" || !Number.isFinite(t.gain) || t.gain === 0) {
     bad(fn, "target.gain", t.gain, "expected a finite, non-zero gain (V/V, sign included)");
   }
-  if (t.kind === "lowpass-notch" || t.kind === "highpass-notch") positive(fn, "target.fzHz", t.fzHz);
-  if (t.kind === "notch" && t.fzHz !== undefined) positive(fn, "target.fzHz", t.fzHz);
+  if (t.kind === "lowpass-notch" || t.kind === "highpass-notch") requirePositive(fn, "target.fzHz", t.fzHz);
+  if (t.kind === "notch" && t.fzHz !== undefined) requirePositive(fn, "target.fzHz", t.fzHz);
   if (c === null || typeof c !== "object") bad(fn, "choices", c, "expected a choices object (it may be empty)");
   for (const k of ["capacitor", "resistor", "capacitorRatio", "resistorRatio"] as const) {
-    if (c[k] !== undefined) positive(fn, `choices.${k}`, c[k]);
+    if (c[k] !== undefined) requirePositive(fn, `choices.${k}`, c[k]);
   }
 }
 
@@ -204,7 +217,7 @@ function scaleToLevel(spec: TopologySpec, v: Record<string, number>, c: StageCho
  */
 export function checkValues(fn: string, names: readonly string[], v: ComponentValues): void {
   if (v === null || typeof v !== "object") bad(fn, "values", v, "expected component values keyed by designator");
-  for (const n of names) positive(fn, `values.${n}`, v[n]);
+  for (const n of names) requirePositive(fn, `values.${n}`, v[n]);
 }
 
 function checkFreqs(fn: string, f: Float64Array): void {
@@ -283,221 +296,6 @@ export function stageCircuit(spec: TopologySpec, v: ComponentValues, opamp: OpAm
 }
 
 /**
- * Open-loop gain of the single-pole model at `s`: `a0 / (1 + s a0 / (2 pi GBW))`.
- *
- * @param m - DC gain and gain-bandwidth product
- * @param s - complex frequency (rad/s)
- * @returns `A(s)`
- * @throws never
- * @example
- * ```ts
- * openLoopGain({ a0: 1e5, gbwHz: 1e6 }, { re: 0, im: 0 }); //=> { re: 100000, im: 0 }
- * ```
- */
-export function openLoopGain(m: { readonly a0: number; readonly gbwHz: number }, s: Complex): Complex {
-  // a0 / (1 + s a0 / (2 pi GBW)) = 1 / (1/a0 + s / (2 pi GBW))
-  const tau = 1 / (TWO_PI * m.gbwHz);
-  return cdiv({ re: 1, im: 0 }, { re: 1 / m.a0 + s.re * tau, im: s.im * tau });
-}
-
-/** Ideal poles of a target: one real pole (first order), the upper-half-plane pole of a complex pair, or two real poles (Q <= 1/2). */
-function idealPoles(order: 1 | 2, f0Hz: number, q: number): Complex[] {
-  const w0 = TWO_PI * f0Hz;
-  if (order === 1) return [{ re: -w0, im: 0 }];
-  const d = 1 - 1 / (4 * q * q);
-  if (d > 0) return [{ re: -w0 / (2 * q), im: w0 * Math.sqrt(d) }];
-  const r = w0 * Math.sqrt(-d);
-  return [
-    { re: -w0 / (2 * q) + r, im: 0 },
-    { re: -w0 / (2 * q) - r, im: 0 },
-  ];
-}
-
-/**
- * A root of `f` near `start` by Muller's method (D. E. Muller, MTAC 10:208-215,
- * 1956): quadratic interpolation through the last three iterates.
- *
- * @param f - analytic function
- * @param start - starting point
- * @param scale - size of the neighbourhood (sets the first step and the stopping test)
- * @returns the root, or `null` when the iteration fails or does not settle in 100 steps
- * @throws never
- * @example
- * ```ts
- * mullerRoot((z) => ({ re: z.re * z.re - z.im * z.im + 1, im: 2 * z.re * z.im }), { re: 0.1, im: 0.9 }, 1);
- * //=> about { re: 0, im: 1 }
- * ```
- */
-export function mullerRoot(f: (s: Complex) => Complex, start: Complex, scale: number): Complex | null {
-  let x0: Complex = { re: start.re - 0.01 * scale, im: start.im };
-  let x1: Complex = { re: start.re + 0.01 * scale, im: start.im + 0.005 * scale };
-  let x2: Complex = start;
-  let f0 = f(x0);
-  let f1 = f(x1);
-  let f2 = f(x2);
-  for (let it = 0; it < 100; it++) {
-    const h1 = csub(x1, x0);
-    const h2 = csub(x2, x1);
-    const d1 = cdiv(csub(f1, f0), h1);
-    const d2 = cdiv(csub(f2, f1), h2);
-    const a = cdiv(csub(d2, d1), cadd(h2, h1));
-    const b = cadd(cmul(a, h2), d2);
-    const disc = csqrtLocal(csub(cmul(b, b), cmul({ re: 4 * f2.re, im: 4 * f2.im }, a)));
-    const e1 = cadd(b, disc);
-    const e2 = csub(b, disc);
-    const den = Math.hypot(e1.re, e1.im) >= Math.hypot(e2.re, e2.im) ? e1 : e2;
-    if (den.re === 0 && den.im === 0) return null;
-    const dx = cdiv({ re: -2 * f2.re, im: -2 * f2.im }, den);
-    x0 = x1;
-    f0 = f1;
-    x1 = x2;
-    f1 = f2;
-    x2 = cadd(x2, dx);
-    if (!Number.isFinite(x2.re) || !Number.isFinite(x2.im)) return null;
-    f2 = f(x2);
-    if (Math.hypot(dx.re, dx.im) <= 1e-13 * scale || (f2.re === 0 && f2.im === 0)) return x2;
-  }
-  return null;
-}
-
-function csqrtLocal(z: Complex): Complex {
-  const r = Math.hypot(z.re, z.im);
-  if (r === 0) return { re: 0, im: 0 };
-  const re = Math.sqrt((r + Math.abs(z.re)) / 2);
-  if (z.re >= 0) return { re, im: z.im / (2 * re) };
-  return { re: Math.abs(z.im) / (2 * re), im: z.im >= 0 ? re : -re };
-}
-
-/**
- * The dominant natural frequency of a stage built with single-pole op-amps,
- * as `{ f0Hz, q }` (q absent for first order), or null if not found.
- *
- * @param spec - topology
- * @param v - component values
- * @param model - op-amp model
- * @param start - ideal figures to start from
- * @returns the moved pole's f0 and Q
- * @throws never
- * @example
- * ```ts
- * stagePole(spec, values, { kind: "single-pole", a0: 1e12, gbwHz: 1e6 }, { f0Hz: 1e3, q: 0.707 });
- * ```
- */
-export function stagePole(
-  spec: TopologySpec,
-  v: ComponentValues,
-  model: OpAmpModel,
-  start: { readonly f0Hz: number; readonly q?: number },
-): { f0Hz: number; q?: number } | null {
-  return circuitPole(stageCircuit(spec, v, model), spec.order, start);
-}
-
-/**
- * The natural frequency of a circuit nearest to an ideal first- or
- * second-order pole, as `{ f0Hz, q }` (q absent for first order), or null
- * when Muller's iteration on `det(G + s C)` fails.
- *
- * @param circuit - a valid circuit (its sources shorted by the MNA rows)
- * @param order - 1 (real pole near -w0) or 2 (pole pair near the ideal one)
- * @param start - ideal f0 (and Q) to start from
- * @returns the pole's f0 and Q
- * @throws never
- * @example
- * ```ts
- * circuitPole(circuit, 2, { f0Hz: 1000, q: 2 }); //=> { f0Hz: 980.49..., q: 2.038... } (unity-gain Sallen-Key, GBW 100 kHz)
- * ```
- */
-export function circuitPole(
-  circuit: Circuit,
-  order: 1 | 2,
-  start: { readonly f0Hz: number; readonly q?: number },
-): { f0Hz: number; q?: number } | null {
-  const sys = assembleMna(circuit);
-  const w0 = TWO_PI * start.f0Hz;
-  // Scale the determinant so Muller's divided differences stay in range.
-  const ref = mnaDeterminant(sys, { re: 0, im: w0 * 3 });
-  const refMag = Math.hypot(ref.re, ref.im) || 1;
-  const f = (s: Complex): Complex => {
-    const d = mnaDeterminant(sys, s);
-    return { re: d.re / refMag, im: d.im / refMag };
-  };
-  const ideal = idealPoles(order, start.f0Hz, start.q ?? 0.5);
-  const p = mullerRoot(f, ideal[0] as Complex, w0);
-  if (p === null) return null;
-  const mag = Math.hypot(p.re, p.im);
-  if (order === 1) return { f0Hz: mag / TWO_PI };
-  if (ideal.length === 1 && Math.abs(p.im) > 1e-9 * mag) return { f0Hz: mag / TWO_PI, q: mag / (-2 * p.re) };
-  // Two real poles (or a pair that became real): find the second one with the first deflated out.
-  const deflated = (s: Complex): Complex => cdiv(f(s), csub(s, p));
-  const second = ideal[1] ?? { re: p.re * 1.01, im: 0 };
-  const p2 = mullerRoot(deflated, second, w0);
-  if (p2 === null) return null;
-  const prod = cmul(p, p2).re;
-  const sum = -(p.re + p2.re);
-  if (!(prod > 0) || !(sum !== 0)) return null;
-  const w = Math.sqrt(prod);
-  return { f0Hz: w / TWO_PI, q: w / sum };
-}
-
-/**
- * Smallest GBW (Hz) with which the stage's pole f0 and Q stay within 1 % of
- * the ideal design, found numerically (see the module header).
- *
- * @param spec - topology
- * @param design - its design function
- * @param t - target (valid)
- * @returns the demand in Hz
- * @throws {@link UnrealisableError} when no GBW up to 1e12 times f0 suffices
- * @example
- * ```ts
- * gbwDemand(spec, design, { order: 2, kind: "lowpass", f0Hz: 1000, q: 0.707, gain: 1 }); //=> about 3e4
- * ```
- */
-export function gbwDemand(
-  spec: TopologySpec,
-  design: (t: StageTarget, c: StageChoices) => ComponentValues,
-  t: StageTarget,
-): number {
-  const v = design(t, {});
-  const ideal = spec.figures(v);
-  const ok = (gbwHz: number): boolean => {
-    if (spec.order === 1) {
-      // First order: the response at f0 must stay as close to ideal as a 1 % shift of f0 would leave it.
-      const s = { re: 0, im: TWO_PI * ideal.f0Hz };
-      const h = spec.closedForm(v, s, openLoopGain({ a0: GBW_DEMAND_A0, gbwHz }, s));
-      const h0 = spec.closedForm(v, s, null);
-      const r = cdiv(h, h0);
-      return Math.hypot(r.re - 1, r.im) <= FIRST_ORDER_DEVIATION;
-    }
-    const p = stagePole(spec, v, { kind: "single-pole", a0: GBW_DEMAND_A0, gbwHz }, ideal);
-    if (p === null) return false;
-    if (Math.abs(p.f0Hz / ideal.f0Hz - 1) > 0.01) return false;
-    if (ideal.q !== undefined && (p.q === undefined || Math.abs(p.q / ideal.q - 1) > 0.01)) return false;
-    return true;
-  };
-  let lo = t.f0Hz;
-  let hi = t.f0Hz * 4;
-  while (!ok(hi)) {
-    lo = hi;
-    hi *= 4;
-    if (hi > t.f0Hz * 1e12) {
-      throw new UnrealisableError({
-        fn: `${spec.id}.gbwDemandHz`,
-        path: "target",
-        received: t,
-        message: "no op-amp gain-bandwidth product up to 1e12 times f0 keeps f0 and Q within 1 %; lower Q or choose another topology",
-      });
-    }
-  }
-  while (hi / lo > 1.001) {
-    const mid = Math.sqrt(lo * hi);
-    if (ok(mid)) hi = mid;
-    else lo = mid;
-  }
-  return hi;
-}
-
-/**
  * Build a {@link Topology} from a specification: adds argument checks, the
  * realisable-range check, impedance-level scaling, element placement,
  * response evaluation and the GBW demand.
@@ -510,7 +308,7 @@ export function gbwDemand(
  * const t = defineTopology(spec); t.id; //=> spec.id
  * ```
  */
-export function defineTopology(spec: TopologySpec): DefinedTopology {
+export function defineTopology(spec: TopologySpec): Topology {
   const componentNames = Object.freeze(spec.parts.filter((p) => p.kind !== "OA").map((p) => p.name));
   const opampCount = spec.parts.filter((p) => p.kind === "OA").length;
   const reason = (fn: string, t: StageTarget, c: StageChoices): string | null => {
@@ -586,9 +384,9 @@ export function defineTopology(spec: TopologySpec): DefinedTopology {
   const gbwDemandHz = (t: StageTarget): number => {
     const why = reason(`${spec.id}.gbwDemandHz`, t, {});
     if (why !== null) throw new UnrealisableError({ fn: `${spec.id}.gbwDemandHz`, path: "target", received: t, message: why });
-    return gbwDemand(spec, designFn, t);
+    return gbwDemand({ ...spec, circuit: (v, opamp) => stageCircuit(spec, v, opamp) }, designFn, t);
   };
-  const topo: DefinedTopology = {
+  const topo: Topology = {
     id: spec.id,
     name: spec.name,
     order: spec.order,
@@ -606,107 +404,6 @@ export function defineTopology(spec: TopologySpec): DefinedTopology {
     ...(spec.fixedGain === undefined ? {} : { fixedGain: spec.fixedGain }),
   };
   return Object.freeze(topo);
-}
-
-// ---- small complex helpers for closed forms ----
-
-/** Real number as complex (closed-form helper). */
-export const re = (x: number): Complex => ({ re: x, im: 0 });
-/** `s * x` for real x (closed-form helper). */
-export const sx = (s: Complex, x: number): Complex => ({ re: s.re * x, im: s.im * x });
-export { cadd, cdiv, cmul, csub };
-
-/**
- * Effective gain of a non-inverting amplifier with feedback fraction beta:
- * `a / (1 + a beta)`, or `1/beta` when ideal.
- *
- * @param a - open-loop gain, or `null` for the ideal op-amp
- * @param beta - feedback fraction (0, 1]
- * @returns the closed-loop gain
- * @throws never
- * @example
- * ```ts
- * nonInvertingGain(null, 0.5); //=> { re: 2, im: 0 }
- * ```
- */
-export function nonInvertingGain(a: Complex | null, beta: number): Complex {
-  if (a === null) return re(1 / beta);
-  return cdiv(a, { re: 1 + a.re * beta, im: a.im * beta });
-}
-
-/**
- * Inverting-amplifier family with a virtual-earth node `n`: input admittance
- * `y1` from the source, feedback admittance `y2` to the output:
- * `H = -y1 / (y2 + (y1 + y2) / a)`.
- *
- * @param y1 - input admittance
- * @param y2 - feedback admittance
- * @param a - open-loop gain, or `null` for the ideal op-amp
- * @returns the transfer
- * @throws never
- * @example
- * ```ts
- * invertingGain({ re: 1e-3, im: 0 }, { re: 5e-4, im: 0 }, null); //=> { re: -2, im: 0 }
- * ```
- */
-export function invertingGain(y1: Complex, y2: Complex, a: Complex | null): Complex {
-  const den = a === null ? y2 : cadd(y2, cdiv(cadd(y1, y2), a));
-  return cdiv({ re: -y1.re, im: -y1.im }, den);
-}
-
-/**
- * Inverting summer with finite gain: inputs `vk` through conductances `Gk`,
- * feedback conductance `gf`: `out = -sum(Gk vk) / (gf + (sum(Gk) + gf)/a)`.
- *
- * @param terms - `[Gk, vk]` pairs
- * @param gf - feedback conductance
- * @param a - open-loop gain, or `null` for the ideal op-amp
- * @returns the output
- * @throws never
- * @example
- * ```ts
- * summer([[1e-4, { re: 1, im: 0 }]], 1e-4, null); //=> { re: -1, im: 0 }
- * ```
- */
-export function summer(terms: readonly (readonly [number, Complex])[], gf: number, a: Complex | null): Complex {
-  let num: Complex = { re: 0, im: 0 };
-  let gsum = gf;
-  for (const [gk, vk] of terms) {
-    num = cadd(num, { re: gk * vk.re, im: gk * vk.im });
-    gsum += gk;
-  }
-  const den = a === null ? re(gf) : cadd(re(gf), cdiv(re(gsum), a));
-  return cdiv({ re: -num.re, im: -num.im }, den);
-}
-
-/**
- * Multiple-feedback kernel: `y1` input to node a, `y2` a to ground, `y3` a to
- * the inverting input n, `y4` a to output, `y5` n to output; non-inverting
- * input grounded; open-loop gain `a` (`null` = ideal):
- * `H = -y1 y3 / ( ((y3 + y5)/a + y5) (y1+y2+y3+y4) + y3 y4 - y3^2/a )`
- * (written without dividing by `y3`, which vanishes at 0 Hz in some stages).
- *
- * @param y - the five admittances `[y1, y2, y3, y4, y5]`
- * @param a - open-loop gain, or `null` for the ideal op-amp
- * @returns the transfer
- * @throws never
- * @example
- * ```ts
- * const g = { re: 1e-4, im: 0 }, z = { re: 0, im: 0 };
- * mfbKernel([g, z, g, g, g], null); //=> { re: -0.25, im: 0 }
- * ```
- */
-export function mfbKernel(
-  y: readonly [Complex, Complex, Complex, Complex, Complex],
-  a: Complex | null,
-): Complex {
-  const [y1, y2, y3, y4, y5] = y;
-  const ya = cadd(cadd(y1, y2), cadd(y3, y4));
-  const t = a === null ? y5 : cadd(cdiv(cadd(y3, y5), a), y5);
-  let den = cadd(cmul(t, ya), cmul(y3, y4));
-  if (a !== null) den = csub(den, cdiv(cmul(y3, y3), a));
-  const num = cmul(y1, y3);
-  return cdiv({ re: -num.re, im: -num.im }, den);
 }
 
 /**
