@@ -14,7 +14,7 @@
  */
 import type { Circuit, Element, OpAmpModel } from "../circuit/types.ts";
 import { assembleMna, checkStructure, solveMna } from "../circuit/mna.ts";
-import { checkCircuit } from "../circuit/validate.ts";
+import { checkCircuit, checkOpAmpModel } from "../circuit/validate.ts";
 import { InvalidArgumentError, UnrealisableError } from "../errors.ts";
 import { TWO_PI } from "../units/constants.ts";
 import { requirePositive } from "../validate.ts";
@@ -137,6 +137,15 @@ function bad(fn: string, path: string, received: unknown, message: string): neve
  * ```
  */
 export function checkShape(fn: string, spec: TopologySpec, t: StageTarget, c: StageChoices): void {
+  checkTarget(fn, spec, t, true);
+  if (c === null || typeof c !== "object") bad(fn, "choices", c, "expected a choices object (it may be empty)");
+  for (const k of ["capacitor", "resistor", "capacitorRatio", "resistorRatio"] as const) {
+    if (c[k] !== undefined) requirePositive(fn, `choices.${k}`, c[k]);
+  }
+}
+
+/** The target half of {@link checkShape}; `withGain` false for a target whose gain the topology fixes. */
+function checkTarget(fn: string, spec: TopologySpec, t: Omit<StageTarget, "gain"> & { readonly gain?: number }, withGain: boolean): void {
   if (t === null || typeof t !== "object") bad(fn, "target", t, "expected a stage target { order, kind, f0Hz, q, gain }");
   if (t.order !== spec.order) {
     bad(fn, "target.order", t.order, `${spec.name} builds order-${spec.order} stages; choose a topology of order ${t.order}`);
@@ -146,15 +155,23 @@ export function checkShape(fn: string, spec: TopologySpec, t: StageTarget, c: St
   }
   requirePositive(fn, "target.f0Hz", t.f0Hz);
   if (spec.order === 2) requirePositive(fn, "target.q", t.q);
-  if (typeof t.gain !== "number" || !Number.isFinite(t.gain) || t.gain === 0) {
+  if (withGain && (typeof t.gain !== "number" || !Number.isFinite(t.gain) || t.gain === 0)) {
     bad(fn, "target.gain", t.gain, "expected a finite, non-zero gain (V/V, sign included)");
   }
   if (t.kind === "lowpass-notch" || t.kind === "highpass-notch") requirePositive(fn, "target.fzHz", t.fzHz);
   if (t.kind === "notch" && t.fzHz !== undefined) requirePositive(fn, "target.fzHz", t.fzHz);
-  if (c === null || typeof c !== "object") bad(fn, "choices", c, "expected a choices object (it may be empty)");
-  for (const k of ["capacitor", "resistor", "capacitorRatio", "resistorRatio"] as const) {
-    if (c[k] !== undefined) requirePositive(fn, `choices.${k}`, c[k]);
+}
+
+/** Check a placement: node names and prefix strings, `rename` a function, a valid op-amp model. */
+function checkPlacement(fn: string, p: StagePlacement): void {
+  if (p === null || typeof p !== "object") bad(fn, "placement", p, "expected { input, output, nodePrefix, opamp }");
+  for (const k of ["input", "output", "nodePrefix"] as const) {
+    if (typeof p[k] !== "string") bad(fn, `placement.${k}`, p[k], "expected a string (a node name or prefix)");
   }
+  if (p.rename !== undefined && typeof p.rename !== "function") {
+    bad(fn, "placement.rename", p.rename, "expected a function from a local designator to the circuit's designator, or nothing");
+  }
+  checkOpAmpModel(fn, "placement.opamp", p.opamp);
 }
 
 /** Reason the target's kind-specific relations fail (notch side, gain sign), or null. */
@@ -349,6 +366,7 @@ export function defineTopology(spec: TopologySpec): Topology {
     const fn = `${spec.id}.response`;
     checkValues(fn, componentNames, v);
     checkFreqs(fn, freqHz);
+    checkOpAmpModel(fn, "opamp", opamp);
     const m = freqHz.length;
     if (opamp?.kind === "ideal" || (opamp?.kind === "single-pole" && spec.closedFormFinite)) {
       const re = new Float64Array(m);
@@ -376,7 +394,7 @@ export function defineTopology(spec: TopologySpec): Topology {
   const elements = (v: ComponentValues, p: StagePlacement): readonly Element[] => {
     const fn = `${spec.id}.elements`;
     checkValues(fn, componentNames, v);
-    if (p === null || typeof p !== "object") bad(fn, "placement", p, "expected { input, output, nodePrefix, opamp }");
+    checkPlacement(fn, p);
     const out = placeParts(spec.parts, v, p);
     checkCircuit(fn, { title: spec.name, elements: out });
     return out;
@@ -386,6 +404,14 @@ export function defineTopology(spec: TopologySpec): Topology {
     if (why !== null) throw new UnrealisableError({ fn: `${spec.id}.gbwDemandHz`, path: "target", received: t, message: why });
     return gbwDemand({ ...spec, circuit: (v, opamp) => stageCircuit(spec, v, opamp) }, designFn, t);
   };
+  const ownGain = spec.fixedGain;
+  const fixedGain =
+    ownGain === undefined
+      ? undefined
+      : (t: Omit<StageTarget, "gain">): number => {
+          checkTarget(`${spec.id}.fixedGain`, spec, t, false);
+          return ownGain(t);
+        };
   const topo: Topology = {
     id: spec.id,
     name: spec.name,
@@ -401,7 +427,7 @@ export function defineTopology(spec: TopologySpec): Topology {
     response,
     elements,
     gbwDemandHz,
-    ...(spec.fixedGain === undefined ? {} : { fixedGain: spec.fixedGain }),
+    ...(fixedGain === undefined ? {} : { fixedGain }),
   };
   return Object.freeze(topo);
 }
