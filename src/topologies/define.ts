@@ -20,15 +20,7 @@ import { TWO_PI } from "../units/constants.ts";
 import { requirePositive } from "../validate.ts";
 import { gbwDemand } from "./as-built.ts";
 import { openLoopGain, type ClosedForm } from "./kernels.ts";
-import type {
-  ComponentValues,
-  StageChoices,
-  StageFigures,
-  StageKind,
-  StagePlacement,
-  StageTarget,
-  Topology,
-} from "./types.ts";
+import type { ComponentValues, StageChoices, StageFigures, StageKind, StagePlacement, StageTarget, Topology } from "./types.ts";
 
 /**
  * Impedance level used when neither a capacitor nor a resistor is chosen: the level resistor is 10 kOhm.

@@ -9,7 +9,8 @@
 import { describe, expect, it } from "vitest";
 import { FilterwrightError } from "../../src/errors.ts";
 import { topologies } from "../../src/topologies/registry.ts";
-import type { ComponentValues, StageTarget, Topology } from "../../src/topologies/types.ts";
+import type { ComponentValues, StageTarget } from "../../src/topologies/types.ts";
+import { sampleTarget } from "../topologies/arbitraries.ts";
 
 /** The first non-finite number found in a value, as a path, or null. */
 function nonFinite(value: unknown, path = "result", seen = new Set<unknown>()): string | null {
@@ -42,21 +43,6 @@ function verdict(call: () => unknown): string | null {
 
 const BAD_NUMBERS: readonly unknown[] = [undefined, null, -1, 0, Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY, "1000", {}, [], true];
 const NON_OBJECTS: readonly unknown[] = [undefined, null, 0, Number.NaN, "x", true, [], [1, 2]];
-
-/** A target the topology realises. */
-function goodTarget(t: Topology): StageTarget {
-  const kind = t.kinds[0] as StageTarget["kind"];
-  const base = { order: t.order, kind, f0Hz: 2000, q: 1.2 } as const;
-  let gain = t.id.includes("unity") || t.id.includes("buffer") ? 1 : 2.5;
-  if (t.id === "mfb-bandpass") gain = 3;
-  if (t.fixedGain !== undefined) gain = t.fixedGain(base);
-  return {
-    ...base,
-    gain: t.inverting ? -gain : gain,
-    ...(kind === "lowpass-notch" ? { fzHz: 5000 } : {}),
-    ...(kind === "highpass-notch" ? { fzHz: 900 } : {}),
-  };
-}
 
 /** Targets with one field made wrong at a time, and wrong targets as a whole. */
 function badTargets(good: StageTarget): unknown[] {
@@ -130,7 +116,7 @@ describe("every topology's methods reject bad input with a typed error or return
 
   for (const topo of topologies) {
     describe(topo.id, () => {
-      const target = goodTarget(topo);
+      const target = sampleTarget(topo);
       const values = topo.design(target, {});
       const m = topo as unknown as Record<string, AnyFn>;
       const expectAll = (calls: readonly [string, () => unknown][]): void => {

@@ -60,3 +60,18 @@ export function realisableArb(topo: Topology): fc.Arbitrary<{ target: StageTarge
     .record({ target: targetArb(topo), choices: choicesArb })
     .filter(({ target, choices }) => topo.check(target, choices) === null);
 }
+
+/** One fixed target each topology realises (f0 2 kHz, Q 1.2, a gain it accepts). */
+export function sampleTarget(t: Topology): StageTarget {
+  const kind = t.kinds[0] as StageTarget["kind"];
+  const base = { order: t.order, kind, f0Hz: 2000, q: 1.2 } as const;
+  let gain = t.id.includes("unity") || t.id.includes("buffer") ? 1 : 2.5;
+  if (t.id === "mfb-bandpass") gain = 3;
+  if (t.fixedGain !== undefined) gain = t.fixedGain(base);
+  return {
+    ...base,
+    gain: t.inverting ? -gain : gain,
+    ...(kind === "lowpass-notch" ? { fzHz: 5000 } : {}),
+    ...(kind === "highpass-notch" ? { fzHz: 900 } : {}),
+  };
+}

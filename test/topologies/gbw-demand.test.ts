@@ -1,26 +1,12 @@
 import { describe, expect, it } from "vitest";
 import { getTopology, topologies } from "../../src/topologies/registry.ts";
 import { GBW_DEMAND_A0, asBuiltPole } from "../../src/topologies/as-built.ts";
-import type { StageTarget, Topology } from "../../src/topologies/types.ts";
+import type { StageTarget } from "../../src/topologies/types.ts";
 import { loadFixture } from "../helpers/fixtures.ts";
 import fc from "fast-check";
-import { realisableArb } from "./arbitraries.ts";
+import { realisableArb, sampleTarget } from "./arbitraries.ts";
 
 const fixture = loadFixture<{ cases: { id: string; target: StageTarget; gbwHz: number }[] }>("circuit-gbw-demand.json");
-
-function sampleTarget(t: Topology): StageTarget {
-  const kind = t.kinds[0]!;
-  const base = { order: t.order, kind, f0Hz: 2000, q: 1.2 } as const;
-  let gain = t.id.includes("unity") || t.id.includes("buffer") ? 1 : 2.5;
-  if (t.id === "mfb-bandpass") gain = 3;
-  if (t.fixedGain !== undefined) gain = t.fixedGain(base);
-  return {
-    ...base,
-    gain: t.inverting ? -gain : gain,
-    ...(kind === "lowpass-notch" ? { fzHz: 5000 } : {}),
-    ...(kind === "highpass-notch" ? { fzHz: 900 } : {}),
-  };
-}
 
 /** (a.re + j a.im) / (b.re + j b.im) as [re, im]. */
 function divide([ar, ai]: readonly [number, number], [br, bi]: readonly [number, number]): [number, number] {
