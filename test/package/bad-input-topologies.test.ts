@@ -8,26 +8,10 @@
  */
 import { describe, expect, it } from "vitest";
 import { FilterwrightError } from "../../src/errors.ts";
+import { firstNonFinite } from "../helpers/finite.ts";
 import { topologies } from "../../src/topologies/registry.ts";
 import type { ComponentValues, StageTarget } from "../../src/topologies/types.ts";
 import { sampleTarget } from "../topologies/arbitraries.ts";
-
-/** The first non-finite number found in a value, as a path, or null. */
-function nonFinite(value: unknown, path = "result", seen = new Set<unknown>()): string | null {
-  if (typeof value === "number") return Number.isFinite(value) ? null : `${path} = ${value}`;
-  if (typeof value !== "object" || value === null || seen.has(value)) return null;
-  seen.add(value);
-  if (ArrayBuffer.isView(value)) {
-    const a = value as unknown as ArrayLike<number>;
-    for (let i = 0; i < a.length; i++) if (!Number.isFinite(a[i])) return `${path}[${i}] = ${a[i]}`;
-    return null;
-  }
-  for (const [k, v] of Object.entries(value)) {
-    const bad = nonFinite(v, `${path}.${k}`, seen);
-    if (bad !== null) return bad;
-  }
-  return null;
-}
 
 /** Run a call: it must throw a FilterwrightError or return finite data. Returns a failure description or null. */
 function verdict(call: () => unknown): string | null {
@@ -37,7 +21,7 @@ function verdict(call: () => unknown): string | null {
   } catch (e) {
     return e instanceof FilterwrightError ? null : `threw ${(e as Error)?.constructor?.name}: ${(e as Error)?.message}`;
   }
-  const bad = nonFinite(out);
+  const bad = firstNonFinite(out);
   return bad === null ? null : `returned ${bad}`;
 }
 
