@@ -3,19 +3,13 @@
 // attenuations in the ranges engineers ask for. Used by the design snapshot
 // (scripts/design-snapshot.mjs) and the corpus benchmark (bench/).
 //
-// The same seed always gives the same specs (Mulberry32, T. Ettinger 2017,
-// public-domain generator; only used here to pick specs).
+// The same seed always gives the same specs (the library's own Mulberry32
+// generator, src/math/random.ts, from the built package: run `npm run build` first).
+import { dirname, join } from "node:path";
+import { fileURLToPath } from "node:url";
 
-function mulberry32(seed) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+const root = join(dirname(fileURLToPath(import.meta.url)), "..");
+const { mulberry32 } = await import(join(root, "dist", "math", "index.js"));
 
 const RESPONSES = ["lowpass", "highpass", "bandpass", "bandstop"];
 const FAMILIES = ["auto", "butterworth", "chebyshev1", "chebyshev2", "elliptic", "bessel", "legendre"];

@@ -1,8 +1,8 @@
 """Reference GBW demands for three topologies, from characteristic polynomials
 derived by hand and rooted with numpy.roots (independent of the nodal
-analysis and Muller iteration used in src/topologies/common.ts).
+analysis and Muller iteration used in src/topologies/as-built.ts and src/math/muller.ts).
 
-Op-amp: single pole, A(s) = a0 / (1 + s/wp), wp = 2 pi GBW / a0, a0 = 1e12 (as in src/topologies/common.ts).
+Op-amp: single pole, A(s) = a0 / (1 + s/wp), wp = 2 pi GBW / a0, a0 = 1e12 (as in src/topologies/as-built.ts).
 Criterion: smallest GBW with the dominant pole's f0 and Q within 1 % of the
 ideal design (second order); for first order, |H(j w0)/H_ideal(j w0) - 1| no
 larger than a 1 % shift of f0 would cause.

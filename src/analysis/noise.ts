@@ -7,7 +7,8 @@
  * (J. Vlach & K. Singhal, "Computer Methods for Circuit Analysis and Design",
  * 2nd ed., Van Nostrand Reinhold, 1994, chapter on noise analysis, from
  * memory). The whole-filter circuit is assembled as the modified nodal
- * equations `A(s) x = b` of `src/circuit/mna.ts`. The output voltage is
+ * equations `A(s) x = b` of `src/circuit/mna.ts` and solved there (`solveMna`
+ * with `transpose`). The output voltage is
  * `v(out) = e_out^T A^-1 b = y^T b` with `A^T y = e_out`, so one solve of the
  * transposed system per frequency gives the transfer from every possible
  * excitation to the output at once: a current `i` injected into node `j`
@@ -39,8 +40,8 @@ import type { DesignResult } from "../design/index.ts";
 import { designCircuit } from "../design/circuit.ts";
 import { responseSpanHz } from "../design/verify.ts";
 import { requireDesignResult } from "../design/check.ts";
-import { assembleMna, checkStructure } from "../circuit/mna.ts";
-import { luFactorInPlace, luSolveInPlace } from "../math/linear.ts";
+import { assembleMna, checkStructure, solveMna } from "../circuit/mna.ts";
+import type { ComplexResponse } from "../tf/response.ts";
 
 /** Boltzmann's constant in J/K (exact since the 2019 SI redefinition). */
 export const BOLTZMANN_J_PER_K = 1.380649e-23;
@@ -184,7 +185,7 @@ export function noiseAnalysis(result: DesignResult, options?: NoiseAnalysisOptio
   const circuit = designCircuit(result);
   checkStructure(fn, circuit, false);
   const sys = assembleMna(circuit);
-  const { n, g, c } = sys;
+  const { n } = sys;
   const idx = (node: string): number => (node === "0" ? -1 : (sys.nodeIndex.get(node) ?? -1));
   const outIndex = idx("out");
   const kT4 = 4 * BOLTZMANN_J_PER_K * opts.temperatureK;
@@ -205,42 +206,36 @@ export function noiseAnalysis(result: DesignResult, options?: NoiseAnalysisOptio
   const contributions: Record<string, Float64Array> = {};
   const power = sources.map(() => new Float64Array(m));
   const total = new Float64Array(m);
-  const ar = new Float64Array(n * n);
-  const ai = new Float64Array(n * n);
-  const piv = new Int32Array(n);
-  const rhs = { re: new Float64Array(n), im: new Float64Array(n) };
-  rhs.re[outIndex] = 1;
-  const y = { re: new Float64Array(n), im: new Float64Array(n) };
-  for (let f = 0; f < m; f++) {
-    const w = 2 * Math.PI * (freqHz[f] as number);
-    // The transposed system A^T y = e_out.
-    for (let i = 0; i < n; i++) {
-      for (let j = 0; j < n; j++) {
-        ar[j * n + i] = g[i * n + j] as number;
-        ai[j * n + i] = w * (c[i * n + j] as number);
-      }
-    }
-    const bad = luFactorInPlace(n, ar, ai, piv);
-    if (bad >= 0) {
+  // One solve of the transposed system A^T y = e_out per frequency gives every source's transfer.
+  const all = Array.from({ length: n }, (_, j) => j);
+  const y = solveMna(fn, sys, {
+    sourceRow: outIndex,
+    outputs: all,
+    freqHz,
+    transpose: true,
+    singular: (bad, fHz) => {
       const culprit = sys.unknowns[bad] ?? "?";
-      throw new SingularCircuitError(
+      return new SingularCircuitError(
         {
           fn,
           path: "result",
-          received: freqHz[f],
-          message: `the design's circuit has singular nodal equations at ${freqHz[f]} Hz (unknown ${culprit}), so its noise is undefined`,
+          received: fHz,
+          message: `the design's circuit has singular nodal equations at ${fHz} Hz (unknown ${culprit}), so its noise is undefined`,
         },
         [culprit.slice(2, -1)],
       );
-    }
-    luSolveInPlace(n, { re: ar, im: ai, pivots: piv }, rhs, y);
+    },
+  });
+  for (let f = 0; f < m; f++) {
     let sum = 0;
     sources.forEach((s, k) => {
-      let tr = s.plus >= 0 ? (y.re[s.plus] as number) : 0;
-      let ti = s.plus >= 0 ? (y.im[s.plus] as number) : 0;
+      const plus = s.plus >= 0 ? (y[s.plus] as ComplexResponse) : null;
+      let tr = plus === null ? 0 : (plus.re[f] as number);
+      let ti = plus === null ? 0 : (plus.im[f] as number);
       if (s.minus >= 0) {
-        tr -= y.re[s.minus] as number;
-        ti -= y.im[s.minus] as number;
+        const minus = y[s.minus] as ComplexResponse;
+        tr -= minus.re[f] as number;
+        ti -= minus.im[f] as number;
       }
       const p = (tr * tr + ti * ti) * s.density * s.density;
       (power[k] as Float64Array)[f] = p;

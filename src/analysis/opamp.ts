@@ -15,6 +15,7 @@
  */
 import { logGrid } from "../tf/index.ts";
 import { requireOptions, requirePositive } from "../validate.ts";
+import { TWO_PI } from "../units/constants.ts";
 import { responseSpanHz, type DesignResult } from "../design/index.ts";
 import { builtStages } from "../design/response.ts";
 import { multiplyInPlace } from "../design/verify.ts";
@@ -86,7 +87,7 @@ export function opampRequirements(result: DesignResult, options?: OpampRequireme
         peak = m;
         peakHz = f[i] as number;
       }
-      const sl = 2 * Math.PI * (f[i] as number) * m;
+      const sl = TWO_PI * (f[i] as number) * m;
       if (sl > slew) {
         slew = sl;
         slewHz = f[i] as number;

@@ -14,6 +14,7 @@
  * @module
  */
 import { InvalidArgumentError } from "../errors.ts";
+import { mulberry32 } from "../math/random.ts";
 import { requireInRange, requireInteger, requireOptions } from "../validate.ts";
 import type { DesignResult } from "../design/index.ts";
 import { builtStages } from "../design/response.ts";
@@ -82,17 +83,6 @@ export interface MonteCarloResult {
   readonly gainDb: Spread;
   /** The component values of the worst board, by designator. */
   readonly worstBoard: Readonly<Record<string, number>>;
-}
-
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
 }
 
 function spread(xs: number[]): Spread {

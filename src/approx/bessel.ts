@@ -23,7 +23,8 @@ import type { Complex } from "../math/complex.ts";
 import { reverseBesselRoots } from "../math/bessel.ts";
 import type { Zpk } from "../tf/types.ts";
 import { requireInteger, requireOneOf, requireOptions } from "../validate.ts";
-import { bracketRoot, freezeZpk } from "./internal.ts";
+import { EDGE_SEARCH, freezeZpk } from "./internal.ts";
+import { bracketRoot } from "../math/bracket.ts";
 import type { BesselNormalization, BesselOptions } from "./types.ts";
 
 /**
@@ -109,7 +110,7 @@ export function besselDelay3dB(order: number): number {
   const f = (w: number): number => Math.log(besselDelayMagnitude(order, w) / target);
   let hi = 2 + Math.sqrt(order);
   while (f(hi) > 0) hi *= 2;
-  return bracketRoot(f, 1e-3, hi);
+  return bracketRoot(f, 1e-3, hi, EDGE_SEARCH);
 }
 
 /**

@@ -1,11 +1,13 @@
 /**
  * Private helpers shared by the approximation families: building conjugate
- * pairs, freezing results, evaluating |H(jw)| of a zpk directly, and scaling
- * a prototype in frequency. Not exported from the layer index.
+ * pairs, freezing results, evaluating |H(jw)| of a zpk directly, scaling
+ * a prototype in frequency, and the stopping rules of the band-edge searches.
+ * Not exported from the layer index.
  *
  * @module
  */
 import { InvalidArgumentError } from "../errors.ts";
+import type { BracketRootOptions } from "../math/bracket.ts";
 import type { Complex } from "../math/complex.ts";
 import type { Zpk } from "../tf/types.ts";
 
@@ -71,38 +73,16 @@ export function scaleZpk(zpk: Zpk, w0: number): Zpk {
 }
 
 /**
- * Find a root of a continuous scalar function in a bracket [a, b] where
- * f(a) and f(b) differ in sign, by the Illinois variant of regula falsi with
- * bisection safeguard (M. Dowell and P. Jarratt, "A modified regula falsi
- * method for computing the root of an equation", BIT 11, 1971, pp. 168-174).
- * Converges to a relative width of ~4 ulp.
+ * Stopping rules of the approximation layer's band-edge searches with
+ * {@link bracketRoot}: up to 400 steps, every fifth a bisection, to a bracket
+ * of 2 ulp, returning the end with the smaller residual.
  */
-export function bracketRoot(f: (x: number) => number, a: number, b: number): number {
-  let x0 = a;
-  let x1 = b;
-  let f0 = f(x0);
-  let f1 = f(x1);
-  if (f0 === 0) return x0;
-  if (f1 === 0) return x1;
-  for (let i = 0; i < 400; i++) {
-    let x2 = x1 - (f1 * (x1 - x0)) / (f1 - f0);
-    const lo = Math.min(x0, x1);
-    const hi = Math.max(x0, x1);
-    if (!(x2 > lo && x2 < hi) || i % 5 === 4) x2 = 0.5 * (lo + hi);
-    const f2 = f(x2);
-    if (f2 === 0) return x2;
-    if (f2 * f1 < 0) {
-      x0 = x1;
-      f0 = f1;
-    } else {
-      f0 /= 2;
-    }
-    x1 = x2;
-    f1 = f2;
-    if (Math.abs(x1 - x0) <= 2 * Number.EPSILON * Math.max(Math.abs(x0), Math.abs(x1))) break;
-  }
-  return Math.abs(f0) < Math.abs(f1) ? x0 : x1;
-}
+export const EDGE_SEARCH: BracketRootOptions = Object.freeze({
+  maxIterations: 400,
+  bisectEvery: 5,
+  relWidth: 2 * Number.EPSILON,
+  result: "smaller-residual",
+});
 
 /**
  * Require an elliptic stopband attenuation greater than the passband ripple.

@@ -26,7 +26,8 @@
 import { InvalidArgumentError, type Issue, SpecError, UnrealisableError } from "../errors.ts";
 import { requireOptions, requirePositive } from "../validate.ts";
 import { BESSEL_MAX_ORDER, BESSEL_NORMALIZATIONS, besselDelayGroupDelay, besselDelayMagnitude, besselScale } from "./bessel.ts";
-import { bracketRoot } from "./internal.ts";
+import { EDGE_SEARCH } from "./internal.ts";
+import { bracketRoot } from "../math/bracket.ts";
 import { ellipticK, ellipticKp, modulusOf } from "./landen.ts";
 import { legendreL } from "./legendre.ts";
 import { familyMaxOrder, type PrototypeSpec } from "./prototype.ts";
@@ -223,14 +224,14 @@ function passbandEdgeOf(c: CheckedSpec, n: number): number {
       const f = (w: number): number => Math.log(besselDelayMagnitude(n, w) / target);
       let hi = 2 + Math.sqrt(n);
       while (f(hi) > 0) hi *= 2;
-      return bracketRoot(f, 0, hi) / besselScale(n, c.norm);
+      return bracketRoot(f, 0, hi, EDGE_SEARCH) / besselScale(n, c.norm);
     }
     case "legendre": {
       const target = pow10m1(0.1 * c.gpass);
       const f = (w: number): number => legendreL(n, w * w) - target;
       let hi = 2;
       while (f(hi) < 0) hi *= 2;
-      return bracketRoot(f, 0, hi);
+      return bracketRoot(f, 0, hi, EDGE_SEARCH);
     }
   }
 }
@@ -242,7 +243,7 @@ function searchedMeets(c: CheckedSpec, n: number, nat: number): boolean {
     const f = (w: number): number => Math.log(besselDelayMagnitude(n, w) / target);
     let hi = 2 + Math.sqrt(n);
     while (f(hi) > 0) hi *= 2;
-    const wpDelay = bracketRoot(f, 0, hi);
+    const wpDelay = bracketRoot(f, 0, hi, EDGE_SEARCH);
     return -20 * Math.log10(besselDelayMagnitude(n, nat * wpDelay)) >= c.gstop;
   }
   const wp = passbandEdgeOf(c, n);

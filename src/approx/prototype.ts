@@ -14,7 +14,8 @@ import { butterworth, BUTTERWORTH_MAX_ORDER } from "./butterworth.ts";
 import { chebyshev1, CHEBYSHEV1_MAX_ORDER, MAX_RIPPLE_DB } from "./chebyshev1.ts";
 import { chebyshev2, CHEBYSHEV2_MAX_ORDER, MAX_ATTENUATION_DB } from "./chebyshev2.ts";
 import { elliptic, ELLIPTIC_MAX_ORDER } from "./elliptic.ts";
-import { bracketRoot, requireAttenuationAboveRipple, scaleZpk, zpkMagnitude } from "./internal.ts";
+import { EDGE_SEARCH, requireAttenuationAboveRipple, scaleZpk, zpkMagnitude } from "./internal.ts";
+import { bracketRoot } from "../math/bracket.ts";
 import { legendre, LEGENDRE_MAX_ORDER } from "./legendre.ts";
 import { FAMILY_NAMES, type BesselNormalization, type FamilyName, type UnitFrequencyMeaning } from "./types.ts";
 
@@ -189,7 +190,7 @@ function attenuationFrequencyImpl(fn: string, zpk: Zpk, options: AttenuationPoin
   let prev = 0;
   for (let i = 0; i <= GRID_PER_DECADE * GRID_DECADES; i++) {
     const w = GRID_LOW * 10 ** (i / GRID_PER_DECADE);
-    if (!(f(w) > 0)) return bracketRoot(f, prev, w);
+    if (!(f(w) > 0)) return bracketRoot(f, prev, w, EDGE_SEARCH);
     prev = w;
   }
   throw new InvalidArgumentError({

@@ -24,6 +24,7 @@
 import { InvalidArgumentError, SingularCircuitError } from "../errors.ts";
 import type { Complex } from "../math/complex.ts";
 import { luFactorInPlace, luSolveInPlace } from "../math/linear.ts";
+import { TWO_PI } from "../units/constants.ts";
 import type { ComplexResponse } from "../tf/response.ts";
 import type { Circuit } from "./types.ts";
 import { checkCircuit } from "./validate.ts";
@@ -250,27 +251,45 @@ function checkFrequencies(fn: string, freqHz: unknown): Float64Array {
   return freqHz;
 }
 
+/** Options of {@link solveMna}. */
+export interface SolveMnaOptions {
+  /** Row of the unit right-hand side (a voltage source's branch row; with `transpose`, the output's unknown). */
+  readonly sourceRow: number;
+  /** Unknown indices whose solution is wanted (-1 for ground, which reads as 0). */
+  readonly outputs: readonly number[];
+  /** Frequencies in Hz (>= 0). */
+  readonly freqHz: Float64Array;
+  /**
+   * Solve the transposed (adjoint) system `(G + s C)^T y = e` instead: `y_j`
+   * is then the transfer from an excitation of row `j` to the unknown `sourceRow`.
+   * @defaultValue false
+   */
+  readonly transpose?: boolean;
+  /**
+   * The error to throw when the pivot of unknown `unknown` vanishes at `fHz`.
+   * @defaultValue a {@link SingularCircuitError} naming the node or branch
+   */
+  readonly singular?: (unknown: number, fHz: number) => Error;
+}
+
 /**
- * Solve an assembled system at the given frequencies (internal kernel, no checks
- * beyond the pivot test).
+ * Solve an assembled system (or its transpose) at the given frequencies
+ * (internal kernel, no checks beyond the pivot test).
  *
  * @param fn - function name for errors
  * @param sys - assembled system
- * @param options - source, output node indices (-1 for ground), frequencies
+ * @param options - right-hand side row, wanted unknowns, frequencies, transposition
  * @returns one response per output index
- * @throws {@link SingularCircuitError} when a pivot vanishes
+ * @throws {@link SingularCircuitError} (or the error of `options.singular`) when a pivot vanishes
  * @example
  * ```ts
  * solveMna("acAnalysis", sys, { sourceRow: 2, outputs: [1], freqHz });
  * ```
  */
-export function solveMna(
-  fn: string,
-  sys: MnaSystem,
-  options: { readonly sourceRow: number; readonly outputs: readonly number[]; readonly freqHz: Float64Array },
-): ComplexResponse[] {
+export function solveMna(fn: string, sys: MnaSystem, options: SolveMnaOptions): ComplexResponse[] {
   const { n, g, c } = sys;
   const { freqHz, outputs, sourceRow } = options;
+  const transpose = options.transpose === true;
   const m = freqHz.length;
   const res = outputs.map(() => ({ re: new Float64Array(m), im: new Float64Array(m) }));
   const ar = new Float64Array(n * n);
@@ -281,11 +300,20 @@ export function solveMna(
   const x = { re: new Float64Array(n), im: new Float64Array(n) };
   for (let f = 0; f < m; f++) {
     const fHz = freqHz[f] as number;
-    const w = 2 * Math.PI * fHz;
-    ar.set(g);
-    for (let i = 0; i < n * n; i++) ai[i] = w * (c[i] as number);
+    const w = TWO_PI * fHz;
+    if (transpose) {
+      for (let i = 0; i < n; i++) {
+        for (let j = 0; j < n; j++) {
+          ar[j * n + i] = g[i * n + j] as number;
+          ai[j * n + i] = w * (c[i * n + j] as number);
+        }
+      }
+    } else {
+      ar.set(g);
+      for (let i = 0; i < n * n; i++) ai[i] = w * (c[i] as number);
+    }
     const bad = luFactorInPlace(n, ar, ai, piv);
-    if (bad >= 0) throw singularError(fn, sys, bad, fHz);
+    if (bad >= 0) throw options.singular === undefined ? singularError(fn, sys, bad, fHz) : options.singular(bad, fHz);
     luSolveInPlace(n, { re: ar, im: ai, pivots: piv }, b, x);
     for (let o = 0; o < outputs.length; o++) {
       const j = outputs[o] as number;

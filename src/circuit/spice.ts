@@ -14,6 +14,7 @@
  * @module
  */
 import { requireFinite } from "../validate.ts";
+import { TWO_PI } from "../units/constants.ts";
 import { InvalidArgumentError } from "../errors.ts";
 import type { Circuit, Element, OpAmpModel } from "./types.ts";
 import { checkCircuit } from "./validate.ts";
@@ -83,7 +84,7 @@ function subckt(name: string, m: OpAmpModel): string[] {
     lines.push(`* single-pole op-amp: a0 = ${spiceNumber(m.a0)}, GBW = ${spiceNumber(m.gbwHz)} Hz`);
     lines.push("G1 0 n1 inp inn 1");
     lines.push(`R1 n1 0 ${spiceNumber(m.a0)}`);
-    lines.push(`C1 n1 0 ${spiceNumber(1 / (2 * Math.PI * m.gbwHz))}`);
+    lines.push(`C1 n1 0 ${spiceNumber(1 / (TWO_PI * m.gbwHz))}`);
     if (m.kind === "single-pole-rout" && m.routOhm > 0) {
       lines.push("E1 n2 0 n1 0 1");
       lines.push(`R2 n2 out ${spiceNumber(m.routOhm)}`);

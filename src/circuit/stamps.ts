@@ -16,6 +16,7 @@
  * @module
  */
 import type { Circuit } from "./types.ts";
+import { TWO_PI } from "../units/constants.ts";
 
 /** How a stamp's value follows its element's value `x`. */
 export const STAMP_LAW = {
@@ -193,7 +194,7 @@ export function stampProgram(circuit: Circuit): StampProgram {
         const m = e.model;
         if (m.kind !== "ideal") {
           const rout = m.kind === "single-pole-rout" ? m.routOhm : 0;
-          const tau = 1 / (2 * Math.PI * m.gbwHz);
+          const tau = 1 / (TWO_PI * m.gbwHz);
           // (1/a0 + s tau)(v_out - rout i) - (v+ - v-) = 0, written with the sign of v+ - v- flipped.
           add(0, k, o, -1, constant, -1 / m.a0);
           add(1, k, o, -1, constant, -tau);

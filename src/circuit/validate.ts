@@ -41,7 +41,20 @@ function checkPositive(fn: string, path: string, value: unknown, what: string): 
   }
 }
 
-function checkModel(fn: string, path: string, model: unknown): void {
+/**
+ * Check an op-amp model (internal form that names the calling function and the path).
+ *
+ * @param fn - public function name for messages
+ * @param path - dotted path of the model, e.g. `"opamp"`
+ * @param model - the value to check
+ * @returns nothing
+ * @throws {@link InvalidArgumentError} at `path`, `path.kind`, `path.a0`, `path.gbwHz` or `path.routOhm`
+ * @example
+ * ```ts
+ * checkOpAmpModel("x.response", "opamp", { kind: "single-pole", a0: 1e5, gbwHz: 0 }); //=> throws at "opamp.gbwHz"
+ * ```
+ */
+export function checkOpAmpModel(fn: string, path: string, model: unknown): void {
   if (model === null || typeof model !== "object") {
     fail(fn, path, model, "expected an op-amp model { kind: \"ideal\" | \"single-pole\" | \"single-pole-rout\", ... }");
   }
@@ -124,7 +137,7 @@ export function checkCircuit(fn: string, circuit: unknown): Circuit {
       case "OA": {
         for (const f of ["inP", "inN", "out"]) checkNode(fn, `${p}.${f}`, e[f], nodes);
         if (e["out"] === "0") fail(fn, `${p}.out`, "0", "an op-amp output cannot be ground; give it its own node");
-        checkModel(fn, `${p}.model`, e["model"]);
+        checkOpAmpModel(fn, `${p}.model`, e["model"]);
         break;
       }
       default:

@@ -38,10 +38,12 @@ import {
   lowpassToLowpass,
 } from "../tf/index.ts";
 import { TWO_PI } from "../units/constants.ts";
+import { geometricBisect, goldenMax } from "../math/optimize.ts";
 import type { DesignSpec } from "./spec.ts";
-import { goldenMax } from "./verify.ts";
 
 const DB_SLACK = 1e-5;
+/** Edge refinement: at most 80 halvings, to 1e-13 relative. */
+const EDGE_BISECTION = { relWidth: 1e-13, maxIterations: 80 } as const;
 
 /** Magnitude of a zpk system at the given angular frequencies. */
 export function zpkMagnitude(zpk: Zpk, w: Float64Array): Float64Array {
@@ -91,14 +93,8 @@ export function prototypeEdges(zpk: Zpk, lossDb: number, attenuationDb: number):
   let passW: number;
   if (ip <= 0) passW = ip === 0 ? (w[0] as number) : (w[w.length - 1] as number);
   else {
-    let lo = w[ip - 1] as number;
-    let hi = w[ip] as number;
-    for (let k = 0; k < 80 && hi / lo - 1 > 1e-13; k++) {
-      const mid = Math.sqrt(lo * hi);
-      if (loss(magAt(zpk, mid)) > lossDb + DB_SLACK) hi = mid;
-      else lo = mid;
-    }
-    passW = lo;
+    const tooLossy = (x: number): boolean => loss(magAt(zpk, x)) > lossDb + DB_SLACK;
+    passW = geometricBisect(tooLossy, w[ip - 1] as number, w[ip] as number, EDGE_BISECTION).lo;
   }
   // Stopband: first grid point (from above) where the attenuation falls below As.
   let is = -1;
@@ -112,14 +108,8 @@ export function prototypeEdges(zpk: Zpk, lossDb: number, attenuationDb: number):
   if (is < 0) stopW = w[0] as number;
   else if (is === m.length - 1) stopW = 1e6; // never reaches As on the grid: far beyond any usable design
   else {
-    let lo = w[is] as number;
-    let hi = w[is + 1] as number;
-    for (let k = 0; k < 80 && hi / lo - 1 > 1e-13; k++) {
-      const mid = Math.sqrt(lo * hi);
-      if (loss(magAt(zpk, mid)) < attenuationDb - DB_SLACK) lo = mid;
-      else hi = mid;
-    }
-    stopW = hi;
+    const attenuates = (x: number): boolean => !(loss(magAt(zpk, x)) < attenuationDb - DB_SLACK);
+    stopW = geometricBisect(attenuates, w[is] as number, w[is + 1] as number, EDGE_BISECTION).hi;
   }
   return { passW, stopW, peak };
 }

@@ -20,6 +20,7 @@
  */
 import type { OpAmpModel } from "../circuit/types.ts";
 import type { ComponentValues, Topology } from "../topologies/types.ts";
+import { goldenMax } from "../math/optimize.ts";
 import { logGrid } from "../tf/index.ts";
 import { TWO_PI } from "../units/constants.ts";
 import { requireDesignSpec, type DesignSpec } from "./spec.ts";
@@ -152,45 +153,6 @@ export interface MaskFigures {
 }
 
 type MagFn = (f: number) => number;
-
-const PHI = (Math.sqrt(5) - 1) / 2;
-
-/**
- * Golden-section search for the maximum of a unimodal function on `[lo, hi]`
- * (J. Kiefer, "Sequential minimax search for a maximum", Proc. AMS 4, 1953).
- *
- * @param g - function to maximise
- * @param lo - lower end of the interval
- * @param hi - upper end of the interval
- * @param stop - at most `iterations` steps, or until the interval is narrower than `width`
- * @returns the better of the two final interior points
- */
-export function goldenMax(
-  g: (x: number) => number,
-  [lo, hi]: readonly [number, number],
-  stop: { readonly iterations: number; readonly width: number },
-): number {
-  let x1 = hi - PHI * (hi - lo);
-  let x2 = lo + PHI * (hi - lo);
-  let g1 = g(x1);
-  let g2 = g(x2);
-  for (let k = 0; k < stop.iterations && hi - lo > stop.width; k++) {
-    if (g1 < g2) {
-      lo = x1;
-      x1 = x2;
-      g1 = g2;
-      x2 = lo + PHI * (hi - lo);
-      g2 = g(x2);
-    } else {
-      hi = x2;
-      x2 = x1;
-      g2 = g1;
-      x1 = hi - PHI * (hi - lo);
-      g1 = g(x1);
-    }
-  }
-  return g1 > g2 ? x1 : x2;
-}
 
 function golden(fn: MagFn, a: number, b: number, maximise: boolean): { f: number; m: number } {
   const g = (x: number): number => (maximise ? fn(Math.exp(x)) : -fn(Math.exp(x)));

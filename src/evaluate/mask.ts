@@ -19,6 +19,7 @@
  *
  * @module
  */
+import { goldenMax } from "../math/optimize.ts";
 import { logGrid } from "../tf/grid.ts";
 import { TWO_PI } from "../units/constants.ts";
 import { magnitudeSquaredAt, cascadeMagnitudeSquared, multiplyResponse } from "./cascade.ts";
@@ -123,32 +124,10 @@ export function planMask(bands: MaskBands, limits: MaskLimits): MaskPlan {
   return { bands, limits, pass, stop, scratch: new Float64Array(longest) };
 }
 
-const PHI = (Math.sqrt(5) - 1) / 2;
-
 /** Golden-section search of `sign * |H|^2` over `[wa, wb]` on log frequency; returns the better end point and its |H|^2. */
 function refine(stages: readonly ScaledRational[], wa: number, wb: number, sign: number, out: Float64Array): void {
-  let lo = Math.log(wa);
-  let hi = Math.log(wb);
-  let x1 = hi - PHI * (hi - lo);
-  let x2 = lo + PHI * (hi - lo);
-  let g1 = sign * magnitudeSquaredAt(stages, Math.exp(x1));
-  let g2 = sign * magnitudeSquaredAt(stages, Math.exp(x2));
-  for (let k = 0; k < 60 && hi - lo > 1e-9; k++) {
-    if (g1 < g2) {
-      lo = x1;
-      x1 = x2;
-      g1 = g2;
-      x2 = lo + PHI * (hi - lo);
-      g2 = sign * magnitudeSquaredAt(stages, Math.exp(x2));
-    } else {
-      hi = x2;
-      x2 = x1;
-      g2 = g1;
-      x1 = hi - PHI * (hi - lo);
-      g1 = sign * magnitudeSquaredAt(stages, Math.exp(x1));
-    }
-  }
-  const x = g1 > g2 ? x1 : x2;
+  const g = (x: number): number => sign * magnitudeSquaredAt(stages, Math.exp(x));
+  const x = goldenMax(g, [Math.log(wa), Math.log(wb)], { iterations: 60, width: 1e-9 });
   out[0] = Math.exp(x);
   out[1] = magnitudeSquaredAt(stages, out[0] as number);
 }

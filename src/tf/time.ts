@@ -29,7 +29,9 @@
  * @module
  */
 import { InvalidArgumentError } from "../errors.ts";
+import { bracketRoot, type BracketRootOptions } from "../math/bracket.ts";
 import { expmUnchecked } from "../math/expm.ts";
+import { TWO_PI } from "../units/constants.ts";
 import { requireInRange, requireOptions } from "../validate.ts";
 import { isCascade, requireGrid, requireProperStable, requireSystem } from "./check.ts";
 import { toSectionsUnchecked } from "./sections.ts";
@@ -287,33 +289,17 @@ export interface StepFigures {
   readonly settlingTimeS: number | null;
 }
 
-/** Bracketed root of f on [a, b] by Illinois regula falsi with a bisection safeguard. */
-function refineRoot(f: (t: number) => number, a0: number, b0: number): number {
-  let a = a0;
-  let b = b0;
-  let fa = f(a);
-  let fb = f(b);
-  if (fa === 0) return a;
-  if (fb === 0) return b;
-  if (fa * fb > 0) return Math.abs(fa) < Math.abs(fb) ? a : b;
-  for (let it = 0; it < 100; it++) {
-    let c = b - (fb * (b - a)) / (fb - fa);
-    const lo = Math.min(a, b);
-    const hi = Math.max(a, b);
-    if (!(c > lo && c < hi) || it % 10 === 9) c = (a + b) / 2;
-    const fc = f(c);
-    if (fc === 0) return c;
-    if (fc * fb < 0) {
-      a = b;
-      fa = fb;
-    } else {
-      fa /= 2; // Illinois step: keep a, halve its value
-    }
-    b = c;
-    fb = fc;
-    if (Math.abs(b - a) <= 4 * Number.EPSILON * Math.max(Math.abs(a), Math.abs(b))) break;
-  }
-  return b;
+/** Refinement of a crossing between two grid times: up to 100 Illinois steps, every tenth a bisection, to 4 ulp. */
+const CROSSING: BracketRootOptions = Object.freeze({
+  maxIterations: 100,
+  bisectEvery: 10,
+  relWidth: 4 * Number.EPSILON,
+  result: "latest",
+});
+
+/** Bracketed root of f on [a, b] (see {@link bracketRoot}). */
+function refineRoot(f: (t: number) => number, a: number, b: number): number {
+  return bracketRoot(f, a, b, CROSSING);
 }
 
 /** The automatic grid from the pole positions. */
@@ -337,7 +323,7 @@ function autoGrid(system: Zpk | SectionCascade, stretch: number): Float64Array {
   }
   if (!Number.isFinite(slow)) return Float64Array.of(0, 1);
   const tEnd = (20 * stretch) / slow;
-  const dt = Math.min(tEnd / 2000, (2 * Math.PI) / (40 * fast));
+  const dt = Math.min(tEnd / 2000, TWO_PI / (40 * fast));
   const count = Math.min(MAX_AUTO_POINTS, Math.ceil(tEnd / dt) + 1);
   const out = new Float64Array(count);
   for (let k = 0; k < count; k++) out[k] = (tEnd * k) / (count - 1);

@@ -1,19 +1,56 @@
 /**
- * The pole a built stage really has with a finite-gain op-amp model.
+ * A built stage with a finite-gain op-amp: the pole it really has, and the
+ * smallest op-amp gain-bandwidth product that keeps it at the ideal one.
  *
- * Method: the stage's own elements (from `Topology.elements`) are analysed by
- * modified nodal analysis and the natural frequency nearest the ideal pole is
- * found as a zero of `det(G + s C)` by Muller's method (D. E. Muller, "A
+ * Pole method: the stage's elements are analysed by modified nodal analysis
+ * and the natural frequency nearest the ideal pole is found as a zero of the
+ * nodal determinant `det(G + s C)` by Muller's method (D. E. Muller, "A
  * method for solving algebraic equations using an automatic computer", MTAC
- * 10:208-215, 1956), to about 1e-13 relative.
+ * 10:208-215, 1956; `math/muller.ts`), started from the ideal pole, to about
+ * 1e-13 relative. Two real poles (Q <= 1/2) are found one after the other,
+ * the second with the first divided out.
+ *
+ * GBW demand method: the stage is designed for the target, its op-amps are
+ * replaced by the single-pole model (a0 = 1e12, so the gain-bandwidth product
+ * alone matters), and the smallest GBW for which the pole's f0 and Q both stay
+ * within 1 % of target is found by quadrupling and then bisection in log(GBW)
+ * to 0.1 %. A first-order stage has no Q, and its op-amp adds a pole rather
+ * than moving the stage's own, so there the criterion is on the response at
+ * f0: `|H(j w0)/H_ideal(j w0) - 1|` may not exceed what a 1 % shift of f0
+ * would cause (about 0.70 %).
  *
  * @module
  */
-import type { OpAmpModel } from "../circuit/types.ts";
+import type { Circuit, OpAmpModel } from "../circuit/types.ts";
+import { assembleMna, mnaDeterminant } from "../circuit/mna.ts";
 import { checkCircuit } from "../circuit/validate.ts";
-import { ConvergenceError, InvalidArgumentError } from "../errors.ts";
-import { circuitPole, checkValues } from "./common.ts";
-import type { ComponentValues, Topology } from "./types.ts";
+import { ConvergenceError, InvalidArgumentError, UnrealisableError } from "../errors.ts";
+import { cdiv, cmul, csub, type Complex } from "../math/complex.ts";
+import { mullerRoot } from "../math/muller.ts";
+import { geometricBisect } from "../math/optimize.ts";
+import { TWO_PI } from "../units/constants.ts";
+import { requirePositive } from "../validate.ts";
+import { openLoopGain, type ClosedForm } from "./kernels.ts";
+import type { ComponentValues, StageChoices, StageFigures, StageTarget, Topology } from "./types.ts";
+
+/**
+ * DC gain of the op-amp model used to compute the GBW demand.
+ *
+ * @internal
+ */
+export const GBW_DEMAND_A0 = 1e12;
+
+/**
+ * Largest `|H(j w0) / H_ideal(j w0) - 1|` accepted for a first-order stage:
+ * the change a 1 % shift of f0 makes, `|(1 + j) / (1 + j / 1.01) - 1|`.
+ *
+ * @internal
+ */
+export const FIRST_ORDER_DEVIATION: number = (() => {
+  const c = 1 / 1.01;
+  const d = 1 + c * c;
+  return Math.hypot((1 + c) / d - 1, (1 - c) / d);
+})();
 
 /** The pole of a built stage: frequency and, for a second-order stage, Q. */
 export interface AsBuiltPole {
@@ -21,6 +58,130 @@ export interface AsBuiltPole {
   readonly f0Hz: number;
   /** Pole Q `|p| / (-2 Re p)` (second-order stages only; negative means unstable). */
   readonly q?: number;
+}
+
+/** Ideal poles of a target: one real pole (first order), the upper-half-plane pole of a complex pair, or two real poles (Q <= 1/2). */
+function idealPoles(order: 1 | 2, f0Hz: number, q: number): Complex[] {
+  const w0 = TWO_PI * f0Hz;
+  if (order === 1) return [{ re: -w0, im: 0 }];
+  const d = 1 - 1 / (4 * q * q);
+  if (d > 0) return [{ re: -w0 / (2 * q), im: w0 * Math.sqrt(d) }];
+  const r = w0 * Math.sqrt(-d);
+  return [
+    { re: -w0 / (2 * q) + r, im: 0 },
+    { re: -w0 / (2 * q) - r, im: 0 },
+  ];
+}
+
+/**
+ * The natural frequency of a circuit nearest to an ideal first- or
+ * second-order pole, as `{ f0Hz, q }` (q absent for first order), or null
+ * when Muller's iteration on `det(G + s C)` fails.
+ *
+ * @param circuit - a valid circuit (its sources shorted by the MNA rows)
+ * @param order - 1 (real pole near -w0) or 2 (pole pair near the ideal one)
+ * @param start - ideal f0 (and Q) to start from
+ * @returns the pole's f0 and Q
+ * @throws never
+ * @example
+ * ```ts
+ * circuitPole(circuit, 2, { f0Hz: 1000, q: 2 }); //=> { f0Hz: 980.49..., q: 2.038... } (unity-gain Sallen-Key, GBW 100 kHz)
+ * ```
+ */
+export function circuitPole(circuit: Circuit, order: 1 | 2, start: AsBuiltPole): AsBuiltPole | null {
+  const sys = assembleMna(circuit);
+  const w0 = TWO_PI * start.f0Hz;
+  // Scale the determinant so Muller's divided differences stay in range.
+  const ref = mnaDeterminant(sys, { re: 0, im: w0 * 3 });
+  const refMag = Math.hypot(ref.re, ref.im) || 1;
+  const f = (s: Complex): Complex => {
+    const d = mnaDeterminant(sys, s);
+    return { re: d.re / refMag, im: d.im / refMag };
+  };
+  const ideal = idealPoles(order, start.f0Hz, start.q ?? 0.5);
+  const p = mullerRoot(f, ideal[0] as Complex, w0);
+  if (p === null) return null;
+  const mag = Math.hypot(p.re, p.im);
+  if (order === 1) return { f0Hz: mag / TWO_PI };
+  if (ideal.length === 1 && Math.abs(p.im) > 1e-9 * mag) return { f0Hz: mag / TWO_PI, q: mag / (-2 * p.re) };
+  // Two real poles (or a pair that became real): find the second one with the first deflated out.
+  const deflated = (s: Complex): Complex => cdiv(f(s), csub(s, p));
+  const second = ideal[1] ?? { re: p.re * 1.01, im: 0 };
+  const p2 = mullerRoot(deflated, second, w0);
+  if (p2 === null) return null;
+  const prod = cmul(p, p2).re;
+  const sum = -(p.re + p2.re);
+  if (!(prod > 0) || !(sum !== 0)) return null;
+  const w = Math.sqrt(prod);
+  return { f0Hz: w / TWO_PI, q: w / sum };
+}
+
+/** What the GBW-demand search needs of a stage (the topology framework supplies it). */
+export interface GbwDemandStage {
+  /** Topology id (names the function in errors). */
+  readonly id: string;
+  /** Stage order. */
+  readonly order: 1 | 2;
+  /** Ideal figures from values. */
+  readonly figures: (v: ComponentValues) => StageFigures;
+  /** Closed-form response (used for first-order stages). */
+  readonly closedForm: ClosedForm;
+  /** The stage alone, driven by `Vin` at `in`, output at `out`, every op-amp given `opamp`. */
+  readonly circuit: (v: ComponentValues, opamp: OpAmpModel) => Circuit;
+}
+
+/**
+ * Smallest GBW (Hz) with which the stage's pole f0 and Q stay within 1 % of
+ * the ideal design, found numerically (see the module header).
+ *
+ * @param stage - the stage's figures, closed form and circuit
+ * @param design - its design function
+ * @param t - target (valid)
+ * @returns the demand in Hz
+ * @throws {@link UnrealisableError} when no GBW up to 1e12 times f0 suffices
+ * @example
+ * ```ts
+ * gbwDemand(stage, design, { order: 2, kind: "lowpass", f0Hz: 1000, q: 0.707, gain: 1 }); //=> about 3e4
+ * ```
+ */
+export function gbwDemand(
+  stage: GbwDemandStage,
+  design: (t: StageTarget, c: StageChoices) => ComponentValues,
+  t: StageTarget,
+): number {
+  const v = design(t, {});
+  const ideal = stage.figures(v);
+  const ok = (gbwHz: number): boolean => {
+    if (stage.order === 1) {
+      // First order: the response at f0 must stay as close to ideal as a 1 % shift of f0 would leave it.
+      const s = { re: 0, im: TWO_PI * ideal.f0Hz };
+      const h = stage.closedForm(v, s, openLoopGain({ a0: GBW_DEMAND_A0, gbwHz }, s));
+      const h0 = stage.closedForm(v, s, null);
+      const r = cdiv(h, h0);
+      return Math.hypot(r.re - 1, r.im) <= FIRST_ORDER_DEVIATION;
+    }
+    const p = circuitPole(stage.circuit(v, { kind: "single-pole", a0: GBW_DEMAND_A0, gbwHz }), stage.order, ideal);
+    if (p === null) return false;
+    if (Math.abs(p.f0Hz / ideal.f0Hz - 1) > 0.01) return false;
+    if (ideal.q !== undefined && (p.q === undefined || Math.abs(p.q / ideal.q - 1) > 0.01)) return false;
+    return true;
+  };
+  let lo = t.f0Hz;
+  let hi = t.f0Hz * 4;
+  while (!ok(hi)) {
+    lo = hi;
+    hi *= 4;
+    if (hi > t.f0Hz * 1e12) {
+      throw new UnrealisableError({
+        fn: `${stage.id}.gbwDemandHz`,
+        path: "target",
+        received: t,
+        message: "no op-amp gain-bandwidth product up to 1e12 times f0 keeps f0 and Q within 1 %; lower Q or choose another topology",
+      });
+    }
+  }
+  // hi / lo > 1.001 as `hi / lo - 1 > 0.001`: the same test on doubles near 1.
+  return geometricBisect(ok, lo, hi, { relWidth: 0.001, maxIterations: Infinity }).hi;
 }
 
 /**
@@ -47,7 +208,10 @@ export function asBuiltPole(topology: Topology, values: ComponentValues, opamp: 
   if (typeof topology !== "object" || topology === null || !Array.isArray(topology.componentNames) || typeof topology.elements !== "function") {
     throw new InvalidArgumentError({ fn, path: "topology", received: topology, message: "expected a topology from the registry (see getTopology)" });
   }
-  checkValues(fn, topology.componentNames, values);
+  if (values === null || typeof values !== "object") {
+    throw new InvalidArgumentError({ fn, path: "values", received: values, message: "expected component values keyed by designator" });
+  }
+  for (const n of topology.componentNames) requirePositive(fn, `values.${n}`, values[n]);
   const circuit = checkCircuit(fn, {
     title: topology.name,
     elements: [

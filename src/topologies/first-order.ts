@@ -36,27 +36,16 @@
  *
  * @module
  */
-import type { ComponentValues, StageTarget } from "./types.ts";
-import {
-  LIMIT_SLACK,
-  TWO_PI,
-  cadd,
-  cdiv,
-  cmul,
-  defineTopology,
-  invertingGain,
-  nonInvertingGain,
-  re,
-  sx,
-  type DefinedTopology,
-  type PartSpec,
-} from "./common.ts";
+import type { ComponentValues, StageTarget, Topology } from "./types.ts";
+import { cadd, cdiv, cmul, complex, cscale } from "../math/complex.ts";
+import { TWO_PI } from "../units/constants.ts";
+import { defineTopology, valueOf, conductanceOf, LIMIT_SLACK, type PartSpec } from "./define.ts";
+import { invertingGain, nonInvertingGain } from "./kernels.ts";
 
 const REF =
   'L. P. Huelsman & P. E. Allen, "Introduction to the Theory and Design of Active Filters", McGraw-Hill, 1980, first-order sections (from memory)';
 
 const w0Of = (t: StageTarget): number => TWO_PI * t.f0Hz;
-const g = (v: ComponentValues, k: string): number => v[k] as number;
 
 const bufferLow: PartSpec[] = [
   { kind: "R", name: "R1", a: "in", b: "a" },
@@ -83,10 +72,10 @@ const aboveOne = (t: StageTarget): string | null =>
     ? null
     : `a non-inverting gain stage needs a gain above 1 (got ${t.gain}); for gain 1 choose the buffered RC stage`;
 
-const beta = (v: ComponentValues): number => g(v, "R3") / (g(v, "R2") + g(v, "R3"));
+const beta = (v: ComponentValues): number => valueOf(v, "R3") / (valueOf(v, "R2") + valueOf(v, "R3"));
 
 /** Passive RC lowpass or highpass followed by a unity-gain buffer or a non-inverting gain stage `1 + R2/R3`. */
-function rcStage(kind: "lowpass" | "highpass", withGain: boolean): DefinedTopology {
+function rcStage(kind: "lowpass" | "highpass", withGain: boolean): Topology {
   const passive = kind === "lowpass" ? bufferLow : bufferHigh;
   return defineTopology({
     id: `first-order-${kind}-${withGain ? "noninverting" : "buffer"}`,
@@ -105,31 +94,31 @@ function rcStage(kind: "lowpass" | "highpass", withGain: boolean): DefinedTopolo
           return { C1: 1, R1: r1, R3: r1, R2: (t.gain - 1) * r1 };
         }
       : (t) => ({ C1: 1, R1: 1 / w0Of(t) }),
-    figures: (v) => ({ f0Hz: 1 / (TWO_PI * g(v, "R1") * g(v, "C1")), gain: withGain ? 1 + g(v, "R2") / g(v, "R3") : 1 }),
+    figures: (v) => ({ f0Hz: 1 / (TWO_PI * valueOf(v, "R1") * valueOf(v, "C1")), gain: withGain ? 1 + valueOf(v, "R2") / valueOf(v, "R3") : 1 }),
     closedForm: (v, s, a) => {
       const k = nonInvertingGain(a, withGain ? beta(v) : 1);
-      if (kind === "lowpass") return cdiv(k, cadd(re(1), sx(s, g(v, "R1") * g(v, "C1"))));
-      const st = sx(s, g(v, "R1") * g(v, "C1"));
-      return cmul(k, cdiv(st, cadd(re(1), st)));
+      if (kind === "lowpass") return cdiv(k, cadd(complex(1), cscale(s, valueOf(v, "R1") * valueOf(v, "C1"))));
+      const st = cscale(s, valueOf(v, "R1") * valueOf(v, "C1"));
+      return cmul(k, cdiv(st, cadd(complex(1), st)));
     },
     closedFormFinite: true,
   });
 }
 
 /** Passive RC lowpass followed by a unity-gain buffer. */
-export const firstOrderLowpassBuffer: DefinedTopology = rcStage("lowpass", false);
+export const firstOrderLowpassBuffer: Topology = rcStage("lowpass", false);
 
 /** Passive RC highpass followed by a unity-gain buffer. */
-export const firstOrderHighpassBuffer: DefinedTopology = rcStage("highpass", false);
+export const firstOrderHighpassBuffer: Topology = rcStage("highpass", false);
 
 /** Passive RC lowpass followed by a non-inverting gain stage `1 + R2/R3`. */
-export const firstOrderLowpassNoninverting: DefinedTopology = rcStage("lowpass", true);
+export const firstOrderLowpassNoninverting: Topology = rcStage("lowpass", true);
 
 /** Passive RC highpass followed by a non-inverting gain stage `1 + R2/R3`. */
-export const firstOrderHighpassNoninverting: DefinedTopology = rcStage("highpass", true);
+export const firstOrderHighpassNoninverting: Topology = rcStage("highpass", true);
 
 /** Inverting first-order lowpass: R1 in, R2 || C1 feedback. */
-export const firstOrderLowpassInverting: DefinedTopology = defineTopology({
+export const firstOrderLowpassInverting: Topology = defineTopology({
   id: "first-order-lowpass-inverting",
   name: "inverting first-order lowpass",
   order: 1,
@@ -149,13 +138,13 @@ export const firstOrderLowpassInverting: DefinedTopology = defineTopology({
     const r2 = 1 / w0Of(t);
     return { C1: 1, R2: r2, R1: r2 / Math.abs(t.gain) };
   },
-  figures: (v) => ({ f0Hz: 1 / (TWO_PI * g(v, "R2") * g(v, "C1")), gain: -g(v, "R2") / g(v, "R1") }),
-  closedForm: (v, s, a) => invertingGain(re(1 / g(v, "R1")), cadd(re(1 / g(v, "R2")), sx(s, g(v, "C1"))), a),
+  figures: (v) => ({ f0Hz: 1 / (TWO_PI * valueOf(v, "R2") * valueOf(v, "C1")), gain: -valueOf(v, "R2") / valueOf(v, "R1") }),
+  closedForm: (v, s, a) => invertingGain(complex(conductanceOf(v, "R1")), cadd(complex(conductanceOf(v, "R2")), cscale(s, valueOf(v, "C1"))), a),
   closedFormFinite: true,
 });
 
 /** Inverting first-order highpass: C1 and R1 in series at the input, R2 feedback. */
-export const firstOrderHighpassInverting: DefinedTopology = defineTopology({
+export const firstOrderHighpassInverting: Topology = defineTopology({
   id: "first-order-highpass-inverting",
   name: "inverting first-order highpass",
   order: 1,
@@ -175,17 +164,17 @@ export const firstOrderHighpassInverting: DefinedTopology = defineTopology({
     const r1 = 1 / w0Of(t);
     return { C1: 1, R1: r1, R2: r1 * Math.abs(t.gain) };
   },
-  figures: (v) => ({ f0Hz: 1 / (TWO_PI * g(v, "R1") * g(v, "C1")), gain: -g(v, "R2") / g(v, "R1") }),
+  figures: (v) => ({ f0Hz: 1 / (TWO_PI * valueOf(v, "R1") * valueOf(v, "C1")), gain: -valueOf(v, "R2") / valueOf(v, "R1") }),
   closedForm: (v, s, a) => {
-    const sc = sx(s, g(v, "C1"));
-    const y1 = cdiv(sc, cadd(re(1), sx(s, g(v, "R1") * g(v, "C1"))));
-    return invertingGain(y1, re(1 / g(v, "R2")), a);
+    const sc = cscale(s, valueOf(v, "C1"));
+    const y1 = cdiv(sc, cadd(complex(1), cscale(s, valueOf(v, "R1") * valueOf(v, "C1"))));
+    return invertingGain(y1, complex(conductanceOf(v, "R2")), a);
   },
   closedFormFinite: true,
 });
 
 /** First-order allpass (phase shifter): gain +1 at DC, -1 at high frequency. */
-export const firstOrderAllpass: DefinedTopology = defineTopology({
+export const firstOrderAllpass: Topology = defineTopology({
   id: "first-order-allpass",
   name: "first-order allpass",
   order: 1,
@@ -206,16 +195,27 @@ export const firstOrderAllpass: DefinedTopology = defineTopology({
     const r = 1 / w0Of(t);
     return { C1: 1, R1: r, R2: r, R3: r };
   },
-  figures: (v) => ({ f0Hz: 1 / (TWO_PI * g(v, "R3") * g(v, "C1")), gain: 1 }),
+  figures: (v) => ({ f0Hz: 1 / (TWO_PI * valueOf(v, "R3") * valueOf(v, "C1")), gain: 1 }),
   closedForm: (v, s, a) => {
-    const r1 = g(v, "R1");
-    const r2 = g(v, "R2");
-    const lag = cdiv(re(1), cadd(re(1), sx(s, g(v, "R3") * g(v, "C1"))));
-    const drive = cadd(lag, re(-r2 / (r1 + r2)));
+    const r1 = valueOf(v, "R1");
+    const r2 = valueOf(v, "R2");
+    const lag = cdiv(complex(1), cadd(complex(1), cscale(s, valueOf(v, "R3") * valueOf(v, "C1"))));
+    const drive = cadd(lag, complex(-r2 / (r1 + r2)));
     const beta = r1 / (r1 + r2);
-    if (a === null) return sx(drive, 1 / beta);
-    return cdiv(cmul(a, drive), cadd(re(1), sx(a, beta)));
+    if (a === null) return cscale(drive, 1 / beta);
+    return cdiv(cmul(a, drive), cadd(complex(1), cscale(a, beta)));
   },
   closedFormFinite: true,
   fixedGain: () => 1,
 });
+
+/** Every first-order topology, in registry order. */
+export const firstOrderTopologies: readonly Topology[] = Object.freeze([
+  firstOrderLowpassBuffer,
+  firstOrderHighpassBuffer,
+  firstOrderLowpassNoninverting,
+  firstOrderHighpassNoninverting,
+  firstOrderLowpassInverting,
+  firstOrderHighpassInverting,
+  firstOrderAllpass,
+]);

@@ -1,6 +1,7 @@
 /**
- * The topology layer: one file per circuit family, each exporting
- * {@link Topology} objects, and a registry.
+ * The topology layer: one file per circuit family, each exporting its
+ * {@link Topology} objects and their list, the registry, and the as-built
+ * pole of a stage.
  *
  * @module
  */
@@ -13,41 +14,11 @@ export type {
   StageTarget,
   Topology,
 } from "./types.ts";
-export { DEFAULT_LEVEL_OHMS, GBW_DEMAND_A0, type DefinedTopology } from "./common.ts";
-export {
-  firstOrderAllpass,
-  firstOrderHighpassBuffer,
-  firstOrderHighpassInverting,
-  firstOrderHighpassNoninverting,
-  firstOrderLowpassBuffer,
-  firstOrderLowpassInverting,
-  firstOrderLowpassNoninverting,
-} from "./first-order.ts";
-export {
-  EQUAL_COMPONENT_MAX_Q,
-  sallenKeyHighpassEqual,
-  sallenKeyHighpassGain,
-  sallenKeyHighpassUnity,
-  sallenKeyLowpassEqual,
-  sallenKeyLowpassGain,
-  sallenKeyLowpassMinRatio,
-  sallenKeyLowpassUnity,
-} from "./sallen-key.ts";
-export { mfbBandpass, mfbBandpassAttenuated, mfbHighpass, mfbLowpass, mfbLowpassMinRatio } from "./multiple-feedback.ts";
-export {
-  stateVariableAllpass,
-  stateVariableBandpass,
-  stateVariableHighpass,
-  stateVariableLowpass,
-  stateVariableNotch,
-} from "./state-variable.ts";
-export {
-  towThomasAllpass,
-  towThomasBandpass,
-  towThomasHighpassNotch,
-  towThomasLowpass,
-  towThomasLowpassNotch,
-  towThomasNotch,
-} from "./tow-thomas.ts";
+export { DEFAULT_LEVEL_OHMS } from "./define.ts";
+export { GBW_DEMAND_A0, asBuiltPole, type AsBuiltPole } from "./as-built.ts";
+export * from "./first-order.ts";
+export * from "./sallen-key.ts";
+export * from "./multiple-feedback.ts";
+export * from "./state-variable.ts";
+export * from "./tow-thomas.ts";
 export { getTopology, topologies, topologiesFor, type TopologyQuery } from "./registry.ts";
-export { asBuiltPole, type AsBuiltPole } from "./as-built.ts";

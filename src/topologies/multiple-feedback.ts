@@ -41,14 +41,15 @@
  * @module
  */
 import { requirePositive } from "../validate.ts";
-import type { Complex } from "../math/complex.ts";
-import type { ComponentValues, StageFigures, StageTarget } from "./types.ts";
-import { TWO_PI, atLeast, defineTopology, mfbKernel, re, sx, type DefinedTopology } from "./common.ts";
+import type { ComponentValues, StageFigures, StageTarget, Topology } from "./types.ts";
+import { complex, cscale, type Complex } from "../math/complex.ts";
+import { TWO_PI } from "../units/constants.ts";
+import { atLeast, defineTopology, valueOf, conductanceOf } from "./define.ts";
+import { mfbKernel } from "./kernels.ts";
 
 const REF =
   'L. P. Huelsman & P. E. Allen, "Introduction to the Theory and Design of Active Filters", McGraw-Hill, 1980, infinite-gain multiple-feedback realisations (from memory)';
 
-const g = (v: ComponentValues, k: string): number => v[k] as number;
 const q = (t: StageTarget): number => t.q as number;
 const w0Of = (t: StageTarget): number => TWO_PI * t.f0Hz;
 const amp = { kind: "OA", name: "U1", inP: "0", inN: "n", out: "out" } as const;
@@ -78,7 +79,7 @@ function mfbMinRatio(qv: number, gainMagnitude: number): number {
 }
 
 /** Multiple-feedback lowpass. */
-export const mfbLowpass: DefinedTopology = defineTopology({
+export const mfbLowpass: Topology = defineTopology({
   id: "mfb-lowpass",
   name: "multiple-feedback lowpass",
   order: 2,
@@ -116,17 +117,17 @@ export const mfbLowpass: DefinedTopology = defineTopology({
     return { C1: m, C2: 1, R2: r2, R1: r2 / k, R3: 1 / (w0 * w0 * r2 * m) };
   },
   figures: (v) => {
-    const w0 = 1 / Math.sqrt(g(v, "R2") * g(v, "R3") * g(v, "C1") * g(v, "C2"));
-    const damp = (1 / g(v, "R1") + 1 / g(v, "R2") + 1 / g(v, "R3")) / g(v, "C1");
-    return { f0Hz: w0 / TWO_PI, q: w0 / damp, gain: -g(v, "R2") / g(v, "R1") };
+    const w0 = 1 / Math.sqrt(valueOf(v, "R2") * valueOf(v, "R3") * valueOf(v, "C1") * valueOf(v, "C2"));
+    const damp = (conductanceOf(v, "R1") + conductanceOf(v, "R2") + conductanceOf(v, "R3")) / valueOf(v, "C1");
+    return { f0Hz: w0 / TWO_PI, q: w0 / damp, gain: -valueOf(v, "R2") / valueOf(v, "R1") };
   },
   closedForm: (v, s, a) =>
-    mfbKernel([re(1 / g(v, "R1")), sx(s, g(v, "C1")), re(1 / g(v, "R3")), re(1 / g(v, "R2")), sx(s, g(v, "C2"))], a),
+    mfbKernel([complex(conductanceOf(v, "R1")), cscale(s, valueOf(v, "C1")), complex(conductanceOf(v, "R3")), complex(conductanceOf(v, "R2")), cscale(s, valueOf(v, "C2"))], a),
   closedFormFinite: true,
 });
 
 /** Multiple-feedback highpass. */
-export const mfbHighpass: DefinedTopology = defineTopology({
+export const mfbHighpass: Topology = defineTopology({
   id: "mfb-highpass",
   name: "multiple-feedback highpass",
   order: 2,
@@ -153,25 +154,25 @@ export const mfbHighpass: DefinedTopology = defineTopology({
     return { C1: k, C2: r, C3: 1, R2: r2, R1: 1 / (w0 * w0 * r2 * r) };
   },
   figures: (v) => {
-    const c2c3 = g(v, "C2") * g(v, "C3");
-    const w0 = 1 / Math.sqrt(g(v, "R1") * g(v, "R2") * c2c3);
-    const damp = (g(v, "C1") + g(v, "C2") + g(v, "C3")) / (g(v, "R2") * c2c3);
-    return { f0Hz: w0 / TWO_PI, q: w0 / damp, gain: -g(v, "C1") / g(v, "C3") };
+    const c2c3 = valueOf(v, "C2") * valueOf(v, "C3");
+    const w0 = 1 / Math.sqrt(valueOf(v, "R1") * valueOf(v, "R2") * c2c3);
+    const damp = (valueOf(v, "C1") + valueOf(v, "C2") + valueOf(v, "C3")) / (valueOf(v, "R2") * c2c3);
+    return { f0Hz: w0 / TWO_PI, q: w0 / damp, gain: -valueOf(v, "C1") / valueOf(v, "C3") };
   },
   closedForm: (v, s, a) =>
-    mfbKernel([sx(s, g(v, "C1")), re(1 / g(v, "R1")), sx(s, g(v, "C2")), sx(s, g(v, "C3")), re(1 / g(v, "R2"))], a),
+    mfbKernel([cscale(s, valueOf(v, "C1")), complex(conductanceOf(v, "R1")), cscale(s, valueOf(v, "C2")), cscale(s, valueOf(v, "C3")), complex(conductanceOf(v, "R2"))], a),
   closedFormFinite: true,
 });
 
 /** f0, Q and centre gain of a multiple-feedback bandpass with pole frequency `w0` and feedback resistor `rf` (input resistor R1, capacitors C1, C2). */
 function bandpassFigures(v: ComponentValues, w0: number, rf: "R2" | "R3"): StageFigures {
-  const c1 = g(v, "C1");
-  const c2 = g(v, "C2");
-  return { f0Hz: w0 / TWO_PI, q: (w0 * g(v, rf) * c1 * c2) / (c1 + c2), gain: -(g(v, rf) * c1) / (g(v, "R1") * (c1 + c2)) };
+  const c1 = valueOf(v, "C1");
+  const c2 = valueOf(v, "C2");
+  return { f0Hz: w0 / TWO_PI, q: (w0 * valueOf(v, rf) * c1 * c2) / (c1 + c2), gain: -(valueOf(v, rf) * c1) / (valueOf(v, "R1") * (c1 + c2)) };
 }
 
 /** Multiple-feedback bandpass (two resistors; gain tied to Q through the capacitor ratio). */
-export const mfbBandpass: DefinedTopology = defineTopology({
+export const mfbBandpass: Topology = defineTopology({
   id: "mfb-bandpass",
   name: "multiple-feedback bandpass",
   order: 2,
@@ -202,13 +203,13 @@ export const mfbBandpass: DefinedTopology = defineTopology({
     const r2 = (q(t) * (1 + r)) / (w0 * r);
     return { C1: 1, C2: r, R2: r2, R1: 1 / (w0 * w0 * r2 * r) };
   },
-  figures: (v) => bandpassFigures(v, 1 / Math.sqrt(g(v, "R1") * g(v, "R2") * g(v, "C1") * g(v, "C2")), "R2"),
-  closedForm: (v, s, a) => mfbKernel([re(1 / g(v, "R1")), ZERO, sx(s, g(v, "C1")), sx(s, g(v, "C2")), re(1 / g(v, "R2"))], a),
+  figures: (v) => bandpassFigures(v, 1 / Math.sqrt(valueOf(v, "R1") * valueOf(v, "R2") * valueOf(v, "C1") * valueOf(v, "C2")), "R2"),
+  closedForm: (v, s, a) => mfbKernel([complex(conductanceOf(v, "R1")), ZERO, cscale(s, valueOf(v, "C1")), cscale(s, valueOf(v, "C2")), complex(conductanceOf(v, "R2"))], a),
   closedFormFinite: true,
 });
 
 /** Multiple-feedback bandpass with an input attenuator (R2 to ground) setting the gain independently of Q. */
-export const mfbBandpassAttenuated: DefinedTopology = defineTopology({
+export const mfbBandpassAttenuated: Topology = defineTopology({
   id: "mfb-bandpass-attenuated",
   name: "multiple-feedback bandpass with input attenuator",
   order: 2,
@@ -238,8 +239,16 @@ export const mfbBandpassAttenuated: DefinedTopology = defineTopology({
     const qv = q(t);
     return { C1: 1, C2: 1, R3: (2 * qv) / w0, R1: qv / (k * w0), R2: 1 / (w0 * (2 * qv - k / qv)) };
   },
-  figures: (v) => bandpassFigures(v, Math.sqrt((1 / g(v, "R1") + 1 / g(v, "R2")) / (g(v, "R3") * g(v, "C1") * g(v, "C2"))), "R3"),
+  figures: (v) => bandpassFigures(v, Math.sqrt((conductanceOf(v, "R1") + conductanceOf(v, "R2")) / (valueOf(v, "R3") * valueOf(v, "C1") * valueOf(v, "C2"))), "R3"),
   closedForm: (v, s, a) =>
-    mfbKernel([re(1 / g(v, "R1")), re(1 / g(v, "R2")), sx(s, g(v, "C1")), sx(s, g(v, "C2")), re(1 / g(v, "R3"))], a),
+    mfbKernel([complex(conductanceOf(v, "R1")), complex(conductanceOf(v, "R2")), cscale(s, valueOf(v, "C1")), cscale(s, valueOf(v, "C2")), complex(conductanceOf(v, "R3"))], a),
   closedFormFinite: true,
 });
+
+/** Every multiple-feedback topology, in registry order. */
+export const multipleFeedbackTopologies: readonly Topology[] = Object.freeze([
+  mfbLowpass,
+  mfbHighpass,
+  mfbBandpass,
+  mfbBandpassAttenuated,
+]);

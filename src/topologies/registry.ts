@@ -1,74 +1,25 @@
 /**
  * The registry of every topology, and look-ups by id and by what a stage must do.
+ * Each family file exports its list; adding a topology is one file (or one
+ * entry in its family's list) and, for a new family, one line here.
  *
  * @module
  */
 import { InvalidArgumentError } from "../errors.ts";
-import {
-  firstOrderAllpass,
-  firstOrderHighpassBuffer,
-  firstOrderHighpassInverting,
-  firstOrderHighpassNoninverting,
-  firstOrderLowpassBuffer,
-  firstOrderLowpassInverting,
-  firstOrderLowpassNoninverting,
-} from "./first-order.ts";
-import { mfbBandpass, mfbBandpassAttenuated, mfbHighpass, mfbLowpass } from "./multiple-feedback.ts";
-import {
-  sallenKeyHighpassEqual,
-  sallenKeyHighpassGain,
-  sallenKeyHighpassUnity,
-  sallenKeyLowpassEqual,
-  sallenKeyLowpassGain,
-  sallenKeyLowpassUnity,
-} from "./sallen-key.ts";
-import {
-  stateVariableAllpass,
-  stateVariableBandpass,
-  stateVariableHighpass,
-  stateVariableLowpass,
-  stateVariableNotch,
-} from "./state-variable.ts";
-import {
-  towThomasAllpass,
-  towThomasBandpass,
-  towThomasHighpassNotch,
-  towThomasLowpass,
-  towThomasLowpassNotch,
-  towThomasNotch,
-} from "./tow-thomas.ts";
+import { firstOrderTopologies } from "./first-order.ts";
+import { multipleFeedbackTopologies } from "./multiple-feedback.ts";
+import { sallenKeyTopologies } from "./sallen-key.ts";
+import { stateVariableTopologies } from "./state-variable.ts";
+import { towThomasTopologies } from "./tow-thomas.ts";
 import type { StageKind, Topology } from "./types.ts";
 
-/** Every topology, first order first, then by family. */
+/** Every topology, first order first, then by family (each family file lists its own). */
 export const topologies: readonly Topology[] = Object.freeze([
-  firstOrderLowpassBuffer,
-  firstOrderHighpassBuffer,
-  firstOrderLowpassNoninverting,
-  firstOrderHighpassNoninverting,
-  firstOrderLowpassInverting,
-  firstOrderHighpassInverting,
-  firstOrderAllpass,
-  sallenKeyLowpassUnity,
-  sallenKeyLowpassEqual,
-  sallenKeyLowpassGain,
-  sallenKeyHighpassUnity,
-  sallenKeyHighpassEqual,
-  sallenKeyHighpassGain,
-  mfbLowpass,
-  mfbHighpass,
-  mfbBandpass,
-  mfbBandpassAttenuated,
-  stateVariableLowpass,
-  stateVariableHighpass,
-  stateVariableBandpass,
-  stateVariableNotch,
-  stateVariableAllpass,
-  towThomasLowpass,
-  towThomasBandpass,
-  towThomasLowpassNotch,
-  towThomasHighpassNotch,
-  towThomasNotch,
-  towThomasAllpass,
+  ...firstOrderTopologies,
+  ...sallenKeyTopologies,
+  ...multipleFeedbackTopologies,
+  ...stateVariableTopologies,
+  ...towThomasTopologies,
 ]);
 
 /**

@@ -50,23 +50,11 @@
  * @module
  */
 import { requireInRange, requirePositive } from "../validate.ts";
-import type { Complex } from "../math/complex.ts";
-import type { ComponentValues, StageChoices, StageTarget } from "./types.ts";
-import {
-  TWO_PI,
-  atLeast,
-  cadd,
-  cdiv,
-  cmul,
-  csub,
-  defineTopology,
-  nonInvertingGain,
-  re,
-  sx,
-  type DefinedTopology,
-  type PartSpec,
-  type TopologySpec,
-} from "./common.ts";
+import type { ComponentValues, StageChoices, StageTarget, Topology } from "./types.ts";
+import { cadd, cdiv, cmul, complex, cscale, csub, type Complex } from "../math/complex.ts";
+import { TWO_PI } from "../units/constants.ts";
+import { atLeast, defineTopology, valueOf, type PartSpec, type TopologySpec } from "./define.ts";
+import { nonInvertingGain } from "./kernels.ts";
 
 const REF =
   'R. P. Sallen & E. L. Key, IRE Trans. Circuit Theory CT-2(1):74-85, 1955; R. Schaumann & M. E. Van Valkenburg, "Design of Analog Filters", 2001, single-amplifier biquads (from memory)';
@@ -74,7 +62,6 @@ const REF =
 /** Q above which the equal-component form is refused (Q sensitivity to gain 3Q - 1 = 29). */
 export const EQUAL_COMPONENT_MAX_Q = 10;
 
-const g = (v: ComponentValues, k: string): number => v[k] as number;
 const q = (t: StageTarget): number => t.q as number;
 const w0Of = (t: StageTarget): number => TWO_PI * t.f0Hz;
 
@@ -97,46 +84,46 @@ const gainAmp: PartSpec[] = [
   { kind: "R", name: "R4", a: "fb", b: "0" },
 ];
 
-const kOf = (v: ComponentValues): number => (v["R3"] === undefined ? 1 : 1 + g(v, "R3") / g(v, "R4"));
-const betaOf = (v: ComponentValues): number => (v["R3"] === undefined ? 1 : g(v, "R4") / (g(v, "R3") + g(v, "R4")));
+const kOf = (v: ComponentValues): number => (v["R3"] === undefined ? 1 : 1 + valueOf(v, "R3") / valueOf(v, "R4"));
+const betaOf = (v: ComponentValues): number => (v["R3"] === undefined ? 1 : valueOf(v, "R4") / (valueOf(v, "R3") + valueOf(v, "R4")));
 
 function lowFigures(v: ComponentValues): { f0Hz: number; q: number; gain: number } {
   const k = kOf(v);
-  const p = g(v, "R1") * g(v, "R2") * g(v, "C1") * g(v, "C2");
-  const b1 = g(v, "R1") * g(v, "C2") + g(v, "R2") * g(v, "C2") + (1 - k) * g(v, "R1") * g(v, "C1");
+  const p = valueOf(v, "R1") * valueOf(v, "R2") * valueOf(v, "C1") * valueOf(v, "C2");
+  const b1 = valueOf(v, "R1") * valueOf(v, "C2") + valueOf(v, "R2") * valueOf(v, "C2") + (1 - k) * valueOf(v, "R1") * valueOf(v, "C1");
   return { f0Hz: 1 / (TWO_PI * Math.sqrt(p)), q: Math.sqrt(p) / b1, gain: k };
 }
 
 function highFigures(v: ComponentValues): { f0Hz: number; q: number; gain: number } {
   const k = kOf(v);
-  const p = g(v, "R1") * g(v, "R2") * g(v, "C1") * g(v, "C2");
-  const b1 = g(v, "R1") * (g(v, "C1") + g(v, "C2")) + (1 - k) * g(v, "R2") * g(v, "C2");
+  const p = valueOf(v, "R1") * valueOf(v, "R2") * valueOf(v, "C1") * valueOf(v, "C2");
+  const b1 = valueOf(v, "R1") * (valueOf(v, "C1") + valueOf(v, "C2")) + (1 - k) * valueOf(v, "R2") * valueOf(v, "C2");
   return { f0Hz: 1 / (TWO_PI * Math.sqrt(p)), q: Math.sqrt(p) / b1, gain: k };
 }
 
 function lowClosed(v: ComponentValues, s: Complex, a: Complex | null): Complex {
   const ke = nonInvertingGain(a, betaOf(v));
-  const r1 = g(v, "R1");
-  const r2 = g(v, "R2");
-  const c1 = g(v, "C1");
-  const c2 = g(v, "C2");
+  const r1 = valueOf(v, "R1");
+  const r2 = valueOf(v, "R2");
+  const c1 = valueOf(v, "C1");
+  const c2 = valueOf(v, "C2");
   // 1 + s (R1 C2 + R2 C2) + s (1 - Ke) R1 C1 + s^2 R1 R2 C1 C2
   const s2 = cmul(s, s);
-  let den = cadd(re(1), sx(s, r1 * c2 + r2 * c2));
-  den = cadd(den, cmul(sx(s, r1 * c1), csub(re(1), ke)));
-  den = cadd(den, sx(s2, r1 * r2 * c1 * c2));
+  let den = cadd(complex(1), cscale(s, r1 * c2 + r2 * c2));
+  den = cadd(den, cmul(cscale(s, r1 * c1), csub(complex(1), ke)));
+  den = cadd(den, cscale(s2, r1 * r2 * c1 * c2));
   return cdiv(ke, den);
 }
 
 function highClosed(v: ComponentValues, s: Complex, a: Complex | null): Complex {
   const ke = nonInvertingGain(a, betaOf(v));
-  const r1 = g(v, "R1");
-  const r2 = g(v, "R2");
-  const c1 = g(v, "C1");
-  const c2 = g(v, "C2");
-  const s2p = sx(cmul(s, s), r1 * r2 * c1 * c2);
-  let den = cadd(re(1), sx(s, r1 * (c1 + c2)));
-  den = cadd(den, cmul(sx(s, r2 * c2), csub(re(1), ke)));
+  const r1 = valueOf(v, "R1");
+  const r2 = valueOf(v, "R2");
+  const c1 = valueOf(v, "C1");
+  const c2 = valueOf(v, "C2");
+  const s2p = cscale(cmul(s, s), r1 * r2 * c1 * c2);
+  let den = cadd(complex(1), cscale(s, r1 * (c1 + c2)));
+  den = cadd(den, cmul(cscale(s, r2 * c2), csub(complex(1), ke)));
   den = cadd(den, s2p);
   return cdiv(cmul(ke, s2p), den);
 }
@@ -258,7 +245,7 @@ function skStage(
   kind: "lowpass" | "highpass",
   form: Form,
   rules: Pick<TopologySpec, "limits" | "solve">,
-): DefinedTopology {
+): Topology {
   const low = kind === "lowpass";
   return defineTopology({
     id: `sallen-key-${kind}-${form}`,
@@ -280,28 +267,38 @@ function skStage(
 }
 
 /** Unity-gain Sallen-Key lowpass (equal resistors by default). */
-export const sallenKeyLowpassUnity: DefinedTopology = skStage("lowpass", "unity", {
+export const sallenKeyLowpassUnity: Topology = skStage("lowpass", "unity", {
   limits: (t, c) => unityOnly(t) ?? lowRatioLimit(t, c, true),
   solve: (t, c) => lowSolve({ ...t, gain: 1 }, c, false),
 });
 
 /** Equal-component Sallen-Key lowpass (gain fixed at 3 - 1/Q). */
-export const sallenKeyLowpassEqual: DefinedTopology = skStage("lowpass", "equal", { limits: equalLimits, solve: equalSolve });
+export const sallenKeyLowpassEqual: Topology = skStage("lowpass", "equal", { limits: equalLimits, solve: equalSolve });
 
 /** General-gain Sallen-Key lowpass (chosen capacitor ratio). */
-export const sallenKeyLowpassGain: DefinedTopology = skStage("lowpass", "gain", {
+export const sallenKeyLowpassGain: Topology = skStage("lowpass", "gain", {
   limits: (t, c) => aboveOne(t) ?? lowRatioLimit(t, c, false),
   solve: (t, c) => lowSolve(t, c, true),
 });
 
 /** Unity-gain Sallen-Key highpass (equal capacitors by default). */
-export const sallenKeyHighpassUnity: DefinedTopology = skStage("highpass", "unity", {
+export const sallenKeyHighpassUnity: Topology = skStage("highpass", "unity", {
   limits: unityOnly,
   solve: (t, c) => highSolve({ ...t, gain: 1 }, c),
 });
 
 /** Equal-component Sallen-Key highpass (gain fixed at 3 - 1/Q). */
-export const sallenKeyHighpassEqual: DefinedTopology = skStage("highpass", "equal", { limits: equalLimits, solve: equalSolve });
+export const sallenKeyHighpassEqual: Topology = skStage("highpass", "equal", { limits: equalLimits, solve: equalSolve });
 
 /** General-gain Sallen-Key highpass (chosen capacitor ratio, default equal). */
-export const sallenKeyHighpassGain: DefinedTopology = skStage("highpass", "gain", { limits: aboveOne, solve: highSolve });
+export const sallenKeyHighpassGain: Topology = skStage("highpass", "gain", { limits: aboveOne, solve: highSolve });
+
+/** Every Sallen-Key topology, in registry order. */
+export const sallenKeyTopologies: readonly Topology[] = Object.freeze([
+  sallenKeyLowpassUnity,
+  sallenKeyLowpassEqual,
+  sallenKeyLowpassGain,
+  sallenKeyHighpassUnity,
+  sallenKeyHighpassEqual,
+  sallenKeyHighpassGain,
+]);

@@ -51,28 +51,15 @@
  *
  * @module
  */
-import type { Complex } from "../math/complex.ts";
-import type { ComponentValues, StageFigures, StageTarget } from "./types.ts";
-import {
-  TWO_PI,
-  cadd,
-  cdiv,
-  cmul,
-  csub,
-  defineTopology,
-  invertingGain,
-  re,
-  summer,
-  sx,
-  withOutputAt,
-  type DefinedTopology,
-  type PartSpec,
-} from "./common.ts";
+import type { ComponentValues, StageFigures, StageTarget, Topology } from "./types.ts";
+import { cadd, cdiv, cmul, complex, cscale, csub, type Complex } from "../math/complex.ts";
+import { TWO_PI } from "../units/constants.ts";
+import { defineTopology, withOutputAt, valueOf, conductanceOf, type PartSpec } from "./define.ts";
+import { invertingGain, summer } from "./kernels.ts";
 
 const REF =
   'W. J. Kerwin, L. P. Huelsman & R. W. Newcomb, IEEE J. Solid-State Circuits SC-2(3):87-92, 1967; L. P. Huelsman & P. E. Allen, "Introduction to the Theory and Design of Active Filters", 1980, state-variable realisations (from memory)';
 
-const g = (v: ComponentValues, k: string): number => v[k] as number;
 
 const core: PartSpec[] = [
   { kind: "R", name: "R1", a: "in", b: "n1" },
@@ -103,13 +90,13 @@ interface Core {
 }
 
 function coreOf(v: ComponentValues): Core {
-  const beta = g(v, "R5") / (g(v, "R4") + g(v, "R5"));
-  const gsum = 1 / g(v, "R1") + 1 / g(v, "R2") + 1 / g(v, "R3");
-  const tau1 = g(v, "R6") * g(v, "C1");
-  const tau2 = g(v, "R7") * g(v, "C2");
-  const w0 = Math.sqrt(g(v, "R2") / (g(v, "R3") * tau1 * tau2));
-  const damp = (beta * gsum * g(v, "R2")) / tau1;
-  return { w0, q: w0 / damp, tau1, tau2, h0: g(v, "R2") / g(v, "R1"), damp };
+  const beta = valueOf(v, "R5") / (valueOf(v, "R4") + valueOf(v, "R5"));
+  const gsum = conductanceOf(v, "R1") + conductanceOf(v, "R2") + conductanceOf(v, "R3");
+  const tau1 = valueOf(v, "R6") * valueOf(v, "C1");
+  const tau2 = valueOf(v, "R7") * valueOf(v, "C2");
+  const w0 = Math.sqrt(valueOf(v, "R2") / (valueOf(v, "R3") * tau1 * tau2));
+  const damp = (beta * gsum * valueOf(v, "R2")) / tau1;
+  return { w0, q: w0 / damp, tau1, tau2, h0: valueOf(v, "R2") / valueOf(v, "R1"), damp };
 }
 
 /**
@@ -119,15 +106,15 @@ function coreOf(v: ComponentValues): Core {
  * `hp = -G1 / (G2 + G3 T1 T2 - G beta T1 + G/A)` with T1 = bp/hp, T2 = lp/bp.
  */
 function finiteTaps(v: ComponentValues, s: Complex, a: Complex): { hp: Complex; bp: Complex; lp: Complex } {
-  const g1 = 1 / g(v, "R1");
-  const g2 = 1 / g(v, "R2");
-  const g3 = 1 / g(v, "R3");
+  const g1 = conductanceOf(v, "R1");
+  const g2 = conductanceOf(v, "R2");
+  const g3 = conductanceOf(v, "R3");
   const gs = g1 + g2 + g3;
-  const beta = g(v, "R5") / (g(v, "R4") + g(v, "R5"));
-  const t1 = invertingGain(re(1 / g(v, "R6")), sx(s, g(v, "C1")), a);
-  const t2 = invertingGain(re(1 / g(v, "R7")), sx(s, g(v, "C2")), a);
-  const den = cadd(cadd(re(g2), sx(cmul(t1, t2), g3)), csub(cdiv(re(gs), a), sx(t1, gs * beta)));
-  const hp = cdiv(re(-g1), den);
+  const beta = valueOf(v, "R5") / (valueOf(v, "R4") + valueOf(v, "R5"));
+  const t1 = invertingGain(complex(conductanceOf(v, "R6")), cscale(s, valueOf(v, "C1")), a);
+  const t2 = invertingGain(complex(conductanceOf(v, "R7")), cscale(s, valueOf(v, "C2")), a);
+  const den = cadd(cadd(complex(g2), cscale(cmul(t1, t2), g3)), csub(cdiv(complex(gs), a), cscale(t1, gs * beta)));
+  const hp = cdiv(complex(-g1), den);
   const bp = cmul(t1, hp);
   return { hp, bp, lp: cmul(t2, bp) };
 }
@@ -137,28 +124,28 @@ function closedForm(allpass: boolean) {
     if (a !== null) {
       const t = finiteTaps(v, s, a);
       const terms: [number, Complex][] = [
-        [1 / g(v, "R8"), t.hp],
-        [1 / g(v, "R9"), t.lp],
+        [conductanceOf(v, "R8"), t.hp],
+        [conductanceOf(v, "R9"), t.lp],
       ];
-      if (allpass) terms.push([1 / g(v, "R11"), t.bp]);
-      return summer(terms, 1 / g(v, "R10"), a);
+      if (allpass) terms.push([conductanceOf(v, "R11"), t.bp]);
+      return summer(terms, conductanceOf(v, "R10"), a);
     }
     const c = coreOf(v);
     const s2 = cmul(s, s);
-    const d = cadd(cadd(s2, sx(s, c.damp)), re(c.w0 * c.w0));
-    let num = cadd(sx(s2, 1 / g(v, "R8")), re(1 / (g(v, "R9") * c.tau1 * c.tau2)));
-    if (allpass) num = cadd(num, sx(s, -1 / (g(v, "R11") * c.tau1)));
-    return sx(cdiv(num, d), c.h0 * g(v, "R10"));
+    const d = cadd(cadd(s2, cscale(s, c.damp)), complex(c.w0 * c.w0));
+    let num = cadd(cscale(s2, conductanceOf(v, "R8")), complex(1 / (valueOf(v, "R9") * c.tau1 * c.tau2)));
+    if (allpass) num = cadd(num, cscale(s, -1 / (valueOf(v, "R11") * c.tau1)));
+    return cscale(cdiv(num, d), c.h0 * valueOf(v, "R10"));
   };
 }
 
 function figures(allpass: boolean) {
   return (v: ComponentValues): StageFigures => {
     const c = coreOf(v);
-    const dc = (c.h0 * g(v, "R10")) / (g(v, "R9") * c.tau1 * c.tau2 * c.w0 * c.w0);
-    const hf = (c.h0 * g(v, "R10")) / g(v, "R8");
+    const dc = (c.h0 * valueOf(v, "R10")) / (valueOf(v, "R9") * c.tau1 * c.tau2 * c.w0 * c.w0);
+    const hf = (c.h0 * valueOf(v, "R10")) / valueOf(v, "R8");
     if (allpass) return { f0Hz: c.w0 / TWO_PI, q: c.q, gain: dc };
-    const wz = Math.sqrt(g(v, "R8") / (g(v, "R9") * c.tau1 * c.tau2));
+    const wz = Math.sqrt(valueOf(v, "R8") / (valueOf(v, "R9") * c.tau1 * c.tau2));
     return { f0Hz: c.w0 / TWO_PI, q: c.q, fzHz: wz / TWO_PI, gain: wz > c.w0 ? dc : hf };
   };
 }
@@ -176,7 +163,7 @@ const qLimit = (t: StageTarget): string | null =>
     : `this state-variable stage sets Q with a divider of ratio 1/(3Q), so it needs Q above 1/3 (got ${t.q}); choose a Sallen-Key or multiple-feedback stage for such a low Q`;
 
 /** KHN state-variable notch section: lowpass-notch, highpass-notch or symmetric notch, from the zero frequency. */
-export const stateVariableNotch: DefinedTopology = defineTopology({
+export const stateVariableNotch: Topology = defineTopology({
   id: "state-variable-notch",
   name: "state-variable (KHN) notch",
   order: 2,
@@ -208,7 +195,7 @@ export const stateVariableNotch: DefinedTopology = defineTopology({
 });
 
 /** KHN state-variable allpass section. */
-export const stateVariableAllpass: DefinedTopology = defineTopology({
+export const stateVariableAllpass: Topology = defineTopology({
   id: "state-variable-allpass",
   name: "state-variable (KHN) allpass",
   order: 2,
@@ -236,10 +223,10 @@ type Tap = "lowpass" | "highpass" | "bandpass";
 
 function tapResponse(tap: Tap, v: ComponentValues, s: Complex): Complex {
   const c = coreOf(v);
-  const d = cadd(cadd(cmul(s, s), sx(s, c.damp)), re(c.w0 * c.w0));
-  if (tap === "highpass") return sx(cdiv(cmul(s, s), d), -c.h0);
-  if (tap === "bandpass") return sx(cdiv(s, d), c.h0 / c.tau1);
-  return sx(cdiv(re(1), d), -c.h0 / (c.tau1 * c.tau2));
+  const d = cadd(cadd(cmul(s, s), cscale(s, c.damp)), complex(c.w0 * c.w0));
+  if (tap === "highpass") return cscale(cdiv(cmul(s, s), d), -c.h0);
+  if (tap === "bandpass") return cscale(cdiv(s, d), c.h0 / c.tau1);
+  return cscale(cdiv(complex(1), d), -c.h0 / (c.tau1 * c.tau2));
 }
 
 function tapGain(tap: Tap, v: ComponentValues): number {
@@ -249,7 +236,7 @@ function tapGain(tap: Tap, v: ComponentValues): number {
   return -c.h0 / (c.tau1 * c.tau2 * c.w0 * c.w0);
 }
 
-function makeTap(tap: Tap): DefinedTopology {
+function makeTap(tap: Tap): Topology {
   const node = tap === "lowpass" ? "lp" : tap === "highpass" ? "hp" : "bp";
   // G R (sum of the three input conductances times R) for the chosen gain
   const gr = (t: StageTarget): number => (tap === "bandpass" ? Math.abs(t.gain) / (t.q as number) + 2 : Math.abs(t.gain) + 2);
@@ -287,8 +274,17 @@ function makeTap(tap: Tap): DefinedTopology {
 }
 
 /** KHN state-variable lowpass (output of the second integrator, inverting; three op-amps). */
-export const stateVariableLowpass: DefinedTopology = makeTap("lowpass");
+export const stateVariableLowpass: Topology = makeTap("lowpass");
 /** KHN state-variable highpass (output of the summing amplifier, inverting; three op-amps). */
-export const stateVariableHighpass: DefinedTopology = makeTap("highpass");
+export const stateVariableHighpass: Topology = makeTap("highpass");
 /** KHN state-variable bandpass (output of the first integrator, non-inverting; three op-amps). */
-export const stateVariableBandpass: DefinedTopology = makeTap("bandpass");
+export const stateVariableBandpass: Topology = makeTap("bandpass");
+
+/** Every state-variable topology, in registry order. */
+export const stateVariableTopologies: readonly Topology[] = Object.freeze([
+  stateVariableLowpass,
+  stateVariableHighpass,
+  stateVariableBandpass,
+  stateVariableNotch,
+  stateVariableAllpass,
+]);

@@ -45,27 +45,15 @@
  *
  * @module
  */
-import type { Complex } from "../math/complex.ts";
-import type { ComponentValues, StageFigures, StageKind, StageTarget } from "./types.ts";
-import {
-  TWO_PI,
-  cadd,
-  cdiv,
-  cmul,
-  defineTopology,
-  invertingGain,
-  re,
-  summer,
-  sx,
-  withOutputAt,
-  type DefinedTopology,
-  type PartSpec,
-} from "./common.ts";
+import type { ComponentValues, StageFigures, StageKind, StageTarget, Topology } from "./types.ts";
+import { cadd, cdiv, cmul, complex, cscale, type Complex } from "../math/complex.ts";
+import { TWO_PI } from "../units/constants.ts";
+import { defineTopology, withOutputAt, valueOf, conductanceOf, type PartSpec } from "./define.ts";
+import { invertingGain, summer } from "./kernels.ts";
 
 const REF =
   'J. Tow, Proc. IEEE 56(6):1137-1139, 1968; L. C. Thomas, IEEE Trans. Circuit Theory CT-18(3):350-357, 1971; R. Schaumann & M. E. Van Valkenburg, "Design of Analog Filters", 2001, two-integrator-loop biquads (from memory)';
 
-const g = (v: ComponentValues, k: string): number => v[k] as number;
 
 type Variant = "lowpass-notch" | "highpass-notch" | "notch" | "allpass" | "lowpass" | "bandpass";
 
@@ -96,30 +84,30 @@ function parts(variant: Variant): PartSpec[] {
 }
 
 function w0Sq(v: ComponentValues): number {
-  return g(v, "R6") / (g(v, "R3") * g(v, "R4") * g(v, "R5") * g(v, "C1") * g(v, "C2"));
+  return valueOf(v, "R6") / (valueOf(v, "R3") * valueOf(v, "R4") * valueOf(v, "R5") * valueOf(v, "C1") * valueOf(v, "C2"));
 }
 
 /** Constant numerator coefficient (times 1/R7-normalised) of the summed output. */
 function n0(variant: Variant, v: ComponentValues): number {
-  const k = 1 / (g(v, "R1") * g(v, "R4") * g(v, "C1") * g(v, "C2"));
-  const base = w0Sq(v) / g(v, "R7");
-  if (variant === "lowpass-notch") return base + k / g(v, "R10");
-  if (variant === "highpass-notch") return base - (k * g(v, "R6")) / (g(v, "R5") * g(v, "R10"));
+  const k = 1 / (valueOf(v, "R1") * valueOf(v, "R4") * valueOf(v, "C1") * valueOf(v, "C2"));
+  const base = w0Sq(v) / valueOf(v, "R7");
+  if (variant === "lowpass-notch") return base + k / valueOf(v, "R10");
+  if (variant === "highpass-notch") return base - (k * valueOf(v, "R6")) / (valueOf(v, "R5") * valueOf(v, "R10"));
   return base;
 }
 
 function closedForm(variant: Variant) {
   return (v: ComponentValues, s: Complex, a: Complex | null): Complex => {
     if (a !== null) return finiteForm(variant, v, s, a);
-    const d = cadd(cadd(cmul(s, s), sx(s, 1 / (g(v, "R2") * g(v, "C1")))), re(w0Sq(v)));
-    const h1 = cdiv(sx(s, -1 / (g(v, "R1") * g(v, "C1"))), d);
-    const h2 = cdiv(re(1 / (g(v, "R1") * g(v, "R4") * g(v, "C1") * g(v, "C2"))), d);
+    const d = cadd(cadd(cmul(s, s), cscale(s, 1 / (valueOf(v, "R2") * valueOf(v, "C1")))), complex(w0Sq(v)));
+    const h1 = cdiv(cscale(s, -1 / (valueOf(v, "R1") * valueOf(v, "C1"))), d);
+    const h2 = cdiv(complex(1 / (valueOf(v, "R1") * valueOf(v, "R4") * valueOf(v, "C1") * valueOf(v, "C2"))), d);
     if (variant === "lowpass") return h2;
     if (variant === "bandpass") return h1;
-    let sum = cadd(re(1 / g(v, "R7")), sx(h1, 1 / g(v, "R8")));
-    if (variant === "lowpass-notch") sum = cadd(sum, sx(h2, 1 / g(v, "R10")));
-    if (variant === "highpass-notch") sum = cadd(sum, sx(h2, -g(v, "R6") / (g(v, "R5") * g(v, "R10"))));
-    return sx(sum, -g(v, "R9"));
+    let sum = cadd(complex(conductanceOf(v, "R7")), cscale(h1, conductanceOf(v, "R8")));
+    if (variant === "lowpass-notch") sum = cadd(sum, cscale(h2, conductanceOf(v, "R10")));
+    if (variant === "highpass-notch") sum = cadd(sum, cscale(h2, -valueOf(v, "R6") / (valueOf(v, "R5") * valueOf(v, "R10"))));
+    return cscale(sum, -valueOf(v, "R9"));
   };
 }
 
@@ -130,40 +118,40 @@ function closedForm(variant: Variant) {
  * summer as `out = -sum(Gk vk) / (G9 + (sum(Gk) + G9)/A)`.
  */
 function finiteForm(variant: Variant, v: ComponentValues, s: Complex, a: Complex): Complex {
-  const g1 = 1 / g(v, "R1");
-  const g3 = 1 / g(v, "R3");
-  const yf = cadd(re(1 / g(v, "R2")), sx(s, g(v, "C1")));
-  const t2 = invertingGain(re(1 / g(v, "R4")), sx(s, g(v, "C2")), a); // v2 / v1
-  const t3 = invertingGain(re(1 / g(v, "R5")), re(1 / g(v, "R6")), a); // v3 / v2
+  const g1 = conductanceOf(v, "R1");
+  const g3 = conductanceOf(v, "R3");
+  const yf = cadd(complex(conductanceOf(v, "R2")), cscale(s, valueOf(v, "C1")));
+  const t2 = invertingGain(complex(conductanceOf(v, "R4")), cscale(s, valueOf(v, "C2")), a); // v2 / v1
+  const t3 = invertingGain(complex(conductanceOf(v, "R5")), complex(conductanceOf(v, "R6")), a); // v3 / v2
   // v1 [Yf + (G1 + G3 + Yf)/A + G3 T3 T2] = -G1 vin
-  const den = cadd(cadd(yf, cdiv(cadd(re(g1 + g3), yf), a)), sx(cmul(t3, t2), g3));
-  const v1 = cdiv(re(-g1), den);
+  const den = cadd(cadd(yf, cdiv(cadd(complex(g1 + g3), yf), a)), cscale(cmul(t3, t2), g3));
+  const v1 = cdiv(complex(-g1), den);
   const v2 = cmul(t2, v1);
   if (variant === "bandpass") return v1;
   if (variant === "lowpass") return v2;
   const terms: [number, Complex][] = [
-    [1 / g(v, "R7"), re(1)],
-    [1 / g(v, "R8"), v1],
+    [conductanceOf(v, "R7"), complex(1)],
+    [conductanceOf(v, "R8"), v1],
   ];
-  if (variant === "lowpass-notch") terms.push([1 / g(v, "R10"), v2]);
-  if (variant === "highpass-notch") terms.push([1 / g(v, "R10"), cmul(t3, v2)]);
-  return summer(terms, 1 / g(v, "R9"), a);
+  if (variant === "lowpass-notch") terms.push([conductanceOf(v, "R10"), v2]);
+  if (variant === "highpass-notch") terms.push([conductanceOf(v, "R10"), cmul(t3, v2)]);
+  return summer(terms, conductanceOf(v, "R9"), a);
 }
 
 function figures(variant: Variant) {
   return (v: ComponentValues): StageFigures => {
     const w2 = w0Sq(v);
     const w0 = Math.sqrt(w2);
-    const qv = w0 * g(v, "R2") * g(v, "C1");
+    const qv = w0 * valueOf(v, "R2") * valueOf(v, "C1");
     if (variant === "lowpass") {
-      return { f0Hz: w0 / TWO_PI, q: qv, gain: 1 / (g(v, "R1") * g(v, "R4") * g(v, "C1") * g(v, "C2") * w2) };
+      return { f0Hz: w0 / TWO_PI, q: qv, gain: 1 / (valueOf(v, "R1") * valueOf(v, "R4") * valueOf(v, "C1") * valueOf(v, "C2") * w2) };
     }
-    if (variant === "bandpass") return { f0Hz: w0 / TWO_PI, q: qv, gain: -g(v, "R2") / g(v, "R1") };
-    const hf = -g(v, "R9") / g(v, "R7");
+    if (variant === "bandpass") return { f0Hz: w0 / TWO_PI, q: qv, gain: -valueOf(v, "R2") / valueOf(v, "R1") };
+    const hf = -valueOf(v, "R9") / valueOf(v, "R7");
     if (variant === "allpass") return { f0Hz: w0 / TWO_PI, q: qv, gain: hf };
     const c0 = n0(variant, v);
-    const wz = Math.sqrt(Math.max(0, c0 * g(v, "R7")));
-    const dc = (-g(v, "R9") * c0) / w2;
+    const wz = Math.sqrt(Math.max(0, c0 * valueOf(v, "R7")));
+    const dc = (-valueOf(v, "R9") * c0) / w2;
     return { f0Hz: w0 / TWO_PI, q: qv, fzHz: wz / TWO_PI, gain: variant === "highpass-notch" ? hf : dc };
   };
 }
@@ -196,7 +184,7 @@ function solve(variant: Variant) {
   };
 }
 
-function make(variant: Variant, id: string, name: string): DefinedTopology {
+function make(variant: Variant, id: string, name: string): Topology {
   const kinds: StageKind[] = [variant];
   return defineTopology({
     id,
@@ -222,14 +210,24 @@ function make(variant: Variant, id: string, name: string): DefinedTopology {
 }
 
 /** Tow-Thomas lowpass-notch section (zero above the pole; summer takes the lowpass output). */
-export const towThomasLowpassNotch: DefinedTopology = make("lowpass-notch", "tow-thomas-lowpass-notch", "Tow-Thomas lowpass-notch");
+export const towThomasLowpassNotch: Topology = make("lowpass-notch", "tow-thomas-lowpass-notch", "Tow-Thomas lowpass-notch");
 /** Tow-Thomas highpass-notch section (zero below the pole; summer takes the inverted lowpass output). */
-export const towThomasHighpassNotch: DefinedTopology = make("highpass-notch", "tow-thomas-highpass-notch", "Tow-Thomas highpass-notch");
+export const towThomasHighpassNotch: Topology = make("highpass-notch", "tow-thomas-highpass-notch", "Tow-Thomas highpass-notch");
 /** Tow-Thomas symmetric notch (zero at the pole frequency). */
-export const towThomasNotch: DefinedTopology = make("notch", "tow-thomas-notch", "Tow-Thomas notch");
+export const towThomasNotch: Topology = make("notch", "tow-thomas-notch", "Tow-Thomas notch");
 /** Tow-Thomas allpass section. */
-export const towThomasAllpass: DefinedTopology = make("allpass", "tow-thomas-allpass", "Tow-Thomas allpass");
+export const towThomasAllpass: Topology = make("allpass", "tow-thomas-allpass", "Tow-Thomas allpass");
 /** Tow-Thomas lowpass (output of the second integrator, non-inverting; three op-amps). */
-export const towThomasLowpass: DefinedTopology = make("lowpass", "tow-thomas-lowpass", "Tow-Thomas lowpass");
+export const towThomasLowpass: Topology = make("lowpass", "tow-thomas-lowpass", "Tow-Thomas lowpass");
 /** Tow-Thomas bandpass (output of the damped integrator, inverting; three op-amps). */
-export const towThomasBandpass: DefinedTopology = make("bandpass", "tow-thomas-bandpass", "Tow-Thomas bandpass");
+export const towThomasBandpass: Topology = make("bandpass", "tow-thomas-bandpass", "Tow-Thomas bandpass");
+
+/** Every Tow-Thomas topology, in registry order. */
+export const towThomasTopologies: readonly Topology[] = Object.freeze([
+  towThomasLowpass,
+  towThomasBandpass,
+  towThomasLowpassNotch,
+  towThomasHighpassNotch,
+  towThomasNotch,
+  towThomasAllpass,
+]);

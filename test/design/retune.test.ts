@@ -1,17 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { designFilter, type FilterSpec } from "../../src/design/index.ts";
-
-/** Deterministic pseudo-random numbers (mulberry32), so the 200 specs are the same on every run. */
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { mulberry32 } from "../../src/math/random.ts";
 
 const FAMILIES = ["butterworth", "chebyshev1", "chebyshev2", "elliptic", "bessel", "legendre"] as const;
 
@@ -50,7 +39,7 @@ function median(xs: number[]): number {
 
 describe("designFilter joint re-tuning", () => {
   it("halves the median worst-stage f0 error of plain rounding over 200 random specs", () => {
-    const r = rng(20261201);
+    const r = mulberry32(20261201); // seeded, so the 200 specs are the same on every run
     const plain: number[] = [];
     const tuned: number[] = [];
     const plainQ: number[] = [];

@@ -11,6 +11,7 @@
  * assume valid input (src/math/complex.ts says so in its header).
  */
 import { describe, expect, it } from "vitest";
+import { firstNonFinite } from "../helpers/finite.ts";
 import { readFileSync } from "node:fs";
 import { FilterwrightError } from "../../src/errors.ts";
 
@@ -64,23 +65,6 @@ const BAD_ARGUMENTS: readonly (readonly unknown[])[] = [
   [[Number.POSITIVE_INFINITY, 1]],
   [{ re: Number.POSITIVE_INFINITY, im: 0 }],
 ];
-
-/** The path of the first NaN or ±Infinity in a value (nested objects, arrays, typed arrays), or null. */
-function firstNonFinite(value: unknown, path = "result", seen = new Set<unknown>()): string | null {
-  if (typeof value === "number") return Number.isFinite(value) ? null : `${path} = ${value}`;
-  if (typeof value !== "object" || value === null || seen.has(value)) return null;
-  seen.add(value);
-  if (ArrayBuffer.isView(value) && !(value instanceof DataView)) {
-    const a = value as unknown as ArrayLike<number>;
-    for (let i = 0; i < a.length; i++) if (!Number.isFinite(a[i])) return `${path}[${i}] = ${a[i]}`;
-    return null;
-  }
-  for (const [k, v] of Object.entries(value)) {
-    const found = firstNonFinite(v, `${path}.${k}`, seen);
-    if (found !== null) return found;
-  }
-  return null;
-}
 
 /** Every public function once (a function exported from the root and a subpath is called once), named by where it is first exported. */
 const functions: [string, (...args: unknown[]) => unknown][] = [];

@@ -4,7 +4,6 @@
  * what the topology can realise by filtering through its own `check`.
  */
 import fc from "fast-check";
-import type { DefinedTopology } from "../../src/topologies/common.ts";
 import type { StageChoices, StageTarget, Topology } from "../../src/topologies/types.ts";
 
 const logUniform = (lo: number, hi: number): fc.Arbitrary<number> =>
@@ -21,7 +20,7 @@ export function targetArb(topo: Topology): fc.Arbitrary<StageTarget> {
       fzRatio: logUniform(1.02, 20),
     })
     .map(({ kind, f0Hz, q, gain, fzRatio }) => {
-      const fixed = (topo as DefinedTopology).fixedGain;
+      const fixed = (topo as Topology).fixedGain;
       let g = gain;
       if (topo.id.includes("unity") || topo.id.includes("buffer")) g = 1;
       if (fixed !== undefined) g = fixed({ order: topo.order, kind, f0Hz, q });
@@ -60,4 +59,19 @@ export function realisableArb(topo: Topology): fc.Arbitrary<{ target: StageTarge
   return fc
     .record({ target: targetArb(topo), choices: choicesArb })
     .filter(({ target, choices }) => topo.check(target, choices) === null);
+}
+
+/** One fixed target each topology realises (f0 2 kHz, Q 1.2, a gain it accepts). */
+export function sampleTarget(t: Topology): StageTarget {
+  const kind = t.kinds[0] as StageTarget["kind"];
+  const base = { order: t.order, kind, f0Hz: 2000, q: 1.2 } as const;
+  let gain = t.id.includes("unity") || t.id.includes("buffer") ? 1 : 2.5;
+  if (t.id === "mfb-bandpass") gain = 3;
+  if (t.fixedGain !== undefined) gain = t.fixedGain(base);
+  return {
+    ...base,
+    gain: t.inverting ? -gain : gain,
+    ...(kind === "lowpass-notch" ? { fzHz: 5000 } : {}),
+    ...(kind === "highpass-notch" ? { fzHz: 900 } : {}),
+  };
 }

@@ -1,27 +1,12 @@
 import { describe, expect, it } from "vitest";
 import { getTopology, topologies } from "../../src/topologies/registry.ts";
-import { GBW_DEMAND_A0, type DefinedTopology } from "../../src/topologies/common.ts";
-import { asBuiltPole } from "../../src/topologies/as-built.ts";
+import { GBW_DEMAND_A0, asBuiltPole } from "../../src/topologies/as-built.ts";
 import type { StageTarget } from "../../src/topologies/types.ts";
 import { loadFixture } from "../helpers/fixtures.ts";
 import fc from "fast-check";
-import { realisableArb } from "./arbitraries.ts";
+import { realisableArb, sampleTarget } from "./arbitraries.ts";
 
 const fixture = loadFixture<{ cases: { id: string; target: StageTarget; gbwHz: number }[] }>("circuit-gbw-demand.json");
-
-function sampleTarget(t: DefinedTopology): StageTarget {
-  const kind = t.kinds[0]!;
-  const base = { order: t.order, kind, f0Hz: 2000, q: 1.2 } as const;
-  let gain = t.id.includes("unity") || t.id.includes("buffer") ? 1 : 2.5;
-  if (t.id === "mfb-bandpass") gain = 3;
-  if (t.fixedGain !== undefined) gain = t.fixedGain(base);
-  return {
-    ...base,
-    gain: t.inverting ? -gain : gain,
-    ...(kind === "lowpass-notch" ? { fzHz: 5000 } : {}),
-    ...(kind === "highpass-notch" ? { fzHz: 900 } : {}),
-  };
-}
 
 /** (a.re + j a.im) / (b.re + j b.im) as [re, im]. */
 function divide([ar, ai]: readonly [number, number], [br, bi]: readonly [number, number]): [number, number] {
@@ -40,7 +25,7 @@ describe("Topology.gbwDemandHz", () => {
   // A first-order stage's criterion is its response at f0: within the change a 1 % shift of f0 makes there.
   const [limitRe, limitIm] = divide([1, 1], [1, 1 / 1.01]);
   const firstOrderLimit = Math.hypot(limitRe - 1, limitIm);
-  for (const topo of (topologies as readonly DefinedTopology[]).filter((t) => t.order === 1)) {
+  for (const topo of topologies.filter((t) => t.order === 1)) {
     it(`${topo.id}: the demand keeps the response at f0 within a 1 % f0 shift and a GBW 2 % lower does not`, () => {
       const target = sampleTarget(topo);
       const d = topo.gbwDemandHz(target);
@@ -58,7 +43,7 @@ describe("Topology.gbwDemandHz", () => {
     });
   }
 
-  for (const topo of (topologies as readonly DefinedTopology[]).filter((t) => t.order === 2)) {
+  for (const topo of topologies.filter((t) => t.order === 2)) {
     it(`${topo.id}: the demand keeps the pole within 1 % and a GBW 2 % lower does not`, () => {
       const target = sampleTarget(topo);
       const d = topo.gbwDemandHz(target);

@@ -1,0 +1,441 @@
+/**
+ * The topology framework: a topology file states its parts, its design
+ * equations, its ideal figures and its closed-form response
+ * ({@link TopologySpec}); {@link defineTopology} turns that into a
+ * {@link Topology} with the public checks, the realisable-range check,
+ * impedance-level scaling, element placement, response evaluation (closed
+ * form, or nodal analysis where the closed form takes only the ideal op-amp)
+ * and the GBW demand (`as-built.ts`).
+ *
+ * Arguments are checked here, once, at the topology's public methods; the
+ * topology files' equations and the kernels beneath are unchecked.
+ *
+ * @module
+ */
+import type { Circuit, Element, OpAmpModel } from "../circuit/types.ts";
+import { assembleMna, checkStructure, solveMna } from "../circuit/mna.ts";
+import { checkCircuit, checkOpAmpModel } from "../circuit/validate.ts";
+import { InvalidArgumentError, UnrealisableError } from "../errors.ts";
+import { TWO_PI } from "../units/constants.ts";
+import { requirePositive } from "../validate.ts";
+import { gbwDemand } from "./as-built.ts";
+import { openLoopGain, type ClosedForm } from "./kernels.ts";
+import type { ComponentValues, StageChoices, StageFigures, StageKind, StagePlacement, StageTarget, Topology } from "./types.ts";
+
+/**
+ * Impedance level used when neither a capacitor nor a resistor is chosen: the level resistor is 10 kOhm.
+ *
+ * @internal
+ */
+export const DEFAULT_LEVEL_OHMS = 10_000;
+
+/**
+ * Relative slack used when comparing a target with an exact limit (rounding of the caller's arithmetic).
+ *
+ * @internal
+ */
+export const LIMIT_SLACK = 1e-9;
+
+/**
+ * The value of part `name` (ohms, farads) in a set of component values the
+ * framework has already checked.
+ *
+ * @param v - component values
+ * @param name - designator, e.g. `"R2"`
+ * @returns the value
+ * @throws never
+ * @example
+ * ```ts
+ * valueOf({ R2: 4700 }, "R2"); //=> 4700
+ * ```
+ */
+export function valueOf(v: ComponentValues, name: string): number {
+  return v[name] as number;
+}
+
+/**
+ * The conductance `1 / R` (siemens) of resistor `name`.
+ *
+ * @param v - component values
+ * @param name - designator of a resistor
+ * @returns the conductance
+ * @throws never
+ * @example
+ * ```ts
+ * conductanceOf({ R1: 1000 }, "R1"); //=> 0.001
+ * ```
+ */
+export function conductanceOf(v: ComponentValues, name: string): number {
+  return 1 / (v[name] as number);
+}
+
+/** A part of a stage in local terms: nodes `in`, `out`, `0` are external; any other node is internal. */
+export type PartSpec =
+  | { readonly kind: "R" | "C"; readonly name: string; readonly a: string; readonly b: string }
+  | { readonly kind: "OA"; readonly name: string; readonly inP: string; readonly inN: string; readonly out: string };
+
+/** Everything a topology file specifies; {@link defineTopology} adds the checks and shared behaviour. */
+export interface TopologySpec {
+  /** See {@link Topology.id}. */
+  readonly id: string;
+  /** See {@link Topology.name}. */
+  readonly name: string;
+  /** See {@link Topology.order}. */
+  readonly order: 1 | 2;
+  /** See {@link Topology.kinds}. */
+  readonly kinds: readonly StageKind[];
+  /** See {@link Topology.inverting}. */
+  readonly inverting: boolean;
+  /** See {@link Topology.reference}. */
+  readonly reference: string;
+  /** The capacitor whose value the `capacitor` choice sets. */
+  readonly levelCapacitor: string;
+  /** The resistor whose value the `resistor` choice sets (and which is 10 kOhm by default). */
+  readonly levelResistor: string;
+  /** The stage's parts, in BOM order (their names are the component names). */
+  readonly parts: readonly PartSpec[];
+  /** Topology-specific reason the (well-formed) target cannot be built, or null. */
+  readonly limits: (t: StageTarget, c: StageChoices) => string | null;
+  /** Values for a well-formed, realisable target at any impedance level (scaled afterwards). */
+  readonly solve: (t: StageTarget, c: StageChoices) => Record<string, number>;
+  /** Ideal figures from values. */
+  readonly figures: (v: ComponentValues) => StageFigures;
+  /** Closed-form response. */
+  readonly closedForm: ClosedForm;
+  /** Whether `closedForm` handles a finite op-amp gain (else only `a = null`; MNA is used otherwise). */
+  readonly closedFormFinite: boolean;
+  /** Gain fixed by the other figures, if any. */
+  readonly fixedGain?: (t: Omit<StageTarget, "gain">) => number;
+}
+
+function bad(fn: string, path: string, received: unknown, message: string): never {
+  throw new InvalidArgumentError({ fn, path, received, message });
+}
+
+/**
+ * Check the shape of a target and choices against a topology (finite,
+ * positive, right order and kind, zero frequency present for notch kinds).
+ *
+ * @param fn - public function name
+ * @param spec - the topology
+ * @param t - target
+ * @param c - choices
+ * @returns nothing
+ * @throws {@link InvalidArgumentError} with the path of the first problem
+ * @example
+ * ```ts
+ * checkShape("sallen-key-lowpass-unity.design", spec, { order: 2, kind: "lowpass", f0Hz: -1, q: 1, gain: 1 }, {});
+ * //=> throws InvalidArgumentError at "target.f0Hz"
+ * ```
+ */
+export function checkShape(fn: string, spec: TopologySpec, t: StageTarget, c: StageChoices): void {
+  checkTarget(fn, spec, t, true);
+  if (c === null || typeof c !== "object") bad(fn, "choices", c, "expected a choices object (it may be empty)");
+  for (const k of ["capacitor", "resistor", "capacitorRatio", "resistorRatio"] as const) {
+    if (c[k] !== undefined) requirePositive(fn, `choices.${k}`, c[k]);
+  }
+}
+
+/** The target half of {@link checkShape}; `withGain` false for a target whose gain the topology fixes. */
+function checkTarget(fn: string, spec: TopologySpec, t: Omit<StageTarget, "gain"> & { readonly gain?: number }, withGain: boolean): void {
+  if (t === null || typeof t !== "object") bad(fn, "target", t, "expected a stage target { order, kind, f0Hz, q, gain }");
+  if (t.order !== spec.order) {
+    bad(fn, "target.order", t.order, `${spec.name} builds order-${spec.order} stages; choose a topology of order ${t.order}`);
+  }
+  if (!spec.kinds.includes(t.kind)) {
+    bad(fn, "target.kind", t.kind, `${spec.name} realises ${spec.kinds.map((k) => `"${k}"`).join(", ")}; choose a topology for "${t.kind}"`);
+  }
+  requirePositive(fn, "target.f0Hz", t.f0Hz);
+  if (spec.order === 2) requirePositive(fn, "target.q", t.q);
+  if (withGain && (typeof t.gain !== "number" || !Number.isFinite(t.gain) || t.gain === 0)) {
+    bad(fn, "target.gain", t.gain, "expected a finite, non-zero gain (V/V, sign included)");
+  }
+  if (t.kind === "lowpass-notch" || t.kind === "highpass-notch") requirePositive(fn, "target.fzHz", t.fzHz);
+  if (t.kind === "notch" && t.fzHz !== undefined) requirePositive(fn, "target.fzHz", t.fzHz);
+}
+
+/** Check a placement: node names and prefix strings, `rename` a function, a valid op-amp model. */
+function checkPlacement(fn: string, p: StagePlacement): void {
+  if (p === null || typeof p !== "object") bad(fn, "placement", p, "expected { input, output, nodePrefix, opamp }");
+  for (const k of ["input", "output", "nodePrefix"] as const) {
+    if (typeof p[k] !== "string") bad(fn, `placement.${k}`, p[k], "expected a string (a node name or prefix)");
+  }
+  if (p.rename !== undefined && typeof p.rename !== "function") {
+    bad(fn, "placement.rename", p.rename, "expected a function from a local designator to the circuit's designator, or nothing");
+  }
+  checkOpAmpModel(fn, "placement.opamp", p.opamp);
+}
+
+/** Reason the target's kind-specific relations fail (notch side, gain sign), or null. */
+function commonLimits(spec: TopologySpec, t: StageTarget): string | null {
+  if (spec.inverting && t.gain > 0) {
+    return `${spec.name} is inverting, so its gain is negative; give the stage a negative gain (invert elsewhere) or choose a non-inverting topology`;
+  }
+  if (!spec.inverting && t.gain < 0) {
+    return `${spec.name} is non-inverting, so its gain is positive; give the stage a positive gain or choose an inverting topology`;
+  }
+  const fz = t.fzHz;
+  if (t.kind === "lowpass-notch" && fz !== undefined && !(fz > t.f0Hz)) {
+    return `a lowpass-notch section has its zero above its pole (fzHz > f0Hz); got fzHz = ${fz} and f0Hz = ${t.f0Hz}: use kind "highpass-notch" or "notch"`;
+  }
+  if (t.kind === "highpass-notch" && fz !== undefined && !(fz < t.f0Hz)) {
+    return `a highpass-notch section has its zero below its pole (fzHz < f0Hz); got fzHz = ${fz} and f0Hz = ${t.f0Hz}: use kind "lowpass-notch" or "notch"`;
+  }
+  return null;
+}
+
+/** Reason the target's gain differs from a gain the topology fixes, or null. */
+function fixedGainLimit(spec: TopologySpec, t: StageTarget): string | null {
+  if (spec.fixedGain === undefined) return null;
+  const g = spec.fixedGain(t);
+  if (Math.abs(t.gain - g) > LIMIT_SLACK * Math.abs(g)) {
+    return `${spec.name} has its gain fixed by its other figures at ${g} for this target; set the stage gain to ${g} or choose a topology with a free gain`;
+  }
+  return null;
+}
+
+function scaleToLevel(spec: TopologySpec, v: Record<string, number>, c: StageChoices): ComponentValues {
+  let k: number;
+  if (c.capacitor !== undefined) k = (v[spec.levelCapacitor] as number) / c.capacitor;
+  else if (c.resistor !== undefined) k = c.resistor / (v[spec.levelResistor] as number);
+  else k = DEFAULT_LEVEL_OHMS / (v[spec.levelResistor] as number);
+  const out: Record<string, number> = {};
+  for (const p of spec.parts) {
+    if (p.kind === "OA") continue;
+    const x = v[p.name] as number;
+    out[p.name] = p.kind === "R" ? x * k : x / k;
+  }
+  // Exact values for the chosen part (no rounding through k).
+  if (c.capacitor !== undefined) out[spec.levelCapacitor] = c.capacitor;
+  else if (c.resistor !== undefined) out[spec.levelResistor] = c.resistor;
+  return Object.freeze(out);
+}
+
+/**
+ * Check component values: every named part present, finite and positive.
+ *
+ * @param fn - public function name
+ * @param names - component names expected
+ * @param v - values
+ * @returns nothing
+ * @throws {@link InvalidArgumentError} at `values.<name>`
+ * @example
+ * ```ts
+ * checkValues("x.figures", ["R1"], { R1: -1 }); //=> throws at "values.R1"
+ * ```
+ */
+export function checkValues(fn: string, names: readonly string[], v: ComponentValues): void {
+  if (v === null || typeof v !== "object") bad(fn, "values", v, "expected component values keyed by designator");
+  for (const n of names) requirePositive(fn, `values.${n}`, v[n]);
+}
+
+function checkFreqs(fn: string, f: Float64Array): void {
+  if (!(f instanceof Float64Array)) bad(fn, "freqHz", f, "expected a Float64Array of frequencies in Hz");
+  for (let i = 0; i < f.length; i++) {
+    const x = f[i] as number;
+    if (!Number.isFinite(x) || x < 0) bad(fn, `freqHz[${i}]`, x, "expected a finite frequency of 0 Hz or more");
+  }
+}
+
+/**
+ * Place a stage's parts in a circuit: external nodes mapped, internal nodes
+ * prefixed, designators renamed, op-amps given the placement's model.
+ *
+ * @param parts - local parts
+ * @param v - values
+ * @param p - placement
+ * @returns the elements
+ * @throws never (inputs checked by the caller)
+ * @example
+ * ```ts
+ * placeParts([{ kind: "R", name: "R1", a: "in", b: "x" }], { R1: 1e3 }, { input: "a", output: "b", nodePrefix: "s1_", opamp: { kind: "ideal" } });
+ * //=> [{ kind: "R", name: "R1", a: "a", b: "s1_x", value: 1000 }]
+ * ```
+ */
+export function placeParts(parts: readonly PartSpec[], v: ComponentValues, p: StagePlacement): Element[] {
+  const node = (n: string): string => (n === "in" ? p.input : n === "out" ? p.output : n === "0" ? "0" : `${p.nodePrefix}${n}`);
+  const name = (n: string): string => (p.rename === undefined ? n : p.rename(n));
+  return parts.map((q): Element => {
+    if (q.kind === "OA") {
+      return { kind: "OA", name: name(q.name), inP: node(q.inP), inN: node(q.inN), out: node(q.out), model: p.opamp };
+    }
+    return { kind: q.kind, name: name(q.name), a: node(q.a), b: node(q.b), value: v[q.name] as number };
+  });
+}
+
+/**
+ * The parts with one local node renamed to the stage output `out` (for the
+ * variants of a multi-amplifier stage that take their output from an
+ * internal node and drop the output amplifier).
+ *
+ * @param parts - the parts in local terms
+ * @param node - the local node that becomes `out`
+ * @returns new part specs; the input is not changed
+ * @throws never
+ * @example
+ * ```ts
+ * withOutputAt([{ kind: "R", name: "R1", a: "in", b: "lp" }], "lp");
+ * //=> [{ kind: "R", name: "R1", a: "in", b: "out" }]
+ * ```
+ */
+export function withOutputAt(parts: readonly PartSpec[], node: string): PartSpec[] {
+  const m = (n: string): string => (n === node ? "out" : n);
+  return parts.map((p) => (p.kind === "OA" ? { ...p, inP: m(p.inP), inN: m(p.inN), out: m(p.out) } : { ...p, a: m(p.a), b: m(p.b) }));
+}
+
+/**
+ * The stage alone, driven by `Vin` at node `in`, output at node `out` (for nodal analysis).
+ *
+ * @param spec - topology
+ * @param v - component values
+ * @param opamp - op-amp model for every op-amp
+ * @returns the circuit
+ * @throws never
+ * @example
+ * ```ts
+ * stageCircuit(spec, values, { kind: "ideal" }).elements[0]; //=> { kind: "V", name: "Vin", a: "in", b: "0", ac: 1 }
+ * ```
+ */
+export function stageCircuit(spec: TopologySpec, v: ComponentValues, opamp: OpAmpModel): Circuit {
+  const elements: Element[] = [
+    { kind: "V", name: "Vin", a: "in", b: "0", ac: 1 },
+    ...placeParts(spec.parts, v, { input: "in", output: "out", nodePrefix: "x_", opamp }),
+  ];
+  return { title: spec.name, elements };
+}
+
+/**
+ * Build a {@link Topology} from a specification: adds argument checks, the
+ * realisable-range check, impedance-level scaling, element placement,
+ * response evaluation and the GBW demand.
+ *
+ * @param spec - the topology's own equations and parts
+ * @returns the topology
+ * @throws never
+ * @example
+ * ```ts
+ * const t = defineTopology(spec); t.id; //=> spec.id
+ * ```
+ */
+export function defineTopology(spec: TopologySpec): Topology {
+  const componentNames = Object.freeze(spec.parts.filter((p) => p.kind !== "OA").map((p) => p.name));
+  const opampCount = spec.parts.filter((p) => p.kind === "OA").length;
+  const reason = (fn: string, t: StageTarget, c: StageChoices): string | null => {
+    checkShape(fn, spec, t, c);
+    return commonLimits(spec, t) ?? spec.limits(t, c) ?? fixedGainLimit(spec, t);
+  };
+  const check = (t: StageTarget, c: StageChoices): string | null => {
+    try {
+      return reason(`${spec.id}.check`, t, c ?? {});
+    } catch (e) {
+      if (e instanceof InvalidArgumentError) return e.message;
+      throw e;
+    }
+  };
+  const designFn = (t: StageTarget, c: StageChoices = {}): ComponentValues => {
+    const fn = `${spec.id}.design`;
+    const why = reason(fn, t, c);
+    if (why !== null) throw new UnrealisableError({ fn, path: "target", received: t, message: why });
+    const v = scaleToLevel(spec, spec.solve(t, c), c);
+    for (const n of componentNames) {
+      const x = v[n];
+      if (x === undefined || !Number.isFinite(x) || x <= 0) {
+        throw new UnrealisableError({
+          fn,
+          path: `values.${n}`,
+          received: x,
+          message: "the design equations gave no usable value for this part (the target lies at the edge of the range); move Q, gain or the ratios slightly",
+        });
+      }
+    }
+    return v;
+  };
+  const figures = (v: ComponentValues): StageFigures => {
+    checkValues(`${spec.id}.figures`, componentNames, v);
+    return spec.figures(v);
+  };
+  const response = (v: ComponentValues, freqHz: Float64Array, opamp: OpAmpModel) => {
+    const fn = `${spec.id}.response`;
+    checkValues(fn, componentNames, v);
+    checkFreqs(fn, freqHz);
+    checkOpAmpModel(fn, "opamp", opamp);
+    const m = freqHz.length;
+    if (opamp?.kind === "ideal" || (opamp?.kind === "single-pole" && spec.closedFormFinite)) {
+      const re = new Float64Array(m);
+      const im = new Float64Array(m);
+      for (let i = 0; i < m; i++) {
+        const s = { re: 0, im: TWO_PI * (freqHz[i] as number) };
+        const h = spec.closedForm(v, s, opamp.kind === "ideal" ? null : openLoopGain(opamp, s));
+        re[i] = h.re;
+        im[i] = h.im;
+      }
+      return { re, im };
+    }
+    const circuit = checkCircuit(fn, stageCircuit(spec, v, opamp));
+    let dc = false;
+    for (let i = 0; i < m; i++) if (freqHz[i] === 0) dc = true;
+    checkStructure(fn, circuit, dc);
+    const sys = assembleMna(circuit);
+    const [r] = solveMna(fn, sys, {
+      sourceRow: sys.sourceRow.get("Vin") as number,
+      outputs: [sys.nodeIndex.get("out") as number],
+      freqHz,
+    });
+    return r as { re: Float64Array; im: Float64Array };
+  };
+  const elements = (v: ComponentValues, p: StagePlacement): readonly Element[] => {
+    const fn = `${spec.id}.elements`;
+    checkValues(fn, componentNames, v);
+    checkPlacement(fn, p);
+    const out = placeParts(spec.parts, v, p);
+    checkCircuit(fn, { title: spec.name, elements: out });
+    return out;
+  };
+  const gbwDemandHz = (t: StageTarget): number => {
+    const why = reason(`${spec.id}.gbwDemandHz`, t, {});
+    if (why !== null) throw new UnrealisableError({ fn: `${spec.id}.gbwDemandHz`, path: "target", received: t, message: why });
+    return gbwDemand({ ...spec, circuit: (v, opamp) => stageCircuit(spec, v, opamp) }, designFn, t);
+  };
+  const ownGain = spec.fixedGain;
+  const fixedGain =
+    ownGain === undefined
+      ? undefined
+      : (t: Omit<StageTarget, "gain">): number => {
+          checkTarget(`${spec.id}.fixedGain`, spec, t, false);
+          return ownGain(t);
+        };
+  const topo: Topology = {
+    id: spec.id,
+    name: spec.name,
+    order: spec.order,
+    kinds: Object.freeze([...spec.kinds]),
+    inverting: spec.inverting,
+    opampCount,
+    componentNames,
+    reference: spec.reference,
+    check,
+    design: designFn,
+    figures,
+    response,
+    elements,
+    gbwDemandHz,
+    ...(fixedGain === undefined ? {} : { fixedGain }),
+  };
+  return Object.freeze(topo);
+}
+
+/**
+ * `x >= limit` with a relative slack of {@link LIMIT_SLACK}.
+ *
+ * @param x - value
+ * @param limit - lower limit
+ * @returns whether x reaches the limit
+ * @throws never
+ * @example
+ * ```ts
+ * atLeast(7.8399999999, 7.84); //=> true
+ * ```
+ */
+export function atLeast(x: number, limit: number): boolean {
+  return x >= limit * (1 - LIMIT_SLACK);
+}
