@@ -24,7 +24,7 @@ import { AUTO_MAX_ORDER, choosePrototype, designPrototype, stricterLevels, type 
 import { intervalWidth, prototypeInterval, upHelpsPassband } from "./placement.ts";
 import type { StagePlan } from "./stages.ts";
 import type { TunedStage, ValueSet } from "./components.ts";
-import { checkMask, gridMarginDb, maskGrid, multiplyInPlace, type Samples } from "./verify.ts";
+import { checkMask, gridMarginDb, maskGrid, stageMagnitudeSquared } from "./verify.ts";
 import { boardStages, buildAttempt, meetsSpec, type Attempt, type PlacedPrototype } from "./attempt.ts";
 import { significant } from "./text.ts";
 import type { DesignAction } from "./types.ts";
@@ -71,22 +71,22 @@ export function orderRange(spec: DesignSpec, minimumOrder: number | null): Order
 export function retuneToMask(spec: DesignSpec, a: Attempt): Attempt {
   const grid = maskGrid(spec);
   const n = grid.freqHz.length;
-  const cache = new Map<ValueSet, Samples>();
-  const responseOf = (i: number, v: ValueSet): Samples => {
+  const cache = new Map<ValueSet, Float64Array>();
+  const squaredOf = (i: number, v: ValueSet): Float64Array => {
     let r = cache.get(v);
     if (r === undefined) {
-      const h = (a.plans[i] as StagePlan).topology.response(v.values, grid.freqHz, spec.opamp);
-      r = { re: h.re, im: h.im };
+      r = stageMagnitudeSquared(spec, { topology: (a.plans[i] as StagePlan).topology, values: v.values }, spec.opamp, grid);
       cache.set(v, r);
     }
     return r;
   };
   const marginOf = (sets: readonly ValueSet[]): number => {
-    const re = new Float64Array(n).fill(1);
-    const im = new Float64Array(n);
-    sets.forEach((v, i) => multiplyInPlace(re, im, responseOf(i, v)));
-    const mag = new Float64Array(n);
-    for (let k = 0; k < n; k++) mag[k] = Math.hypot(re[k] as number, im[k] as number);
+    const mag = new Float64Array(n).fill(1);
+    sets.forEach((v, i) => {
+      const m2 = squaredOf(i, v);
+      for (let k = 0; k < n; k++) mag[k] = (mag[k] as number) * (m2[k] as number);
+    });
+    for (let k = 0; k < n; k++) mag[k] = Math.sqrt(mag[k] as number);
     return gridMarginDb(spec, grid, mag);
   };
   const chosen = [...a.chosen];

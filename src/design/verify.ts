@@ -2,15 +2,14 @@
  * As-built verification: the response of the cascade of stages, with the
  * values on the board and the chosen op-amp model, checked against the mask.
  *
- * Method: each stage's response comes from its topology's `response` (closed
- * form or nodal analysis); the stages are buffered by op-amp outputs (ideal
- * voltage sources in both op-amp models), so the cascade's response is the
- * product of the stage responses. The mask is sampled on dense log grids
- * (about 400-600 points per band); the worst points (global and up to four
- * local extremes per band) are then refined by golden-section search on log
- * frequency to a relative width of 1e-9 (J. Kiefer, "Sequential minimax search
- * for a maximum", Proc. AMS 4, 1953), so equiripple peaks between grid points
- * are not missed.
+ * Method: each stage's as-built transfer function comes as polynomials from
+ * its own elements and the op-amp model (src/evaluate/stage-polynomials.ts;
+ * the topology's closed form where they cannot be formed); the stages are
+ * buffered by op-amp outputs, so the cascade's response is the product of the
+ * stage responses. The mask is sampled on log grids (400 points over the
+ * passbands, 600 over the stopbands) and the worst points refined by
+ * golden-section search (src/evaluate/mask.ts), so equiripple peaks between
+ * grid points are not missed.
  *
  * Levels are measured from the passband's highest as-built point: passband
  * loss is the drop below it, stopband attenuation is the distance below it,
@@ -20,11 +19,25 @@
  */
 import type { OpAmpModel } from "../circuit/types.ts";
 import type { ComponentValues, Topology } from "../topologies/types.ts";
-import { goldenMax } from "../math/optimize.ts";
+import {
+  maskFigures,
+  planMask,
+  rationalSource,
+  type MaskBands,
+  type MaskFigures,
+  type MaskLimits,
+  type MaskPlan,
+  type ResponseSource,
+} from "../evaluate/mask.ts";
+import { stagePolynomials } from "../evaluate/stage-polynomials.ts";
+import { multiplyMagnitudeSquared } from "../evaluate/cascade.ts";
+import type { ScaledRational } from "../evaluate/types.ts";
 import { logGrid } from "../tf/index.ts";
 import { TWO_PI } from "../units/constants.ts";
 import { requireDesignSpec, type DesignSpec } from "./spec.ts";
 import type { ResponseCurve } from "./types.ts";
+
+export type { MaskBands, MaskFigures } from "../evaluate/mask.ts";
 
 /** A stage as placed on the board. */
 export interface BuiltStage {
@@ -76,16 +89,6 @@ export function multiplyInPlace(re: Float64Array, im: Float64Array, h: Samples):
   }
 }
 
-/** The bands of the mask as Hz intervals. */
-export interface MaskBands {
-  /** Passband intervals. */
-  readonly pass: readonly (readonly [number, number])[];
-  /** Stopband intervals. */
-  readonly stop: readonly (readonly [number, number])[];
-  /** A frequency where the passband gain's sign is read. */
-  readonly referenceHz: number;
-}
-
 /**
  * The frequency intervals the mask constrains. Passbands and stopbands that
  * extend to DC or infinity are checked over three decades beyond their edge
@@ -124,78 +127,52 @@ export function maskBands(spec: DesignSpec): MaskBands {
   }
 }
 
-/** Figures of a response against the mask. */
-export interface MaskFigures {
-  /** Passband highest level, V/V. */
-  readonly peak: number;
-  /** Largest passband loss below the peak, dB. */
-  readonly passbandLossDb: number;
-  /** Where, Hz. */
-  readonly passbandWorstHz: number;
-  /** Smallest stopband attenuation below the peak, dB. */
-  readonly stopbandAttenuationDb: number;
-  /** Where, Hz. */
-  readonly stopbandWorstHz: number;
-  /** As-built level, dB. */
-  readonly gainDb: number;
-  /** Gain error, dB. */
-  readonly gainErrorDb: number;
-  /** Margins, dB. */
-  readonly passbandMarginDb: number;
-  /** Stopband margin, dB. */
-  readonly stopbandMarginDb: number;
-  /** Gain margin, dB. */
-  readonly gainMarginDb: number;
-  /** Smallest margin, dB. */
-  readonly marginDb: number;
-  /** Sign of the passband gain. */
-  readonly polarity: "inverting" | "non-inverting";
-}
-
-type MagFn = (f: number) => number;
-
-function golden(fn: MagFn, a: number, b: number, maximise: boolean): { f: number; m: number } {
-  const g = (x: number): number => (maximise ? fn(Math.exp(x)) : -fn(Math.exp(x)));
-  const x = goldenMax(g, [Math.log(a), Math.log(b)], { iterations: 60, width: 1e-9 });
-  return { f: Math.exp(x), m: fn(Math.exp(x)) };
-}
-
-/** Extreme of |H| over a band: grid scan, then refinement of the best local extremes. */
-function bandExtreme(
-  fn: MagFn,
-  many: (f: Float64Array) => Float64Array,
-  band: readonly [number, number],
-  points: number,
-  maximise: boolean,
-): { f: number; m: number } {
-  const grid = logGrid(band[0], band[1], points);
-  const m = many(grid);
-  const better = (a: number, b: number): boolean => (maximise ? a > b : a < b);
-  let best = { f: grid[0] as number, m: m[0] as number };
-  const n = grid.length;
-  if (better(m[n - 1] as number, best.m)) best = { f: grid[n - 1] as number, m: m[n - 1] as number };
-  const locals: number[] = [];
-  for (let i = 0; i < n; i++) {
-    const here = m[i] as number;
-    const left = i > 0 ? (m[i - 1] as number) : maximise ? -Infinity : Infinity;
-    const right = i < n - 1 ? (m[i + 1] as number) : maximise ? -Infinity : Infinity;
-    if (!better(left, here) && !better(right, here)) locals.push(i);
-  }
-  locals.sort((a, b) => (maximise ? (m[b] as number) - (m[a] as number) : (m[a] as number) - (m[b] as number)));
-  for (const i of locals.slice(0, 4)) {
-    const a = grid[Math.max(0, i - 1)] as number;
-    const b = grid[Math.min(n - 1, i + 1)] as number;
-    const r = a < b ? golden(fn, a, b, maximise) : { f: grid[i] as number, m: m[i] as number };
-    if (better(r.m, best.m)) best = r;
-    if (better(m[i] as number, best.m)) best = { f: grid[i] as number, m: m[i] as number };
-  }
-  return best;
-}
-
 const db = (x: number): number => 20 * Math.log10(x);
 
+const plans = new WeakMap<DesignSpec, MaskPlan>();
+
+/** The mask's grids for a canonical spec (made once per spec). */
+function maskPlan(spec: DesignSpec): MaskPlan {
+  let plan = plans.get(spec);
+  if (plan === undefined) {
+    const limits: MaskLimits = {
+      maxLossDb: spec.maxLossDb,
+      minAttenuationDb: spec.minAttenuationDb,
+      gain: spec.gain,
+      gainToleranceDb: spec.gainToleranceDb,
+    };
+    plan = planMask(maskBands(spec), limits);
+    plans.set(spec, plan);
+  }
+  return plan;
+}
+
+/** The angular frequencies the mask's bands span, rad/s. */
+function spanRadS(bands: MaskBands): readonly [number, number] {
+  const all = [...bands.pass, ...bands.stop].flat();
+  return [TWO_PI * Math.min(...all), TWO_PI * Math.max(...all)];
+}
+
+/** The cascade through its topologies' closed forms (the path for a stage whose polynomials cannot be formed). */
+function closedFormSource(stages: readonly BuiltStage[], opamp: OpAmpModel): ResponseSource {
+  const at = (w: number): Samples => cascadeResponse(stages, Float64Array.of(w / TWO_PI), opamp);
+  return {
+    magnitudeSquared: (w, out) => {
+      const h = cascadeResponse(stages, w.map((x) => x / TWO_PI), opamp);
+      for (let i = 0; i < w.length; i++) out[i] = (h.re[i] as number) ** 2 + (h.im[i] as number) ** 2;
+    },
+    magnitudeSquaredAt: (w) => {
+      const h = at(w);
+      return (h.re[0] as number) ** 2 + (h.im[0] as number) ** 2;
+    },
+    realPartAt: (w) => at(w).re[0] as number,
+  };
+}
+
 /**
- * Check a cascade against the spec mask.
+ * Check a cascade against the spec mask: each stage's as-built polynomials
+ * with the op-amp model (src/evaluate/stage-polynomials.ts), the mask
+ * figures from them (src/evaluate/mask.ts).
  *
  * @param spec - canonical spec
  * @param stages - stages in cascade order
@@ -203,51 +180,15 @@ const db = (x: number): number => 20 * Math.log10(x);
  * @returns the figures and margins
  */
 export function checkMask(spec: DesignSpec, stages: readonly BuiltStage[], opamp: OpAmpModel): MaskFigures {
-  const many = (f: Float64Array): Float64Array => {
-    const h = cascadeResponse(stages, f, opamp);
-    const out = new Float64Array(f.length);
-    for (let i = 0; i < f.length; i++) out[i] = Math.hypot(h.re[i] as number, h.im[i] as number);
-    return out;
-  };
-  const one: MagFn = (f) => many(Float64Array.of(f))[0] as number;
-  const bands = maskBands(spec);
-  let peak = { f: NaN, m: -Infinity };
-  let low = { f: NaN, m: Infinity };
-  for (const b of bands.pass) {
-    const pts = Math.round(400 / bands.pass.length);
-    const hi = bandExtreme(one, many, b, pts, true);
-    const lo = bandExtreme(one, many, b, pts, false);
-    if (hi.m > peak.m) peak = hi;
-    if (lo.m < low.m) low = lo;
+  const plan = maskPlan(spec);
+  const span = spanRadS(plan.bands);
+  const polys: ScaledRational[] = [];
+  for (const s of stages) {
+    const p = stagePolynomials(s.topology, s.values, opamp, span);
+    if (p === null) return maskFigures(closedFormSource(stages, opamp), plan);
+    polys.push(p);
   }
-  let stopMax = { f: NaN, m: -Infinity };
-  for (const b of bands.stop) {
-    const s = bandExtreme(one, many, b, Math.round(600 / bands.stop.length), true);
-    if (s.m > stopMax.m) stopMax = s;
-  }
-  const ref = cascadeResponse(stages, Float64Array.of(bands.referenceHz), opamp);
-  const polarity = (ref.re[0] as number) < 0 ? "inverting" : "non-inverting";
-  const passbandLossDb = db(peak.m) - db(low.m);
-  const stopbandAttenuationDb = db(peak.m) - db(stopMax.m);
-  const gainDb = db(peak.m);
-  const gainErrorDb = gainDb - db(spec.gain);
-  const passbandMarginDb = spec.maxLossDb - passbandLossDb;
-  const stopbandMarginDb = stopbandAttenuationDb - spec.minAttenuationDb;
-  const gainMarginDb = spec.gainToleranceDb - Math.abs(gainErrorDb);
-  return {
-    peak: peak.m,
-    passbandLossDb,
-    passbandWorstHz: low.f,
-    stopbandAttenuationDb,
-    stopbandWorstHz: stopMax.f,
-    gainDb,
-    gainErrorDb,
-    passbandMarginDb,
-    stopbandMarginDb,
-    gainMarginDb,
-    marginDb: Math.min(passbandMarginDb, stopbandMarginDb, gainMarginDb),
-    polarity,
-  };
+  return maskFigures(rationalSource(polys), plan);
 }
 
 /** The mask's bands sampled on one grid (no refinement), for fast comparisons. */
@@ -279,6 +220,28 @@ export function maskGrid(spec: DesignSpec): MaskGrid {
     k += p.f.length;
   }
   return { freqHz, band };
+}
+
+/**
+ * |H|^2 of one stage on a {@link maskGrid} (its polynomials with the op-amp
+ * model, or its closed form where they cannot be formed).
+ *
+ * @param spec - canonical spec (for the span the polynomials must cover)
+ * @param stage - the stage
+ * @param opamp - op-amp model
+ * @param grid - the grid
+ * @returns |H|^2 per grid frequency
+ */
+export function stageMagnitudeSquared(spec: DesignSpec, stage: BuiltStage, opamp: OpAmpModel, grid: MaskGrid): Float64Array {
+  const out = new Float64Array(grid.freqHz.length);
+  const p = stagePolynomials(stage.topology, stage.values, opamp, spanRadS(maskPlan(spec).bands));
+  if (p === null) {
+    closedFormSource([stage], opamp).magnitudeSquared(grid.freqHz.map((f) => TWO_PI * f), out);
+    return out;
+  }
+  out.fill(1);
+  multiplyMagnitudeSquared(p.num, p.den, p.scale, grid.freqHz.map((f) => TWO_PI * f), out);
+  return out;
 }
 
 /**

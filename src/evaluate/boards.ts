@@ -19,7 +19,7 @@
  */
 import { mulberry32 } from "../math/random.ts";
 import { stagePolynomialsInto, type CompiledStage } from "./stage-polynomials.ts";
-import { maskFigures, type MaskPlan } from "./mask.ts";
+import { maskFigures, rationalSource, type MaskPlan } from "./mask.ts";
 import type { ScaledRational } from "./types.ts";
 
 /** Boards drawn from one random stream. */
@@ -120,6 +120,7 @@ export function runBoards(stages: readonly BoardStage[], plan: MaskPlan, options
   let worstBoard = 0;
   let worstMargin = Infinity;
   let worstValues = values.map((v) => v.slice());
+  const source = rationalSource(polys);
   for (let start = 0; start < boards; start += BATCH) {
     const next = mulberry32(batchSeed(seed, start / BATCH));
     const count = Math.min(BATCH, boards - start);
@@ -143,7 +144,7 @@ export function runBoards(stages: readonly BoardStage[], plan: MaskPlan, options
         out.gainDb[k] = NaN;
         continue;
       }
-      const m = maskFigures(polys, plan);
+      const m = maskFigures(source, plan);
       out.marginDb[k] = m.marginDb;
       out.passbandLossDb[k] = m.passbandLossDb;
       out.stopbandAttenuationDb[k] = m.stopbandAttenuationDb;

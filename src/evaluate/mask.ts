@@ -125,11 +125,11 @@ export function planMask(bands: MaskBands, limits: MaskLimits): MaskPlan {
 }
 
 /** Golden-section search of `sign * |H|^2` over `[wa, wb]` on log frequency; returns the better end point and its |H|^2. */
-function refine(stages: readonly ScaledRational[], wa: number, wb: number, sign: number, out: Float64Array): void {
-  const g = (x: number): number => sign * magnitudeSquaredAt(stages, Math.exp(x));
+function refine(source: ResponseSource, wa: number, wb: number, sign: number, out: Float64Array): void {
+  const g = (x: number): number => sign * source.magnitudeSquaredAt(Math.exp(x));
   const x = goldenMax(g, [Math.log(wa), Math.log(wb)], { iterations: 60, width: 1e-9 });
   out[0] = Math.exp(x);
-  out[1] = magnitudeSquaredAt(stages, out[0] as number);
+  out[1] = source.magnitudeSquaredAt(out[0] as number);
 }
 
 /** Indices of the grid's local extremes (for `sign` = 1 maxima, -1 minima), best first, at most `REFINED`. */
@@ -146,10 +146,10 @@ function localExtremes(m: Float64Array, n: number, sign: number): number[] {
 }
 
 /** The band's highest (`sign` = 1) or lowest (-1) |H|^2 and where (rad/s), into `best` as [w, m2]. */
-function bandExtreme(stages: readonly ScaledRational[], g: BandGrid, sign: number, scratch: Float64Array, best: Float64Array): void {
+function bandExtreme(source: ResponseSource, g: BandGrid, sign: number, scratch: Float64Array, best: Float64Array): void {
   const n = g.w.length;
   const m = scratch.subarray(0, n);
-  cascadeMagnitudeSquared(stages, g.w, m);
+  source.magnitudeSquared(g.w, m);
   const better = (a: number, b: number): boolean => sign * a > sign * b;
   best[0] = g.w[0] as number;
   best[1] = m[0] as number;
@@ -163,7 +163,7 @@ function bandExtreme(stages: readonly ScaledRational[], g: BandGrid, sign: numbe
     const a = g.w[Math.max(0, i - 1)] as number;
     const b = g.w[Math.min(n - 1, i + 1)] as number;
     if (a < b) {
-      refine(stages, a, b, sign, r);
+      refine(source, a, b, sign, r);
       if (better(r[1] as number, best[1] as number)) best.set(r);
     }
     if (better(mi, best[1] as number)) {
@@ -175,35 +175,65 @@ function bandExtreme(stages: readonly ScaledRational[], g: BandGrid, sign: numbe
 
 const db2 = (m2: number): number => 10 * Math.log10(m2);
 
+/** What the mask check reads of a response: |H|^2 on a grid and at a point, and Re H at a point (w in rad/s). */
+export interface ResponseSource {
+  /** |H(j w)|^2 at each of `w`, written into `out`. */
+  readonly magnitudeSquared: (w: Float64Array, out: Float64Array) => void;
+  /** |H(j w)|^2 at one frequency. */
+  readonly magnitudeSquaredAt: (w: number) => number;
+  /** Re H(j w) at one frequency. */
+  readonly realPartAt: (w: number) => number;
+}
+
 /**
- * A cascade's figures against a mask (internal hot path: no checks).
+ * A cascade of stage polynomials as a {@link ResponseSource}.
  *
  * @param stages - the stages as rational functions
+ * @returns the source
+ */
+export function rationalSource(stages: readonly ScaledRational[]): ResponseSource {
+  const one = new Float64Array(1);
+  const re = new Float64Array(1);
+  const im = new Float64Array(1);
+  return {
+    magnitudeSquared: (w, out) => cascadeMagnitudeSquared(stages, w, out),
+    magnitudeSquaredAt: (w) => magnitudeSquaredAt(stages, w),
+    realPartAt: (w) => {
+      one[0] = w;
+      re[0] = 1;
+      im[0] = 0;
+      for (const s of stages) multiplyResponse(s.num, s.den, s.scale, one, re, im);
+      return re[0] as number;
+    },
+  };
+}
+
+/**
+ * A response's figures against a mask (internal hot path: no checks).
+ *
+ * @param source - the response (see {@link rationalSource})
  * @param plan - the mask's grids
  * @returns the figures and margins
  */
-export function maskFigures(stages: readonly ScaledRational[], plan: MaskPlan): MaskFigures {
+export function maskFigures(source: ResponseSource, plan: MaskPlan): MaskFigures {
   const { limits, scratch } = plan;
   const e = new Float64Array(2);
   let peak = -Infinity;
   let lowW = NaN;
   let low = Infinity;
   for (const g of plan.pass) {
-    bandExtreme(stages, g, 1, scratch, e);
+    bandExtreme(source, g, 1, scratch, e);
     peak = Math.max(peak, e[1] as number);
-    bandExtreme(stages, g, -1, scratch, e);
+    bandExtreme(source, g, -1, scratch, e);
     if ((e[1] as number) < low) [lowW, low] = [e[0] as number, e[1] as number];
   }
   let stopW = NaN;
   let stop = -Infinity;
   for (const g of plan.stop) {
-    bandExtreme(stages, g, 1, scratch, e);
+    bandExtreme(source, g, 1, scratch, e);
     if ((e[1] as number) > stop) [stopW, stop] = [e[0] as number, e[1] as number];
   }
-  const re = Float64Array.of(1);
-  const im = Float64Array.of(0);
-  const wRef = Float64Array.of(TWO_PI * plan.bands.referenceHz);
-  for (const s of stages) multiplyResponse(s.num, s.den, s.scale, wRef, re, im);
+  const reference = source.realPartAt(TWO_PI * plan.bands.referenceHz);
   const passbandLossDb = db2(peak) - db2(low);
   const stopbandAttenuationDb = db2(peak) - db2(stop);
   const gainDb = db2(peak);
@@ -223,6 +253,6 @@ export function maskFigures(stages: readonly ScaledRational[], plan: MaskPlan): 
     stopbandMarginDb,
     gainMarginDb,
     marginDb: Math.min(passbandMarginDb, stopbandMarginDb, gainMarginDb),
-    polarity: (re[0] as number) < 0 ? "inverting" : "non-inverting",
+    polarity: reference < 0 ? "inverting" : "non-inverting",
   };
 }

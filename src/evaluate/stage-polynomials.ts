@@ -457,10 +457,16 @@ function trimmed(a: Float64Array): Float64Array {
  * @param topology - the stage's topology
  * @param values - its component values
  * @param opamp - op-amp model for every op-amp of the stage
+ * @param spanRadS - angular frequencies where it will be evaluated (default: two decades about f0)
  * @returns the rational function, or null when the stage's equations are singular
  */
-export function stagePolynomials(topology: Topology, values: ComponentValues, opamp: OpAmpModel): ScaledRational | null {
-  const cs = compileStage(topology, values, opamp);
+export function stagePolynomials(
+  topology: Topology,
+  values: ComponentValues,
+  opamp: OpAmpModel,
+  spanRadS?: readonly [number, number],
+): ScaledRational | null {
+  const cs = compileStage(topology, values, opamp, spanRadS);
   const v = Float64Array.from(cs.componentNames, (name) => values[name] as number);
   const num = new Float64Array(cs.points);
   const den = new Float64Array(cs.points);
