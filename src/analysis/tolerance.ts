@@ -5,21 +5,25 @@
  * Method: every resistor and capacitor is drawn independently, uniformly
  * within +-tolerance of its nominal value (the worst-case-bounded model of a
  * part sold as "+-t %"; a uniform draw is the conservative choice when the
- * maker's distribution is unknown, common practice, no source), with a seeded
- * generator (mulberry32, T. Ettinger, public domain, 2017) so runs repeat
- * exactly. Each board's as-built response is checked against the mask exactly
- * as the design's own verification does. The yield's standard error is
+ * maker's distribution is unknown, common practice, no source), or normally
+ * with the tolerance as three standard deviations, from seeded streams
+ * (src/evaluate/boards.ts) so runs repeat exactly and board k is the same
+ * board whatever the number of runs. Each board's stages become polynomials
+ * with the design's op-amp model and are checked against the mask exactly as
+ * the design's own verification does. The yield's standard error is
  * sqrt(p (1 - p) / runs).
  *
  * @module
  */
 import { InvalidArgumentError } from "../errors.ts";
-import { mulberry32 } from "../math/random.ts";
-import { requireInRange, requireInteger, requireOptions } from "../validate.ts";
+import { requireInRange, requireInteger, requireOneOf, requireOptions } from "../validate.ts";
 import type { DesignResult } from "../design/index.ts";
 import { builtStages } from "../design/response.ts";
-import { checkMask, type BuiltStage } from "../design/verify.ts";
+import { maskPlan, spanRadS } from "../design/verify.ts";
 import { requireDesignResult } from "../design/check.ts";
+import { runBoards, type BoardStage, type PartDistribution } from "../evaluate/boards.ts";
+import { compileStage } from "../evaluate/stage-polynomials.ts";
+import { TWO_PI } from "../units/constants.ts";
 
 /** Options of {@link monteCarlo}. */
 export interface MonteCarloOptions {
@@ -43,6 +47,12 @@ export interface MonteCarloOptions {
    * @defaultValue the spec's `parts.capacitorTolerance` (the usual tolerance of its capacitor series unless given)
    */
   readonly capacitorTolerance?: number;
+  /**
+   * How part values spread within their tolerance: `"uniform"`, or `"normal"`
+   * with the tolerance as three standard deviations (draws beyond it redrawn).
+   * @defaultValue "uniform"
+   */
+  readonly distribution?: PartDistribution;
 }
 
 /** Smallest, median and largest of a figure over the runs. */
@@ -85,8 +95,9 @@ export interface MonteCarloResult {
   readonly worstBoard: Readonly<Record<string, number>>;
 }
 
-function spread(xs: number[]): Spread {
-  const s = [...xs].sort((a, b) => a - b);
+/** Smallest, median and largest of the finite entries (a singular board has none). */
+function spread(xs: Float64Array): Spread {
+  const s = xs.filter((x) => Number.isFinite(x)).sort();
   const m = s.length >> 1;
   const median = s.length % 2 === 1 ? (s[m] as number) : ((s[m - 1] as number) + (s[m] as number)) / 2;
   return { min: s[0] as number, median, max: s[s.length - 1] as number };
@@ -123,46 +134,38 @@ export function monteCarlo(result: DesignResult, options?: MonteCarloOptions): M
   if (result === null || typeof result !== "object" || !Array.isArray(result.stages)) {
     throw new InvalidArgumentError({ fn, path: "result", received: result, message: "expected a design result from designFilter" });
   }
-  const nominal = builtStages(result);
-  const rand = mulberry32(seed);
-  const margins: number[] = [];
-  const losses: number[] = [];
-  const attens: number[] = [];
-  const gains: number[] = [];
-  let pass = 0;
-  let worst = { margin: Infinity, board: {} as Record<string, number> };
-  for (let r = 0; r < runs; r++) {
-    const board: Record<string, number> = {};
-    const stages: BuiltStage[] = nominal.map((s, k) => {
-      const st = result.stages[k] as DesignResult["stages"][number];
-      const values: Record<string, number> = {};
-      for (const [global, local] of Object.entries(st.localNames)) {
-        const nominalValue = st.components[global] as number;
-        const tol = global.startsWith("C") ? ct : rt;
-        const v = nominalValue * (1 + tol * (2 * rand() - 1));
-        values[local] = v;
-        board[global] = v;
-      }
-      return { topology: s.topology, values };
-    });
-    const m = checkMask(result.spec, stages, result.spec.opamp);
-    margins.push(m.marginDb);
-    losses.push(m.passbandLossDb);
-    attens.push(m.stopbandAttenuationDb);
-    gains.push(m.gainDb);
-    if (m.marginDb >= 0) pass++;
-    if (m.marginDb < worst.margin) worst = { margin: m.marginDb, board };
-  }
+  const distribution =
+    o["distribution"] === undefined ? "uniform" : requireOneOf(fn, "options.distribution", o["distribution"], ["uniform", "normal"] as const);
+  const plan = maskPlan(result.spec);
+  const span = spanRadS(plan.bands);
+  const opamp = result.spec.opamp;
+  const stages: BoardStage[] = builtStages(result).map((s) => {
+    const compiled = compileStage(s.topology, s.values, opamp, span);
+    return {
+      compiled,
+      nominal: Float64Array.from(compiled.componentNames, (name) => s.values[name] as number),
+      tolerance: Float64Array.from(compiled.componentNames, (name) => (name.startsWith("C") ? ct : rt)),
+      radius: TWO_PI * s.topology.figures(s.values).f0Hz,
+    };
+  });
+  const run = runBoards(stages, plan, { boards: runs, seed, distribution });
+  const worstBoard: Record<string, number> = {};
+  result.stages.forEach((st, k) => {
+    const names = (stages[k] as BoardStage).compiled.componentNames;
+    const values = run.worstValues[k] as Float64Array;
+    for (const [global, local] of Object.entries(st.localNames)) worstBoard[global] = values[names.indexOf(local as string)] as number;
+  });
+  const pass = run.passed;
   const p = pass / runs;
   return {
     runs,
     yield: p,
     yieldStandardError: Math.sqrt((p * (1 - p)) / runs),
     tolerances: { resistor: rt, capacitor: ct },
-    marginDb: spread(margins),
-    passbandLossDb: spread(losses),
-    stopbandAttenuationDb: spread(attens),
-    gainDb: spread(gains),
-    worstBoard: worst.board,
+    marginDb: spread(run.marginDb),
+    passbandLossDb: spread(run.passbandLossDb),
+    stopbandAttenuationDb: spread(run.stopbandAttenuationDb),
+    gainDb: spread(run.gainDb),
+    worstBoard,
   };
 }

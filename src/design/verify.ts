@@ -131,8 +131,14 @@ const db = (x: number): number => 20 * Math.log10(x);
 
 const plans = new WeakMap<DesignSpec, MaskPlan>();
 
-/** The mask's grids for a canonical spec (made once per spec). */
-function maskPlan(spec: DesignSpec): MaskPlan {
+/**
+ * The mask's grids for a canonical spec (made once per spec; internal, for
+ * the design and analysis layers).
+ *
+ * @param spec - canonical spec
+ * @returns the plan
+ */
+export function maskPlan(spec: DesignSpec): MaskPlan {
   let plan = plans.get(spec);
   if (plan === undefined) {
     const limits: MaskLimits = {
@@ -147,8 +153,13 @@ function maskPlan(spec: DesignSpec): MaskPlan {
   return plan;
 }
 
-/** The angular frequencies the mask's bands span, rad/s. */
-function spanRadS(bands: MaskBands): readonly [number, number] {
+/**
+ * The angular frequencies a mask's bands span, rad/s.
+ *
+ * @param bands - the bands
+ * @returns lowest and highest band edge, rad/s
+ */
+export function spanRadS(bands: MaskBands): readonly [number, number] {
   const all = [...bands.pass, ...bands.stop].flat();
   return [TWO_PI * Math.min(...all), TWO_PI * Math.max(...all)];
 }
