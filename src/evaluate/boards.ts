@@ -11,7 +11,11 @@
  * practice, no source), or normally with the tolerance as three standard
  * deviations and draws beyond it drawn again (parts outside their
  * tolerance are not sold; Box-Muller transform, G. E. P. Box & M. E.
- * Muller, Ann. Math. Statist. 29(2):610-611, 1958). The draws of a batch are
+ * Muller, Ann. Math. Statist. 29(2):610-611, 1958). A board's band extremes
+ * are first located by one parabolic step between grid points, and by the
+ * verification's full golden-section search when its margin is within
+ * {@link VERDICT_BAND_DB} of zero, so every pass/fail verdict is the one the
+ * verification would give. The draws of a batch are
  * stored structure-of-arrays (one row of parts per board) in one typed
  * array; nothing is allocated per board.
  *
@@ -21,6 +25,13 @@ import { mulberry32 } from "../math/random.ts";
 import { stagePolynomialsInto, type CompiledStage } from "./stage-polynomials.ts";
 import { maskFigures, rationalSource, type MaskPlan } from "./mask.ts";
 import type { ScaledRational } from "./types.ts";
+
+/**
+ * Margin (dB) within which a board's verdict is settled by the full
+ * golden-section search of its extremes rather than the parabolic step (whose
+ * error on a peak a few grid steps wide is far below this).
+ */
+export const VERDICT_BAND_DB = 0.02;
 
 /** Boards drawn from one random stream. */
 export const BATCH = 256;
@@ -144,7 +155,9 @@ export function runBoards(stages: readonly BoardStage[], plan: MaskPlan, options
         out.gainDb[k] = NaN;
         continue;
       }
-      const m = maskFigures(source, plan);
+      // One parabolic step per extreme first; the full search only where the verdict could turn on it.
+      let m = maskFigures(source, plan, "parabola");
+      if (Math.abs(m.marginDb) < VERDICT_BAND_DB) m = maskFigures(source, plan, "golden");
       out.marginDb[k] = m.marginDb;
       out.passbandLossDb[k] = m.passbandLossDb;
       out.stopbandAttenuationDb[k] = m.stopbandAttenuationDb;

@@ -145,11 +145,42 @@ function localExtremes(m: Float64Array, n: number, sign: number): number[] {
   return found.slice(0, REFINED);
 }
 
-/** The band's highest (`sign` = 1) or lowest (-1) |H|^2 and where (rad/s), into `best` as [w, m2]. */
-function bandExtreme(source: ResponseSource, g: BandGrid, sign: number, scratch: Float64Array, best: Float64Array): void {
+/** How far the band extremes between grid points are searched. */
+export type Refinement = "golden" | "parabola";
+
+/**
+ * The vertex of the parabola through three neighbouring grid points, in log
+ * frequency and log |H|^2 (one step of successive parabolic interpolation,
+ * R. P. Brent, "Algorithms for Minimization without Derivatives", Prentice-Hall
+ * 1973, ch. 5): exact for a peak that is a parabola there, and within the
+ * grid's cubic term otherwise. Written into `out` as [w, |H|^2].
+ */
+function parabola(source: ResponseSource, g: BandGrid, m: Float64Array, i: number, out: Float64Array): void {
+  const x0 = Math.log(g.w[i - 1] as number);
+  const x1 = Math.log(g.w[i] as number);
+  const x2 = Math.log(g.w[i + 1] as number);
+  const y0 = Math.log(m[i - 1] as number);
+  const y1 = Math.log(m[i] as number);
+  const y2 = Math.log(m[i + 1] as number);
+  const d = (x1 - x0) * (y1 - y2) - (x1 - x2) * (y1 - y0);
+  const x = d === 0 ? x1 : x1 - ((x1 - x0) ** 2 * (y1 - y2) - (x1 - x2) ** 2 * (y1 - y0)) / (2 * d);
+  out[0] = Math.exp(Math.min(x2, Math.max(x0, x)));
+  out[1] = source.magnitudeSquaredAt(out[0] as number);
+}
+
+/**
+ * The band's highest (`sign` = 1) or lowest (-1) |H|^2 and where (rad/s),
+ * into `best` as [w, m2], from |H|^2 already sampled on the band's grid.
+ */
+function bandExtreme(
+  source: ResponseSource,
+  g: BandGrid,
+  m: Float64Array,
+  sign: number,
+  refinement: Refinement,
+  best: Float64Array,
+): void {
   const n = g.w.length;
-  const m = scratch.subarray(0, n);
-  source.magnitudeSquared(g.w, m);
   const better = (a: number, b: number): boolean => sign * a > sign * b;
   best[0] = g.w[0] as number;
   best[1] = m[0] as number;
@@ -163,7 +194,8 @@ function bandExtreme(source: ResponseSource, g: BandGrid, sign: number, scratch:
     const a = g.w[Math.max(0, i - 1)] as number;
     const b = g.w[Math.min(n - 1, i + 1)] as number;
     if (a < b) {
-      refine(source, a, b, sign, r);
+      if (refinement === "golden" || i === 0 || i === n - 1) refine(source, a, b, sign, r);
+      else parabola(source, g, m, i, r);
       if (better(r[1] as number, best[1] as number)) best.set(r);
     }
     if (better(mi, best[1] as number)) {
@@ -213,24 +245,29 @@ export function rationalSource(stages: readonly ScaledRational[]): ResponseSourc
  *
  * @param source - the response (see {@link rationalSource})
  * @param plan - the mask's grids
+ * @param refinement - golden-section search of each extreme (the verification's), or one parabolic step (a Monte Carlo board's first look)
  * @returns the figures and margins
  */
-export function maskFigures(source: ResponseSource, plan: MaskPlan): MaskFigures {
+export function maskFigures(source: ResponseSource, plan: MaskPlan, refinement: Refinement = "golden"): MaskFigures {
   const { limits, scratch } = plan;
   const e = new Float64Array(2);
   let peak = -Infinity;
   let lowW = NaN;
   let low = Infinity;
   for (const g of plan.pass) {
-    bandExtreme(source, g, 1, scratch, e);
+    const m = scratch.subarray(0, g.w.length);
+    source.magnitudeSquared(g.w, m);
+    bandExtreme(source, g, m, 1, refinement, e);
     peak = Math.max(peak, e[1] as number);
-    bandExtreme(source, g, -1, scratch, e);
+    bandExtreme(source, g, m, -1, refinement, e);
     if ((e[1] as number) < low) [lowW, low] = [e[0] as number, e[1] as number];
   }
   let stopW = NaN;
   let stop = -Infinity;
   for (const g of plan.stop) {
-    bandExtreme(source, g, 1, scratch, e);
+    const m = scratch.subarray(0, g.w.length);
+    source.magnitudeSquared(g.w, m);
+    bandExtreme(source, g, m, 1, refinement, e);
     if ((e[1] as number) > stop) [stopW, stop] = [e[0] as number, e[1] as number];
   }
   const reference = source.realPartAt(TWO_PI * plan.bands.referenceHz);
