@@ -2,6 +2,9 @@
 // and, where a benchmark gives a python snippet, the scipy/numpy equivalent
 // in the same run, so the ratio is measured on the same machine at the same time.
 import { spawnSync } from "node:child_process";
+import { mkdtempSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
 
 /**
  * Time a zero-argument function. Warms up, sizes a batch to ~50 ms, then takes
@@ -81,4 +84,51 @@ export function formatTime(s) {
   if (s >= 1e-3) return `${(s * 1e3).toFixed(3)} ms`;
   if (s >= 1e-6) return `${(s * 1e6).toFixed(3)} µs`;
   return `${(s * 1e9).toFixed(1)} ns`;
+}
+
+/**
+ * Time one Monte Carlo trial in ngspice's own control language on a design's
+ * netlist: each trial alters every resistor and capacitor uniformly within its
+ * tolerance (`sunif`), runs an AC sweep over the mask's bands at the density
+ * filterwright's mask check uses (about 130 points per decade in the
+ * passband, 200 in the stopband) and measures the band extremes with `meas`.
+ * The per-trial time is the difference of two runs (many and few trials), so
+ * ngspice's start-up and parsing are not counted.
+ * @param {string} netlist the SPICE netlist (`toSpiceNetlist`)
+ * @param {{ resistor: number, capacitor: number }} tolerance fractions
+ * @param {{ pass: [number, number][], stop: [number, number][] }} bands Hz intervals
+ * @returns {{ perCallS: number } | { error: string }}
+ */
+export function timeNgspiceMonteCarlo(netlist, tolerance, bands) {
+  const lines = netlist.split("\n").filter((l) => !/^\.(ac|end)\b/i.test(l.trim()));
+  const parts = lines.filter((l) => /^[RC]\w*\s/i.test(l)).map((l) => l.trim().split(/\s+/));
+  const body = (trials) => {
+    const alters = parts.map(([name, , , value]) => {
+      const t = name.toUpperCase().startsWith("C") ? tolerance.capacitor : tolerance.resistor;
+      return `  alter ${name} = ${value}*(1 + ${t}*sunif(0))`;
+    });
+    const sweeps = [];
+    bands.pass.forEach(([a, b], i) => {
+      sweeps.push(`  ac dec 130 ${a} ${b}`, `  meas ac pmax${i} MAX vdb(out) from=${a} to=${b}`, `  meas ac pmin${i} MIN vdb(out) from=${a} to=${b}`);
+    });
+    bands.stop.forEach(([a, b], i) => {
+      sweeps.push(`  ac dec 200 ${a} ${b}`, `  meas ac smax${i} MAX vdb(out) from=${a} to=${b}`);
+    });
+    return [...lines, ".control", "set noaskquit", "let k = 0", `while k < ${trials}`, ...alters, ...sweeps, "  destroy all", "  let k = k + 1", "end", "quit", ".endc", ".end", ""].join("\n");
+  };
+  const dir = mkdtempSync(join(tmpdir(), "fw-bench-"));
+  const run = (trials) => {
+    const file = join(dir, `mc${trials}.cir`);
+    writeFileSync(file, body(trials));
+    const t0 = performance.now();
+    const r = spawnSync("ngspice", ["-b", file], { encoding: "utf8", timeout: 600_000 });
+    const dt = (performance.now() - t0) / 1000;
+    if (r.status !== 0 || /error/i.test(r.stderr ?? "")) return { error: (r.stderr || r.stdout || "ngspice failed").trim().split("\n").slice(-1)[0] };
+    return { seconds: dt };
+  };
+  const few = run(20);
+  const many = run(220);
+  if ("error" in few) return few;
+  if ("error" in many) return many;
+  return { perCallS: (many.seconds - few.seconds) / 200 };
 }

@@ -28,14 +28,17 @@ const rows = [];
 for (const file of files) {
   const mod = await import(pathToFileURL(join(here, file)).href);
   for (const b of mod.benchmarks ?? []) {
-    const ours = timeIt(b.fn);
-    const ref = b.python ? timePython(b.python) : undefined;
+    // `perCall` divides a call that does many items (boards) into a per-item time
+    const timed = timeIt(b.fn);
+    const ours = { ...timed, perCallS: timed.perCallS / (b.perCall ?? 1) };
+    // a reference is a python snippet timed with timeit, or a function that times another program (e.g. ngspice)
+    const ref = b.python ? timePython(b.python) : b.reference ? b.reference() : undefined;
     const row = {
       file,
       name: b.name,
       ours: ours.perCallS,
       reference: ref && "perCallS" in ref ? ref.perCallS : undefined,
-      referenceName: b.referenceName ?? (b.python ? "scipy" : undefined),
+      referenceName: b.referenceName ?? (b.python ? "scipy" : b.reference ? "reference" : undefined),
       note: ref && "error" in ref ? `reference failed: ${ref.error}` : (b.note ?? ""),
     };
     row.ratio = row.reference !== undefined ? row.reference / row.ours : undefined;
