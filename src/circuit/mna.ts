@@ -23,7 +23,7 @@
  */
 import { InvalidArgumentError, SingularCircuitError } from "../errors.ts";
 import type { Complex } from "../math/complex.ts";
-import { luFactorInPlace, luSolveInPlace } from "../math/linear.ts";
+import { luDeterminantInto, luFactorInPlace, luSolveInPlace } from "../math/linear.ts";
 import { TWO_PI } from "../units/constants.ts";
 import type { ComplexResponse } from "../tf/response.ts";
 import type { Circuit } from "./types.ts";
@@ -457,28 +457,7 @@ export function mnaDeterminant(sys: MnaSystem, s: Complex): Complex {
   const piv = new Int32Array(n);
   const bad = luFactorInPlace(n, ar, ai, piv);
   if (bad >= 0) return { re: 0, im: 0 };
-  let dr = 1;
-  let di = 0;
-  // Sign of the permutation.
-  const seen = new Uint8Array(n);
-  let sign = 1;
-  for (let i = 0; i < n; i++) {
-    if (seen[i] === 1) continue;
-    let len = 0;
-    let j = i;
-    while (seen[j] === 0) {
-      seen[j] = 1;
-      j = piv[j] as number;
-      len++;
-    }
-    if (len % 2 === 0) sign = -sign;
-  }
-  for (let i = 0; i < n; i++) {
-    const pr = ar[i * n + i] as number;
-    const pi = ai[i * n + i] as number;
-    const t = dr * pr - di * pi;
-    di = dr * pi + di * pr;
-    dr = t;
-  }
-  return { re: sign * dr, im: sign * di };
+  const det = new Float64Array(2);
+  luDeterminantInto(n, ar, ai, piv, det);
+  return { re: det[0] as number, im: det[1] as number };
 }

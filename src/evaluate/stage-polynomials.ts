@@ -26,7 +26,7 @@
  */
 import { elementValues, stampProgram, applyStamps, type StampProgram } from "../circuit/stamps.ts";
 import type { Element, OpAmpModel } from "../circuit/types.ts";
-import { luFactorInPlace, luSolveInPlace } from "../math/linear.ts";
+import { luDeterminantInto, luFactorInPlace, luSolveInPlace } from "../math/linear.ts";
 import type { ComponentValues, Topology } from "../topologies/types.ts";
 import type { ScaledRational } from "./types.ts";
 
@@ -84,6 +84,8 @@ export interface CompiledStage {
     readonly rowScale: Float64Array;
     readonly colScale: Float64Array;
     readonly exponent: Float64Array;
+    readonly det: Float64Array;
+    readonly seen: Uint8Array;
     readonly noise: Float64Array;
     readonly numSets: Float64Array;
     readonly denSets: Float64Array;
@@ -178,6 +180,8 @@ export function compileStage(
       rowScale: new Float64Array(n),
       colScale: new Float64Array(n),
       exponent: new Float64Array(1),
+      det: new Float64Array(2),
+      seen: new Uint8Array(n),
       noise: new Float64Array(MAX_CIRCLES),
       numSets: new Float64Array(MAX_CIRCLES * points),
       denSets: new Float64Array(MAX_CIRCLES * points),
@@ -185,33 +189,11 @@ export function compileStage(
   };
 }
 
-/** Sign of the row permutation recorded in `piv` (piv[i] = row moved to i). */
-function permutationSign(piv: Int32Array, seen: Uint8Array): number {
-  seen.fill(0);
-  let sign = 1;
-  for (let i = 0; i < piv.length; i++) {
-    if (seen[i] === 1) continue;
-    let len = 0;
-    let j = i;
-    while (seen[j] === 0) {
-      seen[j] = 1;
-      j = piv[j] as number;
-      len++;
-    }
-    if (len % 2 === 0) sign = -sign;
-  }
-  return sign;
-}
-
-const seenScratch = new Map<number, Uint8Array>();
-
 /** Sample `D` and `N` at the upper-half sample points; false when a point is singular. */
 function sample(cs: CompiledStage, radius: number, first: boolean): boolean {
   const { program, scratch: sc, points, sourceRow, output } = cs;
   const n = program.n;
   const nn = n * n;
-  const seen = seenScratch.get(n) ?? new Uint8Array(n);
-  seenScratch.set(n, seen);
   for (let k = 0; k < points / 2; k++) {
     // s_k = r e^{j theta_k}: the m = 1 column of the tables holds cos and sin of theta_k.
     const sr = radius * (cs.cosTable[k * points + 1] as number);
@@ -223,15 +205,9 @@ function sample(cs: CompiledStage, radius: number, first: boolean): boolean {
     }
     const exponent = equilibrate(n, sc.ar, sc.ai, sc.rowScale, sc.colScale);
     if (Number.isNaN(exponent) || luFactorInPlace(n, sc.ar, sc.ai, sc.piv) >= 0) return false;
-    let dr = permutationSign(sc.piv, seen);
-    let di = 0;
-    for (let i = 0; i < n; i++) {
-      const pr = sc.ar[i * n + i] as number;
-      const pi = sc.ai[i * n + i] as number;
-      const t = dr * pr - di * pi;
-      di = dr * pi + di * pr;
-      dr = t;
-    }
+    luDeterminantInto(n, sc.ar, sc.ai, sc.piv, sc.det, sc.seen);
+    let dr = sc.det[0] as number;
+    let di = sc.det[1] as number;
     // det(A) = det(R A C) 2^exponent, taken relative to the first sample's exponent.
     if (k === 0 && first) sc.exponent[0] = exponent;
     const unit = powerOfTwo(exponent - (sc.exponent[0] as number));
@@ -262,31 +238,32 @@ function sample(cs: CompiledStage, radius: number, first: boolean): boolean {
  * @returns the base-2 exponent e with det(A) = det(R A C) 2^e, or NaN for a zero row or column
  */
 function equilibrate(n: number, ar: Float64Array, ai: Float64Array, rows: Float64Array, cols: Float64Array): number {
+  const r = scaleLines(n, ar, ai, rows, n, 1);
+  return Number.isNaN(r) ? r : r + scaleLines(n, ar, ai, cols, 1, n);
+}
+
+/**
+ * Scale each line (row when `line` = n and `step` = 1, column when `line` =
+ * 1 and `step` = n) by the power of two that brings its largest entry into
+ * [1, 2); returns the sum of the exponents taken out, or NaN for a zero line.
+ */
+function scaleLines(n: number, ar: Float64Array, ai: Float64Array, scales: Float64Array, line: number, step: number): number {
   let exponent = 0;
   for (let i = 0; i < n; i++) {
     let m = 0;
-    for (let j = 0; j < n; j++) m = Math.max(m, Math.abs(ar[i * n + j] as number) + Math.abs(ai[i * n + j] as number));
+    for (let j = 0; j < n; j++) {
+      const at = i * line + j * step;
+      m = Math.max(m, Math.abs(ar[at] as number) + Math.abs(ai[at] as number));
+    }
     if (!(m > 0)) return NaN;
     const e = binaryExponent(m);
     const f = powerOfTwo(-e);
-    rows[i] = f;
+    scales[i] = f;
     exponent += e;
     for (let j = 0; j < n; j++) {
-      ar[i * n + j] = (ar[i * n + j] as number) * f;
-      ai[i * n + j] = (ai[i * n + j] as number) * f;
-    }
-  }
-  for (let j = 0; j < n; j++) {
-    let m = 0;
-    for (let i = 0; i < n; i++) m = Math.max(m, Math.abs(ar[i * n + j] as number) + Math.abs(ai[i * n + j] as number));
-    if (!(m > 0)) return NaN;
-    const e = binaryExponent(m);
-    const f = powerOfTwo(-e);
-    cols[j] = f;
-    exponent += e;
-    for (let i = 0; i < n; i++) {
-      ar[i * n + j] = (ar[i * n + j] as number) * f;
-      ai[i * n + j] = (ai[i * n + j] as number) * f;
+      const at = i * line + j * step;
+      ar[at] = (ar[at] as number) * f;
+      ai[at] = (ai[at] as number) * f;
     }
   }
   return exponent;

@@ -140,6 +140,60 @@ export function luFactorInPlace(n: number, re: Float64Array, im: Float64Array, p
 }
 
 /**
+ * Determinant of a matrix from its factors by {@link luFactorInPlace}: the
+ * product of U's diagonal times the sign of the row permutation (its cycle
+ * decomposition). No checks; exact apart from the product's rounding.
+ *
+ * @param n - dimension
+ * @param re - real parts of the factors
+ * @param im - imaginary parts of the factors
+ * @param pivots - the permutation
+ * @param out - receives `[re, im]` of the determinant
+ * @param seen - scratch of length `n` (allocated when omitted)
+ * @returns nothing; `out` holds the determinant
+ * @throws never
+ * @example
+ * ```ts
+ * const re = new Float64Array([0, 1, 1, 0]), im = new Float64Array(4), p = new Int32Array(2), d = new Float64Array(2);
+ * luFactorInPlace(2, re, im, p);
+ * luDeterminantInto(2, re, im, p, d); // d = [-1, 0]
+ * ```
+ */
+export function luDeterminantInto(
+  n: number,
+  re: Float64Array,
+  im: Float64Array,
+  pivots: Int32Array,
+  out: Float64Array,
+  seen: Uint8Array = new Uint8Array(n),
+): void {
+  seen.fill(0);
+  let sign = 1;
+  for (let i = 0; i < n; i++) {
+    if (seen[i] === 1) continue;
+    let len = 0;
+    let j = i;
+    while (seen[j] === 0) {
+      seen[j] = 1;
+      j = pivots[j] as number;
+      len++;
+    }
+    if (len % 2 === 0) sign = -sign;
+  }
+  let dr = 1;
+  let di = 0;
+  for (let i = 0; i < n; i++) {
+    const pr = re[i * n + i] as number;
+    const pi = im[i * n + i] as number;
+    const t = dr * pr - di * pi;
+    di = dr * pi + di * pr;
+    dr = t;
+  }
+  out[0] = sign * dr;
+  out[1] = sign * di;
+}
+
+/**
  * Solve with factors from {@link luFactorInPlace} (no checks). Writes the
  * solution into `xr`/`xi`.
  *
