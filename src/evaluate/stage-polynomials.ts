@@ -426,6 +426,29 @@ function trimmed(a: Float64Array): Float64Array {
   return a.slice(first);
 }
 
+/** Compiled stages kept per topology. */
+const COMPILED_PER_TOPOLOGY = 32;
+
+/** Compiled stages by topology, then by op-amp model and span (a stage's structure does not depend on its values). */
+const compiled = new WeakMap<Topology, Map<string, CompiledStage>>();
+
+/** The compiled stage for a topology, op-amp model and span, made once. */
+function compiledFor(topology: Topology, values: ComponentValues, opamp: OpAmpModel, spanRadS: readonly [number, number]): CompiledStage {
+  let byKey = compiled.get(topology);
+  if (byKey === undefined) {
+    byKey = new Map();
+    compiled.set(topology, byKey);
+  }
+  const key = `${JSON.stringify(opamp)} ${spanRadS[0]} ${spanRadS[1]}`;
+  let cs = byKey.get(key);
+  if (cs === undefined) {
+    if (byKey.size >= COMPILED_PER_TOPOLOGY) byKey.clear(); // a long-running process designs many specs: keep the cache small
+    cs = compileStage(topology, values, opamp, spanRadS);
+    byKey.set(key, cs);
+  }
+  return cs;
+}
+
 /**
  * A stage's as-built transfer function as polynomials in the scaled variable
  * `z = s / scale`, numerator and denominator in descending powers (numpy's
@@ -443,7 +466,7 @@ export function stagePolynomials(
   opamp: OpAmpModel,
   spanRadS?: readonly [number, number],
 ): ScaledRational | null {
-  const cs = compileStage(topology, values, opamp, spanRadS);
+  const cs = spanRadS === undefined ? compileStage(topology, values, opamp) : compiledFor(topology, values, opamp, spanRadS);
   const v = Float64Array.from(cs.componentNames, (name) => values[name] as number);
   const num = new Float64Array(cs.points);
   const den = new Float64Array(cs.points);
