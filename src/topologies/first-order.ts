@@ -146,6 +146,14 @@ export const firstOrderLowpassNoninverting: Topology = rcStage("lowpass", true);
 /** Passive RC highpass followed by a non-inverting gain stage `1 + R2/R3`. */
 export const firstOrderHighpassNoninverting: Topology = rcStage("highpass", true);
 
+const invertingLowParts: PartSpec[] = [
+  { kind: "R", name: "R1", a: "in", b: "n" },
+  { kind: "R", name: "R2", a: "n", b: "out" },
+  { kind: "C", name: "C1", a: "n", b: "out" },
+  { kind: "OA", name: "U1", inP: "0", inN: "n", out: "out" },
+];
+const invertingLowAt = partIndex(invertingLowParts);
+
 /** Inverting first-order lowpass: R1 in, R2 || C1 feedback. */
 export const firstOrderLowpassInverting: Topology = defineTopology({
   id: "first-order-lowpass-inverting",
@@ -156,12 +164,7 @@ export const firstOrderLowpassInverting: Topology = defineTopology({
   reference: REF,
   levelCapacitor: "C1",
   levelResistor: "R1",
-  parts: [
-    { kind: "R", name: "R1", a: "in", b: "n" },
-    { kind: "R", name: "R2", a: "n", b: "out" },
-    { kind: "C", name: "C1", a: "n", b: "out" },
-    { kind: "OA", name: "U1", inP: "0", inN: "n", out: "out" },
-  ],
+  parts: invertingLowParts,
   limits: () => null,
   solve: (t) => {
     const r2 = 1 / w0Of(t);
@@ -172,10 +175,11 @@ export const firstOrderLowpassInverting: Topology = defineTopology({
   closedFormFinite: true,
   polynomials: {
     degree: 2,
-    // parts R1, R2, C1
     core: (x, g0, g1, w, num, den) => {
-      const k = (x[1] as number) / (x[0] as number);
-      const t = (x[1] as number) * (x[2] as number) * w;
+      const r1 = x[invertingLowAt["R1"] as number] as number;
+      const r2 = x[invertingLowAt["R2"] as number] as number;
+      const k = r2 / r1;
+      const t = r2 * (x[invertingLowAt["C1"] as number] as number) * w;
       num[0] = -k;
       den[0] = 1 + (1 + k) * g0;
       den[1] = t + t * g0 + (1 + k) * g1;
@@ -183,6 +187,14 @@ export const firstOrderLowpassInverting: Topology = defineTopology({
     },
   },
 });
+
+const invertingHighParts: PartSpec[] = [
+  { kind: "C", name: "C1", a: "in", b: "m" },
+  { kind: "R", name: "R1", a: "m", b: "n" },
+  { kind: "R", name: "R2", a: "n", b: "out" },
+  { kind: "OA", name: "U1", inP: "0", inN: "n", out: "out" },
+];
+const invertingHighAt = partIndex(invertingHighParts);
 
 /** Inverting first-order highpass: C1 and R1 in series at the input, R2 feedback. */
 export const firstOrderHighpassInverting: Topology = defineTopology({
@@ -194,12 +206,7 @@ export const firstOrderHighpassInverting: Topology = defineTopology({
   reference: REF,
   levelCapacitor: "C1",
   levelResistor: "R1",
-  parts: [
-    { kind: "C", name: "C1", a: "in", b: "m" },
-    { kind: "R", name: "R1", a: "m", b: "n" },
-    { kind: "R", name: "R2", a: "n", b: "out" },
-    { kind: "OA", name: "U1", inP: "0", inN: "n", out: "out" },
-  ],
+  parts: invertingHighParts,
   limits: () => null,
   solve: (t) => {
     const r1 = 1 / w0Of(t);
@@ -214,10 +221,10 @@ export const firstOrderHighpassInverting: Topology = defineTopology({
   closedFormFinite: true,
   polynomials: {
     degree: 2,
-    // parts C1, R1, R2
     core: (x, g0, g1, w, num, den) => {
-      const t1 = (x[1] as number) * (x[0] as number) * w;
-      const t2 = (x[2] as number) * (x[0] as number) * w;
+      const cw = (x[invertingHighAt["C1"] as number] as number) * w;
+      const t1 = (x[invertingHighAt["R1"] as number] as number) * cw;
+      const t2 = (x[invertingHighAt["R2"] as number] as number) * cw;
       num[1] = -t2;
       den[0] = 1 + g0;
       den[1] = t1 + g1 + (t1 + t2) * g0;
@@ -225,6 +232,15 @@ export const firstOrderHighpassInverting: Topology = defineTopology({
     },
   },
 });
+
+const allpassParts: PartSpec[] = [
+  { kind: "R", name: "R1", a: "in", b: "n" },
+  { kind: "R", name: "R2", a: "n", b: "out" },
+  { kind: "R", name: "R3", a: "in", b: "p" },
+  { kind: "C", name: "C1", a: "p", b: "0" },
+  { kind: "OA", name: "U1", inP: "p", inN: "n", out: "out" },
+];
+const allpassAt = partIndex(allpassParts);
 
 /** First-order allpass (phase shifter): gain +1 at DC, -1 at high frequency. */
 export const firstOrderAllpass: Topology = defineTopology({
@@ -236,13 +252,7 @@ export const firstOrderAllpass: Topology = defineTopology({
   reference: REF,
   levelCapacitor: "C1",
   levelResistor: "R3",
-  parts: [
-    { kind: "R", name: "R1", a: "in", b: "n" },
-    { kind: "R", name: "R2", a: "n", b: "out" },
-    { kind: "R", name: "R3", a: "in", b: "p" },
-    { kind: "C", name: "C1", a: "p", b: "0" },
-    { kind: "OA", name: "U1", inP: "p", inN: "n", out: "out" },
-  ],
+  parts: allpassParts,
   limits: () => null,
   solve: (t) => {
     const r = 1 / w0Of(t);
@@ -261,10 +271,9 @@ export const firstOrderAllpass: Topology = defineTopology({
   closedFormFinite: true,
   polynomials: {
     degree: 2,
-    // parts R1, R2, R3, C1
     core: (x, g0, g1, w, num, den) => {
-      const k = (x[1] as number) / (x[0] as number);
-      const t = (x[2] as number) * (x[3] as number) * w;
+      const k = (x[allpassAt["R2"] as number] as number) / (x[allpassAt["R1"] as number] as number);
+      const t = (x[allpassAt["R3"] as number] as number) * (x[allpassAt["C1"] as number] as number) * w;
       const c0 = 1 + (1 + k) * g0;
       num[0] = 1;
       num[1] = -(k * t);
