@@ -485,6 +485,13 @@ function sampleCircles(cs: CompiledStage, radius: number): number {
 /** Options of {@link stagePolynomials}. */
 export interface StagePolynomialOptions {
   /**
+   * Angular frequencies (rad/s) where the result will be evaluated (the
+   * generic path's sample circles cover them).
+   *
+   * @defaultValue two decades either side of the stage's f0
+   */
+  readonly spanRadS?: readonly [number, number];
+  /**
    * Whether to take the topology's closed-form polynomials where it has them.
    *
    * @defaultValue true
@@ -507,7 +514,7 @@ function trimmed(a: Float64Array): Float64Array {
  * @param topology - the stage's topology
  * @param values - its component values
  * @param opamp - op-amp model for every op-amp of the stage
- * @param options - `closedForm: false` takes the generic path even where the topology has a closed form
+ * @param options - where it will be evaluated, and whether to take the topology's closed form
  * @returns the rational function, or null when the stage's equations are singular
  */
 export function stagePolynomials(
@@ -516,7 +523,7 @@ export function stagePolynomials(
   opamp: OpAmpModel,
   options: StagePolynomialOptions = {},
 ): ScaledRational | null {
-  const cs = compileStage(topology, values, opamp);
+  const cs = compileStage(topology, values, opamp, options.spanRadS);
   const v = Float64Array.from(cs.componentNames, (name) => values[name] as number);
   const num = new Float64Array(cs.points);
   const den = new Float64Array(cs.points);

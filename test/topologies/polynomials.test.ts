@@ -1,22 +1,13 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { topologies } from "../../src/topologies/registry.ts";
-import { acAnalysis } from "../../src/circuit/mna.ts";
-import type { Element, OpAmpModel } from "../../src/circuit/types.ts";
-import type { ComponentValues, Topology } from "../../src/topologies/types.ts";
+import type { OpAmpModel } from "../../src/circuit/types.ts";
+import type { Topology } from "../../src/topologies/types.ts";
+import { isBoard, mnaOf, opampOf, spreadValues } from "../helpers/stage-cases.ts";
 import { compileStage, genericStagePolynomialsInto, stagePolynomials, stagePolynomialsInto } from "../../src/evaluate/stage-polynomials.ts";
 import { cascadeMagnitudeSquared, cascadeResponse } from "../../src/evaluate/cascade.ts";
 import type { ScaledRational } from "../../src/evaluate/types.ts";
 import { realisableArb, sampleTarget } from "./arbitraries.ts";
-
-/** MNA of the topology's own elements, driven by Vin at "in", output "out": the reference. */
-function mnaOf(topo: Topology, v: ComponentValues, freqHz: Float64Array, opamp: OpAmpModel) {
-  const elements: Element[] = [
-    { kind: "V", name: "Vin", a: "in", b: "0", ac: 1 },
-    ...topo.elements(v, { input: "in", output: "out", nodePrefix: "k_", opamp }),
-  ];
-  return acAnalysis({ title: topo.id, elements }, { source: "Vin", outputs: ["out"], freqHz }).outputs["out"]!;
-}
 
 const withClosedForm = topologies.filter((t) => t.polynomials !== undefined);
 
@@ -25,7 +16,7 @@ const caseArb = (topo: Topology) =>
     design: realisableArb(topo),
     spread: fc.array(fc.double({ min: 0.7, max: 1.4, noNaN: true }), { minLength: 12, maxLength: 12 }),
     freqs: fc.array(fc.double({ min: -2, max: 2, noNaN: true }), { minLength: 1, maxLength: 8 }),
-    model: fc.constantFrom("ideal", "single-pole", "single-pole-rout-0"),
+    model: fc.constantFrom("ideal", "single-pole", "single-pole-rout"), // the last with routOhm 0
     a0Log: fc.double({ min: 3, max: 7, noNaN: true }),
     gbwLog: fc.double({ min: 0.5, max: 4, noNaN: true }),
   });
@@ -56,20 +47,10 @@ describe("Topology.polynomials", () => {
     it(`${topo.id}: agrees with nodal analysis, the closed-form response and the generic path to 1e-9 dB and 1e-7 degree`, () => {
       fc.assert(
         fc.property(caseArb(topo), ({ design, spread, freqs, model, a0Log, gbwLog }) => {
-          const v0 = topo.design(design.target, design.choices);
-          const v: Record<string, number> = {};
-          topo.componentNames.forEach((n, i) => {
-            v[n] = (v0[n] as number) * (spread[i % spread.length] as number);
-          });
-          // Boards only, as in test/evaluate/stage-polynomials.test.ts: a resistor below 1 ohm is a wire.
-          fc.pre(topo.componentNames.every((n) => !n.startsWith("R") || (v[n]! >= 1 && v[n]! <= 1e9)));
+          const v = spreadValues(topo, topo.design(design.target, design.choices), spread);
+          fc.pre(isBoard(topo, v));
           const f0 = design.target.f0Hz;
-          const opamp: OpAmpModel =
-            model === "ideal"
-              ? { kind: "ideal" }
-              : model === "single-pole"
-                ? { kind: "single-pole", a0: 10 ** a0Log, gbwHz: f0 * 10 ** gbwLog }
-                : { kind: "single-pole-rout", a0: 10 ** a0Log, gbwHz: f0 * 10 ** gbwLog, routOhm: 0 };
+          const opamp = opampOf(model, f0, a0Log, gbwLog, 0);
           const freqHz = Float64Array.from(freqs.map((x) => f0 * 10 ** x));
           const w = freqHz.map((f) => 2 * Math.PI * f);
           const p = topo.polynomials!(v, opamp)!;
