@@ -15,11 +15,14 @@ export const layers = [
   "report",
 ] as const;
 
+/** Layers built into dist/ for the benchmarks (bench/*.bench.mjs) but not (yet) published as subpath exports. */
+export const internalLayers = ["evaluate"] as const;
+
 export default defineConfig([
   {
     entry: {
       index: "src/index.ts",
-      ...Object.fromEntries(layers.map((l) => [`${l}/index`, `src/${l}/index.ts`])),
+      ...Object.fromEntries([...layers, ...internalLayers].map((l) => [`${l}/index`, `src/${l}/index.ts`])),
     },
     format: ["esm", "cjs"],
     dts: true,

@@ -195,7 +195,7 @@ export function checkMask(spec: DesignSpec, stages: readonly BuiltStage[], opamp
   const span = spanRadS(plan.bands);
   const polys: ScaledRational[] = [];
   for (const s of stages) {
-    const p = stagePolynomials(s.topology, s.values, opamp, span);
+    const p = stagePolynomials(s.topology, s.values, opamp, { spanRadS: span });
     if (p === null) return maskFigures(closedFormSource(stages, opamp), plan);
     polys.push(p);
   }
@@ -245,7 +245,7 @@ export function maskGrid(spec: DesignSpec): MaskGrid {
  */
 export function stageMagnitudeSquared(spec: DesignSpec, stage: BuiltStage, opamp: OpAmpModel, grid: MaskGrid): Float64Array {
   const out = new Float64Array(grid.freqHz.length);
-  const p = stagePolynomials(stage.topology, stage.values, opamp, spanRadS(maskPlan(spec).bands));
+  const p = stagePolynomials(stage.topology, stage.values, opamp, { spanRadS: spanRadS(maskPlan(spec).bands) });
   if (p === null) {
     closedFormSource([stage], opamp).magnitudeSquared(grid.freqHz.map((f) => TWO_PI * f), out);
     return out;

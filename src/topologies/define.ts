@@ -4,8 +4,10 @@
  * ({@link TopologySpec}); {@link defineTopology} turns that into a
  * {@link Topology} with the public checks, the realisable-range check,
  * impedance-level scaling, element placement, response evaluation (closed
- * form, or nodal analysis where the closed form takes only the ideal op-amp)
- * and the GBW demand (`as-built.ts`).
+ * form, or nodal analysis where the closed form takes only the ideal op-amp),
+ * the GBW demand (`as-built.ts`), and, where the topology derives them, its
+ * closed-form as-built polynomials (checked `polynomials`, unchecked
+ * `polynomialsInto` for the hot path).
  *
  * Arguments are checked here, once, at the topology's public methods; the
  * topology files' equations and the kernels beneath are unchecked.
@@ -19,8 +21,18 @@ import { InvalidArgumentError, UnrealisableError } from "../errors.ts";
 import { TWO_PI } from "../units/constants.ts";
 import { requirePositive } from "../validate.ts";
 import { gbwDemand } from "./as-built.ts";
-import { openLoopGain, type ClosedForm } from "./kernels.ts";
-import type { ComponentValues, StageChoices, StageFigures, StageKind, StagePlacement, StageTarget, Topology } from "./types.ts";
+import { openLoopGain, type ClosedForm, type PolynomialCore } from "./kernels.ts";
+import type {
+  AsBuiltPolynomials,
+  ComponentValues,
+  PolynomialsInto,
+  StageChoices,
+  StageFigures,
+  StageKind,
+  StagePlacement,
+  StageTarget,
+  Topology,
+} from "./types.ts";
 
 /**
  * Impedance level used when neither a capacitor nor a resistor is chosen: the level resistor is 10 kOhm.
@@ -106,6 +118,99 @@ export interface TopologySpec {
   readonly closedFormFinite: boolean;
   /** Gain fixed by the other figures, if any. */
   readonly fixedGain?: (t: Omit<StageTarget, "gain">) => number;
+  /** Closed-form polynomials, if derived: the highest degree (single-pole model) and the core. */
+  readonly polynomials?: { readonly degree: number; readonly core: PolynomialCore };
+}
+
+/**
+ * Where each part's value sits in a values array in component order (the
+ * parts without the op-amps), for the polynomial cores.
+ *
+ * @param parts - the stage's parts
+ * @returns the index of each component by designator
+ * @throws never
+ * @example
+ * ```ts
+ * partIndex([{ kind: "R", name: "R1", a: "in", b: "a" }, { kind: "C", name: "C1", a: "a", b: "0" }]);
+ * //=> { R1: 0, C1: 1 }
+ * ```
+ */
+export function partIndex(parts: readonly PartSpec[]): Readonly<Record<string, number>> {
+  const out: Record<string, number> = {};
+  let i = 0;
+  for (const p of parts) if (p.kind !== "OA") out[p.name] = i++;
+  return Object.freeze(out);
+}
+
+/**
+ * The unchecked {@link PolynomialsInto} of a polynomial core: the op-amp
+ * model turned into `1/A = g0 + g1 z`, the core run on zeroed scratch, the
+ * result normalised (largest denominator coefficient 1) and written
+ * descending, right-aligned.
+ */
+function polynomialsIntoOf(form: { readonly degree: number; readonly core: PolynomialCore }): PolynomialsInto {
+  const d = form.degree;
+  const lowNum = new Float64Array(d + 1);
+  const lowDen = new Float64Array(d + 1);
+  return (x, opamp, scale, num, den) => {
+    let g0 = 0;
+    let g1 = 0;
+    if (opamp.kind !== "ideal") {
+      if (opamp.kind === "single-pole-rout" && opamp.routOhm !== 0) return 0;
+      g0 = 1 / opamp.a0;
+      g1 = scale / (TWO_PI * opamp.gbwHz);
+    }
+    lowNum.fill(0);
+    lowDen.fill(0);
+    form.core(x, g0, g1, scale, lowNum, lowDen);
+    let big = 0;
+    for (let k = 0; k <= d; k++) big = Math.max(big, Math.abs(lowDen[k] as number));
+    if (!(big > 0) || !Number.isFinite(big)) return 0;
+    const last = den.length - 1;
+    for (let k = 0; k <= last; k++) {
+      num[k] = 0;
+      den[k] = 0;
+    }
+    for (let k = 0; k <= d; k++) {
+      const n = (lowNum[k] as number) / big;
+      if (!Number.isFinite(n)) return 0;
+      num[last - k] = n;
+      den[last - k] = (lowDen[k] as number) / big;
+    }
+    return scale;
+  };
+}
+
+/** The checked `polynomials`, its unchecked core and the degree, for a spec that derives them. */
+function polynomialMembers(
+  spec: TopologySpec,
+  componentNames: readonly string[],
+  form: { readonly degree: number; readonly core: PolynomialCore },
+): Pick<Topology, "polynomialDegree" | "polynomials" | "polynomialsInto"> {
+  const polynomialsInto = polynomialsIntoOf(form);
+  const d = form.degree;
+  const polynomials = (v: ComponentValues, opamp: OpAmpModel): AsBuiltPolynomials | null => {
+    const fn = `${spec.id}.polynomials`;
+    checkValues(fn, componentNames, v);
+    checkOpAmpModel(fn, "opamp", opamp);
+    if (opamp.kind === "single-pole-rout" && opamp.routOhm !== 0) return null;
+    const x = Float64Array.from(componentNames, (n) => v[n] as number);
+    const num = new Float64Array(d + 1);
+    const den = new Float64Array(d + 1);
+    const scale = TWO_PI * spec.figures(v).f0Hz;
+    if (!(Number.isFinite(scale) && scale > 0) || polynomialsInto(x, opamp, scale, num, den) === 0) {
+      bad(fn, "values", v, "these component values are so far apart that the polynomial coefficients overflow; use values within a few decades of each other");
+    }
+    return { num: withoutLeadingZeros(num), den: withoutLeadingZeros(den), scale };
+  };
+  return { polynomialDegree: d, polynomials, polynomialsInto };
+}
+
+/** Copy without the leading zeros (at least the constant term stays). */
+function withoutLeadingZeros(a: Float64Array): Float64Array {
+  let first = 0;
+  while (first < a.length - 1 && a[first] === 0) first++;
+  return a.slice(first);
 }
 
 function bad(fn: string, path: string, received: unknown, message: string): never {
@@ -420,6 +525,7 @@ export function defineTopology(spec: TopologySpec): Topology {
     elements,
     gbwDemandHz,
     ...(fixedGain === undefined ? {} : { fixedGain }),
+    ...(spec.polynomials === undefined ? {} : polynomialMembers(spec, componentNames, spec.polynomials)),
   };
   return Object.freeze(topo);
 }

@@ -30,6 +30,20 @@
  * GBW demand: computed numerically from that response (1 % on f0); common
  * practice, no source, asks for GBW >= 100 |gain| f0.
  *
+ * As-built polynomials (closed form, `polynomials`), in z = s/w with
+ * T = R C w for the stage's time constant and `1/A = g0 + g1 z`, derived here
+ * from the same nodal equations (every coefficient a sum of positive terms;
+ * the allpass numerator's two terms have opposite signs, no sum):
+ * - RC + buffer or gain stage: `N = 1` (lowpass) or `T z` (highpass),
+ *   `D = (beta + g0 + g1 z)(1 + T z)`.
+ * - Inverting lowpass (k = R2/R1, T = R2 C1 w):
+ *   `N = -k`, `D = (1 + T z) + (1 + k + T z)(g0 + g1 z)`.
+ * - Inverting highpass (T1 = R1 C1 w, T2 = R2 C1 w):
+ *   `N = -T2 z`, `D = (1 + T1 z) + (1 + (T1 + T2) z)(g0 + g1 z)`.
+ * - Allpass (k = R2/R1, T = R3 C1 w):
+ *   `N = 1 - k T z`, `D = (1 + (1 + k)(g0 + g1 z))(1 + T z)`.
+ * Degree 2 (1 with the ideal op-amp); accuracy a few ulps per coefficient.
+ *
  * Choices: `capacitor` sets C1; `resistor` sets R1 (R3 for the allpass); by
  * default that resistor is 10 kOhm.
  * The gain resistor R3 of the non-inverting stages equals R1 before scaling.
@@ -39,7 +53,7 @@
 import type { ComponentValues, StageTarget, Topology } from "./types.ts";
 import { cadd, cdiv, cmul, complex, cscale } from "../math/complex.ts";
 import { TWO_PI } from "../units/constants.ts";
-import { defineTopology, valueOf, conductanceOf, LIMIT_SLACK, type PartSpec } from "./define.ts";
+import { defineTopology, partIndex, valueOf, conductanceOf, LIMIT_SLACK, type PartSpec } from "./define.ts";
 import { invertingGain, nonInvertingGain } from "./kernels.ts";
 
 const REF =
@@ -77,6 +91,8 @@ const beta = (v: ComponentValues): number => valueOf(v, "R3") / (valueOf(v, "R2"
 /** Passive RC lowpass or highpass followed by a unity-gain buffer or a non-inverting gain stage `1 + R2/R3`. */
 function rcStage(kind: "lowpass" | "highpass", withGain: boolean): Topology {
   const passive = kind === "lowpass" ? bufferLow : bufferHigh;
+  const parts = withGain ? [...passive.slice(0, 2), ...gainNet] : passive;
+  const i = partIndex(parts);
   return defineTopology({
     id: `first-order-${kind}-${withGain ? "noninverting" : "buffer"}`,
     name: `RC ${kind} + ${withGain ? "non-inverting gain" : "buffer"}`,
@@ -86,7 +102,7 @@ function rcStage(kind: "lowpass" | "highpass", withGain: boolean): Topology {
     reference: REF,
     levelCapacitor: "C1",
     levelResistor: "R1",
-    parts: withGain ? [...passive.slice(0, 2), ...gainNet] : passive,
+    parts,
     limits: withGain ? aboveOne : unityGain,
     solve: withGain
       ? (t) => {
@@ -102,6 +118,19 @@ function rcStage(kind: "lowpass" | "highpass", withGain: boolean): Topology {
       return cmul(k, cdiv(st, cadd(complex(1), st)));
     },
     closedFormFinite: true,
+    polynomials: {
+      degree: 2,
+      core: (x, g0, g1, w, num, den) => {
+        const t = (x[i["R1"] as number] as number) * (x[i["C1"] as number] as number) * w;
+        const r3 = withGain ? (x[i["R3"] as number] as number) : 0;
+        const b = withGain ? r3 / ((x[i["R2"] as number] as number) + r3) : 1;
+        den[0] = b + g0;
+        den[1] = (b + g0) * t + g1;
+        den[2] = g1 * t;
+        if (kind === "lowpass") num[0] = 1;
+        else num[1] = t;
+      },
+    },
   });
 }
 
@@ -117,6 +146,14 @@ export const firstOrderLowpassNoninverting: Topology = rcStage("lowpass", true);
 /** Passive RC highpass followed by a non-inverting gain stage `1 + R2/R3`. */
 export const firstOrderHighpassNoninverting: Topology = rcStage("highpass", true);
 
+const invertingLowParts: PartSpec[] = [
+  { kind: "R", name: "R1", a: "in", b: "n" },
+  { kind: "R", name: "R2", a: "n", b: "out" },
+  { kind: "C", name: "C1", a: "n", b: "out" },
+  { kind: "OA", name: "U1", inP: "0", inN: "n", out: "out" },
+];
+const invertingLowAt = partIndex(invertingLowParts);
+
 /** Inverting first-order lowpass: R1 in, R2 || C1 feedback. */
 export const firstOrderLowpassInverting: Topology = defineTopology({
   id: "first-order-lowpass-inverting",
@@ -127,12 +164,7 @@ export const firstOrderLowpassInverting: Topology = defineTopology({
   reference: REF,
   levelCapacitor: "C1",
   levelResistor: "R1",
-  parts: [
-    { kind: "R", name: "R1", a: "in", b: "n" },
-    { kind: "R", name: "R2", a: "n", b: "out" },
-    { kind: "C", name: "C1", a: "n", b: "out" },
-    { kind: "OA", name: "U1", inP: "0", inN: "n", out: "out" },
-  ],
+  parts: invertingLowParts,
   limits: () => null,
   solve: (t) => {
     const r2 = 1 / w0Of(t);
@@ -141,7 +173,28 @@ export const firstOrderLowpassInverting: Topology = defineTopology({
   figures: (v) => ({ f0Hz: 1 / (TWO_PI * valueOf(v, "R2") * valueOf(v, "C1")), gain: -valueOf(v, "R2") / valueOf(v, "R1") }),
   closedForm: (v, s, a) => invertingGain(complex(conductanceOf(v, "R1")), cadd(complex(conductanceOf(v, "R2")), cscale(s, valueOf(v, "C1"))), a),
   closedFormFinite: true,
+  polynomials: {
+    degree: 2,
+    core: (x, g0, g1, w, num, den) => {
+      const r1 = x[invertingLowAt["R1"] as number] as number;
+      const r2 = x[invertingLowAt["R2"] as number] as number;
+      const k = r2 / r1;
+      const t = r2 * (x[invertingLowAt["C1"] as number] as number) * w;
+      num[0] = -k;
+      den[0] = 1 + (1 + k) * g0;
+      den[1] = t + t * g0 + (1 + k) * g1;
+      den[2] = t * g1;
+    },
+  },
 });
+
+const invertingHighParts: PartSpec[] = [
+  { kind: "C", name: "C1", a: "in", b: "m" },
+  { kind: "R", name: "R1", a: "m", b: "n" },
+  { kind: "R", name: "R2", a: "n", b: "out" },
+  { kind: "OA", name: "U1", inP: "0", inN: "n", out: "out" },
+];
+const invertingHighAt = partIndex(invertingHighParts);
 
 /** Inverting first-order highpass: C1 and R1 in series at the input, R2 feedback. */
 export const firstOrderHighpassInverting: Topology = defineTopology({
@@ -153,12 +206,7 @@ export const firstOrderHighpassInverting: Topology = defineTopology({
   reference: REF,
   levelCapacitor: "C1",
   levelResistor: "R1",
-  parts: [
-    { kind: "C", name: "C1", a: "in", b: "m" },
-    { kind: "R", name: "R1", a: "m", b: "n" },
-    { kind: "R", name: "R2", a: "n", b: "out" },
-    { kind: "OA", name: "U1", inP: "0", inN: "n", out: "out" },
-  ],
+  parts: invertingHighParts,
   limits: () => null,
   solve: (t) => {
     const r1 = 1 / w0Of(t);
@@ -171,7 +219,28 @@ export const firstOrderHighpassInverting: Topology = defineTopology({
     return invertingGain(y1, complex(conductanceOf(v, "R2")), a);
   },
   closedFormFinite: true,
+  polynomials: {
+    degree: 2,
+    core: (x, g0, g1, w, num, den) => {
+      const cw = (x[invertingHighAt["C1"] as number] as number) * w;
+      const t1 = (x[invertingHighAt["R1"] as number] as number) * cw;
+      const t2 = (x[invertingHighAt["R2"] as number] as number) * cw;
+      num[1] = -t2;
+      den[0] = 1 + g0;
+      den[1] = t1 + g1 + (t1 + t2) * g0;
+      den[2] = (t1 + t2) * g1;
+    },
+  },
 });
+
+const allpassParts: PartSpec[] = [
+  { kind: "R", name: "R1", a: "in", b: "n" },
+  { kind: "R", name: "R2", a: "n", b: "out" },
+  { kind: "R", name: "R3", a: "in", b: "p" },
+  { kind: "C", name: "C1", a: "p", b: "0" },
+  { kind: "OA", name: "U1", inP: "p", inN: "n", out: "out" },
+];
+const allpassAt = partIndex(allpassParts);
 
 /** First-order allpass (phase shifter): gain +1 at DC, -1 at high frequency. */
 export const firstOrderAllpass: Topology = defineTopology({
@@ -183,13 +252,7 @@ export const firstOrderAllpass: Topology = defineTopology({
   reference: REF,
   levelCapacitor: "C1",
   levelResistor: "R3",
-  parts: [
-    { kind: "R", name: "R1", a: "in", b: "n" },
-    { kind: "R", name: "R2", a: "n", b: "out" },
-    { kind: "R", name: "R3", a: "in", b: "p" },
-    { kind: "C", name: "C1", a: "p", b: "0" },
-    { kind: "OA", name: "U1", inP: "p", inN: "n", out: "out" },
-  ],
+  parts: allpassParts,
   limits: () => null,
   solve: (t) => {
     const r = 1 / w0Of(t);
@@ -206,6 +269,19 @@ export const firstOrderAllpass: Topology = defineTopology({
     return cdiv(cmul(a, drive), cadd(complex(1), cscale(a, beta)));
   },
   closedFormFinite: true,
+  polynomials: {
+    degree: 2,
+    core: (x, g0, g1, w, num, den) => {
+      const k = (x[allpassAt["R2"] as number] as number) / (x[allpassAt["R1"] as number] as number);
+      const t = (x[allpassAt["R3"] as number] as number) * (x[allpassAt["C1"] as number] as number) * w;
+      const c0 = 1 + (1 + k) * g0;
+      num[0] = 1;
+      num[1] = -(k * t);
+      den[0] = c0;
+      den[1] = c0 * t + (1 + k) * g1;
+      den[2] = (1 + k) * g1 * t;
+    },
+  },
   fixedGain: () => 1,
 });
 

@@ -6,7 +6,9 @@
  * @module
  */
 export type {
+  AsBuiltPolynomials,
   ComponentValues,
+  PolynomialsInto,
   StageChoices,
   StageFigures,
   StageKind,

@@ -10,6 +10,12 @@
  * op-amp non-idealities, from memory), to the rounding of a few complex
  * operations (about 1e-15 relative).
  *
+ * The same transfers as real polynomials ({@link PolynomialCore}): with
+ * `1/A(s) = g0 + g1 z` (z = s/scale; `g0 = 1/a0`, `g1 = scale/(2 pi GBW)`,
+ * both 0 for the ideal op-amp) every coefficient is a sum of products of
+ * positive part terms wherever the circuit allows (derived here from the
+ * same nodal equations), so it carries a few ulps of relative error.
+ *
  * Numeric cores: no argument checks; the topology framework (`define.ts`)
  * checks values and frequencies before it calls them.
  *
@@ -21,6 +27,15 @@ import type { ComponentValues } from "./types.ts";
 
 /** Closed-form response of a stage: `H(s)` given its values and the op-amp open-loop gain `a` (`null` = ideal). */
 export type ClosedForm = (v: ComponentValues, s: Complex, a: Complex | null) => Complex;
+
+/**
+ * Closed-form as-built polynomials of a stage: writes `N(z)` and `D(z)`,
+ * `H(s) = N(z)/D(z)` with `z = s / scale`, in ascending powers (`num[k]`
+ * multiplies z^k) into zeroed arrays of length degree + 1, for an op-amp
+ * whose inverse open-loop gain is `1/A = g0 + g1 z` (`g0 = g1 = 0`: ideal).
+ * `x` holds the component values in the topology's component order.
+ */
+export type PolynomialCore = (x: Float64Array, g0: number, g1: number, scale: number, num: Float64Array, den: Float64Array) => void;
 
 /**
  * Open-loop gain of the single-pole model at `s`: `a0 / (1 + s a0 / (2 pi GBW))`.
@@ -127,4 +142,57 @@ export function mfbKernel(y: readonly [Complex, Complex, Complex, Complex, Compl
   let den = cadd(cmul(t, ya), cmul(y3, y4));
   if (a !== null) den = csub(den, cdiv(cmul(y3, y3), a));
   return cdiv(cneg(cmul(y1, y3)), den);
+}
+
+/**
+ * The multiple-feedback kernel ({@link mfbKernel}) as polynomials: each
+ * admittance is linear in z, `y_i = y[2i] + y[2i+1] z` (a conductance, or a
+ * capacitance times the scale), and `1/A = g0 + g1 z`. Multiplying the
+ * kernel through by `a` gives, with `Y = y1+y2+y3+y4`,
+ * `N = -y1 y3` and `D = y5 Y + y3 y4 + (1/A) (y3 (y1+y2+y4) + y5 Y)`
+ * (the `-y3^2/a` term absorbed, so every coefficient is a sum of positive
+ * products; derived here from the kernel's nodal equations).
+ *
+ * @param y - the five admittances as ten numbers (constant, z coefficient)
+ * @param g0 - constant part of 1/A
+ * @param g1 - z coefficient of 1/A
+ * @param num - numerator, ascending, 3 entries (written)
+ * @param den - denominator, ascending, 4 entries (written)
+ * @returns nothing
+ * @throws never
+ * @example
+ * ```ts
+ * const num = new Float64Array(3), den = new Float64Array(4);
+ * mfbPolynomials(Float64Array.of(1e-4, 0, 0, 0, 1e-4, 0, 1e-4, 0, 1e-4, 0), 0, 0, num, den);
+ * num[0] / den[0]; //=> -0.25
+ * ```
+ */
+export function mfbPolynomials(y: Float64Array, g0: number, g1: number, num: Float64Array, den: Float64Array): void {
+  const p1 = y[0] as number;
+  const q1 = y[1] as number;
+  const p3 = y[4] as number;
+  const q3 = y[5] as number;
+  const p4 = y[6] as number;
+  const q4 = y[7] as number;
+  const p5 = y[8] as number;
+  const q5 = y[9] as number;
+  const xp = p1 + (y[2] as number) + p4; // y1 + y2 + y4
+  const xq = q1 + (y[3] as number) + q4;
+  const yp = xp + p3; // Y
+  const yq = xq + q3;
+  // y5 Y + y3 y4
+  const d0 = p5 * yp + p3 * p4;
+  const d1 = p5 * yq + q5 * yp + p3 * q4 + q3 * p4;
+  const d2 = q5 * yq + q3 * q4;
+  // y3 (y1 + y2 + y4) + y5 Y
+  const b0 = p3 * xp + p5 * yp;
+  const b1 = p3 * xq + q3 * xp + p5 * yq + q5 * yp;
+  const b2 = q3 * xq + q5 * yq;
+  den[0] = d0 + g0 * b0;
+  den[1] = d1 + g0 * b1 + g1 * b0;
+  den[2] = d2 + g0 * b2 + g1 * b1;
+  den[3] = g1 * b2;
+  num[0] = -(p1 * p3);
+  num[1] = -(p1 * q3 + q1 * p3);
+  num[2] = -(q1 * q3);
 }

@@ -34,6 +34,14 @@
  *   gain at f0 -R3/(2 R1); needs |K| < 2 Q^2. `capacitor` sets C1.
  * For all: `resistor` sets R1; default R1 = 10 kOhm.
  *
+ * As-built polynomials (closed form, `polynomials`): the kernel above
+ * multiplied through by A, with each admittance linear in z = s/w and
+ * `1/A = g0 + g1 z`: `N = -Y1 Y3`,
+ * `D = Y5 Y + Y3 Y4 + (1/A)(Y3 (Y1 + Y2 + Y4) + Y5 Y)`, Y = Y1 + Y2 + Y3 + Y4
+ * (derived here from the nodal equations; `mfbPolynomials` in kernels.ts).
+ * Every coefficient is a sum of positive products: a few ulps each.
+ * Degree 3 (2 with the ideal op-amp).
+ *
  * GBW demand: computed numerically from the finite-gain response (f0 and Q
  * within 1 %); common practice, no source, asks for GBW >= 100 (1 + |K|) f0
  * for the lowpass and GBW >= 100 * 2 Q^2 f0 for the bandpass.
@@ -44,8 +52,8 @@ import { requirePositive } from "../validate.ts";
 import type { ComponentValues, StageFigures, StageTarget, Topology } from "./types.ts";
 import { complex, cscale, type Complex } from "../math/complex.ts";
 import { TWO_PI } from "../units/constants.ts";
-import { atLeast, defineTopology, valueOf, conductanceOf } from "./define.ts";
-import { mfbKernel } from "./kernels.ts";
+import { atLeast, defineTopology, partIndex, valueOf, conductanceOf, type PartSpec } from "./define.ts";
+import { mfbKernel, mfbPolynomials, type PolynomialCore } from "./kernels.ts";
 
 const REF =
   'L. P. Huelsman & P. E. Allen, "Introduction to the Theory and Design of Active Filters", McGraw-Hill, 1980, infinite-gain multiple-feedback realisations (from memory)';
@@ -54,6 +62,31 @@ const q = (t: StageTarget): number => t.q as number;
 const w0Of = (t: StageTarget): number => TWO_PI * t.f0Hz;
 const amp = { kind: "OA", name: "U1", inP: "0", inN: "n", out: "out" } as const;
 const ZERO: Complex = { re: 0, im: 0 };
+
+/** Scratch of the five admittances for {@link mfbPolynomials}. */
+const admittances = new Float64Array(10);
+
+/**
+ * The polynomial core of a multiple-feedback stage with these parts: `y`
+ * names the part of each admittance Y1..Y5 (a resistor gives its
+ * conductance, a capacitor its capacitance times the scale), `null` for an
+ * absent one.
+ */
+function mfbPolynomialCore(parts: readonly PartSpec[], y: readonly (string | null)[]): PolynomialCore {
+  const i = partIndex(parts);
+  const at = Int32Array.from(y, (n) => (n === null ? -1 : (i[n] as number)));
+  const resistor = Uint8Array.from(y, (n) => (n !== null && n.startsWith("R") ? 1 : 0));
+  return (x, g0, g1, w, num, den) => {
+    admittances.fill(0);
+    for (let k = 0; k < 5; k++) {
+      const j = at[k] as number;
+      if (j < 0) continue;
+      if (resistor[k] === 1) admittances[2 * k] = 1 / (x[j] as number);
+      else admittances[2 * k + 1] = (x[j] as number) * w;
+    }
+    mfbPolynomials(admittances, g0, g1, num, den);
+  };
+}
 
 /**
  * Smallest capacitor ratio C1/C2 (grounded over feedback capacitor) with
@@ -78,6 +111,15 @@ function mfbMinRatio(qv: number, gainMagnitude: number): number {
   return 4 * qv * qv * (1 + gainMagnitude);
 }
 
+const lowpassParts: PartSpec[] = [
+  { kind: "R", name: "R1", a: "in", b: "a" },
+  { kind: "R", name: "R2", a: "a", b: "out" },
+  { kind: "R", name: "R3", a: "a", b: "n" },
+  { kind: "C", name: "C1", a: "a", b: "0" },
+  { kind: "C", name: "C2", a: "n", b: "out" },
+  amp,
+];
+
 /** Multiple-feedback lowpass. */
 export const mfbLowpass: Topology = defineTopology({
   id: "mfb-lowpass",
@@ -88,14 +130,7 @@ export const mfbLowpass: Topology = defineTopology({
   reference: REF,
   levelCapacitor: "C2",
   levelResistor: "R1",
-  parts: [
-    { kind: "R", name: "R1", a: "in", b: "a" },
-    { kind: "R", name: "R2", a: "a", b: "out" },
-    { kind: "R", name: "R3", a: "a", b: "n" },
-    { kind: "C", name: "C1", a: "a", b: "0" },
-    { kind: "C", name: "C2", a: "n", b: "out" },
-    amp,
-  ],
+  parts: lowpassParts,
   limits: (t, c) => {
     if (c.capacitorRatio === undefined) return null;
     const min = mfbMinRatio(q(t), Math.abs(t.gain));
@@ -124,7 +159,17 @@ export const mfbLowpass: Topology = defineTopology({
   closedForm: (v, s, a) =>
     mfbKernel([complex(conductanceOf(v, "R1")), cscale(s, valueOf(v, "C1")), complex(conductanceOf(v, "R3")), complex(conductanceOf(v, "R2")), cscale(s, valueOf(v, "C2"))], a),
   closedFormFinite: true,
+  polynomials: { degree: 3, core: mfbPolynomialCore(lowpassParts, ["R1", "C1", "R3", "R2", "C2"]) },
 });
+
+const highpassParts: PartSpec[] = [
+  { kind: "C", name: "C1", a: "in", b: "a" },
+  { kind: "R", name: "R1", a: "a", b: "0" },
+  { kind: "C", name: "C2", a: "a", b: "n" },
+  { kind: "C", name: "C3", a: "a", b: "out" },
+  { kind: "R", name: "R2", a: "n", b: "out" },
+  amp,
+];
 
 /** Multiple-feedback highpass. */
 export const mfbHighpass: Topology = defineTopology({
@@ -136,14 +181,7 @@ export const mfbHighpass: Topology = defineTopology({
   reference: REF,
   levelCapacitor: "C2",
   levelResistor: "R1",
-  parts: [
-    { kind: "C", name: "C1", a: "in", b: "a" },
-    { kind: "R", name: "R1", a: "a", b: "0" },
-    { kind: "C", name: "C2", a: "a", b: "n" },
-    { kind: "C", name: "C3", a: "a", b: "out" },
-    { kind: "R", name: "R2", a: "n", b: "out" },
-    amp,
-  ],
+  parts: highpassParts,
   limits: () => null,
   solve: (t, c) => {
     const w0 = w0Of(t);
@@ -162,6 +200,7 @@ export const mfbHighpass: Topology = defineTopology({
   closedForm: (v, s, a) =>
     mfbKernel([cscale(s, valueOf(v, "C1")), complex(conductanceOf(v, "R1")), cscale(s, valueOf(v, "C2")), cscale(s, valueOf(v, "C3")), complex(conductanceOf(v, "R2"))], a),
   closedFormFinite: true,
+  polynomials: { degree: 3, core: mfbPolynomialCore(highpassParts, ["C1", "R1", "C2", "C3", "R2"]) },
 });
 
 /** f0, Q and centre gain of a multiple-feedback bandpass with pole frequency `w0` and feedback resistor `rf` (input resistor R1, capacitors C1, C2). */
@@ -170,6 +209,14 @@ function bandpassFigures(v: ComponentValues, w0: number, rf: "R2" | "R3"): Stage
   const c2 = valueOf(v, "C2");
   return { f0Hz: w0 / TWO_PI, q: (w0 * valueOf(v, rf) * c1 * c2) / (c1 + c2), gain: -(valueOf(v, rf) * c1) / (valueOf(v, "R1") * (c1 + c2)) };
 }
+
+const bandpassParts: PartSpec[] = [
+  { kind: "R", name: "R1", a: "in", b: "a" },
+  { kind: "C", name: "C1", a: "a", b: "n" },
+  { kind: "C", name: "C2", a: "a", b: "out" },
+  { kind: "R", name: "R2", a: "n", b: "out" },
+  amp,
+];
 
 /** Multiple-feedback bandpass (two resistors; gain tied to Q through the capacitor ratio). */
 export const mfbBandpass: Topology = defineTopology({
@@ -181,13 +228,7 @@ export const mfbBandpass: Topology = defineTopology({
   reference: REF,
   levelCapacitor: "C1",
   levelResistor: "R1",
-  parts: [
-    { kind: "R", name: "R1", a: "in", b: "a" },
-    { kind: "C", name: "C1", a: "a", b: "n" },
-    { kind: "C", name: "C2", a: "a", b: "out" },
-    { kind: "R", name: "R2", a: "n", b: "out" },
-    amp,
-  ],
+  parts: bandpassParts,
   limits: (t) => {
     const k = Math.abs(t.gain);
     const min = q(t) * q(t);
@@ -206,7 +247,17 @@ export const mfbBandpass: Topology = defineTopology({
   figures: (v) => bandpassFigures(v, 1 / Math.sqrt(valueOf(v, "R1") * valueOf(v, "R2") * valueOf(v, "C1") * valueOf(v, "C2")), "R2"),
   closedForm: (v, s, a) => mfbKernel([complex(conductanceOf(v, "R1")), ZERO, cscale(s, valueOf(v, "C1")), cscale(s, valueOf(v, "C2")), complex(conductanceOf(v, "R2"))], a),
   closedFormFinite: true,
+  polynomials: { degree: 3, core: mfbPolynomialCore(bandpassParts, ["R1", null, "C1", "C2", "R2"]) },
 });
+
+const attenuatedParts: PartSpec[] = [
+  { kind: "R", name: "R1", a: "in", b: "a" },
+  { kind: "R", name: "R2", a: "a", b: "0" },
+  { kind: "C", name: "C1", a: "a", b: "n" },
+  { kind: "C", name: "C2", a: "a", b: "out" },
+  { kind: "R", name: "R3", a: "n", b: "out" },
+  amp,
+];
 
 /** Multiple-feedback bandpass with an input attenuator (R2 to ground) setting the gain independently of Q. */
 export const mfbBandpassAttenuated: Topology = defineTopology({
@@ -218,14 +269,7 @@ export const mfbBandpassAttenuated: Topology = defineTopology({
   reference: `${REF}; T. Deliyannis, Electronics Letters 4(26):577-579, 1968`,
   levelCapacitor: "C1",
   levelResistor: "R1",
-  parts: [
-    { kind: "R", name: "R1", a: "in", b: "a" },
-    { kind: "R", name: "R2", a: "a", b: "0" },
-    { kind: "C", name: "C1", a: "a", b: "n" },
-    { kind: "C", name: "C2", a: "a", b: "out" },
-    { kind: "R", name: "R3", a: "n", b: "out" },
-    amp,
-  ],
+  parts: attenuatedParts,
   limits: (t) => {
     const k = Math.abs(t.gain);
     const max = 2 * q(t) * q(t);
@@ -243,6 +287,7 @@ export const mfbBandpassAttenuated: Topology = defineTopology({
   closedForm: (v, s, a) =>
     mfbKernel([complex(conductanceOf(v, "R1")), complex(conductanceOf(v, "R2")), cscale(s, valueOf(v, "C1")), cscale(s, valueOf(v, "C2")), complex(conductanceOf(v, "R3"))], a),
   closedFormFinite: true,
+  polynomials: { degree: 3, core: mfbPolynomialCore(attenuatedParts, ["R1", "R2", "C1", "C2", "R3"]) },
 });
 
 /** Every multiple-feedback topology, in registry order. */

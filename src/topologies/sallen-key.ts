@@ -44,6 +44,24 @@
  * Finite-GBW response (closed form): the amplifier is a VCVS of gain
  * `Ke = A / (1 + A beta)` (beta = R4/(R3+R4), 1 at unity), exact for the
  * single-pole model without output resistance, substituted for K above.
+ * As-built polynomials (closed form, `polynomials`), derived here from the
+ * same nodal equations with `Ke = 1/(beta + 1/A)`, `1/A = g0 + g1 z`,
+ * z = s/w, alpha = 1 - beta = R3/(R3 + R4) (0 at unity), multiplying through
+ * by `beta + 1/A`. Lowpass, with t11 = R1 C1 w, t12 = R1 C2 w, t22 = R2 C2 w,
+ * p = t11 t22, b = t11 + t12 + t22:
+ *
+ *   N = 1
+ *   D = (beta + g0) + (beta (t12 + t22) + g0 b + g1 - alpha t11) z
+ *       + ((beta + g0) p + g1 b) z^2 + g1 p z^3
+ *
+ * Highpass, with t11 = R1 C1 w, t12 = R1 C2 w, t22 = R2 C2 w, p = t11 t22:
+ * `N = p z^2` and D as above with `beta (t11 + t12) - alpha t22` in the z
+ * term. Every coefficient is a sum of positive terms except the z term of D
+ * at gain above 1, whose single subtraction is the circuit's own (the ideal
+ * `w0/Q` coefficient is that difference). Degree 3 (2 with the ideal
+ * op-amp); accuracy a few ulps per coefficient plus that difference's
+ * cancellation, the same as the closed form's.
+ *
  * GBW demand: computed numerically from that response (f0 and Q within 1 %);
  * common practice, no source, asks for GBW >= 100 K f0 (more for high Q).
  *
@@ -53,8 +71,8 @@ import { requireInRange, requirePositive } from "../validate.ts";
 import type { ComponentValues, StageChoices, StageTarget, Topology } from "./types.ts";
 import { cadd, cdiv, cmul, complex, cscale, csub, type Complex } from "../math/complex.ts";
 import { TWO_PI } from "../units/constants.ts";
-import { atLeast, defineTopology, valueOf, type PartSpec, type TopologySpec } from "./define.ts";
-import { nonInvertingGain } from "./kernels.ts";
+import { atLeast, defineTopology, partIndex, valueOf, type PartSpec, type TopologySpec } from "./define.ts";
+import { nonInvertingGain, type PolynomialCore } from "./kernels.ts";
 
 const REF =
   'R. P. Sallen & E. L. Key, IRE Trans. Circuit Theory CT-2(1):74-85, 1955; R. Schaumann & M. E. Van Valkenburg, "Design of Analog Filters", 2001, single-amplifier biquads (from memory)';
@@ -126,6 +144,37 @@ function highClosed(v: ComponentValues, s: Complex, a: Complex | null): Complex 
   den = cadd(den, cmul(cscale(s, r2 * c2), csub(complex(1), ke)));
   den = cadd(den, s2p);
   return cdiv(cmul(ke, s2p), den);
+}
+
+/**
+ * The polynomial core of a Sallen-Key stage with the given parts (see the
+ * header): `low` selects the lowpass network, `gain` the gain resistors.
+ */
+function skPolynomials(parts: readonly PartSpec[], low: boolean, gain: boolean): PolynomialCore {
+  const i = partIndex(parts);
+  const [r1, r2, c1, c2] = (["R1", "R2", "C1", "C2"] as const).map((n) => i[n] as number) as [number, number, number, number];
+  const r3 = gain ? (i["R3"] as number) : 0;
+  const r4 = gain ? (i["R4"] as number) : 0;
+  return (x, g0, g1, w, num, den) => {
+    let beta = 1;
+    let alpha = 0;
+    if (gain) {
+      const sum = (x[r3] as number) + (x[r4] as number);
+      beta = (x[r4] as number) / sum;
+      alpha = (x[r3] as number) / sum;
+    }
+    const t11 = (x[r1] as number) * (x[c1] as number) * w;
+    const t12 = (x[r1] as number) * (x[c2] as number) * w;
+    const t22 = (x[r2] as number) * (x[c2] as number) * w;
+    const p = t11 * t22;
+    const b = t11 + t12 + t22;
+    den[0] = beta + g0;
+    den[1] = (low ? beta * (t12 + t22) : beta * (t11 + t12)) + g0 * b + g1 - alpha * (low ? t11 : t22);
+    den[2] = (beta + g0) * p + g1 * b;
+    den[3] = g1 * p;
+    if (low) num[0] = 1;
+    else num[2] = p;
+  };
 }
 
 /**
@@ -247,6 +296,7 @@ function skStage(
   rules: Pick<TopologySpec, "limits" | "solve">,
 ): Topology {
   const low = kind === "lowpass";
+  const parts = [...(low ? lowPassive : highPassive), ...(form === "unity" ? follower : gainAmp)];
   return defineTopology({
     id: `sallen-key-${kind}-${form}`,
     name: `Sallen-Key ${kind}, ${FORM_NAME[form]}`,
@@ -256,12 +306,13 @@ function skStage(
     reference: REF,
     levelCapacitor: low ? "C2" : "C1",
     levelResistor: "R1",
-    parts: [...(low ? lowPassive : highPassive), ...(form === "unity" ? follower : gainAmp)],
+    parts,
     limits: rules.limits,
     solve: rules.solve,
     figures: low ? lowFigures : highFigures,
     closedForm: low ? lowClosed : highClosed,
     closedFormFinite: true,
+    polynomials: { degree: 3, core: skPolynomials(parts, low, form !== "unity") },
     ...(form === "equal" ? { fixedGain: (t: Omit<StageTarget, "gain">) => 3 - 1 / (t.q as number) } : {}),
   });
 }

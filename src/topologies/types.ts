@@ -87,6 +87,32 @@ export interface StagePlacement {
   readonly opamp: OpAmpModel;
 }
 
+/**
+ * A stage's as-built transfer function as real polynomials in the scaled
+ * variable `z = s / scale`: `H(s) = num(z) / den(z)`, descending powers
+ * (numpy's convention), the largest denominator coefficient 1.
+ */
+export interface AsBuiltPolynomials {
+  /** Numerator coefficients, descending powers of z. */
+  readonly num: Float64Array;
+  /** Denominator coefficients, descending powers of z. */
+  readonly den: Float64Array;
+  /** The scale (rad/s): z = s / scale; the stage's ideal natural frequency. */
+  readonly scale: number;
+}
+
+/**
+ * The unchecked core of {@link Topology.polynomials}: writes the stage's
+ * as-built `N(z)` and `D(z)` (z = s / scale) into `num` and `den`, descending
+ * powers, right-aligned (the constant term last; leading entries zero), the
+ * largest denominator coefficient 1. `values` holds the component values in
+ * {@link Topology.componentNames} order; `num` and `den` need at least
+ * {@link Topology.polynomialDegree} + 1 entries. Returns `scale`, or 0 when
+ * it declines (an op-amp model with an output resistance, or coefficients
+ * that overflow): then use nodal analysis. No checks, no allocation.
+ */
+export type PolynomialsInto = (values: Float64Array, opamp: OpAmpModel, scale: number, num: Float64Array, den: Float64Array) => number;
+
 /** One circuit family, as data plus functions. */
 export interface Topology {
   /** Stable identifier, kebab-case, e.g. `"sallen-key-lowpass-unity"`. */
@@ -144,4 +170,22 @@ export interface Topology {
    * Sallen-Key stage). `check` refuses any other gain.
    */
   readonly fixedGain?: (target: Omit<StageTarget, "gain">) => number;
+  /**
+   * Present when the topology has closed-form polynomials: the highest
+   * degree of its numerator and denominator with the `ideal` and
+   * `single-pole` op-amp models (2 + the op-amp count for a second-order
+   * stage; the ideal model leaves the top coefficients 0).
+   */
+  readonly polynomialDegree?: number;
+  /**
+   * Present with {@link Topology.polynomialDegree}: the as-built transfer
+   * function as real polynomials in `z = s / scale` (scale = the ideal
+   * natural frequency 2 pi f0 of these values), derived in closed form from
+   * the nodal equations with the op-amp's `A(s)`, every degree the model adds
+   * included; `null` for the `single-pole-rout` model with a non-zero output
+   * resistance (use nodal analysis there).
+   */
+  readonly polynomials?: (values: ComponentValues, opamp: OpAmpModel) => AsBuiltPolynomials | null;
+  /** Present with {@link Topology.polynomials}: its unchecked, allocation-free core for the hot path. */
+  readonly polynomialsInto?: PolynomialsInto;
 }

@@ -1,21 +1,12 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { topologies } from "../../src/topologies/registry.ts";
-import { acAnalysis } from "../../src/circuit/mna.ts";
-import type { Element, OpAmpModel } from "../../src/circuit/types.ts";
-import type { ComponentValues, Topology } from "../../src/topologies/types.ts";
+import type { OpAmpModel } from "../../src/circuit/types.ts";
+import type { Topology } from "../../src/topologies/types.ts";
+import { isBoard, mnaOf, opampOf, spreadValues } from "../helpers/stage-cases.ts";
 import { stagePolynomials } from "../../src/evaluate/stage-polynomials.ts";
 import { cascadeMagnitudeSquared, cascadeResponse } from "../../src/evaluate/cascade.ts";
 import { realisableArb } from "../topologies/arbitraries.ts";
-
-/** MNA of the topology's own elements, driven by Vin at "in", output "out": the reference. */
-function mnaOf(topo: Topology, v: ComponentValues, freqHz: Float64Array, opamp: OpAmpModel) {
-  const elements: Element[] = [
-    { kind: "V", name: "Vin", a: "in", b: "0", ac: 1 },
-    ...topo.elements(v, { input: "in", output: "out", nodePrefix: "k_", opamp }),
-  ];
-  return acAnalysis({ title: topo.id, elements }, { source: "Vin", outputs: ["out"], freqHz }).outputs["out"]!;
-}
 
 const caseArb = (topo: Topology) =>
   fc.record({
@@ -30,28 +21,17 @@ const caseArb = (topo: Topology) =>
 
 const worst: Record<string, { mag: number; deg: number }> = {};
 
-describe("stagePolynomials", () => {
+describe("stagePolynomials, generic path", () => {
   for (const topo of topologies) {
     it(`${topo.id}: polynomials agree with nodal analysis to 1e-9 dB and 1e-7 degree`, () => {
       fc.assert(
         fc.property(caseArb(topo), ({ design, spread, freqs, model, a0Log, gbwLog, rout }) => {
-          const v0 = topo.design(design.target, design.choices);
-          const v: Record<string, number> = {};
-          topo.componentNames.forEach((n, i) => {
-            v[n] = (v0[n] as number) * (spread[i % spread.length] as number);
-          });
-          // Boards only: a resistor below 1 ohm (a gain resistor for K = 1 + 1e-9) is a wire, not a part,
-          // and its 1e11 conductance spread is beyond what any double-precision nodal solution resolves.
-          fc.pre(topo.componentNames.every((n) => !n.startsWith("R") || (v[n]! >= 1 && v[n]! <= 1e9)));
+          const v = spreadValues(topo, topo.design(design.target, design.choices), spread);
+          fc.pre(isBoard(topo, v));
           const f0 = design.target.f0Hz;
-          const opamp: OpAmpModel =
-            model === "ideal"
-              ? { kind: "ideal" }
-              : model === "single-pole"
-                ? { kind: "single-pole", a0: 10 ** a0Log, gbwHz: f0 * 10 ** gbwLog }
-                : { kind: "single-pole-rout", a0: 10 ** a0Log, gbwHz: f0 * 10 ** gbwLog, routOhm: rout };
+          const opamp = opampOf(model, f0, a0Log, gbwLog, rout);
           const freqHz = Float64Array.from(freqs.map((x) => f0 * 10 ** x));
-          const p = stagePolynomials(topo, v, opamp);
+          const p = stagePolynomials(topo, v, opamp, { closedForm: false }); // the generic path (the closed forms: test/topologies/polynomials.test.ts)
           expect(p).not.toBeNull();
           const w = freqHz.map((f) => 2 * Math.PI * f);
           const h = cascadeResponse([p!], w);

@@ -1,7 +1,7 @@
 /**
  * Bad input to the topology objects: every method of every topology in the
  * registry (check, design, figures, response, elements, gbwDemandHz, and
- * fixedGain where present) is called with wrong arguments (missing, negative,
+ * fixedGain and polynomials where present) is called with wrong arguments (missing, negative,
  * zero, NaN and infinite numbers, wrong kinds, non-objects, empty arrays).
  * Each call must either throw a FilterwrightError subclass or return data
  * with no NaN and no infinity anywhere (Float64Arrays included).
@@ -160,6 +160,17 @@ describe("every topology's methods reject bad input with a typed error or return
           ...badTargets(target).map((t): [string, () => unknown] => [`target ${String(JSON.stringify(t))}`, () => topo.gbwDemandHz(t as StageTarget)]),
         ]);
       });
+
+      if (topo.polynomials !== undefined) {
+        it("polynomials", () => {
+          expectAll([
+            ["no arguments", () => (m["polynomials"] as AnyFn)()],
+            ...badValues(values).map((v): [string, () => unknown] => [`values ${String(JSON.stringify(v))}`, () => (m["polynomials"] as AnyFn)(v, GOOD_OPAMP)]),
+            ...BAD_OPAMPS.map((o): [string, () => unknown] => [`opamp ${String(JSON.stringify(o))}`, () => (m["polynomials"] as AnyFn)(values, o)]),
+            ["values 600 decades apart", () => (m["polynomials"] as AnyFn)(Object.fromEntries(Object.keys(values).map((n, i) => [n, i % 2 === 0 ? 1e-300 : 1e300])), GOOD_OPAMP)],
+          ]);
+        });
+      }
 
       if (topo.fixedGain !== undefined) {
         it("fixedGain", () => {
