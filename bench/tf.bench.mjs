@@ -1,10 +1,11 @@
-// Frequency response of an 8th-order Chebyshev type I lowpass (0.5 dB ripple,
-// cut-off 2*pi*20 kHz) at 10,000 log-spaced points from 10 Hz to 10 MHz, in
-// zpk form and as a section cascade. The poles are built inline from the
-// closed-form Chebyshev pole formula (sinh/cosh of asinh(1/eps)/n), so
-// our code and scipy evaluate exactly the same filter. The python reference
-// is scipy.signal.freqs_zpk on the same zeros/poles/gain and grid.
-import { frequencyResponse, logGrid, toSections, zpk } from "../dist/tf/index.js";
+// Frequency response and magnitude in dB of an 8th-order Chebyshev type I
+// lowpass (0.5 dB ripple, cut-off 2*pi*20 kHz) at 10,000 log-spaced points
+// from 10 Hz to 10 MHz, in zpk form and as a section cascade. The poles are
+// built inline from the closed-form Chebyshev pole formula (sinh/cosh of
+// asinh(1/eps)/n), so our code and scipy evaluate exactly the same filter.
+// The python reference is scipy.signal.freqs_zpk on the same zeros/poles/gain
+// and grid (followed by 20*log10(abs(h)) for the magnitude rows).
+import { frequencyResponse, logGrid, magnitudeDb, toSections, zpk } from "../dist/tf/index.js";
 
 const N = 8;
 const RIPPLE_DB = 0.5;
@@ -51,6 +52,26 @@ def run():
     python: `${pySetup}
 def run():
     signal.freqs_zpk(z, p, k, worN=w)
+`,
+  },
+  {
+    name: "magnitudeDb: same filter (zpk), 10,000 points",
+    fn: () => magnitudeDb(system, w),
+    referenceName: "scipy freqs_zpk + 20 log10|h|",
+    python: `${pySetup}
+def run():
+    _, h = signal.freqs_zpk(z, p, k, worN=w)
+    20 * np.log10(abs(h))
+`,
+  },
+  {
+    name: "magnitudeDb: same filter as a 4-section cascade, 10,000 points",
+    fn: () => magnitudeDb(cascade, w),
+    referenceName: "scipy freqs_zpk + 20 log10|h|",
+    python: `${pySetup}
+def run():
+    _, h = signal.freqs_zpk(z, p, k, worN=w)
+    20 * np.log10(abs(h))
 `,
   },
 ];
