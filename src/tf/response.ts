@@ -80,54 +80,49 @@ function polesOf(system: Zpk | SectionCascade): readonly Complex[] {
   return isCascade(system) ? fromSectionsUnchecked(system).poles : system.poles;
 }
 
-/** One factor of the response: a root r = -a + j b, or the exact conjugate pair r, conj(r) (then b >= 0). */
-interface Factor {
-  readonly a: number;
-  readonly b: number;
-  readonly pair: boolean;
-}
-
-/** Group exact conjugate pairs (equal real parts, opposite imaginary parts) into one factor each. */
-function factorPlan(roots: readonly Complex[]): Factor[] {
-  const used = new Uint8Array(roots.length);
-  const out: Factor[] = [];
-  for (let i = 0; i < roots.length; i++) {
-    if (used[i] === 1) continue;
-    used[i] = 1;
-    const r = roots[i] as Complex;
-    if (r.im !== 0) {
-      let j = i + 1;
-      while (j < roots.length && !(used[j] === 0 && (roots[j] as Complex).re === r.re && (roots[j] as Complex).im === -r.im)) j++;
-      if (j < roots.length) {
-        used[j] = 1;
-        out.push({ a: -r.re, b: Math.abs(r.im), pair: true });
-        continue;
-      }
-    }
-    out.push({ a: -r.re, b: r.im, pair: false });
-  }
-  return out;
-}
-
 /**
  * Factors packed into typed arrays for the point-by-point loops (one array
  * per kind, so that the loop body reads one typed array).
  */
 interface PackedFactors {
-  /** `[a^2, 2 a, b]` of each conjugate pair (b >= 0). */
+  /** `[a^2, 2 a, b]` of each conjugate pair `-a +- j b` (b >= 0). */
   readonly pairs: Float64Array;
-  /** `[a, b]` of each single root. */
+  /** `[a, b]` of each single root `-a + j b`. */
   readonly singles: Float64Array;
 }
 
+/**
+ * Pack the roots: exact conjugate pairs (equal real parts, opposite
+ * imaginary parts) become one quadratic factor each, in the order of their
+ * first member; the other roots stay single.
+ */
 function pack(roots: readonly Complex[]): PackedFactors {
-  const factors = factorPlan(roots);
-  const pairs = factors.filter((f) => f.pair);
-  const singles = factors.filter((f) => !f.pair);
-  return {
-    pairs: Float64Array.from(pairs.flatMap((f) => [f.a * f.a, 2 * f.a, f.b])),
-    singles: Float64Array.from(singles.flatMap((f) => [f.a, f.b])),
-  };
+  const n = roots.length;
+  const used = new Uint8Array(n);
+  const pairs = new Float64Array(3 * (n >> 1));
+  const singles = new Float64Array(2 * n);
+  let np = 0;
+  let ns = 0;
+  for (let i = 0; i < n; i++) {
+    if (used[i] === 1) continue;
+    used[i] = 1;
+    const r = roots[i] as Complex;
+    const a = -r.re;
+    if (r.im !== 0) {
+      let j = i + 1;
+      while (j < n && !(used[j] === 0 && (roots[j] as Complex).re === r.re && (roots[j] as Complex).im === -r.im)) j++;
+      if (j < n) {
+        used[j] = 1;
+        pairs[np++] = a * a;
+        pairs[np++] = 2 * a;
+        pairs[np++] = Math.abs(r.im);
+        continue;
+      }
+    }
+    singles[ns++] = a;
+    singles[ns++] = r.im;
+  }
+  return { pairs: pairs.subarray(0, np), singles: singles.subarray(0, ns) };
 }
 
 /** Scratch written by {@link productsAt}: `[re, im]` at the first frequency, then at the second (no allocation per point). */
@@ -233,20 +228,56 @@ export function zpkResponseUnchecked(system: Zpk, w: Float64Array): ComplexRespo
     const l = k + 1 < n ? k + 1 : k;
     const wk = w[k] as number;
     const wl = w[l] as number;
-    productsAt(zf, wk, wl);
-    const nr = acc[0] as number;
-    const ni = acc[1] as number;
-    const mr = acc[2] as number;
-    const mi = acc[3] as number;
+    // poles first: the first call site is the one the compiler inlines
     productsAt(pf, wk, wl);
     const dr = acc[0] as number;
     const di = acc[1] as number;
     const er = acc[2] as number;
     const ei = acc[3] as number;
+    productsAt(zf, wk, wl);
+    const nr = acc[0] as number;
+    const ni = acc[1] as number;
+    const mr = acc[2] as number;
+    const mi = acc[3] as number;
     if (!storeQuotient(k0, nr, ni, dr, di, outRe, outIm, k)) zpkPointByRoot(system, wk, k, outRe, outIm);
     if (l !== k && !storeQuotient(k0, mr, mi, er, ei, outRe, outIm, l)) zpkPointByRoot(system, wl, l, outRe, outIm);
   }
   return { re: outRe, im: outIm };
+}
+
+/** A zpk with its factors packed once, for repeated one-point evaluation (see {@link packedMagnitudeAt}). */
+export interface PackedZpk {
+  /** The system (for the overflow-safe path). */
+  readonly system: Zpk;
+  /** Packed zeros. */
+  readonly zeros: PackedFactors;
+  /** Packed poles. */
+  readonly poles: PackedFactors;
+}
+
+/** Pack a zpk for {@link packedMagnitudeAt} (internal core, no checks). */
+export function packZpk(system: Zpk): PackedZpk {
+  return { system, zeros: pack(system.zeros), poles: pack(system.poles) };
+}
+
+/** Scratch point for {@link packedMagnitudeAt}. */
+const oneRe = new Float64Array(1);
+const oneIm = new Float64Array(1);
+
+/**
+ * `|H(jw)|` at one frequency, no checks and no allocation: `Math.hypot` of
+ * exactly the value {@link zpkResponseUnchecked} gives at that point, for
+ * callers that bisect with one-point evaluations.
+ */
+export function packedMagnitudeAt(p: PackedZpk, w: number): number {
+  productsAt(p.poles, w, w);
+  const dr = acc[0] as number;
+  const di = acc[1] as number;
+  productsAt(p.zeros, w, w);
+  if (!storeQuotient(p.system.gain, acc[0] as number, acc[1] as number, dr, di, oneRe, oneIm, 0)) {
+    zpkPointByRoot(p.system, w, 0, oneRe, oneIm);
+  }
+  return Math.hypot(oneRe[0] as number, oneIm[0] as number);
 }
 
 /** Section coefficients packed as `[b2, b1, b0, a2, a1, a0]` per section. */

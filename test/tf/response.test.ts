@@ -6,6 +6,8 @@ import {
   magnitudeDb,
   magnitudeDbByFactorUnchecked,
   MAGNITUDE_FLOOR_DB,
+  packedMagnitudeAt,
+  packZpk,
   phase,
 } from "../../src/tf/response.ts";
 import { toSections } from "../../src/tf/sections.ts";
@@ -116,6 +118,23 @@ describe("magnitudeDb (one logarithm per point) vs the per-factor sum of logarit
     const wt = Float64Array.of(1e-200, 2e-200, 1e-180);
     expectArrayClose(magnitudeDb(tiny, wt), magnitudeDbByFactorUnchecked(tiny, wt), { rel: 0, abs: 1e-12 });
     expect(magnitudeDb(tiny, wt)[0]).toBe(MAGNITUDE_FLOOR_DB);
+  });
+});
+
+describe("packedMagnitudeAt (one-point, unchecked)", () => {
+  it("is exactly hypot of the frequencyResponse value, on the fast and the overflow-safe path", () => {
+    const poles = Array.from({ length: 30 }, (_, k) => {
+      const th = (Math.PI * (2 * k + 31)) / 60;
+      return { re: Math.cos(th), im: Math.sin(th) };
+    });
+    for (let k = 0; k < 15; k++) poles[29 - k] = { re: poles[k]!.re, im: -poles[k]!.im };
+    const systems = [...filters.map(fixtureZpk), zpk([], poles, 1)];
+    for (const h of systems) {
+      const packed = packZpk(h);
+      const w = Float64Array.of(0, 0.3, 1, 7, 1e3, 1e10);
+      const r = frequencyResponse(h, w);
+      w.forEach((x, i) => expect(packedMagnitudeAt(packed, x)).toBe(Math.hypot(r.re[i]!, r.im[i]!)));
+    }
   });
 });
 
