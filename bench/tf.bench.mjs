@@ -35,43 +35,39 @@ z, p, k = signal.lp2lp_zpk(z, p, k, wo=wc)
 w = np.logspace(np.log10(2 * np.pi * 10), np.log10(2 * np.pi * 10e6), 10000)
 `;
 
+const pyResponse = `${pySetup}
+def run():
+    signal.freqs_zpk(z, p, k, worN=w)
+`;
+const pyMagnitudeDb = `${pySetup}
+def run():
+    _, h = signal.freqs_zpk(z, p, k, worN=w)
+    20 * np.log10(abs(h))
+`;
+
 export const benchmarks = [
   {
     name: "frequencyResponse: 8th-order Chebyshev I lowpass (zpk), 10,000 log-spaced points",
     fn: () => frequencyResponse(system, w),
     referenceName: "scipy.signal.freqs_zpk",
-    python: `${pySetup}
-def run():
-    signal.freqs_zpk(z, p, k, worN=w)
-`,
+    python: pyResponse,
   },
   {
     name: "frequencyResponse: same filter as a 4-section cascade, 10,000 points",
     fn: () => frequencyResponse(cascade, w),
     referenceName: "scipy.signal.freqs_zpk",
-    python: `${pySetup}
-def run():
-    signal.freqs_zpk(z, p, k, worN=w)
-`,
+    python: pyResponse,
   },
   {
     name: "magnitudeDb: same filter (zpk), 10,000 points",
     fn: () => magnitudeDb(system, w),
     referenceName: "scipy freqs_zpk + 20 log10|h|",
-    python: `${pySetup}
-def run():
-    _, h = signal.freqs_zpk(z, p, k, worN=w)
-    20 * np.log10(abs(h))
-`,
+    python: pyMagnitudeDb,
   },
   {
     name: "magnitudeDb: same filter as a 4-section cascade, 10,000 points",
     fn: () => magnitudeDb(cascade, w),
     referenceName: "scipy freqs_zpk + 20 log10|h|",
-    python: `${pySetup}
-def run():
-    _, h = signal.freqs_zpk(z, p, k, worN=w)
-    20 * np.log10(abs(h))
-`,
+    python: pyMagnitudeDb,
   },
 ];

@@ -18,6 +18,16 @@ import { expectArrayClose, expectClose } from "../helpers/tolerance.ts";
 import { filters, fixtureZpk } from "./fixture-filters.ts";
 
 const TWO_PI = 2 * Math.PI;
+
+/** 30 poles on the unit circle at the Butterworth angles, as exact conjugate pairs. */
+function butterworth30(): Complex[] {
+  const poles = Array.from({ length: 30 }, (_, k) => {
+    const th = (Math.PI * (2 * k + 31)) / 60;
+    return { re: Math.cos(th), im: Math.sin(th) };
+  });
+  for (let k = 0; k < 15; k++) poles[29 - k] = { re: poles[k]!.re, im: -poles[k]!.im };
+  return poles;
+}
 const wrap = (x: number): number => x - TWO_PI * Math.round(x / TWO_PI);
 
 describe("frequencyResponse vs scipy.signal.freqs_zpk", () => {
@@ -103,12 +113,8 @@ describe("magnitudeDb (one logarithm per point) vs the per-factor sum of logarit
   });
 
   it("falls back to the per-factor sum where the products overflow or underflow", () => {
-    // 30 unit-circle poles (Butterworth angles): |H| ~ gain w^-30 for w >> 1
-    const poles = Array.from({ length: 30 }, (_, k) => {
-      const th = (Math.PI * (2 * k + 31)) / 60;
-      return { re: Math.cos(th), im: Math.sin(th) };
-    });
-    for (let k = 0; k < 15; k++) poles[29 - k] = { re: poles[k]!.re, im: -poles[k]!.im };
+    // |H| ~ gain w^-30 for w >> 1
+    const poles = butterworth30();
     const h = zpk([], poles, 1e200);
     const w = Float64Array.of(1e4, 1e6, 1e7);
     // 4000 - 600 log10(w) dB; |den|^2 = w^60 is in range at 1e4 and overflows at 1e6 and 1e7
@@ -123,11 +129,7 @@ describe("magnitudeDb (one logarithm per point) vs the per-factor sum of logarit
 
 describe("packedMagnitudeAt (one-point, unchecked)", () => {
   it("is exactly hypot of the frequencyResponse value, on the fast and the overflow-safe path", () => {
-    const poles = Array.from({ length: 30 }, (_, k) => {
-      const th = (Math.PI * (2 * k + 31)) / 60;
-      return { re: Math.cos(th), im: Math.sin(th) };
-    });
-    for (let k = 0; k < 15; k++) poles[29 - k] = { re: poles[k]!.re, im: -poles[k]!.im };
+    const poles = butterworth30();
     const systems = [...filters.map(fixtureZpk), zpk([], poles, 1)];
     for (const h of systems) {
       const packed = packZpk(h);
@@ -258,11 +260,7 @@ describe("extreme frequencies", () => {
 describe("frequencyResponse far above a high-order filter's band", () => {
   it("matches |H| = w^-n where the pole product overflows (the one-root-at-a-time path)", () => {
     // 30 poles on the unit circle (Butterworth angles), gain 1: |H(jw)| -> w^-30 for w >> 1
-    const poles = Array.from({ length: 30 }, (_, k) => {
-      const th = (Math.PI * (2 * k + 31)) / 60;
-      return { re: Math.cos(th), im: Math.sin(th) };
-    });
-    for (let k = 0; k < 15; k++) poles[29 - k] = { re: poles[k]!.re, im: -poles[k]!.im };
+    const poles = butterworth30();
     const h = zpk([], poles, 1);
     const w = Float64Array.of(1e6, 1e10);
     const r = frequencyResponse(h, w);
