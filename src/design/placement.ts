@@ -37,6 +37,7 @@ import {
   lowpassToHighpass,
   lowpassToLowpass,
 } from "../tf/index.ts";
+import { packedMagnitudeAt, packZpk } from "../tf/response.ts";
 import { TWO_PI } from "../units/constants.ts";
 import { geometricBisect, goldenMax } from "../math/optimize.ts";
 import type { DesignSpec } from "./spec.ts";
@@ -51,10 +52,6 @@ export function zpkMagnitude(zpk: Zpk, w: Float64Array): Float64Array {
   const out = new Float64Array(w.length);
   for (let i = 0; i < w.length; i++) out[i] = Math.hypot(h.re[i] as number, h.im[i] as number);
   return out;
-}
-
-function magAt(zpk: Zpk, w: number): number {
-  return zpkMagnitude(zpk, Float64Array.of(w))[0] as number;
 }
 
 /** The prototype frequencies up to which the passband and from which the stopband are met. */
@@ -78,9 +75,12 @@ export interface PrototypeEdges {
 export function prototypeEdges(zpk: Zpk, lossDb: number, attenuationDb: number): PrototypeEdges {
   const w = logGrid(1e-4, 1e5, 1801);
   const m = zpkMagnitude(zpk, w);
+  // one-point values for the bisections: the same numbers as zpkMagnitude, without its per-call checks
+  const packed = packZpk(zpk);
+  const magAt = (x: number): number => packedMagnitudeAt(packed, x);
   let peak = 0;
   for (let i = 0; i < m.length; i++) peak = Math.max(peak, m[i] as number);
-  peak = Math.max(peak, magAt(zpk, 0));
+  peak = Math.max(peak, magAt(0));
   const loss = (x: number): number => 20 * Math.log10(peak / x);
   // Passband: first grid point (from below) where the loss exceeds Ap.
   let ip = -1;
@@ -93,7 +93,7 @@ export function prototypeEdges(zpk: Zpk, lossDb: number, attenuationDb: number):
   let passW: number;
   if (ip <= 0) passW = ip === 0 ? (w[0] as number) : (w[w.length - 1] as number);
   else {
-    const tooLossy = (x: number): boolean => loss(magAt(zpk, x)) > lossDb + DB_SLACK;
+    const tooLossy = (x: number): boolean => loss(magAt(x)) > lossDb + DB_SLACK;
     passW = geometricBisect(tooLossy, w[ip - 1] as number, w[ip] as number, EDGE_BISECTION).lo;
   }
   // Stopband: first grid point (from above) where the attenuation falls below As.
@@ -108,7 +108,7 @@ export function prototypeEdges(zpk: Zpk, lossDb: number, attenuationDb: number):
   if (is < 0) stopW = w[0] as number;
   else if (is === m.length - 1) stopW = 1e6; // never reaches As on the grid: far beyond any usable design
   else {
-    const attenuates = (x: number): boolean => !(loss(magAt(zpk, x)) < attenuationDb - DB_SLACK);
+    const attenuates = (x: number): boolean => !(loss(magAt(x)) < attenuationDb - DB_SLACK);
     stopW = geometricBisect(attenuates, w[is] as number, w[is + 1] as number, EDGE_BISECTION).hi;
   }
   return { passW, stopW, peak };

@@ -173,17 +173,19 @@ export function requireGrid(
   else {
     throw new InvalidArgumentError({ fn, path, received: value, message: "expected a Float64Array of finite numbers" });
   }
+  const nonNegative = opts.nonNegative === true;
+  const increasing = opts.increasing === true;
   for (let i = 0; i < arr.length; i++) {
     const x = arr[i] as number;
-    if (!Number.isFinite(x) || (opts.nonNegative === true && x < 0)) {
+    if (!Number.isFinite(x) || (nonNegative && x < 0)) {
       throw new InvalidArgumentError({
         fn,
         path: `${path}[${i}]`,
         received: x,
-        message: opts.nonNegative === true ? "expected a finite number >= 0" : "expected a finite number",
+        message: nonNegative ? "expected a finite number >= 0" : "expected a finite number",
       });
     }
-    if (opts.increasing === true && i > 0 && !(x > (arr[i - 1] as number))) {
+    if (increasing && i > 0 && !(x > (arr[i - 1] as number))) {
       throw new InvalidArgumentError({ fn, path: `${path}[${i}]`, received: x, message: "expected strictly increasing values" });
     }
   }

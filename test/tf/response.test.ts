@@ -1,6 +1,15 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { frequencyResponse, groupDelay, magnitudeDb, MAGNITUDE_FLOOR_DB, phase } from "../../src/tf/response.ts";
+import {
+  frequencyResponse,
+  groupDelay,
+  magnitudeDb,
+  magnitudeDbByFactorUnchecked,
+  MAGNITUDE_FLOOR_DB,
+  packedMagnitudeAt,
+  packZpk,
+  phase,
+} from "../../src/tf/response.ts";
 import { toSections } from "../../src/tf/sections.ts";
 import { zpk } from "../../src/tf/zpk.ts";
 import type { Complex } from "../../src/math/complex.ts";
@@ -9,6 +18,16 @@ import { expectArrayClose, expectClose } from "../helpers/tolerance.ts";
 import { filters, fixtureZpk } from "./fixture-filters.ts";
 
 const TWO_PI = 2 * Math.PI;
+
+/** 30 poles on the unit circle at the Butterworth angles, as exact conjugate pairs. */
+function butterworth30(): Complex[] {
+  const poles = Array.from({ length: 30 }, (_, k) => {
+    const th = (Math.PI * (2 * k + 31)) / 60;
+    return { re: Math.cos(th), im: Math.sin(th) };
+  });
+  for (let k = 0; k < 15; k++) poles[29 - k] = { re: poles[k]!.re, im: -poles[k]!.im };
+  return poles;
+}
 const wrap = (x: number): number => x - TWO_PI * Math.round(x / TWO_PI);
 
 describe("frequencyResponse vs scipy.signal.freqs_zpk", () => {
@@ -52,6 +71,86 @@ describe("magnitudeDb vs scipy", () => {
   it("clamps an exact transmission zero to MAGNITUDE_FLOOR_DB", () => {
     const notch = zpk([{ re: 0, im: 2 }, { re: 0, im: -2 }], [{ re: -1, im: 1 }, { re: -1, im: -1 }], 1);
     expect(magnitudeDb(notch, Float64Array.of(2))[0]).toBe(MAGNITUDE_FLOOR_DB);
+  });
+});
+
+describe("magnitudeDb (one logarithm per point) vs the per-factor sum of logarithms", () => {
+  const root = fc.record({
+    re: fc.double({ min: -50, max: 50, noNaN: true }),
+    im: fc.double({ min: 0, max: 50, noNaN: true }),
+    real: fc.boolean(),
+    axis: fc.boolean(),
+  });
+  const expand = (r: { re: number; im: number; real: boolean; axis: boolean }): Complex[] => {
+    const re = r.axis ? 0 : r.re;
+    return r.real ? [{ re, im: 0 }] : [{ re, im: r.im }, { re, im: -r.im }];
+  };
+  const stable = (r: { re: number; im: number; real: boolean; axis: boolean }): Complex[] =>
+    expand({ ...r, re: -Math.max(Math.abs(r.re), 1e-3), axis: false });
+
+  it("agree to 1e-12 dB above the floor, for zpk systems and their section cascades", () => {
+    fc.assert(
+      fc.property(
+        fc.array(root, { maxLength: 5 }),
+        fc.array(root, { minLength: 1, maxLength: 6 }),
+        fc.double({ min: -3, max: 3, noNaN: true }),
+        fc.array(fc.double({ min: -200, max: 200, noNaN: true }), { minLength: 1, maxLength: 9 }),
+        (zs, ps, logGain, ws) => {
+          const h = zpk(zs.flatMap(expand), ps.flatMap(stable), 10 ** logGain);
+          const w = Float64Array.from(ws);
+          for (const system of h.zeros.length <= h.poles.length ? [h, toSections(h)] : [h]) {
+            const fast = magnitudeDb(system, w);
+            const ref = magnitudeDbByFactorUnchecked(system, w);
+            for (let i = 0; i < w.length; i++) {
+              if (ref[i]! === MAGNITUDE_FLOOR_DB) expect(fast[i]).toBe(MAGNITUDE_FLOOR_DB);
+              else expectClose(fast[i]!, ref[i]!, { rel: 0, abs: 1e-12, label: `dB at w=${w[i]}` });
+            }
+          }
+        },
+      ),
+      { numRuns: 300 },
+    );
+  });
+
+  it("falls back to the per-factor sum where the products overflow or underflow", () => {
+    // |H| ~ gain w^-30 for w >> 1
+    const poles = butterworth30();
+    const h = zpk([], poles, 1e200);
+    const w = Float64Array.of(1e4, 1e6, 1e7);
+    // 4000 - 600 log10(w) dB; |den|^2 = w^60 is in range at 1e4 and overflows at 1e6 and 1e7
+    expectArrayClose(magnitudeDb(h, w), [1600, 400, -200], { rel: 0, abs: 1e-10 });
+    // tiny roots: every factor ~1e-200, products underflow; |H| = 1e-3 |w - 1e-200 j|^2 / |w + 2e-200|^2
+    const tiny = zpk([{ re: 0, im: 1e-200 }, { re: 0, im: -1e-200 }], [{ re: -2e-200, im: 0 }, { re: -3e-200, im: 0 }], 1e-3);
+    const wt = Float64Array.of(1e-200, 2e-200, 1e-180);
+    expectArrayClose(magnitudeDb(tiny, wt), magnitudeDbByFactorUnchecked(tiny, wt), { rel: 0, abs: 1e-12 });
+    expect(magnitudeDb(tiny, wt)[0]).toBe(MAGNITUDE_FLOOR_DB);
+  });
+});
+
+describe("packedMagnitudeAt (one-point, unchecked)", () => {
+  it("is exactly hypot of the frequencyResponse value, on the fast and the overflow-safe path", () => {
+    const poles = butterworth30();
+    const systems = [...filters.map(fixtureZpk), zpk([], poles, 1)];
+    for (const h of systems) {
+      const packed = packZpk(h);
+      const w = Float64Array.of(0, 0.3, 1, 7, 1e3, 1e10);
+      const r = frequencyResponse(h, w);
+      w.forEach((x, i) => expect(packedMagnitudeAt(packed, x)).toBe(Math.hypot(r.re[i]!, r.im[i]!)));
+    }
+  });
+});
+
+describe("frequencyResponse two points per pass", () => {
+  it("gives at every point of an odd-length grid exactly the one-point value", () => {
+    const h = fixtureZpk(filters[0]!);
+    const w = Float64Array.from(filters[0]!.w.slice(0, 7));
+    for (const system of [h, toSections(h)]) {
+      const all = frequencyResponse(system, w);
+      for (let i = 0; i < w.length; i++) {
+        const one = frequencyResponse(system, w.subarray(i, i + 1));
+        expect([all.re[i], all.im[i]]).toEqual([one.re[0], one.im[0]]);
+      }
+    }
   });
 });
 
@@ -161,11 +260,7 @@ describe("extreme frequencies", () => {
 describe("frequencyResponse far above a high-order filter's band", () => {
   it("matches |H| = w^-n where the pole product overflows (the one-root-at-a-time path)", () => {
     // 30 poles on the unit circle (Butterworth angles), gain 1: |H(jw)| -> w^-30 for w >> 1
-    const poles = Array.from({ length: 30 }, (_, k) => {
-      const th = (Math.PI * (2 * k + 31)) / 60;
-      return { re: Math.cos(th), im: Math.sin(th) };
-    });
-    for (let k = 0; k < 15; k++) poles[29 - k] = { re: poles[k]!.re, im: -poles[k]!.im };
+    const poles = butterworth30();
     const h = zpk([], poles, 1);
     const w = Float64Array.of(1e6, 1e10);
     const r = frequencyResponse(h, w);
