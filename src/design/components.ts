@@ -37,6 +37,7 @@
 import { isInSeries, nextInSeries, seriesValuesInRange, snapToSeries } from "../parts/index.ts";
 import type { OpAmpModel } from "../circuit/types.ts";
 import { asBuiltPole } from "../topologies/index.ts";
+import { topologyCore } from "../topologies/define.ts";
 import type { AsBuiltPole } from "../topologies/as-built.ts";
 import type { ComponentValues, StageChoices, StageFigures, StageTarget, Topology } from "../topologies/types.ts";
 import type { DesignSpec } from "./spec.ts";
@@ -87,22 +88,37 @@ export function stageErrors(fig: StageFigures, target: StageTarget): StageErrors
   };
 }
 
+/** The ranking cost of four relative errors (f0, Q, fz, gain). */
+function cost4(f0: number, q: number, fz: number, gain: number): number {
+  const g = 0.5 * gain;
+  return Math.max(f0, q, fz, g) + 0.1 * (f0 + q + fz + g);
+}
+
 function costOf(e: StageErrors): number {
-  const g = 0.5 * e.gain;
-  return Math.max(e.f0, e.q, e.fz, g) + 0.1 * (e.f0 + e.q + e.fz + g);
+  return cost4(e.f0, e.q, e.fz, e.gain);
+}
+
+/** The cost of a set's figures against a target (the same arithmetic as `costOf(stageErrors(...))`), NaN when the figures are unusable. */
+function figuresCost(fig: StageFigures, target: StageTarget): number {
+  if (!Number.isFinite(fig.f0Hz) || !Number.isFinite(fig.gain)) return NaN;
+  const q = target.order === 2 ? rel(fig.q, target.q) : 0;
+  return cost4(rel(fig.f0Hz, target.f0Hz), q, rel(fig.fzHz, target.fzHz), rel(fig.gain, target.gain));
+}
+
+/** The ideal figures of a topology's values: its unchecked core where it has one (values in the search are always positive). */
+function figuresOf(t: Topology): (v: ComponentValues) => StageFigures {
+  return topologyCore(t)?.figures ?? t.figures;
 }
 
 function evaluate(t: Topology, values: ComponentValues, target: StageTarget): ValueSet | null {
   let fig: StageFigures;
   try {
-    fig = t.figures(values);
+    fig = figuresOf(t)(values);
   } catch {
     return null;
   }
-  if (!Number.isFinite(fig.f0Hz) || !Number.isFinite(fig.gain)) return null;
-  const errors = stageErrors(fig, target);
-  const cost = costOf(errors);
-  return Number.isFinite(cost) ? { values, figures: fig, errors, cost } : null;
+  const cost = figuresCost(fig, target);
+  return Number.isFinite(cost) ? { values, figures: fig, errors: stageErrors(fig, target), cost } : null;
 }
 
 function tryDesign(
@@ -113,7 +129,10 @@ function tryDesign(
 ): ComponentValues | null {
   try {
     if (t.check(target, choices) !== null) return null;
-    const v = t.design(target, choices);
+    // `check` has passed: the unchecked core gives what the public `design` would.
+    const core = topologyCore(t);
+    const v = core === undefined ? t.design(target, choices) : core.design(target, choices);
+    if (v === null) return null;
     for (const x of Object.values(v)) if (!(x > 0) || !Number.isFinite(x)) return null;
     if (series === undefined) return v;
     // Capacitors derived through a ratio carry floating-point dust (1.2000000000000002e-8):
@@ -250,7 +269,38 @@ function plainSnap(values: ComponentValues, spec: DesignSpec): ComponentValues {
   return out;
 }
 
-/** Jointly search preferred resistor values around an exact design. */
+/**
+ * The best `keep` value sets met so far, in ascending cost (ties in the order
+ * they were met), and the trial that costs the set of values in `work`.
+ */
+function finalists(t: Topology, target: StageTarget, work: Record<string, number>, keep: number): { found: ValueSet[]; trial: () => number } {
+  const figures = figuresOf(t);
+  const found: ValueSet[] = [];
+  /** Cost the values in `work` (NaN or Infinity when unusable) and keep them when they rank among the best `keep`. */
+  const trial = (): number => {
+    let fig: StageFigures;
+    try {
+      fig = figures(work);
+    } catch {
+      return NaN;
+    }
+    const cost = figuresCost(fig, target);
+    if (!(cost < (found.length < keep ? Infinity : (found[found.length - 1] as ValueSet).cost))) return cost;
+    const vs: ValueSet = { values: { ...work }, figures: fig, errors: stageErrors(fig, target), cost };
+    let i = found.length;
+    while (i > 0 && (found[i - 1] as ValueSet).cost > cost) i--;
+    found.splice(i, 0, vs);
+    if (found.length > keep) found.pop();
+    return cost;
+  };
+  return { found, trial };
+}
+
+/**
+ * Jointly search preferred resistor values around an exact design. One
+ * working set of values is updated in place, part by part; a set is copied
+ * only when it ranks among the best `keep`.
+ */
 function searchResistors(
   t: Topology,
   target: StageTarget,
@@ -261,82 +311,75 @@ function searchResistors(
 ): ValueSet[] {
   const names = Object.keys(exact).filter(isRes);
   const options = names.map((n) => neighbours(exact[n] as number, spec.resistorSeries, spread));
-  // Keep only the best `keep` sets (sorted by cost).
-  const found: ValueSet[] = [];
-  const push = (vs0: ValueSet | null): void => {
-    let vs = vs0;
-    if (vs === null) return;
-    if (found.length >= keep && vs.cost >= (found[found.length - 1] as ValueSet).cost) return;
-    // `make` reuses one object: keep a copy of the values that make the list.
-    vs = { ...vs, values: { ...vs.values } };
-    let i = found.length;
-    while (i > 0 && (found[i - 1] as ValueSet).cost > vs.cost) i--;
-    found.splice(i, 0, vs);
-    if (found.length > keep) found.pop();
-  };
-  // One working object, updated in place for every trial (no allocation per trial).
   const work: Record<string, number> = { ...exact };
-  const make = (idx: readonly number[]): Record<string, number> => {
-    for (let i = 0; i < names.length; i++) work[names[i] as string] = (options[i] as number[])[idx[i] as number] as number;
-    return work;
-  };
+  const { found, trial } = finalists(t, target, work, keep);
   const total = options.reduce((p, o) => p * o.length, 1);
+  const idx = names.map(() => 0);
   if (total <= 1024) {
-    const idx = names.map(() => 0);
+    // Every combination, the first resistor's choice changing fastest.
+    names.forEach((n, i) => (work[n] = (options[i] as number[])[0] as number));
     for (let count = 0; count < total; count++) {
-      push(evaluate(t, make(idx), target));
+      trial();
       for (let i = 0; i < idx.length; i++) {
+        const o = options[i] as number[];
         idx[i] = (idx[i] as number) + 1;
-        if ((idx[i] as number) < (options[i] as number[]).length) break;
+        if ((idx[i] as number) < o.length) {
+          work[names[i] as string] = o[idx[i] as number] as number;
+          break;
+        }
         idx[i] = 0;
+        work[names[i] as string] = o[0] as number;
       }
     }
-  } else {
-    // Pairwise coordinate descent from the nearest values: every pair of
-    // resistors tries all its combinations with the others held, until a
-    // sweep improves nothing (single-part descent stalls where f0 and Q
-    // depend on ratios of two parts).
-    const idx = names.map((n, i) => {
-      const o = options[i] as number[];
-      const x = exact[n] as number;
-      let bi = 0;
-      o.forEach((v, j) => {
-        if (Math.abs(Math.log(v / x)) < Math.abs(Math.log((o[bi] as number) / x))) bi = j;
-      });
-      return bi;
+    return found;
+  }
+  // Pairwise coordinate descent from the nearest values: every pair of
+  // resistors tries all its combinations with the others held, until a
+  // sweep improves nothing (single-part descent stalls where f0 and Q
+  // depend on ratios of two parts).
+  names.forEach((n, i) => {
+    const o = options[i] as number[];
+    const x = exact[n] as number;
+    let bi = 0;
+    o.forEach((v, j) => {
+      if (Math.abs(Math.log(v / x)) < Math.abs(Math.log((o[bi] as number) / x))) bi = j;
     });
-    let cur = evaluate(t, make(idx), target);
-    push(cur);
-    for (let sweep = 0; sweep < 4; sweep++) {
-      let improved = false;
-      for (let i = 0; i < idx.length; i++) {
-        for (let k = i + 1; k < idx.length; k++) {
-          const oi = options[i] as number[];
-          const ok = options[k] as number[];
-          let bestI = idx[i] as number;
-          let bestK = idx[k] as number;
-          for (let a = 0; a < oi.length; a++) {
-            for (let b = 0; b < ok.length; b++) {
-              if (a === idx[i] && b === idx[k]) continue;
-              const trial = [...idx];
-              trial[i] = a;
-              trial[k] = b;
-              const vs = evaluate(t, make(trial), target);
-              push(vs);
-              if (vs !== null && (cur === null || vs.cost < cur.cost)) {
-                cur = vs;
-                bestI = a;
-                bestK = b;
-                improved = true;
-              }
+    idx[i] = bi;
+    work[n] = o[bi] as number;
+  });
+  let cur = trial();
+  if (!Number.isFinite(cur)) cur = Infinity;
+  for (let sweep = 0; sweep < 4; sweep++) {
+    let improved = false;
+    for (let i = 0; i < idx.length; i++) {
+      for (let k = i + 1; k < idx.length; k++) {
+        const ni = names[i] as string;
+        const nk = names[k] as string;
+        const oi = options[i] as number[];
+        const ok = options[k] as number[];
+        let bestI = idx[i] as number;
+        let bestK = idx[k] as number;
+        for (let a = 0; a < oi.length; a++) {
+          work[ni] = oi[a] as number;
+          for (let b = 0; b < ok.length; b++) {
+            if (a === idx[i] && b === idx[k]) continue;
+            work[nk] = ok[b] as number;
+            const cost = trial();
+            if (cost < cur) {
+              cur = cost;
+              bestI = a;
+              bestK = b;
+              improved = true;
             }
           }
-          idx[i] = bestI;
-          idx[k] = bestK;
         }
+        idx[i] = bestI;
+        idx[k] = bestK;
+        work[ni] = oi[bestI] as number;
+        work[nk] = ok[bestK] as number;
       }
-      if (!improved) break;
     }
+    if (!improved) break;
   }
   return found;
 }

@@ -305,6 +305,54 @@ export function stageCircuit(spec: TopologySpec, v: ComponentValues, opamp: OpAm
 }
 
 /**
+ * The unchecked numeric core of a topology built by {@link defineTopology},
+ * for inner loops (the component search) that have already checked their
+ * inputs: no argument checks, no error objects, no strings.
+ *
+ * @internal
+ */
+export interface TopologyCore {
+  /**
+   * Ideal figures of a set of values that holds every component of the
+   * topology, each finite and positive (the public `figures` without its check).
+   */
+  readonly figures: (v: ComponentValues) => StageFigures;
+  /**
+   * Values that realise a target the topology's `check` accepts with these
+   * choices (the public `design` without its checks), or null where the
+   * design equations give a part that is not finite and positive.
+   */
+  readonly design: (t: StageTarget, c: StageChoices) => ComponentValues | null;
+}
+
+const cores = new WeakMap<Topology, TopologyCore>();
+
+/**
+ * The unchecked core of a topology built by {@link defineTopology}.
+ *
+ * @param t - a topology
+ * @returns its core, or undefined for a topology made some other way (use its public methods then)
+ * @throws never
+ * @example
+ * ```ts
+ * topologyCore(getTopology("mfb-lowpass"))?.figures({ R1: 1e4, R2: 1e4, R3: 1e4, C1: 1e-8, C2: 1e-9 }).f0Hz; //=> 5032.92...
+ * ```
+ * @internal
+ */
+export function topologyCore(t: Topology): TopologyCore | undefined {
+  return cores.get(t);
+}
+
+/** The first of `names` whose value is missing, not finite or not positive. */
+function firstUnusable(v: ComponentValues, names: readonly string[]): string | undefined {
+  for (const n of names) {
+    const x = v[n];
+    if (x === undefined || !Number.isFinite(x) || x <= 0) return n;
+  }
+  return undefined;
+}
+
+/**
  * Build a {@link Topology} from a specification: adds argument checks, the
  * realisable-range check, impedance-level scaling, element placement,
  * response evaluation and the GBW demand.
@@ -337,16 +385,14 @@ export function defineTopology(spec: TopologySpec): Topology {
     const why = reason(fn, t, c);
     if (why !== null) throw new UnrealisableError({ fn, path: "target", received: t, message: why });
     const v = scaleToLevel(spec, spec.solve(t, c), c);
-    for (const n of componentNames) {
-      const x = v[n];
-      if (x === undefined || !Number.isFinite(x) || x <= 0) {
-        throw new UnrealisableError({
-          fn,
-          path: `values.${n}`,
-          received: x,
-          message: "the design equations gave no usable value for this part (the target lies at the edge of the range); move Q, gain or the ratios slightly",
-        });
-      }
+    const n = firstUnusable(v, componentNames);
+    if (n !== undefined) {
+      throw new UnrealisableError({
+        fn,
+        path: `values.${n}`,
+        received: v[n],
+        message: "the design equations gave no usable value for this part (the target lies at the edge of the range); move Q, gain or the ratios slightly",
+      });
     }
     return v;
   };
@@ -421,7 +467,15 @@ export function defineTopology(spec: TopologySpec): Topology {
     gbwDemandHz,
     ...(fixedGain === undefined ? {} : { fixedGain }),
   };
-  return Object.freeze(topo);
+  Object.freeze(topo);
+  cores.set(topo, {
+    figures: spec.figures,
+    design: (t, c) => {
+      const v = scaleToLevel(spec, spec.solve(t, c), c);
+      return firstUnusable(v, componentNames) === undefined ? v : null;
+    },
+  });
+  return topo;
 }
 
 /**
