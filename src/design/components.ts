@@ -270,23 +270,78 @@ function plainSnap(values: ComponentValues, spec: DesignSpec): ComponentValues {
 }
 
 /**
- * The best `keep` value sets met so far, in ascending cost (ties in the order
- * they were met), and the trial that costs the set of values in `work`.
+ * The working set of a search: every part's value in one array, in the order
+ * of the exact design's keys, and the figures of whatever the array holds
+ * (the topology's indexed kernel where the keys are its components in
+ * order, else its figures of a record filled from the array).
  */
-function finalists(t: Topology, target: StageTarget, work: Record<string, number>, keep: number): { found: ValueSet[]; trial: () => number } {
-  const figures = figuresOf(t);
+interface Workspace {
+  readonly keys: readonly string[];
+  readonly x: Float64Array;
+  readonly figures: () => StageFigures;
+  /** The pole frequency alone (the bits of `figures().f0Hz`), where the topology has a cheaper way to it. */
+  readonly f0Hz?: () => number;
+}
+
+function workspace(t: Topology, exact: ComponentValues): Workspace {
+  const keys = Object.keys(exact);
+  const x = Float64Array.from(keys, (k) => exact[k] as number);
+  const core = topologyCore(t);
+  if (core !== undefined && keys.length === t.componentNames.length && keys.every((k, i) => k === t.componentNames[i])) {
+    const kernel = core.figuresAt;
+    const f0At = core.f0At;
+    return { keys, x, figures: () => kernel(x), ...(f0At === undefined ? {} : { f0Hz: () => f0At(x) }) };
+  }
+  const named = figuresOf(t);
+  const record: Record<string, number> = { ...exact };
+  return {
+    keys,
+    x,
+    figures: () => {
+      for (let i = 0; i < keys.length; i++) record[keys[i] as string] = x[i] as number;
+      return named(record);
+    },
+  };
+}
+
+/** The values the workspace holds, as a fresh record keyed like the exact design. */
+function valuesOf(w: Workspace): ComponentValues {
+  const out: Record<string, number> = {};
+  for (let i = 0; i < w.keys.length; i++) out[w.keys[i] as string] = w.x[i] as number;
+  return out;
+}
+
+/**
+ * The best `keep` value sets met so far, in ascending cost (ties in the order
+ * they were met), and the trial that costs the values the workspace holds.
+ *
+ * Pruning (branch and bound on the f0 error; exact): every error term is
+ * non-negative, so a set's cost is at least `e + 0.1 e` with `e` its relative
+ * f0 error, in floating point too (rounded addition, multiplication and max
+ * are monotone). Once `keep` sets are held, a trial whose bound already
+ * reaches the worst of them is refused without computing its other figures:
+ * it could neither enter the list nor (the list holding the best set met)
+ * beat the best, so the search goes on exactly as if it had been costed. A
+ * refused trial reports Infinity.
+ */
+function finalists(w: Workspace, target: StageTarget, keep: number): { found: ValueSet[]; trial: () => number } {
   const found: ValueSet[] = [];
-  /** Cost the values in `work` (NaN or Infinity when unusable) and keep them when they rank among the best `keep`. */
+  const f0Hz = w.f0Hz;
+  /** Cost the values in the workspace (NaN or Infinity when unusable or refused) and keep them when they rank among the best `keep`. */
   const trial = (): number => {
+    if (f0Hz !== undefined && found.length >= keep) {
+      const e = rel(f0Hz(), target.f0Hz);
+      if (e + 0.1 * e >= (found[found.length - 1] as ValueSet).cost) return Infinity;
+    }
     let fig: StageFigures;
     try {
-      fig = figures(work);
+      fig = w.figures();
     } catch {
       return NaN;
     }
     const cost = figuresCost(fig, target);
     if (!(cost < (found.length < keep ? Infinity : (found[found.length - 1] as ValueSet).cost))) return cost;
-    const vs: ValueSet = { values: { ...work }, figures: fig, errors: stageErrors(fig, target), cost };
+    const vs: ValueSet = { values: valuesOf(w), figures: fig, errors: stageErrors(fig, target), cost };
     let i = found.length;
     while (i > 0 && (found[i - 1] as ValueSet).cost > cost) i--;
     found.splice(i, 0, vs);
@@ -298,8 +353,8 @@ function finalists(t: Topology, target: StageTarget, work: Record<string, number
 
 /**
  * Jointly search preferred resistor values around an exact design. One
- * working set of values is updated in place, part by part; a set is copied
- * only when it ranks among the best `keep`.
+ * working array of values is updated in place, part by part; a set is copied
+ * out only when it ranks among the best `keep`.
  */
 function searchResistors(
   t: Topology,
@@ -309,26 +364,27 @@ function searchResistors(
   spread: number,
   keep: number,
 ): ValueSet[] {
-  const names = Object.keys(exact).filter(isRes);
-  const options = names.map((n) => neighbours(exact[n] as number, spec.resistorSeries, spread));
-  const work: Record<string, number> = { ...exact };
-  const { found, trial } = finalists(t, target, work, keep);
+  const w = workspace(t, exact);
+  const x = w.x;
+  const slots = w.keys.flatMap((k, i) => (isRes(k) ? [i] : []));
+  const options = slots.map((i) => neighbours(x[i] as number, spec.resistorSeries, spread));
+  const { found, trial } = finalists(w, target, keep);
   const total = options.reduce((p, o) => p * o.length, 1);
-  const idx = names.map(() => 0);
+  const idx = slots.map(() => 0);
   if (total <= 1024) {
     // Every combination, the first resistor's choice changing fastest.
-    names.forEach((n, i) => (work[n] = (options[i] as number[])[0] as number));
+    slots.forEach((s, i) => (x[s] = (options[i] as number[])[0] as number));
     for (let count = 0; count < total; count++) {
       trial();
       for (let i = 0; i < idx.length; i++) {
         const o = options[i] as number[];
         idx[i] = (idx[i] as number) + 1;
         if ((idx[i] as number) < o.length) {
-          work[names[i] as string] = o[idx[i] as number] as number;
+          x[slots[i] as number] = o[idx[i] as number] as number;
           break;
         }
         idx[i] = 0;
-        work[names[i] as string] = o[0] as number;
+        x[slots[i] as number] = o[0] as number;
       }
     }
     return found;
@@ -337,15 +393,15 @@ function searchResistors(
   // resistors tries all its combinations with the others held, until a
   // sweep improves nothing (single-part descent stalls where f0 and Q
   // depend on ratios of two parts).
-  names.forEach((n, i) => {
+  slots.forEach((s, i) => {
     const o = options[i] as number[];
-    const x = exact[n] as number;
+    const v0 = exact[w.keys[s] as string] as number;
     let bi = 0;
     o.forEach((v, j) => {
-      if (Math.abs(Math.log(v / x)) < Math.abs(Math.log((o[bi] as number) / x))) bi = j;
+      if (Math.abs(Math.log(v / v0)) < Math.abs(Math.log((o[bi] as number) / v0))) bi = j;
     });
     idx[i] = bi;
-    work[n] = o[bi] as number;
+    x[s] = o[bi] as number;
   });
   let cur = trial();
   if (!Number.isFinite(cur)) cur = Infinity;
@@ -353,17 +409,17 @@ function searchResistors(
     let improved = false;
     for (let i = 0; i < idx.length; i++) {
       for (let k = i + 1; k < idx.length; k++) {
-        const ni = names[i] as string;
-        const nk = names[k] as string;
+        const si = slots[i] as number;
+        const sk = slots[k] as number;
         const oi = options[i] as number[];
         const ok = options[k] as number[];
         let bestI = idx[i] as number;
         let bestK = idx[k] as number;
         for (let a = 0; a < oi.length; a++) {
-          work[ni] = oi[a] as number;
+          x[si] = oi[a] as number;
           for (let b = 0; b < ok.length; b++) {
             if (a === idx[i] && b === idx[k]) continue;
-            work[nk] = ok[b] as number;
+            x[sk] = ok[b] as number;
             const cost = trial();
             if (cost < cur) {
               cur = cost;
@@ -375,8 +431,8 @@ function searchResistors(
         }
         idx[i] = bestI;
         idx[k] = bestK;
-        work[ni] = oi[bestI] as number;
-        work[nk] = ok[bestK] as number;
+        x[si] = oi[bestI] as number;
+        x[sk] = ok[bestK] as number;
       }
     }
     if (!improved) break;
