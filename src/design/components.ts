@@ -192,7 +192,22 @@ function capacitorCandidates(
   return out.slice(0, Math.min(keep, Math.max(inside === 0 ? 8 : 3, inside)));
 }
 
-function neighbours(x: number, series: DesignSpec["resistorSeries"], spread: number): number[] {
+/**
+ * The preferred values around `x`: the two that bracket it (one when it is
+ * a preferred value) and `spread - 1` more on each side, ascending.
+ *
+ * @param x - a part value
+ * @param series - the preferred-value series
+ * @param spread - values on each side
+ * @returns the values
+ * @throws never
+ * @example
+ * ```ts
+ * neighbours(4800, E24, 2); //=> [4300, 4700, 5100, 5600]
+ * ```
+ * @internal
+ */
+export function neighbours(x: number, series: DesignSpec["resistorSeries"], spread: number): number[] {
   const down1 = isInSeries(x, series) ? x : snapToSeries(x, { series, mode: "down" }).value;
   const up1 = isInSeries(x, series) ? x : snapToSeries(x, { series, mode: "up" }).value;
   const set = new Set<number>([down1, up1]);
@@ -352,11 +367,28 @@ function finalists(w: Workspace, target: StageTarget, keep: number): { found: Va
 }
 
 /**
- * Jointly search preferred resistor values around an exact design. One
- * working array of values is updated in place, part by part; a set is copied
- * out only when it ranks among the best `keep`.
+ * Jointly search preferred resistor values around an exact design: every
+ * combination of each resistor's {@link neighbours} when there are at most
+ * 1024, else pairwise coordinate descent from the nearest values. One working
+ * array of values is updated in place, part by part; a set is copied out only
+ * when it ranks among the best `keep`; trials are pruned by the f0 bound of
+ * `finalists` (exactly: the result is that of costing every trial).
+ *
+ * @param t - topology
+ * @param target - what the figures are scored against
+ * @param exact - the exact design (resistors off-series, capacitors as they are)
+ * @param spec - canonical spec (the resistor series)
+ * @param spread - preferred values tried on each side of every resistor
+ * @param keep - sets returned
+ * @returns the best `keep` sets met, ascending cost (ties in the order met)
+ * @throws never
+ * @example
+ * ```ts
+ * searchResistors(mfb, target, mfb.design(target, { capacitor: 1e-8 }), spec, 2, 6)[0].cost; //=> 0.0021...
+ * ```
+ * @internal
  */
-function searchResistors(
+export function searchResistors(
   t: Topology,
   target: StageTarget,
   exact: ComponentValues,

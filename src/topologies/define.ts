@@ -151,6 +151,42 @@ export interface IndexedFigures {
 }
 
 /**
+ * The indices (in component order) of the parts a shared piece of a family's
+ * equations reads, typed by name, and a packer that puts named values into
+ * one reused array in that order (for the closed forms that still take
+ * named values; synchronous, so one array serves every call).
+ *
+ * @param parts - the parts every member of the family starts with
+ * @param names - the designators wanted
+ * @returns `at` (index by name) and `pack`
+ * @throws Error when a name is not among the parts (a mistake in the topology file)
+ * @example
+ * ```ts
+ * const { at, pack } = loopIndex(parts, ["R1", "C1"]);
+ * pack({ R1: 1e3, C1: 1e-6 })[at.C1]; //=> 0.000001
+ * ```
+ */
+export function loopIndex<K extends string>(
+  parts: readonly PartSpec[],
+  names: readonly K[],
+): { readonly at: Readonly<Record<K, number>>; readonly pack: (v: ComponentValues) => Float64Array } {
+  const index = partIndex(parts);
+  const all = Object.keys(index);
+  const at = {} as Record<K, number>;
+  for (const n of names) {
+    const i = index[n];
+    if (i === undefined) throw new Error(`loopIndex: no part named ${n}`);
+    at[n] = i;
+  }
+  const x = new Float64Array(all.length);
+  const pack = (v: ComponentValues): Float64Array => {
+    for (let i = 0; i < all.length; i++) x[i] = v[all[i] as string] as number;
+    return x;
+  };
+  return { at: Object.freeze(at), pack };
+}
+
+/**
  * A topology's ideal figures written once, on the values in component order:
  * `make` receives the index of each designator and returns the kernel (and,
  * where cheaper, the pole frequency alone, computed by the same code the

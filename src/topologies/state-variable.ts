@@ -54,7 +54,7 @@
 import type { ComponentValues, StageFigures, StageTarget, Topology } from "./types.ts";
 import { cadd, cdiv, cmul, complex, cscale, csub, type Complex } from "../math/complex.ts";
 import { TWO_PI } from "../units/constants.ts";
-import { defineTopology, indexedFigures, partIndex, withOutputAt, valueOf, conductanceOf, type PartSpec } from "./define.ts";
+import { defineTopology, indexedFigures, loopIndex, withOutputAt, valueOf, conductanceOf, type PartSpec } from "./define.ts";
 import { invertingGain, summer } from "./kernels.ts";
 
 const REF =
@@ -90,17 +90,8 @@ interface Core {
 }
 
 /** Where R1-R7, C1 and C2 sit in every state-variable stage's values (their parts lists all start with the loop's twelve). */
-const AT = partIndex(core.slice(0, 12));
-const LOOP = Object.keys(AT);
-const R1 = AT["R1"] as number;
-const R2 = AT["R2"] as number;
-const R3 = AT["R3"] as number;
-const R4 = AT["R4"] as number;
-const R5 = AT["R5"] as number;
-const R6 = AT["R6"] as number;
-const R7 = AT["R7"] as number;
-const C1 = AT["C1"] as number;
-const C2 = AT["C2"] as number;
+const LOOP = loopIndex(core.slice(0, 12), ["R1", "R2", "R3", "R4", "R5", "R6", "R7", "C1", "C2"]);
+const { R1, R2, R3, R4, R5, R6, R7, C1, C2 } = LOOP.at;
 
 /** The pole frequency (rad/s) from the values in component order. */
 function w0At(x: Float64Array): number {
@@ -123,12 +114,9 @@ function coreAt(x: Float64Array): Core {
   return { w0, q: w0 / damp, tau1, tau2, h0: r2 / (x[R1] as number), damp };
 }
 
-const scratch = new Float64Array(LOOP.length);
-
-/** {@link coreAt} of named values (packed into one reused array). */
+/** {@link coreAt} of named values. */
 function coreOf(v: ComponentValues): Core {
-  for (let i = 0; i < LOOP.length; i++) scratch[i] = v[LOOP[i] as string] as number;
-  return coreAt(scratch);
+  return coreAt(LOOP.pack(v));
 }
 
 /**

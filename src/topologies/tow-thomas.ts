@@ -48,7 +48,7 @@
 import type { ComponentValues, StageFigures, StageKind, StageTarget, Topology } from "./types.ts";
 import { cadd, cdiv, cmul, complex, cscale, type Complex } from "../math/complex.ts";
 import { TWO_PI } from "../units/constants.ts";
-import { defineTopology, indexedFigures, partIndex, withOutputAt, valueOf, conductanceOf, type PartSpec } from "./define.ts";
+import { defineTopology, indexedFigures, loopIndex, withOutputAt, valueOf, conductanceOf, type PartSpec } from "./define.ts";
 import { invertingGain, summer } from "./kernels.ts";
 
 const REF =
@@ -84,28 +84,17 @@ function parts(variant: Variant): PartSpec[] {
 }
 
 /** Where the loop's parts (R1-R6, C1, C2) sit in every Tow-Thomas stage's values (their parts lists all start with the loop's eleven). */
-const AT = partIndex(core.slice(0, 11));
-const LOOP = Object.keys(AT);
-const R1 = AT["R1"] as number;
-const R2 = AT["R2"] as number;
-const R3 = AT["R3"] as number;
-const R4 = AT["R4"] as number;
-const R5 = AT["R5"] as number;
-const R6 = AT["R6"] as number;
-const C1 = AT["C1"] as number;
-const C2 = AT["C2"] as number;
+const LOOP = loopIndex(core.slice(0, 11), ["R1", "R2", "R3", "R4", "R5", "R6", "C1", "C2"]);
+const { R1, R2, R3, R4, R5, R6, C1, C2 } = LOOP.at;
 
 /** The pole frequency squared, w0^2 = R6 / (R3 R4 R5 C1 C2), from the values in component order. */
 function w0SqAt(x: Float64Array): number {
   return (x[R6] as number) / ((x[R3] as number) * (x[R4] as number) * (x[R5] as number) * (x[C1] as number) * (x[C2] as number));
 }
 
-const scratch = new Float64Array(LOOP.length);
-
-/** {@link w0SqAt} of named values (packed into one reused array). */
+/** {@link w0SqAt} of named values. */
 function w0Sq(v: ComponentValues): number {
-  for (let i = 0; i < LOOP.length; i++) scratch[i] = v[LOOP[i] as string] as number;
-  return w0SqAt(scratch);
+  return w0SqAt(LOOP.pack(v));
 }
 
 /** `1 / (R1 R4 C1 C2)` from the values in component order. */
