@@ -112,6 +112,15 @@ export interface TopologySpec {
   readonly solve: (t: StageTarget, c: StageChoices) => Record<string, number>;
   /** Ideal figures from values. */
   readonly figures: (v: ComponentValues) => StageFigures;
+  /**
+   * The same figures from the values in component order (the parts without
+   * the op-amps, see {@link partIndex}), unchecked, for inner loops; write
+   * both at once with {@link indexedFigures}. Without it the framework fills
+   * a record and calls `figures`.
+   */
+  readonly figuresAt?: FiguresKernel;
+  /** The pole frequency alone (Hz) from the values in component order, the same bits as `figuresAt(x).f0Hz`, where it costs less (it bounds the search's error early). */
+  readonly f0At?: (x: Float64Array) => number;
   /** Closed-form response. */
   readonly closedForm: ClosedForm;
   /** Whether `closedForm` handles a finite op-amp gain (else only `a = null`; MNA is used otherwise). */
@@ -211,6 +220,121 @@ function withoutLeadingZeros(a: Float64Array): Float64Array {
   let first = 0;
   while (first < a.length - 1 && a[first] === 0) first++;
   return a.slice(first);
+}
+
+/** Ideal figures from the values of a stage in component order (unchecked). */
+export type FiguresKernel = (x: Float64Array) => StageFigures;
+
+/**
+ * Where each part's value sits in a values array in component order (the
+ * parts without the op-amps).
+ *
+ * @param parts - the stage's parts
+ * @returns the index of each component by designator
+ * @throws never
+ * @example
+ * ```ts
+ * partIndex([{ kind: "R", name: "R1", a: "in", b: "a" }, { kind: "C", name: "C1", a: "a", b: "0" }]);
+ * //=> { R1: 0, C1: 1 }
+ * ```
+ */
+export function partIndex(parts: readonly PartSpec[]): Readonly<Record<string, number>> {
+  const out: Record<string, number> = {};
+  let i = 0;
+  for (const p of parts) if (p.kind !== "OA") out[p.name] = i++;
+  return Object.freeze(out);
+}
+
+/** What {@link indexedFigures} builds from a topology's kernels. */
+export interface IndexedFigures {
+  /** The named figures the spec needs (values packed into an array, then the kernel). */
+  readonly figures: (v: ComponentValues) => StageFigures;
+  /** The kernel. */
+  readonly figuresAt: FiguresKernel;
+  /** The pole frequency alone, when given. */
+  readonly f0At?: (x: Float64Array) => number;
+}
+
+/**
+ * The indices (in component order) of the parts a shared piece of a family's
+ * equations reads, typed by name, and a packer that puts named values into
+ * one reused array in that order (for the closed forms that still take
+ * named values; synchronous, so one array serves every call).
+ *
+ * @param parts - the parts every member of the family starts with
+ * @param names - the designators wanted
+ * @returns `at` (index by name) and `pack`
+ * @throws Error when a name is not among the parts (a mistake in the topology file)
+ * @example
+ * ```ts
+ * const { at, pack } = loopIndex(parts, ["R1", "C1"]);
+ * pack({ R1: 1e3, C1: 1e-6 })[at.C1]; //=> 0.000001
+ * ```
+ */
+export function loopIndex<K extends string>(
+  parts: readonly PartSpec[],
+  names: readonly K[],
+): { readonly at: Readonly<Record<K, number>>; readonly pack: (v: ComponentValues) => Float64Array } {
+  const index = partIndex(parts);
+  const all = Object.keys(index);
+  const at = {} as Record<K, number>;
+  for (const n of names) {
+    const i = index[n];
+    if (i === undefined) throw new Error(`loopIndex: no part named ${n}`);
+    at[n] = i;
+  }
+  const x = new Float64Array(all.length);
+  const pack = (v: ComponentValues): Float64Array => {
+    for (let i = 0; i < all.length; i++) x[i] = v[all[i] as string] as number;
+    return x;
+  };
+  return { at: Object.freeze(at), pack };
+}
+
+/**
+ * A topology's ideal figures written once, on the values in component order:
+ * `make` receives the index of each designator and returns the kernel (and,
+ * where cheaper, the pole frequency alone, computed by the same code the
+ * kernel uses); the named `figures` of the spec packs its values and calls
+ * that kernel, so both give the same bits.
+ *
+ * @param parts - the stage's parts
+ * @param make - builds the kernels from `at(name)`, the index of a part (throws for a name the parts lack)
+ * @returns the spec's `figures`, `figuresAt` and `f0At`
+ * @throws Error when `make` asks for a part the stage does not have (a mistake in the topology file)
+ * @example
+ * ```ts
+ * const f = indexedFigures(parts, (at) => { const r = at("R1"), c = at("C1"); return { figures: (x) => ({ f0Hz: 1 / (TWO_PI * x[r] * x[c]), gain: 1 }) }; });
+ * f.figures({ R1: 1e3, C1: 1e-6 }).f0Hz; //=> 159.15494309189535
+ * ```
+ */
+export function indexedFigures(
+  parts: readonly PartSpec[],
+  make: (at: (name: string) => number) => { readonly figures: FiguresKernel; readonly f0Hz?: (x: Float64Array) => number },
+): IndexedFigures {
+  const index = partIndex(parts);
+  const names = Object.keys(index);
+  const kernels = make((name) => {
+    const i = index[name];
+    if (i === undefined) throw new Error(`indexedFigures: no part named ${name}`);
+    return i;
+  });
+  const figuresAt = kernels.figures;
+  const x = new Float64Array(names.length);
+  const figures = (v: ComponentValues): StageFigures => {
+    for (let i = 0; i < names.length; i++) x[i] = v[names[i] as string] as number;
+    return figuresAt(x);
+  };
+  return kernels.f0Hz === undefined ? { figures, figuresAt } : { figures, figuresAt, f0At: kernels.f0Hz };
+}
+
+/** The kernel of a spec without one: its values in a record (one, reused) handed to its named `figures`. */
+function recordFigures(spec: TopologySpec, names: readonly string[]): FiguresKernel {
+  const record: Record<string, number> = {};
+  return (x) => {
+    for (let i = 0; i < names.length; i++) record[names[i] as string] = x[i] as number;
+    return spec.figures(record);
+  };
 }
 
 function bad(fn: string, path: string, received: unknown, message: string): never {
@@ -410,6 +534,58 @@ export function stageCircuit(spec: TopologySpec, v: ComponentValues, opamp: OpAm
 }
 
 /**
+ * The unchecked numeric core of a topology built by {@link defineTopology},
+ * for inner loops (the component search) that have already checked their
+ * inputs: no argument checks, no error objects, no strings.
+ *
+ * @internal
+ */
+export interface TopologyCore {
+  /**
+   * Ideal figures of a set of values that holds every component of the
+   * topology, each finite and positive (the public `figures` without its check).
+   */
+  readonly figures: (v: ComponentValues) => StageFigures;
+  /** The same from the values in the order of `componentNames` (a kernel that reads no part by name where the topology has one). */
+  readonly figuresAt: FiguresKernel;
+  /** The pole frequency alone from the same array (the bits of `figuresAt(x).f0Hz`), where the topology has a cheaper way to it. */
+  readonly f0At?: (x: Float64Array) => number;
+  /**
+   * Values that realise a target the topology's `check` accepts with these
+   * choices (the public `design` without its checks), or null where the
+   * design equations give a part that is not finite and positive.
+   */
+  readonly design: (t: StageTarget, c: StageChoices) => ComponentValues | null;
+}
+
+const cores = new WeakMap<Topology, TopologyCore>();
+
+/**
+ * The unchecked core of a topology built by {@link defineTopology}.
+ *
+ * @param t - a topology
+ * @returns its core, or undefined for a topology made some other way (use its public methods then)
+ * @throws never
+ * @example
+ * ```ts
+ * topologyCore(getTopology("mfb-lowpass"))?.figures({ R1: 1e4, R2: 1e4, R3: 1e4, C1: 1e-8, C2: 1e-9 }).f0Hz; //=> 5032.92...
+ * ```
+ * @internal
+ */
+export function topologyCore(t: Topology): TopologyCore | undefined {
+  return cores.get(t);
+}
+
+/** The first of `names` whose value is missing, not finite or not positive. */
+function firstUnusable(v: ComponentValues, names: readonly string[]): string | undefined {
+  for (const n of names) {
+    const x = v[n];
+    if (x === undefined || !Number.isFinite(x) || x <= 0) return n;
+  }
+  return undefined;
+}
+
+/**
  * Build a {@link Topology} from a specification: adds argument checks, the
  * realisable-range check, impedance-level scaling, element placement,
  * response evaluation and the GBW demand.
@@ -442,16 +618,14 @@ export function defineTopology(spec: TopologySpec): Topology {
     const why = reason(fn, t, c);
     if (why !== null) throw new UnrealisableError({ fn, path: "target", received: t, message: why });
     const v = scaleToLevel(spec, spec.solve(t, c), c);
-    for (const n of componentNames) {
-      const x = v[n];
-      if (x === undefined || !Number.isFinite(x) || x <= 0) {
-        throw new UnrealisableError({
-          fn,
-          path: `values.${n}`,
-          received: x,
-          message: "the design equations gave no usable value for this part (the target lies at the edge of the range); move Q, gain or the ratios slightly",
-        });
-      }
+    const n = firstUnusable(v, componentNames);
+    if (n !== undefined) {
+      throw new UnrealisableError({
+        fn,
+        path: `values.${n}`,
+        received: v[n],
+        message: "the design equations gave no usable value for this part (the target lies at the edge of the range); move Q, gain or the ratios slightly",
+      });
     }
     return v;
   };
@@ -527,7 +701,17 @@ export function defineTopology(spec: TopologySpec): Topology {
     ...(fixedGain === undefined ? {} : { fixedGain }),
     ...(spec.polynomials === undefined ? {} : polynomialMembers(spec, componentNames, spec.polynomials)),
   };
-  return Object.freeze(topo);
+  Object.freeze(topo);
+  cores.set(topo, {
+    figures: spec.figures,
+    figuresAt: spec.figuresAt ?? recordFigures(spec, componentNames),
+    ...(spec.f0At === undefined ? {} : { f0At: spec.f0At }),
+    design: (t, c) => {
+      const v = scaleToLevel(spec, spec.solve(t, c), c);
+      return firstUnusable(v, componentNames) === undefined ? v : null;
+    },
+  });
+  return topo;
 }
 
 /**

@@ -54,7 +54,7 @@
 import type { ComponentValues, StageFigures, StageTarget, Topology } from "./types.ts";
 import { cadd, cdiv, cmul, complex, cscale, csub, type Complex } from "../math/complex.ts";
 import { TWO_PI } from "../units/constants.ts";
-import { defineTopology, withOutputAt, valueOf, conductanceOf, type PartSpec } from "./define.ts";
+import { defineTopology, indexedFigures, loopIndex, withOutputAt, valueOf, conductanceOf, type PartSpec } from "./define.ts";
 import { invertingGain, summer } from "./kernels.ts";
 
 const REF =
@@ -89,14 +89,34 @@ interface Core {
   readonly damp: number;
 }
 
+/** Where R1-R7, C1 and C2 sit in every state-variable stage's values (their parts lists all start with the loop's twelve). */
+const LOOP = loopIndex(core.slice(0, 12), ["R1", "R2", "R3", "R4", "R5", "R6", "R7", "C1", "C2"]);
+const { R1, R2, R3, R4, R5, R6, R7, C1, C2 } = LOOP.at;
+
+/** The pole frequency (rad/s) from the values in component order. */
+function w0At(x: Float64Array): number {
+  return Math.sqrt((x[R2] as number) / ((x[R3] as number) * ((x[R6] as number) * (x[C1] as number)) * ((x[R7] as number) * (x[C2] as number))));
+}
+
+/** The pole frequency in Hz, the bits of every state-variable figures kernel's `f0Hz`. */
+const f0Hz = (x: Float64Array): number => w0At(x) / TWO_PI;
+
+/** The loop's figures from the values in component order. */
+function coreAt(x: Float64Array): Core {
+  const r2 = x[R2] as number;
+  const r5 = x[R5] as number;
+  const beta = r5 / ((x[R4] as number) + r5);
+  const gsum = 1 / (x[R1] as number) + 1 / r2 + 1 / (x[R3] as number);
+  const tau1 = (x[R6] as number) * (x[C1] as number);
+  const tau2 = (x[R7] as number) * (x[C2] as number);
+  const w0 = w0At(x);
+  const damp = (beta * gsum * r2) / tau1;
+  return { w0, q: w0 / damp, tau1, tau2, h0: r2 / (x[R1] as number), damp };
+}
+
+/** {@link coreAt} of named values. */
 function coreOf(v: ComponentValues): Core {
-  const beta = valueOf(v, "R5") / (valueOf(v, "R4") + valueOf(v, "R5"));
-  const gsum = conductanceOf(v, "R1") + conductanceOf(v, "R2") + conductanceOf(v, "R3");
-  const tau1 = valueOf(v, "R6") * valueOf(v, "C1");
-  const tau2 = valueOf(v, "R7") * valueOf(v, "C2");
-  const w0 = Math.sqrt(valueOf(v, "R2") / (valueOf(v, "R3") * tau1 * tau2));
-  const damp = (beta * gsum * valueOf(v, "R2")) / tau1;
-  return { w0, q: w0 / damp, tau1, tau2, h0: valueOf(v, "R2") / valueOf(v, "R1"), damp };
+  return coreAt(LOOP.pack(v));
 }
 
 /**
@@ -139,15 +159,21 @@ function closedForm(allpass: boolean) {
   };
 }
 
-function figures(allpass: boolean) {
-  return (v: ComponentValues): StageFigures => {
-    const c = coreOf(v);
-    const dc = (c.h0 * valueOf(v, "R10")) / (valueOf(v, "R9") * c.tau1 * c.tau2 * c.w0 * c.w0);
-    const hf = (c.h0 * valueOf(v, "R10")) / valueOf(v, "R8");
-    if (allpass) return { f0Hz: c.w0 / TWO_PI, q: c.q, gain: dc };
-    const wz = Math.sqrt(valueOf(v, "R8") / (valueOf(v, "R9") * c.tau1 * c.tau2));
-    return { f0Hz: c.w0 / TWO_PI, q: c.q, fzHz: wz / TWO_PI, gain: wz > c.w0 ? dc : hf };
-  };
+function figures(parts: readonly PartSpec[], allpass: boolean) {
+  return indexedFigures(parts, (at) => {
+    const r8 = at("R8");
+    const r9 = at("R9");
+    const r10 = at("R10");
+    const figuresAt = (x: Float64Array): StageFigures => {
+      const c = coreAt(x);
+      const dc = (c.h0 * (x[r10] as number)) / ((x[r9] as number) * c.tau1 * c.tau2 * c.w0 * c.w0);
+      const hf = (c.h0 * (x[r10] as number)) / (x[r8] as number);
+      if (allpass) return { f0Hz: c.w0 / TWO_PI, q: c.q, gain: dc };
+      const wz = Math.sqrt((x[r8] as number) / ((x[r9] as number) * c.tau1 * c.tau2));
+      return { f0Hz: c.w0 / TWO_PI, q: c.q, fzHz: wz / TWO_PI, gain: wz > c.w0 ? dc : hf };
+    };
+    return { figures: figuresAt, f0Hz };
+  });
 }
 
 function baseValues(t: StageTarget): Record<string, number> {
@@ -189,10 +215,12 @@ export const stateVariableNotch: Topology = defineTopology({
     }
     return v;
   },
-  figures: figures(false),
+  ...figures(core, false),
   closedForm: closedForm(false),
   closedFormFinite: true,
 });
+
+const allpassParts: PartSpec[] = [...core, { kind: "R", name: "R11", a: "bp", b: "n4" }];
 
 /** KHN state-variable allpass section. */
 export const stateVariableAllpass: Topology = defineTopology({
@@ -204,7 +232,7 @@ export const stateVariableAllpass: Topology = defineTopology({
   reference: REF,
   levelCapacitor: "C1",
   levelResistor: "R1",
-  parts: [...core, { kind: "R", name: "R11", a: "bp", b: "n4" }],
+  parts: allpassParts,
   limits: qLimit,
   solve: (t) => {
     const v = baseValues(t);
@@ -214,7 +242,7 @@ export const stateVariableAllpass: Topology = defineTopology({
     v["R11"] = (t.q as number) * r8;
     return v;
   },
-  figures: figures(true),
+  ...figures(allpassParts, true),
   closedForm: closedForm(true),
   closedFormFinite: true,
 });
@@ -229,8 +257,7 @@ function tapResponse(tap: Tap, v: ComponentValues, s: Complex): Complex {
   return cscale(cdiv(complex(1), d), -c.h0 / (c.tau1 * c.tau2));
 }
 
-function tapGain(tap: Tap, v: ComponentValues): number {
-  const c = coreOf(v);
+function tapGain(tap: Tap, c: Core): number {
   if (tap === "highpass") return -c.h0;
   if (tap === "bandpass") return c.h0 / (c.tau1 * c.damp);
   return -c.h0 / (c.tau1 * c.tau2 * c.w0 * c.w0);
@@ -240,6 +267,7 @@ function makeTap(tap: Tap): Topology {
   const node = tap === "lowpass" ? "lp" : tap === "highpass" ? "hp" : "bp";
   // G R (sum of the three input conductances times R) for the chosen gain
   const gr = (t: StageTarget): number => (tap === "bandpass" ? Math.abs(t.gain) / (t.q as number) + 2 : Math.abs(t.gain) + 2);
+  const parts = withOutputAt(core.slice(0, 12), node);
   return defineTopology({
     id: `state-variable-${tap}`,
     name: `state-variable (KHN) ${tap}`,
@@ -249,7 +277,7 @@ function makeTap(tap: Tap): Topology {
     reference: REF,
     levelCapacitor: "C1",
     levelResistor: "R2",
-    parts: withOutputAt(core.slice(0, 12), node),
+    parts,
     limits: (t) =>
       (t.q as number) * gr(t) > 1 + 1e-9
         ? null
@@ -264,10 +292,13 @@ function makeTap(tap: Tap): Topology {
       delete v["R10"];
       return v;
     },
-    figures: (v) => {
-      const c = coreOf(v);
-      return { f0Hz: c.w0 / TWO_PI, q: c.q, gain: tapGain(tap, v) };
-    },
+    ...indexedFigures(parts, () => ({
+      figures: (x) => {
+        const c = coreAt(x);
+        return { f0Hz: c.w0 / TWO_PI, q: c.q, gain: tapGain(tap, c) };
+      },
+      f0Hz,
+    })),
     closedForm: (v, s, a) => (a === null ? tapResponse(tap, v, s) : finiteTaps(v, s, a)[node === "lp" ? "lp" : node === "hp" ? "hp" : "bp"]),
     closedFormFinite: true,
   });

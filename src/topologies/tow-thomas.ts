@@ -48,7 +48,7 @@
 import type { ComponentValues, StageFigures, StageKind, StageTarget, Topology } from "./types.ts";
 import { cadd, cdiv, cmul, complex, cscale, type Complex } from "../math/complex.ts";
 import { TWO_PI } from "../units/constants.ts";
-import { defineTopology, withOutputAt, valueOf, conductanceOf, type PartSpec } from "./define.ts";
+import { defineTopology, indexedFigures, loopIndex, withOutputAt, valueOf, conductanceOf, type PartSpec } from "./define.ts";
 import { invertingGain, summer } from "./kernels.ts";
 
 const REF =
@@ -83,17 +83,23 @@ function parts(variant: Variant): PartSpec[] {
   return core;
 }
 
-function w0Sq(v: ComponentValues): number {
-  return valueOf(v, "R6") / (valueOf(v, "R3") * valueOf(v, "R4") * valueOf(v, "R5") * valueOf(v, "C1") * valueOf(v, "C2"));
+/** Where the loop's parts (R1-R6, C1, C2) sit in every Tow-Thomas stage's values (their parts lists all start with the loop's eleven). */
+const LOOP = loopIndex(core.slice(0, 11), ["R1", "R2", "R3", "R4", "R5", "R6", "C1", "C2"]);
+const { R1, R2, R3, R4, R5, R6, C1, C2 } = LOOP.at;
+
+/** The pole frequency squared, w0^2 = R6 / (R3 R4 R5 C1 C2), from the values in component order. */
+function w0SqAt(x: Float64Array): number {
+  return (x[R6] as number) / ((x[R3] as number) * (x[R4] as number) * (x[R5] as number) * (x[C1] as number) * (x[C2] as number));
 }
 
-/** Constant numerator coefficient (times 1/R7-normalised) of the summed output. */
-function n0(variant: Variant, v: ComponentValues): number {
-  const k = 1 / (valueOf(v, "R1") * valueOf(v, "R4") * valueOf(v, "C1") * valueOf(v, "C2"));
-  const base = w0Sq(v) / valueOf(v, "R7");
-  if (variant === "lowpass-notch") return base + k / valueOf(v, "R10");
-  if (variant === "highpass-notch") return base - (k * valueOf(v, "R6")) / (valueOf(v, "R5") * valueOf(v, "R10"));
-  return base;
+/** {@link w0SqAt} of named values. */
+function w0Sq(v: ComponentValues): number {
+  return w0SqAt(LOOP.pack(v));
+}
+
+/** `1 / (R1 R4 C1 C2)` from the values in component order. */
+function kAt(x: Float64Array): number {
+  return 1 / ((x[R1] as number) * (x[R4] as number) * (x[C1] as number) * (x[C2] as number));
 }
 
 function closedForm(variant: Variant) {
@@ -139,21 +145,35 @@ function finiteForm(variant: Variant, v: ComponentValues, s: Complex, a: Complex
 }
 
 function figures(variant: Variant) {
-  return (v: ComponentValues): StageFigures => {
-    const w2 = w0Sq(v);
-    const w0 = Math.sqrt(w2);
-    const qv = w0 * valueOf(v, "R2") * valueOf(v, "C1");
-    if (variant === "lowpass") {
-      return { f0Hz: w0 / TWO_PI, q: qv, gain: 1 / (valueOf(v, "R1") * valueOf(v, "R4") * valueOf(v, "C1") * valueOf(v, "C2") * w2) };
-    }
-    if (variant === "bandpass") return { f0Hz: w0 / TWO_PI, q: qv, gain: -valueOf(v, "R2") / valueOf(v, "R1") };
-    const hf = -valueOf(v, "R9") / valueOf(v, "R7");
-    if (variant === "allpass") return { f0Hz: w0 / TWO_PI, q: qv, gain: hf };
-    const c0 = n0(variant, v);
-    const wz = Math.sqrt(Math.max(0, c0 * valueOf(v, "R7")));
-    const dc = (-valueOf(v, "R9") * c0) / w2;
-    return { f0Hz: w0 / TWO_PI, q: qv, fzHz: wz / TWO_PI, gain: variant === "highpass-notch" ? hf : dc };
-  };
+  return indexedFigures(parts(variant), (at) => {
+    const summed = variant !== "lowpass" && variant !== "bandpass";
+    const r7 = summed ? at("R7") : -1;
+    const r9 = summed ? at("R9") : -1;
+    const r10 = variant === "lowpass-notch" || variant === "highpass-notch" ? at("R10") : -1;
+    /** Constant numerator coefficient (times 1/R7-normalised) of the summed output. */
+    const n0 = (x: Float64Array): number => {
+      const base = w0SqAt(x) / (x[r7] as number);
+      if (variant === "lowpass-notch") return base + kAt(x) / (x[r10] as number);
+      if (variant === "highpass-notch") return base - (kAt(x) * (x[R6] as number)) / ((x[R5] as number) * (x[r10] as number));
+      return base;
+    };
+    const figuresAt = (x: Float64Array): StageFigures => {
+      const w2 = w0SqAt(x);
+      const w0 = Math.sqrt(w2);
+      const qv = w0 * (x[R2] as number) * (x[C1] as number);
+      if (variant === "lowpass") {
+        return { f0Hz: w0 / TWO_PI, q: qv, gain: 1 / ((x[R1] as number) * (x[R4] as number) * (x[C1] as number) * (x[C2] as number) * w2) };
+      }
+      if (variant === "bandpass") return { f0Hz: w0 / TWO_PI, q: qv, gain: -(x[R2] as number) / (x[R1] as number) };
+      const hf = -(x[r9] as number) / (x[r7] as number);
+      if (variant === "allpass") return { f0Hz: w0 / TWO_PI, q: qv, gain: hf };
+      const c0 = n0(x);
+      const wz = Math.sqrt(Math.max(0, c0 * (x[r7] as number)));
+      const dc = (-(x[r9] as number) * c0) / w2;
+      return { f0Hz: w0 / TWO_PI, q: qv, fzHz: wz / TWO_PI, gain: variant === "highpass-notch" ? hf : dc };
+    };
+    return { figures: figuresAt, f0Hz: (x: Float64Array): number => Math.sqrt(w0SqAt(x)) / TWO_PI };
+  });
 }
 
 function solve(variant: Variant) {
@@ -203,7 +223,7 @@ function make(variant: Variant, id: string, name: string): Topology {
       return null;
     },
     solve: solve(variant),
-    figures: figures(variant),
+    ...figures(variant),
     closedForm: closedForm(variant),
     closedFormFinite: true,
   });
