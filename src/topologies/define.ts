@@ -133,7 +133,7 @@ export interface TopologySpec {
 
 /**
  * Where each part's value sits in a values array in component order (the
- * parts without the op-amps), for the polynomial cores.
+ * parts without the op-amps), for the polynomial cores and the figures kernels.
  *
  * @param parts - the stage's parts
  * @returns the index of each component by designator
@@ -224,26 +224,6 @@ function withoutLeadingZeros(a: Float64Array): Float64Array {
 
 /** Ideal figures from the values of a stage in component order (unchecked). */
 export type FiguresKernel = (x: Float64Array) => StageFigures;
-
-/**
- * Where each part's value sits in a values array in component order (the
- * parts without the op-amps).
- *
- * @param parts - the stage's parts
- * @returns the index of each component by designator
- * @throws never
- * @example
- * ```ts
- * partIndex([{ kind: "R", name: "R1", a: "in", b: "a" }, { kind: "C", name: "C1", a: "a", b: "0" }]);
- * //=> { R1: 0, C1: 1 }
- * ```
- */
-export function partIndex(parts: readonly PartSpec[]): Readonly<Record<string, number>> {
-  const out: Record<string, number> = {};
-  let i = 0;
-  for (const p of parts) if (p.kind !== "OA") out[p.name] = i++;
-  return Object.freeze(out);
-}
 
 /** What {@link indexedFigures} builds from a topology's kernels. */
 export interface IndexedFigures {
