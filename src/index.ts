@@ -75,6 +75,7 @@ export {
   opampRequirements,
   type MonteCarloOptions,
   type MonteCarloResult,
+  type PartDistribution,
   type Spread,
   type ToleranceFractions,
   type PartSensitivity,

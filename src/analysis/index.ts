@@ -6,5 +6,6 @@
  */
 export { opampRequirements, type OpampRequirementOptions, type StageOpampRequirement } from "./opamp.ts";
 export { monteCarlo, type MonteCarloOptions, type MonteCarloResult, type Spread, type ToleranceFractions } from "./tolerance.ts";
+export type { PartDistribution } from "../evaluate/boards.ts";
 export { partSensitivities, type PartSensitivity } from "./sensitivity.ts";
 export { noiseAnalysis, BOLTZMANN_J_PER_K, type NoiseAnalysisOptions, type NoiseAnalysisResult, type NoiseContributor } from "./noise.ts";
