@@ -22,7 +22,7 @@
  * @module
  */
 import { mulberry32 } from "../math/random.ts";
-import { stagePolynomialsInto, type CompiledStage } from "./stage-polynomials.ts";
+import { boardPolynomialsInto, genericStagePolynomialsInto, type CompiledStage } from "./stage-polynomials.ts";
 import { maskFigures, rationalSource, type MaskPlan } from "./mask.ts";
 import type { ScaledRational } from "./types.ts";
 
@@ -81,6 +81,11 @@ export interface BoardRun {
   readonly worstValues: readonly Float64Array[];
 }
 
+/** Run the stage's full generic path once at its nominal values, so its boards reuse the circle plan. */
+function genericPlan(s: BoardStage, num: Float64Array, den: Float64Array): void {
+  if (s.compiled.closedForm === null) genericStagePolynomialsInto(s.compiled, s.nominal, s.radius, num, den);
+}
+
 /** MurmurHash3's 32-bit finaliser of `seed` and `batch`. */
 function batchSeed(seed: number, batch: number): number {
   let h = (seed ^ Math.imul(batch + 1, 0x9e3779b1)) >>> 0;
@@ -132,6 +137,11 @@ export function runBoards(stages: readonly BoardStage[], plan: MaskPlan, options
   let worstMargin = Infinity;
   let worstValues = values.map((v) => v.slice());
   const source = rationalSource(polys);
+  // plan each stage's generic path at its nominal values (a no-op for a closed form)
+  stages.forEach((s, i) => {
+    const p = polys[i] as { num: Float64Array; den: Float64Array };
+    genericPlan(s, p.num, p.den);
+  });
   for (let start = 0; start < boards; start += BATCH) {
     const next = mulberry32(batchSeed(seed, start / BATCH));
     const count = Math.min(BATCH, boards - start);
@@ -144,7 +154,7 @@ export function runBoards(stages: readonly BoardStage[], plan: MaskPlan, options
         const v = values[s] as Float64Array;
         for (let j = 0; j < v.length; j++) v[j] = (st.nominal[j] as number) * (1 + (st.tolerance[j] as number) * (draws[at++] as number));
         const p = polys[s] as { num: Float64Array; den: Float64Array; scale: number };
-        p.scale = stagePolynomialsInto(st.compiled, v, st.radius, p.num, p.den);
+        p.scale = boardPolynomialsInto(st.compiled, v, st.radius, p.num, p.den);
         if (p.scale === 0) ok = false;
       }
       const k = start + b;

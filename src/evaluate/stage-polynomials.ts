@@ -97,6 +97,17 @@ export interface CompiledStage {
     readonly noise: Float64Array;
     readonly numSets: Float64Array;
     readonly denSets: Float64Array;
+    /** The circle each numerator / denominator coefficient came from at the last full evaluation (-1: zero). */
+    readonly numChoice: Int8Array;
+    readonly denChoice: Int8Array;
+    /** Which circles supplied a coefficient then. */
+    readonly used: Uint8Array;
+    /** Their radii, in order. */
+    readonly plannedRadii: Float64Array;
+    /** A board's coefficient choices (not kept). */
+    readonly boardChoice: Int8Array;
+    /** That evaluation's radius used, radius asked (NaN before the first) and number of planned circles. */
+    readonly plan: Float64Array;
   };
 }
 
@@ -196,6 +207,12 @@ export function compileStage(
       noise: new Float64Array(MAX_CIRCLES),
       numSets: new Float64Array(MAX_CIRCLES * points),
       denSets: new Float64Array(MAX_CIRCLES * points),
+      numChoice: new Int8Array(points),
+      denChoice: new Int8Array(points),
+      used: new Uint8Array(MAX_CIRCLES),
+      plannedRadii: new Float64Array(MAX_CIRCLES),
+      boardChoice: new Int8Array(points),
+      plan: Float64Array.of(NaN, NaN, 0),
     },
   };
 }
@@ -331,7 +348,7 @@ function coefficients(cs: CompiledStage, re: Float64Array, im: Float64Array, out
  * zero when it stands less than {@link SIGNAL_TO_NOISE} above it on every
  * circle.
  */
-function merge(cs: CompiledStage, sets: Float64Array, base: number, circles: number, out: Float64Array): void {
+function merge(cs: CompiledStage, sets: Float64Array, base: number, circles: number, out: Float64Array, choice: Int8Array): void {
   const { radii, noise } = cs.scratch;
   const M = cs.points;
   const spare = M - 1 - cs.degreeBound;
@@ -356,8 +373,21 @@ function merge(cs: CompiledStage, sets: Float64Array, base: number, circles: num
         best = i;
       }
     }
+    choice[m] = best;
     out[m] = best < 0 ? 0 : (sets[best * M + m] as number) * Math.pow(base / (radii[best] as number), power);
   }
+}
+
+/** Scale numerator and denominator so the largest denominator coefficient is 1; false when the denominator vanished. */
+function normalise(cs: CompiledStage, num: Float64Array, den: Float64Array): boolean {
+  let big = 0;
+  for (let m = 0; m < cs.points; m++) big = Math.max(big, Math.abs(den[m] as number));
+  if (!(big > 0) || !Number.isFinite(big)) return false;
+  for (let m = 0; m < cs.points; m++) {
+    den[m] = (den[m] as number) / big;
+    num[m] = (num[m] as number) / big;
+  }
+  return true;
 }
 
 /**
@@ -425,16 +455,72 @@ export function genericStagePolynomialsInto(
     ok = sampleCircles(cs, r);
   }
   if (ok === 0) return 0;
-  merge(cs, sc.denSets, r, ok, den);
-  merge(cs, sc.numSets, r, ok, num);
-  let big = 0;
-  for (let m = 0; m < cs.points; m++) big = Math.max(big, Math.abs(den[m] as number));
-  if (!(big > 0) || !Number.isFinite(big)) return 0;
+  merge(cs, sc.denSets, r, ok, den, sc.denChoice);
+  merge(cs, sc.numSets, r, ok, num, sc.numChoice);
+  // the plan a board reuses: the radius and which circles supplied a coefficient
+  sc.plan[0] = r;
+  sc.plan[1] = radius;
+  sc.used.fill(0);
   for (let m = 0; m < cs.points; m++) {
-    den[m] = (den[m] as number) / big;
-    num[m] = (num[m] as number) / big;
+    if ((sc.denChoice[m] as number) >= 0) sc.used[sc.denChoice[m] as number] = 1;
+    if ((sc.numChoice[m] as number) >= 0) sc.used[sc.numChoice[m] as number] = 1;
   }
+  let count = 0;
+  for (let i = 0; i < ok; i++) if (sc.used[i] === 1) sc.plannedRadii[count++] = sc.radii[i] as number;
+  sc.plan[2] = count;
+  if (!normalise(cs, num, den)) return 0;
   return r;
+}
+
+/**
+ * A Monte Carlo board's polynomials: the topology's closed form where it has
+ * one, else the generic path on only the circles that supplied a coefficient
+ * at the last full evaluation with the same radius (a board's parts move a
+ * few per cent, so the circles that resolve the coefficients stay the same;
+ * each coefficient is still taken from the best of them by the same noise
+ * test), else the full generic path, which makes that plan. No checks.
+ *
+ * @param cs - the compiled stage
+ * @param values - component values in `cs.componentNames` order
+ * @param radius - the scale (rad/s): the same for every board of a stage
+ * @param num - numerator coefficients, written
+ * @param den - denominator coefficients, written
+ * @returns the radius used, or 0 when the stage is singular
+ */
+export function boardPolynomialsInto(
+  cs: CompiledStage,
+  values: Float64Array,
+  radius: number,
+  num: Float64Array,
+  den: Float64Array,
+): number {
+  const closed = cs.closedForm;
+  if (closed !== null) {
+    const r = closed.into(values, closed.opamp, radius, num, den);
+    if (r > 0) return r;
+  }
+  const sc = cs.scratch;
+  if (sc.plan[1] !== radius) return genericStagePolynomialsInto(cs, values, radius, num, den);
+  const map = cs.componentOfElement;
+  for (let e = 0; e < map.length; e++) {
+    const j = map[e] as number;
+    if (j >= 0) sc.values[e] = values[j] as number;
+  }
+  applyStamps(cs.program, sc.values, sc.g, sc.c);
+  const count = sc.plan[2] as number;
+  for (let j = 0; j < count; j++) {
+    const rj = sc.plannedRadii[j] as number;
+    sc.radii[j] = rj;
+    if (!sample(cs, rj, j === 0)) return genericStagePolynomialsInto(cs, values, radius, num, den);
+    coefficients(cs, sc.dRe, sc.dIm, sc.denSets, j * cs.points);
+    coefficients(cs, sc.nRe, sc.nIm, sc.numSets, j * cs.points);
+  }
+  // the same noise-aware choice as the full path, over the planned circles: a coefficient that was
+  // noise at nominal (a notch's odd term) is still found when a board's mismatch makes it real
+  const r = sc.plan[0] as number;
+  merge(cs, sc.denSets, r, count, den, sc.boardChoice);
+  merge(cs, sc.numSets, r, count, num, sc.boardChoice);
+  return normalise(cs, num, den) ? r : 0;
 }
 
 /**

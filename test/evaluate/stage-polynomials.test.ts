@@ -4,7 +4,12 @@ import { topologies } from "../../src/topologies/registry.ts";
 import type { OpAmpModel } from "../../src/circuit/types.ts";
 import type { Topology } from "../../src/topologies/types.ts";
 import { isBoard, mnaOf, opampOf, spreadValues } from "../helpers/stage-cases.ts";
-import { stagePolynomials } from "../../src/evaluate/stage-polynomials.ts";
+import {
+  boardPolynomialsInto,
+  compileStage,
+  genericStagePolynomialsInto,
+  stagePolynomials,
+} from "../../src/evaluate/stage-polynomials.ts";
 import { cascadeMagnitudeSquared, cascadeResponse } from "../../src/evaluate/cascade.ts";
 import { realisableArb } from "../topologies/arbitraries.ts";
 
@@ -66,4 +71,48 @@ describe("stagePolynomials, generic path", () => {
     console.log(rows.join("\n"));
     expect(rows.length).toBe(topologies.length);
   });
+});
+
+describe("boardPolynomialsInto (a board's parts on the circles planned at nominal)", () => {
+  const boardArb = (topo: Topology) =>
+    fc.record({
+      design: realisableArb(topo),
+      deviation: fc.array(fc.double({ min: -0.1, max: 0.1, noNaN: true }), { minLength: 12, maxLength: 12 }),
+      model: fc.constantFrom("ideal", "single-pole", "single-pole-rout"),
+      a0Log: fc.double({ min: 3, max: 7, noNaN: true }),
+      gbwLog: fc.double({ min: 0.5, max: 4, noNaN: true }),
+    });
+  for (const topo of topologies.filter((t) => t.polynomialDegree === undefined)) {
+    it(`${topo.id}: agrees with the full generic path to 1e-9 dB for parts within 10 %`, () => {
+      fc.assert(
+        fc.property(boardArb(topo), ({ design, deviation, model, a0Log, gbwLog }) => {
+          const nominal = topo.design(design.target, design.choices);
+          fc.pre(isBoard(topo, nominal));
+          const f0 = design.target.f0Hz;
+          const opamp = opampOf(model, f0, a0Log, gbwLog, 10);
+          const span = [2 * Math.PI * f0 * 1e-3, 2 * Math.PI * f0 * 1e3] as const;
+          const cs = compileStage(topo, nominal, opamp, span);
+          const radius = 2 * Math.PI * f0;
+          const M = cs.points;
+          const [n0, d0, n1, d1] = [0, 0, 0, 0].map(() => new Float64Array(M)) as [Float64Array, Float64Array, Float64Array, Float64Array];
+          const x0 = Float64Array.from(cs.componentNames, (n) => nominal[n]!);
+          genericStagePolynomialsInto(cs, x0, radius, n0, d0); // the plan
+          const x = x0.map((v, i) => v * (1 + deviation[i % deviation.length]!));
+          const rb = boardPolynomialsInto(cs, x, radius, n1, d1);
+          const rf = genericStagePolynomialsInto(cs, x, radius, n0, d0);
+          const w = Float64Array.from([-3, -2, -1, -0.3, 0, 0.3, 1, 2, 3], (e) => radius * 10 ** e);
+          const planned = cascadeMagnitudeSquared([{ num: n1, den: d1, scale: rb }], w);
+          const full = cascadeMagnitudeSquared([{ num: n0, den: d0, scale: rf }], w);
+          const peak = Math.max(...full);
+          for (let k = 0; k < w.length; k++) {
+            // within 40 dB of the peak in dB; deeper in a notch in absolute terms against the peak, where
+            // each path is within 1e-10 of the nodal analysis (the generic-path test above)
+            if (full[k]! >= 1e-4 * peak) expect(Math.abs(10 * Math.log10(planned[k]! / full[k]!)), `w = ${w[k]}`).toBeLessThan(1e-9);
+            else expect(Math.abs(Math.sqrt(planned[k]!) - Math.sqrt(full[k]!)) / Math.sqrt(peak), `w = ${w[k]}`).toBeLessThan(2e-10);
+          }
+        }),
+        { numRuns: 30 },
+      );
+    });
+  }
 });
