@@ -128,9 +128,10 @@ function tryDesign(
   series?: DesignSpec["capacitorSeries"],
 ): ComponentValues | null {
   try {
-    if (t.check(target, choices) !== null) return null;
-    // `check` has passed: the unchecked core gives what the public `design` would.
+    // the search's targets and choices are well formed: the unchecked core's reason is the public `check`'s
     const core = topologyCore(t);
+    if ((core === undefined ? t.check(target, choices) : core.check(target, choices)) !== null) return null;
+    // `check` has passed: the unchecked core gives what the public `design` would.
     const v = core === undefined ? t.design(target, choices) : core.design(target, choices);
     if (v === null) return null;
     for (const x of Object.values(v)) if (!(x > 0) || !Number.isFinite(x)) return null;

@@ -531,6 +531,11 @@ export interface TopologyCore {
   /** The pole frequency alone from the same array (the bits of `figuresAt(x).f0Hz`), where the topology has a cheaper way to it. */
   readonly f0At?: (x: Float64Array) => number;
   /**
+   * Why a well-formed target cannot be realised with these choices, or null
+   * (the public `check` without the shape check of its arguments).
+   */
+  readonly check: (t: StageTarget, c: StageChoices) => string | null;
+  /**
    * Values that realise a target the topology's `check` accepts with these
    * choices (the public `design` without its checks), or null where the
    * design equations give a part that is not finite and positive.
@@ -683,6 +688,7 @@ export function defineTopology(spec: TopologySpec): Topology {
   };
   Object.freeze(topo);
   cores.set(topo, {
+    check: (t, c) => commonLimits(spec, t) ?? spec.limits(t, c) ?? fixedGainLimit(spec, t),
     figures: spec.figures,
     figuresAt: spec.figuresAt ?? recordFigures(spec, componentNames),
     ...(spec.f0At === undefined ? {} : { f0At: spec.f0At }),
