@@ -414,12 +414,25 @@ export function stagePolynomialsInto(
   num: Float64Array,
   den: Float64Array,
 ): number {
+  const r = closedFormInto(cs, values, radius, num, den);
+  return r > 0 ? r : genericStagePolynomialsInto(cs, values, radius, num, den);
+}
+
+/** The topology's closed-form polynomials where the compiled stage has them; 0 where it has none or declines. */
+function closedFormInto(cs: CompiledStage, values: Float64Array, radius: number, num: Float64Array, den: Float64Array): number {
   const closed = cs.closedForm;
-  if (closed !== null) {
-    const r = closed.into(values, closed.opamp, radius, num, den);
-    if (r > 0) return r;
+  return closed === null ? 0 : closed.into(values, closed.opamp, radius, num, den);
+}
+
+/** Put a board's component values on the stage's elements and fill `G` and `C`. */
+function loadValues(cs: CompiledStage, values: Float64Array): void {
+  const sc = cs.scratch;
+  const map = cs.componentOfElement;
+  for (let e = 0; e < map.length; e++) {
+    const j = map[e] as number;
+    if (j >= 0) sc.values[e] = values[j] as number;
   }
-  return genericStagePolynomialsInto(cs, values, radius, num, den);
+  applyStamps(cs.program, sc.values, sc.g, sc.c);
 }
 
 /**
@@ -442,12 +455,7 @@ export function genericStagePolynomialsInto(
   den: Float64Array,
 ): number {
   const sc = cs.scratch;
-  const map = cs.componentOfElement;
-  for (let e = 0; e < map.length; e++) {
-    const j = map[e] as number;
-    if (j >= 0) sc.values[e] = values[j] as number;
-  }
-  applyStamps(cs.program, sc.values, sc.g, sc.c);
+  loadValues(cs, values);
   let r = radius;
   let ok = sampleCircles(cs, r);
   for (let tries = 0; !ok && tries < 4; tries++) {
@@ -494,19 +502,11 @@ export function boardPolynomialsInto(
   num: Float64Array,
   den: Float64Array,
 ): number {
-  const closed = cs.closedForm;
-  if (closed !== null) {
-    const r = closed.into(values, closed.opamp, radius, num, den);
-    if (r > 0) return r;
-  }
+  const closed = closedFormInto(cs, values, radius, num, den);
+  if (closed > 0) return closed;
   const sc = cs.scratch;
   if (sc.plan[1] !== radius) return genericStagePolynomialsInto(cs, values, radius, num, den);
-  const map = cs.componentOfElement;
-  for (let e = 0; e < map.length; e++) {
-    const j = map[e] as number;
-    if (j >= 0) sc.values[e] = values[j] as number;
-  }
-  applyStamps(cs.program, sc.values, sc.g, sc.c);
+  loadValues(cs, values);
   const count = sc.plan[2] as number;
   for (let j = 0; j < count; j++) {
     const rj = sc.plannedRadii[j] as number;
