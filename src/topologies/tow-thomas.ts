@@ -49,7 +49,7 @@ import type { ComponentValues, StageFigures, StageKind, StageTarget, Topology } 
 import { cadd, cdiv, cmul, complex, cscale, type Complex } from "../math/complex.ts";
 import { TWO_PI } from "../units/constants.ts";
 import { defineTopology, indexedFigures, loopIndex, withOutputAt, valueOf, conductanceOf, type PartSpec } from "./define.ts";
-import { invertingGain, summer } from "./kernels.ts";
+import { invertingGain, summer, type PolynomialCore } from "./kernels.ts";
 
 const REF =
   'J. Tow, Proc. IEEE 56(6):1137-1139, 1968; L. C. Thomas, IEEE Trans. Circuit Theory CT-18(3):350-357, 1971; R. Schaumann & M. E. Van Valkenburg, "Design of Analog Filters", 2001, two-integrator-loop biquads (from memory)';
@@ -144,6 +144,62 @@ function finiteForm(variant: Variant, v: ComponentValues, s: Complex, a: Complex
   return summer(terms, conductanceOf(v, "R9"), a);
 }
 
+/** `out = a * b` for ascending coefficient arrays (`out` of length a.length + b.length - 1, overwritten). */
+function multiplyInto(a: Float64Array, b: Float64Array, out: Float64Array): void {
+  out.fill(0);
+  for (let i = 0; i < a.length; i++) for (let j = 0; j < b.length; j++) out[i + j] = (out[i + j] as number) + (a[i] as number) * (b[j] as number);
+}
+
+const d1 = new Float64Array(3);
+const d2 = new Float64Array(3);
+const d3 = new Float64Array(2);
+const d23 = new Float64Array(4);
+const loop = new Float64Array(6);
+
+/**
+ * As-built polynomials of the loop alone (lowpass at v2, bandpass at v1),
+ * derived here from the same nodal equations as {@link finiteForm}, with
+ * `1/A = g0 + g1 z` and `z = s / w`:
+ *
+ *   D1 = Yf + (G1 + G3 + Yf)/A   (damped integrator, Yf = G2 + s C1)
+ *   D2 = s C2 + (G4 + s C2)/A    (integrator)
+ *   D3 = G6 + (G5 + G6)/A        (inverter)
+ *   P = D1 D2 D3 + G3 G4 G5,  v1/vin = -G1 D2 D3 / P,  v2/vin = G1 G4 D3 / P
+ *
+ * Every coefficient of D1, D2, D3 and P is a sum of positive terms.
+ */
+function loopPolynomials(variant: "lowpass" | "bandpass"): PolynomialCore {
+  return (x, g0, g1, w, num, den) => {
+    const G1 = 1 / (x[R1] as number);
+    const G2 = 1 / (x[R2] as number);
+    const G3 = 1 / (x[R3] as number);
+    const G4 = 1 / (x[R4] as number);
+    const G5 = 1 / (x[R5] as number);
+    const G6 = 1 / (x[R6] as number);
+    const c1 = (x[C1] as number) * w;
+    const c2 = (x[C2] as number) * w;
+    const s1 = G1 + G2 + G3;
+    d1[0] = G2 + s1 * g0;
+    d1[1] = c1 * (1 + g0) + s1 * g1;
+    d1[2] = c1 * g1;
+    d2[0] = G4 * g0;
+    d2[1] = c2 * (1 + g0) + G4 * g1;
+    d2[2] = c2 * g1;
+    d3[0] = G6 + (G5 + G6) * g0;
+    d3[1] = (G5 + G6) * g1;
+    multiplyInto(d2, d3, d23);
+    multiplyInto(d1, d23, loop);
+    loop[0] = (loop[0] as number) + G3 * G4 * G5;
+    den.set(loop);
+    if (variant === "lowpass") {
+      num[0] = G1 * G4 * (d3[0] as number);
+      num[1] = G1 * G4 * (d3[1] as number);
+    } else {
+      for (let k = 0; k < d23.length; k++) num[k] = -G1 * (d23[k] as number);
+    }
+  };
+}
+
 function figures(variant: Variant) {
   return indexedFigures(parts(variant), (at) => {
     const summed = variant !== "lowpass" && variant !== "bandpass";
@@ -226,6 +282,8 @@ function make(variant: Variant, id: string, name: string): Topology {
     ...figures(variant),
     closedForm: closedForm(variant),
     closedFormFinite: true,
+    // the loop alone: degree 2 + one per op-amp (the summed forms stay on the generic path)
+    ...(variant === "lowpass" || variant === "bandpass" ? { polynomials: { degree: 5, core: loopPolynomials(variant) } } : {}),
   });
 }
 
