@@ -17,14 +17,9 @@ export {
   type ToSectionsOptions,
 } from "./sections.ts";
 export { MAX_GRID_POINTS, linearGrid, logGrid } from "./grid.ts";
-export {
-  MAGNITUDE_FLOOR_DB,
-  frequencyResponse,
-  groupDelay,
-  magnitudeDb,
-  phase,
-  type ComplexResponse,
-} from "./response.ts";
+export { frequencyResponse, type ComplexResponse } from "./response.ts";
+export { MAGNITUDE_FLOOR_DB, magnitudeDb } from "./magnitude.ts";
+export { groupDelay, phase } from "./phase.ts";
 export {
   lowpassToBandpass,
   lowpassToBandstop,

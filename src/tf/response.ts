@@ -1,6 +1,7 @@
 /**
- * Frequency response, magnitude, phase and group delay of an analog transfer
- * function on the jw axis, all computed from the factored form.
+ * Frequency response of an analog transfer function on the jw axis, from the
+ * factored form, and the packed factors the magnitude (magnitude.ts) and the
+ * phase and group delay (phase.ts) share.
  *
  * - `frequencyResponse` forms the products of the factors `(jw - z_i)` and
  *   `(jw - p_i)` point by point and divides once (no polynomial expansion, so
@@ -12,32 +13,6 @@
  *   factor (worst 1.6e-15 against scipy.signal.freqs_zpk in the fixtures).
  *   The loop runs over two grid points per pass (two independent chains of
  *   multiplications the CPU overlaps), each formed exactly as alone.
- * - `magnitudeDb` forms per point the products of the squared magnitudes
- *   `|jw - r|^2` (a conjugate pair as `(a^2 + (w - b)^2)(a^2 + (w + b)^2)`,
- *   a section as `(b0 - b2 w^2)^2 + (b1 w)^2`) of numerator and denominator
- *   and takes one logarithm of their quotient: sums and products of
- *   non-negative terms, so a relative error of at most about `(3 m + 1) u`
- *   for `m` factors and `u = 2^-53` (N. J. Higham, "Accuracy and Stability of
- *   Numerical Algorithms", 2nd ed., SIAM 2002, section 3.1, products of
- *   `n` rounded terms: `gamma_n`), i.e. below 1e-13 dB for the orders the
- *   library designs. A point where a term, a partial product or the quotient
- *   leaves the normal range (high orders far from the band, tiny roots, an
- *   exact transmission zero) is redone as the sum of `20 log10 |factor|`
- *   terms, which cannot overflow. The two agree to about 1e-13 dB (property
- *   test: 1e-12 dB).
- * - `phase` sums the continuous arguments of the factors, so it is unwrapped
- *   analytically rather than by detecting jumps: `arg(jw - r) = atan2(w - Im r, -Re r)`
- *   on a branch continuous in `w >= 0`. Zeros on the jw axis add the jump of
- *   +pi that `H` has when it passes through zero (the limit from Re s > 0).
- *   The whole curve is shifted by a multiple of 2 pi so that its limit at
- *   `w -> 0+` lies in (-pi, pi]; it therefore does not depend on the grid.
- * - `groupDelay` is the exact derivative `tau(w) = -d phase/dw
- *   = sum_poles -Re p / ((w - Im p)^2 + Re p^2) - sum_zeros -Re z / ((w - Im z)^2 + Re z^2)`
- *   (each term is the derivative of `atan2(w - Im r, -Re r)`; the
- *   continuous-time counterpart of the pole/zero group-delay sum in
- *   A. V. Oppenheim and R. W. Schafer, "Discrete-Time Signal Processing",
- *   3rd ed., Pearson 2010, chapter 5; zeros on the jw axis contribute 0
- *   away from the zero itself).
  *
  * @module
  */
@@ -48,9 +23,6 @@ import { fromSectionsUnchecked } from "./sections.ts";
 import type { SectionCascade, Zpk } from "./types.ts";
 import { evalZpkUnchecked } from "./zpk.ts";
 
-/** Magnitudes below this (in dB), including an exact transmission zero, are reported as this value. */
-export const MAGNITUDE_FLOOR_DB = -400;
-
 /** A complex response on a grid, as separate real and imaginary parts. */
 export interface ComplexResponse {
   /** Real parts, one per grid point. */
@@ -60,7 +32,7 @@ export interface ComplexResponse {
 }
 
 /** Reject a grid point that lands exactly on a jw-axis pole (the response would be infinite). */
-function checkNoAxisPole(fn: string, poles: readonly Complex[], w: Float64Array): void {
+export function checkNoAxisPole(fn: string, poles: readonly Complex[], w: Float64Array): void {
   for (const p of poles) {
     if (p.re !== 0) continue;
     for (let i = 0; i < w.length; i++) {
@@ -76,7 +48,7 @@ function checkNoAxisPole(fn: string, poles: readonly Complex[], w: Float64Array)
   }
 }
 
-function polesOf(system: Zpk | SectionCascade): readonly Complex[] {
+export function polesOf(system: Zpk | SectionCascade): readonly Complex[] {
   return isCascade(system) ? fromSectionsUnchecked(system).poles : system.poles;
 }
 
@@ -84,7 +56,7 @@ function polesOf(system: Zpk | SectionCascade): readonly Complex[] {
  * Factors packed into typed arrays for the point-by-point loops (one array
  * per kind, so that the loop body reads one typed array).
  */
-interface PackedFactors {
+export interface PackedFactors {
   /** `[a^2, 2 a, b]` of each conjugate pair `-a +- j b` (b >= 0). */
   readonly pairs: Float64Array;
   /** `[a, b]` of each single root `-a + j b`. */
@@ -96,7 +68,7 @@ interface PackedFactors {
  * imaginary parts) become one quadratic factor each, in the order of their
  * first member; the other roots stay single.
  */
-function pack(roots: readonly Complex[]): PackedFactors {
+export function pack(roots: readonly Complex[]): PackedFactors {
   const n = roots.length;
   const used = new Uint8Array(n);
   const pairs = new Float64Array(3 * (n >> 1));
@@ -281,7 +253,7 @@ export function packedMagnitudeAt(p: PackedZpk, w: number): number {
 }
 
 /** Section coefficients packed as `[b2, b1, b0, a2, a1, a0]` per section. */
-function packSections(cascade: SectionCascade): Float64Array {
+export function packSections(cascade: SectionCascade): Float64Array {
   const c = new Float64Array(6 * cascade.sections.length);
   cascade.sections.forEach((sec, i) => {
     c.set(sec.num, 6 * i);
@@ -433,286 +405,4 @@ export function frequencyResponse(system: Zpk | SectionCascade, w: Float64Array)
   const grid = requireGrid(fn, "w", w);
   checkNoAxisPole(fn, polesOf(system), grid);
   return isCascade(system) ? cascadeResponseUnchecked(system, grid) : zpkResponseUnchecked(system, grid);
-}
-
-/** `20 / ln 10`: dB per natural-log unit of a magnitude. */
-const DB20 = 20 / Math.LN10;
-/** `10 / ln 10`: dB per natural-log unit of a squared magnitude. */
-const DB10 = 10 / Math.LN10;
-/** The smallest normal double, 2^-1022: below it a product has lost relative precision. */
-const MIN_NORMAL = 2.2250738585072014e-308;
-
-/** Clamp values below {@link MAGNITUDE_FLOOR_DB} (and NaN) to the floor, in place. */
-function applyFloor(out: Float64Array): Float64Array {
-  for (let k = 0; k < out.length; k++) {
-    const v = out[k] as number;
-    if (!(v >= MAGNITUDE_FLOOR_DB)) out[k] = MAGNITUDE_FLOOR_DB;
-  }
-  return out;
-}
-
-/** dB of a zpk at one frequency as the sum of `20 log10 |jw - r|` per factor (overflow-safe reference, before the floor). */
-function zpkDbByFactor(system: Zpk, wk: number): number {
-  let v = DB20 * Math.log(Math.abs(system.gain));
-  for (const z of system.zeros) v += DB20 * Math.log(Math.hypot(z.re, wk - z.im));
-  for (const p of system.poles) v -= DB20 * Math.log(Math.hypot(p.re, wk - p.im));
-  return v;
-}
-
-/**
- * dB of a cascade at one frequency as the sum of the sections' dB values
- * (reference, before the floor); where a section polynomial overflows
- * (w^2 beyond the double range), from the factored form.
- */
-function cascadeDbBySection(cascade: SectionCascade, wk: number): number {
-  const w2 = wk * wk;
-  let v = DB20 * Math.log(Math.abs(cascade.gain));
-  for (const sec of cascade.sections) {
-    const [b2, b1, b0] = sec.num;
-    const [a2, a1, a0] = sec.den;
-    const n = Math.hypot(b0 - b2 * w2, b1 * wk);
-    const d = Math.hypot(a0 - a2 * w2, a1 * wk);
-    v += DB20 * (Math.log(n) - Math.log(d));
-  }
-  if (!Number.isNaN(v) && v !== Infinity) return v;
-  return zpkDbByFactor(fromSectionsUnchecked(cascade), wk);
-}
-
-/**
- * Magnitude in dB summed factor by factor (a logarithm per factor per point):
- * the reference that {@link magnitudeDbUnchecked} falls back to where its
- * products leave the safe range, and that it is tested against.
- */
-export function magnitudeDbByFactorUnchecked(system: Zpk | SectionCascade, w: Float64Array): Float64Array {
-  const out = new Float64Array(w.length);
-  if (isCascade(system)) for (let k = 0; k < w.length; k++) out[k] = cascadeDbBySection(system, w[k] as number);
-  else for (let k = 0; k < w.length; k++) out[k] = zpkDbByFactor(system, w[k] as number);
-  return applyFloor(out);
-}
-
-/** Scratch written by {@link squaredProductAt}: the product, then the smallest term or partial product met. */
-const sq = new Float64Array(2);
-
-/**
- * prod over the packed factors of `|jw - r|^2` at one frequency: a pair is
- * `(a^2 + (w - b)^2)(a^2 + (w + b)^2)`, a single root `a^2 + (w - b)^2`, sums
- * of non-negative terms (no cancellation, a few ulps each). Writes the
- * product and the smallest term or partial product into `sq`, so that the
- * caller can tell whether anything fell below the normal range.
- */
-function squaredProductAt(f: PackedFactors, wk: number): void {
-  let x = 1;
-  let lo = 1;
-  const { pairs, singles } = f;
-  for (let i = 0; i < pairs.length; i += 3) {
-    const aa = pairs[i] as number;
-    const b = pairs[i + 2] as number;
-    const d = wk - b;
-    const e = wk + b;
-    const t = aa + d * d;
-    const u = aa + e * e;
-    x = x * t * u;
-    lo = t < lo ? t : lo;
-    lo = u < lo ? u : lo;
-    lo = x < lo ? x : lo;
-  }
-  for (let i = 0; i < singles.length; i += 2) {
-    const a = singles[i] as number;
-    const d = wk - (singles[i + 1] as number);
-    const t = a * a + d * d;
-    x *= t;
-    lo = t < lo ? t : lo;
-    lo = x < lo ? x : lo;
-  }
-  sq[0] = x;
-  sq[1] = lo;
-}
-
-/** Magnitude in dB of a zpk, one logarithm per point (no checks). */
-function zpkMagnitudeDb(system: Zpk, w: Float64Array): Float64Array {
-  const out = new Float64Array(w.length);
-  const zf = pack(system.zeros);
-  const pf = pack(system.poles);
-  const gainDb = DB20 * Math.log(Math.abs(system.gain));
-  for (let k = 0; k < w.length; k++) {
-    const wk = w[k] as number;
-    squaredProductAt(zf, wk);
-    const num = sq[0] as number;
-    const numLo = sq[1] as number;
-    squaredProductAt(pf, wk);
-    const q = num / (sq[0] as number);
-    // every term, partial product and the quotient normal and finite: a few
-    // ulps per factor; otherwise (overflow, underflow, an exact zero) the
-    // per-factor sum of logarithms at this point only
-    if (numLo >= MIN_NORMAL && (sq[1] as number) >= MIN_NORMAL && q >= MIN_NORMAL && q < Infinity) {
-      out[k] = gainDb + DB10 * Math.log(q);
-    } else out[k] = zpkDbByFactor(system, wk);
-  }
-  return out;
-}
-
-/** Magnitude in dB of a cascade, one logarithm per point (no checks). */
-function cascadeMagnitudeDb(cascade: SectionCascade, w: Float64Array): Float64Array {
-  const out = new Float64Array(w.length);
-  const c = packSections(cascade);
-  const gainDb = DB20 * Math.log(Math.abs(cascade.gain));
-  for (let k = 0; k < w.length; k++) {
-    const wk = w[k] as number;
-    const w2 = wk * wk;
-    let num = 1;
-    let den = 1;
-    let lo = 1;
-    for (let i = 0; i < c.length; i += 6) {
-      const nr = (c[i + 2] as number) - (c[i] as number) * w2;
-      const ni = (c[i + 1] as number) * wk;
-      const dr = (c[i + 5] as number) - (c[i + 3] as number) * w2;
-      const di = (c[i + 4] as number) * wk;
-      const t = nr * nr + ni * ni;
-      const u = dr * dr + di * di;
-      num *= t;
-      den *= u;
-      lo = t < lo ? t : lo;
-      lo = u < lo ? u : lo;
-      lo = num < lo ? num : lo;
-      lo = den < lo ? den : lo;
-    }
-    const q = num / den;
-    if (lo >= MIN_NORMAL && q >= MIN_NORMAL && q < Infinity) out[k] = gainDb + DB10 * Math.log(q);
-    else out[k] = cascadeDbBySection(cascade, wk);
-  }
-  return out;
-}
-
-/**
- * Magnitude in dB core (no checks): per point the products of the squared
- * magnitudes of the factors (or sections) of numerator and denominator and
- * one logarithm of their quotient; points where a product leaves the normal
- * range fall back to the per-factor sum of logarithms. Agrees with
- * {@link magnitudeDbByFactorUnchecked} to about 1e-13 dB (both are a few
- * ulps per factor; the log-sum's own rounding dominates).
- */
-export function magnitudeDbUnchecked(system: Zpk | SectionCascade, w: Float64Array): Float64Array {
-  return applyFloor(isCascade(system) ? cascadeMagnitudeDb(system, w) : zpkMagnitudeDb(system, w));
-}
-
-/**
- * Magnitude `20 log10 |H(jw)|` in dB on a grid, from products of squared
- * factor magnitudes with one logarithm per point (points where a product
- * would overflow or underflow, as for high orders far from the band, are
- * summed factor by factor). Accurate to about 1e-13 dB. Values below
- * {@link MAGNITUDE_FLOOR_DB} (including an exact transmission zero on the
- * grid) are clamped to it.
- *
- * @param system - a zpk transfer function or a section cascade
- * @param w - angular frequencies (rad/s), finite
- * @returns magnitude in dB per grid point
- * @throws {@link InvalidArgumentError} when the system or grid is malformed, or a grid point is exactly a jw-axis pole
- * @example
- * ```ts
- * magnitudeDb(zpk([], [{ re: -1, im: 0 }], 1), Float64Array.of(1)); //=> Float64Array [-3.0102999566398116]
- * ```
- */
-export function magnitudeDb(system: Zpk | SectionCascade, w: Float64Array): Float64Array {
-  const fn = "magnitudeDb";
-  requireSystem(fn, "system", system);
-  const grid = requireGrid(fn, "w", w);
-  checkNoAxisPole(fn, polesOf(system), grid);
-  return magnitudeDbUnchecked(system, grid);
-}
-
-/** Continuous argument of (jw - r) on w >= 0, before the global 2 pi shift. */
-function factorArg(r: Complex, w: number): number {
-  const c = r.re === 0 ? 0 : -r.re;
-  const d = w - r.im;
-  if (c >= 0) return Math.atan2(d, c); // LHP or axis: (-pi/2, pi/2], continuous (axis: +pi jump)
-  // RHP root: atan2 jumps by +2 pi as d crosses 0 upwards; take the branch continuous in w.
-  return d >= 0 ? Math.atan2(d, c) - 2 * Math.PI : Math.atan2(d, c);
-}
-
-/** Limit of factorArg as w -> 0+ (an origin root gives +pi/2). */
-function factorArgAtZero(r: Complex): number {
-  if (r.re === 0 && r.im === 0) return Math.PI / 2;
-  return factorArg(r, 0);
-}
-
-/** Phase core for a zpk (no checks). */
-export function zpkPhaseUnchecked(system: Zpk, w: Float64Array): Float64Array {
-  const base = system.gain < 0 ? Math.PI : 0;
-  let at0 = base;
-  for (const z of system.zeros) at0 += factorArgAtZero(z);
-  for (const p of system.poles) at0 -= factorArgAtZero(p);
-  // shift so that the w -> 0+ value lies in (-pi, pi]
-  const shift = -2 * Math.PI * Math.ceil((at0 - Math.PI) / (2 * Math.PI));
-  const out = new Float64Array(w.length).fill(base + shift);
-  for (const z of system.zeros) for (let k = 0; k < w.length; k++) out[k] = (out[k] as number) + factorArg(z, w[k] as number);
-  for (const p of system.poles) for (let k = 0; k < w.length; k++) out[k] = (out[k] as number) - factorArg(p, w[k] as number);
-  return out;
-}
-
-/**
- * Unwrapped phase of `H(jw)` in radians on a grid of non-negative angular
- * frequencies, as the sum of the continuous arguments of the factors (see
- * the module header): continuous in `w` except for a jump of +pi at each
- * jw-axis zero, and with its `w -> 0+` limit in (-pi, pi].
- *
- * @param system - a zpk transfer function or a section cascade
- * @param w - angular frequencies (rad/s), finite and >= 0, in any order
- * @returns phase in radians per grid point
- * @throws {@link InvalidArgumentError} when the system or grid is malformed, a frequency is negative, or a grid point is exactly a jw-axis pole
- * @example
- * ```ts
- * // three poles at -1: phase -3 atan(w)
- * phase(zpk([], Array(3).fill({ re: -1, im: 0 }), 1), Float64Array.of(1, 1e6)); //=> Float64Array [-2.356194490192345, -4.71238598038469]
- * ```
- */
-export function phase(system: Zpk | SectionCascade, w: Float64Array): Float64Array {
-  const fn = "phase";
-  requireSystem(fn, "system", system);
-  const grid = requireGrid(fn, "w", w, { nonNegative: true });
-  const z = isCascade(system) ? fromSectionsUnchecked(system) : system;
-  checkNoAxisPole(fn, z.poles, grid);
-  return zpkPhaseUnchecked(z, grid);
-}
-
-/** Group delay core for a zpk (no checks). */
-export function zpkGroupDelayUnchecked(system: Zpk, w: Float64Array): Float64Array {
-  const out = new Float64Array(w.length);
-  for (const [roots, sign] of [
-    [system.poles, 1],
-    [system.zeros, -1],
-  ] as const) {
-    for (const r of roots) {
-      if (r.re === 0) continue; // jw-axis roots: zero delay away from the root itself
-      const a = -r.re;
-      for (let k = 0; k < w.length; k++) {
-        // a / (d^2 + a^2) as (a / h) / h with h = hypot(d, a): no overflow or underflow
-        const h = Math.hypot((w[k] as number) - r.im, a);
-        out[k] = (out[k] as number) + (sign * (a / h)) / h;
-      }
-    }
-  }
-  return out;
-}
-
-/**
- * Group delay `tau(w) = -d phase / dw` in seconds (for `w` in rad/s), computed
- * exactly from the poles and zeros (see the module header). Zeros and poles on
- * the jw axis contribute 0 (their phase is piecewise constant).
- *
- * @param system - a zpk transfer function or a section cascade
- * @param w - angular frequencies (rad/s), finite
- * @returns group delay in seconds per grid point
- * @throws {@link InvalidArgumentError} when the system or grid is malformed
- * @example
- * ```ts
- * // one pole at -2: tau = 2 / (w^2 + 4)
- * groupDelay(zpk([], [{ re: -2, im: 0 }], 2), Float64Array.of(0, 2)); //=> Float64Array [0.5, 0.25]
- * ```
- */
-export function groupDelay(system: Zpk | SectionCascade, w: Float64Array): Float64Array {
-  const fn = "groupDelay";
-  requireSystem(fn, "system", system);
-  const grid = requireGrid(fn, "w", w);
-  const z = isCascade(system) ? fromSectionsUnchecked(system) : system;
-  return zpkGroupDelayUnchecked(z, grid);
 }

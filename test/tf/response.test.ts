@@ -1,15 +1,8 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import {
-  frequencyResponse,
-  groupDelay,
-  magnitudeDb,
-  magnitudeDbByFactorUnchecked,
-  MAGNITUDE_FLOOR_DB,
-  packedMagnitudeAt,
-  packZpk,
-  phase,
-} from "../../src/tf/response.ts";
+import { frequencyResponse, packedMagnitudeAt, packZpk } from "../../src/tf/response.ts";
+import { magnitudeDb, magnitudeDbByFactorUnchecked, MAGNITUDE_FLOOR_DB } from "../../src/tf/magnitude.ts";
+import { groupDelay, phase } from "../../src/tf/phase.ts";
 import { toSections } from "../../src/tf/sections.ts";
 import { zpk } from "../../src/tf/zpk.ts";
 import type { Complex } from "../../src/math/complex.ts";
