@@ -34,28 +34,17 @@
  *
  * @module
  */
-import { isInSeries, nextInSeries, seriesValuesInRange, snapToSeries } from "../parts/index.ts";
+import { isInSeries, seriesValuesInRange, snapToSeries } from "../parts/index.ts";
 import type { OpAmpModel } from "../circuit/types.ts";
 import { asBuiltPole } from "../topologies/index.ts";
 import { topologyCore } from "../topologies/define.ts";
 import type { AsBuiltPole } from "../topologies/as-built.ts";
-import type { ComponentValues, StageChoices, StageFigures, StageTarget, Topology } from "../topologies/types.ts";
+import type { ComponentValues, StageChoices, StageTarget, Topology } from "../topologies/types.ts";
 import type { DesignSpec } from "./spec.ts";
-import type { StageErrors } from "./types.ts";
+import { neighbours, searchResistors } from "./resistor-search.ts";
+import { costOf, evaluate, isCap, isRes, stageErrors, type ValueSet } from "./stage-cost.ts";
 
-/** A complete set of stage values with its errors. */
-export interface ValueSet {
-  /** Component values by local designator. */
-  readonly values: ComponentValues;
-  /** Ideal-op-amp figures of these values. */
-  readonly figures: StageFigures;
-  /** Relative errors against the target (with op-amp scoring: the pole with the op-amp against the wanted target). */
-  readonly errors: StageErrors;
-  /** Scalar error used for ranking. */
-  readonly cost: number;
-  /** The pole these values have with the op-amp (set only under op-amp scoring). */
-  readonly withOpamp?: AsBuiltPole;
-}
+export type { ValueSet } from "./stage-cost.ts";
 
 /** Result of tuning one stage. */
 export interface TunedStage {
@@ -67,58 +56,6 @@ export interface TunedStage {
   readonly plain: ValueSet;
   /** The exact (unrounded) design the plain set was rounded from. */
   readonly exact: ComponentValues;
-}
-
-const isCap = (name: string): boolean => name.startsWith("C");
-const isRes = (name: string): boolean => name.startsWith("R");
-
-function rel(a: number | undefined, b: number | undefined): number {
-  if (a === undefined || b === undefined) return 0;
-  if (b === 0) return Math.abs(a);
-  return Math.abs(a / b - 1);
-}
-
-/** Relative errors of figures against a target. */
-export function stageErrors(fig: StageFigures, target: StageTarget): StageErrors {
-  return {
-    f0: rel(fig.f0Hz, target.f0Hz),
-    q: target.order === 2 ? rel(fig.q, target.q) : 0,
-    fz: rel(fig.fzHz, target.fzHz),
-    gain: rel(fig.gain, target.gain),
-  };
-}
-
-/** The ranking cost of four relative errors (f0, Q, fz, gain). */
-function cost4(f0: number, q: number, fz: number, gain: number): number {
-  const g = 0.5 * gain;
-  return Math.max(f0, q, fz, g) + 0.1 * (f0 + q + fz + g);
-}
-
-function costOf(e: StageErrors): number {
-  return cost4(e.f0, e.q, e.fz, e.gain);
-}
-
-/** The cost of a set's figures against a target (the same arithmetic as `costOf(stageErrors(...))`), NaN when the figures are unusable. */
-function figuresCost(fig: StageFigures, target: StageTarget): number {
-  if (!Number.isFinite(fig.f0Hz) || !Number.isFinite(fig.gain)) return NaN;
-  const q = target.order === 2 ? rel(fig.q, target.q) : 0;
-  return cost4(rel(fig.f0Hz, target.f0Hz), q, rel(fig.fzHz, target.fzHz), rel(fig.gain, target.gain));
-}
-
-/** The ideal figures of a topology's values: its unchecked core where it has one (values in the search are always positive). */
-function figuresOf(t: Topology): (v: ComponentValues) => StageFigures {
-  return topologyCore(t)?.figures ?? t.figures;
-}
-
-function evaluate(t: Topology, values: ComponentValues, target: StageTarget): ValueSet | null {
-  let fig: StageFigures;
-  try {
-    fig = figuresOf(t)(values);
-  } catch {
-    return null;
-  }
-  const cost = figuresCost(fig, target);
-  return Number.isFinite(cost) ? { values, figures: fig, errors: stageErrors(fig, target), cost } : null;
 }
 
 function tryDesign(
@@ -194,36 +131,6 @@ function capacitorCandidates(
 }
 
 /**
- * The preferred values around `x`: the two that bracket it (one when it is
- * a preferred value) and `spread - 1` more on each side, ascending.
- *
- * @param x - a part value
- * @param series - the preferred-value series
- * @param spread - values on each side
- * @returns the values
- * @throws never
- * @example
- * ```ts
- * neighbours(4800, E24, 2); //=> [4300, 4700, 5100, 5600]
- * ```
- * @internal
- */
-export function neighbours(x: number, series: DesignSpec["resistorSeries"], spread: number): number[] {
-  const down1 = isInSeries(x, series) ? x : snapToSeries(x, { series, mode: "down" }).value;
-  const up1 = isInSeries(x, series) ? x : snapToSeries(x, { series, mode: "up" }).value;
-  const set = new Set<number>([down1, up1]);
-  let d = down1;
-  let u = up1;
-  for (let i = 1; i < spread; i++) {
-    d = nextInSeries(d, { series, direction: "down" });
-    u = nextInSeries(u, { series, direction: "up" });
-    set.add(d);
-    set.add(u);
-  }
-  return [...set].sort((a, b) => a - b);
-}
-
-/**
  * Designs whose capacitors are all stock values: for a topology with a
  * capacitor ratio, the non-stock capacitor is replaced by nearby stock values
  * and the ratio re-derived from each pair.
@@ -285,193 +192,6 @@ function plainSnap(values: ComponentValues, spec: DesignSpec): ComponentValues {
   return out;
 }
 
-/**
- * The working set of a search: every part's value in one array, in the order
- * of the exact design's keys, and the figures of whatever the array holds
- * (the topology's indexed kernel where the keys are its components in
- * order, else its figures of a record filled from the array).
- */
-interface Workspace {
-  readonly keys: readonly string[];
-  readonly x: Float64Array;
-  readonly figures: () => StageFigures;
-  /** The pole frequency alone (the bits of `figures().f0Hz`), where the topology has a cheaper way to it. */
-  readonly f0Hz?: () => number;
-}
-
-function workspace(t: Topology, exact: ComponentValues): Workspace {
-  const keys = Object.keys(exact);
-  const x = Float64Array.from(keys, (k) => exact[k] as number);
-  const core = topologyCore(t);
-  if (core !== undefined && keys.length === t.componentNames.length && keys.every((k, i) => k === t.componentNames[i])) {
-    const kernel = core.figuresAt;
-    const f0At = core.f0At;
-    return { keys, x, figures: () => kernel(x), ...(f0At === undefined ? {} : { f0Hz: () => f0At(x) }) };
-  }
-  const named = figuresOf(t);
-  const record: Record<string, number> = { ...exact };
-  return {
-    keys,
-    x,
-    figures: () => {
-      for (let i = 0; i < keys.length; i++) record[keys[i] as string] = x[i] as number;
-      return named(record);
-    },
-  };
-}
-
-/** The values the workspace holds, as a fresh record keyed like the exact design. */
-function valuesOf(w: Workspace): ComponentValues {
-  const out: Record<string, number> = {};
-  for (let i = 0; i < w.keys.length; i++) out[w.keys[i] as string] = w.x[i] as number;
-  return out;
-}
-
-/**
- * The best `keep` value sets met so far, in ascending cost (ties in the order
- * they were met), and the trial that costs the values the workspace holds.
- *
- * Pruning (branch and bound on the f0 error; exact): every error term is
- * non-negative, so a set's cost is at least `e + 0.1 e` with `e` its relative
- * f0 error, in floating point too (rounded addition, multiplication and max
- * are monotone). Once `keep` sets are held, a trial whose bound already
- * reaches the worst of them is refused without computing its other figures:
- * it could neither enter the list nor (the list holding the best set met)
- * beat the best, so the search goes on exactly as if it had been costed. A
- * refused trial reports Infinity.
- */
-function finalists(w: Workspace, target: StageTarget, keep: number): { found: ValueSet[]; trial: () => number } {
-  const found: ValueSet[] = [];
-  const f0Hz = w.f0Hz;
-  /** Cost the values in the workspace (NaN or Infinity when unusable or refused) and keep them when they rank among the best `keep`. */
-  const trial = (): number => {
-    if (f0Hz !== undefined && found.length >= keep) {
-      const e = rel(f0Hz(), target.f0Hz);
-      if (e + 0.1 * e >= (found[found.length - 1] as ValueSet).cost) return Infinity;
-    }
-    let fig: StageFigures;
-    try {
-      fig = w.figures();
-    } catch {
-      return NaN;
-    }
-    const cost = figuresCost(fig, target);
-    if (!(cost < (found.length < keep ? Infinity : (found[found.length - 1] as ValueSet).cost))) return cost;
-    const vs: ValueSet = { values: valuesOf(w), figures: fig, errors: stageErrors(fig, target), cost };
-    let i = found.length;
-    while (i > 0 && (found[i - 1] as ValueSet).cost > cost) i--;
-    found.splice(i, 0, vs);
-    if (found.length > keep) found.pop();
-    return cost;
-  };
-  return { found, trial };
-}
-
-/**
- * Jointly search preferred resistor values around an exact design: every
- * combination of each resistor's {@link neighbours} when there are at most
- * 1024, else pairwise coordinate descent from the nearest values. One working
- * array of values is updated in place, part by part; a set is copied out only
- * when it ranks among the best `keep`; trials are pruned by the f0 bound of
- * `finalists` (exactly: the result is that of costing every trial).
- *
- * @param t - topology
- * @param target - what the figures are scored against
- * @param exact - the exact design (resistors off-series, capacitors as they are)
- * @param spec - canonical spec (the resistor series)
- * @param spread - preferred values tried on each side of every resistor
- * @param keep - sets returned
- * @returns the best `keep` sets met, ascending cost (ties in the order met)
- * @throws never
- * @example
- * ```ts
- * searchResistors(mfb, target, mfb.design(target, { capacitor: 1e-8 }), spec, 2, 6)[0].cost; //=> 0.0021...
- * ```
- * @internal
- */
-export function searchResistors(
-  t: Topology,
-  target: StageTarget,
-  exact: ComponentValues,
-  spec: DesignSpec,
-  spread: number,
-  keep: number,
-): ValueSet[] {
-  const w = workspace(t, exact);
-  const x = w.x;
-  const slots = w.keys.flatMap((k, i) => (isRes(k) ? [i] : []));
-  const options = slots.map((i) => neighbours(x[i] as number, spec.resistorSeries, spread));
-  const { found, trial } = finalists(w, target, keep);
-  const total = options.reduce((p, o) => p * o.length, 1);
-  const idx = slots.map(() => 0);
-  if (total <= 1024) {
-    // Every combination, the first resistor's choice changing fastest.
-    slots.forEach((s, i) => (x[s] = (options[i] as number[])[0] as number));
-    for (let count = 0; count < total; count++) {
-      trial();
-      for (let i = 0; i < idx.length; i++) {
-        const o = options[i] as number[];
-        idx[i] = (idx[i] as number) + 1;
-        if ((idx[i] as number) < o.length) {
-          x[slots[i] as number] = o[idx[i] as number] as number;
-          break;
-        }
-        idx[i] = 0;
-        x[slots[i] as number] = o[0] as number;
-      }
-    }
-    return found;
-  }
-  // Pairwise coordinate descent from the nearest values: every pair of
-  // resistors tries all its combinations with the others held, until a
-  // sweep improves nothing (single-part descent stalls where f0 and Q
-  // depend on ratios of two parts).
-  slots.forEach((s, i) => {
-    const o = options[i] as number[];
-    const v0 = exact[w.keys[s] as string] as number;
-    let bi = 0;
-    o.forEach((v, j) => {
-      if (Math.abs(Math.log(v / v0)) < Math.abs(Math.log((o[bi] as number) / v0))) bi = j;
-    });
-    idx[i] = bi;
-    x[s] = o[bi] as number;
-  });
-  let cur = trial();
-  if (!Number.isFinite(cur)) cur = Infinity;
-  for (let sweep = 0; sweep < 4; sweep++) {
-    let improved = false;
-    for (let i = 0; i < idx.length; i++) {
-      for (let k = i + 1; k < idx.length; k++) {
-        const si = slots[i] as number;
-        const sk = slots[k] as number;
-        const oi = options[i] as number[];
-        const ok = options[k] as number[];
-        let bestI = idx[i] as number;
-        let bestK = idx[k] as number;
-        for (let a = 0; a < oi.length; a++) {
-          x[si] = oi[a] as number;
-          for (let b = 0; b < ok.length; b++) {
-            if (a === idx[i] && b === idx[k]) continue;
-            x[sk] = ok[b] as number;
-            const cost = trial();
-            if (cost < cur) {
-              cur = cost;
-              bestI = a;
-              bestK = b;
-              improved = true;
-            }
-          }
-        }
-        idx[i] = bestI;
-        idx[k] = bestK;
-        x[si] = oi[bestI] as number;
-        x[sk] = ok[bestK] as number;
-      }
-    }
-    if (!improved) break;
-  }
-  return found;
-}
 
 /** Options of {@link tuneStage}. */
 export interface TuneOptions {

@@ -3,7 +3,9 @@ import { isInSeries } from "../../src/parts/index.ts";
 import { asBuiltPole, getTopology } from "../../src/topologies/index.ts";
 import type { StageTarget } from "../../src/topologies/types.ts";
 import { validateSpec } from "../../src/design/spec.ts";
-import { neighbours, searchResistors, stageErrors, tuneStage, type ValueSet } from "../../src/design/components.ts";
+import { tuneStage } from "../../src/design/components.ts";
+import { neighbours, searchResistors } from "../../src/design/resistor-search.ts";
+import { stageErrors, type ValueSet } from "../../src/design/stage-cost.ts";
 import type { ComponentValues, Topology } from "../../src/topologies/types.ts";
 
 const spec = validateSpec({
