@@ -233,6 +233,18 @@ export function maskGrid(spec: DesignSpec): MaskGrid {
   return { freqHz, band };
 }
 
+const radS = new WeakMap<MaskGrid, Float64Array>();
+
+/** A mask grid's frequencies in rad/s, made once per grid (re-tuning costs many candidates on one grid). */
+function gridRadS(grid: MaskGrid): Float64Array {
+  let w = radS.get(grid);
+  if (w === undefined) {
+    w = grid.freqHz.map((f) => TWO_PI * f);
+    radS.set(grid, w);
+  }
+  return w;
+}
+
 /**
  * |H|^2 of one stage on a {@link maskGrid} (its polynomials with the op-amp
  * model, or its closed form where they cannot be formed).
@@ -247,11 +259,11 @@ export function stageMagnitudeSquared(spec: DesignSpec, stage: BuiltStage, opamp
   const out = new Float64Array(grid.freqHz.length);
   const p = stagePolynomials(stage.topology, stage.values, opamp, { spanRadS: spanRadS(maskPlan(spec).bands) });
   if (p === null) {
-    closedFormSource([stage], opamp).magnitudeSquared(grid.freqHz.map((f) => TWO_PI * f), out);
+    closedFormSource([stage], opamp).magnitudeSquared(gridRadS(grid), out);
     return out;
   }
   out.fill(1);
-  multiplyMagnitudeSquared(p.num, p.den, p.scale, grid.freqHz.map((f) => TWO_PI * f), out);
+  multiplyMagnitudeSquared(p.num, p.den, p.scale, gridRadS(grid), out);
   return out;
 }
 
