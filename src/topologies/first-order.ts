@@ -53,7 +53,8 @@
 import type { ComponentValues, StageTarget, Topology } from "./types.ts";
 import { cadd, cdiv, cmul, complex, cscale } from "../math/complex.ts";
 import { TWO_PI } from "../units/constants.ts";
-import { defineTopology, partIndex, valueOf, conductanceOf, LIMIT_SLACK, type PartSpec } from "./define.ts";
+import { defineTopology } from "./define.ts";
+import { partIndex, valueOf, conductanceOf, LIMIT_SLACK, type PartSpec } from "./spec.ts";
 import { invertingGain, nonInvertingGain } from "./kernels.ts";
 
 const REF =

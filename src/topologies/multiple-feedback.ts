@@ -52,7 +52,8 @@ import { requirePositive } from "../validate.ts";
 import type { ComponentValues, StageFigures, StageTarget, Topology } from "./types.ts";
 import { complex, cscale, type Complex } from "../math/complex.ts";
 import { TWO_PI } from "../units/constants.ts";
-import { atLeast, defineTopology, partIndex, valueOf, conductanceOf, type PartSpec } from "./define.ts";
+import { defineTopology } from "./define.ts";
+import { atLeast, partIndex, valueOf, conductanceOf, type PartSpec } from "./spec.ts";
 import { mfbKernel, mfbPolynomials, type PolynomialCore } from "./kernels.ts";
 
 const REF =

@@ -71,7 +71,8 @@ import { requireInRange, requirePositive } from "../validate.ts";
 import type { ComponentValues, StageChoices, StageTarget, Topology } from "./types.ts";
 import { cadd, cdiv, cmul, complex, cscale, csub, type Complex } from "../math/complex.ts";
 import { TWO_PI } from "../units/constants.ts";
-import { atLeast, defineTopology, partIndex, valueOf, type PartSpec, type TopologySpec } from "./define.ts";
+import { defineTopology } from "./define.ts";
+import { atLeast, partIndex, valueOf, type PartSpec, type TopologySpec } from "./spec.ts";
 import { nonInvertingGain, type PolynomialCore } from "./kernels.ts";
 
 const REF =

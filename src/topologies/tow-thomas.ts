@@ -48,7 +48,8 @@
 import type { ComponentValues, StageFigures, StageKind, StageTarget, Topology } from "./types.ts";
 import { cadd, cdiv, cmul, complex, cscale, type Complex } from "../math/complex.ts";
 import { TWO_PI } from "../units/constants.ts";
-import { defineTopology, indexedFigures, loopIndex, withOutputAt, valueOf, conductanceOf, type PartSpec } from "./define.ts";
+import { defineTopology } from "./define.ts";
+import { indexedFigures, loopIndex, withOutputAt, valueOf, conductanceOf, type PartSpec } from "./spec.ts";
 import { invertingGain, summer, type PolynomialCore } from "./kernels.ts";
 
 const REF =

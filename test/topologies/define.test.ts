@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { topologies } from "../../src/topologies/index.ts";
-import { indexedFigures, topologyCore } from "../../src/topologies/define.ts";
+import { topologyCore } from "../../src/topologies/define.ts";
+import { indexedFigures } from "../../src/topologies/spec.ts";
 import { mulberry32 } from "../../src/math/index.ts";
 
 describe("topologyCore", () => {
