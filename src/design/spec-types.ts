@@ -1,0 +1,249 @@
+/**
+ * The filter specification types: the {@link FilterSpec} an engineer writes,
+ * in hertz and decibels, its parts, and the canonical {@link DesignSpec} that
+ * validation brings it to.
+ *
+ * @module
+ */
+import type { OpAmpModel } from "../circuit/types.ts";
+import type { FamilyName } from "../approx/index.ts";
+import type { SeriesName } from "../parts/index.ts";
+
+/** The four responses a filter can have. */
+export type ResponseType = "lowpass" | "highpass" | "bandpass" | "bandstop";
+
+/**
+ * How the family is chosen when the spec does not name one:
+ * - `fewest-op-amps`: the family whose circuit needs the fewest op-amps, then
+ *   the fewest stages (ties go to the candidate with the most room for part
+ *   rounding). Op-amps are what a board pays for in parts, power and noise,
+ *   so this is the default;
+ * - `fewest-stages`: the family that meets the mask with the fewest stages
+ *   (second-order sections), then the fewest op-amps; a notch section built
+ *   as a multi-amplifier stage still counts as one stage;
+ * - `flattest-delay`: the family whose passband group delay varies least;
+ * - `monotonic`: the fewest stages among families with a monotonic passband
+ *   (Butterworth, Legendre, Bessel, Chebyshev II).
+ */
+export type FamilyPriority = "fewest-op-amps" | "fewest-stages" | "flattest-delay" | "monotonic";
+
+/** Sign requirement on the passband gain. */
+export type Polarity = "non-inverting" | "inverting" | "either";
+
+/** A frequency, resistance or capacitance: a number in SI units, or a string in engineering notation (`"20k"`, `"4k7"`, `"100n"`). */
+export type Quantity = number | string;
+
+/** One band edge (lowpass, highpass) or a pair of edges (bandpass, bandstop), low edge first. */
+export type EdgeInput = Quantity | readonly [Quantity, Quantity];
+
+/** The passband of the spec. */
+export interface PassbandSpec {
+  /** Passband edge in Hz (lowpass, highpass) or the two edges `[low, high]` (bandpass, bandstop). */
+  readonly edgeHz: EdgeInput;
+  /** Largest loss allowed anywhere in the passband, in dB, relative to the passband's highest level (> 0). */
+  readonly maxLossDb: number;
+  /**
+   * Highpass and bandstop only: the highest frequency, Hz, up to which the
+   * upper passband is checked (every real op-amp ends a passband somewhere).
+   * @defaultValue 100 times the upper passband edge
+   */
+  readonly topHz?: Quantity;
+}
+
+/** The stopband of the spec. */
+export interface StopbandSpec {
+  /** Stopband edge in Hz (lowpass, highpass) or the two edges `[low, high]` (bandpass, bandstop). */
+  readonly edgeHz: EdgeInput;
+  /** Smallest attenuation allowed anywhere in the stopband, in dB, relative to the passband's highest level. */
+  readonly minAttenuationDb: number;
+}
+
+/** The passband gain: give `db` or `vPerV` (not both). */
+export interface GainSpec {
+  /** Passband gain in dB (the magnitude; use `polarity` for the sign). */
+  readonly db?: number;
+  /** Passband gain in V/V; a negative value asks for an inverting filter. */
+  readonly vPerV?: number;
+  /**
+   * Sign requirement.
+   * @defaultValue `"inverting"` when `vPerV` is negative, otherwise `"either"`
+   */
+  readonly polarity?: Polarity;
+  /**
+   * How far the as-built passband level may sit from the requested gain, in dB
+   * (common practice, no source).
+   * @defaultValue 0.25
+   */
+  readonly toleranceDb?: number;
+}
+
+/** Preferred-value series and value windows for the parts. */
+export interface PartsSpec {
+  /**
+   * Series for capacitors.
+   * @defaultValue `"E12"`
+   */
+  readonly capacitorSeries?: SeriesName;
+  /**
+   * Series for resistors.
+   * @defaultValue `"E96"`
+   */
+  readonly resistorSeries?: SeriesName;
+  /**
+   * Capacitor tolerance as a fraction (0.02 for 2 %): what the BOM asks for
+   * and what tolerance analysis assumes. Stock C0G/NP0 capacitors come in
+   * E12 values at 1 %, 2 % and 5 %, so a tight filter need not accept the
+   * series' usual 10 %.
+   * @defaultValue the usual tolerance of `capacitorSeries` (E12: 0.1)
+   */
+  readonly capacitorTolerance?: number;
+  /**
+   * Resistor tolerance as a fraction (0.001 for 0.1 %).
+   * @defaultValue the usual tolerance of `resistorSeries` (E96: 0.01)
+   */
+  readonly resistorTolerance?: number;
+  /**
+   * Smallest resistor wanted, ohms (common practice, no source: below about 1 kΩ
+   * op-amp output current and distortion grow).
+   * @defaultValue 1000
+   */
+  readonly resistorMinOhm?: Quantity;
+  /**
+   * Largest resistor wanted, ohms (common practice, no source: above about
+   * 100 kΩ resistor noise and bias-current offsets grow).
+   * @defaultValue 100000
+   */
+  readonly resistorMaxOhm?: Quantity;
+  /**
+   * Smallest capacitor considered, farads (common practice, no source: below
+   * about 100 pF board and op-amp input capacitance matter).
+   * @defaultValue 1e-10
+   */
+  readonly capacitorMinF?: Quantity;
+  /**
+   * Largest capacitor considered, farads (common practice, no source: film
+   * capacitors above about 10 µF are large and costly).
+   * @defaultValue 1e-5
+   */
+  readonly capacitorMaxF?: Quantity;
+}
+
+/** A real op-amp described by its open-loop DC gain and gain-bandwidth product (single-pole model). */
+export interface OpAmpSpec {
+  /** Open-loop DC gain in V/V (e.g. 1e5 for 100 dB). */
+  readonly a0: number;
+  /** Gain-bandwidth product in Hz. */
+  readonly gbwHz: Quantity;
+}
+
+/**
+ * A filter specification as the engineer writes it.
+ *
+ * @example
+ * ```ts
+ * const spec: FilterSpec = {
+ *   response: "lowpass",
+ *   passband: { edgeHz: "2k", maxLossDb: 0.5 },
+ *   stopband: { edgeHz: "12k", minAttenuationDb: 60 },
+ * };
+ * ```
+ */
+export interface FilterSpec {
+  /** What the filter passes. */
+  readonly response: ResponseType;
+  /** Passband edge(s) and largest loss. */
+  readonly passband: PassbandSpec;
+  /** Stopband edge(s) and smallest attenuation. */
+  readonly stopband: StopbandSpec;
+  /**
+   * Passband gain.
+   * @defaultValue 0 dB (unity), either polarity
+   */
+  readonly gain?: GainSpec;
+  /**
+   * Approximation family, or `"auto"` to choose one by `priority`.
+   * @defaultValue `"auto"`
+   */
+  readonly family?: FamilyName | "auto";
+  /**
+   * What the automatic family choice optimises (ignored when a family is named).
+   * @defaultValue `"fewest-op-amps"`
+   */
+  readonly priority?: FamilyPriority;
+  /**
+   * Fixed prototype order (for bandpass and bandstop the circuit has twice as
+   * many poles). When absent, the minimum order that meets the mask is used.
+   */
+  readonly order?: number;
+  /**
+   * Topology: `"auto"`; one topology id, used for every stage it can build
+   * (the others are chosen automatically); or one entry per stage (each an id
+   * or `"auto"`), which must fit its stage.
+   * @defaultValue `"auto"`
+   */
+  readonly topology?: string | readonly string[];
+  /**
+   * Part series and value windows.
+   * @defaultValue capacitors E12, resistors E96 within 1 kΩ-100 kΩ
+   */
+  readonly parts?: PartsSpec;
+  /**
+   * The op-amp used in every stage: `"ideal"`, or a single-pole model.
+   * @defaultValue `"ideal"`
+   */
+  readonly opamp?: "ideal" | OpAmpSpec;
+}
+
+/** An inclusive window of part values in SI units. */
+export interface ValueWindow {
+  /** Smallest value. */
+  readonly min: number;
+  /** Largest value. */
+  readonly max: number;
+}
+
+/** The canonical, validated form of a {@link FilterSpec}: every default filled in, every value a number in SI units. */
+export interface DesignSpec {
+  /** What the filter passes. */
+  readonly response: ResponseType;
+  /** Passband edge(s) in Hz, ascending (one for lowpass/highpass, two for bandpass/bandstop). */
+  readonly passbandHz: readonly number[];
+  /** Stopband edge(s) in Hz, ascending. */
+  readonly stopbandHz: readonly number[];
+  /** Highest frequency of the upper passband that is checked (highpass, bandstop), Hz. */
+  readonly passbandTopHz: number | null;
+  /** Largest passband loss, dB. */
+  readonly maxLossDb: number;
+  /** Smallest stopband attenuation, dB. */
+  readonly minAttenuationDb: number;
+  /** Passband gain magnitude, V/V (> 0). */
+  readonly gain: number;
+  /** Sign requirement on the passband gain. */
+  readonly polarity: Polarity;
+  /** Allowed distance of the as-built passband level from `gain`, dB. */
+  readonly gainToleranceDb: number;
+  /** Named family or `"auto"`. */
+  readonly family: FamilyName | "auto";
+  /** Priority of the automatic family choice. */
+  readonly priority: FamilyPriority;
+  /** Fixed prototype order, or `null` for the minimum order. */
+  readonly order: number | null;
+  /** Topology for every stage (`"auto"` or an id), used where `stageTopologies` has no entry. */
+  readonly topology: string;
+  /** Per-stage topology choices (`"auto"` or an id); empty when one choice applies to all. */
+  readonly stageTopologies: readonly string[];
+  /** Capacitor series. */
+  readonly capacitorSeries: SeriesName;
+  /** Resistor series. */
+  readonly resistorSeries: SeriesName;
+  /** Capacitor tolerance as a fraction. */
+  readonly capacitorTolerance: number;
+  /** Resistor tolerance as a fraction. */
+  readonly resistorTolerance: number;
+  /** Resistor window, ohms. */
+  readonly resistorRange: ValueWindow;
+  /** Capacitor window, farads. */
+  readonly capacitorRange: ValueWindow;
+  /** Op-amp model for analysis. */
+  readonly opamp: OpAmpModel;
+}
