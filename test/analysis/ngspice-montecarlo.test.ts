@@ -1,0 +1,190 @@
+/**
+ * An outside check of monteCarlo's board yield: the same designs' boards,
+ * netlisted and simulated by ngspice, meet the mask as often as the library
+ * says.
+ *
+ * For each scenario (responses of every kind, one with single-pole op-amps)
+ * the parts' tolerance class is picked from a ladder so that the library's
+ * yield is informative (the class whose pilot run, of its own seed, is
+ * nearest 60 %; it must lie in 30-90 %). Boards are then
+ * drawn independently of the library (uniform within +-tolerance, as
+ * monteCarlo draws by default, from a stream of this test's own seed), each
+ * board's netlist is the design's with the drawn values put in by `alter`,
+ * and ngspice's AC response gives each board's mask figures
+ * (test/helpers/ngspice-boards.ts). Two checks follow:
+ *
+ * - yield: the ngspice yield and the library's monteCarlo yield (its own
+ *   boards, as many) each get a 95 % Wilson score interval (E. B. Wilson,
+ *   "Probable inference, the law of succession, and statistical inference",
+ *   J. Amer. Statist. Assoc. 22(158):209-212, 1927, eq. for the limits of
+ *   p), and their difference must lie within its 95 % bound, the hybrid
+ *   score interval built from the two Wilson intervals (R. G. Newcombe,
+ *   "Interval estimation for the difference between independent
+ *   proportions: comparison of eleven methods", Statistics in Medicine
+ *   17(8):873-890, 1998, method 10);
+ * - per board: the library's as-built check (checkMask) of every board
+ *   ngspice simulated gives the same passband loss, stopband attenuation,
+ *   level and worst margin to 1e-3 dB, and so the same verdict wherever the
+ *   margin is not within 1e-3 dB of zero.
+ *
+ * NGSPICE_MC_BOARDS sets the boards per design (default 200);
+ * NGSPICE_MC_REPORT=1 prints one line per design.
+ */
+import { describe, expect, it } from "vitest";
+import { designFilter, type DesignResult, type FilterSpec } from "../../src/design/index.ts";
+import { monteCarlo } from "../../src/analysis/index.ts";
+import { toSpiceNetlist } from "../../src/report/index.ts";
+import { builtStages } from "../../src/design/response.ts";
+import { checkMask, maskBands, type BuiltStage } from "../../src/design/verify.ts";
+import type { MaskLimits } from "../../src/evaluate/mask.ts";
+import { mulberry32 } from "../../src/math/random.ts";
+import { requireNgspice } from "../helpers/ngspice.ts";
+import { ngspiceBoardFigures, type BoardValues, type SpiceBoardFigures } from "../helpers/ngspice-boards.ts";
+
+const haveSpice = requireNgspice();
+const BOARDS = Number(process.env["NGSPICE_MC_BOARDS"] ?? 200);
+const REPORT = process.env["NGSPICE_MC_REPORT"] === "1";
+/** Seed of this test's own board stream (the library's runs use seed 1). */
+const SPICE_SEED = 20260611;
+/** The usual tolerance classes of resistors and capacitors (0.1, 0.25, 0.5, 1, 2, 5, 10 %); both parts get the same class. */
+const LADDER = [0.001, 0.0025, 0.005, 0.01, 0.02, 0.05, 0.1] as const;
+/** Largest difference between ngspice's and the library's figures of one board, dB. */
+const AGREE_DB = 1e-3;
+
+/** Upper 2.5 % point of the standard normal distribution (full precision). */
+const Z95 = 1.959963984540054;
+
+/** Wilson score interval of a proportion `passed / n` at the normal point `z`. */
+function wilsonInterval(passed: number, n: number, z = Z95): { lower: number; upper: number } {
+  const p = passed / n;
+  const z2n = (z * z) / n;
+  const centre = (p + z2n / 2) / (1 + z2n);
+  const half = (z / (1 + z2n)) * Math.sqrt((p * (1 - p)) / n + (z * z) / (4 * n * n));
+  return { lower: Math.max(0, centre - half), upper: Math.min(1, centre + half) };
+}
+
+/** Newcombe's hybrid score interval (method 10) of p1 - p2 from the two Wilson intervals. */
+function differenceInterval(p1: number, w1: { lower: number; upper: number }, p2: number, w2: { lower: number; upper: number }): { lower: number; upper: number } {
+  const d = p1 - p2;
+  return {
+    lower: d - Math.hypot(p1 - w1.lower, w2.upper - p2),
+    upper: d + Math.hypot(w1.upper - p1, p2 - w2.lower),
+  };
+}
+
+/** Scenarios of our own: one of each response, and one with single-pole op-amps. */
+const scenarios: readonly { name: string; spec: FilterSpec }[] = [
+  {
+    name: "seismometer anti-alias lowpass",
+    spec: { response: "lowpass", passband: { edgeHz: 20, maxLossDb: 0.5 }, stopband: { edgeHz: 50, minAttenuationDb: 45 } },
+  },
+  {
+    name: "turntable rumble highpass",
+    spec: { response: "highpass", passband: { edgeHz: 30, maxLossDb: 1 }, stopband: { edgeHz: 12, minAttenuationDb: 30 } },
+  },
+  {
+    name: "sonar receiver bandpass",
+    spec: {
+      response: "bandpass",
+      passband: { edgeHz: [36000, 44000], maxLossDb: 1 },
+      stopband: { edgeHz: [28000, 56000], minAttenuationDb: 30 },
+    },
+  },
+  {
+    name: "60 Hz hum bandstop",
+    spec: { response: "bandstop", passband: { edgeHz: [45, 80], maxLossDb: 1 }, stopband: { edgeHz: [58, 62], minAttenuationDb: 25 } },
+  },
+  {
+    name: "ultrasonic ranging lowpass, single-pole op-amps",
+    spec: {
+      response: "lowpass",
+      passband: { edgeHz: 20000, maxLossDb: 0.5 },
+      stopband: { edgeHz: 40000, minAttenuationDb: 40 },
+      opamp: { a0: 1e5, gbwHz: 2e6 },
+    },
+  },
+];
+
+/** The ladder's tolerance whose library yield (pilot run, seed 99) is nearest 60 %, and that yield. */
+function pickTolerance(design: DesignResult): { tolerance: number; pilot: number } {
+  const pilots = LADDER.map((t) => ({
+    tolerance: t,
+    pilot: monteCarlo(design, { runs: BOARDS, seed: 99, resistorTolerance: t, capacitorTolerance: t }).yield,
+  }));
+  return pilots.reduce((a, b) => (Math.abs(b.pilot - 0.6) < Math.abs(a.pilot - 0.6) ? b : a));
+}
+
+/** Boards drawn uniformly within +-tolerance of the design's values, from this test's own stream. */
+function drawBoards(design: DesignResult, tolerance: number, count: number): BoardValues[] {
+  const next = mulberry32(SPICE_SEED);
+  const nominal = design.stages.flatMap((s) => Object.entries(s.components));
+  return Array.from({ length: count }, () =>
+    Object.fromEntries(nominal.map(([name, v]) => [name, v * (1 + tolerance * (2 * next() - 1))])),
+  );
+}
+
+/** The library's as-built stages of a board (its values put into each stage by local designator). */
+function boardStages(design: DesignResult, values: BoardValues): BuiltStage[] {
+  return builtStages(design).map((s, k) => {
+    const local: Record<string, number> = {};
+    for (const [global, name] of Object.entries((design.stages[k] as DesignResult["stages"][number]).localNames)) {
+      local[name] = values[global] as number;
+    }
+    return { topology: s.topology, values: local };
+  });
+}
+
+const limitsOf = (design: DesignResult): MaskLimits => ({
+  maxLossDb: design.spec.maxLossDb,
+  minAttenuationDb: design.spec.minAttenuationDb,
+  gain: design.spec.gain,
+  gainToleranceDb: design.spec.gainToleranceDb,
+});
+
+describe("monteCarlo against ngspice boards", () => {
+  for (const { name, spec } of scenarios) {
+    it.skipIf(!haveSpice)(`${name}: ngspice's yield over ${BOARDS} boards agrees with monteCarlo's`, () => {
+      const design = designFilter(spec);
+      const { tolerance, pilot } = pickTolerance(design);
+      expect(pilot, `no tolerance class gives an informative yield (${pilot})`).toBeGreaterThanOrEqual(0.3);
+      expect(pilot, `no tolerance class gives an informative yield (${pilot})`).toBeLessThanOrEqual(0.9);
+
+      const library = monteCarlo(design, { runs: BOARDS, seed: 1, resistorTolerance: tolerance, capacitorTolerance: tolerance });
+      const boards = drawBoards(design, tolerance, BOARDS);
+      const spice = ngspiceBoardFigures(toSpiceNetlist(design), boards, maskBands(design.spec), limitsOf(design));
+      const spicePassed = spice.filter((f) => f.marginDb >= 0).length;
+      const libraryPassed = Math.round(library.yield * BOARDS);
+      const ws = wilsonInterval(spicePassed, BOARDS);
+      const wl = wilsonInterval(libraryPassed, BOARDS);
+      const diff = differenceInterval(spicePassed / BOARDS, ws, library.yield, wl);
+
+      // the library's own check of the very boards ngspice simulated
+      let worst = 0;
+      let disagreements = 0;
+      spice.forEach((s: SpiceBoardFigures, k) => {
+        const m = checkMask(design.spec, boardStages(design, boards[k] as BoardValues), design.spec.opamp);
+        const d = Math.max(
+          Math.abs(m.passbandLossDb - s.passbandLossDb),
+          Math.abs(m.stopbandAttenuationDb - s.stopbandAttenuationDb),
+          Math.abs(m.gainDb - s.gainDb),
+          Math.abs(m.marginDb - s.marginDb),
+        );
+        worst = Math.max(worst, d);
+        if (m.marginDb >= 0 !== s.marginDb >= 0 && Math.abs(s.marginDb) > AGREE_DB) disagreements++;
+      });
+
+      const pct = (x: number): string => (100 * x).toFixed(1);
+      const line =
+        `${name}: ${design.family} ${design.filterOrder}-pole, parts +-${100 * tolerance} %, ${BOARDS} boards; ` +
+        `ngspice ${pct(spicePassed / BOARDS)} % [${pct(ws.lower)}, ${pct(ws.upper)}], ` +
+        `library ${pct(library.yield)} % [${pct(wl.lower)}, ${pct(wl.upper)}], ` +
+        `difference 95 % bound [${pct(diff.lower)}, ${pct(diff.upper)}]; same boards: worst figure difference ${worst.toExponential(1)} dB`;
+      if (REPORT) console.log(line);
+
+      expect(worst, line).toBeLessThan(AGREE_DB);
+      expect(disagreements, line).toBe(0);
+      expect(ws.lower <= wl.upper && wl.lower <= ws.upper, line).toBe(true);
+      expect(diff.lower <= 0 && 0 <= diff.upper, line).toBe(true);
+    });
+  }
+});
