@@ -11,3 +11,4 @@ export * from "./stage-polynomials.ts";
 export * from "./cascade.ts";
 export * from "./mask.ts";
 export * from "./boards.ts";
+export * from "./spread.ts";
