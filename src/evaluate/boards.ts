@@ -121,6 +121,31 @@ function deviation(next: () => number, distribution: PartDistribution): number {
 }
 
 /**
+ * The unit deviations of one batch of boards, as {@link runBoards} draws
+ * them: `count` boards of `parts` parts each, board-major, every entry in
+ * [-1, 1] (multiplied by the part's tolerance later). Other estimators call
+ * this to draw the very boards `runBoards` builds (common random numbers).
+ *
+ * @param seed - the run's seed
+ * @param batch - the batch number (board `batch * BATCH` is its first)
+ * @param count - boards to draw (at most {@link BATCH} for the same boards as `runBoards`)
+ * @param parts - parts per board
+ * @param distribution - part spread
+ * @param out - written from index 0, `count * parts` entries
+ */
+export function drawDeviations(
+  seed: number,
+  batch: number,
+  count: number,
+  parts: number,
+  distribution: PartDistribution,
+  out: Float64Array,
+): void {
+  const next = mulberry32(batchSeed(seed, batch));
+  for (let i = 0; i < count * parts; i++) out[i] = deviation(next, distribution);
+}
+
+/**
  * Build and check Monte Carlo boards (internal hot path: no checks).
  *
  * @param stages - the board's stages
@@ -157,9 +182,8 @@ export function runBoards(stages: readonly BoardStage[], plan: MaskPlan, options
     genericPlan(s, p.num, p.den);
   });
   for (let start = 0; start < boards; start += BATCH) {
-    const next = mulberry32(batchSeed(seed, (first + start) / BATCH));
     const count = Math.min(BATCH, boards - start);
-    for (let i = 0; i < count * parts; i++) draws[i] = deviation(next, distribution);
+    drawDeviations(seed, (first + start) / BATCH, count, parts, distribution, draws);
     for (let b = 0; b < count; b++) {
       let at = b * parts;
       let ok = true;

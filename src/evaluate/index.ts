@@ -13,3 +13,4 @@ export * from "./mask.ts";
 export * from "./boards.ts";
 export * from "./stability.ts";
 export * from "./yield.ts";
+export * from "./spread.ts";
