@@ -38,13 +38,13 @@ export interface MonteCarloOptions {
    */
   readonly seed?: number;
   /**
-   * Resistor tolerance as a fraction (0.01 for 1 %).
-   * @defaultValue the spec's `parts.resistorTolerance` (the usual tolerance of its resistor series unless given)
+   * Resistor tolerance as a fraction (0.01 for 1 %), for every resistor.
+   * @defaultValue each resistor's own tolerance in the design (`stages[].tolerances`)
    */
   readonly resistorTolerance?: number;
   /**
-   * Capacitor tolerance as a fraction.
-   * @defaultValue the spec's `parts.capacitorTolerance` (the usual tolerance of its capacitor series unless given)
+   * Capacitor tolerance as a fraction, for every capacitor.
+   * @defaultValue each capacitor's own tolerance in the design (`stages[].tolerances`)
    */
   readonly capacitorTolerance?: number;
   /**
@@ -81,7 +81,7 @@ export interface MonteCarloResult {
   readonly yield: number;
   /** Standard error of `yield`. */
   readonly yieldStandardError: number;
-  /** Tolerances used, as fractions. */
+  /** Tolerances used, as fractions (the loosest resistor and capacitor when the design allocated them per part). */
   readonly tolerances: ToleranceFractions;
   /** Worst margin over the mask, dB. */
   readonly marginDb: Spread;
@@ -125,11 +125,11 @@ export function monteCarlo(result: DesignResult, options?: MonteCarloOptions): M
   const seed = o["seed"] === undefined ? 1 : requireInteger(fn, "options.seed", o["seed"], { min: -(2 ** 31), max: 2 ** 32 - 1 });
   const rt =
     o["resistorTolerance"] === undefined
-      ? result.spec.resistorTolerance
+      ? undefined
       : requireInRange(fn, "options.resistorTolerance", o["resistorTolerance"], { min: 0, max: 0.5 });
   const ct =
     o["capacitorTolerance"] === undefined
-      ? result.spec.capacitorTolerance
+      ? undefined
       : requireInRange(fn, "options.capacitorTolerance", o["capacitorTolerance"], { min: 0, max: 0.5 });
   if (result === null || typeof result !== "object" || !Array.isArray(result.stages)) {
     throw new InvalidArgumentError({ fn, path: "result", received: result, message: "expected a design result from designFilter" });
@@ -139,12 +139,18 @@ export function monteCarlo(result: DesignResult, options?: MonteCarloOptions): M
   const plan = maskPlan(result.spec);
   const span = spanRadS(plan.bands);
   const opamp = result.spec.opamp;
-  const stages: BoardStage[] = builtStages(result).map((s) => {
+  const stages: BoardStage[] = builtStages(result).map((s, k) => {
     const compiled = compileStage(s.topology, s.values, opamp, span);
+    const st = result.stages[k] as DesignResult["stages"][number];
+    const own = new Map(Object.entries(st.localNames).map(([global, local]) => [local, st.tolerances[global] as number]));
+    const part = (name: string): number => {
+      const fixed = name.startsWith("C") ? ct : rt;
+      return fixed ?? own.get(name) ?? (name.startsWith("C") ? result.spec.capacitorTolerance : result.spec.resistorTolerance);
+    };
     return {
       compiled,
       nominal: Float64Array.from(compiled.componentNames, (name) => s.values[name] as number),
-      tolerance: Float64Array.from(compiled.componentNames, (name) => (name.startsWith("C") ? ct : rt)),
+      tolerance: Float64Array.from(compiled.componentNames, part),
       radius: TWO_PI * s.topology.figures(s.values).f0Hz,
     };
   });
@@ -161,7 +167,10 @@ export function monteCarlo(result: DesignResult, options?: MonteCarloOptions): M
     runs,
     yield: p,
     yieldStandardError: Math.sqrt((p * (1 - p)) / runs),
-    tolerances: { resistor: rt, capacitor: ct },
+    tolerances: {
+      resistor: rt ?? Math.max(...stages.flatMap((s) => [...s.tolerance].filter((_, i) => !(s.compiled.componentNames[i] as string).startsWith("C")))),
+      capacitor: ct ?? Math.max(...stages.flatMap((s) => [...s.tolerance].filter((_, i) => (s.compiled.componentNames[i] as string).startsWith("C")))),
+    },
     marginDb: spread(run.marginDb),
     passbandLossDb: spread(run.passbandLossDb),
     stopbandAttenuationDb: spread(run.stopbandAttenuationDb),

@@ -15,6 +15,7 @@ import { DESIGN_CAUTIONS, toBomCsv, toJson, toMarkdown, toSpiceNetlist, toSvgPlo
 import { topologies } from "../topologies/index.ts";
 import { formatValue, parseValue } from "../units/index.ts";
 import { SCENARIOS } from "./scenarios.ts";
+import { verdictLine } from "../report/verdict.ts";
 import { monteCarlo, noiseAnalysis, partSensitivities } from "../analysis/index.ts";
 
 /** What the command line reads and writes. */
@@ -58,7 +59,10 @@ spec options:
   --caps SERIES          capacitor series (default E12)
   --res SERIES           resistor series (default E96)
   --r-min OHMS --r-max OHMS   resistor window (default 1k to 100k)
-  --cap-tol T --res-tol T     part tolerances, e.g. 2% or 0.02 (default: the series' usual)
+  --cap-tol T --res-tol T     fix the part tolerances, e.g. 2% or 0.02 (default: capacitors 5 %, resistors
+                          the series' usual, and the design may tighten them per part for the yield target)
+  --yield-target Y        fraction of boards that must meet the mask, e.g. 99% or 0.99 (default 95%)
+  --distribution D        part spread within tolerance: uniform (default) | normal (tolerance = 3 sigma)
   --gbw HZ [--a0 GAIN]   real op-amp (single pole); default ideal
 
 output options:
@@ -69,7 +73,8 @@ output options:
                           resistors only) and current noise IN (A/rtHz, e.g. 1p); RMS over the response span
   --quiet                 print only the verification line
 
-exit codes: 0 meets the spec, 1 does not meet it, 2 bad input, 3 internal error
+exit codes: 0 the boards meet the spec (nominal margins, stability, and the yield target by the lower
+            end of the 95 % interval), 1 they do not, 2 bad input, 3 internal error
 `;
 
 class UsageError extends Error {}
@@ -95,6 +100,8 @@ const VALUE_OPTIONS = new Set([
   "r-max",
   "cap-tol",
   "res-tol",
+  "yield-target",
+  "distribution",
   "gbw",
   "a0",
   "spec",
@@ -208,6 +215,8 @@ function specFromOptions(base: Record<string, unknown>, o: Map<string, string | 
   v("r-max", (x) => (sub("parts")["resistorMaxOhm"] = num(x)));
   v("cap-tol", (x) => (sub("parts")["capacitorTolerance"] = fraction(x)));
   v("res-tol", (x) => (sub("parts")["resistorTolerance"] = fraction(x)));
+  v("yield-target", (x) => (spec["yieldTarget"] = fraction(x)));
+  v("distribution", (x) => (sub("parts")["distribution"] = x));
   const gbw = get("gbw");
   const a0 = get("a0");
   if (a0 !== undefined && gbw === undefined) throw new UsageError("--a0 needs --gbw as well");
@@ -290,7 +299,7 @@ export function formatSummary(r: DesignResult, extra: readonly string[] = []): s
     "",
   );
   out.push(
-    `${v.meetsSpec ? "MEETS" : "DOES NOT MEET"} the spec as built (worst margin ${v.marginDb.toFixed(3)} dB, op-amp ${v.opamp.kind === "ideal" ? "ideal" : `GBW ${hz(v.opamp.gbwHz)}`})`,
+    `${v.meetsSpec ? "MEETS" : "DOES NOT MEET"} the spec: ${verdictLine(r)}; op-amp ${v.opamp.kind === "ideal" ? "ideal" : `GBW ${hz(v.opamp.gbwHz)}`}`,
   );
   if (r.warnings.length > 0) {
     out.push("", "warnings:");
@@ -381,7 +390,7 @@ function design(spec: unknown, o: Map<string, string | true>, io: CliIo): number
   }
   if (o.get("quiet") === true) {
     io.stdout(
-      `${r.verification.meetsSpec ? "meets" : "does not meet"} the spec: ${r.family} order ${r.order}, worst margin ${r.verification.marginDb.toFixed(3)} dB\n${extra.map((x) => `${x}\n`).join("")}`,
+      `${r.verification.meetsSpec ? "meets" : "does not meet"} the spec: ${r.family} order ${r.order}, ${verdictLine(r)}\n${extra.map((x) => `${x}\n`).join("")}`,
     );
   } else io.stdout(formatSummary(r, extra));
   writeOutputs(r, o, io);

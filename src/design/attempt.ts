@@ -20,7 +20,7 @@ import { placeInInterval, transformPrototype, type FeasibleInterval } from "./pl
 import { describeSections, peakGrid, planStages, type SectionInfo, type StagePlan } from "./stages.ts";
 import { tuneStage, type TunedStage, type ValueSet } from "./components.ts";
 import { predistortTarget, type PredistortionOutcome } from "./predistort.ts";
-import { checkMask, type BuiltStage, type MaskFigures } from "./verify.ts";
+import { checkMask, type BuiltStage, type MaskCheck } from "./verify.ts";
 
 /** A prototype with the interval placement found for it. */
 export interface PlacedPrototype {
@@ -54,8 +54,8 @@ export interface Attempt extends PlacedPrototype {
   readonly tuned: readonly TunedStage[];
   /** Per stage: the values on the board. */
   readonly chosen: readonly ValueSet[];
-  /** The as-built circuit against the mask. */
-  readonly mask: MaskFigures;
+  /** The as-built circuit against the mask, and the stages that are not stable. */
+  readonly mask: MaskCheck;
   /** Per stage: the finite-GBW pre-distortion (null when not attempted: ideal op-amp or first order). */
   readonly predistortion: readonly (PredistortionOutcome | null)[];
 }
@@ -187,7 +187,7 @@ export function polarityMet(spec: DesignSpec, a: Attempt): boolean {
   return spec.polarity === "either" || a.mask.polarity === spec.polarity;
 }
 
-/** Whether the attempt meets the mask and the polarity. */
+/** Whether the attempt meets the mask and the polarity nominally, with every stage stable. */
 export function meetsSpec(spec: DesignSpec, a: Attempt): boolean {
-  return a.mask.marginDb >= 0 && polarityMet(spec, a);
+  return a.mask.marginDb >= 0 && polarityMet(spec, a) && a.mask.unstableStages.length === 0;
 }

@@ -149,8 +149,11 @@ export function checkDesignResult(
     c.num(`${p}.index`, s["index"], true);
     const comps = c.obj(`${p}.components`, s["components"]);
     const local = c.obj(`${p}.localNames`, s["localNames"]);
+    const tols = c.obj(`${p}.tolerances`, s["tolerances"]);
     for (const [k, v] of Object.entries(comps)) {
       c.num(`${p}.components.${k}`, v, true);
+      const t = c.num(`${p}.tolerances.${k}`, tols[k], true);
+      if (t > 0.5) c.fail(`${p}.tolerances.${k}`, "expected a tolerance as a fraction, at most 0.5", t);
       const ln = c.str(`${p}.localNames.${k}`, local[k]);
       if (!topology.componentNames.includes(ln)) c.fail(`${p}.localNames.${k}`, `not a component of ${id}`, ln);
     }
@@ -176,6 +179,19 @@ export function checkDesignResult(
   });
   const v = c.obj(`${prefix}.verification`, r["verification"]);
   c.bool(`${prefix}.verification.meetsSpec`, v["meetsSpec"]);
+  c.bool(`${prefix}.verification.nominalMeetsSpec`, v["nominalMeetsSpec"]);
+  c.bool(`${prefix}.verification.stable`, v["stable"]);
+  c.arr(`${prefix}.verification.unstableStages`, v["unstableStages"]).forEach((x, j) => c.num(`${prefix}.verification.unstableStages.${j}`, x, true));
+  const y = c.obj(`${prefix}.verification.yield`, v["yield"]);
+  for (const k of ["fraction", "lower95", "upper95", "target"]) {
+    const x = c.num(`${prefix}.verification.yield.${k}`, y[k]);
+    if (x < 0 || x > 1) c.fail(`${prefix}.verification.yield.${k}`, "expected a fraction from 0 to 1", x);
+  }
+  for (const k of ["boards", "passed", "unstableBoards", "seed"]) c.num(`${prefix}.verification.yield.${k}`, y[k]);
+  c.bool(`${prefix}.verification.yield.met`, y["met"]);
+  for (const k of ["resistorTolerances", "capacitorTolerances"]) {
+    c.arr(`${prefix}.verification.yield.${k}`, y[k]).forEach((x, j) => c.num(`${prefix}.verification.yield.${k}.${j}`, x, true));
+  }
   for (const k of [
     "passbandLossDb",
     "passbandMarginDb",
@@ -198,6 +214,12 @@ export function checkDesignResult(
   }
   c.arr(`${prefix}.warnings`, r["warnings"]);
   c.arr(`${prefix}.actions`, r["actions"]);
+  c.arr(`${prefix}.yieldAlternatives`, r["yieldAlternatives"]).forEach((av, i) => {
+    const a = c.obj(`${prefix}.yieldAlternatives.${i}`, av);
+    for (const k of ["order", "opamps", "resistorTolerance", "capacitorTolerance", "fraction", "lower95", "upper95", "boards"]) c.num(`${prefix}.yieldAlternatives.${i}.${k}`, a[k]);
+    c.bool(`${prefix}.yieldAlternatives.${i}.met`, a["met"]);
+    c.bool(`${prefix}.yieldAlternatives.${i}.chosen`, a["chosen"]);
+  });
   return { ...(r as unknown as DesignResult), spec: spec as DesignResult["spec"] };
 }
 

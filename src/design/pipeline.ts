@@ -8,7 +8,9 @@
  * (stages.ts), pre-distortion for a real op-amp (predistort.ts), preferred
  * values (components.ts), the as-built check (verify.ts), all in attempt.ts ->
  * when the mask is missed, the fallback ladder and the order search
- * (recovery.ts) -> the result as plain readonly data (result.ts).
+ * (recovery.ts) -> the boards' yield at the parts' tolerances, and the
+ * robustness ladder when it misses the target (yield.ts) -> the result as
+ * plain readonly data (result.ts).
  *
  * @module
  */
@@ -16,6 +18,7 @@ import { validateSpec, type DesignSpec } from "./spec.ts";
 import { chooseFamily } from "./family.ts";
 import { orderRange, searchDesign } from "./recovery.ts";
 import { assembleResult } from "./result.ts";
+import { designForYield } from "./yield.ts";
 import type { DesignResult } from "./types.ts";
 
 export { LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./result.ts";
@@ -47,6 +50,8 @@ export function designFilter(spec: unknown): DesignResult {
   const canonical: DesignSpec = validateSpec(spec);
   const { family, order, choice } = chooseFamily(canonical);
   const orders = orderRange(canonical, order);
-  const { attempt, actions } = searchDesign(canonical, family, orders);
-  return assembleResult(canonical, { family, choice, minimumOrder: orders.minimum, actions }, attempt);
+  const nominal = searchDesign(canonical, family, orders);
+  const robust = designForYield(canonical, family, orders, nominal);
+  const actions = [...nominal.actions, ...robust.actions];
+  return assembleResult(canonical, { family, choice, minimumOrder: orders.minimum, actions }, robust);
 }

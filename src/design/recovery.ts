@@ -113,8 +113,11 @@ export function retuneToMask(spec: DesignSpec, a: Attempt): Attempt {
   return mask.marginDb > a.mask.marginDb ? { ...a, chosen, mask } : a;
 }
 
-/** The better of two attempts by worst margin (`b` only when strictly better). */
+/** The better of two attempts: a stable one over an unstable one, then by worst margin (`b` only when strictly better). */
 function better(a: Attempt, b: Attempt): Attempt {
+  const sa = a.mask.unstableStages.length === 0;
+  const sb = b.mask.unstableStages.length === 0;
+  if (sa !== sb) return sb ? b : a;
   return b.mask.marginDb > a.mask.marginDb ? b : a;
 }
 
@@ -203,7 +206,7 @@ const tightenStep: RecoveryStep = {
 export const RECOVERY_STEPS: readonly RecoveryStep[] = [retuneStep, moveStep, tightenStep];
 
 /** What designing at one order gave. */
-interface OrderOutcome {
+export interface OrderOutcome {
   /** The attempt to keep for this order. */
   readonly attempt: Attempt;
   /** Whether it meets the spec. */
@@ -248,8 +251,14 @@ function placedText(order: number, placed: PlacedPrototype, spec: DesignSpec, fe
  * ladder. Too low an order cannot meet both bands: the design keeps the
  * passband (the end of the interval where it is met exactly) and lets the
  * stopband fall short, without the ladder.
+ *
+ * @param spec - canonical spec
+ * @param family - the family
+ * @param order - the prototype order
+ * @param record - whether to record the placement, and where actions go
+ * @returns the attempt kept at this order and how it went
  */
-function designAtOrder(spec: DesignSpec, family: FamilyName, order: number, record: { placement: boolean; actions: DesignAction[] }): OrderOutcome {
+export function designAtOrder(spec: DesignSpec, family: FamilyName, order: number, record: { placement: boolean; actions: DesignAction[] }): OrderOutcome {
   const proto = choosePrototype(spec, family, order);
   const placed: PlacedPrototype = { proto, interval: prototypeInterval(spec, proto.zpk) };
   const feasible = intervalWidth(placed.interval) >= 0;
@@ -295,7 +304,7 @@ export function searchDesign(spec: DesignSpec, family: FamilyName, orders: Order
     actions.push({ code: "raised-order", message: `Order ${order} ${why}; raised the order to ${order + 1}.` });
   }
   let attempt = final as Attempt;
-  if (!meetsSpec(spec, attempt) && bestMiss !== null && bestMiss.mask.marginDb > attempt.mask.marginDb) {
+  if (!meetsSpec(spec, attempt) && bestMiss !== null && better(attempt, bestMiss) === bestMiss) {
     attempt = bestMiss;
     actions.push({
       code: "kept-best-attempt",

@@ -19,9 +19,20 @@ import type { TunedStage, ValueSet } from "./components.ts";
 import { stageErrors } from "./stage-cost.ts";
 import type { PredistortionOutcome } from "./predistort.ts";
 import { checkMask, partialPeaks, responseCurve, type BuiltStage } from "./verify.ts";
-import { boardStages, polarityMet, type Attempt } from "./attempt.ts";
+import { boardStages, meetsSpec as nominalMeets, polarityMet, type Attempt } from "./attempt.ts";
+import { classText, opampCount, yieldText, type YieldCandidate, type YieldOutcome } from "./yield.ts";
 import { significant } from "./text.ts";
-import type { DesignAction, DesignResult, DesignStage, DesignWarning, FamilyChoice, Placement, Verification } from "./types.ts";
+import type {
+  BoardYield,
+  DesignAction,
+  DesignResult,
+  DesignStage,
+  DesignWarning,
+  FamilyChoice,
+  Placement,
+  Verification,
+  YieldAlternative,
+} from "./types.ts";
 
 const IDEAL: OpAmpModel = { kind: "ideal" };
 /** Capacitor ratio above which a warning is given: the same decade of spread that topology choice avoids (common practice, no source). */
@@ -147,6 +158,8 @@ interface StageInputs {
   readonly names: StageDesignators;
   readonly peak: { readonly gain: number; readonly hz: number };
   readonly pd: PredistortionOutcome | null;
+  /** Tolerance per part, in the topology's component order. */
+  readonly tolerances: Float64Array;
 }
 
 /** One stage of the result, and the warnings about it. */
@@ -165,6 +178,9 @@ function stageRecord(spec: DesignSpec, x: StageInputs): { stage: DesignStage; wa
     components: names.components,
     localNames: names.localNames,
     opamps: names.opamps,
+    tolerances: Object.fromEntries(
+      Object.entries(names.localNames).map(([global, local]) => [global, x.tolerances[plan.topology.componentNames.indexOf(local)] as number]),
+    ),
     target: storedFigures(plan.target),
     asBuilt: storedFigures(set.figures),
     errors: set.withOpamp === undefined ? set.errors : stageErrors(set.figures, plan.target),
@@ -213,6 +229,12 @@ function cascadeWarnings(spec: DesignSpec, a: Attempt, peaks: readonly { gain: n
     });
   }
   const m = a.mask;
+  if (m.unstableStages.length > 0) {
+    warnings.push({
+      code: "unstable",
+      message: `stage${m.unstableStages.length === 1 ? "" : "s"} ${m.unstableStages.join(", ")} ${m.unstableStages.length === 1 ? "has" : "have"} poles in the right half-plane with the op-amp model: ${m.unstableStages.length === 1 ? "it oscillates" : "they oscillate"}, so the design does not meet the spec. Choose a faster op-amp or another topology for ${m.unstableStages.length === 1 ? "that stage" : "those stages"}.`,
+    });
+  }
   if (!(m.marginDb >= 0 && polarityOk)) {
     warnings.push({
       code: "spec-not-met",
@@ -237,14 +259,74 @@ function placementOf(a: Attempt): Placement {
   };
 }
 
+/** Distinct values, ascending. */
+function distinct(xs: Iterable<number>): number[] {
+  return [...new Set(xs)].sort((p, q) => p - q);
+}
+
+/** The yield record of the chosen candidate. */
+function boardYieldOf(spec: DesignSpec, c: YieldCandidate): BoardYield {
+  const y = c.estimate;
+  const of = (prefix: string): number[] =>
+    distinct(c.attempt.plans.flatMap((p, i) => p.topology.componentNames.flatMap((n, k) => (n.startsWith(prefix) ? [(c.tolerances[i] as Float64Array)[k] as number] : []))));
+  return {
+    fraction: y.fraction,
+    lower95: y.lower95,
+    upper95: y.upper95,
+    boards: y.boards,
+    met: y.met,
+    target: spec.yieldTarget,
+    passed: y.passed,
+    unstableBoards: y.unstable,
+    distribution: spec.partDistribution,
+    seed: spec.yieldSeed,
+    resistorTolerances: of("R"),
+    capacitorTolerances: of("C"),
+  };
+}
+
+/** The candidates of the yield search as alternatives. */
+function alternativesOf(family: FamilyName, robust: YieldOutcome): YieldAlternative[] {
+  return robust.candidates.map((c) => ({
+    change: c.change,
+    family,
+    order: c.attempt.proto.order,
+    opamps: opampCount(c.attempt),
+    resistorTolerance: c.classes.resistor,
+    capacitorTolerance: c.classes.capacitor,
+    fraction: c.estimate.fraction,
+    lower95: c.estimate.lower95,
+    upper95: c.estimate.upper95,
+    boards: c.estimate.boards,
+    met: c.estimate.met,
+    chosen: c === robust.chosen,
+  }));
+}
+
+/** The warning that the boards miss the yield target, with what would reach it when something tried does. */
+function yieldWarning(spec: DesignSpec, robust: YieldOutcome): DesignWarning[] {
+  const c = robust.chosen;
+  if (c.estimate.met) return [];
+  const fixed = [spec.resistorToleranceFixed ? "resistor" : "", spec.capacitorToleranceFixed ? "capacitor" : ""].filter((x) => x !== "");
+  return [
+    {
+      code: "yield-not-met",
+      message: `only ${yieldText(c.estimate)} meet the mask at ${classText(c.classes)} (target ${significant(spec.yieldTarget * 100, 3)} %, judged on the interval's lower end)${fixed.length > 0 ? `; the spec fixes the ${fixed.join(" and ")} tolerance, so tighter parts were not tried` : ""}${spec.order !== null ? "; the spec fixes the order" : ""}. Tighter parts, a higher order or a looser mask raise it.`,
+    },
+  ];
+}
+
 /** The as-built verification, with the exact design's ideal margin beside it. */
-function verificationOf(spec: DesignSpec, a: Attempt, boards: readonly BuiltStage[]): Verification {
+function verificationOf(spec: DesignSpec, a: Attempt, boards: readonly BuiltStage[], robust: YieldOutcome): Verification {
   const exactBoards = a.exactPlans.map((p) => ({ topology: p.topology, values: p.topology.design(p.target, {}) }));
   const ideal = checkMask(spec, exactBoards, IDEAL);
   const m = a.mask;
   const polarityOk = polarityMet(spec, a);
+  const nominal = nominalMeets(spec, a);
+  const boardYield = boardYieldOf(spec, robust.chosen);
   return {
-    meetsSpec: m.marginDb >= 0 && polarityOk,
+    meetsSpec: nominal && boardYield.met,
+    nominalMeetsSpec: nominal,
     opamp: spec.opamp,
     passbandLossDb: m.passbandLossDb,
     passbandWorstHz: m.passbandWorstHz,
@@ -259,6 +341,9 @@ function verificationOf(spec: DesignSpec, a: Attempt, boards: readonly BuiltStag
     polarity: m.polarity,
     polarityOk,
     marginDb: m.marginDb,
+    stable: m.unstableStages.length === 0,
+    unstableStages: [...m.unstableStages],
+    yield: boardYield,
     idealMarginDb: ideal.marginDb,
     curve: responseCurve(spec, boards, spec.opamp, CURVE_POINTS),
   };
@@ -281,10 +366,11 @@ export interface DesignDecisions {
  *
  * @param spec - canonical spec
  * @param decisions - family, minimum order and actions
- * @param a - the attempt kept
+ * @param robust - the yield search's outcome (its chosen candidate is the attempt kept)
  * @returns the result
  */
-export function assembleResult(spec: DesignSpec, decisions: DesignDecisions, a: Attempt): DesignResult {
+export function assembleResult(spec: DesignSpec, decisions: DesignDecisions, robust: YieldOutcome): DesignResult {
+  const a = robust.chosen.attempt;
   const names = designators(a.plans, a.chosen);
   const boards = boardStages(a.plans, a.chosen);
   const peaks = partialPeaks(boards, a.gridHz, spec.opamp);
@@ -297,6 +383,7 @@ export function assembleResult(spec: DesignSpec, decisions: DesignDecisions, a: 
       names: names[i] as StageDesignators,
       peak: peaks[i] as { gain: number; hz: number },
       pd: a.predistortion[i] ?? null,
+      tolerances: robust.chosen.tolerances[i] as Float64Array,
     }),
   );
   const stages = records.map((r) => r.stage);
@@ -311,8 +398,9 @@ export function assembleResult(spec: DesignSpec, decisions: DesignDecisions, a: 
     minimumOrder: decisions.minimumOrder,
     placement: placementOf(a),
     stages,
-    verification: verificationOf(spec, a, boards),
-    warnings: [...records.flatMap((r) => r.warnings), ...cascadeWarnings(spec, a, peaks)],
+    verification: verificationOf(spec, a, boards, robust),
+    warnings: [...records.flatMap((r) => r.warnings), ...cascadeWarnings(spec, a, peaks), ...yieldWarning(spec, robust)],
     actions: predistorted === null ? [...decisions.actions] : [...decisions.actions, predistorted],
+    yieldAlternatives: alternativesOf(decisions.family, robust),
   }));
 }

@@ -15,7 +15,7 @@ import { FAMILY_NAMES, type FamilyName } from "../approx/index.ts";
 import { SERIES_NAMES, seriesTolerance, type SeriesName } from "../parts/index.ts";
 import { parseValue } from "../units/index.ts";
 import { getTopology, topologies } from "../topologies/index.ts";
-import type { DesignSpec, FamilyPriority, Polarity, ResponseType } from "./spec-types.ts";
+import type { DesignSpec, FamilyPriority, PartDistribution, Polarity, ResponseType } from "./spec-types.ts";
 
 const RESPONSES: readonly ResponseType[] = ["lowpass", "highpass", "bandpass", "bandstop"];
 const PRIORITIES: readonly FamilyPriority[] = ["fewest-op-amps", "fewest-stages", "flattest-delay", "monotonic"];
@@ -76,7 +76,7 @@ export class Reader {
   number(
     path: string,
     value: unknown,
-    range: { min: number; max: number; exclusiveMin?: boolean },
+    range: { min: number; max: number; exclusiveMin?: boolean; exclusiveMax?: boolean },
     what: string,
   ): number | undefined {
     if (typeof value !== "number" || !Number.isFinite(value)) {
@@ -84,9 +84,11 @@ export class Reader {
       return undefined;
     }
     const lowOk = range.exclusiveMin === true ? value > range.min : value >= range.min;
-    if (!lowOk || value > range.max) {
+    const highOk = range.exclusiveMax === true ? value < range.max : value <= range.max;
+    if (!lowOk || !highOk) {
       const lo = range.exclusiveMin === true ? `greater than ${range.min}` : `at least ${range.min}`;
-      this.add(path, `expected ${what} ${lo} and at most ${range.max}`, value);
+      const hi = range.exclusiveMax === true ? `less than ${range.max}` : `at most ${range.max}`;
+      this.add(path, `expected ${what} ${lo} and ${hi}`, value);
       return undefined;
     }
     return value;
@@ -138,7 +140,15 @@ export type FamilyPart = Pick<DesignSpec, "family" | "priority" | "order">;
 export type TopologyPart = Pick<DesignSpec, "topology" | "stageTopologies">;
 export type PartsPart = Pick<
   DesignSpec,
-  "capacitorSeries" | "resistorSeries" | "capacitorTolerance" | "resistorTolerance" | "resistorRange" | "capacitorRange"
+  | "capacitorSeries"
+  | "resistorSeries"
+  | "capacitorTolerance"
+  | "resistorTolerance"
+  | "capacitorToleranceFixed"
+  | "resistorToleranceFixed"
+  | "partDistribution"
+  | "resistorRange"
+  | "capacitorRange"
 >;
 /** A part of the spec as read, with `undefined` where a field had an issue. */
 export type AsRead<T> = { -readonly [K in keyof T]: T[K] | undefined };
@@ -300,7 +310,11 @@ const PARTS_KEYS = [
   "resistorMaxOhm",
   "capacitorMinF",
   "capacitorMaxF",
+  "distribution",
 ] as const;
+
+/** Default capacitor tolerance: C0G/NP0 ceramic or film at 5 % (common practice, no source), unless the series' own is tighter. */
+export const DEFAULT_CAPACITOR_TOLERANCE = 0.05;
 
 /** The part series, their tolerances and the value windows (`parts`). */
 export function readParts(r: Reader, parts: unknown): PartsPart {
@@ -309,6 +323,7 @@ export function readParts(r: Reader, parts: unknown): PartsPart {
   const window = { rMin: 1e3, rMax: 1e5, cMin: 1e-10, cMax: 1e-5 };
   let capacitorTolerance: number | undefined;
   let resistorTolerance: number | undefined;
+  let partDistribution: PartDistribution = "uniform";
   if (parts !== undefined && !isObject(parts)) r.add("parts", "expected an object", parts);
   if (isObject(parts)) {
     r.unknownKeys(parts, PARTS_KEYS, "parts.");
@@ -320,6 +335,9 @@ export function readParts(r: Reader, parts: unknown): PartsPart {
         : r.number(`parts.${key}`, parts[key], { min: 0, max: 0.5, exclusiveMin: true }, "a tolerance as a fraction (0.01 for 1 %)");
     capacitorTolerance = tolerance("capacitorTolerance");
     resistorTolerance = tolerance("resistorTolerance");
+    if (parts["distribution"] !== undefined) {
+      partDistribution = r.oneOf("parts.distribution", parts["distribution"], ["uniform", "normal"] as const) ?? partDistribution;
+    }
     const q = (key: string, unit: string, fallback: number): number =>
       parts[key] === undefined ? fallback : (r.quantity(`parts.${key}`, parts[key], unit) ?? fallback);
     window.rMin = q("resistorMinOhm", "Ω", window.rMin);
@@ -336,8 +354,11 @@ export function readParts(r: Reader, parts: unknown): PartsPart {
   return {
     capacitorSeries,
     resistorSeries,
-    capacitorTolerance: capacitorTolerance ?? seriesTolerance(capacitorSeries),
+    capacitorTolerance: capacitorTolerance ?? Math.min(DEFAULT_CAPACITOR_TOLERANCE, seriesTolerance(capacitorSeries)),
     resistorTolerance: resistorTolerance ?? seriesTolerance(resistorSeries),
+    capacitorToleranceFixed: capacitorTolerance !== undefined,
+    resistorToleranceFixed: resistorTolerance !== undefined,
+    partDistribution,
     resistorRange: Object.freeze({ min: window.rMin, max: window.rMax }),
     capacitorRange: Object.freeze({ min: window.cMin, max: window.cMax }),
   };
@@ -362,4 +383,34 @@ function getTopologySafe(id: string): unknown {
   } catch {
     return undefined;
   }
+}
+
+/** What the yield part of a spec reads to. */
+export type YieldPart = Pick<DesignSpec, "yieldTarget" | "yieldMaxBoards" | "yieldSeed">;
+
+/** The yield target and the board limits of its check (`yieldTarget`, `yieldCheck`). */
+export function readYield(r: Reader, spec: Raw): YieldPart {
+  const out = { yieldTarget: 0.95, yieldMaxBoards: 2048, yieldSeed: 1 };
+  if (spec["yieldTarget"] !== undefined) {
+    const t = r.number("yieldTarget", spec["yieldTarget"], { min: 0, max: 1, exclusiveMin: true, exclusiveMax: true }, "a fraction of boards (0.95 for 95 %)");
+    if (t !== undefined) out.yieldTarget = t;
+  }
+  const c = spec["yieldCheck"];
+  if (c === undefined) return out;
+  if (!isObject(c)) {
+    r.add("yieldCheck", "expected an object { maxBoards, seed }", c);
+    return out;
+  }
+  r.unknownKeys(c, ["maxBoards", "seed"], "yieldCheck.");
+  if (c["maxBoards"] !== undefined) {
+    const m = c["maxBoards"];
+    if (typeof m !== "number" || !Number.isInteger(m) || m < 256 || m > 100000) r.add("yieldCheck.maxBoards", "expected an integer from 256 to 100000", m);
+    else out.yieldMaxBoards = m;
+  }
+  if (c["seed"] !== undefined) {
+    const s = c["seed"];
+    if (typeof s !== "number" || !Number.isInteger(s) || s < -(2 ** 31) || s > 2 ** 32 - 1) r.add("yieldCheck.seed", "expected an integer from -2147483648 to 4294967295", s);
+    else out.yieldSeed = s;
+  }
+  return out;
 }

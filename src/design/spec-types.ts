@@ -9,6 +9,26 @@ import type { OpAmpModel } from "../circuit/types.ts";
 import type { FamilyName } from "../approx/index.ts";
 import type { SeriesName } from "../parts/index.ts";
 
+import type { PartDistribution } from "../evaluate/boards.ts";
+
+export type { PartDistribution };
+
+/** How the yield is confirmed by Monte Carlo boards. */
+export interface YieldCheckSpec {
+  /**
+   * Most boards built to decide whether the yield target is met (256 to
+   * 100000; boards come in blocks of 256 and the run stops as soon as the
+   * 95 % interval lies on one side of the target).
+   * @defaultValue 2048
+   */
+  readonly maxBoards?: number;
+  /**
+   * Seed of the boards' part draws (an integer), so a design repeats exactly.
+   * @defaultValue 1
+   */
+  readonly seed?: number;
+}
+
 /** The four responses a filter can have. */
 export type ResponseType = "lowpass" | "highpass" | "bandpass" | "bandstop";
 
@@ -90,18 +110,31 @@ export interface PartsSpec {
    */
   readonly resistorSeries?: SeriesName;
   /**
-   * Capacitor tolerance as a fraction (0.02 for 2 %): what the BOM asks for
-   * and what tolerance analysis assumes. Stock C0G/NP0 capacitors come in
-   * E12 values at 1 %, 2 % and 5 %, so a tight filter need not accept the
-   * series' usual 10 %.
-   * @defaultValue the usual tolerance of `capacitorSeries` (E12: 0.1)
+   * Capacitor tolerance as a fraction (0.02 for 2 %), fixing it for every
+   * capacitor: what the BOM asks for and what the yield assumes. When it is
+   * not given, the design starts from the default and may pick a tighter
+   * class, per capacitor, where the yield target needs one (and says so).
+   * Filters use C0G/NP0 ceramic or film capacitors (stable, low loss, no
+   * voltage coefficient), stocked in E12/E24 values at 1 %, 2 % and 5 %.
+   * @defaultValue 0.05 (C0G/NP0 or film; common practice, no source), or the series' own tolerance when tighter (E48: 0.02, E96: 0.01)
    */
   readonly capacitorTolerance?: number;
   /**
-   * Resistor tolerance as a fraction (0.001 for 0.1 %).
+   * Resistor tolerance as a fraction (0.001 for 0.1 %), fixing it for every
+   * resistor. When it is not given, the design starts from the default and
+   * may pick a tighter class per resistor where the yield target needs one.
    * @defaultValue the usual tolerance of `resistorSeries` (E96: 0.01)
    */
   readonly resistorTolerance?: number;
+  /**
+   * How part values spread within their tolerance for the yield: `"uniform"`
+   * over +-tolerance (the bound a "+-t %" part guarantees, and the
+   * conservative choice when the maker's distribution is unknown), or
+   * `"normal"` with the tolerance as three standard deviations (draws beyond
+   * it drawn again).
+   * @defaultValue "uniform"
+   */
+  readonly distribution?: PartDistribution;
   /**
    * Smallest resistor wanted, ohms (common practice, no source: below about 1 kΩ
    * op-amp output current and distortion grow).
@@ -192,6 +225,19 @@ export interface FilterSpec {
    * @defaultValue `"ideal"`
    */
   readonly opamp?: "ideal" | OpAmpSpec;
+  /**
+   * Fraction of boards, built from parts drawn within their tolerances, that
+   * must meet the mask and be stable (0 < yieldTarget < 1). The design is
+   * made for it and confirmed by Monte Carlo: the target is met when the
+   * lower end of the yield's 95 % interval reaches it.
+   * @defaultValue 0.95
+   */
+  readonly yieldTarget?: number;
+  /**
+   * How many boards the yield check may build, and their seed.
+   * @defaultValue `{ maxBoards: 2048, seed: 1 }`
+   */
+  readonly yieldCheck?: YieldCheckSpec;
 }
 
 /** An inclusive window of part values in SI units. */
@@ -240,10 +286,22 @@ export interface DesignSpec {
   readonly capacitorTolerance: number;
   /** Resistor tolerance as a fraction. */
   readonly resistorTolerance: number;
+  /** Whether the spec fixed the capacitor tolerance (else the design may tighten it per part). */
+  readonly capacitorToleranceFixed: boolean;
+  /** Whether the spec fixed the resistor tolerance (else the design may tighten it per part). */
+  readonly resistorToleranceFixed: boolean;
+  /** How part values spread within their tolerance. */
+  readonly partDistribution: PartDistribution;
   /** Resistor window, ohms. */
   readonly resistorRange: ValueWindow;
   /** Capacitor window, farads. */
   readonly capacitorRange: ValueWindow;
   /** Op-amp model for analysis. */
   readonly opamp: OpAmpModel;
+  /** Fraction of boards that must meet the mask. */
+  readonly yieldTarget: number;
+  /** Most boards built by the yield check. */
+  readonly yieldMaxBoards: number;
+  /** Seed of the yield check's boards. */
+  readonly yieldSeed: number;
 }

@@ -13,7 +13,7 @@
  */
 import { InvalidArgumentError, SpecError, type Issue } from "../errors.ts";
 import type { DesignSpec, EdgeInput, FilterSpec, GainSpec, ResponseType } from "./spec-types.ts";
-import { isObject, readBands, readFamily, readGain, readOpamp, readParts, readTopology, Reader } from "./spec-readers.ts";
+import { isObject, readBands, readFamily, readGain, readOpamp, readParts, readTopology, readYield, Reader } from "./spec-readers.ts";
 
 export type {
   ResponseType,
@@ -43,6 +43,8 @@ const TOP_KEYS = [
   "topology",
   "parts",
   "opamp",
+  "yieldTarget",
+  "yieldCheck",
 ] as const;
 
 /** Read a whole spec: every issue, and the canonical spec when there is none. */
@@ -56,6 +58,7 @@ function readSpec(spec: unknown): { readonly issues: readonly Issue[]; readonly 
   const topology = readTopology(r, spec["topology"]);
   const parts = readParts(r, spec["parts"]);
   const opamp = readOpamp(r, spec["opamp"]);
+  const yieldPart = readYield(r, spec);
   if (r.issues.length > 0) return { issues: r.issues, spec: null };
   return {
     issues: [],
@@ -72,6 +75,7 @@ function readSpec(spec: unknown): { readonly issues: readonly Issue[]; readonly 
       stageTopologies: Object.freeze(topology.stageTopologies),
       ...parts,
       opamp: Object.freeze({ ...opamp }),
+      ...yieldPart,
     })),
   };
 }
@@ -193,6 +197,13 @@ export function requireDesignSpec(fn: string, value: unknown, path = "spec"): De
   num("gainToleranceDb", true);
   num("capacitorTolerance", true);
   num("resistorTolerance", true);
+  num("yieldTarget", true);
+  num("yieldMaxBoards", true);
+  num("yieldSeed", false);
+  for (const k of ["capacitorToleranceFixed", "resistorToleranceFixed"]) {
+    if (typeof v[k] !== "boolean") fail(k, "expected true or false", v[k]);
+  }
+  if (v["partDistribution"] !== "uniform" && v["partDistribution"] !== "normal") fail("partDistribution", 'expected "uniform" or "normal"', v["partDistribution"]);
   for (const k of ["polarity", "family", "priority", "topology", "capacitorSeries", "resistorSeries"]) str(k);
   if (v["order"] !== null) num("order", true);
   if (!Array.isArray(v["stageTopologies"]) || v["stageTopologies"].some((x) => typeof x !== "string")) {
@@ -247,13 +258,16 @@ export function specToInput(spec: DesignSpec): FilterSpec {
     parts: {
       capacitorSeries: spec.capacitorSeries,
       resistorSeries: spec.resistorSeries,
-      capacitorTolerance: spec.capacitorTolerance,
-      resistorTolerance: spec.resistorTolerance,
+      ...(spec.capacitorToleranceFixed ? { capacitorTolerance: spec.capacitorTolerance } : {}),
+      ...(spec.resistorToleranceFixed ? { resistorTolerance: spec.resistorTolerance } : {}),
+      distribution: spec.partDistribution,
       resistorMinOhm: spec.resistorRange.min,
       resistorMaxOhm: spec.resistorRange.max,
       capacitorMinF: spec.capacitorRange.min,
       capacitorMaxF: spec.capacitorRange.max,
     },
     opamp,
+    yieldTarget: spec.yieldTarget,
+    yieldCheck: { maxBoards: spec.yieldMaxBoards, seed: spec.yieldSeed },
   };
 }

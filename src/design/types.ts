@@ -45,6 +45,8 @@ export interface DesignStage {
   readonly localNames: Readonly<Record<string, string>>;
   /** Op-amp designators used by the stage (`U1`, ...). */
   readonly opamps: readonly string[];
+  /** Tolerance of each part as a fraction (0.01 for 1 %), keyed like `components`: what the BOM asks for. */
+  readonly tolerances: Readonly<Record<string, number>>;
   /** What the stage should realise. */
   readonly target: StageFigures;
   /** What the stage realises with the preferred values on the board (ideal op-amp). */
@@ -153,9 +155,74 @@ export interface ResponseCurve {
   readonly groupDelayS: readonly number[];
 }
 
+/**
+ * The yield of the design's boards: the fraction of boards, built from parts
+ * drawn within their tolerances (each part its own, see
+ * `DesignStage.tolerances`), that are stable and meet the mask, by seeded
+ * Monte Carlo run until the 95 % interval decides against the target.
+ */
+export interface BoardYield {
+  /** Fraction of the boards built that met the mask and were stable. */
+  readonly fraction: number;
+  /** Lower end of the fraction's 95 % Wilson score interval. */
+  readonly lower95: number;
+  /** Upper end of the 95 % interval. */
+  readonly upper95: number;
+  /** Boards built. */
+  readonly boards: number;
+  /** Whether `lower95 >= target`. */
+  readonly met: boolean;
+  /** The spec's yield target. */
+  readonly target: number;
+  /** Boards that met the mask and were stable. */
+  readonly passed: number;
+  /** Boards with a stage that was not stable (an oscillator; counted among the failures). */
+  readonly unstableBoards: number;
+  /** How part values were spread within their tolerances. */
+  readonly distribution: "uniform" | "normal";
+  /** Seed of the part draws. */
+  readonly seed: number;
+  /** The resistor tolerances used (distinct values, tightest first), fractions. */
+  readonly resistorTolerances: readonly number[];
+  /** The capacitor tolerances used (distinct values, tightest first), fractions. */
+  readonly capacitorTolerances: readonly number[];
+}
+
+/** A design the yield search built and measured: what it would cost and what its boards do. */
+export interface YieldAlternative {
+  /** What the candidate changed from the nominal design. */
+  readonly change: string;
+  /** The family. */
+  readonly family: FamilyName;
+  /** The prototype order. */
+  readonly order: number;
+  /** Op-amps on the board. */
+  readonly opamps: number;
+  /** Resistor tolerance class (the loosest a resistor has). */
+  readonly resistorTolerance: number;
+  /** Capacitor tolerance class (the loosest a capacitor has). */
+  readonly capacitorTolerance: number;
+  /** Fraction of boards that met the mask. */
+  readonly fraction: number;
+  /** Lower end of its 95 % interval. */
+  readonly lower95: number;
+  /** Upper end of its 95 % interval. */
+  readonly upper95: number;
+  /** Boards built. */
+  readonly boards: number;
+  /** Whether it reaches the yield target. */
+  readonly met: boolean;
+  /** Whether this is the design returned. */
+  readonly chosen: boolean;
+}
+
 /** The as-built circuit checked against the spec mask. */
 export interface Verification {
-  /** Whether every margin is at least zero. */
+  /**
+   * Whether the boards work: the nominal board meets the mask and the
+   * polarity with every stage stable (`nominalMeetsSpec`), and the boards
+   * built from toleranced parts reach the yield target (`yield.met`).
+   */
   readonly meetsSpec: boolean;
   /** The op-amp model the check used. */
   readonly opamp: DesignSpec["opamp"];
@@ -185,6 +252,18 @@ export interface Verification {
   readonly polarityOk: boolean;
   /** The smallest of the three margins, dB. */
   readonly marginDb: number;
+  /** Whether every stage, as built with the op-amp model, has all its poles in the open left half-plane. */
+  readonly stable: boolean;
+  /** Stages (from 1) that are not stable: an unstable stage is an oscillator, and the design does not meet the spec. */
+  readonly unstableStages: readonly number[];
+  /**
+   * Whether the nominal board (the preferred values exactly) meets the mask
+   * and the polarity with every stage stable. `meetsSpec` asks the boards
+   * as built as well.
+   */
+  readonly nominalMeetsSpec: boolean;
+  /** The yield of boards built from parts drawn within their tolerances, against the spec's `yieldTarget`. */
+  readonly yield: BoardYield;
   /** The same margins for the exact (unrounded) design, ideal op-amp: what rounding had to work with. */
   readonly idealMarginDb: number;
   /** The as-built response on 256 log-spaced points spanning the mask. */
@@ -202,7 +281,9 @@ export interface DesignWarning {
     | "polarity"
     | "gain-not-distributed"
     | "predistortion-failed"
-    | "spec-not-met";
+    | "spec-not-met"
+    | "unstable"
+    | "yield-not-met";
   /** Stage index (from 1), when the warning is about one stage. */
   readonly stage?: number;
   /** What is wrong and what to do about it. */
@@ -219,7 +300,9 @@ export interface DesignAction {
     | "raised-order"
     | "tightened-prototype"
     | "kept-best-attempt"
-    | "predistorted-for-gbw";
+    | "predistorted-for-gbw"
+    | "centred-for-yield"
+    | "tightened-tolerances";
   /** What it did and why. */
   readonly message: string;
 }
@@ -248,4 +331,6 @@ export interface DesignResult {
   readonly warnings: readonly DesignWarning[];
   /** What the pipeline did to reach this result. */
   readonly actions: readonly DesignAction[];
+  /** The designs the yield search built and measured, in the order tried (the chosen one marked). */
+  readonly yieldAlternatives: readonly YieldAlternative[];
 }

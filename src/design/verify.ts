@@ -31,6 +31,7 @@ import {
 } from "../evaluate/mask.ts";
 import { stagePolynomials } from "../evaluate/stage-polynomials.ts";
 import { multiplyMagnitudeSquared } from "../evaluate/cascade.ts";
+import { isHurwitz } from "../evaluate/stability.ts";
 import type { ScaledRational } from "../evaluate/types.ts";
 import { logGrid } from "../tf/index.ts";
 import { TWO_PI } from "../units/constants.ts";
@@ -180,26 +181,35 @@ function closedFormSource(stages: readonly BuiltStage[], opamp: OpAmpModel): Res
   };
 }
 
+/** The mask figures of a cascade with the stages that are not stable. */
+export interface MaskCheck extends MaskFigures {
+  /** Stages (from 1) whose characteristic polynomial with the op-amp model has a root in the closed right half-plane, or whose equations are singular. */
+  readonly unstableStages: readonly number[];
+}
+
 /**
  * Check a cascade against the spec mask: each stage's as-built polynomials
  * with the op-amp model (src/evaluate/stage-polynomials.ts), the mask
- * figures from them (src/evaluate/mask.ts).
+ * figures from them (src/evaluate/mask.ts), and each stage's stability from
+ * its characteristic polynomial (src/evaluate/stability.ts).
  *
  * @param spec - canonical spec
  * @param stages - stages in cascade order
  * @param opamp - op-amp model
- * @returns the figures and margins
+ * @returns the figures and margins, and the stages that are not stable
  */
-export function checkMask(spec: DesignSpec, stages: readonly BuiltStage[], opamp: OpAmpModel): MaskFigures {
+export function checkMask(spec: DesignSpec, stages: readonly BuiltStage[], opamp: OpAmpModel): MaskCheck {
   const plan = maskPlan(spec);
   const span = spanRadS(plan.bands);
   const polys: ScaledRational[] = [];
-  for (const s of stages) {
+  const unstableStages: number[] = [];
+  stages.forEach((s, i) => {
     const p = stagePolynomials(s.topology, s.values, opamp, { spanRadS: span });
-    if (p === null) return maskFigures(closedFormSource(stages, opamp), plan);
-    polys.push(p);
-  }
-  return maskFigures(rationalSource(polys), plan);
+    if (p === null || !isHurwitz(p.den)) unstableStages.push(i + 1);
+    if (p !== null) polys.push(p);
+  });
+  if (polys.length < stages.length) return { ...maskFigures(closedFormSource(stages, opamp), plan), unstableStages };
+  return { ...maskFigures(rationalSource(polys), plan), unstableStages };
 }
 
 /** The mask's bands sampled on one grid (no refinement), for fast comparisons. */

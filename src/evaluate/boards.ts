@@ -15,7 +15,10 @@
  * are first located by one parabolic step between grid points, and by the
  * verification's full golden-section search when its margin is within
  * {@link VERDICT_BAND_DB} of zero, so every pass/fail verdict is the one the
- * verification would give. The draws of a batch are
+ * verification would give. A board with a stage whose characteristic
+ * polynomial (op-amp poles included) has a root in the closed right
+ * half-plane (src/evaluate/stability.ts) is an oscillator: it fails, and is
+ * counted on its own, whatever its |H| would say. The draws of a batch are
  * stored structure-of-arrays (one row of parts per board) in one typed
  * array; nothing is allocated per board.
  *
@@ -24,6 +27,7 @@
 import { mulberry32 } from "../math/random.ts";
 import { boardPolynomialsInto, genericStagePolynomialsInto, type CompiledStage } from "./stage-polynomials.ts";
 import { maskFigures, rationalSource, type MaskPlan } from "./mask.ts";
+import { isHurwitz } from "./stability.ts";
 import type { ScaledRational } from "./types.ts";
 
 /**
@@ -59,15 +63,23 @@ export interface BoardRunOptions {
   readonly seed: number;
   /** Part spread. */
   readonly distribution: PartDistribution;
+  /**
+   * Number of the first board (a multiple of {@link BATCH}), so a run can be
+   * continued where an earlier one stopped with the same boards.
+   * @defaultValue 0
+   */
+  readonly firstBoard?: number;
 }
 
 /** What the boards did. */
 export interface BoardRun {
   /** Boards built. */
   readonly boards: number;
-  /** Boards that met the mask (margin >= 0); boards whose equations were singular count as failed. */
+  /** Boards that met the mask (margin >= 0) and are stable; boards whose equations were singular count as failed. */
   readonly passed: number;
-  /** Worst margin of each board, dB (NaN for a singular board). */
+  /** Boards with a stage whose poles (op-amp poles included) are not all in the open left half-plane; they fail. */
+  readonly unstable: number;
+  /** Worst margin of each board, dB (NaN for a singular or unstable board). */
   readonly marginDb: Float64Array;
   /** Passband loss of each board, dB. */
   readonly passbandLossDb: Float64Array;
@@ -75,7 +87,7 @@ export interface BoardRun {
   readonly stopbandAttenuationDb: Float64Array;
   /** Passband level of each board, dB. */
   readonly gainDb: Float64Array;
-  /** Index of the board with the smallest margin. */
+  /** Number of the board with the smallest margin (an unstable or singular one first), counted from board 0 of the seed. */
   readonly worstBoard: number;
   /** That board's component values, per stage in component order. */
   readonly worstValues: readonly Float64Array[];
@@ -109,6 +121,31 @@ function deviation(next: () => number, distribution: PartDistribution): number {
 }
 
 /**
+ * The unit deviations of one batch of boards, as {@link runBoards} draws
+ * them: `count` boards of `parts` parts each, board-major, every entry in
+ * [-1, 1] (multiplied by the part's tolerance later). Other estimators call
+ * this to draw the very boards `runBoards` builds (common random numbers).
+ *
+ * @param seed - the run's seed
+ * @param batch - the batch number (board `batch * BATCH` is its first)
+ * @param count - boards to draw (at most {@link BATCH} for the same boards as `runBoards`)
+ * @param parts - parts per board
+ * @param distribution - part spread
+ * @param out - written from index 0, `count * parts` entries
+ */
+export function drawDeviations(
+  seed: number,
+  batch: number,
+  count: number,
+  parts: number,
+  distribution: PartDistribution,
+  out: Float64Array,
+): void {
+  const next = mulberry32(batchSeed(seed, batch));
+  for (let i = 0; i < count * parts; i++) out[i] = deviation(next, distribution);
+}
+
+/**
  * Build and check Monte Carlo boards (internal hot path: no checks).
  *
  * @param stages - the board's stages
@@ -118,6 +155,7 @@ function deviation(next: () => number, distribution: PartDistribution): number {
  */
 export function runBoards(stages: readonly BoardStage[], plan: MaskPlan, options: BoardRunOptions): BoardRun {
   const { boards, seed, distribution } = options;
+  const first = options.firstBoard ?? 0;
   const parts = stages.reduce((k, s) => k + s.nominal.length, 0);
   const draws = new Float64Array(BATCH * parts);
   const values = stages.map((s) => new Float64Array(s.nominal.length));
@@ -133,6 +171,7 @@ export function runBoards(stages: readonly BoardStage[], plan: MaskPlan, options
     gainDb: new Float64Array(boards),
   };
   let passed = 0;
+  let unstable = 0;
   let worstBoard = 0;
   let worstMargin = Infinity;
   let worstValues = values.map((v) => v.slice());
@@ -143,12 +182,12 @@ export function runBoards(stages: readonly BoardStage[], plan: MaskPlan, options
     genericPlan(s, p.num, p.den);
   });
   for (let start = 0; start < boards; start += BATCH) {
-    const next = mulberry32(batchSeed(seed, start / BATCH));
     const count = Math.min(BATCH, boards - start);
-    for (let i = 0; i < count * parts; i++) draws[i] = deviation(next, distribution);
+    drawDeviations(seed, (first + start) / BATCH, count, parts, distribution, draws);
     for (let b = 0; b < count; b++) {
       let at = b * parts;
       let ok = true;
+      let stable = true;
       for (let s = 0; s < stages.length; s++) {
         const st = stages[s] as BoardStage;
         const v = values[s] as Float64Array;
@@ -156,13 +195,20 @@ export function runBoards(stages: readonly BoardStage[], plan: MaskPlan, options
         const p = polys[s] as { num: Float64Array; den: Float64Array; scale: number };
         p.scale = boardPolynomialsInto(st.compiled, v, st.radius, p.num, p.den);
         if (p.scale === 0) ok = false;
+        else if (stable && !isHurwitz(p.den)) stable = false;
       }
       const k = start + b;
-      if (!ok) {
+      if (ok && !stable) unstable++;
+      if (!ok || !stable) {
         out.marginDb[k] = NaN;
         out.passbandLossDb[k] = NaN;
         out.stopbandAttenuationDb[k] = NaN;
         out.gainDb[k] = NaN;
+        if (worstMargin > -Infinity) {
+          worstMargin = -Infinity;
+          worstBoard = first + k;
+          worstValues = values.map((x) => x.slice());
+        }
         continue;
       }
       // One parabolic step per extreme first; the full search only where the verdict could turn on it.
@@ -175,10 +221,10 @@ export function runBoards(stages: readonly BoardStage[], plan: MaskPlan, options
       if (m.marginDb >= 0) passed++;
       if (m.marginDb < worstMargin) {
         worstMargin = m.marginDb;
-        worstBoard = k;
+        worstBoard = first + k;
         worstValues = values.map((x) => x.slice());
       }
     }
   }
-  return { boards, passed, ...out, worstBoard, worstValues };
+  return { boards, passed, unstable, ...out, worstBoard, worstValues };
 }

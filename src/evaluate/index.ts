@@ -11,3 +11,6 @@ export * from "./stage-polynomials.ts";
 export * from "./cascade.ts";
 export * from "./mask.ts";
 export * from "./boards.ts";
+export * from "./stability.ts";
+export * from "./yield.ts";
+export * from "./spread.ts";

@@ -124,16 +124,35 @@ export function planMask(bands: MaskBands, limits: MaskLimits): MaskPlan {
   return { bands, limits, pass, stop, scratch: new Float64Array(longest) };
 }
 
-/** Golden-section search of `sign * |H|^2` over `[wa, wb]` on log frequency; returns the better end point and its |H|^2. */
-function refine(source: ResponseSource, wa: number, wb: number, sign: number, out: Float64Array): void {
+/**
+ * Golden-section search of `sign * |H|^2` over `[wa, wb]` (rad/s) on log
+ * frequency, to a relative width of 1e-9; writes the point found and its
+ * |H|^2 into `out` as [w, m2].
+ *
+ * @param source - the response
+ * @param wa - lower end, rad/s
+ * @param wb - upper end, rad/s
+ * @param sign - 1 to find a maximum, -1 a minimum
+ * @param out - written: [w, |H|^2]
+ */
+export function refineExtreme(source: ResponseSource, wa: number, wb: number, sign: number, out: Float64Array): void {
   const g = (x: number): number => sign * source.magnitudeSquaredAt(Math.exp(x));
   const x = goldenMax(g, [Math.log(wa), Math.log(wb)], { iterations: 60, width: 1e-9 });
   out[0] = Math.exp(x);
   out[1] = source.magnitudeSquaredAt(out[0] as number);
 }
 
-/** Indices of the grid's local extremes (for `sign` = 1 maxima, -1 minima), best first, at most `REFINED`. */
-function localExtremes(m: Float64Array, n: number, sign: number): number[] {
+/**
+ * Indices of a grid's local extremes, ends included when they are one,
+ * best first.
+ *
+ * @param m - the sampled values
+ * @param n - how many of them
+ * @param sign - 1 for maxima, -1 for minima
+ * @param limit - most indices returned
+ * @returns the indices
+ */
+export function localExtremes(m: Float64Array, n: number, sign: number, limit: number = REFINED): number[] {
   const found: number[] = [];
   for (let i = 0; i < n; i++) {
     const here = sign * (m[i] as number);
@@ -142,7 +161,7 @@ function localExtremes(m: Float64Array, n: number, sign: number): number[] {
     if (!(left > here) && !(right > here)) found.push(i);
   }
   found.sort((a, b) => sign * ((m[b] as number) - (m[a] as number)));
-  return found.slice(0, REFINED);
+  return found.slice(0, limit);
 }
 
 /** How far the band extremes between grid points are searched. */
@@ -194,7 +213,7 @@ function bandExtreme(
     const a = g.w[Math.max(0, i - 1)] as number;
     const b = g.w[Math.min(n - 1, i + 1)] as number;
     if (a < b) {
-      if (refinement === "golden" || i === 0 || i === n - 1) refine(source, a, b, sign, r);
+      if (refinement === "golden" || i === 0 || i === n - 1) refineExtreme(source, a, b, sign, r);
       else parabola(source, g, m, i, r);
       if (better(r[1] as number, best[1] as number)) best.set(r);
     }

@@ -27,8 +27,14 @@ export interface BomLine {
   readonly rkm: string;
   /** Preferred-value series, e.g. `"E96"`; empty for op-amps. */
   readonly series: string;
-  /** Tolerance as text, e.g. `"1%"`; empty for op-amps. */
+  /** Tolerance as text, e.g. `"1%"`: each part's own, as the design allocated it; empty for op-amps. */
   readonly tolerance: string;
+  /**
+   * Capacitor dielectric class: `"C0G/NP0"` ceramic up to 100 nF, `"film (PP/PPS)"`
+   * above (stable, low-loss dielectrics with no voltage coefficient, as a
+   * filter needs; common practice, no source); empty for resistors and op-amps.
+   */
+  readonly dielectric: string;
   /** Number of parts. */
   readonly quantity: number;
 }
@@ -48,22 +54,23 @@ export interface BomLine {
  */
 export function bomLines(result: DesignResult): BomLine[] {
   requireDesignResult("bomLines", result);
-  const groups = new Map<string, { part: "resistor" | "capacitor"; value: number; designators: string[] }>();
+  const groups = new Map<string, { part: "resistor" | "capacitor"; value: number; tolerance: number; designators: string[] }>();
   for (const stage of result.stages) {
     for (const [d, v] of Object.entries(stage.components)) {
       const part = d.startsWith("C") ? "capacitor" : "resistor";
-      const key = `${part}:${v}`;
-      const g = groups.get(key) ?? { part, value: v, designators: [] };
+      const tolerance = stage.tolerances[d] ?? (part === "resistor" ? result.spec.resistorTolerance : result.spec.capacitorTolerance);
+      const key = `${part}:${v}:${tolerance}`;
+      const g = groups.get(key) ?? { part, value: v, tolerance, designators: [] };
       g.designators.push(d);
       groups.set(key, g);
     }
   }
   const rank = (p: string): number => (p === "resistor" ? 0 : 1);
   const lines: BomLine[] = [...groups.values()]
-    .sort((a, b) => rank(a.part) - rank(b.part) || a.value - b.value)
+    .sort((a, b) => rank(a.part) - rank(b.part) || a.value - b.value || a.tolerance - b.tolerance)
     .map((g) => {
       const series = g.part === "resistor" ? result.spec.resistorSeries : result.spec.capacitorSeries;
-      const tol = (g.part === "resistor" ? result.spec.resistorTolerance : result.spec.capacitorTolerance) * 100;
+      const tol = g.tolerance * 100;
       return {
         designators: g.designators,
         part: g.part,
@@ -72,6 +79,7 @@ export function bomLines(result: DesignResult): BomLine[] {
         rkm: formatRkm(g.value, { digits: 3, kind: g.part }),
         series,
         tolerance: `${Number(tol.toPrecision(3))}%`,
+        dielectric: g.part === "capacitor" ? (g.value <= 100e-9 * (1 + 1e-9) ? "C0G/NP0" : "film (PP/PPS)") : "",
         quantity: g.designators.length,
       };
     });
@@ -83,7 +91,7 @@ export function bomLines(result: DesignResult): BomLine[] {
       m.kind === "ideal"
         ? `GBW >= ${formatValue(need, { digits: 3, unit: "Hz" })}`
         : `A0 ${formatValue(m.a0, { digits: 3 })}, GBW ${formatValue(m.gbwHz, { digits: 3, unit: "Hz" })}`;
-    lines.push({ designators: opamps, part: "op-amp", value: 0, valueText, rkm: "", series: "", tolerance: "", quantity: opamps.length });
+    lines.push({ designators: opamps, part: "op-amp", value: 0, valueText, rkm: "", series: "", tolerance: "", dielectric: "", quantity: opamps.length });
   }
   return lines;
 }
@@ -103,14 +111,14 @@ function csvField(x: string): string {
  * ```ts
  * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
  * toBomCsv(designFilter(spec)).split("\r\n")[0];
- * //=> "designators,part,value,rkm,series,tolerance,quantity"
+ * //=> "designators,part,value,rkm,series,tolerance,dielectric,quantity"
  * ```
  */
 export function toBomCsv(result: DesignResult): string {
   requireDesignResult("toBomCsv", result);
-  const rows = [["designators", "part", "value", "rkm", "series", "tolerance", "quantity"]];
+  const rows = [["designators", "part", "value", "rkm", "series", "tolerance", "dielectric", "quantity"]];
   for (const l of bomLines(result)) {
-    rows.push([l.designators.join(", "), l.part, l.valueText, l.rkm, l.series, l.tolerance, String(l.quantity)]);
+    rows.push([l.designators.join(", "), l.part, l.valueText, l.rkm, l.series, l.tolerance, l.dielectric, String(l.quantity)]);
   }
   return `${rows.map((r) => r.map(csvField).join(",")).join("\r\n")}\r\n`;
 }

@@ -10,6 +10,7 @@ import type { DesignResult } from "../design/index.ts";
 import { bomLines } from "./bom.ts";
 import { opampRequirements } from "../analysis/index.ts";
 import { requireDesignResult } from "../design/check.ts";
+import { verdictLine } from "./verdict.ts";
 
 const f3 = (x: number): string => formatValue(x, { digits: 4, unit: "Hz" });
 const n4 = (x: number): string => Number(x.toPrecision(4)).toString();
@@ -25,6 +26,28 @@ export const DESIGN_CAUTIONS: readonly string[] = [
 
 function edges(e: readonly number[]): string {
   return e.map(f3).join(" – ");
+}
+
+/** The boards section: the yield, the tolerances it was measured at, and the alternatives the yield search measured. */
+function yieldSection(result: DesignResult): string[] {
+  const y = result.verification.yield;
+  const pct = (x: number): string => `${Number((x * 100).toPrecision(3))} %`;
+  const list = (xs: readonly number[]): string => xs.map(pct).join(", ");
+  const L: string[] = ["## Boards as built (yield)", ""];
+  L.push(
+    `${y.boards} boards were built from parts drawn ${y.distribution === "uniform" ? "uniformly within" : "normally (tolerance = 3σ) within"} their tolerances (resistors ${list(y.resistorTolerances)}; capacitors ${list(y.capacitorTolerances)}; seed ${y.seed}), each with the op-amp model, and checked against the mask and for stability: **${pct(y.fraction)}** passed, 95 % interval [${pct(y.lower95)}, ${pct(y.upper95)}] (Wilson score). Target ${pct(y.target)}: **${y.met ? "met" : "NOT met"}**.${y.unstableBoards > 0 ? ` ${y.unstableBoards} boards were unstable.` : ""} Each part's tolerance is in the BOM.`,
+    "",
+  );
+  if (result.yieldAlternatives.length > 1) {
+    L.push("Designs measured on the way (the chosen one in bold):", "");
+    L.push("| change | family | order | op-amps | R tol. | C tol. | yield | 95 % interval | boards | target |", "|---|---|---|---|---|---|---|---|---|---|");
+    for (const a of result.yieldAlternatives) {
+      const b = (x: string): string => (a.chosen ? `**${x}**` : x);
+      L.push(`| ${b(a.change)} | ${a.family} | ${a.order} | ${a.opamps} | ${pct(a.resistorTolerance)} | ${pct(a.capacitorTolerance)} | ${b(pct(a.fraction))} | [${pct(a.lower95)}, ${pct(a.upper95)}] | ${a.boards} | ${a.met ? "met" : "not met"} |`);
+    }
+    L.push("");
+  }
+  return L;
 }
 
 /**
@@ -47,7 +70,7 @@ export function toMarkdown(result: DesignResult): string {
   const title = s.response[0]?.toUpperCase() + s.response.slice(1);
   L.push(`# ${title} filter: ${result.family}, ${result.filterOrder} poles`, "");
   L.push(
-    `**${v.meetsSpec ? "Meets the spec" : "Does NOT meet the spec"}** as built (worst margin ${dB(v.marginDb)}; ${result.stages.length} stage${result.stages.length === 1 ? "" : "s"}, ${result.stages.reduce((k, st) => k + st.opamps.length, 0)} op-amp(s)).`,
+    `**${v.meetsSpec ? "Meets the spec" : "Does NOT meet the spec"}**: the design ${verdictLine(result)}. ${result.stages.length} stage${result.stages.length === 1 ? "" : "s"}, ${result.stages.reduce((k, st) => k + st.opamps.length, 0)} op-amp(s).`,
     "",
   );
   L.push("## Specification", "");
@@ -57,7 +80,9 @@ export function toMarkdown(result: DesignResult): string {
   L.push(`| stopband edge(s) | ${edges(s.stopbandHz)}, attenuation at least ${s.minAttenuationDb} dB |`);
   L.push(`| gain | ${n4(20 * Math.log10(s.gain))} dB (${n4(s.gain)} V/V), polarity ${s.polarity}, tolerance ${s.gainToleranceDb} dB |`);
   const pct = (x: number): string => `${Number((x * 100).toPrecision(3))} %`;
-  L.push(`| parts | capacitors ${s.capacitorSeries} ±${pct(s.capacitorTolerance)}, resistors ${s.resistorSeries} ±${pct(s.resistorTolerance)} in ${formatValue(s.resistorRange.min, { unit: "Ω" })} – ${formatValue(s.resistorRange.max, { unit: "Ω" })} |`);
+  const tolText = (t: number, fixed: boolean): string => `±${pct(t)}${fixed ? "" : " (default; may be tightened per part)"}`;
+  L.push(`| parts | capacitors ${s.capacitorSeries} ${tolText(s.capacitorTolerance, s.capacitorToleranceFixed)}, resistors ${s.resistorSeries} ${tolText(s.resistorTolerance, s.resistorToleranceFixed)} in ${formatValue(s.resistorRange.min, { unit: "Ω" })} – ${formatValue(s.resistorRange.max, { unit: "Ω" })}; spread ${s.partDistribution === "uniform" ? "uniform within tolerance" : "normal, tolerance = 3σ"} |`);
+  L.push(`| yield target | ${pct(s.yieldTarget)} of boards (lower end of the 95 % interval), at most ${s.yieldMaxBoards} boards, seed ${s.yieldSeed} |`);
   L.push(`| op-amp | ${s.opamp.kind === "ideal" ? "ideal" : `A0 ${n4(s.opamp.a0)}, GBW ${f3(s.opamp.gbwHz)}`} |`, "");
   L.push("## Approximation", "");
   L.push(`Family **${result.family}**, prototype order ${result.order} (minimum ${result.minimumOrder}). ${result.familyChoice.reason}`, "");
@@ -108,7 +133,9 @@ export function toMarkdown(result: DesignResult): string {
   L.push(`| stopband attenuation | ${dB(v.stopbandAttenuationDb, 2)} (worst at ${f3(v.stopbandWorstHz)}) | ≥ ${s.minAttenuationDb} dB | ${dB(v.stopbandMarginDb)} |`);
   L.push(`| passband gain | ${dB(v.gainDb)} | ${dB(v.targetGainDb)} ± ${s.gainToleranceDb} dB | ${dB(v.gainMarginDb)} |`);
   L.push(`| polarity | ${v.polarity} | ${s.polarity} | ${v.polarityOk ? "ok" : "not met"} |`, "");
+  L.push(`| stability | ${v.stable ? "every stage stable" : `stage ${v.unstableStages.join(", ")} unstable`} | all poles in the left half-plane | ${v.stable ? "ok" : "not met"} |`, "");
   L.push(`Op-amp model used: ${v.opamp.kind === "ideal" ? "ideal" : `single pole, A0 ${n4(v.opamp.a0)}, GBW ${f3(v.opamp.gbwHz)}`}. Worst margin of the exact (unrounded) design: ${dB(v.idealMarginDb)}.`, "");
+  L.push(...yieldSection(result));
   L.push("## What each op-amp must do", "");
   L.push("For a 1 V peak sinusoid at the input, anywhere in the plotted span:", "");
   L.push("| stage | op-amps | GBW needed | peak output | at | slew rate | at |", "|---|---|---|---|---|---|---|");

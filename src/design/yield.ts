@@ -1,0 +1,269 @@
+/**
+ * Design for yield: after the nominal design meets the mask, the boards
+ * built from it with parts drawn within their tolerances must meet it too,
+ * at the spec's `yieldTarget`.
+ *
+ * The robustness ladder, at each order from the nominal design's up (while
+ * the spec leaves the order free), cheapest change first, until the yield's
+ * 95 % interval clears the target (src/evaluate/yield.ts, Wilson interval):
+ *
+ * 1. the nominal design at the default tolerances;
+ * 2. design centring: the candidate placements inside the slack interval
+ *    and the prototypes designed with part of the ripple and attenuation
+ *    held back (family.ts `MARGIN_LEVELS`), each re-tuned to the mask, are
+ *    screened by a short Monte Carlo run and the one with the highest yield
+ *    is confirmed (a sampled form of design centring: S. W. Director & G. D.
+ *    Hachtel, "The simplicial approximation approach to design centering",
+ *    IEEE Trans. Circuits Syst. 24(7):363-372, 1977, centre the nominal point
+ *    in the acceptable region; here the candidates are discrete, as the
+ *    parts are);
+ * 3. tighter tolerance classes, where the spec leaves them free: capacitors
+ *    and resistors a class at a time, capacitors first (a filter's response
+ *    is usually most sensitive to them, common practice, no source);
+ * 4. one order more (up to the order range's last), and again from 1.
+ *
+ * Every candidate confirmed is recorded as an alternative with its family,
+ * order, op-amp count, tolerances and yield. When none reaches the target
+ * the candidate with the highest lower interval end is kept, and the result
+ * says so.
+ *
+ * @module
+ */
+import type { FamilyName } from "../approx/index.ts";
+import type { BoardStage } from "../evaluate/boards.ts";
+import { compileStage } from "../evaluate/stage-polynomials.ts";
+import { sequentialYield, type YieldEstimate } from "../evaluate/yield.ts";
+import { TWO_PI } from "../units/constants.ts";
+import type { DesignSpec } from "./spec.ts";
+import { designPrototype, stricterLevels } from "./family.ts";
+import { intervalWidth, prototypeInterval } from "./placement.ts";
+import { buildAttempt, meetsSpec, type Attempt, type PlacedPrototype } from "./attempt.ts";
+import { maskPlan, spanRadS } from "./verify.ts";
+import { designAtOrder, retuneToMask, type OrderRange, type SearchOutcome } from "./recovery.ts";
+import { significant } from "./text.ts";
+import type { DesignAction } from "./types.ts";
+
+/** Resistor tolerance classes stocked (fractions; common practice, no source). */
+export const RESISTOR_CLASSES: readonly number[] = [0.05, 0.02, 0.01, 0.005, 0.0025, 0.001];
+/** Capacitor tolerance classes of C0G/NP0 ceramic and film capacitors (fractions; common practice, no source). */
+export const CAPACITOR_CLASSES: readonly number[] = [0.1, 0.05, 0.02, 0.01];
+
+/** Boards of a screening run (one block). */
+const SCREEN_BOARDS = 256;
+
+/** One tolerance per part of each stage, in the topology's component order. */
+export type PartTolerances = readonly Float64Array[];
+
+/** A tolerance class for every resistor and every capacitor. */
+export interface ToleranceClasses {
+  /** Resistor tolerance. */
+  readonly resistor: number;
+  /** Capacitor tolerance. */
+  readonly capacitor: number;
+}
+
+/** A design candidate whose boards were built. */
+export interface YieldCandidate {
+  /** The attempt. */
+  readonly attempt: Attempt;
+  /** The tolerance of every part. */
+  readonly tolerances: PartTolerances;
+  /** The classes the tolerances come from. */
+  readonly classes: ToleranceClasses;
+  /** The boards' yield. */
+  readonly estimate: YieldEstimate;
+  /** What the candidate changed, for the alternatives list. */
+  readonly change: string;
+}
+
+/** What designing for yield gave. */
+export interface YieldOutcome {
+  /** The candidate kept. */
+  readonly chosen: YieldCandidate;
+  /** Every candidate confirmed, in the order tried. */
+  readonly candidates: readonly YieldCandidate[];
+  /** What the ladder did. */
+  readonly actions: readonly DesignAction[];
+}
+
+/** The component names of each stage of an attempt, in compiled order. */
+function names(a: Attempt, i: number): readonly string[] {
+  return (a.plans[i] as Attempt["plans"][number]).topology.componentNames;
+}
+
+/**
+ * Every part at its class's tolerance.
+ *
+ * @param a - the attempt
+ * @param classes - resistor and capacitor classes
+ * @returns per-stage tolerances in component order
+ */
+export function classTolerances(a: Attempt, classes: ToleranceClasses): PartTolerances {
+  return a.plans.map((_, i) => Float64Array.from(names(a, i), (n) => (n.startsWith("C") ? classes.capacitor : classes.resistor)));
+}
+
+/**
+ * The attempt's stages as Monte Carlo board stages.
+ *
+ * @param spec - canonical spec
+ * @param a - the attempt
+ * @param tolerances - per-part tolerances
+ * @returns the board stages
+ */
+export function boardStagesOf(spec: DesignSpec, a: Attempt, tolerances: PartTolerances): BoardStage[] {
+  const span = spanRadS(maskPlan(spec).bands);
+  return a.plans.map((p, i) => {
+    const values = (a.chosen[i] as Attempt["chosen"][number]).values;
+    const compiled = compileStage(p.topology, values, spec.opamp, span);
+    return {
+      compiled,
+      nominal: Float64Array.from(compiled.componentNames, (n) => values[n] as number),
+      tolerance: tolerances[i] as Float64Array,
+      radius: TWO_PI * p.topology.figures(values).f0Hz,
+    };
+  });
+}
+
+/**
+ * The yield of an attempt's boards, sequentially to the spec's cap.
+ *
+ * @param spec - canonical spec
+ * @param a - the attempt
+ * @param tolerances - per-part tolerances
+ * @param maxBoards - cap (the spec's by default)
+ * @returns the estimate
+ */
+export function attemptYield(spec: DesignSpec, a: Attempt, tolerances: PartTolerances, maxBoards = spec.yieldMaxBoards): YieldEstimate {
+  return sequentialYield(boardStagesOf(spec, a, tolerances), maskPlan(spec), {
+    target: spec.yieldTarget,
+    seed: spec.yieldSeed,
+    distribution: spec.partDistribution,
+    maxBoards,
+    minBoards: Math.min(maxBoards, 512),
+  });
+}
+
+/** The class ladder: each step one class tighter for capacitors or resistors (capacitors first), only where the spec leaves them free. */
+export function classLadder(spec: DesignSpec): ToleranceClasses[] {
+  const r = spec.resistorToleranceFixed ? [spec.resistorTolerance] : [spec.resistorTolerance, ...RESISTOR_CLASSES.filter((t) => t < spec.resistorTolerance - 1e-12)];
+  const c = spec.capacitorToleranceFixed ? [spec.capacitorTolerance] : [spec.capacitorTolerance, ...CAPACITOR_CLASSES.filter((t) => t < spec.capacitorTolerance - 1e-12)];
+  // stop tightening resistors at 0.1 % and capacitors at 1 %: beyond that a filter is trimmed, not bought
+  const out: ToleranceClasses[] = [{ resistor: r[0] as number, capacitor: c[0] as number }];
+  let ri = 0;
+  let ci = 0;
+  while (ri < r.length - 1 || ci < c.length - 1) {
+    if (ci < c.length - 1 && (ci <= ri || ri >= r.length - 1)) ci++;
+    else ri++;
+    out.push({ resistor: r[ri] as number, capacitor: c[ci] as number });
+  }
+  return out;
+}
+
+/** Text of a tolerance pair: "1 % R / 5 % C". */
+export function classText(c: ToleranceClasses): string {
+  return `${significant(c.resistor * 100, 3)} % R / ${significant(c.capacitor * 100, 3)} % C`;
+}
+
+/** Text of a yield estimate: "97.4 % of boards [96.2, 98.3]". */
+export function yieldText(y: YieldEstimate): string {
+  const pc = (x: number): string => significant(x * 100, 3);
+  return `${pc(y.fraction)} % of ${y.boards} boards [${pc(y.lower95)}, ${pc(y.upper95)}]`;
+}
+
+/** The centring candidates of a placed prototype: other placements and prototypes with margin held back, each meeting the mask nominally. */
+function centringCandidates(spec: DesignSpec, placed: PlacedPrototype, base: Attempt): { attempt: Attempt; change: string }[] {
+  const out: { attempt: Attempt; change: string }[] = [];
+  for (const position of [0.3, 0.7]) {
+    const a = retuneToMask(spec, buildAttempt(spec, placed, { position, wide: true }));
+    if (meetsSpec(spec, a)) out.push({ attempt: a, change: `placed at ${Math.round(position * 100)} % of the slack interval` });
+  }
+  for (const level of stricterLevels(spec, base.proto)) {
+    const proto = designPrototype(spec, base.proto.family, base.proto.order, level);
+    const interval = prototypeInterval(spec, proto.zpk);
+    if (!(intervalWidth(interval) > 0)) continue;
+    const a = retuneToMask(spec, buildAttempt(spec, { proto, interval }, { position: 0.5, wide: true }));
+    if (!meetsSpec(spec, a)) continue;
+    const held = [
+      proto.rippleDb === undefined ? "" : `ripple ${significant(proto.rippleDb, 3)} dB of ${significant(spec.maxLossDb, 3)}`,
+      proto.attenuationDb === undefined ? "" : `attenuation ${significant(proto.attenuationDb, 4)} dB for ${significant(spec.minAttenuationDb, 4)}`,
+    ].filter((x) => x !== "");
+    out.push({ attempt: a, change: `held margin back (${held.join(", ")})` });
+  }
+  return out;
+}
+
+/** The op-amps of an attempt. */
+export function opampCount(a: Attempt): number {
+  return a.plans.reduce((k, p) => k + p.topology.opampCount, 0);
+}
+
+/**
+ * Run the robustness ladder from the nominal search's outcome.
+ *
+ * @param spec - canonical spec
+ * @param family - the family
+ * @param orders - the orders the nominal search could use
+ * @param nominal - the nominal search's outcome
+ * @returns the candidate kept, every candidate tried and the actions
+ */
+export function designForYield(spec: DesignSpec, family: FamilyName, orders: OrderRange, nominal: SearchOutcome): YieldOutcome {
+  const ladder = classLadder(spec);
+  const defaults = ladder[0] as ToleranceClasses;
+  const candidates: YieldCandidate[] = [];
+  const actions: DesignAction[] = [];
+  const confirm = (attempt: Attempt, classes: ToleranceClasses, change: string): YieldCandidate => {
+    const tolerances = classTolerances(attempt, classes);
+    const c: YieldCandidate = { attempt, tolerances, classes, estimate: attemptYield(spec, attempt, tolerances), change };
+    candidates.push(c);
+    return c;
+  };
+  const better = (x: YieldCandidate, y: YieldCandidate): YieldCandidate =>
+    y.estimate.lower95 > x.estimate.lower95 || (y.estimate.lower95 === x.estimate.lower95 && y.estimate.fraction > x.estimate.fraction) ? y : x;
+  const first = confirm(nominal.attempt, defaults, "the nominal design");
+  if (first.estimate.met || !meetsSpec(spec, nominal.attempt)) return { chosen: first, candidates, actions };
+  let best = first;
+  const startOrder = nominal.attempt.proto.order;
+  const lastOrder = spec.order !== null ? startOrder : Math.max(startOrder, orders.last);
+  for (let order = startOrder; order <= lastOrder; order++) {
+    let base: Attempt;
+    if (order === startOrder) base = nominal.attempt;
+    else {
+      const outcome = designAtOrder(spec, family, order, { placement: false, actions: [] });
+      if (!outcome.met) continue;
+      base = outcome.attempt;
+      const raised = confirm(base, defaults, `order ${order}`);
+      actions.push({ code: "raised-order", message: `Raised the order to ${order} for the yield target: ${yieldText(raised.estimate)} at ${classText(defaults)}.` });
+      best = better(best, raised);
+      if (raised.estimate.met) return { chosen: raised, candidates, actions };
+    }
+    // centring: screen the candidates with one block of boards, confirm the best
+    const placed: PlacedPrototype = { proto: base.proto, interval: base.interval };
+    let centred: { attempt: Attempt; change: string; fraction: number } | null = null;
+    const baseScreen = order === startOrder ? first.estimate.fraction : (candidates[candidates.length - 1] as YieldCandidate).estimate.fraction;
+    for (const c of centringCandidates(spec, placed, base)) {
+      const f = attemptYield(spec, c.attempt, classTolerances(c.attempt, defaults), SCREEN_BOARDS).fraction;
+      if (f > (centred?.fraction ?? baseScreen)) centred = { ...c, fraction: f };
+    }
+    let current = base;
+    if (centred !== null) {
+      const c = confirm(centred.attempt, defaults, `${centred.change}, order ${order}`);
+      actions.push({ code: "centred-for-yield", message: `Centred the design for yield (${centred.change}): ${yieldText(c.estimate)} at ${classText(defaults)}.` });
+      best = better(best, c);
+      if (c.estimate.met) return { chosen: c, candidates, actions };
+      current = centred.attempt;
+    }
+    for (const classes of ladder.slice(1)) {
+      const c = confirm(current, classes, `${classText(classes)}, order ${order}`);
+      best = better(best, c);
+      if (c.estimate.met) {
+        actions.push({ code: "tightened-tolerances", message: `Tightened the part tolerances to ${classText(classes)} (the spec leaves them free): ${yieldText(c.estimate)}.` });
+        return { chosen: c, candidates, actions };
+      }
+    }
+  }
+  actions.push({
+    code: "kept-best-attempt",
+    message: `No candidate reached the yield target of ${significant(spec.yieldTarget * 100, 3)} %; kept the one with the best interval (${best.change}: ${yieldText(best.estimate)} at ${classText(best.classes)}).`,
+  });
+  return { chosen: best, candidates, actions };
+}
