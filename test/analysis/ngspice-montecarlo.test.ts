@@ -1,42 +1,55 @@
 /**
- * An outside check of monteCarlo's board yield: the same designs' boards,
+ * An outside check of the library's board yield: the same designs' boards,
  * netlisted and simulated by ngspice, meet the mask as often as the library
  * says.
  *
- * For each scenario (responses of every kind, one with single-pole op-amps)
- * the parts' tolerance class is picked from a ladder so that the library's
- * yield is informative (the class whose pilot run, of its own seed, is
- * nearest 60 %; it must lie in 30-90 %). Boards are then
- * drawn independently of the library (uniform within +-tolerance, as
- * monteCarlo draws by default, from a stream of this test's own seed), each
- * board's netlist is the design's with the drawn values put in by `alter`,
- * and ngspice's AC response gives each board's mask figures
- * (test/helpers/ngspice-boards.ts). Two checks follow:
+ * Five scenarios of our own (a lowpass, a highpass, a bandpass, a bandstop,
+ * and a lowpass with single-pole op-amps), each checked twice:
  *
- * - yield: the ngspice yield and the library's monteCarlo yield (its own
- *   boards, as many) each get a 95 % Wilson score interval (E. B. Wilson,
- *   "Probable inference, the law of succession, and statistical inference",
- *   J. Amer. Statist. Assoc. 22(158):209-212, 1927, eq. for the limits of
- *   p), and their difference must lie within its 95 % bound, the hybrid
- *   score interval built from the two Wilson intervals (R. G. Newcombe,
- *   "Interval estimation for the difference between independent
- *   proportions: comparison of eleven methods", Statistics in Medicine
- *   17(8):873-890, 1998, method 10);
+ * - against monteCarlo at an informative tolerance: every part gets the
+ *   same tolerance class, picked from a ladder of the usual classes so that
+ *   the library's yield is informative (the class whose pilot run, of its
+ *   own seed, is nearest 60 %; it must lie in 30-90 %);
+ * - against the design's own verdict, verification.yield, at the
+ *   tolerances the design chose for each part.
+ *
+ * Boards are drawn independently of the library (uniform within each part's
+ * tolerance, as the library draws by default, from this test's own seeded
+ * stream), each board's netlist is the design's with the drawn values put in
+ * by `alter`, and ngspice's AC response gives each board's mask figures
+ * (test/helpers/ngspice-boards.ts). Then:
+ *
+ * - yield: the ngspice yield and the library's (its own boards) each get a
+ *   95 % Wilson score interval (E. B. Wilson, "Probable inference, the law
+ *   of succession, and statistical inference", J. Amer. Statist. Assoc.
+ *   22(158):209-212, 1927; the library's wilsonInterval,
+ *   src/evaluate/yield.ts); the intervals must overlap and the difference of
+ *   the yields must lie within its 95 % bound, the hybrid score interval
+ *   built from the two Wilson intervals (R. G. Newcombe, "Interval
+ *   estimation for the difference between independent proportions:
+ *   comparison of eleven methods", Statistics in Medicine 17(8):873-890,
+ *   1998, method 10);
  * - per board: the library's as-built check (checkMask) of every board
  *   ngspice simulated gives the same passband loss, stopband attenuation,
  *   level and worst margin to 1e-3 dB, and so the same verdict wherever the
- *   margin is not within 1e-3 dB of zero.
+ *   margin is not within 1e-3 dB of zero; and every stage of every board is
+ *   stable with its op-amps (the library's Routh test), since an AC
+ *   analysis cannot see a board oscillate while the library fails such
+ *   boards.
  *
  * NGSPICE_MC_BOARDS sets the boards per design (default 200);
- * NGSPICE_MC_REPORT=1 prints one line per design.
+ * NGSPICE_MC_REPORT=1 prints one line per check.
  */
 import { describe, expect, it } from "vitest";
 import { designFilter, type DesignResult, type FilterSpec } from "../../src/design/index.ts";
 import { monteCarlo } from "../../src/analysis/index.ts";
 import { toSpiceNetlist } from "../../src/report/index.ts";
 import { builtStages } from "../../src/design/response.ts";
-import { checkMask, maskBands, type BuiltStage } from "../../src/design/verify.ts";
+import { checkMask, maskBands, maskPlan, spanRadS, type BuiltStage } from "../../src/design/verify.ts";
 import type { MaskLimits } from "../../src/evaluate/mask.ts";
+import { stagePolynomials } from "../../src/evaluate/stage-polynomials.ts";
+import { isHurwitz } from "../../src/evaluate/stability.ts";
+import { wilsonInterval } from "../../src/evaluate/yield.ts";
 import { mulberry32 } from "../../src/math/random.ts";
 import { requireNgspice } from "../helpers/ngspice.ts";
 import { ngspiceBoardFigures, type BoardValues, type SpiceBoardFigures } from "../helpers/ngspice-boards.ts";
@@ -51,16 +64,10 @@ const LADDER = [0.001, 0.0025, 0.005, 0.01, 0.02, 0.05, 0.1] as const;
 /** Largest difference between ngspice's and the library's figures of one board, dB. */
 const AGREE_DB = 1e-3;
 
-/** Upper 2.5 % point of the standard normal distribution (full precision). */
-const Z95 = 1.959963984540054;
-
-/** Wilson score interval of a proportion `passed / n` at the normal point `z`. */
-function wilsonInterval(passed: number, n: number, z = Z95): { lower: number; upper: number } {
-  const p = passed / n;
-  const z2n = (z * z) / n;
-  const centre = (p + z2n / 2) / (1 + z2n);
-  const half = (z / (1 + z2n)) * Math.sqrt((p * (1 - p)) / n + (z * z) / (4 * n * n));
-  return { lower: Math.max(0, centre - half), upper: Math.min(1, centre + half) };
+/** The Wilson interval as an object. */
+function wilson(passed: number, n: number): { lower: number; upper: number } {
+  const [lower, upper] = wilsonInterval(passed, n);
+  return { lower, upper };
 }
 
 /** Newcombe's hybrid score interval (method 10) of p1 - p2 from the two Wilson intervals. */
@@ -114,12 +121,12 @@ function pickTolerance(design: DesignResult): { tolerance: number; pilot: number
   return pilots.reduce((a, b) => (Math.abs(b.pilot - 0.6) < Math.abs(a.pilot - 0.6) ? b : a));
 }
 
-/** Boards drawn uniformly within +-tolerance of the design's values, from this test's own stream. */
-function drawBoards(design: DesignResult, tolerance: number, count: number): BoardValues[] {
-  const next = mulberry32(SPICE_SEED);
+/** Boards drawn uniformly within each part's tolerance of the design's values, from this test's own stream. */
+function drawBoards(design: DesignResult, toleranceOf: (designator: string) => number, count: number, seed: number): BoardValues[] {
+  const next = mulberry32(seed);
   const nominal = design.stages.flatMap((s) => Object.entries(s.components));
   return Array.from({ length: count }, () =>
-    Object.fromEntries(nominal.map(([name, v]) => [name, v * (1 + tolerance * (2 * next() - 1))])),
+    Object.fromEntries(nominal.map(([name, v]) => [name, v * (1 + toleranceOf(name) * (2 * next() - 1))])),
   );
 }
 
@@ -141,50 +148,99 @@ const limitsOf = (design: DesignResult): MaskLimits => ({
   gainToleranceDb: design.spec.gainToleranceDb,
 });
 
+/** The library's yield to compare with: boards passed out of boards built. */
+interface LibraryYield {
+  readonly passed: number;
+  readonly boards: number;
+}
+
+/**
+ * Simulate boards in ngspice, check them against the library board by board
+ * and compare the yields; returns the summary line after the expectations.
+ */
+function compareWithNgspice(label: string, design: DesignResult, boards: readonly BoardValues[], library: LibraryYield): string {
+  const spice = ngspiceBoardFigures(toSpiceNetlist(design), boards, maskBands(design.spec), limitsOf(design));
+  const n = boards.length;
+  const spicePassed = spice.filter((f) => f.marginDb >= 0).length;
+  const ws = wilson(spicePassed, n);
+  const wl = wilson(library.passed, library.boards);
+  const diff = differenceInterval(spicePassed / n, ws, library.passed / library.boards, wl);
+
+  // the library's own check of the very boards ngspice simulated
+  let worst = 0;
+  let disagreements = 0;
+  let unstable = 0;
+  const span = spanRadS(maskPlan(design.spec).bands);
+  spice.forEach((s: SpiceBoardFigures, k) => {
+    const stages = boardStages(design, boards[k] as BoardValues);
+    const m = checkMask(design.spec, stages, design.spec.opamp);
+    for (const st of stages) {
+      const p = stagePolynomials(st.topology, st.values, design.spec.opamp, { spanRadS: span });
+      if (p === null || !isHurwitz(p.den)) unstable++;
+    }
+    const d = Math.max(
+      Math.abs(m.passbandLossDb - s.passbandLossDb),
+      Math.abs(m.stopbandAttenuationDb - s.stopbandAttenuationDb),
+      Math.abs(m.gainDb - s.gainDb),
+      Math.abs(m.marginDb - s.marginDb),
+    );
+    worst = Math.max(worst, d);
+    if (m.marginDb >= 0 !== s.marginDb >= 0 && Math.abs(s.marginDb) > AGREE_DB) disagreements++;
+  });
+
+  const pct = (x: number): string => (100 * x).toFixed(1);
+  const line =
+    `${label}: ${design.family} ${design.filterOrder}-pole; ` +
+    `ngspice ${pct(spicePassed / n)} % [${pct(ws.lower)}, ${pct(ws.upper)}] of ${n} boards, ` +
+    `library ${pct(library.passed / library.boards)} % [${pct(wl.lower)}, ${pct(wl.upper)}] of ${library.boards}, ` +
+    `difference 95 % bound [${pct(diff.lower)}, ${pct(diff.upper)}]; same boards: worst figure difference ${worst.toExponential(1)} dB`;
+  if (REPORT) console.log(line);
+
+  // an AC analysis cannot see a board oscillate, while the library fails unstable boards: the scenarios have none
+  expect(unstable, `${line}; unstable stages on the boards`).toBe(0);
+  expect(worst, line).toBeLessThan(AGREE_DB);
+  expect(disagreements, line).toBe(0);
+  expect(ws.lower <= wl.upper && wl.lower <= ws.upper, line).toBe(true);
+  expect(diff.lower <= 0 && 0 <= diff.upper, line).toBe(true);
+  return line;
+}
+
+const designs = new Map<string, DesignResult>();
+/** Each scenario designed once, for both checks. */
+function designOf(name: string, spec: FilterSpec): DesignResult {
+  let d = designs.get(name);
+  if (d === undefined) {
+    d = designFilter(spec);
+    designs.set(name, d);
+  }
+  return d;
+}
+
 describe("monteCarlo against ngspice boards", () => {
   for (const { name, spec } of scenarios) {
-    it.skipIf(!haveSpice)(`${name}: ngspice's yield over ${BOARDS} boards agrees with monteCarlo's`, () => {
-      const design = designFilter(spec);
+    it.skipIf(!haveSpice)(`${name}: ngspice's yield over ${BOARDS} boards agrees with monteCarlo's at an informative tolerance`, () => {
+      const design = designOf(name, spec);
       const { tolerance, pilot } = pickTolerance(design);
       expect(pilot, `no tolerance class gives an informative yield (${pilot})`).toBeGreaterThanOrEqual(0.3);
       expect(pilot, `no tolerance class gives an informative yield (${pilot})`).toBeLessThanOrEqual(0.9);
-
       const library = monteCarlo(design, { runs: BOARDS, seed: 1, resistorTolerance: tolerance, capacitorTolerance: tolerance });
-      const boards = drawBoards(design, tolerance, BOARDS);
-      const spice = ngspiceBoardFigures(toSpiceNetlist(design), boards, maskBands(design.spec), limitsOf(design));
-      const spicePassed = spice.filter((f) => f.marginDb >= 0).length;
-      const libraryPassed = Math.round(library.yield * BOARDS);
-      const ws = wilsonInterval(spicePassed, BOARDS);
-      const wl = wilsonInterval(libraryPassed, BOARDS);
-      const diff = differenceInterval(spicePassed / BOARDS, ws, library.yield, wl);
-
-      // the library's own check of the very boards ngspice simulated
-      let worst = 0;
-      let disagreements = 0;
-      spice.forEach((s: SpiceBoardFigures, k) => {
-        const m = checkMask(design.spec, boardStages(design, boards[k] as BoardValues), design.spec.opamp);
-        const d = Math.max(
-          Math.abs(m.passbandLossDb - s.passbandLossDb),
-          Math.abs(m.stopbandAttenuationDb - s.stopbandAttenuationDb),
-          Math.abs(m.gainDb - s.gainDb),
-          Math.abs(m.marginDb - s.marginDb),
-        );
-        worst = Math.max(worst, d);
-        if (m.marginDb >= 0 !== s.marginDb >= 0 && Math.abs(s.marginDb) > AGREE_DB) disagreements++;
+      const boards = drawBoards(design, () => tolerance, BOARDS, SPICE_SEED);
+      compareWithNgspice(`${name}, every part +-${100 * tolerance} %`, design, boards, {
+        passed: Math.round(library.yield * BOARDS),
+        boards: BOARDS,
       });
+    });
+  }
+});
 
-      const pct = (x: number): string => (100 * x).toFixed(1);
-      const line =
-        `${name}: ${design.family} ${design.filterOrder}-pole, parts +-${100 * tolerance} %, ${BOARDS} boards; ` +
-        `ngspice ${pct(spicePassed / BOARDS)} % [${pct(ws.lower)}, ${pct(ws.upper)}], ` +
-        `library ${pct(library.yield)} % [${pct(wl.lower)}, ${pct(wl.upper)}], ` +
-        `difference 95 % bound [${pct(diff.lower)}, ${pct(diff.upper)}]; same boards: worst figure difference ${worst.toExponential(1)} dB`;
-      if (REPORT) console.log(line);
-
-      expect(worst, line).toBeLessThan(AGREE_DB);
-      expect(disagreements, line).toBe(0);
-      expect(ws.lower <= wl.upper && wl.lower <= ws.upper, line).toBe(true);
-      expect(diff.lower <= 0 && 0 <= diff.upper, line).toBe(true);
+describe("verification.yield against ngspice boards", () => {
+  for (const { name, spec } of scenarios) {
+    it.skipIf(!haveSpice)(`${name}: ngspice's yield over ${BOARDS} boards at the design's own part tolerances agrees with verification.yield`, () => {
+      const design = designOf(name, spec);
+      const y = design.verification.yield;
+      const own = new Map(design.stages.flatMap((s) => Object.entries(s.tolerances)));
+      const boards = drawBoards(design, (p) => own.get(p) as number, BOARDS, SPICE_SEED + 1);
+      compareWithNgspice(`${name}, the design's tolerances`, design, boards, { passed: y.passed, boards: y.boards });
     });
   }
 });

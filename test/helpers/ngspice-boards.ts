@@ -21,11 +21,11 @@
  * highest point; passband loss, stopband attenuation and gain error against
  * the mask's limits; the worst margin is the smallest of the three.
  *
- * Accuracy: a fine step is 1/20 of a grid step (at 100 points per decade,
- * 5e-4 decades, less in narrow bands), and the parabola's vertex is exact
+ * Accuracy: a fine step is 1/10 of a grid step (at 100 points per decade,
+ * 1e-3 decades, less in narrow bands), and the parabola's vertex is exact
  * but for the peak's cubic term over that step; measured against the
  * library's golden-section search on the boards of
- * test/analysis/ngspice-montecarlo.test.ts, the figures agree within 5e-6 dB,
+ * test/analysis/ngspice-montecarlo.test.ts, the figures agree within 2e-5 dB,
  * far below the 1e-3 dB the cross-checks ask for. ngspice writes 16
  * significant digits (`option numdgt=15`).
  */
@@ -62,7 +62,7 @@ export const DECADE_POINTS = 100;
 /** Least points of a band's first sweep (narrow bands get more per decade). */
 export const BAND_POINTS = 300;
 /** Points of each fine sweep around a candidate extreme. */
-export const FINE_POINTS = 41;
+export const FINE_POINTS = 21;
 /** Local extremes refined per band and direction. */
 export const CANDIDATES = 4;
 
