@@ -7,20 +7,26 @@
  * the spec leaves the order free), cheapest change first, until the yield's
  * 95 % interval clears the target (src/evaluate/yield.ts, Wilson interval):
  *
- * 1. the nominal design at the default tolerances;
+ * 1. the nominal design at the default tolerances, then at tighter tolerance
+ *    classes where the spec leaves them free (capacitors and resistors a
+ *    class at a time, capacitors first: a filter's response is usually most
+ *    sensitive to them, common practice, no source);
  * 2. design centring: the candidate placements inside the slack interval
  *    and the prototypes designed with part of the ripple and attenuation
  *    held back (family.ts `MARGIN_LEVELS`), each re-tuned to the mask, are
- *    screened by a short Monte Carlo run and the one with the highest yield
- *    is confirmed (a sampled form of design centring: S. W. Director & G. D.
+ *    screened and the one with the highest predicted yield is confirmed (a sampled form of design centring: S. W. Director & G. D.
  *    Hachtel, "The simplicial approximation approach to design centering",
  *    IEEE Trans. Circuits Syst. 24(7):363-372, 1977, centre the nominal point
  *    in the acceptable region; here the candidates are discrete, as the
- *    parts are);
- * 3. tighter tolerance classes, where the spec leaves them free: capacitors
- *    and resistors a class at a time, capacitors first (a filter's response
- *    is usually most sensitive to them, common practice, no source);
- * 4. one order more (up to the order range's last), and again from 1.
+ *    parts are), again from the default classes up;
+ * 3. one order more (up to the order range's last), and again from 1.
+ *    Centring is tried at an order only when its tightest classes come
+ *    within half the target, so hopeless orders cost a screen, not a search.
+ *
+ * Candidates are screened by the first-order tolerance model
+ * (src/evaluate/spread.ts: the mask on the linearised response of 2000
+ * sampled boards, a few milliseconds) and only those it predicts within
+ * reach of the target are confirmed by boards.
  *
  * Every candidate confirmed is recorded as an alternative with its family,
  * order, op-amp count, tolerances and yield. When none reaches the target
@@ -30,13 +36,14 @@
  * @module
  */
 import type { FamilyName } from "../approx/index.ts";
-import type { BoardStage } from "../evaluate/boards.ts";
+import { BATCH, type BoardStage } from "../evaluate/boards.ts";
 import { compileStage } from "../evaluate/stage-polynomials.ts";
 import { sequentialYield, type YieldEstimate } from "../evaluate/yield.ts";
+import { linearModel, predictYield, type LinearModel } from "../evaluate/spread.ts";
 import { TWO_PI } from "../units/constants.ts";
 import type { DesignSpec } from "./spec.ts";
 import { designPrototype, stricterLevels } from "./family.ts";
-import { intervalWidth, prototypeInterval } from "./placement.ts";
+import { intervalWidth, prototypeInterval, upHelpsPassband } from "./placement.ts";
 import { buildAttempt, meetsSpec, type Attempt, type PlacedPrototype } from "./attempt.ts";
 import { maskPlan, spanRadS } from "./verify.ts";
 import { designAtOrder, retuneToMask, type OrderRange, type SearchOutcome } from "./recovery.ts";
@@ -139,7 +146,7 @@ export function attemptYield(spec: DesignSpec, a: Attempt, tolerances: PartToler
     seed: spec.yieldSeed,
     distribution: spec.partDistribution,
     maxBoards,
-    minBoards: Math.min(maxBoards, 512),
+    minBoards: BATCH,
   });
 }
 
@@ -170,19 +177,68 @@ export function yieldText(y: YieldEstimate): string {
   return `${pc(y.fraction)} % of ${y.boards} boards [${pc(y.lower95)}, ${pc(y.upper95)}]`;
 }
 
-/** The centring candidates of a placed prototype: other placements and prototypes with margin held back, each meeting the mask nominally. */
-function centringCandidates(spec: DesignSpec, placed: PlacedPrototype, base: Attempt): { attempt: Attempt; change: string }[] {
-  const out: { attempt: Attempt; change: string }[] = [];
-  for (const position of [0.3, 0.7]) {
-    const a = retuneToMask(spec, buildAttempt(spec, placed, { position, wide: true }));
-    if (meetsSpec(spec, a)) out.push({ attempt: a, change: `placed at ${Math.round(position * 100)} % of the slack interval` });
+/** The first-order model of each attempt screened (null: the model could not be formed). */
+const models = new WeakMap<Attempt, LinearModel | null>();
+
+/** Boards of the linear model's screening run. */
+const SCREEN_SAMPLES = 2000;
+
+/**
+ * The yield the first-order model predicts for an attempt (src/evaluate/spread.ts),
+ * with the constraint that binds: a cheap screen, confirmed by boards only
+ * for the candidate kept. A stage the model cannot linearise is screened by
+ * one block of boards instead.
+ */
+export function screenYield(spec: DesignSpec, a: Attempt, tolerances: PartTolerances): { fraction: number; short: "passband" | "stopband" | "gain" | null } {
+  const plan = maskPlan(spec);
+  let model = models.get(a);
+  if (model === undefined) {
+    try {
+      model = linearModel(boardStagesOf(spec, a, tolerances), plan);
+    } catch {
+      model = null;
+    }
+    models.set(a, model);
   }
-  for (const level of stricterLevels(spec, base.proto)) {
+  if (model === null) return { fraction: attemptYield(spec, a, tolerances, SCREEN_BOARDS).fraction, short: null };
+  const flat = new Float64Array(model.parts.length);
+  let k = 0;
+  for (const t of tolerances) for (const x of t) flat[k++] = x;
+  const y = predictYield(model, plan, flat, spec.partDistribution, { samples: SCREEN_SAMPLES, seed: spec.yieldSeed });
+  let short: "passband" | "stopband" | "gain" | null = null;
+  let beta = Infinity;
+  for (const c of y.constraints) {
+    if (c.beta < beta) {
+      beta = c.beta;
+      short = c.constraint;
+    }
+  }
+  return { fraction: y.fraction, short };
+}
+
+/** Centring candidates: placements towards the side the binding constraint needs, and prototypes with margin held back, each meeting the mask nominally. */
+function centringCandidates(spec: DesignSpec, base: Attempt, short: "passband" | "stopband" | "gain" | null): { attempt: Attempt; change: string }[] {
+  const out: { attempt: Attempt; change: string }[] = [];
+  const placed: PlacedPrototype = { proto: base.proto, interval: base.interval };
+  const build = (p: PlacedPrototype, position: number): Attempt | null => {
+    const a = buildAttempt(spec, p, { position, wide: false });
+    return meetsSpec(spec, a) ? a : null;
+  };
+  // moving up the interval helps the passband when upHelpsPassband
+  const towardsPass = upHelpsPassband(spec) ? [0.7, 0.9] : [0.3, 0.1];
+  const towardsStop = upHelpsPassband(spec) ? [0.3] : [0.7];
+  const positions = short === "stopband" ? towardsStop : short === "passband" ? towardsPass : [0.35, 0.65];
+  for (const position of positions) {
+    const a = build(placed, position);
+    if (a !== null) out.push({ attempt: a, change: `placed at ${Math.round(position * 100)} % of the slack interval` });
+  }
+  if (short === "gain") return out;
+  for (const level of stricterLevels(spec, base.proto).slice(0, 2)) {
     const proto = designPrototype(spec, base.proto.family, base.proto.order, level);
     const interval = prototypeInterval(spec, proto.zpk);
     if (!(intervalWidth(interval) > 0)) continue;
-    const a = retuneToMask(spec, buildAttempt(spec, { proto, interval }, { position: 0.5, wide: true }));
-    if (!meetsSpec(spec, a)) continue;
+    const a = build({ proto, interval }, 0.5);
+    if (a === null) continue;
     const held = [
       proto.rippleDb === undefined ? "" : `ripple ${significant(proto.rippleDb, 3)} dB of ${significant(spec.maxLossDb, 3)}`,
       proto.attenuationDb === undefined ? "" : `attenuation ${significant(proto.attenuationDb, 4)} dB for ${significant(spec.minAttenuationDb, 4)}`,
@@ -195,6 +251,11 @@ function centringCandidates(spec: DesignSpec, placed: PlacedPrototype, base: Att
 /** The op-amps of an attempt. */
 export function opampCount(a: Attempt): number {
   return a.plans.reduce((k, p) => k + p.topology.opampCount, 0);
+}
+
+/** A predicted yield that is worth confirming with boards: within a third of the allowed failures of the target. */
+function worthConfirming(spec: DesignSpec, predicted: number): boolean {
+  return predicted >= 1 - (1 - spec.yieldTarget) * 1.3;
 }
 
 /**
@@ -231,32 +292,40 @@ export function designForYield(spec: DesignSpec, family: FamilyName, orders: Ord
       const outcome = designAtOrder(spec, family, order, { placement: false, actions: [] });
       if (!outcome.met) continue;
       base = outcome.attempt;
-      const raised = confirm(base, defaults, `order ${order}`);
-      actions.push({ code: "raised-order", message: `Raised the order to ${order} for the yield target: ${yieldText(raised.estimate)} at ${classText(defaults)}.` });
-      best = better(best, raised);
-      if (raised.estimate.met) return { chosen: raised, candidates, actions };
     }
-    // centring: screen the candidates with one block of boards, confirm the best
-    const placed: PlacedPrototype = { proto: base.proto, interval: base.interval };
-    let centred: { attempt: Attempt; change: string; fraction: number } | null = null;
-    const baseScreen = order === startOrder ? first.estimate.fraction : (candidates[candidates.length - 1] as YieldCandidate).estimate.fraction;
-    for (const c of centringCandidates(spec, placed, base)) {
-      const f = attemptYield(spec, c.attempt, classTolerances(c.attempt, defaults), SCREEN_BOARDS).fraction;
-      if (f > (centred?.fraction ?? baseScreen)) centred = { ...c, fraction: f };
-    }
-    let current = base;
-    if (centred !== null) {
-      const c = confirm(centred.attempt, defaults, `${centred.change}, order ${order}`);
-      actions.push({ code: "centred-for-yield", message: `Centred the design for yield (${centred.change}): ${yieldText(c.estimate)} at ${classText(defaults)}.` });
-      best = better(best, c);
-      if (c.estimate.met) return { chosen: c, candidates, actions };
-      current = centred.attempt;
-    }
-    for (const classes of ladder.slice(1)) {
-      const c = confirm(current, classes, `${classText(classes)}, order ${order}`);
-      best = better(best, c);
-      if (c.estimate.met) {
-        actions.push({ code: "tightened-tolerances", message: `Tightened the part tolerances to ${classText(classes)} (the spec leaves them free): ${yieldText(c.estimate)}.` });
+    const baseScreen = screenYield(spec, base, classTolerances(base, defaults));
+    const designs: { attempt: Attempt; change: string }[] = [{ attempt: base, change: order === startOrder ? "the nominal design" : `order ${order}` }];
+    // first the design as it is at each class, then (only when none will do) the centring candidates at each class
+    let bestPredicted = 0;
+    for (const phase of [0, 1]) {
+      if (phase === 1) {
+        // centring is worth its cost only where the tightest classes come within reach of the target
+        if (bestPredicted < spec.yieldTarget / 2) break;
+        designs.push(...centringCandidates(spec, base, baseScreen.short));
+      }
+      for (const classes of ladder) {
+        let pick: { attempt: Attempt; change: string; fraction: number } | null = null;
+        for (const d of phase === 0 ? designs : designs.slice(1)) {
+          const f = d.attempt === base && classes === defaults ? baseScreen.fraction : screenYield(spec, d.attempt, classTolerances(d.attempt, classes)).fraction;
+          if (pick === null || f > pick.fraction) pick = { ...d, fraction: f };
+        }
+        if (pick === null) continue;
+        bestPredicted = Math.max(bestPredicted, pick.fraction);
+        if (!worthConfirming(spec, pick.fraction)) continue;
+        if (pick.attempt === nominal.attempt && classes === defaults) continue; // confirmed already
+        const change = classes === defaults ? pick.change : `${pick.change}, ${classText(classes)}`;
+        const c = confirm(pick.attempt, classes, pick.attempt === base || order === startOrder ? change : `${change}, order ${order}`);
+        best = better(best, c);
+        if (!c.estimate.met) continue;
+        if (order !== startOrder) actions.push({ code: "raised-order", message: `Raised the order to ${order} for the yield target.` });
+        if (pick.attempt !== base) {
+          actions.push({
+            code: "centred-for-yield",
+            message: `Centred the design for yield: ${pick.change} (the first-order tolerance model put the ${baseScreen.short ?? "binding"} constraint closest to failing).`,
+          });
+        }
+        if (classes !== defaults) actions.push({ code: "tightened-tolerances", message: `Tightened the part tolerances to ${classText(classes)} (the spec leaves them free).` });
+        actions.push({ code: "centred-for-yield", message: `The boards reach the yield target: ${yieldText(c.estimate)} at ${classText(classes)}.` });
         return { chosen: c, candidates, actions };
       }
     }
