@@ -12,3 +12,4 @@ export * from "./cascade.ts";
 export * from "./mask.ts";
 export * from "./boards.ts";
 export * from "./spread.ts";
+export * from "./allocate.ts";
