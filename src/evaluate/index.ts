@@ -13,3 +13,4 @@ export * from "./mask.ts";
 export * from "./boards.ts";
 export * from "./spread.ts";
 export * from "./allocate.ts";
+export * from "./sensitivity.ts";
