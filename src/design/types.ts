@@ -302,7 +302,8 @@ export interface DesignAction {
     | "kept-best-attempt"
     | "predistorted-for-gbw"
     | "centred-for-yield"
-    | "tightened-tolerances";
+    | "tightened-tolerances"
+    | "changed-family-for-yield";
   /** What it did and why. */
   readonly message: string;
 }

@@ -46,9 +46,9 @@ import { designPrototype, stricterLevels } from "./family.ts";
 import { intervalWidth, prototypeInterval, upHelpsPassband } from "./placement.ts";
 import { buildAttempt, meetsSpec, type Attempt, type PlacedPrototype } from "./attempt.ts";
 import { maskPlan, spanRadS } from "./verify.ts";
-import { designAtOrder, retuneToMask, type OrderRange, type SearchOutcome } from "./recovery.ts";
+import { designAtOrder, orderRange, retuneToMask, searchDesign, type OrderRange, type SearchOutcome } from "./recovery.ts";
 import { significant } from "./text.ts";
-import type { DesignAction } from "./types.ts";
+import type { DesignAction, FamilyChoice } from "./types.ts";
 
 /** Resistor tolerance classes stocked (fractions; common practice, no source). */
 export const RESISTOR_CLASSES: readonly number[] = [0.05, 0.02, 0.01, 0.005, 0.0025, 0.001];
@@ -232,19 +232,24 @@ function centringCandidates(spec: DesignSpec, base: Attempt, short: "passband" |
     const a = build(placed, position);
     if (a !== null) out.push({ attempt: a, change: `placed at ${Math.round(position * 100)} % of the slack interval` });
   }
-  if (short === "gain") return out;
-  for (const level of stricterLevels(spec, base.proto).slice(0, 2)) {
+  const levels = stricterLevels(spec, base.proto);
+  levels.forEach((level, k) => {
     const proto = designPrototype(spec, base.proto.family, base.proto.order, level);
     const interval = prototypeInterval(spec, proto.zpk);
-    if (!(intervalWidth(interval) > 0)) continue;
-    const a = build({ proto, interval }, 0.5);
-    if (a === null) continue;
+    if (!(intervalWidth(interval) > 0)) return;
     const held = [
       proto.rippleDb === undefined ? "" : `ripple ${significant(proto.rippleDb, 3)} dB of ${significant(spec.maxLossDb, 3)}`,
       proto.attenuationDb === undefined ? "" : `attenuation ${significant(proto.attenuationDb, 4)} dB for ${significant(spec.minAttenuationDb, 4)}`,
     ].filter((x) => x !== "");
-    out.push({ attempt: a, change: `held margin back (${held.join(", ")})` });
-  }
+    // the most held-back prototype is also tried moved towards the binding band
+    const at = k === levels.length - 1 && short !== null ? [0.5, (short === "passband" ? towardsPass : towardsStop)[0] as number] : [0.5];
+    for (const position of at) {
+      const a = build({ proto, interval }, position);
+      if (a === null) continue;
+      const where = position === 0.5 ? "" : `, placed at ${Math.round(position * 100)} % of its slack`;
+      out.push({ attempt: a, change: `held margin back (${held.join(", ")}${where})` });
+    }
+  });
   return out;
 }
 
@@ -335,4 +340,51 @@ export function designForYield(spec: DesignSpec, family: FamilyName, orders: Ord
     message: `No candidate reached the yield target of ${significant(spec.yieldTarget * 100, 3)} %; kept the one with the best interval (${best.change}: ${yieldText(best.estimate)} at ${classText(best.classes)}).`,
   });
   return { chosen: best, candidates, actions };
+}
+
+/** Most other families tried when the chosen one cannot reach the yield target. */
+const OTHER_FAMILIES = 2;
+
+/**
+ * Design for yield in the family the automatic choice made and, when its
+ * boards cannot reach the target and the spec leaves the family to the
+ * pipeline, in the next candidates of that choice (fewest op-amps first):
+ * a family with lower pole Q often tolerates its parts better than one
+ * more order of the first (common practice, no source).
+ *
+ * @param spec - canonical spec
+ * @param first - the family chosen, its order range and its nominal search
+ * @param choice - the family choice (its candidates)
+ * @returns the outcome kept, with every candidate of every family tried
+ */
+export function designForYieldAcrossFamilies(
+  spec: DesignSpec,
+  first: { readonly family: FamilyName; readonly orders: OrderRange; readonly nominal: SearchOutcome },
+  choice: FamilyChoice,
+): YieldOutcome & { readonly family: FamilyName } {
+  const outcome = designForYield(spec, first.family, first.orders, first.nominal);
+  if (outcome.chosen.estimate.met || !choice.automatic) return { ...outcome, family: first.family };
+  const others = choice.candidates
+    .filter((c) => c.family !== first.family && c.order !== null)
+    .sort((a, b) => (a.opamps ?? Infinity) - (b.opamps ?? Infinity) || (a.stages ?? Infinity) - (b.stages ?? Infinity))
+    .slice(0, OTHER_FAMILIES);
+  const candidates = [...outcome.candidates];
+  let kept: YieldOutcome & { readonly family: FamilyName } = { ...outcome, family: first.family };
+  for (const c of others) {
+    const orders = orderRange(spec, c.order);
+    const nominal = searchDesign(spec, c.family, orders);
+    if (!meetsSpec(spec, nominal.attempt)) continue;
+    const o = designForYield(spec, c.family, orders, nominal);
+    candidates.push(...o.candidates);
+    const better = o.chosen.estimate.lower95 > kept.chosen.estimate.lower95;
+    if (o.chosen.estimate.met || better) {
+      const action: DesignAction = {
+        code: "changed-family-for-yield",
+        message: `${first.family} boards could not reach the yield target (best ${yieldText(outcome.chosen.estimate)}); ${c.family} ${o.chosen.estimate.met ? "does" : "comes closer"}: ${yieldText(o.chosen.estimate)} at ${classText(o.chosen.classes)}.`,
+      };
+      kept = { chosen: o.chosen, candidates, actions: [...nominal.actions, ...o.actions, action], family: c.family };
+      if (o.chosen.estimate.met) break;
+    }
+  }
+  return { ...kept, candidates };
 }
