@@ -329,7 +329,7 @@ export function designForYield(spec: DesignSpec, family: FamilyName, orders: Ord
             message: `Centred the design for yield: ${pick.change} (the first-order tolerance model put the ${baseScreen.short ?? "binding"} constraint closest to failing).`,
           });
         }
-        if (classes !== defaults) actions.push({ code: "tightened-tolerances", message: `Tightened the part tolerances to ${classText(classes)} (the spec leaves them free).` });
+        if (classes !== defaults) actions.push({ code: "tightened-tolerances", message: `Tightened the part tolerances to ${classText(classes)} for the yield target (the spec leaves them free).` });
         actions.push({ code: "centred-for-yield", message: `The boards reach the yield target: ${yieldText(c.estimate)} at ${classText(classes)}.` });
         return { chosen: c, candidates, actions };
       }
