@@ -303,7 +303,8 @@ export interface DesignAction {
     | "predistorted-for-gbw"
     | "centred-for-yield"
     | "tightened-tolerances"
-    | "changed-family-for-yield";
+    | "changed-family-for-yield"
+    | "confirmed-yield";
   /** What it did and why. */
   readonly message: string;
 }

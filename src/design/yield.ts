@@ -40,6 +40,7 @@ import { BATCH, type BoardStage } from "../evaluate/boards.ts";
 import { compileStage } from "../evaluate/stage-polynomials.ts";
 import { sequentialYield, type YieldEstimate } from "../evaluate/yield.ts";
 import { linearModel, predictYield, type LinearModel } from "../evaluate/spread.ts";
+import { allocateTolerances, CAPACITOR_CLASSES, RESISTOR_CLASSES, type ToleranceClass } from "../evaluate/allocate.ts";
 import { TWO_PI } from "../units/constants.ts";
 import type { DesignSpec } from "./spec.ts";
 import { designPrototype, stricterLevels } from "./family.ts";
@@ -50,10 +51,10 @@ import { designAtOrder, orderRange, retuneToMask, searchDesign, type OrderRange,
 import { significant } from "./text.ts";
 import type { DesignAction, FamilyChoice } from "./types.ts";
 
-/** Resistor tolerance classes stocked (fractions; common practice, no source). */
-export const RESISTOR_CLASSES: readonly number[] = [0.05, 0.02, 0.01, 0.005, 0.0025, 0.001];
-/** Capacitor tolerance classes of C0G/NP0 ceramic and film capacitors (fractions; common practice, no source). */
-export const CAPACITOR_CLASSES: readonly number[] = [0.1, 0.05, 0.02, 0.01];
+/** Resistor tolerance classes stocked, loosest first (fractions). */
+const RESISTOR_TOLERANCES: readonly number[] = RESISTOR_CLASSES.map((c) => c.tolerance);
+/** Capacitor tolerance classes of C0G/NP0 ceramic and film capacitors, loosest first (fractions). */
+const CAPACITOR_TOLERANCES: readonly number[] = CAPACITOR_CLASSES.map((c) => c.tolerance);
 
 /** Boards of a screening run (one block). */
 const SCREEN_BOARDS = 256;
@@ -152,8 +153,8 @@ export function attemptYield(spec: DesignSpec, a: Attempt, tolerances: PartToler
 
 /** The class ladder: each step one class tighter for capacitors or resistors (capacitors first), only where the spec leaves them free. */
 export function classLadder(spec: DesignSpec): ToleranceClasses[] {
-  const r = spec.resistorToleranceFixed ? [spec.resistorTolerance] : [spec.resistorTolerance, ...RESISTOR_CLASSES.filter((t) => t < spec.resistorTolerance - 1e-12)];
-  const c = spec.capacitorToleranceFixed ? [spec.capacitorTolerance] : [spec.capacitorTolerance, ...CAPACITOR_CLASSES.filter((t) => t < spec.capacitorTolerance - 1e-12)];
+  const r = spec.resistorToleranceFixed ? [spec.resistorTolerance] : [spec.resistorTolerance, ...RESISTOR_TOLERANCES.filter((t) => t < spec.resistorTolerance - 1e-12)];
+  const c = spec.capacitorToleranceFixed ? [spec.capacitorTolerance] : [spec.capacitorTolerance, ...CAPACITOR_TOLERANCES.filter((t) => t < spec.capacitorTolerance - 1e-12)];
   // stop tightening resistors at 0.1 % and capacitors at 1 %: beyond that a filter is trimmed, not bought
   const out: ToleranceClasses[] = [{ resistor: r[0] as number, capacitor: c[0] as number }];
   let ri = 0;
@@ -322,6 +323,7 @@ export function designForYield(spec: DesignSpec, family: FamilyName, orders: Ord
         const c = confirm(pick.attempt, classes, pick.attempt === base || order === startOrder ? change : `${change}, order ${order}`);
         best = better(best, c);
         if (!c.estimate.met) continue;
+        const chosen = classes === defaults ? c : (allocatePerPart(spec, c) ?? c);
         if (order !== startOrder) actions.push({ code: "raised-order", message: `Raised the order to ${order} for the yield target.` });
         if (pick.attempt !== base) {
           actions.push({
@@ -330,8 +332,12 @@ export function designForYield(spec: DesignSpec, family: FamilyName, orders: Ord
           });
         }
         if (classes !== defaults) actions.push({ code: "tightened-tolerances", message: `Tightened the part tolerances to ${classText(classes)} for the yield target (the spec leaves them free).` });
-        actions.push({ code: "centred-for-yield", message: `The boards reach the yield target: ${yieldText(c.estimate)} at ${classText(classes)}.` });
-        return { chosen: c, candidates, actions };
+        if (chosen !== c) {
+          candidates.push(chosen);
+          actions.push({ code: "tightened-tolerances", message: `Allocated the tolerances part by part (${chosen.change}): only the parts the response is sensitive to keep the tighter classes.` });
+        }
+        actions.push({ code: "confirmed-yield", message: `The boards reach the yield target: ${yieldText(chosen.estimate)}.` });
+        return { chosen, candidates, actions };
       }
     }
   }
@@ -340,6 +346,53 @@ export function designForYield(spec: DesignSpec, family: FamilyName, orders: Ord
     message: `No candidate reached the yield target of ${significant(spec.yieldTarget * 100, 3)} %; kept the one with the best interval (${best.change}: ${yieldText(best.estimate)} at ${classText(best.classes)}).`,
   });
   return { chosen: best, candidates, actions };
+}
+
+/** Relative cost of a tolerance under a class table (the class with that tolerance, or the nearest tighter one). */
+function classCost(table: readonly ToleranceClass[], t: number): number {
+  const c = table.filter((x) => x.tolerance <= t + 1e-12).sort((a, b) => b.tolerance - a.tolerance)[0];
+  return (c ?? (table[table.length - 1] as ToleranceClass)).cost;
+}
+
+/**
+ * Per-part tolerance allocation from a class-wide candidate that meets the
+ * target (src/evaluate/allocate.ts, after B. J. Karafin, "The optimum
+ * assignment of component tolerances for electrical networks", Bell Syst.
+ * Tech. J. 50(4):1225-1242, 1971): each part may take any class from the
+ * default down to the candidate's (only the default when the spec fixes
+ * it); the allocation is kept when it is cheaper under the default cost
+ * table and its boards, confirmed like any candidate, still meet the target.
+ *
+ * @returns the allocated candidate, or null when it does not pay or does not hold
+ */
+function allocatePerPart(spec: DesignSpec, c: YieldCandidate): YieldCandidate | null {
+  const model = models.get(c.attempt);
+  if (model === undefined || model === null) return null;
+  const allowed = (table: readonly ToleranceClass[], loosest: number, tightest: number): ToleranceClass[] =>
+    table.filter((x) => x.tolerance <= loosest + 1e-12 && x.tolerance >= tightest - 1e-12);
+  const classes = model.parts.map((p) =>
+    p.kind === "capacitor"
+      ? allowed(CAPACITOR_CLASSES, spec.capacitorTolerance, c.classes.capacitor)
+      : allowed(RESISTOR_CLASSES, spec.resistorTolerance, c.classes.resistor),
+  );
+  if (classes.some((x) => x.length === 0)) return null;
+  const plan = maskPlan(spec);
+  let allocation;
+  try {
+    allocation = allocateTolerances(model, plan, { target: spec.yieldTarget, distribution: spec.partDistribution, classes, seed: spec.yieldSeed });
+  } catch {
+    return null;
+  }
+  if (!allocation.met) return null;
+  const wide = model.parts.reduce((k, p) => k + (p.kind === "capacitor" ? classCost(CAPACITOR_CLASSES, c.classes.capacitor) : classCost(RESISTOR_CLASSES, c.classes.resistor)), 0);
+  if (!(allocation.cost < wide - 1e-9)) return null;
+  let k = 0;
+  const tolerances = c.tolerances.map((t) => Float64Array.from(t, () => allocation.tolerance[k++] as number));
+  const estimate = attemptYield(spec, c.attempt, tolerances);
+  if (!estimate.met) return null;
+  const tightened = [...allocation.tolerance].filter((t, j) => t < (model.parts[j]?.kind === "capacitor" ? spec.capacitorTolerance : spec.resistorTolerance) - 1e-12).length;
+  const change = `${c.change}, per part: ${tightened} of ${model.parts.length} parts tightened, cost ${significant(allocation.cost, 3)} against ${significant(wide, 3)}`;
+  return { attempt: c.attempt, tolerances, classes: c.classes, estimate, change };
 }
 
 /** Most other families tried when the chosen one cannot reach the yield target. */
