@@ -15,7 +15,7 @@ import type { DesignResult } from "../design/index.ts";
 import { checkDesignResult, deepFreeze, registerDesignResult, requireDesignResult } from "../design/check.ts";
 
 /** The format version written by {@link toJson} and accepted by {@link fromJson}. */
-export const DESIGN_FORMAT_VERSION = 1;
+export const DESIGN_FORMAT_VERSION = 2;
 
 /**
  * Serialise a design result to versioned JSON text.

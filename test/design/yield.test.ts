@@ -175,3 +175,18 @@ describe("stability: a stage with right-half-plane poles never meets the spec", 
     expect(run.passed + run.unstable).toBeLessThanOrEqual(512);
   });
 });
+
+describe("the yield fields survive JSON", () => {
+  it("fromJson(toJson(r)) keeps verification.yield, the per-part tolerances and the alternatives", async () => {
+    const { toJson, fromJson } = await import("../../src/report/index.ts");
+    const r = designFilter({ ...SCENARIOS["hum-notch"]!.spec, yieldCheck: { maxBoards: 512 } });
+    const back = fromJson(toJson(r));
+    expect(back.verification.yield).toEqual(r.verification.yield);
+    expect(back.stages.map((s) => s.tolerances)).toEqual(r.stages.map((s) => s.tolerances));
+    expect(back.yieldAlternatives).toEqual(r.yieldAlternatives);
+    expect(back.verification.boardsMeetSpec).toBe(r.verification.boardsMeetSpec);
+    const broken = JSON.parse(toJson(r));
+    broken.result.verification.yield.lower95 = 1.5;
+    expect(() => fromJson(JSON.stringify(broken))).toThrow(/verification\.yield\.lower95/);
+  });
+});
