@@ -26,7 +26,7 @@ export const DESIGN_FORMAT_VERSION = 2;
  * @example
  * ```ts
  * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
- * JSON.parse(toJson(designFilter(spec))).formatVersion; //=> 1
+ * JSON.parse(toJson(designFilter(spec))).formatVersion; //=> 2
  * ```
  */
 export function toJson(result: DesignResult): string {
