@@ -1,23 +1,19 @@
 /**
  * Relative sensitivities of each stage's pole frequency, Q, zero frequency
- * and gain to each of its parts: S_x^y = (x / y) dy/dx.
+ * and gain to each of its parts, S_x^y = (x / y) dy/dx, by the design's
+ * part designators.
  *
- * Method: central differences of the topology's own (ideal op-amp) figures
- * with a relative step of 1e-5, so the truncation error is O(1e-10) and the
- * rounding error about 1e-11 / 1e-5 = 1e-6 relative. Classical invariants
- * follow from impedance and frequency scaling and serve as checks: for an
- * active-RC stage the f0 sensitivities to its resistors sum to -1, those to its
- * capacitors sum to -1, and the Q and gain sensitivities each sum to 0 over the
- * resistors and over the capacitors (G. S. Moschytz, "Linear Integrated
- * Networks: Design", 1975, ch. 2; R. Schaumann, M. S. Ghausi and K. R. Laker,
- * "Design of Analog Filters: Passive, Active RC and Switched Capacitor", 1990,
- * sec. 3.3).
+ * Method: the central differences of src/evaluate/sensitivity.ts (relative
+ * step 1e-5, about 1e-6 relative accuracy; its header gives the invariants
+ * and references), mapped from each stage's component names to the
+ * design's designators.
  *
  * @module
  */
 import type { DesignResult } from "../design/index.ts";
 import { builtStages } from "../design/response.ts";
 import { requireDesignResult } from "../design/check.ts";
+import { figureSensitivities, type FigureSensitivity } from "../evaluate/sensitivity.ts";
 
 /** Sensitivities of one stage's figures to one part. */
 export interface PartSensitivity {
@@ -35,13 +31,6 @@ export interface PartSensitivity {
   readonly fz: number;
   /** S_part^gain. */
   readonly gain: number;
-}
-
-const STEP = 1e-5;
-
-function rel(hi: number | undefined, lo: number | undefined, mid: number | undefined): number {
-  if (hi === undefined || lo === undefined || mid === undefined || mid === 0) return 0;
-  return (hi - lo) / (2 * STEP * mid);
 }
 
 /**
@@ -63,20 +52,10 @@ export function partSensitivities(result: DesignResult): PartSensitivity[] {
   const out: PartSensitivity[] = [];
   builtStages(result).forEach((b, k) => {
     const st = result.stages[k] as DesignResult["stages"][number];
-    const mid = b.topology.figures(b.values);
+    const byName = new Map(figureSensitivities(b.topology, b.values).map((x) => [x.name, x]));
     for (const [global, local] of Object.entries(st.localNames)) {
-      const x = b.values[local] as number;
-      const up = b.topology.figures({ ...b.values, [local]: x * (1 + STEP) });
-      const down = b.topology.figures({ ...b.values, [local]: x * (1 - STEP) });
-      out.push({
-        stage: st.index,
-        part: global,
-        value: x,
-        f0: rel(up.f0Hz, down.f0Hz, mid.f0Hz),
-        q: rel(up.q, down.q, mid.q),
-        fz: rel(up.fzHz, down.fzHz, mid.fzHz),
-        gain: rel(up.gain, down.gain, mid.gain),
-      });
+      const x = byName.get(local) as FigureSensitivity;
+      out.push({ stage: st.index, part: global, value: x.value, f0: x.f0, q: x.q, fz: x.fz, gain: x.gain });
     }
   });
   return out;

@@ -299,7 +299,7 @@ export function formatSummary(r: DesignResult, extra: readonly string[] = []): s
     "",
   );
   out.push(
-    `${v.meetsSpec ? "MEETS" : "DOES NOT MEET"} the spec: ${verdictLine(r)}; op-amp ${v.opamp.kind === "ideal" ? "ideal" : `GBW ${hz(v.opamp.gbwHz)}`}`,
+    `${v.boardsMeetSpec ? "MEETS" : "DOES NOT MEET"} the spec: ${verdictLine(r)}; op-amp ${v.opamp.kind === "ideal" ? "ideal" : `GBW ${hz(v.opamp.gbwHz)}`}`,
   );
   if (r.warnings.length > 0) {
     out.push("", "warnings:");
@@ -390,11 +390,11 @@ function design(spec: unknown, o: Map<string, string | true>, io: CliIo): number
   }
   if (o.get("quiet") === true) {
     io.stdout(
-      `${r.verification.meetsSpec ? "meets" : "does not meet"} the spec: ${r.family} order ${r.order}, ${verdictLine(r)}\n${extra.map((x) => `${x}\n`).join("")}`,
+      `${r.verification.boardsMeetSpec ? "meets" : "does not meet"} the spec: ${r.family} order ${r.order}, ${verdictLine(r)}\n${extra.map((x) => `${x}\n`).join("")}`,
     );
   } else io.stdout(formatSummary(r, extra));
   writeOutputs(r, o, io);
-  return r.verification.meetsSpec ? 0 : 1;
+  return r.verification.boardsMeetSpec ? 0 : 1;
 }
 
 /**

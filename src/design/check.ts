@@ -179,7 +179,7 @@ export function checkDesignResult(
   });
   const v = c.obj(`${prefix}.verification`, r["verification"]);
   c.bool(`${prefix}.verification.meetsSpec`, v["meetsSpec"]);
-  c.bool(`${prefix}.verification.nominalMeetsSpec`, v["nominalMeetsSpec"]);
+  c.bool(`${prefix}.verification.boardsMeetSpec`, v["boardsMeetSpec"]);
   c.bool(`${prefix}.verification.stable`, v["stable"]);
   c.arr(`${prefix}.verification.unstableStages`, v["unstableStages"]).forEach((x, j) => c.num(`${prefix}.verification.unstableStages.${j}`, x, true));
   const y = c.obj(`${prefix}.verification.yield`, v["yield"]);

@@ -18,7 +18,7 @@ import { validateSpec, type DesignSpec } from "./spec.ts";
 import { chooseFamily } from "./family.ts";
 import { orderRange, searchDesign } from "./recovery.ts";
 import { assembleResult } from "./result.ts";
-import { designForYield } from "./yield.ts";
+import { designForYieldAcrossFamilies } from "./yield.ts";
 import type { DesignResult } from "./types.ts";
 
 export { LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./result.ts";
@@ -51,7 +51,7 @@ export function designFilter(spec: unknown): DesignResult {
   const { family, order, choice } = chooseFamily(canonical);
   const orders = orderRange(canonical, order);
   const nominal = searchDesign(canonical, family, orders);
-  const robust = designForYield(canonical, family, orders, nominal);
-  const actions = [...nominal.actions, ...robust.actions];
-  return assembleResult(canonical, { family, choice, minimumOrder: orders.minimum, actions }, robust);
+  const robust = designForYieldAcrossFamilies(canonical, { family, orders, nominal }, choice);
+  const actions = robust.family === family ? [...nominal.actions, ...robust.actions] : [...robust.actions];
+  return assembleResult(canonical, { family: robust.family, choice, minimumOrder: orders.minimum, actions }, robust);
 }

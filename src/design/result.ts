@@ -286,10 +286,10 @@ function boardYieldOf(spec: DesignSpec, c: YieldCandidate): BoardYield {
 }
 
 /** The candidates of the yield search as alternatives. */
-function alternativesOf(family: FamilyName, robust: YieldOutcome): YieldAlternative[] {
+function alternativesOf(robust: YieldOutcome): YieldAlternative[] {
   return robust.candidates.map((c) => ({
     change: c.change,
-    family,
+    family: c.attempt.proto.family,
     order: c.attempt.proto.order,
     opamps: opampCount(c.attempt),
     resistorTolerance: c.classes.resistor,
@@ -325,8 +325,8 @@ function verificationOf(spec: DesignSpec, a: Attempt, boards: readonly BuiltStag
   const nominal = nominalMeets(spec, a);
   const boardYield = boardYieldOf(spec, robust.chosen);
   return {
-    meetsSpec: nominal && boardYield.met,
-    nominalMeetsSpec: nominal,
+    meetsSpec: nominal,
+    boardsMeetSpec: nominal && boardYield.met,
     opamp: spec.opamp,
     passbandLossDb: m.passbandLossDb,
     passbandWorstHz: m.passbandWorstHz,
@@ -401,6 +401,6 @@ export function assembleResult(spec: DesignSpec, decisions: DesignDecisions, rob
     verification: verificationOf(spec, a, boards, robust),
     warnings: [...records.flatMap((r) => r.warnings), ...cascadeWarnings(spec, a, peaks), ...yieldWarning(spec, robust)],
     actions: predistorted === null ? [...decisions.actions] : [...decisions.actions, predistorted],
-    yieldAlternatives: alternativesOf(decisions.family, robust),
+    yieldAlternatives: alternativesOf(robust),
   }));
 }

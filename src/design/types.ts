@@ -219,9 +219,9 @@ export interface YieldAlternative {
 /** The as-built circuit checked against the spec mask. */
 export interface Verification {
   /**
-   * Whether the boards work: the nominal board meets the mask and the
-   * polarity with every stage stable (`nominalMeetsSpec`), and the boards
-   * built from toleranced parts reach the yield target (`yield.met`).
+   * Whether the nominal board (every part at its preferred value) meets the
+   * mask and the polarity with every stage stable. Whether the boards as
+   * built do is `boardsMeetSpec`.
    */
   readonly meetsSpec: boolean;
   /** The op-amp model the check used. */
@@ -257,11 +257,11 @@ export interface Verification {
   /** Stages (from 1) that are not stable: an unstable stage is an oscillator, and the design does not meet the spec. */
   readonly unstableStages: readonly number[];
   /**
-   * Whether the nominal board (the preferred values exactly) meets the mask
-   * and the polarity with every stage stable. `meetsSpec` asks the boards
-   * as built as well.
+   * Whether the boards work: the nominal board meets the spec (`meetsSpec`)
+   * and the boards built from toleranced parts reach the yield target
+   * (`yield.met`). This is the verdict the command line's exit code follows.
    */
-  readonly nominalMeetsSpec: boolean;
+  readonly boardsMeetSpec: boolean;
   /** The yield of boards built from parts drawn within their tolerances, against the spec's `yieldTarget`. */
   readonly yield: BoardYield;
   /** The same margins for the exact (unrounded) design, ideal op-amp: what rounding had to work with. */
@@ -302,7 +302,9 @@ export interface DesignAction {
     | "kept-best-attempt"
     | "predistorted-for-gbw"
     | "centred-for-yield"
-    | "tightened-tolerances";
+    | "tightened-tolerances"
+    | "changed-family-for-yield"
+    | "confirmed-yield";
   /** What it did and why. */
   readonly message: string;
 }

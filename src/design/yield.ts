@@ -7,20 +7,26 @@
  * the spec leaves the order free), cheapest change first, until the yield's
  * 95 % interval clears the target (src/evaluate/yield.ts, Wilson interval):
  *
- * 1. the nominal design at the default tolerances;
+ * 1. the nominal design at the default tolerances, then at tighter tolerance
+ *    classes where the spec leaves them free (capacitors and resistors a
+ *    class at a time, capacitors first: a filter's response is usually most
+ *    sensitive to them, common practice, no source);
  * 2. design centring: the candidate placements inside the slack interval
  *    and the prototypes designed with part of the ripple and attenuation
  *    held back (family.ts `MARGIN_LEVELS`), each re-tuned to the mask, are
- *    screened by a short Monte Carlo run and the one with the highest yield
- *    is confirmed (a sampled form of design centring: S. W. Director & G. D.
+ *    screened and the one with the highest predicted yield is confirmed (a sampled form of design centring: S. W. Director & G. D.
  *    Hachtel, "The simplicial approximation approach to design centering",
  *    IEEE Trans. Circuits Syst. 24(7):363-372, 1977, centre the nominal point
  *    in the acceptable region; here the candidates are discrete, as the
- *    parts are);
- * 3. tighter tolerance classes, where the spec leaves them free: capacitors
- *    and resistors a class at a time, capacitors first (a filter's response
- *    is usually most sensitive to them, common practice, no source);
- * 4. one order more (up to the order range's last), and again from 1.
+ *    parts are), again from the default classes up;
+ * 3. one order more (up to the order range's last), and again from 1.
+ *    Centring is tried at an order only when its tightest classes come
+ *    within half the target, so hopeless orders cost a screen, not a search.
+ *
+ * Candidates are screened by the first-order tolerance model
+ * (src/evaluate/spread.ts: the mask on the linearised response of 2000
+ * sampled boards, a few milliseconds) and only those it predicts within
+ * reach of the target are confirmed by boards.
  *
  * Every candidate confirmed is recorded as an alternative with its family,
  * order, op-amp count, tolerances and yield. When none reaches the target
@@ -30,23 +36,25 @@
  * @module
  */
 import type { FamilyName } from "../approx/index.ts";
-import type { BoardStage } from "../evaluate/boards.ts";
+import { BATCH, type BoardStage } from "../evaluate/boards.ts";
 import { compileStage } from "../evaluate/stage-polynomials.ts";
 import { sequentialYield, type YieldEstimate } from "../evaluate/yield.ts";
+import { linearModel, predictYield, type LinearModel } from "../evaluate/spread.ts";
+import { allocateTolerances, CAPACITOR_CLASSES, RESISTOR_CLASSES, type ToleranceClass } from "../evaluate/allocate.ts";
 import { TWO_PI } from "../units/constants.ts";
 import type { DesignSpec } from "./spec.ts";
 import { designPrototype, stricterLevels } from "./family.ts";
-import { intervalWidth, prototypeInterval } from "./placement.ts";
+import { intervalWidth, prototypeInterval, upHelpsPassband } from "./placement.ts";
 import { buildAttempt, meetsSpec, type Attempt, type PlacedPrototype } from "./attempt.ts";
 import { maskPlan, spanRadS } from "./verify.ts";
-import { designAtOrder, retuneToMask, type OrderRange, type SearchOutcome } from "./recovery.ts";
+import { designAtOrder, orderRange, retuneToMask, searchDesign, type OrderRange, type SearchOutcome } from "./recovery.ts";
 import { significant } from "./text.ts";
-import type { DesignAction } from "./types.ts";
+import type { DesignAction, FamilyChoice } from "./types.ts";
 
-/** Resistor tolerance classes stocked (fractions; common practice, no source). */
-export const RESISTOR_CLASSES: readonly number[] = [0.05, 0.02, 0.01, 0.005, 0.0025, 0.001];
-/** Capacitor tolerance classes of C0G/NP0 ceramic and film capacitors (fractions; common practice, no source). */
-export const CAPACITOR_CLASSES: readonly number[] = [0.1, 0.05, 0.02, 0.01];
+/** Resistor tolerance classes stocked, loosest first (fractions). */
+const RESISTOR_TOLERANCES: readonly number[] = RESISTOR_CLASSES.map((c) => c.tolerance);
+/** Capacitor tolerance classes of C0G/NP0 ceramic and film capacitors, loosest first (fractions). */
+const CAPACITOR_TOLERANCES: readonly number[] = CAPACITOR_CLASSES.map((c) => c.tolerance);
 
 /** Boards of a screening run (one block). */
 const SCREEN_BOARDS = 256;
@@ -139,14 +147,14 @@ export function attemptYield(spec: DesignSpec, a: Attempt, tolerances: PartToler
     seed: spec.yieldSeed,
     distribution: spec.partDistribution,
     maxBoards,
-    minBoards: Math.min(maxBoards, 512),
+    minBoards: BATCH,
   });
 }
 
 /** The class ladder: each step one class tighter for capacitors or resistors (capacitors first), only where the spec leaves them free. */
 export function classLadder(spec: DesignSpec): ToleranceClasses[] {
-  const r = spec.resistorToleranceFixed ? [spec.resistorTolerance] : [spec.resistorTolerance, ...RESISTOR_CLASSES.filter((t) => t < spec.resistorTolerance - 1e-12)];
-  const c = spec.capacitorToleranceFixed ? [spec.capacitorTolerance] : [spec.capacitorTolerance, ...CAPACITOR_CLASSES.filter((t) => t < spec.capacitorTolerance - 1e-12)];
+  const r = spec.resistorToleranceFixed ? [spec.resistorTolerance] : [spec.resistorTolerance, ...RESISTOR_TOLERANCES.filter((t) => t < spec.resistorTolerance - 1e-12)];
+  const c = spec.capacitorToleranceFixed ? [spec.capacitorTolerance] : [spec.capacitorTolerance, ...CAPACITOR_TOLERANCES.filter((t) => t < spec.capacitorTolerance - 1e-12)];
   // stop tightening resistors at 0.1 % and capacitors at 1 %: beyond that a filter is trimmed, not bought
   const out: ToleranceClasses[] = [{ resistor: r[0] as number, capacitor: c[0] as number }];
   let ri = 0;
@@ -170,31 +178,90 @@ export function yieldText(y: YieldEstimate): string {
   return `${pc(y.fraction)} % of ${y.boards} boards [${pc(y.lower95)}, ${pc(y.upper95)}]`;
 }
 
-/** The centring candidates of a placed prototype: other placements and prototypes with margin held back, each meeting the mask nominally. */
-function centringCandidates(spec: DesignSpec, placed: PlacedPrototype, base: Attempt): { attempt: Attempt; change: string }[] {
-  const out: { attempt: Attempt; change: string }[] = [];
-  for (const position of [0.3, 0.7]) {
-    const a = retuneToMask(spec, buildAttempt(spec, placed, { position, wide: true }));
-    if (meetsSpec(spec, a)) out.push({ attempt: a, change: `placed at ${Math.round(position * 100)} % of the slack interval` });
+/** The first-order model of each attempt screened (null: the model could not be formed). */
+const models = new WeakMap<Attempt, LinearModel | null>();
+
+/** Boards of the linear model's screening run. */
+const SCREEN_SAMPLES = 2000;
+
+/**
+ * The yield the first-order model predicts for an attempt (src/evaluate/spread.ts),
+ * with the constraint that binds: a cheap screen, confirmed by boards only
+ * for the candidate kept. A stage the model cannot linearise is screened by
+ * one block of boards instead.
+ */
+export function screenYield(spec: DesignSpec, a: Attempt, tolerances: PartTolerances): { fraction: number; short: "passband" | "stopband" | "gain" | null } {
+  const plan = maskPlan(spec);
+  let model = models.get(a);
+  if (model === undefined) {
+    try {
+      model = linearModel(boardStagesOf(spec, a, tolerances), plan);
+    } catch {
+      model = null;
+    }
+    models.set(a, model);
   }
-  for (const level of stricterLevels(spec, base.proto)) {
+  if (model === null) return { fraction: attemptYield(spec, a, tolerances, SCREEN_BOARDS).fraction, short: null };
+  const flat = new Float64Array(model.parts.length);
+  let k = 0;
+  for (const t of tolerances) for (const x of t) flat[k++] = x;
+  const y = predictYield(model, plan, flat, spec.partDistribution, { samples: SCREEN_SAMPLES, seed: spec.yieldSeed });
+  let short: "passband" | "stopband" | "gain" | null = null;
+  let beta = Infinity;
+  for (const c of y.constraints) {
+    if (c.beta < beta) {
+      beta = c.beta;
+      short = c.constraint;
+    }
+  }
+  return { fraction: y.fraction, short };
+}
+
+/** Centring candidates: placements towards the side the binding constraint needs, and prototypes with margin held back, each meeting the mask nominally. */
+function centringCandidates(spec: DesignSpec, base: Attempt, short: "passband" | "stopband" | "gain" | null): { attempt: Attempt; change: string }[] {
+  const out: { attempt: Attempt; change: string }[] = [];
+  const placed: PlacedPrototype = { proto: base.proto, interval: base.interval };
+  const build = (p: PlacedPrototype, position: number): Attempt | null => {
+    const a = buildAttempt(spec, p, { position, wide: false });
+    return meetsSpec(spec, a) ? a : null;
+  };
+  // moving up the interval helps the passband when upHelpsPassband
+  const towardsPass = upHelpsPassband(spec) ? [0.7, 0.9] : [0.3, 0.1];
+  const towardsStop = upHelpsPassband(spec) ? [0.3] : [0.7];
+  const positions = short === "stopband" ? towardsStop : short === "passband" ? towardsPass : [0.35, 0.65];
+  for (const position of positions) {
+    const a = build(placed, position);
+    if (a !== null) out.push({ attempt: a, change: `placed at ${Math.round(position * 100)} % of the slack interval` });
+  }
+  const levels = stricterLevels(spec, base.proto);
+  levels.forEach((level, k) => {
     const proto = designPrototype(spec, base.proto.family, base.proto.order, level);
     const interval = prototypeInterval(spec, proto.zpk);
-    if (!(intervalWidth(interval) > 0)) continue;
-    const a = retuneToMask(spec, buildAttempt(spec, { proto, interval }, { position: 0.5, wide: true }));
-    if (!meetsSpec(spec, a)) continue;
+    if (!(intervalWidth(interval) > 0)) return;
     const held = [
       proto.rippleDb === undefined ? "" : `ripple ${significant(proto.rippleDb, 3)} dB of ${significant(spec.maxLossDb, 3)}`,
       proto.attenuationDb === undefined ? "" : `attenuation ${significant(proto.attenuationDb, 4)} dB for ${significant(spec.minAttenuationDb, 4)}`,
     ].filter((x) => x !== "");
-    out.push({ attempt: a, change: `held margin back (${held.join(", ")})` });
-  }
+    // the most held-back prototype is also tried moved towards the binding band
+    const at = k === levels.length - 1 && short !== null ? [0.5, (short === "passband" ? towardsPass : towardsStop)[0] as number] : [0.5];
+    for (const position of at) {
+      const a = build({ proto, interval }, position);
+      if (a === null) continue;
+      const where = position === 0.5 ? "" : `, placed at ${Math.round(position * 100)} % of its slack`;
+      out.push({ attempt: a, change: `held margin back (${held.join(", ")}${where})` });
+    }
+  });
   return out;
 }
 
 /** The op-amps of an attempt. */
 export function opampCount(a: Attempt): number {
   return a.plans.reduce((k, p) => k + p.topology.opampCount, 0);
+}
+
+/** A predicted yield that is worth confirming with boards: within a third of the allowed failures of the target. */
+function worthConfirming(spec: DesignSpec, predicted: number): boolean {
+  return predicted >= 1 - (1 - spec.yieldTarget) * 1.3;
 }
 
 /**
@@ -231,33 +298,46 @@ export function designForYield(spec: DesignSpec, family: FamilyName, orders: Ord
       const outcome = designAtOrder(spec, family, order, { placement: false, actions: [] });
       if (!outcome.met) continue;
       base = outcome.attempt;
-      const raised = confirm(base, defaults, `order ${order}`);
-      actions.push({ code: "raised-order", message: `Raised the order to ${order} for the yield target: ${yieldText(raised.estimate)} at ${classText(defaults)}.` });
-      best = better(best, raised);
-      if (raised.estimate.met) return { chosen: raised, candidates, actions };
     }
-    // centring: screen the candidates with one block of boards, confirm the best
-    const placed: PlacedPrototype = { proto: base.proto, interval: base.interval };
-    let centred: { attempt: Attempt; change: string; fraction: number } | null = null;
-    const baseScreen = order === startOrder ? first.estimate.fraction : (candidates[candidates.length - 1] as YieldCandidate).estimate.fraction;
-    for (const c of centringCandidates(spec, placed, base)) {
-      const f = attemptYield(spec, c.attempt, classTolerances(c.attempt, defaults), SCREEN_BOARDS).fraction;
-      if (f > (centred?.fraction ?? baseScreen)) centred = { ...c, fraction: f };
-    }
-    let current = base;
-    if (centred !== null) {
-      const c = confirm(centred.attempt, defaults, `${centred.change}, order ${order}`);
-      actions.push({ code: "centred-for-yield", message: `Centred the design for yield (${centred.change}): ${yieldText(c.estimate)} at ${classText(defaults)}.` });
-      best = better(best, c);
-      if (c.estimate.met) return { chosen: c, candidates, actions };
-      current = centred.attempt;
-    }
-    for (const classes of ladder.slice(1)) {
-      const c = confirm(current, classes, `${classText(classes)}, order ${order}`);
-      best = better(best, c);
-      if (c.estimate.met) {
-        actions.push({ code: "tightened-tolerances", message: `Tightened the part tolerances to ${classText(classes)} (the spec leaves them free): ${yieldText(c.estimate)}.` });
-        return { chosen: c, candidates, actions };
+    const baseScreen = screenYield(spec, base, classTolerances(base, defaults));
+    const designs: { attempt: Attempt; change: string }[] = [{ attempt: base, change: order === startOrder ? "the nominal design" : `order ${order}` }];
+    // first the design as it is at each class, then (only when none will do) the centring candidates at each class
+    let bestPredicted = 0;
+    for (const phase of [0, 1]) {
+      if (phase === 1) {
+        // centring is worth its cost only where the tightest classes come within reach of the target
+        if (bestPredicted < spec.yieldTarget / 2) break;
+        designs.push(...centringCandidates(spec, base, baseScreen.short));
+      }
+      for (const classes of ladder) {
+        let pick: { attempt: Attempt; change: string; fraction: number } | null = null;
+        for (const d of phase === 0 ? designs : designs.slice(1)) {
+          const f = d.attempt === base && classes === defaults ? baseScreen.fraction : screenYield(spec, d.attempt, classTolerances(d.attempt, classes)).fraction;
+          if (pick === null || f > pick.fraction) pick = { ...d, fraction: f };
+        }
+        if (pick === null) continue;
+        bestPredicted = Math.max(bestPredicted, pick.fraction);
+        if (!worthConfirming(spec, pick.fraction)) continue;
+        if (pick.attempt === nominal.attempt && classes === defaults) continue; // confirmed already
+        const change = classes === defaults ? pick.change : `${pick.change}, ${classText(classes)}`;
+        const c = confirm(pick.attempt, classes, pick.attempt === base || order === startOrder ? change : `${change}, order ${order}`);
+        best = better(best, c);
+        if (!c.estimate.met) continue;
+        const chosen = classes === defaults ? c : (allocatePerPart(spec, c) ?? c);
+        if (order !== startOrder) actions.push({ code: "raised-order", message: `Raised the order to ${order} for the yield target.` });
+        if (pick.attempt !== base) {
+          actions.push({
+            code: "centred-for-yield",
+            message: `Centred the design for yield: ${pick.change} (the first-order tolerance model put the ${baseScreen.short ?? "binding"} constraint closest to failing).`,
+          });
+        }
+        if (classes !== defaults) actions.push({ code: "tightened-tolerances", message: `Tightened the part tolerances to ${classText(classes)} for the yield target (the spec leaves them free).` });
+        if (chosen !== c) {
+          candidates.push(chosen);
+          actions.push({ code: "tightened-tolerances", message: `Allocated the tolerances part by part (${chosen.change}): only the parts the response is sensitive to keep the tighter classes.` });
+        }
+        actions.push({ code: "confirmed-yield", message: `The boards reach the yield target: ${yieldText(chosen.estimate)}.` });
+        return { chosen, candidates, actions };
       }
     }
   }
@@ -266,4 +346,98 @@ export function designForYield(spec: DesignSpec, family: FamilyName, orders: Ord
     message: `No candidate reached the yield target of ${significant(spec.yieldTarget * 100, 3)} %; kept the one with the best interval (${best.change}: ${yieldText(best.estimate)} at ${classText(best.classes)}).`,
   });
   return { chosen: best, candidates, actions };
+}
+
+/** Relative cost of a tolerance under a class table (the class with that tolerance, or the nearest tighter one). */
+function classCost(table: readonly ToleranceClass[], t: number): number {
+  const c = table.filter((x) => x.tolerance <= t + 1e-12).sort((a, b) => b.tolerance - a.tolerance)[0];
+  return (c ?? (table[table.length - 1] as ToleranceClass)).cost;
+}
+
+/**
+ * Per-part tolerance allocation from a class-wide candidate that meets the
+ * target (src/evaluate/allocate.ts, after B. J. Karafin, "The optimum
+ * assignment of component tolerances for electrical networks", Bell Syst.
+ * Tech. J. 50(4):1225-1242, 1971): each part may take any class from the
+ * default down to the candidate's (only the default when the spec fixes
+ * it); the allocation is kept when it is cheaper under the default cost
+ * table and its boards, confirmed like any candidate, still meet the target.
+ *
+ * @returns the allocated candidate, or null when it does not pay or does not hold
+ */
+function allocatePerPart(spec: DesignSpec, c: YieldCandidate): YieldCandidate | null {
+  const model = models.get(c.attempt);
+  if (model === undefined || model === null) return null;
+  const allowed = (table: readonly ToleranceClass[], loosest: number, tightest: number): ToleranceClass[] =>
+    table.filter((x) => x.tolerance <= loosest + 1e-12 && x.tolerance >= tightest - 1e-12);
+  const classes = model.parts.map((p) =>
+    p.kind === "capacitor"
+      ? allowed(CAPACITOR_CLASSES, spec.capacitorTolerance, c.classes.capacitor)
+      : allowed(RESISTOR_CLASSES, spec.resistorTolerance, c.classes.resistor),
+  );
+  if (classes.some((x) => x.length === 0)) return null;
+  const plan = maskPlan(spec);
+  let allocation;
+  try {
+    allocation = allocateTolerances(model, plan, { target: spec.yieldTarget, distribution: spec.partDistribution, classes, seed: spec.yieldSeed });
+  } catch {
+    return null;
+  }
+  if (!allocation.met) return null;
+  const wide = model.parts.reduce((k, p) => k + (p.kind === "capacitor" ? classCost(CAPACITOR_CLASSES, c.classes.capacitor) : classCost(RESISTOR_CLASSES, c.classes.resistor)), 0);
+  if (!(allocation.cost < wide - 1e-9)) return null;
+  let k = 0;
+  const tolerances = c.tolerances.map((t) => Float64Array.from(t, () => allocation.tolerance[k++] as number));
+  const estimate = attemptYield(spec, c.attempt, tolerances);
+  if (!estimate.met) return null;
+  const tightened = [...allocation.tolerance].filter((t, j) => t < (model.parts[j]?.kind === "capacitor" ? spec.capacitorTolerance : spec.resistorTolerance) - 1e-12).length;
+  const change = `${c.change}, per part: ${tightened} of ${model.parts.length} parts tightened, cost ${significant(allocation.cost, 3)} against ${significant(wide, 3)}`;
+  return { attempt: c.attempt, tolerances, classes: c.classes, estimate, change };
+}
+
+/** Most other families tried when the chosen one cannot reach the yield target. */
+const OTHER_FAMILIES = 2;
+
+/**
+ * Design for yield in the family the automatic choice made and, when its
+ * boards cannot reach the target and the spec leaves the family to the
+ * pipeline, in the next candidates of that choice (fewest op-amps first):
+ * a family with lower pole Q often tolerates its parts better than one
+ * more order of the first (common practice, no source).
+ *
+ * @param spec - canonical spec
+ * @param first - the family chosen, its order range and its nominal search
+ * @param choice - the family choice (its candidates)
+ * @returns the outcome kept, with every candidate of every family tried
+ */
+export function designForYieldAcrossFamilies(
+  spec: DesignSpec,
+  first: { readonly family: FamilyName; readonly orders: OrderRange; readonly nominal: SearchOutcome },
+  choice: FamilyChoice,
+): YieldOutcome & { readonly family: FamilyName } {
+  const outcome = designForYield(spec, first.family, first.orders, first.nominal);
+  if (outcome.chosen.estimate.met || !choice.automatic) return { ...outcome, family: first.family };
+  const others = choice.candidates
+    .filter((c) => c.family !== first.family && c.order !== null)
+    .sort((a, b) => (a.opamps ?? Infinity) - (b.opamps ?? Infinity) || (a.stages ?? Infinity) - (b.stages ?? Infinity))
+    .slice(0, OTHER_FAMILIES);
+  const candidates = [...outcome.candidates];
+  let kept: YieldOutcome & { readonly family: FamilyName } = { ...outcome, family: first.family };
+  for (const c of others) {
+    const orders = orderRange(spec, c.order);
+    const nominal = searchDesign(spec, c.family, orders);
+    if (!meetsSpec(spec, nominal.attempt)) continue;
+    const o = designForYield(spec, c.family, orders, nominal);
+    candidates.push(...o.candidates);
+    const better = o.chosen.estimate.lower95 > kept.chosen.estimate.lower95;
+    if (o.chosen.estimate.met || better) {
+      const action: DesignAction = {
+        code: "changed-family-for-yield",
+        message: `${first.family} boards could not reach the yield target (best ${yieldText(outcome.chosen.estimate)}); ${c.family} ${o.chosen.estimate.met ? "does" : "comes closer"}: ${yieldText(o.chosen.estimate)} at ${classText(o.chosen.classes)}.`,
+      };
+      kept = { chosen: o.chosen, candidates, actions: [...nominal.actions, ...o.actions, action], family: c.family };
+      if (o.chosen.estimate.met) break;
+    }
+  }
+  return { ...kept, candidates };
 }

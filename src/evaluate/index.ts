@@ -14,3 +14,5 @@ export * from "./boards.ts";
 export * from "./stability.ts";
 export * from "./yield.ts";
 export * from "./spread.ts";
+export * from "./allocate.ts";
+export * from "./sensitivity.ts";

@@ -18,8 +18,9 @@
  * every block makes the stopping decision slightly less conservative than a
  * single look (an error rate up to a few percent above the nominal 2.5 %
  * per side for a yield right at the target; Wald's sequential analysis would
- * be the exact treatment), which is why the minimum run is two blocks and
- * the design loop aims above the target before it confirms.
+ * be the exact treatment), which is why the design loop confirms only
+ * candidates its first-order model predicts above the target, and the
+ * result reports the interval, not only the verdict.
  *
  * @module
  */

@@ -15,7 +15,7 @@ import type { DesignResult } from "../design/index.ts";
 import { checkDesignResult, deepFreeze, registerDesignResult, requireDesignResult } from "../design/check.ts";
 
 /** The format version written by {@link toJson} and accepted by {@link fromJson}. */
-export const DESIGN_FORMAT_VERSION = 1;
+export const DESIGN_FORMAT_VERSION = 2;
 
 /**
  * Serialise a design result to versioned JSON text.
@@ -26,7 +26,7 @@ export const DESIGN_FORMAT_VERSION = 1;
  * @example
  * ```ts
  * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
- * JSON.parse(toJson(designFilter(spec))).formatVersion; //=> 1
+ * JSON.parse(toJson(designFilter(spec))).formatVersion; //=> 2
  * ```
  */
 export function toJson(result: DesignResult): string {

@@ -70,7 +70,7 @@ export function toMarkdown(result: DesignResult): string {
   const title = s.response[0]?.toUpperCase() + s.response.slice(1);
   L.push(`# ${title} filter: ${result.family}, ${result.filterOrder} poles`, "");
   L.push(
-    `**${v.meetsSpec ? "Meets the spec" : "Does NOT meet the spec"}**: the design ${verdictLine(result)}. ${result.stages.length} stage${result.stages.length === 1 ? "" : "s"}, ${result.stages.reduce((k, st) => k + st.opamps.length, 0)} op-amp(s).`,
+    `**${v.boardsMeetSpec ? "Meets the spec" : "Does NOT meet the spec"}**: the design ${verdictLine(result)}. ${result.stages.length} stage${result.stages.length === 1 ? "" : "s"}, ${result.stages.reduce((k, st) => k + st.opamps.length, 0)} op-amp(s).`,
     "",
   );
   L.push("## Specification", "");

@@ -28,7 +28,7 @@ function tolerances(xs: readonly number[]): string {
 export function verdictLine(r: DesignResult): string {
   const v = r.verification;
   const y = v.yield;
-  const nominal = v.nominalMeetsSpec
+  const nominal = v.meetsSpec
     ? `meets the mask nominally, margin ${v.marginDb.toFixed(3)} dB`
     : v.stable
       ? `misses the mask nominally, margin ${v.marginDb.toFixed(3)} dB`

@@ -75,7 +75,8 @@ describe("monteCarlo", () => {
     const a = monteCarlo(design, { runs: 40, seed: 7, capacitorTolerance: 0.05 });
     const b = monteCarlo(design, { runs: 40, seed: 7, capacitorTolerance: 0.05 });
     expect(a).toEqual(b);
-    expect(a.tolerances).toEqual({ resistor: 0.01, capacitor: 0.05 });
+    // resistors default to each one's own tolerance in the design (the loosest is reported)
+    expect(a.tolerances).toEqual({ resistor: Math.max(...design.verification.yield.resistorTolerances), capacitor: 0.05 });
     expect(a.marginDb.min).toBeLessThan(a.marginDb.max);
     expect(a.yield).toBeGreaterThanOrEqual(0);
     expect(a.yield).toBeLessThanOrEqual(1);

@@ -20,13 +20,16 @@ function issuesOf(spec: unknown): { path: string; message: string }[] {
 }
 
 describe("validateSpec part tolerances", () => {
-  it("defaults to the series' usual tolerance and takes an explicit fraction", () => {
+  it("defaults to 5 % C0G/film capacitors and the resistor series' usual tolerance, and takes an explicit fraction", () => {
     const d = validateSpec(base);
-    expect(d.capacitorTolerance).toBe(0.1);
+    expect(d.capacitorTolerance).toBe(0.05);
     expect(d.resistorTolerance).toBe(0.01);
+    expect([d.capacitorToleranceFixed, d.resistorToleranceFixed]).toEqual([false, false]);
+    expect(validateSpec(specToInput(d))).toEqual(d);
     const s = validateSpec({ ...base, parts: { capacitorSeries: "E24", capacitorTolerance: 0.02, resistorTolerance: 0.001 } });
     expect(s.capacitorTolerance).toBe(0.02);
     expect(s.resistorTolerance).toBe(0.001);
+    expect([s.capacitorToleranceFixed, s.resistorToleranceFixed]).toEqual([true, true]);
     expect(validateSpec(specToInput(s))).toEqual(s);
   });
 

@@ -30,7 +30,7 @@ describe("toBomCsv", () => {
   it("groups identical parts with their designators and quantity", () => {
     const csv = toBomCsv(result);
     const rows = csv.trimEnd().split("\r\n");
-    expect(rows[0]).toBe("designators,part,value,rkm,series,tolerance,quantity");
+    expect(rows[0]).toBe("designators,part,value,rkm,series,tolerance,dielectric,quantity");
     const lines = bomLines(result);
     const passive = lines.filter((l) => l.part !== "op-amp");
     const count = result.stages.reduce((k, s) => k + Object.keys(s.components).length, 0);
@@ -40,9 +40,13 @@ describe("toBomCsv", () => {
       // Both written forms read back to the value.
       expect(parseValue(l.rkm)).toBeCloseTo(l.value, 20);
       expect(Math.abs(parseValue(l.valueText) / l.value - 1)).toBeLessThan(5e-3);
-      expect(l.tolerance).toBe(l.part === "resistor" ? "1%" : "10%");
+      // each part's own tolerance, as the design allocated it
+      for (const d of l.designators) {
+        const own = result.stages.find((st) => d in st.components)!.tolerances[d]!;
+        expect(l.tolerance).toBe(`${Number((own * 100).toPrecision(3))}%`);
+      }
     }
-    const values = passive.map((l) => `${l.part}${l.value}`);
+    const values = passive.map((l) => `${l.part}${l.value}${l.tolerance}`);
     expect(new Set(values).size).toBe(values.length);
     const op = lines.find((l) => l.part === "op-amp");
     expect(op?.quantity).toBe(result.stages.reduce((k, s) => k + s.opamps.length, 0));
@@ -54,7 +58,7 @@ describe("toJson / fromJson", () => {
   it("round-trips a design", () => {
     const back = fromJson(toJson(result));
     expect(back).toEqual(result);
-    expect(JSON.parse(toJson(result)).formatVersion).toBe(1);
+    expect(JSON.parse(toJson(result)).formatVersion).toBe(2); // 2: the yield, stability and per-part tolerances
   });
 
   it("round-trips designs with every optional spec field", () => {

@@ -1,0 +1,11 @@
+import { it, expect } from "vitest";
+import { runStabilityCorpus } from "./stability.ts";
+
+const n = Number(process.env["CORPUS_SIZE"] ?? 1000);
+
+it(`corpus B (${n} specs, seed 20261203): no design meets the spec with an unstable stage`, () => {
+  const t = runStabilityCorpus(20261203, n);
+  console.log("stability corpus B", JSON.stringify(t));
+  expect(t.designs + t.skipped).toBe(n);
+  expect(t.designs).toBeGreaterThan(0.9 * n);
+});

@@ -1,0 +1,79 @@
+// The stability corpus (issue: no design meets the spec while a stage is
+// unstable with its op-amp). Seeded random valid specs from
+// scripts/spec-corpus.mjs, a third of them given slow op-amps (GBW only 3 to
+// 30 times the highest spec edge, open-loop gain down to 5000), designed by
+// the nominal pipeline; every stage of every design is checked independently
+// of the pipeline's own Routh test: the roots of its characteristic
+// polynomial from the generic nodal path (the stamp program, not the
+// closed form), by the polynomial root finder.
+import { expect } from "vitest";
+import { validateSpec } from "../src/design/spec.ts";
+import { chooseFamily } from "../src/design/family.ts";
+import { orderRange, searchDesign } from "../src/design/recovery.ts";
+import { meetsSpec } from "../src/design/attempt.ts";
+import { maskPlan, spanRadS } from "../src/design/verify.ts";
+import { stagePolynomials } from "../src/evaluate/stage-polynomials.ts";
+import { polyRoots } from "../src/math/roots.ts";
+import { mulberry32 } from "../src/math/random.ts";
+import { SpecError, UnrealisableError } from "../src/errors.ts";
+// @ts-expect-error plain JavaScript module without types
+import { randomSpecs } from "../scripts/spec-corpus.mjs";
+
+interface Tally {
+  designs: number;
+  met: number;
+  unstableStages: number;
+  unstableFlagged: number;
+  skipped: number;
+}
+
+/** Design `n` specs of the corpus from `seed` and check the stability invariant on each. */
+export function runStabilityCorpus(seed: number, n: number): Tally {
+  const rnd = mulberry32(seed ^ 0x5bd1e995);
+  const tally: Tally = { designs: 0, met: 0, unstableStages: 0, unstableFlagged: 0, skipped: 0 };
+  for (const { id, spec } of randomSpecs(seed, n) as { id: string; spec: Record<string, unknown> }[]) {
+    if (rnd() < 1 / 3) {
+      const edges = [spec["passband"], spec["stopband"]].flatMap((b) => [(b as { edgeHz: number | number[] }).edgeHz].flat());
+      const top = Math.max(...edges);
+      spec["opamp"] = { a0: Math.round(5000 * 40 ** rnd()), gbwHz: Number((top * 3 * 10 ** rnd()).toPrecision(3)) };
+    }
+    let canonical;
+    let attempt;
+    try {
+      canonical = validateSpec(spec);
+      const { family, order } = chooseFamily(canonical);
+      attempt = searchDesign(canonical, family, orderRange(canonical, order)).attempt;
+    } catch (e) {
+      if (e instanceof UnrealisableError || e instanceof SpecError) {
+        tally.skipped++;
+        continue;
+      }
+      throw e;
+    }
+    tally.designs++;
+    const span = spanRadS(maskPlan(canonical).bands);
+    const unstable: number[] = [];
+    attempt.plans.forEach((p, i) => {
+      const values = attempt.chosen[i]!.values;
+      const poly = stagePolynomials(p.topology, values, canonical.opamp, { spanRadS: span, closedForm: false });
+      if (poly === null) {
+        unstable.push(i + 1);
+        return;
+      }
+      const den = [...poly.den];
+      while (den.length > 1 && den[0] === 0) den.shift();
+      const roots = den.length > 1 ? polyRoots(den) : [];
+      // a root within 1e-9 of the scale from the axis is too close to call by either method
+      if (roots.some((r) => r.re > 1e-9 * Math.hypot(r.re, r.im, 1))) unstable.push(i + 1);
+    });
+    tally.unstableStages += unstable.length;
+    if (unstable.length > 0) {
+      tally.unstableFlagged++;
+      expect(attempt.mask.unstableStages, `${id}: the pipeline's stability verdict`).toEqual(unstable);
+    }
+    const met = meetsSpec(canonical, attempt);
+    if (met) tally.met++;
+    expect(met && unstable.length > 0, `${id}: meets the spec with unstable stage(s) ${unstable.join(", ")}`).toBe(false);
+  }
+  return tally;
+}
