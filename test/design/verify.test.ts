@@ -76,7 +76,8 @@ describe("gridMarginDb", () => {
       const h = cascadeResponse(builtStages(r), grid.freqHz, r.spec.opamp);
       const mag = grid.freqHz.map((_, i) => Math.hypot(h.re[i]!, h.im[i]!));
       const g = gridMarginDb(r.spec, grid, mag);
-      expect(g).toBeGreaterThanOrEqual(r.verification.marginDb - 1e-9);
+      // the grid here is the closed form's, the verification the polynomials' (agreeing to about 1e-7 dB at high Q)
+      expect(g).toBeGreaterThanOrEqual(r.verification.marginDb - 1e-6);
       expect(g - r.verification.marginDb).toBeLessThan(0.05);
     }
   });
