@@ -11,3 +11,5 @@ export * from "./stage-polynomials.ts";
 export * from "./cascade.ts";
 export * from "./mask.ts";
 export * from "./boards.ts";
+export * from "./opamp-outputs.ts";
+export * from "./peak-gain.ts";
