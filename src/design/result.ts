@@ -18,10 +18,11 @@ import { CAPACITOR_SPREAD_SOFT_LIMIT, capacitorSpreadOf, type StagePlan } from "
 import type { TunedStage, ValueSet } from "./components.ts";
 import { stageErrors } from "./stage-cost.ts";
 import type { PredistortionOutcome } from "./predistort.ts";
-import { checkMask, partialPeaks, responseCurve, type BuiltStage } from "./verify.ts";
+import { checkMask, responseCurve, type BuiltStage } from "./verify.ts";
+import { clipWarning, headroomOf, opampPeaksOf, stagePeakGains, type StagePeakGains } from "./headroom.ts";
 import { boardStages, polarityMet, type Attempt } from "./attempt.ts";
 import { significant } from "./text.ts";
-import type { DesignAction, DesignResult, DesignStage, DesignWarning, FamilyChoice, Placement, Verification } from "./types.ts";
+import type { DesignAction, DesignResult, DesignStage, DesignWarning, FamilyChoice, Headroom, Placement, Verification } from "./types.ts";
 
 const IDEAL: OpAmpModel = { kind: "ideal" };
 /** Capacitor ratio above which a warning is given: the same decade of spread that topology choice avoids (common practice, no source). */
@@ -145,7 +146,7 @@ interface StageInputs {
   readonly set: ValueSet;
   readonly tuned: TunedStage;
   readonly names: StageDesignators;
-  readonly peak: { readonly gain: number; readonly hz: number };
+  readonly peaks: StagePeakGains;
   readonly pd: PredistortionOutcome | null;
 }
 
@@ -171,9 +172,10 @@ function stageRecord(spec: DesignSpec, x: StageInputs): { stage: DesignStage; wa
     plainSnapErrors: tuned.plain.withOpamp === undefined ? tuned.plain.errors : stageErrors(tuned.plain.figures, plan.target),
     ...(pole === undefined ? {} : { asBuiltWithOpamp: { f0Hz: pole.f0Hz, ...(pole.q === undefined ? {} : { q: pole.q }) } }),
     ...(pd?.ok === true ? { predistortion: { f0Factor: pd.f0Factor, qFactor: pd.qFactor, gainFactor: pd.gainFactor } } : {}),
-    peakGain: x.peak.gain,
-    peakHz: x.peak.hz,
+    peakGain: x.peaks.output.gain,
+    peakHz: x.peaks.output.hz,
     gbwDemandHz: gbw,
+    opampPeaks: opampPeaksOf(x.peaks, names.opamps),
   };
   return { stage, warnings };
 }
@@ -192,8 +194,8 @@ function predistortionAction(spec: DesignSpec, stages: readonly DesignStage[]): 
   };
 }
 
-/** Warnings about the whole cascade: an internal node peaking above the output, the polarity, a missed mask. */
-function cascadeWarnings(spec: DesignSpec, a: Attempt, peaks: readonly { gain: number; hz: number }[]): DesignWarning[] {
+/** Warnings about the whole cascade: an internal node peaking above the output, the polarity, clipping, a missed spec. */
+function cascadeWarnings(spec: DesignSpec, a: Attempt, peaks: readonly { gain: number; hz: number }[], headroom: Headroom | undefined): DesignWarning[] {
   const warnings: DesignWarning[] = [];
   const outPeak = (peaks[peaks.length - 1] as { gain: number }).gain;
   peaks.slice(0, -1).forEach((p, i) => {
@@ -212,12 +214,16 @@ function cascadeWarnings(spec: DesignSpec, a: Attempt, peaks: readonly { gain: n
       message: `the requested ${spec.polarity} polarity could not be met with the allowed topologies; the filter is ${a.mask.polarity}.`,
     });
   }
+  const clip = clipWarning(headroom);
+  if (clip !== null) warnings.push(clip);
   const m = a.mask;
   if (!(m.marginDb >= 0 && polarityOk)) {
     warnings.push({
       code: "spec-not-met",
       message: `the as-built filter misses the mask: passband margin ${significant(m.passbandMarginDb, 3)} dB, stopband margin ${significant(m.stopbandMarginDb, 3)} dB, gain margin ${significant(m.gainMarginDb, 3)} dB${spec.order !== null ? "; the spec fixes the order, so the pipeline did not raise it" : ""}.`,
     });
+  } else if (clip !== null) {
+    warnings.push({ code: "spec-not-met", message: "the as-built filter meets the mask, but an op-amp output clips at the spec's signal levels (see the clipping warning), so it does not meet the spec." });
   }
   return warnings;
 }
@@ -238,13 +244,13 @@ function placementOf(a: Attempt): Placement {
 }
 
 /** The as-built verification, with the exact design's ideal margin beside it. */
-function verificationOf(spec: DesignSpec, a: Attempt, boards: readonly BuiltStage[]): Verification {
+function verificationOf(spec: DesignSpec, a: Attempt, boards: readonly BuiltStage[], headroom: Headroom | undefined): Verification {
   const exactBoards = a.exactPlans.map((p) => ({ topology: p.topology, values: p.topology.design(p.target, {}) }));
   const ideal = checkMask(spec, exactBoards, IDEAL);
   const m = a.mask;
   const polarityOk = polarityMet(spec, a);
   return {
-    meetsSpec: m.marginDb >= 0 && polarityOk,
+    meetsSpec: m.marginDb >= 0 && polarityOk && headroom?.clips !== true,
     opamp: spec.opamp,
     passbandLossDb: m.passbandLossDb,
     passbandWorstHz: m.passbandWorstHz,
@@ -261,6 +267,7 @@ function verificationOf(spec: DesignSpec, a: Attempt, boards: readonly BuiltStag
     marginDb: m.marginDb,
     idealMarginDb: ideal.marginDb,
     curve: responseCurve(spec, boards, spec.opamp, CURVE_POINTS),
+    ...(headroom === undefined ? {} : { headroom }),
   };
 }
 
@@ -287,7 +294,7 @@ export interface DesignDecisions {
 export function assembleResult(spec: DesignSpec, decisions: DesignDecisions, a: Attempt): DesignResult {
   const names = designators(a.plans, a.chosen);
   const boards = boardStages(a.plans, a.chosen);
-  const peaks = partialPeaks(boards, a.gridHz, spec.opamp);
+  const found = stagePeakGains(spec, boards, spec.opamp, a.gridHz);
   const records = a.plans.map((plan, i) =>
     stageRecord(spec, {
       index: i + 1,
@@ -295,11 +302,12 @@ export function assembleResult(spec: DesignSpec, decisions: DesignDecisions, a: 
       set: a.chosen[i] as ValueSet,
       tuned: a.tuned[i] as TunedStage,
       names: names[i] as StageDesignators,
-      peak: peaks[i] as { gain: number; hz: number },
+      peaks: found[i] as StagePeakGains,
       pd: a.predistortion[i] ?? null,
     }),
   );
   const stages = records.map((r) => r.stage);
+  const headroom = headroomOf(spec, stages);
   const predistorted = predistortionAction(spec, stages);
   const order = a.proto.order;
   return registerDesignResult(deepFreeze({
@@ -311,8 +319,8 @@ export function assembleResult(spec: DesignSpec, decisions: DesignDecisions, a: 
     minimumOrder: decisions.minimumOrder,
     placement: placementOf(a),
     stages,
-    verification: verificationOf(spec, a, boards),
-    warnings: [...records.flatMap((r) => r.warnings), ...cascadeWarnings(spec, a, peaks)],
+    verification: verificationOf(spec, a, boards, headroom),
+    warnings: [...records.flatMap((r) => r.warnings), ...cascadeWarnings(spec, a, found.map((p) => p.output), headroom)],
     actions: predistorted === null ? [...decisions.actions] : [...decisions.actions, predistorted],
   }));
 }

@@ -14,6 +14,7 @@
 import { InvalidArgumentError, SpecError, type Issue } from "../errors.ts";
 import type { DesignSpec, EdgeInput, FilterSpec, GainSpec, ResponseType } from "./spec-types.ts";
 import { isObject, readBands, readFamily, readGain, readOpamp, readParts, readTopology, Reader } from "./spec-readers.ts";
+import { readLevels } from "./spec-levels.ts";
 
 export type {
   ResponseType,
@@ -29,6 +30,8 @@ export type {
   FilterSpec,
   ValueWindow,
   DesignSpec,
+  LevelsSpec,
+  SignalLevels,
 } from "./spec-types.ts";
 export { MAX_SPEC_ORDER } from "./spec-readers.ts";
 
@@ -43,6 +46,7 @@ const TOP_KEYS = [
   "topology",
   "parts",
   "opamp",
+  "levels",
 ] as const;
 
 /** Read a whole spec: every issue, and the canonical spec when there is none. */
@@ -56,6 +60,7 @@ function readSpec(spec: unknown): { readonly issues: readonly Issue[]; readonly 
   const topology = readTopology(r, spec["topology"]);
   const parts = readParts(r, spec["parts"]);
   const opamp = readOpamp(r, spec["opamp"]);
+  const levels = readLevels(r, spec["levels"]);
   if (r.issues.length > 0) return { issues: r.issues, spec: null };
   return {
     issues: [],
@@ -72,6 +77,7 @@ function readSpec(spec: unknown): { readonly issues: readonly Issue[]; readonly 
       stageTopologies: Object.freeze(topology.stageTopologies),
       ...parts,
       opamp: Object.freeze({ ...opamp }),
+      levels,
     })),
   };
 }
@@ -204,6 +210,10 @@ export function requireDesignSpec(fn: string, value: unknown, path = "spec"): De
   if (!isObject(oa) || (oa["kind"] !== "ideal" && (typeof oa["a0"] !== "number" || typeof oa["gbwHz"] !== "number"))) {
     fail("opamp", 'expected { kind: "ideal" } or a single-pole model { kind, a0, gbwHz }', oa);
   }
+  const lv = v["levels"];
+  if (lv !== undefined && lv !== null && (!isObject(lv) || [lv["inputPeakV"], lv["outputSwingV"]].some((x) => typeof x !== "number" || !(x > 0) || !Number.isFinite(x)))) {
+    fail("levels", "expected null or { inputPeakV, outputSwingV }, each a finite number of volts greater than zero", lv);
+  }
   return value as unknown as DesignSpec;
 }
 
@@ -255,5 +265,6 @@ export function specToInput(spec: DesignSpec): FilterSpec {
       capacitorMaxF: spec.capacitorRange.max,
     },
     opamp,
+    ...(spec.levels === null || spec.levels === undefined ? {} : { levels: { inputPeakV: spec.levels.inputPeakV, outputSwingV: spec.levels.outputSwingV } }),
   };
 }
