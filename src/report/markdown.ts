@@ -10,6 +10,7 @@ import type { DesignResult } from "../design/index.ts";
 import { bomLines } from "./bom.ts";
 import { opampRequirements } from "../analysis/index.ts";
 import { requireDesignResult } from "../design/check.ts";
+import { headroomLines } from "./headroom.ts";
 
 const f3 = (x: number): string => formatValue(x, { digits: 4, unit: "Hz" });
 const n4 = (x: number): string => Number(x.toPrecision(4)).toString();
@@ -58,7 +59,9 @@ export function toMarkdown(result: DesignResult): string {
   L.push(`| gain | ${n4(20 * Math.log10(s.gain))} dB (${n4(s.gain)} V/V), polarity ${s.polarity}, tolerance ${s.gainToleranceDb} dB |`);
   const pct = (x: number): string => `${Number((x * 100).toPrecision(3))} %`;
   L.push(`| parts | capacitors ${s.capacitorSeries} ±${pct(s.capacitorTolerance)}, resistors ${s.resistorSeries} ±${pct(s.resistorTolerance)} in ${formatValue(s.resistorRange.min, { unit: "Ω" })} – ${formatValue(s.resistorRange.max, { unit: "Ω" })} |`);
-  L.push(`| op-amp | ${s.opamp.kind === "ideal" ? "ideal" : `A0 ${n4(s.opamp.a0)}, GBW ${f3(s.opamp.gbwHz)}`} |`, "");
+  L.push(`| op-amp | ${s.opamp.kind === "ideal" ? "ideal" : `A0 ${n4(s.opamp.a0)}, GBW ${f3(s.opamp.gbwHz)}`} |`);
+  if (s.levels !== null) L.push(`| signal levels | input ${n4(s.levels.inputPeakV)} V peak, op-amp output swing ${n4(s.levels.outputSwingV)} V peak |`);
+  L.push("");
   L.push("## Approximation", "");
   L.push(`Family **${result.family}**, prototype order ${result.order} (minimum ${result.minimumOrder}). ${result.familyChoice.reason}`, "");
   const p = result.placement;
@@ -109,6 +112,7 @@ export function toMarkdown(result: DesignResult): string {
   L.push(`| passband gain | ${dB(v.gainDb)} | ${dB(v.targetGainDb)} ± ${s.gainToleranceDb} dB | ${dB(v.gainMarginDb)} |`);
   L.push(`| polarity | ${v.polarity} | ${s.polarity} | ${v.polarityOk ? "ok" : "not met"} |`, "");
   L.push(`Op-amp model used: ${v.opamp.kind === "ideal" ? "ideal" : `single pole, A0 ${n4(v.opamp.a0)}, GBW ${f3(v.opamp.gbwHz)}`}. Worst margin of the exact (unrounded) design: ${dB(v.idealMarginDb)}.`, "");
+  L.push(...headroomLines(result));
   L.push("## What each op-amp must do", "");
   L.push("For a 1 V peak sinusoid at the input, anywhere in the plotted span:", "");
   L.push("| stage | op-amps | GBW needed | peak output | at | slew rate | at |", "|---|---|---|---|---|---|---|");
