@@ -6,7 +6,7 @@ import type { Element, OpAmpModel } from "../../src/circuit/types.ts";
 import type { ComponentValues, Topology } from "../../src/topologies/types.ts";
 import { opampNodes, opampOutputTransfers } from "../../src/evaluate/opamp-outputs.ts";
 import { cascadeMagnitudeSquared, cascadeResponse } from "../../src/evaluate/cascade.ts";
-import { isBoard, opampOf, spreadValues } from "../helpers/stage-cases.ts";
+import { boardOfCase, stageCaseArb as caseArb } from "../helpers/stage-cases.ts";
 import { realisableArb } from "../topologies/arbitraries.ts";
 
 /** MNA of the topology's own elements at every op-amp output node (the reference), by the op-amps' order. */
@@ -20,16 +20,6 @@ function mnaAtOpamps(topo: Topology, v: ComponentValues, freqHz: Float64Array, o
   return nodes.map((n) => r.outputs[n]!);
 }
 
-const caseArb = (topo: Topology) =>
-  fc.record({
-    design: realisableArb(topo),
-    spread: fc.array(fc.double({ min: 0.7, max: 1.4, noNaN: true }), { minLength: 12, maxLength: 12 }),
-    freqs: fc.array(fc.double({ min: -2, max: 2, noNaN: true }), { minLength: 1, maxLength: 8 }),
-    model: fc.constantFrom("ideal", "single-pole", "single-pole-rout"),
-    a0Log: fc.double({ min: 3, max: 7, noNaN: true }),
-    gbwLog: fc.double({ min: 0.5, max: 4, noNaN: true }),
-    rout: fc.double({ min: 1, max: 200, noNaN: true }),
-  });
 
 describe("opampNodes", () => {
   it("names each op-amp of a state-variable lowpass and the local node it drives", () => {
@@ -60,12 +50,11 @@ describe("opampOutputTransfers", () => {
   for (const topo of topologies) {
     it(`${topo.id}: every op-amp output agrees with nodal analysis to 1e-9 dB`, () => {
       fc.assert(
-        fc.property(caseArb(topo), ({ design, spread, freqs, model, a0Log, gbwLog, rout }) => {
-          const v = spreadValues(topo, topo.design(design.target, design.choices), spread);
-          fc.pre(isBoard(topo, v));
-          const f0 = design.target.f0Hz;
-          const opamp = opampOf(model, f0, a0Log, gbwLog, rout);
-          const freqHz = Float64Array.from(freqs.map((x) => f0 * 10 ** x));
+        fc.property(caseArb(topo), (c) => {
+          const board = boardOfCase(topo, c);
+          fc.pre(board !== null);
+          const { design } = c;
+          const { v, opamp, freqHz } = board!;
           const w = freqHz.map((f) => 2 * Math.PI * f);
           const outs = opampOutputTransfers(topo, v, opamp);
           expect(outs).not.toBeNull();
