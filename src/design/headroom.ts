@@ -9,8 +9,10 @@
  * partial cascade before it multiplied in, and the maximum of |H|^2 found
  * on a grid that follows the poles' and zeros' Q with golden-section
  * refinement of every local maximum (src/evaluate/peak-gain.ts; J. Kiefer,
- * Proc. AMS 4(3):502-506, 1953), over the response span (a decade beyond the
- * mask's edges), DC and the high-frequency limit. Accuracy: within 1e-6 dB
+ * Proc. AMS 4(3):502-506, 1953), over the peak span ({@link peakSpanHz}: a
+ * decade beyond the mask's edges, widened to the passbands the mask checks, so
+ * a highpass is searched up to its passband top where a real op-amp's
+ * bandwidth makes the response peak), DC and the high-frequency limit. Accuracy: within 1e-6 dB
  * of a 200,000-point evaluation refined the same way (test/design/headroom.test.ts
  * asks for 0.01 dB). The margin of an op-amp output is `20 log10(swing /
  * peak)` with `peak = inputPeakV * gain` (the sinusoidal steady state; a
@@ -31,7 +33,7 @@ import { TWO_PI } from "../units/constants.ts";
 import type { DesignSpec } from "./spec.ts";
 import { significant } from "./text.ts";
 import type { DesignWarning, Headroom, OpampPeak } from "./types.ts";
-import { maskPlan, multiplyInPlace, responseSpanHz, spanRadS, type BuiltStage } from "./verify.ts";
+import { maskBands, maskPlan, multiplyInPlace, responseSpanHz, spanRadS, type BuiltStage } from "./verify.ts";
 
 /** A gain peak, V/V at Hz. */
 export interface GainAt {
@@ -47,6 +49,19 @@ export interface StagePeakGains {
   readonly output: GainAt;
   /** From the filter input to each op-amp output, in the order of the stage's elements (its op-amp designators' order). */
   readonly opamps: readonly (GainAt & { readonly node: string })[];
+}
+
+/**
+ * Where the peaks are searched, Hz: a decade below the lowest mask edge to a
+ * decade above the highest, widened to the passbands the mask checks.
+ *
+ * @param spec - canonical spec
+ * @returns `[lowHz, highHz]`
+ */
+export function peakSpanHz(spec: DesignSpec): readonly [number, number] {
+  const [lo, hi] = responseSpanHz(spec);
+  const pass = maskBands(spec).pass;
+  return [Math.min(lo, ...pass.map((b) => b[0])), Math.max(hi, ...pass.map((b) => b[1]))];
 }
 
 /** Peaks as V/V at Hz from a found |H|^2 at rad/s. */
@@ -75,7 +90,7 @@ export function stagePeakGains(spec: DesignSpec, stages: readonly BuiltStage[], 
     output: (o.find((x) => x.node === "out") as OpampOutput).transfer,
     taps: o.map((x) => x.transfer),
   }));
-  const [lo, hi] = responseSpanHz(spec);
+  const [lo, hi] = peakSpanHz(spec);
   return cascadePeaks(tapped, [TWO_PI * lo, TWO_PI * hi]).map((p, i) => ({
     output: gainAt(p.output),
     opamps: p.taps.map((t, j) => ({ ...gainAt(t), node: ((outputs[i] as OpampOutput[])[j] as OpampOutput).node })),

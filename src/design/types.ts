@@ -60,8 +60,9 @@ export interface DesignStage {
   /**
    * Largest gain from the filter input to this stage's output, V/V (partial
    * cascade, as built with the spec's op-amp): the true maximum, found by
-   * search over the response span (a decade beyond the mask's edges), DC
-   * and the high-frequency limit.
+   * search from a decade below the mask's lowest edge to a decade above its
+   * highest (widened to the passbands the mask checks, e.g. a highpass's up to
+   * its top), DC and the high-frequency limit.
    */
   readonly peakGain: number;
   /** Frequency of that peak, Hz (0 at DC; the top of the span when the high-frequency limit is the largest). */

@@ -14,7 +14,13 @@
  * (interpolation at roots of unity, J. W. Cooley & J. W. Tukey, Math. Comp.
  * 19:297-301, 1965). The op-amp that drives the stage output takes the
  * stage's own polynomials (the topology's closed form where it has one), so
- * its figures are the very ones the mask check uses.
+ * its figures are the very ones the mask check uses. An internal node always
+ * takes the default circles (two decades about the stage's f0, up to past the
+ * op-amps' bandwidth), whatever span is asked: far below f0 its voltage is a
+ * small difference of larger ones (an integrator loop's highpass node goes as
+ * s^2), the samples there carry rounding noise far above that circle's
+ * measured floor, and coefficients taken from them are wrong by many orders
+ * (seen on wide bandstop designs before this rule).
  *
  * Accuracy: that of the generic path, better than 1e-10 relative over four
  * decades about the stage's f0 against the nodal analysis of the same
@@ -68,9 +74,8 @@ function internalTransfer(
   values: ComponentValues,
   opamp: OpAmpModel,
   node: string,
-  spanRadS: readonly [number, number] | undefined,
 ): ScaledRational | null {
-  const cs = compileStage(topology, values, opamp, spanRadS ?? [0, 0], node);
+  const cs = compileStage(topology, values, opamp, [0, 0], node);
   const v = Float64Array.from(cs.componentNames, (name) => values[name] as number);
   const num = new Float64Array(cs.points);
   const den = new Float64Array(cs.points);
@@ -86,8 +91,9 @@ function internalTransfer(
  * @param topology - the stage's topology
  * @param values - its component values
  * @param opamp - op-amp model for every op-amp of the stage
- * @param spanRadS - angular frequencies where the results will be evaluated
- *   (the sample circles cover them); by default two decades about the stage's f0
+ * @param spanRadS - angular frequencies where the stage output's polynomials
+ *   will be evaluated (as for `stagePolynomials`); by default two decades about
+ *   the stage's f0 (internal nodes always take that default, see the module header)
  * @returns one entry per op-amp, in element order; null when the stage's equations are singular
  */
 export function opampOutputTransfers(
@@ -102,7 +108,7 @@ export function opampOutputTransfers(
     const transfer =
       node === "out"
         ? stagePolynomials(topology, values, opamp, spanRadS === undefined ? {} : { spanRadS })
-        : internalTransfer(topology, values, opamp, node, spanRadS);
+        : internalTransfer(topology, values, opamp, node);
     if (transfer === null) return null;
     out.push({ opamp: name, index: index++, node, transfer });
   }

@@ -58,7 +58,7 @@ export function headroomLines(result: DesignResult): string[] {
   const L: string[] = ["## Headroom (every op-amp output)", ""];
   L.push(
     h === undefined
-      ? "Largest gain from the filter input to each op-amp output over the response span, DC and the high-frequency limit, found by search (not sampled). Give the spec's `levels` for a clipping check."
+      ? "Largest gain from the filter input to each op-amp output, from a decade below the lowest band edge to a decade above the highest (and over every passband the mask checks), DC and the high-frequency limit, found by search (not sampled). Give the spec's `levels` for a clipping check."
       : `At ${n4(h.inputPeakV)} V peak in, against an output swing of ${n4(h.outputSwingV)} V peak: ${h.clips ? `**clips**, worst ${h.worstOpamp} by ${dB(-h.worstMarginDb)}` : `no op-amp output clips; least margin ${dB(h.worstMarginDb)} (${h.worstOpamp})`}.`,
     "",
   );

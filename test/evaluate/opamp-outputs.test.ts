@@ -81,4 +81,31 @@ describe("opampOutputTransfers", () => {
       );
     });
   }
+
+  for (const topo of topologies.filter((t) => t.opampCount > 1)) {
+    it(`${topo.id}: internal nodes stay exact three decades about f0 when a wide span is asked (a notch design's mask span)`, () => {
+      fc.assert(
+        fc.property(caseArb(topo), (c) => {
+          const board = boardOfCase(topo, c);
+          fc.pre(board !== null);
+          const { v, opamp } = board!;
+          const f0 = c.design.target.f0Hz;
+          const freqHz = Float64Array.from(c.freqs, (x) => f0 * 10 ** (1.5 * x));
+          const outs = opampOutputTransfers(topo, v, opamp, [2 * Math.PI * f0 * 1e-5, 2 * Math.PI * f0 * 1e5])!;
+          const refs = mnaAtOpamps(topo, v, freqHz, opamp);
+          outs.forEach((o, k) => {
+            if (o.node === "out") return; // the stage output is stagePolynomials' own, tested in stage-polynomials.test.ts
+            const m = refs[k]!;
+            const h = cascadeResponse([o.transfer], freqHz.map((f) => 2 * Math.PI * f));
+            let big = Math.abs(c.design.target.gain);
+            for (let i = 0; i < freqHz.length; i++) big = Math.max(big, Math.hypot(m.re[i]!, m.im[i]!));
+            for (let i = 0; i < freqHz.length; i++) {
+              expect(Math.hypot(h.re[i]! - m.re[i]!, h.im[i]! - m.im[i]!) / big, `${o.opamp} at ${o.node}, f = ${freqHz[i]} Hz (${opamp.kind})`).toBeLessThan(1e-9);
+            }
+          });
+        }),
+        { numRuns: 25 },
+      );
+    });
+  }
 });
