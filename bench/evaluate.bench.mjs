@@ -41,3 +41,29 @@ export const benchmarks = [
     note: "no python reference (scipy has no as-built circuit polynomials)",
   },
 ];
+
+// The first-order tolerance model of the same board and the per-part
+// tolerance allocation on it (the yield search's screen): linearModel at the
+// critical points of a mask for the board's 10 kHz lowpass, then
+// allocateTolerances for a 95 % target.
+import { allocateTolerances, linearModel, planMask } from "../dist/evaluate/index.js";
+
+const plan = planMask(
+  { pass: [[10, 8000]], stop: [[30000, 3e7]], referenceHz: 10 },
+  { maxLossDb: 1, minAttenuationDb: 35, gain: 1, gainToleranceDb: 0.5 },
+);
+const boardStages = stages.map((s) => ({ compiled: s.compiled, nominal: s.values, tolerance: new Float64Array(s.values.length).fill(0.01), radius: s.radius }));
+const model = linearModel(boardStages, plan);
+
+benchmarks.push(
+  {
+    name: "linearModel: first-order tolerance model of the 4-stage board (16 parts) at its mask's critical points",
+    fn: () => linearModel(boardStages, plan).levelDb.length,
+    note: "no reference (the board Monte Carlo it replaces as a screen is timed in analysis.bench.mjs)",
+  },
+  {
+    name: "allocateTolerances: per-part classes for a 95 % target on the 16-part board (2000 linearised boards)",
+    fn: () => allocateTolerances(model, plan, { target: 0.95 }).cost,
+    note: "no reference",
+  },
+);

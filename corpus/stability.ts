@@ -5,7 +5,8 @@
 // the nominal pipeline; every stage of every design is checked independently
 // of the pipeline's own Routh test: the roots of its characteristic
 // polynomial from the generic nodal path (the stamp program, not the
-// closed form), by the polynomial root finder.
+// closed form), by the polynomial root finder. And the peak gains to every
+// stage output and op-amp output are checked against a dense evaluation.
 import { expect } from "vitest";
 import { validateSpec } from "../src/design/spec.ts";
 import { chooseFamily } from "../src/design/family.ts";
@@ -16,6 +17,11 @@ import { stagePolynomials } from "../src/evaluate/stage-polynomials.ts";
 import { polyRoots } from "../src/math/roots.ts";
 import { mulberry32 } from "../src/math/random.ts";
 import { SpecError, UnrealisableError } from "../src/errors.ts";
+import { boardStages } from "../src/design/attempt.ts";
+import { peakSpanHz, stagePeakGains } from "../src/design/headroom.ts";
+import { opampOutputTransfers } from "../src/evaluate/opamp-outputs.ts";
+import { logGrid } from "../src/tf/index.ts";
+import { denseCascadePeaks } from "../test/helpers/dense-peak.ts";
 // @ts-expect-error plain JavaScript module without types
 import { randomSpecs } from "../scripts/spec-corpus.mjs";
 
@@ -25,12 +31,46 @@ interface Tally {
   unstableStages: number;
   unstableFlagged: number;
   skipped: number;
+  peaksChecked: number;
+  worstPeakDb: number;
+}
+
+const db = (x: number): number => 20 * Math.log10(x);
+
+/**
+ * The found peak gains to every stage output and op-amp output (as the
+ * result reports them) against a dense evaluation: 200,000 log points over
+ * the same span, every local maximum refined (test/helpers/dense-peak.ts).
+ */
+function checkPeaks(spec: ReturnType<typeof validateSpec>, attempt: ReturnType<typeof searchDesign>["attempt"], id: string, tally: Tally): void {
+  const stages = boardStages(attempt.plans, attempt.chosen);
+  const [lo, hi] = peakSpanHz(spec);
+  const found = stagePeakGains(spec, stages, spec.opamp, logGrid(lo, hi, 2000));
+  const span = spanRadS(maskPlan(spec).bands);
+  const tapped = stages.map((s) => {
+    const outs = opampOutputTransfers(s.topology, s.values, spec.opamp, span);
+    return outs === null ? null : { output: outs.find((o) => o.node === "out")!.transfer, taps: outs.map((o) => o.transfer) };
+  });
+  if (tapped.some((t) => t === null)) return;
+  const dense = denseCascadePeaks(tapped as { output: never; taps: never[] }[], [2 * Math.PI * lo, 2 * Math.PI * hi]);
+  found.forEach((f, k) => {
+    const d = dense[k]!;
+    const e = Math.abs(db(f.output.gain) - 10 * Math.log10(d.output.magnitudeSquared));
+    tally.worstPeakDb = Math.max(tally.worstPeakDb, e);
+    expect(e, `${id}: stage ${k + 1} output peak against the dense evaluation`).toBeLessThan(0.01);
+    f.opamps.forEach((p, j) => {
+      const ej = Math.abs(db(p.gain) - 10 * Math.log10(d.taps[j]!.magnitudeSquared));
+      tally.worstPeakDb = Math.max(tally.worstPeakDb, ej);
+      expect(ej, `${id}: stage ${k + 1} op-amp output ${p.node} against the dense evaluation`).toBeLessThan(0.01);
+    });
+  });
+  tally.peaksChecked++;
 }
 
 /** Design `n` specs of the corpus from `seed` and check the stability invariant on each. */
 export function runStabilityCorpus(seed: number, n: number): Tally {
   const rnd = mulberry32(seed ^ 0x5bd1e995);
-  const tally: Tally = { designs: 0, met: 0, unstableStages: 0, unstableFlagged: 0, skipped: 0 };
+  const tally: Tally = { designs: 0, met: 0, unstableStages: 0, unstableFlagged: 0, skipped: 0, peaksChecked: 0, worstPeakDb: 0 };
   for (const { id, spec } of randomSpecs(seed, n) as { id: string; spec: Record<string, unknown> }[]) {
     if (rnd() < 1 / 3) {
       const edges = [spec["passband"], spec["stopband"]].flatMap((b) => [(b as { edgeHz: number | number[] }).edgeHz].flat());
@@ -71,6 +111,7 @@ export function runStabilityCorpus(seed: number, n: number): Tally {
       tally.unstableFlagged++;
       expect(attempt.mask.unstableStages, `${id}: the pipeline's stability verdict`).toEqual(unstable);
     }
+    if (unstable.length === 0) checkPeaks(canonical, attempt, id, tally);
     const met = meetsSpec(canonical, attempt);
     if (met) tally.met++;
     expect(met && unstable.length > 0, `${id}: meets the spec with unstable stage(s) ${unstable.join(", ")}`).toBe(false);

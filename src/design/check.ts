@@ -104,6 +104,40 @@ function topologyOrFail(c: Checker, path: string, id: string): ReturnType<typeof
   }
 }
 
+/** A stage's `opampPeaks`: one entry per op-amp, in the order of its `opamps`. */
+function checkOpampPeaks(c: Checker, p: string, s: Raw): void {
+  const opamps = s["opamps"] as unknown[];
+  const peaks = c.arr(`${p}.opampPeaks`, s["opampPeaks"]);
+  if (peaks.length !== opamps.length) c.fail(`${p}.opampPeaks`, `expected one entry per op-amp (${opamps.length})`, peaks.length);
+  peaks.forEach((x, k) => {
+    const q = `${p}.opampPeaks.${k}`;
+    const e = c.obj(q, x);
+    if (c.str(`${q}.opamp`, e["opamp"]) !== opamps[k]) c.fail(`${q}.opamp`, `expected the stage's op-amp ${String(opamps[k])}`, e["opamp"]);
+    c.num(`${q}.gain`, e["gain"], true);
+    c.num(`${q}.hz`, e["hz"]);
+    c.str(`${q}.node`, e["node"]);
+  });
+}
+
+/** The verification's `headroom`, when present. */
+function checkHeadroom(c: Checker, p: string, v: unknown): void {
+  if (v === undefined) return;
+  const h = c.obj(p, v);
+  c.num(`${p}.inputPeakV`, h["inputPeakV"], true);
+  c.num(`${p}.outputSwingV`, h["outputSwingV"], true);
+  c.str(`${p}.worstOpamp`, h["worstOpamp"]);
+  c.num(`${p}.worstMarginDb`, h["worstMarginDb"]);
+  c.bool(`${p}.clips`, h["clips"]);
+  c.arr(`${p}.opamps`, h["opamps"]).forEach((x, k) => {
+    const o = c.obj(`${p}.opamps.${k}`, x);
+    c.str(`${p}.opamps.${k}.opamp`, o["opamp"]);
+    c.num(`${p}.opamps.${k}.stage`, o["stage"], true);
+    c.num(`${p}.opamps.${k}.peakV`, o["peakV"], true);
+    c.num(`${p}.opamps.${k}.hz`, o["hz"]);
+    c.num(`${p}.opamps.${k}.marginDb`, o["marginDb"]);
+  });
+}
+
 
 
 
@@ -165,6 +199,7 @@ export function checkDesignResult(
     c.num(`${p}.peakGain`, s["peakGain"]);
     c.num(`${p}.peakHz`, s["peakHz"]);
     c.num(`${p}.gbwDemandHz`, s["gbwDemandHz"]);
+    checkOpampPeaks(c, p, s);
     if (s["asBuiltWithOpamp"] !== undefined) {
       const w = c.obj(`${p}.asBuiltWithOpamp`, s["asBuiltWithOpamp"]);
       c.num(`${p}.asBuiltWithOpamp.f0Hz`, w["f0Hz"], true);
@@ -212,6 +247,7 @@ export function checkDesignResult(
     if (a.length !== n) c.fail(`${prefix}.verification.curve.${k}`, `expected ${n} values like freqHz`, a.length);
     a.forEach((x, j) => c.num(`${prefix}.verification.curve.${k}.${j}`, x));
   }
+  checkHeadroom(c, `${prefix}.verification.headroom`, v["headroom"]);
   c.arr(`${prefix}.warnings`, r["warnings"]);
   c.arr(`${prefix}.actions`, r["actions"]);
   c.arr(`${prefix}.yieldAlternatives`, r["yieldAlternatives"]).forEach((av, i) => {

@@ -22,6 +22,8 @@ export {
   type PartsSpec,
   type OpAmpSpec,
   type ValueWindow,
+  type LevelsSpec,
+  type SignalLevels,
 } from "./spec.ts";
 export { designFilter, LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./pipeline.ts";
 export { responseSpanHz } from "./verify.ts";
@@ -41,4 +43,7 @@ export type {
   Verification,
   DesignWarning,
   DesignAction,
+  OpampPeak,
+  Headroom,
+  HeadroomOpamp,
 } from "./types.ts";

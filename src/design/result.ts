@@ -18,7 +18,8 @@ import { CAPACITOR_SPREAD_SOFT_LIMIT, capacitorSpreadOf, type StagePlan } from "
 import type { TunedStage, ValueSet } from "./components.ts";
 import { stageErrors } from "./stage-cost.ts";
 import type { PredistortionOutcome } from "./predistort.ts";
-import { checkMask, partialPeaks, responseCurve, type BuiltStage } from "./verify.ts";
+import { checkMask, responseCurve, type BuiltStage } from "./verify.ts";
+import { clipWarning, headroomOf, opampPeaksOf, stagePeakGains, type StagePeakGains } from "./headroom.ts";
 import { boardStages, meetsSpec as nominalMeets, polarityMet, type Attempt } from "./attempt.ts";
 import { classText, opampCount, yieldText, type YieldCandidate, type YieldOutcome } from "./yield.ts";
 import { significant } from "./text.ts";
@@ -29,6 +30,7 @@ import type {
   DesignStage,
   DesignWarning,
   FamilyChoice,
+  Headroom,
   Placement,
   Verification,
   YieldAlternative,
@@ -156,7 +158,7 @@ interface StageInputs {
   readonly set: ValueSet;
   readonly tuned: TunedStage;
   readonly names: StageDesignators;
-  readonly peak: { readonly gain: number; readonly hz: number };
+  readonly peaks: StagePeakGains;
   readonly pd: PredistortionOutcome | null;
   /** Tolerance per part, in the topology's component order. */
   readonly tolerances: Float64Array;
@@ -187,9 +189,10 @@ function stageRecord(spec: DesignSpec, x: StageInputs): { stage: DesignStage; wa
     plainSnapErrors: tuned.plain.withOpamp === undefined ? tuned.plain.errors : stageErrors(tuned.plain.figures, plan.target),
     ...(pole === undefined ? {} : { asBuiltWithOpamp: { f0Hz: pole.f0Hz, ...(pole.q === undefined ? {} : { q: pole.q }) } }),
     ...(pd?.ok === true ? { predistortion: { f0Factor: pd.f0Factor, qFactor: pd.qFactor, gainFactor: pd.gainFactor } } : {}),
-    peakGain: x.peak.gain,
-    peakHz: x.peak.hz,
+    peakGain: x.peaks.output.gain,
+    peakHz: x.peaks.output.hz,
     gbwDemandHz: gbw,
+    opampPeaks: opampPeaksOf(x.peaks, names.opamps),
   };
   return { stage, warnings };
 }
@@ -208,8 +211,8 @@ function predistortionAction(spec: DesignSpec, stages: readonly DesignStage[]): 
   };
 }
 
-/** Warnings about the whole cascade: an internal node peaking above the output, the polarity, a missed mask. */
-function cascadeWarnings(spec: DesignSpec, a: Attempt, peaks: readonly { gain: number; hz: number }[]): DesignWarning[] {
+/** Warnings about the whole cascade: an internal node peaking above the output, the polarity, clipping, a missed spec. */
+function cascadeWarnings(spec: DesignSpec, a: Attempt, peaks: readonly { gain: number; hz: number }[], headroom: Headroom | undefined): DesignWarning[] {
   const warnings: DesignWarning[] = [];
   const outPeak = (peaks[peaks.length - 1] as { gain: number }).gain;
   peaks.slice(0, -1).forEach((p, i) => {
@@ -228,6 +231,8 @@ function cascadeWarnings(spec: DesignSpec, a: Attempt, peaks: readonly { gain: n
       message: `the requested ${spec.polarity} polarity could not be met with the allowed topologies; the filter is ${a.mask.polarity}.`,
     });
   }
+  const clip = clipWarning(headroom);
+  if (clip !== null) warnings.push(clip);
   const m = a.mask;
   if (m.unstableStages.length > 0) {
     warnings.push({
@@ -240,6 +245,8 @@ function cascadeWarnings(spec: DesignSpec, a: Attempt, peaks: readonly { gain: n
       code: "spec-not-met",
       message: `the as-built filter misses the mask: passband margin ${significant(m.passbandMarginDb, 3)} dB, stopband margin ${significant(m.stopbandMarginDb, 3)} dB, gain margin ${significant(m.gainMarginDb, 3)} dB${spec.order !== null ? "; the spec fixes the order, so the pipeline did not raise it" : ""}.`,
     });
+  } else if (clip !== null) {
+    warnings.push({ code: "spec-not-met", message: "the as-built filter meets the mask, but an op-amp output clips at the spec's signal levels (see the clipping warning), so it does not meet the spec." });
   }
   return warnings;
 }
@@ -317,12 +324,12 @@ function yieldWarning(spec: DesignSpec, robust: YieldOutcome): DesignWarning[] {
 }
 
 /** The as-built verification, with the exact design's ideal margin beside it. */
-function verificationOf(spec: DesignSpec, a: Attempt, boards: readonly BuiltStage[], robust: YieldOutcome): Verification {
+function verificationOf(spec: DesignSpec, a: Attempt, boards: readonly BuiltStage[], robust: YieldOutcome, headroom: Headroom | undefined): Verification {
   const exactBoards = a.exactPlans.map((p) => ({ topology: p.topology, values: p.topology.design(p.target, {}) }));
   const ideal = checkMask(spec, exactBoards, IDEAL);
   const m = a.mask;
   const polarityOk = polarityMet(spec, a);
-  const nominal = nominalMeets(spec, a);
+  const nominal = nominalMeets(spec, a) && headroom?.clips !== true;
   const boardYield = boardYieldOf(spec, robust.chosen);
   return {
     meetsSpec: nominal,
@@ -346,6 +353,7 @@ function verificationOf(spec: DesignSpec, a: Attempt, boards: readonly BuiltStag
     yield: boardYield,
     idealMarginDb: ideal.marginDb,
     curve: responseCurve(spec, boards, spec.opamp, CURVE_POINTS),
+    ...(headroom === undefined ? {} : { headroom }),
   };
 }
 
@@ -373,7 +381,7 @@ export function assembleResult(spec: DesignSpec, decisions: DesignDecisions, rob
   const a = robust.chosen.attempt;
   const names = designators(a.plans, a.chosen);
   const boards = boardStages(a.plans, a.chosen);
-  const peaks = partialPeaks(boards, a.gridHz, spec.opamp);
+  const found = stagePeakGains(spec, boards, spec.opamp, a.gridHz);
   const records = a.plans.map((plan, i) =>
     stageRecord(spec, {
       index: i + 1,
@@ -381,12 +389,13 @@ export function assembleResult(spec: DesignSpec, decisions: DesignDecisions, rob
       set: a.chosen[i] as ValueSet,
       tuned: a.tuned[i] as TunedStage,
       names: names[i] as StageDesignators,
-      peak: peaks[i] as { gain: number; hz: number },
+      peaks: found[i] as StagePeakGains,
       pd: a.predistortion[i] ?? null,
       tolerances: robust.chosen.tolerances[i] as Float64Array,
     }),
   );
   const stages = records.map((r) => r.stage);
+  const headroom = headroomOf(spec, stages);
   const predistorted = predistortionAction(spec, stages);
   const order = a.proto.order;
   return registerDesignResult(deepFreeze({
@@ -398,8 +407,8 @@ export function assembleResult(spec: DesignSpec, decisions: DesignDecisions, rob
     minimumOrder: decisions.minimumOrder,
     placement: placementOf(a),
     stages,
-    verification: verificationOf(spec, a, boards, robust),
-    warnings: [...records.flatMap((r) => r.warnings), ...cascadeWarnings(spec, a, peaks), ...yieldWarning(spec, robust)],
+    verification: verificationOf(spec, a, boards, robust, headroom),
+    warnings: [...records.flatMap((r) => r.warnings), ...cascadeWarnings(spec, a, found.map((p) => p.output), headroom), ...yieldWarning(spec, robust)],
     actions: predistorted === null ? [...decisions.actions] : [...decisions.actions, predistorted],
     yieldAlternatives: alternativesOf(robust),
   }));

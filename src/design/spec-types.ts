@@ -238,6 +238,13 @@ export interface FilterSpec {
    * @defaultValue `{ maxBoards: 2048, seed: 1 }`
    */
   readonly yieldCheck?: YieldCheckSpec;
+  /**
+   * Signal levels, for the clipping check of every op-amp output (the
+   * result's `verification.headroom`). Without them the peak gains to the
+   * op-amp outputs are still reported, with no verdict.
+   * @defaultValue none (no clipping check)
+   */
+  readonly levels?: LevelsSpec;
 }
 
 /** An inclusive window of part values in SI units. */
@@ -304,4 +311,30 @@ export interface DesignSpec {
   readonly yieldMaxBoards: number;
   /** Seed of the yield check's boards. */
   readonly yieldSeed: number;
+  /** Signal levels for the clipping check, or `null` when the spec gives none. */
+  readonly levels: SignalLevels | null;
+}
+
+/** The signal levels of a spec: the largest input and the op-amps' output swing. */
+export interface LevelsSpec {
+  /**
+   * Largest input amplitude, volts peak (a number or a string such as `"500m"`).
+   * @defaultValue 1
+   */
+  readonly inputPeakV?: Quantity;
+  /**
+   * The op-amps' output swing, volts peak: the largest output amplitude
+   * before clipping (common practice, no source: op-amps on +-15 V supplies
+   * keep about +-10 V of clean swing into a few kilohms).
+   * @defaultValue 10
+   */
+  readonly outputSwingV?: number;
+}
+
+/** The canonical signal levels: every default filled in, volts peak. */
+export interface SignalLevels {
+  /** Largest input amplitude, volts peak. */
+  readonly inputPeakV: number;
+  /** The op-amps' output swing, volts peak. */
+  readonly outputSwingV: number;
 }

@@ -14,6 +14,7 @@
 import { InvalidArgumentError, SpecError, type Issue } from "../errors.ts";
 import type { DesignSpec, EdgeInput, FilterSpec, GainSpec, ResponseType } from "./spec-types.ts";
 import { isObject, readBands, readFamily, readGain, readOpamp, readParts, readTopology, readYield, Reader } from "./spec-readers.ts";
+import { readLevels } from "./spec-levels.ts";
 
 export type {
   ResponseType,
@@ -29,6 +30,8 @@ export type {
   FilterSpec,
   ValueWindow,
   DesignSpec,
+  LevelsSpec,
+  SignalLevels,
 } from "./spec-types.ts";
 export { MAX_SPEC_ORDER } from "./spec-readers.ts";
 
@@ -45,6 +48,7 @@ const TOP_KEYS = [
   "opamp",
   "yieldTarget",
   "yieldCheck",
+  "levels",
 ] as const;
 
 /** Read a whole spec: every issue, and the canonical spec when there is none. */
@@ -59,6 +63,7 @@ function readSpec(spec: unknown): { readonly issues: readonly Issue[]; readonly 
   const parts = readParts(r, spec["parts"]);
   const opamp = readOpamp(r, spec["opamp"]);
   const yieldPart = readYield(r, spec);
+  const levels = readLevels(r, spec["levels"]);
   if (r.issues.length > 0) return { issues: r.issues, spec: null };
   return {
     issues: [],
@@ -76,6 +81,7 @@ function readSpec(spec: unknown): { readonly issues: readonly Issue[]; readonly 
       ...parts,
       opamp: Object.freeze({ ...opamp }),
       ...yieldPart,
+      levels,
     })),
   };
 }
@@ -215,6 +221,10 @@ export function requireDesignSpec(fn: string, value: unknown, path = "spec"): De
   if (!isObject(oa) || (oa["kind"] !== "ideal" && (typeof oa["a0"] !== "number" || typeof oa["gbwHz"] !== "number"))) {
     fail("opamp", 'expected { kind: "ideal" } or a single-pole model { kind, a0, gbwHz }', oa);
   }
+  const lv = v["levels"];
+  if (lv !== undefined && lv !== null && (!isObject(lv) || [lv["inputPeakV"], lv["outputSwingV"]].some((x) => typeof x !== "number" || !(x > 0) || !Number.isFinite(x)))) {
+    fail("levels", "expected null or { inputPeakV, outputSwingV }, each a finite number of volts greater than zero", lv);
+  }
   return value as unknown as DesignSpec;
 }
 
@@ -269,5 +279,6 @@ export function specToInput(spec: DesignSpec): FilterSpec {
     opamp,
     yieldTarget: spec.yieldTarget,
     yieldCheck: { maxBoards: spec.yieldMaxBoards, seed: spec.yieldSeed },
+    ...(spec.levels === null || spec.levels === undefined ? {} : { levels: { inputPeakV: spec.levels.inputPeakV, outputSwingV: spec.levels.outputSwingV } }),
   };
 }

@@ -59,9 +59,15 @@ export interface DesignStage {
   readonly errors: StageErrors;
   /** Relative errors had each part been rounded to its nearest preferred value on its own (before joint re-tuning). */
   readonly plainSnapErrors: StageErrors;
-  /** Largest gain from the filter input to this stage's output over all frequencies, V/V (partial cascade, as built). */
+  /**
+   * Largest gain from the filter input to this stage's output, V/V (partial
+   * cascade, as built with the spec's op-amp): the true maximum, found by
+   * search from a decade below the mask's lowest edge to a decade above its
+   * highest (widened to the passbands the mask checks, e.g. a highpass's up to
+   * its top), DC and the high-frequency limit.
+   */
   readonly peakGain: number;
-  /** Frequency of that peak, Hz. */
+  /** Frequency of that peak, Hz (0 at DC; the top of the span when the high-frequency limit is the largest). */
   readonly peakHz: number;
   /** Gain-bandwidth product (Hz) the stage's op-amp needs for about 1 % accuracy of f0 and Q. */
   readonly gbwDemandHz: number;
@@ -79,6 +85,54 @@ export interface DesignStage {
    * (second order, non-ideal op-amp).
    */
   readonly predistortion?: StagePredistortion;
+  /**
+   * The largest gain from the filter input to every op-amp output of the
+   * stage, internal nodes of multi-amplifier stages included (found as
+   * `peakGain` is), one entry per op-amp in the order of `opamps`.
+   */
+  readonly opampPeaks: readonly OpampPeak[];
+}
+
+/** The largest gain from the filter input to one op-amp output. */
+export interface OpampPeak {
+  /** The op-amp's designator (`U1`, ...), as in `opamps`. */
+  readonly opamp: string;
+  /** The gain, V/V. */
+  readonly gain: number;
+  /** Where it peaks, Hz (0 at DC; the top of the span when the high-frequency limit is the largest). */
+  readonly hz: number;
+  /** The topology's local name of the node it drives (`"out"` for the stage output). */
+  readonly node: string;
+}
+
+/** One op-amp output against the output swing. */
+export interface HeadroomOpamp {
+  /** The op-amp's designator. */
+  readonly opamp: string;
+  /** Its stage (from 1). */
+  readonly stage: number;
+  /** Its largest output amplitude for the largest input, volts peak. */
+  readonly peakV: number;
+  /** Where it occurs, Hz. */
+  readonly hz: number;
+  /** `20 log10(outputSwingV / peakV)`, dB (negative: it clips). */
+  readonly marginDb: number;
+}
+
+/** The clipping check of every op-amp output at the spec's signal levels. */
+export interface Headroom {
+  /** Largest input amplitude, volts peak. */
+  readonly inputPeakV: number;
+  /** The op-amps' output swing, volts peak. */
+  readonly outputSwingV: number;
+  /** The op-amp with the least margin. */
+  readonly worstOpamp: string;
+  /** Its margin, dB. */
+  readonly worstMarginDb: number;
+  /** Whether any op-amp output exceeds the swing (any margin below zero). */
+  readonly clips: boolean;
+  /** Every op-amp, in cascade order. */
+  readonly opamps: readonly HeadroomOpamp[];
 }
 
 /** How a stage's design target was pre-distorted for a finite-GBW op-amp. */
@@ -220,8 +274,9 @@ export interface YieldAlternative {
 export interface Verification {
   /**
    * Whether the nominal board (every part at its preferred value) meets the
-   * mask and the polarity with every stage stable. Whether the boards as
-   * built do is `boardsMeetSpec`.
+   * mask and the polarity with every stage stable and (with signal levels)
+   * no op-amp output clipping. Whether the boards as built do is
+   * `boardsMeetSpec`.
    */
   readonly meetsSpec: boolean;
   /** The op-amp model the check used. */
@@ -268,6 +323,8 @@ export interface Verification {
   readonly idealMarginDb: number;
   /** The as-built response on 256 log-spaced points spanning the mask. */
   readonly curve: ResponseCurve;
+  /** The clipping check at the spec's signal levels; present only when the spec gives `levels`. */
+  readonly headroom?: Headroom;
 }
 
 /** A warning for the builder. */
@@ -283,7 +340,8 @@ export interface DesignWarning {
     | "predistortion-failed"
     | "spec-not-met"
     | "unstable"
-    | "yield-not-met";
+    | "yield-not-met"
+    | "clips";
   /** Stage index (from 1), when the warning is about one stage. */
   readonly stage?: number;
   /** What is wrong and what to do about it. */

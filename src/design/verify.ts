@@ -377,36 +377,3 @@ export function responseCurve(
   }
   return { freqHz: Array.from(f), magnitudeDb, phaseDeg, groupDelayS };
 }
-
-/**
- * Largest magnitude of each partial cascade (input to each stage's output) on
- * a grid, with its frequency.
- *
- * @param stages - stages
- * @param gridHz - frequencies, Hz
- * @param opamp - op-amp model
- * @returns one peak per stage
- */
-export function partialPeaks(
-  stages: readonly BuiltStage[],
-  gridHz: Float64Array,
-  opamp: OpAmpModel,
-): { gain: number; hz: number }[] {
-  const re = new Float64Array(gridHz.length).fill(1);
-  const im = new Float64Array(gridHz.length);
-  const out: { gain: number; hz: number }[] = [];
-  for (const s of stages) {
-    multiplyInPlace(re, im, s.topology.response(s.values, gridHz, opamp));
-    let best = 0;
-    let at = gridHz[0] as number;
-    for (let i = 0; i < gridHz.length; i++) {
-      const m = Math.hypot(re[i] as number, im[i] as number);
-      if (m > best) {
-        best = m;
-        at = gridHz[i] as number;
-      }
-    }
-    out.push({ gain: best, hz: at });
-  }
-  return out;
-}

@@ -16,3 +16,5 @@ export * from "./yield.ts";
 export * from "./spread.ts";
 export * from "./allocate.ts";
 export * from "./sensitivity.ts";
+export * from "./opamp-outputs.ts";
+export * from "./peak-gain.ts";

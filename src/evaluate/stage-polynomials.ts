@@ -112,11 +112,14 @@ export interface CompiledStage {
   };
 }
 
-/** The stage as a circuit driven at "in" by a unit source, output at "out". */
-function stageElements(topology: Topology, nominal: ComponentValues, opamp: OpAmpModel): Element[] {
+/** Prefix of the stage's internal node names in its compiled circuit. */
+export const INTERNAL_NODE_PREFIX = "x_";
+
+/** The stage as a circuit driven at "in" by a unit source, output at "out", internal nodes prefixed by {@link INTERNAL_NODE_PREFIX}. */
+export function stageElements(topology: Topology, nominal: ComponentValues, opamp: OpAmpModel): Element[] {
   return [
     { kind: "V", name: "Vin", a: "in", b: "0", ac: 1 },
-    ...topology.elements(nominal, { input: "in", output: "out", nodePrefix: "x_", opamp }),
+    ...topology.elements(nominal, { input: "in", output: "out", nodePrefix: INTERNAL_NODE_PREFIX, opamp }),
   ];
 }
 
@@ -143,6 +146,9 @@ function degreeBound(p: StampProgram): number {
  * @param opamp - op-amp model for every op-amp of the stage
  * @param spanRadS - angular frequencies where the result will be evaluated (the
  *   sample circles reach a decade beyond); by default two decades about the stage's f0
+ * @param outputNode - the topology's local node whose voltage is the output
+ *   (`"out"`, the stage output, by default; any other node is an internal one,
+ *   such as an op-amp output of a multi-amplifier stage, and takes the generic path)
  * @returns the compiled stage
  */
 export function compileStage(
@@ -150,6 +156,7 @@ export function compileStage(
   nominal: ComponentValues,
   opamp: OpAmpModel,
   spanRadS: readonly [number, number] = [0, 0],
+  outputNode = "out",
 ): CompiledStage {
   const elements = stageElements(topology, nominal, opamp);
   const circuit = { title: topology.id, elements };
@@ -172,12 +179,13 @@ export function compileStage(
   const values = elementValues(circuit);
   const half = points / 2;
   const into = topology.polynomialsInto;
-  const closed = into !== undefined && (topology.polynomialDegree as number) < points && (opamp.kind !== "single-pole-rout" || opamp.routOhm === 0);
+  const atOutput = outputNode === "out";
+  const closed = atOutput && into !== undefined && (topology.polynomialDegree as number) < points && (opamp.kind !== "single-pole-rout" || opamp.routOhm === 0);
   return {
     componentNames: names,
     program,
     componentOfElement,
-    output: program.nodeIndex.get("out") as number,
+    output: program.nodeIndex.get(atOutput ? "out" : `${INTERNAL_NODE_PREFIX}${outputNode}`) as number,
     sourceRow: program.sourceRow.get("Vin") as number,
     points,
     degreeBound: bound,

@@ -11,6 +11,7 @@ import { bomLines } from "./bom.ts";
 import { opampRequirements } from "../analysis/index.ts";
 import { requireDesignResult } from "../design/check.ts";
 import { verdictLine } from "./verdict.ts";
+import { headroomLines } from "./headroom.ts";
 
 const f3 = (x: number): string => formatValue(x, { digits: 4, unit: "Hz" });
 const n4 = (x: number): string => Number(x.toPrecision(4)).toString();
@@ -83,7 +84,9 @@ export function toMarkdown(result: DesignResult): string {
   const tolText = (t: number, fixed: boolean): string => `±${pct(t)}${fixed ? "" : " (default; may be tightened per part)"}`;
   L.push(`| parts | capacitors ${s.capacitorSeries} ${tolText(s.capacitorTolerance, s.capacitorToleranceFixed)}, resistors ${s.resistorSeries} ${tolText(s.resistorTolerance, s.resistorToleranceFixed)} in ${formatValue(s.resistorRange.min, { unit: "Ω" })} – ${formatValue(s.resistorRange.max, { unit: "Ω" })}; spread ${s.partDistribution === "uniform" ? "uniform within tolerance" : "normal, tolerance = 3σ"} |`);
   L.push(`| yield target | ${pct(s.yieldTarget)} of boards (lower end of the 95 % interval), at most ${s.yieldMaxBoards} boards, seed ${s.yieldSeed} |`);
-  L.push(`| op-amp | ${s.opamp.kind === "ideal" ? "ideal" : `A0 ${n4(s.opamp.a0)}, GBW ${f3(s.opamp.gbwHz)}`} |`, "");
+  L.push(`| op-amp | ${s.opamp.kind === "ideal" ? "ideal" : `A0 ${n4(s.opamp.a0)}, GBW ${f3(s.opamp.gbwHz)}`} |`);
+  if (s.levels !== null) L.push(`| signal levels | input ${n4(s.levels.inputPeakV)} V peak, op-amp output swing ${n4(s.levels.outputSwingV)} V peak |`);
+  L.push("");
   L.push("## Approximation", "");
   L.push(`Family **${result.family}**, prototype order ${result.order} (minimum ${result.minimumOrder}). ${result.familyChoice.reason}`, "");
   const p = result.placement;
@@ -136,6 +139,7 @@ export function toMarkdown(result: DesignResult): string {
   L.push(`| stability | ${v.stable ? "every stage stable" : `stage ${v.unstableStages.join(", ")} unstable`} | all poles in the left half-plane | ${v.stable ? "ok" : "not met"} |`, "");
   L.push(`Op-amp model used: ${v.opamp.kind === "ideal" ? "ideal" : `single pole, A0 ${n4(v.opamp.a0)}, GBW ${f3(v.opamp.gbwHz)}`}. Worst margin of the exact (unrounded) design: ${dB(v.idealMarginDb)}.`, "");
   L.push(...yieldSection(result));
+  L.push(...headroomLines(result));
   L.push("## What each op-amp must do", "");
   L.push("For a 1 V peak sinusoid at the input, anywhere in the plotted span:", "");
   L.push("| stage | op-amps | GBW needed | peak output | at | slew rate | at |", "|---|---|---|---|---|---|---|");

@@ -10,7 +10,6 @@ import {
   maskBands,
   maskGrid,
   multiplyInPlace,
-  partialPeaks,
   responseSpanHz,
   type BuiltStage,
 } from "../../src/design/verify.ts";
@@ -76,7 +75,8 @@ describe("gridMarginDb", () => {
       const h = cascadeResponse(builtStages(r), grid.freqHz, r.spec.opamp);
       const mag = grid.freqHz.map((_, i) => Math.hypot(h.re[i]!, h.im[i]!));
       const g = gridMarginDb(r.spec, grid, mag);
-      expect(g).toBeGreaterThanOrEqual(r.verification.marginDb - 1e-9);
+      // the grid here is the closed form's, the verification the polynomials' (agreeing to about 1e-7 dB at high Q)
+      expect(g).toBeGreaterThanOrEqual(r.verification.marginDb - 1e-6);
       expect(g - r.verification.marginDb).toBeLessThan(0.05);
     }
   });
@@ -95,18 +95,7 @@ describe("maskBands and responseSpanHz", () => {
   });
 });
 
-describe("partialPeaks and multiplyInPlace", () => {
-  it("gives the peak of every partial cascade; the last is the whole filter's", () => {
-    const r = designFilter(specs[0]!);
-    const f = logGrid(10, 1e5, 4000);
-    const peaks = partialPeaks(builtStages(r), f, r.spec.opamp);
-    expect(peaks.length).toBe(r.stages.length);
-    const h = cascadeResponse(builtStages(r), f, r.spec.opamp);
-    const whole = Math.max(...f.map((_, i) => Math.hypot(h.re[i]!, h.im[i]!)));
-    expect(peaks.at(-1)!.gain).toBeCloseTo(whole, 12);
-    peaks.forEach((p, i) => expect(p.gain).toBeCloseTo(r.stages[i]!.peakGain, 2));
-  });
-
+describe("multiplyInPlace", () => {
   it("multiplies complex samples point by point", () => {
     const re = Float64Array.of(1, 0);
     const im = Float64Array.of(2, 1);

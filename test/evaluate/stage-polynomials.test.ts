@@ -3,7 +3,7 @@ import fc from "fast-check";
 import { topologies } from "../../src/topologies/registry.ts";
 import type { OpAmpModel } from "../../src/circuit/types.ts";
 import type { Topology } from "../../src/topologies/types.ts";
-import { isBoard, mnaOf, opampOf, spreadValues } from "../helpers/stage-cases.ts";
+import { boardOfCase, isBoard, mnaOf, opampOf, stageCaseArb as caseArb } from "../helpers/stage-cases.ts";
 import {
   boardPolynomialsInto,
   compileStage,
@@ -13,16 +13,6 @@ import {
 import { cascadeMagnitudeSquared, cascadeResponse } from "../../src/evaluate/cascade.ts";
 import { realisableArb } from "../topologies/arbitraries.ts";
 
-const caseArb = (topo: Topology) =>
-  fc.record({
-    design: realisableArb(topo),
-    spread: fc.array(fc.double({ min: 0.7, max: 1.4, noNaN: true }), { minLength: 12, maxLength: 12 }),
-    freqs: fc.array(fc.double({ min: -2, max: 2, noNaN: true }), { minLength: 1, maxLength: 8 }),
-    model: fc.constantFrom("ideal", "single-pole", "single-pole-rout"),
-    a0Log: fc.double({ min: 3, max: 7, noNaN: true }),
-    gbwLog: fc.double({ min: 0.5, max: 4, noNaN: true }),
-    rout: fc.double({ min: 1, max: 200, noNaN: true }),
-  });
 
 const worst: Record<string, { mag: number; deg: number }> = {};
 
@@ -30,12 +20,11 @@ describe("stagePolynomials, generic path", () => {
   for (const topo of topologies) {
     it(`${topo.id}: polynomials agree with nodal analysis to 1e-9 dB and 1e-7 degree`, () => {
       fc.assert(
-        fc.property(caseArb(topo), ({ design, spread, freqs, model, a0Log, gbwLog, rout }) => {
-          const v = spreadValues(topo, topo.design(design.target, design.choices), spread);
-          fc.pre(isBoard(topo, v));
-          const f0 = design.target.f0Hz;
-          const opamp = opampOf(model, f0, a0Log, gbwLog, rout);
-          const freqHz = Float64Array.from(freqs.map((x) => f0 * 10 ** x));
+        fc.property(caseArb(topo), (c) => {
+          const board = boardOfCase(topo, c);
+          fc.pre(board !== null);
+          const { design } = c;
+          const { v, opamp, freqHz } = board!;
           const p = stagePolynomials(topo, v, opamp, { closedForm: false }); // the generic path (the closed forms: test/topologies/polynomials.test.ts)
           expect(p).not.toBeNull();
           const w = freqHz.map((f) => 2 * Math.PI * f);

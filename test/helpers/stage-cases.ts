@@ -3,9 +3,11 @@
  * reference of a stage, a design's values spread part by part, the check
  * that the result is a buildable board, and the op-amp model of a case.
  */
+import fc from "fast-check";
 import { acAnalysis } from "../../src/circuit/mna.ts";
 import type { Element, OpAmpModel } from "../../src/circuit/types.ts";
 import type { ComponentValues, Topology } from "../../src/topologies/types.ts";
+import { realisableArb } from "../topologies/arbitraries.ts";
 
 /** MNA of the topology's own elements, driven by Vin at "in", output "out": the reference. */
 export function mnaOf(topo: Topology, v: ComponentValues, freqHz: Float64Array, opamp: OpAmpModel) {
@@ -40,3 +42,30 @@ export function opampOf(model: "ideal" | "single-pole" | "single-pole-rout", f0H
   const gbwHz = f0Hz * 10 ** gbwLog;
   return model === "single-pole" ? { kind: "single-pole", a0, gbwHz } : { kind: "single-pole-rout", a0, gbwHz, routOhm: rout };
 }
+
+/**
+ * A random case of a topology's stage: a realisable design, a part-by-part
+ * spread of its values, test frequencies (decades about f0) and an op-amp
+ * model (see {@link opampOf}).
+ */
+export const stageCaseArb = (topo: Topology) =>
+  fc.record({
+    design: realisableArb(topo),
+    spread: fc.array(fc.double({ min: 0.7, max: 1.4, noNaN: true }), { minLength: 12, maxLength: 12 }),
+    freqs: fc.array(fc.double({ min: -2, max: 2, noNaN: true }), { minLength: 1, maxLength: 8 }),
+    model: fc.constantFrom("ideal", "single-pole", "single-pole-rout"),
+    a0Log: fc.double({ min: 3, max: 7, noNaN: true }),
+    gbwLog: fc.double({ min: 0.5, max: 4, noNaN: true }),
+    rout: fc.double({ min: 1, max: 200, noNaN: true }),
+  });
+
+/** A case's board: its spread values, op-amp and test frequencies (Hz), or null when the values are no buildable board. */
+export function boardOfCase(topo: Topology, c: StageCase): { v: Record<string, number>; opamp: OpAmpModel; freqHz: Float64Array } | null {
+  const v = spreadValues(topo, topo.design(c.design.target, c.design.choices), c.spread);
+  if (!isBoard(topo, v)) return null;
+  const f0 = c.design.target.f0Hz;
+  return { v, opamp: opampOf(c.model, f0, c.a0Log, c.gbwLog, c.rout), freqHz: Float64Array.from(c.freqs.map((x) => f0 * 10 ** x)) };
+}
+
+/** One value of {@link stageCaseArb}. */
+export type StageCase = ReturnType<typeof stageCaseArb> extends fc.Arbitrary<infer T> ? T : never;
