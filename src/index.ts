@@ -65,6 +65,9 @@ export {
   type Placement,
   type ResponseCurve,
   type Verification,
+  type BoardYield,
+  type YieldAlternative,
+  type YieldCheckSpec,
   type DesignWarning,
   type DesignAction,
 } from "./design/index.ts";

@@ -24,6 +24,7 @@ export {
   type ValueWindow,
   type LevelsSpec,
   type SignalLevels,
+  type YieldCheckSpec,
 } from "./spec.ts";
 export { designFilter, LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./pipeline.ts";
 export { responseSpanHz } from "./verify.ts";
@@ -46,4 +47,6 @@ export type {
   OpampPeak,
   Headroom,
   HeadroomOpamp,
+  BoardYield,
+  YieldAlternative,
 } from "./types.ts";

@@ -32,6 +32,8 @@ export type {
   DesignSpec,
   LevelsSpec,
   SignalLevels,
+  YieldCheckSpec,
+  PartDistribution,
 } from "./spec-types.ts";
 export { MAX_SPEC_ORDER } from "./spec-readers.ts";
 
