@@ -62,6 +62,8 @@ spec options:
   --cap-tol T --res-tol T     fix the part tolerances, e.g. 2% or 0.02 (default: capacitors 5 %, resistors
                           the series' usual, and the design may tighten them per part for the yield target)
   --yield-target Y        fraction of boards that must meet the mask, e.g. 99% or 0.99 (default 95%)
+  --input-peak V --swing V    signal levels: largest input (V peak) and op-amp output swing (V peak, default 10);
+                          checks every op-amp output for clipping
   --distribution D        part spread within tolerance: uniform (default) | normal (tolerance = 3 sigma)
   --gbw HZ [--a0 GAIN]   real op-amp (single pole); default ideal
 
@@ -102,6 +104,8 @@ const VALUE_OPTIONS = new Set([
   "res-tol",
   "yield-target",
   "distribution",
+  "input-peak",
+  "swing",
   "gbw",
   "a0",
   "spec",
@@ -217,6 +221,8 @@ function specFromOptions(base: Record<string, unknown>, o: Map<string, string | 
   v("res-tol", (x) => (sub("parts")["resistorTolerance"] = fraction(x)));
   v("yield-target", (x) => (spec["yieldTarget"] = fraction(x)));
   v("distribution", (x) => (sub("parts")["distribution"] = x));
+  v("input-peak", (x) => (sub("levels")["inputPeakV"] = num(x)));
+  v("swing", (x) => (sub("levels")["outputSwingV"] = num(x)));
   const gbw = get("gbw");
   const a0 = get("a0");
   if (a0 !== undefined && gbw === undefined) throw new UsageError("--a0 needs --gbw as well");
@@ -301,6 +307,12 @@ export function formatSummary(r: DesignResult, extra: readonly string[] = []): s
   out.push(
     `${v.boardsMeetSpec ? "MEETS" : "DOES NOT MEET"} the spec: ${verdictLine(r)}; op-amp ${v.opamp.kind === "ideal" ? "ideal" : `GBW ${hz(v.opamp.gbwHz)}`}`,
   );
+  const h = v.headroom;
+  if (h !== undefined) {
+    out.push(
+      `headroom at ${p4(h.inputPeakV)} V peak in, ${p4(h.outputSwingV)} V swing: worst ${h.worstOpamp} ${h.worstMarginDb.toFixed(2)} dB${h.clips ? " (CLIPS)" : ""}`,
+    );
+  }
   if (r.warnings.length > 0) {
     out.push("", "warnings:");
     for (const w of r.warnings) out.push(`  - ${w.stage === undefined ? "" : `stage ${w.stage}: `}${w.message}`);

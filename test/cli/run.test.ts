@@ -141,6 +141,22 @@ describe("runCli", () => {
     expect(runCli([...LP, "--yield", "zero"], fakeIo())).toBe(2);
   });
 
+  it("checks the op-amp outputs for clipping at the signal levels given, and fails a design that clips", () => {
+    const ok = fakeIo();
+    expect(runCli([...LP, "--input-peak", "1", "--swing", "10"], ok)).toBe(0);
+    expect(ok.out).toMatch(/headroom at 1 V peak in, 10 V swing: worst U\d+ [\d.]+ dB/);
+    const hot = fakeIo();
+    expect(runCli([...LP, "--gain", "20", "--input-peak", "2", "--swing", "10"], hot)).toBe(1);
+    expect(hot.out).toContain("(CLIPS)");
+    expect(runCli([...LP, "--swing", "-3"], fakeIo())).toBe(2);
+  });
+
+  it("exits 1 when the boards miss the yield target, and names it in the summary line", () => {
+    const io = fakeIo();
+    expect(runCli([...LP, "--cap-tol", "10%", "--res-tol", "5%", "--order", "3", "--quiet"], io)).toBe(1);
+    expect(io.out).toMatch(/% of boards \[[\d.]+, [\d.]+\] at 5 % R \/ 10 % C .*target 95 %: NOT met/);
+  });
+
   it("meets the spec in the README's command-line example", () => {
     const io = fakeIo();
     const argv = ["design", "--response", "lowpass", "--pass", "20k", "--pass-loss", "0.5", "--stop", "60k", "--stop-atten", "60", "--gain", "6", "--gbw", "10M", "--quiet"];
