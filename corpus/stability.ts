@@ -7,7 +7,7 @@
 // polynomial from the generic nodal path (the stamp program, not the
 // closed form), by the polynomial root finder. And the peak gains to every
 // stage output and op-amp output are checked against a dense evaluation.
-import { expect } from "vitest";
+import { expect, it } from "vitest";
 import { validateSpec } from "../src/design/spec.ts";
 import { chooseFamily } from "../src/design/family.ts";
 import { orderRange, searchDesign } from "../src/design/recovery.ts";
@@ -117,4 +117,20 @@ export function runStabilityCorpus(seed: number, n: number): Tally {
     expect(met && unstable.length > 0, `${id}: meets the spec with unstable stage(s) ${unstable.join(", ")}`).toBe(false);
   }
   return tally;
+}
+
+/**
+ * The corpus test of one seed: `CORPUS_SIZE` specs (default 1000), the
+ * invariants checked on each, the tally printed. One file per seed lets the
+ * runner spread the corpus over the machine's cores.
+ */
+export function stabilityCorpusTest(label: string, seed: number): void {
+  const n = Number(process.env["CORPUS_SIZE"] ?? 1000);
+  it(`corpus ${label} (${n} specs, seed ${seed}): no design meets the spec with an unstable stage; peaks agree with a dense evaluation to 0.01 dB`, () => {
+    const t = runStabilityCorpus(seed, n);
+    console.log(`stability corpus ${label}`, JSON.stringify(t));
+    expect(t.designs + t.skipped).toBe(n);
+    expect(t.designs).toBeGreaterThan(0.9 * n);
+    expect(t.peaksChecked).toBeGreaterThan(0.8 * n);
+  });
 }

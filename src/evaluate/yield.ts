@@ -24,7 +24,7 @@
  *
  * @module
  */
-import { BATCH, runBoards, type BoardRun, type BoardStage, type PartDistribution } from "./boards.ts";
+import { BATCH, runBoards, type BoardStage, type PartDistribution } from "./boards.ts";
 import type { MaskPlan } from "./mask.ts";
 
 /** The 97.5 % point of the standard normal distribution (two-sided 95 %). */
@@ -79,8 +79,6 @@ export interface YieldEstimate {
   readonly unstable: number;
   /** Whether `lower95 >= target`. */
   readonly met: boolean;
-  /** The worst board seen (its per-stage values), for reports. */
-  readonly worst: Pick<BoardRun, "worstBoard" | "worstValues"> & { readonly marginDb: number };
 }
 
 /**
@@ -99,20 +97,15 @@ export function sequentialYield(stages: readonly BoardStage[], plan: MaskPlan, o
   let boards = 0;
   let passed = 0;
   let unstable = 0;
-  let worst: YieldEstimate["worst"] = { worstBoard: 0, worstValues: [], marginDb: Infinity };
   let lower = 0;
   let upper = 1;
   while (boards < cap) {
     const run = runBoards(stages, plan, { boards: BATCH, seed, distribution, firstBoard: boards });
-    const local = run.worstBoard - boards;
-    const m = run.marginDb[local] as number;
-    const margin = Number.isNaN(m) ? -Infinity : m;
-    if (boards === 0 || margin < worst.marginDb) worst = { worstBoard: run.worstBoard, worstValues: run.worstValues, marginDb: margin };
     boards += BATCH;
     passed += run.passed;
     unstable += run.unstable;
     [lower, upper] = wilsonInterval(passed, boards);
     if (boards >= min && (lower >= target || upper < target)) break;
   }
-  return { fraction: passed / boards, lower95: lower, upper95: upper, boards, passed, unstable, met: lower >= target, worst };
+  return { fraction: passed / boards, lower95: lower, upper95: upper, boards, passed, unstable, met: lower >= target };
 }
