@@ -7,6 +7,12 @@
  * as-built check against the mask. A stage with a free gain absorbs the gain
  * error the stages before it left.
  *
+ * A bandpass made from an all-pole prototype is also split the other way
+ * (`zerosAtOrigin: "band-split"` in the tf layer: highpass sections on the
+ * lower edge's poles, lowpass sections on the upper edge's), and that band
+ * split is built instead when its stages need fewer op-amps (topologies chosen
+ * automatically only).
+ *
  * @module
  */
 import { SpecError, UnrealisableError } from "../errors.ts";
@@ -16,6 +22,7 @@ import type { ComponentValues } from "../topologies/types.ts";
 import { TWO_PI } from "../units/constants.ts";
 import type { DesignSpec } from "./spec.ts";
 import type { Prototype } from "./family.ts";
+import type { SectionCascade } from "../tf/types.ts";
 import { placeInInterval, transformPrototype, type FeasibleInterval } from "./placement.ts";
 import { describeSections, peakGrid, planStages, type SectionInfo, type StagePlan } from "./stages.ts";
 import { tuneStage, type TunedStage, type ValueSet } from "./components.ts";
@@ -171,15 +178,47 @@ function tuneCascade(spec: DesignSpec, exactPlans: readonly StagePlan[], wide: b
 export function buildAttempt(spec: DesignSpec, placed: PlacedPrototype, options: AttemptOptions): Attempt {
   const { proto, interval } = placed;
   const value = placeInInterval(interval, options.position);
-  const cascade = toSections(transformPrototype(spec, proto.zpk, interval, value), { order: "ascending-q" });
-  const grid = peakGrid(cascade);
-  const infos = describeSections(cascade, grid);
-  const { plans: exactPlans } = planStages(spec, infos, { forced: requestedTopologies(spec, infos) });
+  const { grid, exactPlans } = chooseSplit(spec, toSectionsFor(spec, proto, interval, value));
   const { plans, tuned, predistortion } = tuneCascade(spec, exactPlans, options.wide);
   const chosen = tuned.map((t) => t.best);
   const mask = checkMask(spec, boardStages(plans, chosen), spec.opamp);
   const gridHz = grid.map((w) => w / TWO_PI);
   return { proto, interval, position: options.position, value, gridHz, plans, exactPlans, tuned, chosen, mask, predistortion };
+}
+
+/** The cascades an attempt may build: the usual pairing and, for a bandpass from an all-pole prototype with automatic topologies, the band split. */
+function toSectionsFor(spec: DesignSpec, proto: Prototype, interval: FeasibleInterval, value: number): SectionCascade[] {
+  const system = transformPrototype(spec, proto.zpk, interval, value);
+  const usual = toSections(system, { order: "ascending-q" });
+  const auto = spec.topology === "auto" && spec.stageTopologies.length === 0;
+  if (spec.response !== "bandpass" || !auto || proto.zpk.zeros.length > 0) return [usual];
+  return [usual, toSections(system, { order: "ascending-q", zerosAtOrigin: "band-split" })];
+}
+
+/** The op-amps a set of plans builds. */
+function opampsOf(plans: readonly StagePlan[]): number {
+  let n = 0;
+  for (const p of plans) n += p.topology.opampCount;
+  return n;
+}
+
+/** Plan each candidate cascade and keep the first one with the fewest op-amps (the usual pairing wins ties). */
+function chooseSplit(spec: DesignSpec, cascades: readonly SectionCascade[]): { grid: Float64Array; exactPlans: readonly StagePlan[] } {
+  let best: { grid: Float64Array; exactPlans: readonly StagePlan[]; opamps: number } | null = null;
+  for (const [k, cascade] of cascades.entries()) {
+    const grid = peakGrid(cascade);
+    const infos = describeSections(cascade, grid);
+    let plans: readonly StagePlan[];
+    try {
+      plans = planStages(spec, infos, { forced: requestedTopologies(spec, infos) }).plans;
+    } catch (e) {
+      if (k === 0) throw e;
+      continue;
+    }
+    const opamps = opampsOf(plans);
+    if (best === null || opamps < best.opamps) best = { grid, exactPlans: plans, opamps };
+  }
+  return best as { grid: Float64Array; exactPlans: readonly StagePlan[] };
 }
 
 /** Whether the attempt's measured polarity satisfies the spec. */

@@ -15,6 +15,7 @@ export {
   toSections,
   type SectionOrdering,
   type ToSectionsOptions,
+  type OriginZeroSharing,
 } from "./sections.ts";
 export { MAX_GRID_POINTS, linearGrid, logGrid } from "./grid.ts";
 export { frequencyResponse, type ComplexResponse } from "./response.ts";

@@ -13,6 +13,16 @@
  * then a second one each (highpass), then to first-order sections. Real poles
  * stay first-order unless a zero pair needs a second-order denominator.
  *
+ * The band split (`zerosAtOrigin: "band-split"`) pairs the origin zeros the
+ * other way: as many as each section takes (two for a second-order one, one
+ * for a first-order one) in order of increasing pole frequency, so a bandpass made from an all-pole lowpass becomes highpass
+ * sections on the lower band edge's poles and lowpass sections on the upper
+ * edge's (with one bandpass section in the middle when the count is odd). The
+ * product is the same transfer function; what changes is which circuits can
+ * build it (a wide band's sections then have the low Q of the edge poles, and
+ * one-op-amp lowpass and highpass stages build them; common practice, no
+ * source).
+ *
  * Each section is normalised to unit "natural" gain (lowpass: DC gain 1,
  * highpass: HF gain 1, bandpass: gain 1 at w0, lowpass-notch: DC gain 1,
  * highpass-notch and symmetric notch: HF gain 1, allpass: magnitude 1,
@@ -39,7 +49,18 @@ export interface ToSectionsOptions {
    * @defaultValue "ascending-q"
    */
   readonly order?: SectionOrdering;
+  /**
+   * How zeros at the origin are shared among the second-order sections:
+   * `"spread"` (one per section first, giving bandpass sections) or
+   * `"band-split"` (two per section, lowest pole frequency first, giving
+   * highpass sections below and lowpass sections above; see the module header).
+   * @defaultValue "spread"
+   */
+  readonly zerosAtOrigin?: OriginZeroSharing;
 }
+
+/** How {@link toSections} shares zeros at the origin among second-order sections. */
+export type OriginZeroSharing = "spread" | "band-split";
 
 /** Largest root magnitude (rad/s) that {@link toSections} accepts: section coefficients hold w0^2, which must not overflow. */
 export const MAX_SECTION_FREQUENCY = 1e150;
@@ -184,7 +205,7 @@ function buildSection(slot: Slot): { section: Section; factor: number } {
 }
 
 /** Cascade from a validated zpk (internal core). */
-export function toSectionsUnchecked(system: Zpk, ordering: SectionOrdering): SectionCascade {
+export function toSectionsUnchecked(system: Zpk, ordering: SectionOrdering, zerosAtOrigin: OriginZeroSharing = "spread"): SectionCascade {
   // Snap near-axis zeros onto the jw axis and near-real values onto the real axis.
   const zerosIn = system.zeros.map((z) => {
     const m = Math.hypot(z.re, z.im);
@@ -261,9 +282,20 @@ export function toSectionsUnchecked(system: Zpk, ordering: SectionOrdering): Sec
     best?.zeros.push(v);
   }
 
-  // (c) zeros at the origin: one per second-order slot, then a second one, then first-order slots.
+  // (c) zeros at the origin: one per second-order slot, then a second one, then
+  // first-order slots; for the band split, two per slot by increasing w0.
   let left = origin;
   const second = slots.filter((s) => s.poles.length === 2);
+  if (zerosAtOrigin === "band-split") {
+    // every slot by its pole frequency (a first-order slot's is |p|), lowest first, filled to capacity
+    const w2 = (x: Slot): number => (x.poles.length === 2 ? slotDen(x.poles).a0 : (x.poles[0] as Complex).re ** 2);
+    for (const slot of [...slots].sort((x, y) => w2(x) - w2(y))) {
+      while (left > 0 && capacity(slot) >= 1) {
+        slot.zeros.push({ re: 0, im: 0 });
+        left--;
+      }
+    }
+  }
   for (const pass of [2, 1]) {
     for (const slot of second) {
       if (left > 0 && capacity(slot) >= pass) {
@@ -305,7 +337,7 @@ export function toSectionsUnchecked(system: Zpk, ordering: SectionOrdering): Sec
  *
  * @param system - transfer function with poles in the open left half-plane
  *   and no more zeros than poles
- * @param options - section ordering
+ * @param options - section ordering and the sharing of zeros at the origin
  * @returns the cascade; `evalCascade(result, s)` equals `evalZpk(system, s)`
  * @throws {@link InvalidArgumentError} when the zpk is malformed, has more zeros than poles, a pole not in the open left half-plane, a root beyond {@link MAX_SECTION_FREQUENCY}, or an unknown ordering
  * @example
@@ -334,6 +366,10 @@ export function toSections(system: Zpk, options?: ToSectionsOptions): SectionCas
     }
     ordering = o;
   }
+  const sharing = opts["zerosAtOrigin"] ?? "spread";
+  if (sharing !== "spread" && sharing !== "band-split") {
+    throw new InvalidArgumentError({ fn, path: "options.zerosAtOrigin", received: sharing, message: 'expected "spread" or "band-split"' });
+  }
   requireProperStable(fn, system, {
     improper: "cannot be split into sections; give no more zeros than poles",
     unstable: "section poles must lie in the open left half-plane (Re < 0)",
@@ -353,7 +389,7 @@ export function toSections(system: Zpk, options?: ToSectionsOptions): SectionCas
       }
     });
   }
-  return toSectionsUnchecked(system, ordering);
+  return toSectionsUnchecked(system, ordering, sharing);
 }
 
 /** Roots of b2 s^2 + b1 s + b0 (degree taken from the leading non-zero coefficient), stable formula. */

@@ -2,6 +2,8 @@ import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { evalCascade, evalSection, fromSections, toSections } from "../../src/tf/sections.ts";
 import { evalZpk, zpk } from "../../src/tf/zpk.ts";
+import { lowpassToBandpass } from "../../src/tf/transforms.ts";
+import { butterworth } from "../../src/approx/butterworth.ts";
 import type { Complex } from "../../src/math/complex.ts";
 import type { SecondOrderSection, Zpk } from "../../src/tf/types.ts";
 import { InvalidArgumentError } from "../../src/errors.ts";
@@ -211,4 +213,31 @@ describe("toSections vs scipy.signal.zpk2sos(analog=True, pairing='minimal')", (
       expect(originOurs).toBe(originScipy);
     });
   }
+});
+
+describe("toSections band split (zerosAtOrigin)", () => {
+  const bandpass = (order: number, bw: number): Zpk => lowpassToBandpass(butterworth(order), { w0: 1, bandwidth: bw });
+
+  it("gives highpass sections on the low poles and lowpass sections on the high poles, the same transfer function", () => {
+    for (const [order, bw] of [[2, 4], [3, 4], [3, 0.5], [4, 4], [5, 1], [5, 4]] as const) {
+      const z = bandpass(order, bw);
+      const split = toSections(z, { zerosAtOrigin: "band-split" });
+      const usual = toSections(z);
+      const kinds = [...split.sections].sort((a, b) => a.w0 - b.w0).map((s) => s.kind).join(" ");
+      expect(kinds, `order ${order}, bandwidth ${bw}`).toMatch(/^(highpass )+(bandpass )?(lowpass ?)+$/);
+      expect(usual.sections.filter((s) => s.kind === "bandpass").length).toBeGreaterThan(split.sections.filter((s) => s.kind === "bandpass").length);
+      for (const w of [0.05, 0.3, 1, 2.5, 17]) {
+        const s: Complex = { re: 0, im: w };
+        const want = evalZpk(z, s);
+        for (const c of [split, usual]) {
+          const got = evalCascade(c, s);
+          expect(Math.hypot(got.re - want.re, got.im - want.im)).toBeLessThanOrEqual(1e-12 * Math.hypot(want.re, want.im));
+        }
+      }
+    }
+  });
+
+  it("refuses an unknown sharing, naming the option", () => {
+    expect(() => toSections(bandpass(2, 1), { zerosAtOrigin: "halves" as never })).toThrow(/options\.zerosAtOrigin/);
+  });
 });
