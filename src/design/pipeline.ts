@@ -19,6 +19,7 @@ import { chooseFamily } from "./family.ts";
 import { orderRange, searchDesign } from "./recovery.ts";
 import { assembleResult } from "./result.ts";
 import { designForYieldAcrossFamilies } from "./yield.ts";
+import { feasibility } from "./relax.ts";
 import type { DesignResult } from "./types.ts";
 
 export { LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./result.ts";
@@ -29,7 +30,9 @@ export { LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./result.ts";
  * mask.
  *
  * A spec that the (forced) order cannot meet is not an error: the result says
- * `verification.meetsSpec: false` and gives the margins.
+ * `verification.meetsSpec: false` and gives the margins; when no order up to
+ * the limit meets the mask, `familyChoice.feasibility` says the order each
+ * family would need and the nearest relaxations that make the mask feasible.
  *
  * @param spec - the specification (validated here; see {@link FilterSpec})
  * @returns the design as plain readonly data
@@ -48,8 +51,10 @@ export { LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./result.ts";
  */
 export function designFilter(spec: unknown): DesignResult {
   const canonical: DesignSpec = validateSpec(spec);
-  const { family, order, choice } = chooseFamily(canonical);
+  const chosen = chooseFamily(canonical);
+  const { family, order } = chosen;
   const orders = orderRange(canonical, order);
+  const choice = order === null ? { ...chosen.choice, feasibility: feasibility(canonical, family, orders.last) } : chosen.choice;
   const nominal = searchDesign(canonical, family, orders);
   const robust = designForYieldAcrossFamilies(canonical, { family, orders, nominal }, choice);
   const actions = robust.family === family ? [...nominal.actions, ...robust.actions] : [...robust.actions];

@@ -23,6 +23,7 @@ import { clipWarning, headroomOf, opampPeaksOf, stagePeakGains, type StagePeakGa
 import { boardStages, meetsSpec as nominalMeets, polarityMet, type Attempt } from "./attempt.ts";
 import { classText, opampCount, yieldText, type YieldCandidate, type YieldOutcome } from "./yield.ts";
 import { significant } from "./text.ts";
+import { feasibilityText } from "./relax.ts";
 import type {
   BoardYield,
   DesignAction,
@@ -30,6 +31,7 @@ import type {
   DesignStage,
   DesignWarning,
   FamilyChoice,
+  Feasibility,
   Headroom,
   Placement,
   Verification,
@@ -212,7 +214,7 @@ function predistortionAction(spec: DesignSpec, stages: readonly DesignStage[]): 
 }
 
 /** Warnings about the whole cascade: an internal node peaking above the output, the polarity, clipping, a missed spec. */
-function cascadeWarnings(spec: DesignSpec, a: Attempt, peaks: readonly { gain: number; hz: number }[], headroom: Headroom | undefined): DesignWarning[] {
+function cascadeWarnings(spec: DesignSpec, a: Attempt, peaks: readonly { gain: number; hz: number }[], headroom: Headroom | undefined, feasible: Feasibility | undefined): DesignWarning[] {
   const warnings: DesignWarning[] = [];
   const outPeak = (peaks[peaks.length - 1] as { gain: number }).gain;
   peaks.slice(0, -1).forEach((p, i) => {
@@ -243,7 +245,7 @@ function cascadeWarnings(spec: DesignSpec, a: Attempt, peaks: readonly { gain: n
   if (!(m.marginDb >= 0 && polarityOk)) {
     warnings.push({
       code: "spec-not-met",
-      message: `the as-built filter misses the mask: passband margin ${significant(m.passbandMarginDb, 3)} dB, stopband margin ${significant(m.stopbandMarginDb, 3)} dB, gain margin ${significant(m.gainMarginDb, 3)} dB${spec.order !== null ? "; the spec fixes the order, so the pipeline did not raise it" : ""}.`,
+      message: `the as-built filter misses the mask: passband margin ${significant(m.passbandMarginDb, 3)} dB, stopband margin ${significant(m.stopbandMarginDb, 3)} dB, gain margin ${significant(m.gainMarginDb, 3)} dB${spec.order !== null ? "; the spec fixes the order, so the pipeline did not raise it" : ""}.${feasible === undefined ? "" : ` ${feasibilityText(feasible)}`}`,
     });
   } else if (clip !== null) {
     warnings.push({ code: "spec-not-met", message: "the as-built filter meets the mask, but an op-amp output clips at the spec's signal levels (see the clipping warning), so it does not meet the spec." });
@@ -408,7 +410,7 @@ export function assembleResult(spec: DesignSpec, decisions: DesignDecisions, rob
     placement: placementOf(a),
     stages,
     verification: verificationOf(spec, a, boards, robust, headroom),
-    warnings: [...records.flatMap((r) => r.warnings), ...cascadeWarnings(spec, a, found.map((p) => p.output), headroom), ...yieldWarning(spec, robust)],
+    warnings: [...records.flatMap((r) => r.warnings), ...cascadeWarnings(spec, a, found.map((p) => p.output), headroom, decisions.choice.feasibility), ...yieldWarning(spec, robust)],
     actions: predistorted === null ? [...decisions.actions] : [...decisions.actions, predistorted],
     yieldAlternatives: alternativesOf(robust),
   }));

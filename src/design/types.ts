@@ -171,6 +171,38 @@ export interface FamilyChoice {
   readonly candidates: readonly FamilyCandidate[];
   /** One or two sentences saying why. */
   readonly reason: string;
+  /** Present when no order up to the limit meets the mask: what the mask would take. */
+  readonly feasibility?: Feasibility;
+}
+
+/** The order one family needs for the mask (by its order formula; null when the formula cannot reach it). */
+export interface NeededOrder {
+  /** The family. */
+  readonly family: FamilyName;
+  /** Its order, or null. */
+  readonly order: number | null;
+}
+
+/** One relaxation of the mask that alone makes it feasible (the other figures as given). */
+export interface Relaxation {
+  /** The spec field it moves. */
+  readonly field: "stopband.minAttenuationDb" | "passband.maxLossDb" | "stopband.edgeHz" | "passband.edgeHz";
+  /** The relaxed value (dB, or Hz: one edge or the two band edges). */
+  readonly value: number | readonly number[];
+  /** The relaxation in words, e.g. "stopband edge at 1.09 kHz or above". */
+  readonly text: string;
+}
+
+/** What an infeasible mask would take (src/design/relax.ts). */
+export interface Feasibility {
+  /** The family the design uses. */
+  readonly family: FamilyName;
+  /** The highest order it may use. */
+  readonly order: number;
+  /** The order each family needs. */
+  readonly neededOrders: readonly NeededOrder[];
+  /** The nearest relaxations, each alone enough at `order` (may be empty). */
+  readonly relaxations: readonly Relaxation[];
 }
 
 /**
