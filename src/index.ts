@@ -37,6 +37,8 @@ export {
   type Issue,
 } from "./errors.ts";
 export { parseValue, formatValue, type ParseValueOptions, type FormatValueOptions } from "./units/index.ts";
+export type { FamilyName } from "./approx/index.ts";
+export type { SeriesName } from "./parts/index.ts";
 export {
   designFilter,
   validateSpec,

@@ -345,7 +345,8 @@ function writeOutputs(r: DesignResult, o: Map<string, string | true>, io: CliIo)
 }
 
 function design(spec: unknown, o: Map<string, string | true>, io: CliIo): number {
-  const r = designFilter(spec);
+  // the spec comes from JSON or flags: designFilter validates it at run time
+  const r = designFilter(spec as FilterSpec);
   const extra: string[] = [];
   const runs = o.get("yield");
   if (typeof runs === "string") {

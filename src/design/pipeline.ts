@@ -21,6 +21,7 @@ import { assembleResult } from "./result.ts";
 import { designForYieldAcrossFamilies } from "./yield.ts";
 import { feasibility } from "./relax.ts";
 import type { DesignResult } from "./types.ts";
+import type { FilterSpec } from "./spec-types.ts";
 
 export { LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./result.ts";
 
@@ -49,7 +50,7 @@ export { LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./result.ts";
  * r.stages.length; //=> 2
  * ```
  */
-export function designFilter(spec: unknown): DesignResult {
+export function designFilter(spec: FilterSpec): DesignResult {
   const canonical: DesignSpec = validateSpec(spec);
   const chosen = chooseFamily(canonical);
   const { family, order } = chosen;

@@ -151,7 +151,7 @@ describe("designFilter outcomes", () => {
   it("throws one SpecError listing every problem of a malformed spec", () => {
     let err: unknown;
     try {
-      designFilter({ response: "lowpas", passband: { edgeHz: -5, maxLossDb: 0.5 }, stopband: {}, order: 0 });
+      designFilter({ response: "lowpas", passband: { edgeHz: -5, maxLossDb: 0.5 }, stopband: {}, order: 0 } as unknown as FilterSpec);
     } catch (e) {
       err = e;
     }

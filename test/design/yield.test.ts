@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { designFilter, validateSpec } from "../../src/design/index.ts";
+import { designFilter, validateSpec, type FilterSpec } from "../../src/design/index.ts";
 import { SpecError } from "../../src/errors.ts";
 import { monteCarlo } from "../../src/analysis/index.ts";
 import { toBomCsv, bomLines, toMarkdown } from "../../src/report/index.ts";
@@ -22,7 +22,7 @@ describe("design for yield: the demo scenarios and the README example at default
     ["README example", readmeSpec],
   ];
   it.each(cases)("%s: the boards' 95 %% interval clears the 0.95 target, and the report says what was chosen", (_, spec) => {
-    const r = designFilter(spec);
+    const r = designFilter(spec as FilterSpec);
     const y = r.verification.yield;
     expect(r.verification.meetsSpec).toBe(true);
     expect(r.verification.stable).toBe(true);
@@ -120,7 +120,7 @@ describe("a target the parts cannot reach", () => {
     yieldCheck: { maxBoards: 512 },
   };
   it("does not meet the spec, says why, and lists what it measured", () => {
-    const r = designFilter(spec);
+    const r = designFilter(spec as FilterSpec);
     expect(r.verification.yield.met).toBe(false);
     expect(r.verification.boardsMeetSpec).toBe(false);
     expect(r.warnings.map((w) => w.code)).toContain("yield-not-met");
