@@ -25,6 +25,14 @@ export const CHEBYSHEV1_MAX_ORDER = 64;
 /** Largest passband ripple accepted, in dB. */
 export const MAX_RIPPLE_DB = 100;
 
+/**
+ * Smallest passband ripple (and smallest Chebyshev II / elliptic stopband
+ * attenuation) accepted, in dB: 1e-6 dB keeps the ripple factor
+ * sqrt(10^(r/10) - 1) near 5e-4, so every prototype pole of every supported
+ * order stays finite in double precision (below it the poles run to infinity).
+ */
+export const MIN_RIPPLE_DB = 1e-6;
+
 /** Poles of the Chebyshev I prototype for ripple factor eps (pairs, then the real pole). */
 export function chebyshev1Poles(order: number, eps: number): Complex[] {
   const mu = Math.asinh(1 / eps) / order;
@@ -58,7 +66,7 @@ export function chebyshev1(order: number, options: Chebyshev1Options): Zpk {
   const fn = "chebyshev1";
   requireInteger(fn, "order", order, { min: 1, max: CHEBYSHEV1_MAX_ORDER });
   const opts = requireOptions(fn, "options", options);
-  const rp = requireInRange(fn, "options.rippleDb", opts["rippleDb"], { min: 0, max: MAX_RIPPLE_DB, exclusiveMin: true });
+  const rp = requireInRange(fn, "options.rippleDb", opts["rippleDb"], { min: MIN_RIPPLE_DB, max: MAX_RIPPLE_DB });
   const eps2 = Math.expm1((rp / 10) * Math.LN10);
   const eps = Math.sqrt(eps2);
   const poles = chebyshev1Poles(order, eps);

@@ -18,6 +18,7 @@ import type { Zpk } from "../tf/types.ts";
 import { requireInRange, requireInteger, requireOptions } from "../validate.ts";
 import { freezeZpk, prodNeg, pushPair } from "./internal.ts";
 import type { Chebyshev2Options } from "./types.ts";
+import { MIN_RIPPLE_DB } from "./chebyshev1.ts";
 
 /** Highest Chebyshev II order accepted. */
 export const CHEBYSHEV2_MAX_ORDER = 64;
@@ -45,9 +46,8 @@ export function chebyshev2(order: number, options: Chebyshev2Options): Zpk {
   requireInteger(fn, "order", order, { min: 1, max: CHEBYSHEV2_MAX_ORDER });
   const opts = requireOptions(fn, "options", options);
   const as = requireInRange(fn, "options.attenuationDb", opts["attenuationDb"], {
-    min: 0,
+    min: MIN_RIPPLE_DB,
     max: MAX_ATTENUATION_DB,
-    exclusiveMin: true,
   });
   const invDe = Math.sqrt(Math.expm1((as / 10) * Math.LN10));
   const mu = Math.asinh(invDe) / order;

@@ -23,7 +23,7 @@ import { requireInRange, requireInteger, requireOptions } from "../validate.ts";
 import { freezeZpk, prodNeg, pushPair, requireAttenuationAboveRipple } from "./internal.ts";
 import { asnImagUnit, cdUnit, degreeModulus, landenSequence, modulusOf, snUnit } from "./landen.ts";
 import type { EllipticOptions } from "./types.ts";
-import { MAX_RIPPLE_DB } from "./chebyshev1.ts";
+import { MAX_RIPPLE_DB, MIN_RIPPLE_DB } from "./chebyshev1.ts";
 import { MAX_ATTENUATION_DB } from "./chebyshev2.ts";
 
 /** Highest elliptic order accepted. */
@@ -37,11 +37,10 @@ interface EllipticCore {
 function checkEllipticArgs(fn: string, order: number, options: EllipticOptions): { rp: number; as: number } {
   requireInteger(fn, "order", order, { min: 1, max: ELLIPTIC_MAX_ORDER });
   const opts = requireOptions(fn, "options", options);
-  const rp = requireInRange(fn, "options.rippleDb", opts["rippleDb"], { min: 0, max: MAX_RIPPLE_DB, exclusiveMin: true });
+  const rp = requireInRange(fn, "options.rippleDb", opts["rippleDb"], { min: MIN_RIPPLE_DB, max: MAX_RIPPLE_DB });
   const as = requireInRange(fn, "options.attenuationDb", opts["attenuationDb"], {
-    min: 0,
+    min: MIN_RIPPLE_DB,
     max: MAX_ATTENUATION_DB,
-    exclusiveMin: true,
   });
   requireAttenuationAboveRipple(fn, "options.attenuationDb", { rippleDb: rp, attenuationDb: as });
   return { rp, as };

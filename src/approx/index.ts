@@ -33,7 +33,7 @@ export type {
   UnitFrequencyMeaning,
 } from "./types.ts";
 export { butterworth, BUTTERWORTH_MAX_ORDER } from "./butterworth.ts";
-export { chebyshev1, CHEBYSHEV1_MAX_ORDER, MAX_RIPPLE_DB } from "./chebyshev1.ts";
+export { chebyshev1, CHEBYSHEV1_MAX_ORDER, MAX_RIPPLE_DB, MIN_RIPPLE_DB } from "./chebyshev1.ts";
 export { chebyshev2, CHEBYSHEV2_MAX_ORDER, MAX_ATTENUATION_DB } from "./chebyshev2.ts";
 export { elliptic, ellipticStopbandEdge, ELLIPTIC_MAX_ORDER } from "./elliptic.ts";
 export { bessel, BESSEL_MAX_ORDER, BESSEL_NORMALIZATIONS } from "./bessel.ts";

@@ -11,7 +11,7 @@ import { requireInRange, requireInteger, requireOneOf, requireOptions, requirePo
 import { requireZpk } from "../tf/check.ts";
 import { BESSEL_MAX_ORDER, BESSEL_NORMALIZATIONS, besselUnchecked } from "./bessel.ts";
 import { butterworth, BUTTERWORTH_MAX_ORDER } from "./butterworth.ts";
-import { chebyshev1, CHEBYSHEV1_MAX_ORDER, MAX_RIPPLE_DB } from "./chebyshev1.ts";
+import { chebyshev1, CHEBYSHEV1_MAX_ORDER, MAX_RIPPLE_DB, MIN_RIPPLE_DB } from "./chebyshev1.ts";
 import { chebyshev2, CHEBYSHEV2_MAX_ORDER, MAX_ATTENUATION_DB } from "./chebyshev2.ts";
 import { elliptic, ELLIPTIC_MAX_ORDER } from "./elliptic.ts";
 import { EDGE_SEARCH, requireAttenuationAboveRipple, scaleZpk, zpkMagnitude } from "./internal.ts";
@@ -79,9 +79,9 @@ export function prototype(spec: PrototypeSpec): Zpk {
   const family = requireOneOf(fn, "family", s["family"], FAMILY_NAMES);
   const order = requireInteger(fn, "order", s["order"], { min: 1, max: MAX_ORDERS[family] });
   const ripple = (): number =>
-    requireInRange(fn, "rippleDb", s["rippleDb"], { min: 0, max: MAX_RIPPLE_DB, exclusiveMin: true });
+    requireInRange(fn, "rippleDb", s["rippleDb"], { min: MIN_RIPPLE_DB, max: MAX_RIPPLE_DB });
   const atten = (): number =>
-    requireInRange(fn, "attenuationDb", s["attenuationDb"], { min: 0, max: MAX_ATTENUATION_DB, exclusiveMin: true });
+    requireInRange(fn, "attenuationDb", s["attenuationDb"], { min: MIN_RIPPLE_DB, max: MAX_ATTENUATION_DB });
   switch (family) {
     case "butterworth":
       return butterworth(order);

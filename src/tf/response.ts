@@ -392,7 +392,7 @@ function cascadePointBySection(
  * @param system - a zpk transfer function or a section cascade
  * @param w - angular frequencies (rad/s), finite
  * @returns `{ re, im }` of `H(jw)`, one entry per grid point
- * @throws {@link InvalidArgumentError} when the system or grid is malformed, or a grid point is exactly a jw-axis pole
+ * @throws {@link InvalidArgumentError} when the system or grid is malformed, a grid point is exactly a jw-axis pole, or the response overflows the double range at a grid point (the message names it: scale the gain or move the roots)
  * @example
  * ```ts
  * const h = zpk([], [{ re: -1, im: 0 }], 1);
@@ -404,5 +404,16 @@ export function frequencyResponse(system: Zpk | SectionCascade, w: Float64Array)
   requireSystem(fn, "system", system);
   const grid = requireGrid(fn, "w", w);
   checkNoAxisPole(fn, polesOf(system), grid);
-  return isCascade(system) ? cascadeResponseUnchecked(system, grid) : zpkResponseUnchecked(system, grid);
+  const h = isCascade(system) ? cascadeResponseUnchecked(system, grid) : zpkResponseUnchecked(system, grid);
+  for (let i = 0; i < grid.length; i++) {
+    if (!Number.isFinite(h.re[i] as number) || !Number.isFinite(h.im[i] as number)) {
+      throw new InvalidArgumentError({
+        fn,
+        path: `w[${i}]`,
+        received: grid[i],
+        message: "the response at this frequency is beyond the double range (a pole or zero product overflows or underflows to 0/0); scale the gain or the roots, or leave this frequency out",
+      });
+    }
+  }
+  return h;
 }

@@ -274,3 +274,10 @@ describe("response argument validation", () => {
     expect(() => frequencyResponse(integrator, Float64Array.of(0, 1))).toThrow(/jw axis/);
   });
 });
+
+describe("frequencyResponse never returns a non-finite value", () => {
+  it("refuses a response beyond the double range, naming the grid point", () => {
+    const huge = { zeros: [], poles: [{ re: -1e-300, im: 0 }], gain: 1.7e308 };
+    expect(() => frequencyResponse(huge as never, Float64Array.of(1e-310, 1))).toThrow(/w\[0\].*beyond the double range/s);
+  });
+});
