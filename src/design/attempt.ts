@@ -43,6 +43,8 @@ export interface AttemptOptions {
   readonly position: number;
   /** Search more capacitors and neighbouring values per stage (the re-tuning steps). */
   readonly wide: boolean;
+  /** Topology ids the automatic stage choice leaves out (see {@link sturdierStagesOf}). */
+  readonly avoid?: ReadonlySet<string>;
 }
 
 /** A design built at one prototype and position, checked against the mask. */
@@ -178,7 +180,7 @@ function tuneCascade(spec: DesignSpec, exactPlans: readonly StagePlan[], wide: b
 export function buildAttempt(spec: DesignSpec, placed: PlacedPrototype, options: AttemptOptions): Attempt {
   const { proto, interval } = placed;
   const value = placeInInterval(interval, options.position);
-  const { grid, exactPlans } = chooseSplit(spec, toSectionsFor(spec, proto, interval, value));
+  const { grid, exactPlans } = chooseSplit(spec, toSectionsFor(spec, proto, interval, value), options.avoid);
   const { plans, tuned, predistortion } = tuneCascade(spec, exactPlans, options.wide);
   const chosen = tuned.map((t) => t.best);
   const mask = checkMask(spec, boardStages(plans, chosen), spec.opamp);
@@ -203,14 +205,14 @@ function opampsOf(plans: readonly StagePlan[]): number {
 }
 
 /** Plan each candidate cascade and keep the first one with the fewest op-amps (the usual pairing wins ties). */
-function chooseSplit(spec: DesignSpec, cascades: readonly SectionCascade[]): { grid: Float64Array; exactPlans: readonly StagePlan[] } {
+function chooseSplit(spec: DesignSpec, cascades: readonly SectionCascade[], avoid: ReadonlySet<string> | undefined): { grid: Float64Array; exactPlans: readonly StagePlan[] } {
   let best: { grid: Float64Array; exactPlans: readonly StagePlan[]; opamps: number } | null = null;
   for (const [k, cascade] of cascades.entries()) {
     const grid = peakGrid(cascade);
     const infos = describeSections(cascade, grid);
     let plans: readonly StagePlan[];
     try {
-      plans = planStages(spec, infos, { forced: requestedTopologies(spec, infos) }).plans;
+      plans = planStages(spec, infos, { forced: requestedTopologies(spec, infos), ...(avoid === undefined ? {} : { avoid }) }).plans;
     } catch (e) {
       if (k === 0) throw e;
       continue;
@@ -219,6 +221,30 @@ function chooseSplit(spec: DesignSpec, cascades: readonly SectionCascade[]): { g
     if (best === null || opamps < best.opamps) best = { grid, exactPlans: plans, opamps };
   }
   return best as { grid: Float64Array; exactPlans: readonly StagePlan[] };
+}
+
+/** Stage kinds whose one-op-amp circuits trade sensitivity for op-amps: the finite-zero sections and the bandpass. */
+const TRADED_KINDS: ReadonlySet<string> = new Set(["lowpass-notch", "highpass-notch", "notch", "bandpass"]);
+
+/**
+ * The topologies to leave out for a sturdier version of an attempt: every
+ * automatically chosen second-order stage built with one op-amp where the
+ * section is a finite-zero or bandpass section, or has a Q above 2 (their
+ * pole Q and notch depth follow part ratios with sensitivities of order Q
+ * or more; the multi-amplifier stages have sensitivities near 1; R. Schaumann
+ * & M. E. Van Valkenburg, "Design of Analog Filters", 2001, ch. 3 and 4 on
+ * sensitivity, from memory). Empty when there is nothing to trade.
+ *
+ * @param a - the attempt
+ * @returns topology ids to avoid
+ */
+export function sturdierStagesOf(a: Attempt): ReadonlySet<string> {
+  const out = new Set<string>();
+  for (const p of a.plans) {
+    if (!p.automatic || p.topology.order !== 2 || p.topology.opampCount !== 1) continue;
+    if (TRADED_KINDS.has(p.info.kind) || (p.info.q ?? 0) > 2) out.add(p.topology.id);
+  }
+  return out;
 }
 
 /** Whether the attempt's measured polarity satisfies the spec. */

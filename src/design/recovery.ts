@@ -25,7 +25,7 @@ import { intervalWidth, prototypeInterval, upHelpsPassband } from "./placement.t
 import type { StagePlan } from "./stages.ts";
 import type { TunedStage, ValueSet } from "./components.ts";
 import { checkMask, gridMarginDb, maskGrid, stageMagnitudeSquared } from "./verify.ts";
-import { boardStages, buildAttempt, meetsSpec, type Attempt, type PlacedPrototype } from "./attempt.ts";
+import { boardStages, buildAttempt, meetsSpec, sturdierStagesOf, type Attempt, type PlacedPrototype } from "./attempt.ts";
 import { significant } from "./text.ts";
 import type { DesignAction } from "./types.ts";
 
@@ -202,8 +202,30 @@ const tightenStep: RecoveryStep = {
   },
 };
 
+/** Ids of the topologies an attempt's stages use, for the action text. */
+function namesOf(ids: ReadonlySet<string>): string {
+  return [...ids].map((id) => `"${id}"`).join(", ");
+}
+
+/**
+ * 4. Sturdier stages: the one-op-amp finite-zero, bandpass and high-Q stages
+ * rebuilt as multi-amplifier stages (attempt.ts `sturdierStagesOf`), re-tuned
+ * to the mask: more op-amps, but pole Q and notch depth that part rounding
+ * and the op-amp move far less.
+ */
+const sturdierStep: RecoveryStep = {
+  code: "sturdier-stages",
+  run(spec, placed, previous) {
+    const avoid = sturdierStagesOf(previous);
+    if (avoid.size === 0) return null;
+    const attempt = retuneToMask(spec, buildAttempt(spec, placed, { position: previous.position, wide: true, avoid }));
+    const message = `Rebuilt the stages that used ${namesOf(avoid)} with lower-sensitivity multi-amplifier stages (worst margin now ${significant(attempt.mask.marginDb, 3)} dB).`;
+    return { attempt: better(previous, attempt), actions: [{ code: "sturdier-stages", message }] };
+  },
+};
+
 /** The ladder at one order, in the order the steps are taken. */
-export const RECOVERY_STEPS: readonly RecoveryStep[] = [retuneStep, moveStep, tightenStep];
+export const RECOVERY_STEPS: readonly RecoveryStep[] = [retuneStep, moveStep, tightenStep, sturdierStep];
 
 /** What designing at one order gave. */
 export interface OrderOutcome {

@@ -308,6 +308,8 @@ function describeReason(t: Topology, info: SectionInfo, automatic: boolean, got:
 export interface PlanOptions {
   /** Per-stage forced topology id (`"auto"` where free). */
   readonly forced: readonly string[];
+  /** Topology ids automatic choices leave out, where another topology can build the stage. */
+  readonly avoid?: ReadonlySet<string>;
 }
 
 interface Assignment {
@@ -316,7 +318,7 @@ interface Assignment {
   readonly negatives: number;
 }
 
-function assign(spec: DesignSpec, infos: readonly SectionInfo[], forced: readonly string[]): Assignment | string {
+function assign(spec: DesignSpec, infos: readonly SectionInfo[], forced: readonly string[], avoid?: ReadonlySet<string>): Assignment | string {
   const n = infos.length;
   // Peaks of the unit partial cascades.
   const partial = new Float64Array((infos[0] as SectionInfo).unitMag.length).fill(1);
@@ -336,7 +338,11 @@ function assign(spec: DesignSpec, infos: readonly SectionInfo[], forced: readonl
     const wish = last ? total / product : spec.gain / (peaks[i] as number) / product;
     const choice = forced[i] ?? "auto";
     let best: { t: Topology; got: number; s: number } | null = null;
-    const pool = choice === "auto" ? topologiesFor({ kind: info.kind, order: info.order }) : [getTopology(choice)];
+    let pool = choice === "auto" ? topologiesFor({ kind: info.kind, order: info.order }) : [getTopology(choice)];
+    if (choice === "auto" && avoid !== undefined && avoid.size > 0) {
+      const kept = pool.filter((t) => !avoid.has(t.id));
+      if (kept.some((t) => realisableGain(t, info, 1) !== null)) pool = kept;
+    }
     for (const t of pool) {
       if (!t.kinds.includes(info.kind) || t.order !== info.order) continue;
       const got = realisableGain(t, info, wish);
@@ -389,7 +395,7 @@ export function planStages(
   infos: readonly SectionInfo[],
   options: PlanOptions,
 ): { readonly plans: readonly StagePlan[]; readonly polarityOk: boolean } {
-  const first = assign(spec, infos, options.forced);
+  const first = assign(spec, infos, options.forced, options.avoid);
   if (typeof first === "string") {
     const forcedAny = options.forced.some((f) => f !== "auto");
     if (forcedAny) throw new SpecError("designFilter", [{ path: "topology", message: first }]);
@@ -408,7 +414,7 @@ export function planStages(
     for (const t of topologiesFor({ kind: info.kind, order: info.order })) {
       if (t.inverting === current.inverting) continue;
       const forced = infos.map((_, j) => (j === i ? t.id : (options.forced[j] ?? "auto")));
-      const a = assign(spec, infos, forced);
+      const a = assign(spec, infos, forced, options.avoid);
       if (typeof a === "string" || !ok(a)) continue;
       // Keep the flipped stage marked as automatic.
       const plans = a.plans.map((p, j) => (j === i ? { ...p, automatic: true, reason: `${describeReason(p.topology, p.info, true, Math.abs(p.target.gain), Math.abs(p.target.gain))}; chosen for the requested polarity` } : p));

@@ -389,6 +389,7 @@ export interface DesignAction {
     | "moved-placement"
     | "raised-order"
     | "tightened-prototype"
+    | "sturdier-stages"
     | "kept-best-attempt"
     | "predistorted-for-gbw"
     | "centred-for-yield"

@@ -11,7 +11,12 @@
  *    classes where the spec leaves them free (capacitors and resistors a
  *    class at a time, capacitors first: a filter's response is usually most
  *    sensitive to them, common practice, no source);
- * 2. design centring: the candidate placements inside the slack interval
+ * 2. where the design traded sensitivity for op-amps (one-op-amp
+ *    finite-zero, bandpass or high-Q stages, attempt.ts `sturdierStagesOf`),
+ *    the same order with multi-amplifier stages, again from the default
+ *    classes up (after the one-op-amp design has failed at every class, so
+ *    tighter parts are preferred to more op-amps);
+ * 3. design centring: the candidate placements inside the slack interval
  *    and the prototypes designed with part of the ripple and attenuation
  *    held back (family.ts `MARGIN_LEVELS`), each re-tuned to the mask, are
  *    screened and the one with the highest predicted yield is confirmed (a sampled form of design centring: S. W. Director & G. D.
@@ -19,7 +24,7 @@
  *    IEEE Trans. Circuits Syst. 24(7):363-372, 1977, centre the nominal point
  *    in the acceptable region; here the candidates are discrete, as the
  *    parts are), again from the default classes up;
- * 3. one order more (up to the order range's last), and again from 1.
+ * 4. one order more (up to the order range's last), and again from 1.
  *    Centring is tried at an order only when its tightest classes come
  *    within half the target, so hopeless orders cost a screen, not a search.
  *
@@ -45,7 +50,7 @@ import { TWO_PI } from "../units/constants.ts";
 import type { DesignSpec } from "./spec.ts";
 import { designPrototype, stricterLevels } from "./family.ts";
 import { intervalWidth, prototypeInterval, upHelpsPassband } from "./placement.ts";
-import { buildAttempt, meetsSpec, type Attempt, type PlacedPrototype } from "./attempt.ts";
+import { buildAttempt, meetsSpec, sturdierStagesOf, type Attempt, type PlacedPrototype } from "./attempt.ts";
 import { maskPlan, spanRadS } from "./verify.ts";
 import { designAtOrder, orderRange, retuneToMask, searchDesign, type OrderRange, type SearchOutcome } from "./recovery.ts";
 import { significant } from "./text.ts";
@@ -313,20 +318,28 @@ export function designForYield(spec: DesignSpec, family: FamilyName, orders: Ord
       base = outcome.attempt;
     }
     const baseScreen = screenYield(spec, base, classTolerances(base, defaults));
-    const designs: { attempt: Attempt; change: string }[] = [{ attempt: base, change: order === startOrder ? "the nominal design" : `order ${order}` }];
-    // first the design as it is at each class, then (only when none will do) the centring candidates at each class
+    const baseDesign = { attempt: base, change: order === startOrder ? "the nominal design" : `order ${order}` };
+    // first the design as it is at each class; then, where it traded sensitivity for op-amps, the same
+    // order with multi-amplifier stages at each class; then (only when none will do) the centring
+    // candidates at each class
     let bestPredicted = 0;
-    for (const phase of [0, 1]) {
-      if (phase === 1) {
+    for (const phase of [0, 1, 2]) {
+      let pool: { attempt: Attempt; change: string }[];
+      if (phase === 0) pool = [baseDesign];
+      else if (phase === 1) {
+        const sturdier = sturdierVariant(spec, base);
+        if (sturdier === null) continue;
+        pool = [sturdier];
+      } else {
         // centring is worth its cost only where the tightest classes come within reach of the target
         if (bestPredicted < spec.yieldTarget / 2) break;
-        designs.push(...centringCandidates(spec, base, baseScreen.short));
+        pool = centringCandidates(spec, base, baseScreen.short);
       }
       for (const classes of ladder) {
         let pick: { attempt: Attempt; change: string; fraction: number } | null = null;
-        for (const d of phase === 0 ? designs : designs.slice(1)) {
+        for (const d of pool) {
           const f = d.attempt === base && classes === defaults ? baseScreen.fraction : screenYield(spec, d.attempt, classTolerances(d.attempt, classes)).fraction;
-          if (pick === null || f > pick.fraction) pick = { ...d, fraction: f };
+          if (pick === null || preferable(spec, { ...d, fraction: f }, pick)) pick = { ...d, fraction: f };
         }
         if (pick === null) continue;
         bestPredicted = Math.max(bestPredicted, pick.fraction);
@@ -338,7 +351,8 @@ export function designForYield(spec: DesignSpec, family: FamilyName, orders: Ord
         if (!clearsTarget(spec, c.estimate)) continue;
         const chosen = classes === defaults ? c : (allocatePerPart(spec, c) ?? c);
         if (order !== startOrder) actions.push({ code: "raised-order", message: `Raised the order to ${order} for the yield target.` });
-        if (pick.attempt !== base) {
+        if (phase === 1) actions.push({ code: "sturdier-stages", message: `Built the design with ${pick.change} for the yield target (lower sensitivity to the parts, more op-amps).` });
+        else if (pick.attempt !== base) {
           actions.push({
             code: "centred-for-yield",
             message: `Centred the design for yield: ${pick.change} (the first-order tolerance model put the ${baseScreen.short ?? "binding"} constraint closest to failing).`,
@@ -359,6 +373,36 @@ export function designForYield(spec: DesignSpec, family: FamilyName, orders: Ord
     message: `No candidate reached the yield target of ${significant(spec.yieldTarget * 100, 3)} %; kept the one with the best interval (${best.change}: ${yieldText(best.estimate)} at ${classText(best.classes)}).`,
   });
   return { chosen: best, candidates, actions };
+}
+
+/**
+ * The attempt rebuilt with multi-amplifier stages where it used one-op-amp
+ * finite-zero, bandpass or high-Q stages (attempt.ts `sturdierStagesOf`),
+ * re-tuned to the mask; null when there is nothing to trade or the rebuilt
+ * design misses the mask.
+ */
+function sturdierVariant(spec: DesignSpec, base: Attempt): { attempt: Attempt; change: string } | null {
+  const avoid = sturdierStagesOf(base);
+  if (avoid.size === 0) return null;
+  const placed: PlacedPrototype = { proto: base.proto, interval: base.interval };
+  const a = retuneToMask(spec, buildAttempt(spec, placed, { position: base.position, wide: false, avoid }));
+  if (!meetsSpec(spec, a)) return null;
+  return { attempt: a, change: `multi-amplifier stages instead of ${[...avoid].map((id) => `"${id}"`).join(", ")}` };
+}
+
+/**
+ * Whether candidate `x` is to be preferred to `y` at one tolerance class: when
+ * both are predicted to clear the yield target, the one with fewer op-amps
+ * (then the higher prediction); otherwise the higher prediction.
+ */
+function preferable(spec: DesignSpec, x: { attempt: Attempt; fraction: number }, y: { attempt: Attempt; fraction: number }): boolean {
+  const likely = (f: number): boolean => f >= selectionTarget(spec);
+  if (likely(x.fraction) && likely(y.fraction)) {
+    const ox = opampCount(x.attempt);
+    const oy = opampCount(y.attempt);
+    if (ox !== oy) return ox < oy;
+  }
+  return x.fraction > y.fraction;
 }
 
 /** Relative cost of a tolerance under a class table (the class with that tolerance, or the nearest tighter one). */

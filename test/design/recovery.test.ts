@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { validateSpec, type FilterSpec } from "../../src/design/spec.ts";
 import { chooseFamily, choosePrototype } from "../../src/design/family.ts";
 import { prototypeInterval } from "../../src/design/placement.ts";
-import { buildAttempt, type PlacedPrototype } from "../../src/design/attempt.ts";
+import { buildAttempt, sturdierStagesOf, type PlacedPrototype } from "../../src/design/attempt.ts";
 import { RECOVERY_STEPS, orderRange, retuneToMask, searchDesign } from "../../src/design/recovery.ts";
 import { designFilter } from "../../src/design/pipeline.ts";
 
@@ -31,8 +31,27 @@ function placedAt(input: FilterSpec, order?: number): { spec: ReturnType<typeof 
 }
 
 describe("RECOVERY_STEPS", () => {
-  it("re-tunes, then moves inside the slack, then tightens the prototype", () => {
-    expect(RECOVERY_STEPS.map((s) => s.code)).toEqual(["re-tuned-to-mask", "moved-placement", "tightened-prototype"]);
+  it("re-tunes, then moves inside the slack, then tightens the prototype, then builds sturdier stages", () => {
+    expect(RECOVERY_STEPS.map((s) => s.code)).toEqual(["re-tuned-to-mask", "moved-placement", "tightened-prototype", "sturdier-stages"]);
+  });
+
+  it("the sturdier step rebuilds one-op-amp finite-zero, bandpass and high-Q stages with multi-amplifier stages, or does not apply", () => {
+    const { spec, placed } = placedAt(bandstop);
+    const first = buildAttempt(spec, placed, { position: 0.5, wide: false });
+    const avoid = sturdierStagesOf(first);
+    const step = RECOVERY_STEPS[3]!;
+    const out = step.run(spec, placed, first);
+    if (avoid.size === 0) expect(out).toBeNull();
+    else {
+      expect(out!.actions.map((a) => a.code)).toEqual(["sturdier-stages"]);
+      const rebuilt = buildAttempt(spec, placed, { position: 0.5, wide: true, avoid });
+      for (const p of rebuilt.plans) if (p.automatic) expect(avoid.has(p.topology.id), p.topology.id).toBe(false);
+    }
+    // a design of Sallen-Key lowpass stages at low Q has nothing to trade
+    const low = placedAt({ response: "lowpass", passband: { edgeHz: 1000, maxLossDb: 3 }, stopband: { edgeHz: 8000, minAttenuationDb: 30 }, family: "butterworth" });
+    const lowFirst = buildAttempt(low.spec, low.placed, { position: 0.5, wide: false });
+    expect(sturdierStagesOf(lowFirst).size).toBe(0);
+    expect(step.run(low.spec, low.placed, lowFirst)).toBeNull();
   });
 
   it("each step records its own action and the tightening applies to equiripple families only", () => {
