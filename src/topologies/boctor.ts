@@ -7,7 +7,9 @@
  * filter", IEEE Trans. Circuits Syst. CAS-22(11):875-881, 1975, and his
  * highpass-notch companion circuit (Electronics Letters, 1975, as the
  * project brief gives it; also S. A. Boctor, US patent 3,993,959,
- * "Second-order canonical active filter", 1976).
+ * "Second-order canonical active filter", 1976). The brief names the author
+ * "P. E. Boctor"; the patent names Stalin A. Boctor (Northern Electric), so
+ * the initials here follow the patent.
  *
  * Provenance, stated plainly: Boctor's published schematics and design
  * equations could not be consulted while this file was written. The circuits
@@ -48,33 +50,47 @@
  *
  * The zeros are on the jw axis when N1 = 0 (the nominal design); a part
  * error leaves a residual N1 that sets the notch depth
- * |H(j wz)|/|H(0)| = |N1| wz / N0 (lowpass-notch).
+ * |H(j wz)|/|H(ref)| = |N1| wz D0/(N0 |D(j wz)|) for the lowpass-notch
+ * (reference DC; the same with gamma C1 C2 for N0 and C1 C2 for D0 at HF for
+ * the highpass-notch). The numerator does not involve the op-amp gain A (see
+ * below), so a finite gain or GBW neither moves the zeros nor fills the notch
+ * (for an op-amp without output resistance; with one, the input reaches the
+ * output node through C2 and R3 and the zeros move a little).
  *
- * Design (C1 = C2 = C, derived here): G3 = w0 C/(2Q), Gt = 2 Q w0 C,
- * r = wz/w0, gamma = K/r^2 (lowpass-notch, K the DC gain) or K (highpass-notch,
- * K the HF gain); N1 = 0 gives G1 = gamma (Gt + 2 G3 r^2) in both forms, and
- * G2 = Gt - G1; R6: G6 = G3 (r^2 - 1) (lowpass-notch) or
+ * Design (derived here; C2 = C, C1 = m C, m the capacitor ratio, 1 by
+ * default): Q = sqrt(Gt/G3) sqrt(m)/(1 + m) and w0^2 = G3 Gt/(m C^2) give
+ * G3 = w0 C m/(Q (1 + m)), Gt = w0 C Q (1 + m); r = wz/w0;
+ * gamma = K/r^2 (lowpass-notch, K the DC gain) or K (highpass-notch, K the
+ * HF gain); N1 = 0 gives G1 = gamma (Gt + (1 + m) G3 r^2/m) in both forms
+ * and G2 = Gt - G1; R6: G6 = G3 (r^2 - 1) (lowpass-notch) or
  * G6 = G3 (1 - r^2) gamma/(1 - gamma) (highpass-notch); the divider
- * G4 = gamma Gt, G5 = (1 - gamma) Gt (so R4 || R5 = R1 || R2).
+ * G4 = gamma Gt, G5 = (1 - gamma) Gt (so R4 || R5 = R1 || R2). At
+ * m = 1: G3 = w0 C/(2Q), Gt = 2 Q w0 C, G1 = gamma (Gt + 2 G3 r^2).
  *
  * Realisable range (enforced by `check`):
- * - gain: G2 > 0 needs gamma < 2Q^2/(2Q^2 + r^2). `check` asks for at most
- *   99 % of that bound so that R2 stays below 100 (R1 || R2): the gain at
- *   the reference frequency is free in (0, 0.99 * 2 Q^2 r^2/(2 Q^2 + r^2)]
- *   for the lowpass-notch (DC) and (0, 0.99 * 2 Q^2/(2 Q^2 + r^2)] for the
- *   highpass-notch (HF; always below 1). A larger gain: lower the stage gain
- *   (gain elsewhere) or use the Tow-Thomas form.
+ * - gain: G2 > 0 needs gamma < Q^2 (1 + m)/(Q^2 (1 + m) + r^2). `check`
+ *   accepts at most 99 % of that bound (R2 below 100 (R1 || R2)), with
+ *   m <= 20, so the gain at the reference frequency is free in
+ *   (0, 0.99 r^2 * 21 Q^2/(21 Q^2 + r^2)] for the lowpass-notch (DC) and
+ *   (0, 0.99 * 21 Q^2/(21 Q^2 + r^2)] for the highpass-notch (HF, always
+ *   below 1: at high frequency C1 and C2 tie the inverting input to the
+ *   output, so the stage is a follower of the divider R4-R5). Without a
+ *   chosen ratio the design takes m = 1 while the gain stays within 90 % of
+ *   the bound there, else the smallest m (up to 20) that puts it at 90 %
+ *   (R2 = 10 (R1 || R2)). A larger gain: lower the stage gain (make it up
+ *   elsewhere) or use the Tow-Thomas form; the messages say which.
  * - zero: 1.01 <= fz/f0 for the lowpass-notch and fz/f0 <= 1/1.01 for the
  *   highpass-notch (closer to the pole R6 grows beyond about 50 R3:
  *   R6 = R3/(r^2 - 1)); no other bound (R6 shrinks as R3/(r^2 - 1) far from
  *   the pole, R6 -> R3 gamma/(1 - gamma) as fz -> 0). For a zero closer to
  *   the pole use the Tow-Thomas notch forms.
- * - Q: any, but the resistor spread is R3/(R1 || R2) = 4 Q^2 (400 at Q = 10),
- *   as in the attenuated MFB bandpass; there is no Q enhancement.
+ * - Q: any, but the resistor spread is R3/(R1 || R2) = Q^2 (1 + m)^2/m
+ *   (4 Q^2 at m = 1, 400 at Q = 10), as in the attenuated MFB bandpass;
+ *   there is no Q enhancement.
  *
- * Choices: `capacitor` sets C1 (= C2); `resistor` sets R1; default
- * R1 = 10 kOhm. No ratio choices (equal capacitors give the largest Q for a
- * given resistor spread).
+ * Choices: `capacitorRatio` m = C1/C2 (0 < m <= 20; a larger m allows a
+ * larger gain at the cost of resistor spread); `capacitor` sets C2;
+ * `resistor` sets R1; default R1 = 10 kOhm. No `resistorRatio` (refused).
  *
  * Finite op-amp (closed form, exact for the single-pole model without output
  * resistance, derived here): H = N / (D + Dp/A) with
@@ -85,31 +101,42 @@
  * coefficient is a sum of positive terms except N1 (the cancellation that
  * makes the notch, a difference by design) and the highpass-notch N0.
  *
- * Sensitivities at a typical design (f0 = 1 kHz, Q = 2, gain 1, fz = 2 kHz
- * lowpass-notch / fz = 500 Hz highpass-notch, gain 0.8), computed here as
- * central differences (+-1e-6 relative) of `figures` (S = d ln y / d ln x):
- *   f0: -1/2 to each of C1, C2, R3; -(R2/(R1+R2))/2 to R1 and -(R1/(R1+R2))/2
- *       to R2 (sum 1/2 over R1, R2); 0 to R4, R5, R6 and the op-amp (ideal).
- *   Q:  +1/2 to R3, -(R2/(R1+R2))/2 to R1, -(R1/(R1+R2))/2 to R2, +-0 to
- *       C1, C2 at equal values (|S| <= 1/2 everywhere; no positive feedback).
- *   fz (lowpass-notch): -1/2 to C1, C2; wz^2 = Gt (G3 + G6)/(C1 C2), so
- *       S(R3) = -G3/(2(G3 + G6)) = -1/(2 r^2) = -0.125, S(R6) = -0.375,
- *       S(R1) = -0.43, S(R2) = -0.07 (this design); 0 to R4, R5.
- *   fz (highpass-notch): larger, because wz^2 is a difference:
- *       S(R6) = (1 - r^2)/(2 r^2) = 1.5, S(R4) = -S(R5) = -(1 - r^2)/(2 r^2 (1 - gamma)) = -7.5.
- *   Notch depth: N1 is a difference of terms about Gt C in size, so a 1 %
- *   error in R1 leaves N1 about 0.01 gamma (Gt + 2 G3 r^2) C and a notch
- *   depth of about 20 log10(0.01 (2Q + r^2/Q)/(Q r^2)... ) : about -40 dB
- *   below the DC gain at this design for 1 % parts (computed in the tests
- *   as |H(j wz)|/|H(0)|); with an ideal op-amp and nominal values it is
- *   limited by rounding only (below -200 dB).
- *   Op-amp: with a finite GBW the notch fills in and moves slightly; the
- *   GBW demand is computed numerically from the finite-gain response (f0
- *   and Q within 1 %), like every stage here.
+ * Sensitivities (S = d ln y/d ln x) at two typical designs, computed here
+ * as central differences (+-1e-6 relative) of `figures`; notch depth with a
+ * +1 % error in one part, ideal op-amp, |H(j wz)|/|H(ref)| at the built wz:
+ *   lowpass-notch f0 = 1 kHz, Q = 2, fz = 2 kHz, DC gain 1 (m = 1; R1 10k,
+ *   R2 6k, R3 60k, R4 15k, R5 5k, R6 20k, C1 = C2 = 10.6 nF):
+ *     part  S(f0)   S(Q)    S(fz)   S(gain)  depth
+ *     R1   -0.19   -0.19   -0.19    0        -43 dB
+ *     R2   -0.31   -0.31   -0.31    0        -48 dB
+ *     R3   -0.50   +0.50   -0.13   +0.75     -62 dB
+ *     R4    0       0       0      -0.75     -43 dB
+ *     R5    0       0       0      +0.75     -43 dB
+ *     R6    0       0      -0.38   -0.75     -53 dB
+ *     C1   -0.50    0      -0.50    0        -56 dB
+ *     C2   -0.50    0      -0.50    0        -56 dB
+ *   highpass-notch f0 = 1 kHz, Q = 2, fz = 500 Hz, HF gain 0.8 (m = 1;
+ *   R1 10k, R2 47.1k, R3 132k, R4 10.3k, R5 41.3k, R6 44k, C 4.82 nF):
+ *     R1   -0.41   -0.41   -0.41    0        -46 dB
+ *     R2   -0.09   -0.09   -0.09    0        -47 dB
+ *     R3   -0.50   +0.50   -2.00    0        -50 dB
+ *     R4    0       0      -1.50   -0.20     -43 dB
+ *     R5    0       0      +1.50   +0.20     -42 dB
+ *     R6    0       0      +1.50    0        -52 dB
+ *     C1   -0.50    0      -0.50    0        -68 dB
+ *     C2   -0.50    0      -0.50    0        -68 dB
+ *   f0 and Q sensitivities are at most 1/2 (no positive feedback); the
+ *   highpass-notch fz is more sensitive (wz^2 is a difference, with
+ *   S(R4), S(R5), S(R6) = +-(1 - r^2)/(2 r^2) = 1.5 here, growing as fz/f0
+ *   falls). With 1 % parts the notch is about 40-50 dB deep (the
+ *   notch-depth test checks the residual-N1 formula above). The op-amp
+ *   does not enter N, so it neither moves the zeros nor limits the notch
+ *   depth; it moves f0 and Q through D + Dp/A. The GBW demand is computed
+ *   numerically from that response (f0 and Q within 1 %), like every stage here.
  *
  * @module
  */
-import type { ComponentValues, StageFigures, StageKind, StageTarget, Topology } from "./types.ts";
+import type { ComponentValues, StageChoices, StageFigures, StageKind, StageTarget, Topology } from "./types.ts";
 import { cadd, cdiv, cmul, complex, cscale, type Complex } from "../math/complex.ts";
 import { TWO_PI } from "../units/constants.ts";
 import { defineTopology } from "./define.ts";
@@ -124,6 +151,9 @@ export const BOCTOR_MIN_ZERO_SEPARATION = 1.01;
 
 /** Fraction of the gain bound `check` accepts (R2 stays below 100 (R1 || R2)). */
 export const BOCTOR_GAIN_MARGIN = 0.99;
+
+/** Largest capacitor ratio C1/C2 (chosen, or taken by the design to reach a gain): the resistor spread R3/(R1 || R2) is Q^2 (1 + m)^2/m, 22 Q^2 at 20. */
+export const BOCTOR_MAX_RATIO = 20;
 
 type Variant = "lowpass-notch" | "highpass-notch";
 
@@ -248,16 +278,39 @@ function figures(variant: Variant) {
   });
 }
 
-/** Largest gain at the reference frequency the form reaches for this target (before the margin). */
-function gainBound(variant: Variant, t: StageTarget): number {
-  const qv = t.q as number;
+/** The divider fraction gamma = R5/(R4 + R5) a target needs: the HF gain (DC gain over r^2 for the lowpass-notch). */
+function gammaOf(variant: Variant, t: StageTarget): number {
   const r2 = ((t.fzHz as number) / t.f0Hz) ** 2;
-  const gammaMax = (2 * qv * qv) / (2 * qv * qv + r2);
-  return variant === "lowpass-notch" ? gammaMax * r2 : gammaMax;
+  return variant === "lowpass-notch" ? t.gain / r2 : t.gain;
+}
+
+/** Largest gamma with capacitor ratio m = C1/C2 (R2 open): Q^2 (1 + m)/(Q^2 (1 + m) + r^2). */
+function gammaMax(t: StageTarget, m: number): number {
+  const qq = (t.q as number) ** 2;
+  const r2 = ((t.fzHz as number) / t.f0Hz) ** 2;
+  return (qq * (1 + m)) / (qq * (1 + m) + r2);
+}
+
+/**
+ * The capacitor ratio m = C1/C2 a target uses: the choice, else 1 when the
+ * divider fraction stays within 90 % of its bound there, else the ratio that
+ * puts it at 90 % of the bound (R2 = 10 (R1 || R2); closer to the bound for
+ * a gain above 81 % of it), at most {@link BOCTOR_MAX_RATIO}.
+ */
+function ratioOf(variant: Variant, t: StageTarget, c: StageChoices): number {
+  if (c.capacitorRatio !== undefined) return c.capacitorRatio;
+  const gamma = gammaOf(variant, t);
+  if (gamma <= 0.9 * gammaMax(t, 1)) return 1;
+  const fraction = gamma < 0.81 ? 0.9 : (gamma + BOCTOR_GAIN_MARGIN) / 2;
+  const g = gamma / fraction;
+  if (!(g < 1)) return BOCTOR_MAX_RATIO;
+  const r2 = ((t.fzHz as number) / t.f0Hz) ** 2;
+  const m = (g * r2) / ((t.q as number) ** 2 * (1 - g)) - 1;
+  return Math.min(Math.max(m, 1), BOCTOR_MAX_RATIO);
 }
 
 function limits(variant: Variant, name: string) {
-  return (t: StageTarget): string | null => {
+  return (t: StageTarget, c: StageChoices): string | null => {
     const ratio = (t.fzHz as number) / t.f0Hz;
     if (variant === "lowpass-notch" && ratio < BOCTOR_MIN_ZERO_SEPARATION) {
       return `the ${name} needs its zero at least ${BOCTOR_MIN_ZERO_SEPARATION} times its pole frequency (fzHz/f0Hz = ${ratio}; closer, R6 exceeds 50 R3); use the Tow-Thomas lowpass-notch or notch form for a zero this close to the pole`;
@@ -265,27 +318,43 @@ function limits(variant: Variant, name: string) {
     if (variant === "highpass-notch" && ratio > 1 / BOCTOR_MIN_ZERO_SEPARATION) {
       return `the ${name} needs its zero at most 1/${BOCTOR_MIN_ZERO_SEPARATION} of its pole frequency (fzHz/f0Hz = ${ratio}; closer, R6 exceeds 50 R3); use the Tow-Thomas highpass-notch or notch form for a zero this close to the pole`;
     }
-    const max = BOCTOR_GAIN_MARGIN * gainBound(variant, t);
+    if (c.resistorRatio !== undefined) return `the ${name} takes no resistorRatio (its resistors follow from the target); drop it, or set capacitorRatio (C1/C2)`;
+    if (c.capacitorRatio !== undefined && c.capacitorRatio > BOCTOR_MAX_RATIO * (1 + 1e-12)) {
+      return `the ${name} takes capacitorRatio (C1/C2) up to ${BOCTOR_MAX_RATIO} (its resistor spread R3/(R1 || R2) is Q^2 (1 + m)^2/m); got ${c.capacitorRatio}: lower it`;
+    }
+    const where = variant === "lowpass-notch" ? "DC" : "high-frequency";
+    const toGain = variant === "lowpass-notch" ? ratio * ratio : 1;
+    const gamma = gammaOf(variant, t);
+    const ceiling = BOCTOR_GAIN_MARGIN * gammaMax(t, BOCTOR_MAX_RATIO) * toGain;
+    if (t.gain > ceiling * (1 + 1e-12)) {
+      return `the ${name} reaches a ${where} gain of at most ${ceiling.toPrecision(6)} at Q = ${t.q} and fzHz/f0Hz = ${ratio.toPrecision(6)} (with C1/C2 up to ${BOCTOR_MAX_RATIO}; got ${t.gain}); lower the stage gain (make it up in another stage) or use the Tow-Thomas ${variant} form`;
+    }
+    const m = ratioOf(variant, t, c);
+    const max = BOCTOR_GAIN_MARGIN * gammaMax(t, m) * toGain;
     if (t.gain > max * (1 + 1e-12)) {
-      const where = variant === "lowpass-notch" ? "DC" : "high-frequency";
-      return `the ${name} reaches a ${where} gain of at most ${max.toPrecision(6)} at Q = ${t.q} and fzHz/f0Hz = ${ratio.toPrecision(6)} (got ${t.gain}); lower the stage gain (make it up in another stage) or use the Tow-Thomas ${variant} form`;
+      // the ratio at which the gain sits at the margin
+      const g = gamma / BOCTOR_GAIN_MARGIN;
+      const need = (g * ratio * ratio) / ((t.q as number) ** 2 * (1 - g)) - 1;
+      return `the ${name} with C1/C2 = ${m.toPrecision(4)} reaches a ${where} gain of at most ${max.toPrecision(6)} at Q = ${t.q} and fzHz/f0Hz = ${ratio.toPrecision(6)} (got ${t.gain}); set capacitorRatio (C1/C2) to at least ${need.toPrecision(4)} (or leave it unset), lower the stage gain, or use the Tow-Thomas ${variant} form`;
     }
     return null;
   };
 }
 
 function solve(variant: Variant) {
-  return (t: StageTarget): Record<string, number> => {
+  return (t: StageTarget, c: StageChoices): Record<string, number> => {
     const w0 = TWO_PI * t.f0Hz;
     const qv = t.q as number;
     const r2 = ((t.fzHz as number) / t.f0Hz) ** 2;
-    const gamma = variant === "lowpass-notch" ? t.gain / r2 : t.gain;
-    const g3 = w0 / (2 * qv);
-    const gt = 2 * qv * w0;
-    const g1 = gamma * (gt + 2 * g3 * r2);
+    const m = ratioOf(variant, t, c);
+    const gamma = gammaOf(variant, t);
+    // C2 = 1, C1 = m: Q = sqrt(Gt/G3) sqrt(m)/(1 + m), w0^2 = G3 Gt/m
+    const g3 = (w0 * m) / (qv * (1 + m));
+    const gt = w0 * qv * (1 + m);
+    const g1 = gamma * (gt + ((1 + m) * g3 * r2) / m);
     const g2 = gt - g1;
     const g6 = variant === "lowpass-notch" ? g3 * (r2 - 1) : (g3 * (1 - r2) * gamma) / (1 - gamma);
-    return { C1: 1, C2: 1, R1: 1 / g1, R2: 1 / g2, R3: 1 / g3, R4: 1 / (gamma * gt), R5: 1 / ((1 - gamma) * gt), R6: 1 / g6 };
+    return { C1: m, C2: 1, R1: 1 / g1, R2: 1 / g2, R3: 1 / g3, R4: 1 / (gamma * gt), R5: 1 / ((1 - gamma) * gt), R6: 1 / g6 };
   };
 }
 
@@ -300,7 +369,7 @@ function make(variant: Variant, id: string, name: string): Topology {
     kinds,
     inverting: false,
     reference: REF,
-    levelCapacitor: "C1",
+    levelCapacitor: "C2",
     levelResistor: "R1",
     parts,
     limits: limits(variant, name),
