@@ -132,7 +132,11 @@
  *   notch-depth test checks the residual-N1 formula above). The op-amp
  *   does not enter N, so it neither moves the zeros nor limits the notch
  *   depth; it moves f0 and Q through D + Dp/A. The GBW demand is computed
- *   numerically from that response (f0 and Q within 1 %), like every stage here.
+ *   numerically from that response (f0 and Q within 1 %), like every stage
+ *   here: 324 kHz at f0 = 1 kHz, Q = 2 (both forms; the Tow-Thomas forms ask
+ *   832 kHz) and 0.99 MHz at Q = 10, fz = 1.2 kHz (Tow-Thomas: 4.0 MHz).
+ *   At Q = 10 the default level (R1 = 10 kOhm) puts R3 near 2.8 MOhm; choose
+ *   a lower `resistor` there.
  *
  * Preferred values: the zeros stay on the jw axis only while N1 = 0, a
  * balance between unequal parts, so rounding each part to a series on its
