@@ -18,8 +18,10 @@
  * (every candidate's finite-gain denominator checked for stability, which
  * rules out the candidates whose ideal-op-amp "solution" needs net positive
  * feedback at DC), and every equation here was derived here by nodal
- * analysis (sympy) and checked against the nodal analysis in
- * `src/circuit/mna.ts` and against ngspice (test/topologies/boctor.test.ts).
+ * analysis (sympy; scripts/reference/topology_boctor.py repeats the
+ * symbolic check and writes a numpy nodal-analysis fixture) and checked
+ * against that fixture, the nodal analysis in `src/circuit/mna.ts` and
+ * ngspice (test/topologies/boctor.test.ts).
  * The network is the multiple-feedback bandpass with an input attenuator
  * (the same core as `mfb-bandpass-attenuated`), with the non-inverting input
  * fed from the input through a divider (as in T. Deliyannis, Electronics

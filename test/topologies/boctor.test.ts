@@ -12,6 +12,7 @@ import { circuitToSpice } from "../../src/circuit/spice.ts";
 import type { Circuit, Element, OpAmpModel } from "../../src/circuit/types.ts";
 import type { ComponentValues, StageTarget, Topology } from "../../src/topologies/types.ts";
 import { requireNgspice, runAc } from "../helpers/ngspice.ts";
+import fixture from "../fixtures/boctor-nodal.json" with { type: "json" };
 
 const ideal: OpAmpModel = { kind: "ideal" };
 const realistic: OpAmpModel = { kind: "single-pole", a0: 2e5, gbwHz: 1e6 };
@@ -209,6 +210,25 @@ describe.skipIf(!requireNgspice())("ngspice agrees with the as-built polynomials
       }
       expect(compared).toBeGreaterThan(150);
       expect(worst).toBeLessThan(0.01);
+    });
+  }
+});
+
+describe("against a numpy nodal analysis (test/fixtures/boctor-nodal.json)", () => {
+  for (const [i, c] of fixture.cases.entries()) {
+    const topo = c.topology === "boctor-lowpass-notch" ? boctorLowpassNotch : boctorHighpassNotch;
+    it(`case ${i} (${c.topology}, f0 ${c.target.f0Hz} Hz, Q ${c.target.q}, fz ${c.target.fzHz} Hz, ${c.opamp.kind}): values to 1e-12, response and polynomials to 1e-9`, () => {
+      const v = topo.design(c.target as StageTarget, c.choices);
+      for (const [k, x] of Object.entries(c.values)) expect(Math.abs(v[k]! / x - 1), k).toBeLessThan(1e-12);
+      const opamp = c.opamp as OpAmpModel;
+      const f = Float64Array.from(c.freqHz);
+      const h = topo.response(v, f, opamp);
+      const p = topo.polynomials!(v, opamp)!;
+      for (let j = 0; j < f.length; j++) {
+        const ref = Math.hypot(c.re[j]!, c.im[j]!);
+        expect(Math.hypot(h.re[j]! - c.re[j]!, h.im[j]! - c.im[j]!) / ref).toBeLessThan(1e-9);
+        expect(Math.abs(polyMagnitude(topo, v, f[j]!, opamp) / ref - 1)).toBeLessThan(1e-9);
+      }
     });
   }
 });
