@@ -143,7 +143,10 @@
  * Preferred values: the zeros stay on the jw axis only while N1 = 0, a
  * balance between unequal parts, so rounding each part to a series on its
  * own (the four figures f0, Q, fz and gain do not see N1) leaves the notch
- * about 40-50 dB deep for 1 % steps. The R1:R2 split at a fixed R1 || R2
+ * about 40-50 dB deep for 1 % steps, and a search that moves the parts
+ * along the directions the four figures do not see (the capacitor ratio,
+ * the R1:R2 split) can leave it far shallower. `figures` therefore also
+ * reports `zeroDamping` = |N1|/(2 sqrt(N0 N2)) (0 nominal; about 1/(2 Qz)). The R1:R2 split at a fixed R1 || R2
  * moves N1 alone (f0, Q, fz and gain depend on R1 || R2 only), and the
  * R4:R5 ratio moves N1 and the gain only, so a value search that also
  * drives N1 to zero (or a trimmer in place of R2) restores the notch
@@ -287,7 +290,13 @@ function figures(variant: Variant) {
       const n0 = low ? gamma * gt * (g3 + g6) : gt * (gamma * g3 - (1 - gamma) * g6);
       const fzHz = Math.sqrt(Math.max(0, n0 / (gamma * c1 * c2))) / TWO_PI;
       const gain = low ? n0 / (g3 * gt) : gamma;
-      return { f0Hz, q: qv, fzHz, gain };
+      const g1 = 1 / (x[R1] as number);
+      const g2 = gt - g1;
+      const n1 = low
+        ? gamma * (c1 * (g2 + g3 + g6) + c2 * (g3 + g6)) - (1 - gamma) * c1 * g1
+        : gamma * (c1 * (g2 + g3) + c2 * g3) - (1 - gamma) * (c1 * g1 + (c1 + c2) * g6);
+      const zeroDamping = Math.abs(n1) / (2 * Math.sqrt(Math.abs(n0) * gamma * c1 * c2));
+      return { f0Hz, q: qv, fzHz, gain, zeroDamping };
     };
     return { figures: figuresAt, f0Hz: f0 };
   });

@@ -122,6 +122,7 @@ describe("designed stages have the target's figures", () => {
       expect(Math.abs(f.q! / t.q! - 1)).toBeLessThan(1e-9);
       expect(Math.abs(f.fzHz! / t.fzHz! - 1)).toBeLessThan(1e-9);
       expect(Math.abs(f.gain / t.gain - 1)).toBeLessThan(1e-9);
+      expect(f.zeroDamping!).toBeLessThan(1e-9);
       designed++;
     }
     expect(designed).toBeGreaterThan(cases.length * 0.8);
@@ -183,6 +184,8 @@ describe("the zeros sit on the jw axis", () => {
     const d0 = g("R3") * gt;
     const dAbs = Math.hypot(d0 - c1 * c2 * wz * wz, g("R3") * (c1 + c2) * wz);
     expect(Math.abs(depth / ((Math.abs(n1) * wz * d0) / (n0 * dAbs)) - 1)).toBeLessThan(1e-6);
+    // the reported zero damping is the same residual: |N1| / (2 sqrt(N0 N2))
+    expect(Math.abs(boctorLowpassNotch.figures(off).zeroDamping! / (Math.abs(n1) / (2 * Math.sqrt(n0 * gamma * c1 * c2))) - 1)).toBeLessThan(1e-9);
     expect(db(depth)).toBeGreaterThan(-60);
     expect(db(depth)).toBeLessThan(-30);
   });
