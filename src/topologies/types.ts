@@ -71,6 +71,15 @@ export interface StageFigures {
   readonly fzHz?: number;
   /** Gain at the reference frequency (V/V, sign included). */
   readonly gain: number;
+  /**
+   * Damping of the zero pair, `|N1| / (2 sqrt(N0 N2))` for a numerator
+   * `N2 s^2 + N1 s + N0`: 0 when the zeros sit on the jw axis (a perfect
+   * notch), about 1/(2 Qz) otherwise. Present only for topologies whose
+   * zeros leave the axis when the parts do not balance, while f0, Q, fz and
+   * gain stay put (the single-amplifier notch sections); a value search
+   * should drive it to 0 as well.
+   */
+  readonly zeroDamping?: number;
 }
 
 /** Node and name mapping used when a stage is placed into a larger circuit. */

@@ -67,6 +67,9 @@ export function sampleTarget(t: Topology): StageTarget {
   const base = { order: t.order, kind, f0Hz: 2000, q: 1.2 } as const;
   let gain = t.id.includes("unity") || t.id.includes("buffer") ? 1 : 2.5;
   if (t.id === "mfb-bandpass") gain = 3;
+  // the single-amplifier notch sections have a bounded gain (HF gain below 1 for the highpass-notch)
+  if (t.id === "boctor-lowpass-notch") gain = 1.5;
+  if (t.id === "boctor-highpass-notch") gain = 0.8;
   if (t.fixedGain !== undefined) gain = t.fixedGain(base);
   return {
     ...base,
