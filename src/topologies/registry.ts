@@ -11,6 +11,7 @@ import { multipleFeedbackTopologies } from "./multiple-feedback.ts";
 import { sallenKeyTopologies } from "./sallen-key.ts";
 import { stateVariableTopologies } from "./state-variable.ts";
 import { towThomasTopologies } from "./tow-thomas.ts";
+import { twinTTopologies } from "./twin-t.ts";
 import type { StageKind, Topology } from "./types.ts";
 
 /** Every topology, first order first, then by family (each family file lists its own). */
@@ -20,6 +21,7 @@ export const topologies: readonly Topology[] = Object.freeze([
   ...multipleFeedbackTopologies,
   ...stateVariableTopologies,
   ...towThomasTopologies,
+  ...twinTTopologies,
 ]);
 
 /**
