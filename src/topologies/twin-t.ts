@@ -13,7 +13,7 @@
  * Parts (node `t` is the follower's input, `g` the common node):
  *   R1 in -> a, R2 a -> t, C3 a -> g      (resistive T, shunt capacitor)
  *   C1 in -> b, C2 b -> t, R3 b -> g      (capacitive T, shunt resistor)
- *   R4 out -> g, R5 g -> 0                (divider, fraction k = R5... see below)
+ *   R4 out -> g, R5 g -> 0                (divider)
  *   U1 follower: + at t, - and output at out.
  * The divider's open-circuit fraction is `k = G4 / (G4 + G5)` (G = 1/R) and
  * its source conductance `Gt = G4 + G5`.
@@ -51,8 +51,9 @@
  * R4 = R / (g k), R5 = R / (g (1 - k)); the capacitors are scaled to put wz at
  * the target f0. Gain 1 at DC and at high frequency (fixed, `fixedGain`).
  * `resistor` sets R1 (default 10 kOhm), `capacitor` sets C1.
- * With g = 20 the part spreads are: R3 = 0.385 R, C3 = 2.60 C, R4 about
- * R/(20 k), R5 = R Q/(5 Q0)... (R5 = R/(g (1 - k)) = Q R / (g Q0)).
+ * With g = 20 the part spreads are R3 = 0.385 R, C3 = 2.60 C,
+ * R4 = R/(20 k) (0.05 R to 2.5 R) and R5 = R/(g (1 - k)) = Q R/(g Q0)
+ * (0.05 R to 2.1 R).
  *
  * Figures of any values (ideal op-amp): the numerator's and the
  * denominator's real roots nearest to -m0/m1 are removed (cubic roots by the
@@ -68,11 +69,15 @@
  * and {@link TWIN_T_MAX_Q} = 10: the Q sensitivity to the divider fraction is
  * S_k^Q = k/(1 - k) = 4Q - 1 (39 at Q = 10; in practice to the ratio R4/R5,
  * about as large), and the notch depth depends on the match of the six twin-T
- * parts. Notch depth with ideal parts is infinite (exact zero); measured in the
- * tests with one part off by 1 % and the others exact, at Q = 1, g = 20:
- * about -41 dB (R1, R2), -45 dB (R3), -40 dB (C1, C2), -45 dB (C3); the
- * depth is independent of R4 and R5 (they do not enter N, only Q), and
- * scales as 20 log10 of the part error (0.1 % gives about 20 dB more).
+ * parts and of the divider. Notch depth with ideal parts is infinite (exact
+ * zero). Measured in the tests (nodal analysis, deepest point of the
+ * response) with one part 1 % high and the others exact, at Q = 1, g = 20:
+ * -52 dB (R1, R2), -51 dB (R3), -57 dB (C1, C2), -51 dB (C3), -56 dB (R4),
+ * -66 dB (R5). The divider's source resistance enters N (so R4 and R5 matter
+ * for the depth), its fraction k does not: a change of k at constant
+ * R4 R5/(R4 + R5) moves Q only. The depth scales as 20 log10 of the part
+ * error (0.1 % gives about 20 dB more) and is about 20 log10(Q) dB
+ * shallower at higher Q (the denominator at f0 is proportional to 1/Q).
  * The op-amp's finite gain also fills the notch only through the (1 + e)
  * factor: N is still zero on the j-axis, so a single-pole op-amp keeps the
  * zero exact but moves f0 and Q (GBW demand computed numerically).
