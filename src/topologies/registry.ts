@@ -7,6 +7,7 @@
  */
 import { InvalidArgumentError } from "../errors.ts";
 import { firstOrderTopologies } from "./first-order.ts";
+import { fliegeTopologies } from "./fliege.ts";
 import { multipleFeedbackTopologies } from "./multiple-feedback.ts";
 import { sallenKeyTopologies } from "./sallen-key.ts";
 import { stateVariableTopologies } from "./state-variable.ts";
@@ -22,6 +23,7 @@ export const topologies: readonly Topology[] = Object.freeze([
   ...stateVariableTopologies,
   ...towThomasTopologies,
   ...twinTTopologies,
+  ...fliegeTopologies,
 ]);
 
 /**
