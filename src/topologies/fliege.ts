@@ -54,9 +54,10 @@
  *
  * so the polynomials in z = s/w with e = g0 + g1 z have degree 4 (2 + 2);
  * a few coefficients carry the circuit's own subtractions. The finite gain
- * fills the notch: the e term of N does not vanish at j w0 (the depth is
- * about -20 log10 of the op-amp's loop gain at f0 divided by a few; the tests
- * measure it). GBW demand computed numerically.
+ * fills the notch: the e term of N does not vanish at j w0. Measured in the
+ * tests at Q = 4 with single-pole op-amps (a0 = 2e5, GBW = 1 MHz), deepest
+ * point of the response: -61 dB at f0 = 100 Hz, -59 dB at 1 kHz, -38 dB at
+ * 10 kHz (the depth falls as f0/GBW grows). GBW demand computed numerically.
  *
  * @module
  */
