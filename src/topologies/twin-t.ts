@@ -35,7 +35,7 @@
  *
  * Design (derived here): keep the series arms equal, R1 = R2 = R and
  * C1 = C2 = C, and let the divider's source resistance be `R / g`
- * (`resistorRatio` g, default 20). Two conditions fix the shunt parts
+ * (`resistorRatio` g, default 12). Two conditions fix the shunt parts
  * R3 = y R and C3 = x C: (1) a transmission zero on the j-axis, n1 n2 = n0 n3;
  * (2) N and the denominator share the real root p = -m0/m1 (the root of M),
  * so the response is exactly second order. With R = C = 1 these are
@@ -47,13 +47,15 @@
  * `H = (s^2 + wz^2) / (s^2 + s G5 m1 / n3 + wz^2)`: the pole frequency equals
  * the zero frequency, wz^2 = n1/n3, and `Q = n3 wz / (G5 m1)`. For a target Q
  * the divider gives `k = 1 - Q0/Q` with `Q0 = n3 wz / (g m1)` the Q of the
- * divider alone (k = 0; 0.241 at g = 20, 1/4 as g grows), so
+ * divider alone (k = 0; 0.204 at g = 12, 0.241 at g = 20, 1/4 as g grows), so
  * R4 = R / (g k), R5 = R / (g (1 - k)); the capacitors are scaled to put wz at
  * the target f0. Gain 1 at DC and at high frequency (fixed, `fixedGain`).
  * `resistor` sets R1 (default 10 kOhm), `capacitor` sets C1.
- * With g = 20 the part spreads are R3 = 0.385 R, C3 = 2.60 C,
- * R4 = R/(20 k) (0.05 R to 2.5 R) and R5 = R/(g (1 - k)) = Q R/(g Q0)
- * (0.05 R to 2.1 R).
+ * The default g = 12 gives the simple ratios R3 = R/4 and C3 = 4 C (four
+ * equal parts in parallel, which match as well as the series arms do; the
+ * classic R/2 and 2C need a stiff divider, g above about 1000). Its part
+ * spreads: R4 = R/(12 k) (0.085 R to 4.2 R) and R5 = R/(g (1 - k)) =
+ * Q R/(g Q0) (0.085 R to 4.1 R); Q0 = 0.204.
  *
  * Figures of any values (ideal op-amp): the numerator's and the
  * denominator's real roots nearest to -m0/m1 are removed (cubic roots by the
@@ -71,9 +73,9 @@
  * about as large), and the notch depth depends on the match of the six twin-T
  * parts and of the divider. Notch depth with ideal parts is infinite (exact
  * zero). Measured in the tests (nodal analysis, deepest point of the
- * response) with one part 1 % high and the others exact, at Q = 1, g = 20:
- * -52 dB (R1, R2), -51 dB (R3), -57 dB (C1, C2), -51 dB (C3), -56 dB (R4),
- * -66 dB (R5). The divider's source resistance enters N (so R4 and R5 matter
+ * response) with one part 1 % high and the others exact, at Q = 1, g = 12:
+ * -52 dB (R1, R2), -62 dB (R3), -71 dB (C1, C2), -66 dB (C3), -50 dB (R4),
+ * -62 dB (R5) (at g = 20: -51 to -66 dB). The divider's source resistance enters N (so R4 and R5 matter
  * for the depth), its fraction k does not: a change of k at constant
  * R4 R5/(R4 + R5) moves Q only. The depth scales as 20 log10 of the part
  * error (0.1 % gives about 20 dB more) and is about 20 log10(Q) dB
@@ -100,7 +102,7 @@ export const TWIN_T_MAX_Q = 10;
 /** Smallest divider fraction k (R4 at most R/(g k) = 50 R/g). */
 const K_MIN = 0.02;
 /** Default ratio g = R1 / (source resistance of the divider). */
-const DEFAULT_G = 20;
+const DEFAULT_G = 12;
 /** Smallest g with a real design, 6 + 4 sqrt(2). */
 export const TWIN_T_MIN_RATIO = 6 + 4 * Math.SQRT2;
 /** Largest g accepted (the divider's resistors become a heavy load on the op-amp). */
@@ -286,12 +288,12 @@ function normalised(g: number): { y: number; x: number; wz: number; q0: number }
  * ratio g = R1 / (the divider's source resistance): the Q of the twin-T with
  * the divider alone, divided by 1 - 0.02 (divider fraction k of at least 0.02).
  *
- * @param resistorRatio - g, from 6 + 4 sqrt(2) to 1000 (default 20)
+ * @param resistorRatio - g, from 6 + 4 sqrt(2) to 1000 (default 12)
  * @returns the smallest Q
  * @throws never (no checks: a helper for the design layer's choices)
  * @example
  * ```ts
- * twinTMinQ(20); //=> 0.2461...
+ * twinTMinQ(12); //=> 0.2083...
  * ```
  */
 export function twinTMinQ(resistorRatio = DEFAULT_G): number {
@@ -304,7 +306,7 @@ function limits(t: StageTarget, c: StageChoices): string | null {
   }
   const g = c.resistorRatio ?? DEFAULT_G;
   if (!atLeast(g, TWIN_T_MIN_RATIO) || g > MAX_G * (1 + LIMIT_SLACK)) {
-    return `the twin-T's resistorRatio (R1 over the divider's source resistance R4 R5/(R4 + R5)) must lie between ${TWIN_T_MIN_RATIO.toPrecision(5)} and ${MAX_G} (got ${g}); below that no balanced design exists, above it the divider loads the op-amp; leave it unset for 20`;
+    return `the twin-T's resistorRatio (R1 over the divider's source resistance R4 R5/(R4 + R5)) must lie between ${TWIN_T_MIN_RATIO.toPrecision(5)} and ${MAX_G} (got ${g}); below that no balanced design exists, above it the divider loads the op-amp; leave it unset for 12`;
   }
   const qv = t.q as number;
   if (qv > TWIN_T_MAX_Q * (1 + LIMIT_SLACK)) {

@@ -21,9 +21,10 @@ describe("twin-t-notch limits", () => {
   it("refuses Q above the bound, Q below the divider's reach, a zero away from f0, a gain other than 1 and a ratio without a design", () => {
     expect(twinTNotch.check({ ...base, q: TWIN_T_MAX_Q }, {})).toBeNull();
     expect(twinTNotch.check({ ...base, q: 10.5 }, {})).toMatch(/Q <= 10/);
-    const qMin = twinTMinQ(20);
-    expect(qMin).toBeGreaterThan(0.24);
-    expect(qMin).toBeLessThan(0.25);
+    const qMin = twinTMinQ(12);
+    expect(qMin).toBeGreaterThan(0.2);
+    expect(qMin).toBeLessThan(0.21);
+    expect(twinTMinQ(1000)).toBeCloseTo(0.25 / 0.98, 4); // the classic 1/4 over (1 - 0.02)
     expect(twinTNotch.check({ ...base, q: qMin * 1.001 }, {})).toBeNull();
     expect(twinTNotch.check({ ...base, q: qMin * 0.99 }, {})).toMatch(/raise Q/);
     expect(twinTNotch.check({ ...base, fzHz: 1400 }, {})).toMatch(/lowpass-notch or highpass-notch/);
@@ -70,11 +71,14 @@ describe("twin-t-notch design", () => {
     expect(Math.abs(v["C1"]! * 2 * Math.PI * base.f0Hz * v["R1"]! - 1)).toBeLessThan(0.005);
   });
 
-  it("the divider's source resistance is R1 / resistorRatio (default 20)", () => {
+  it("the divider's source resistance is R1 / resistorRatio (default 12, with R3 = R1/4 and C3 = 4 C1)", () => {
+    const d = twinTNotch.design(base, {});
+    expect(d["R3"]! / d["R1"]!).toBeCloseTo(0.25, 12);
+    expect(d["C3"]! / d["C1"]!).toBeCloseTo(4, 12);
     for (const g of [undefined, 15, 300]) {
       const v = twinTNotch.design(base, g === undefined ? {} : { resistorRatio: g });
       const rth = (v["R4"]! * v["R5"]!) / (v["R4"]! + v["R5"]!);
-      expect(v["R1"]! / rth).toBeCloseTo(g ?? 20, 9);
+      expect(v["R1"]! / rth).toBeCloseTo(g ?? 12, 9);
     }
   });
 });
