@@ -75,14 +75,15 @@
  * zero). Measured in the tests (nodal analysis, deepest point of the
  * response) with one part 1 % high and the others exact, at Q = 1, g = 12:
  * -52 dB (R1, R2), -62 dB (R3), -71 dB (C1, C2), -66 dB (C3), -50 dB (R4),
- * -62 dB (R5) (at g = 20: -51 to -66 dB). The divider's source resistance enters N (so R4 and R5 matter
- * for the depth), its fraction k does not: a change of k at constant
+ * -62 dB (R5) (at g = 20: -51 to -66 dB). The divider's source
+ * resistance enters N (so R4 and R5 matter for the depth), its fraction k
+ * does not: a change of k at constant
  * R4 R5/(R4 + R5) moves Q only. The depth scales as 20 log10 of the part
  * error (0.1 % gives about 20 dB more) and is about 20 log10(Q) dB
  * shallower at higher Q (the denominator at f0 is proportional to 1/Q).
- * The op-amp's finite gain also fills the notch only through the (1 + e)
- * factor: N is still zero on the j-axis, so a single-pole op-amp keeps the
- * zero exact but moves f0 and Q (GBW demand computed numerically).
+ * The op-amp's finite gain does not fill the notch: it enters only the
+ * denominator ((1 + e) N + (G5 + e Gt) s M), so N keeps its j-axis zero and a
+ * single-pole op-amp moves f0 and Q only (GBW demand computed numerically).
  * `resistorRatio` outside [6 + 4 sqrt(2), 1000] is refused.
  *
  * @module
