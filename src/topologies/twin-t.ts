@@ -68,9 +68,14 @@
  * third-order network.
  *
  * Limits: Q between Q0/(1 - 0.02) (k >= 0.02; below that R4 exceeds 50 R/g)
- * and {@link TWIN_T_MAX_Q} = 10: the Q sensitivity to the divider fraction is
- * S_k^Q = k/(1 - k) = 4Q - 1 (39 at Q = 10; in practice to the ratio R4/R5,
- * about as large), and the notch depth depends on the match of the six twin-T
+ * and {@link TWIN_T_MAX_Q} = 10. Q = Q0/(1 - k) is steep in the divider
+ * fraction (S_k^Q = k/(1 - k) = Q/Q0 - 1, 48 at Q = 10 and g = 12), but
+ * 1 - k = G5/(G4 + G5), so Q's sensitivity to R4 and R5 themselves is
+ * about k (below 1) and to the twin-T parts of order 1 (the tests measure
+ * R5). What limits Q is the divider spread R5/R4 = k/(1 - k) (48 at Q = 10),
+ * the notch filling about 20 log10(Q) dB faster with part mismatch (below)
+ * and the op-amp's phase at f0 (the GBW demand rises with Q). The notch
+ * depth depends on the match of the six twin-T
  * parts and of the divider. Notch depth with ideal parts is infinite (exact
  * zero). Measured in the tests (nodal analysis, deepest point of the
  * response) with one part 1 % high and the others exact, at Q = 1, g = 12:
@@ -311,7 +316,7 @@ function limits(t: StageTarget, c: StageChoices): string | null {
   }
   const qv = t.q as number;
   if (qv > TWIN_T_MAX_Q * (1 + LIMIT_SLACK)) {
-    return `a bootstrapped twin-T at Q = ${qv} is impractically sensitive to its divider (Q changes ${(4 * qv - 1).toFixed(1)} times faster than the divider fraction) and its notch to part matching; keep Q <= ${TWIN_T_MAX_Q} or choose a Fliege, state-variable or Tow-Thomas notch`;
+    return `a bootstrapped twin-T at Q = ${qv} needs a divider spread R5/R4 of about ${(qv / normalised(g).q0 - 1).toFixed(0)} and its notch fills with part mismatch about ${(20 * Math.log10(qv)).toFixed(0)} dB more than at Q = 1; keep Q <= ${TWIN_T_MAX_Q} or choose a Fliege-type, state-variable or Tow-Thomas notch`;
   }
   const qMin = twinTMinQ(g);
   if (!atLeast(qv, qMin)) {

@@ -123,6 +123,11 @@ describe("twin-t-notch notch depth", () => {
     const moved = { ...v, R4: 1 / (k * gt), R5: 1 / ((1 - k) * gt) };
     expect(depthDb(moved, t.f0Hz)).toBeLessThan(-200);
     expect(twinTNotch.figures(moved).q).toBeGreaterThan(1.05);
+    // Q's sensitivity to R5 itself is about k (below 1), even at Q = 8 (k = 0.97)
+    const v8q = twinTNotch.design({ ...t, q: 8 }, {});
+    const q8 = twinTNotch.figures({ ...v8q, R5: v8q["R5"]! * 1.01 }).q!;
+    expect(q8 / 8 - 1).toBeGreaterThan(0.005);
+    expect(q8 / 8 - 1).toBeLessThan(0.0101);
   });
 });
 
