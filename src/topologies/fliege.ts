@@ -31,8 +31,9 @@
  * part value, so a mismatch only fills the notch: with R2/R1 off by a
  * fraction d the depth is |H(j w0)| = |G1 G5 - G2 G6| / (G5 (G1 + G2)),
  * about d/2 (-46 dB for 1 %, -66 dB for 0.1 %), the same for R5/R6;
- * independent of Q. R3, R4, C1, C2 move f0 (sensitivity 1/2 each, R6/R5
- * also 1/2) and leave the notch depth alone.
+ * independent of Q. R3, R4, C1, C2 move f0 (sensitivity -1/2 each; R5
+ * +1/2, R6 -1/2) and leave the notch depth alone. Q sensitivities, from
+ * Q = w0 C1 / (G1 + G2): +1/2 to R1, R2, C1 and R5, -1/2 to C2, R3, R4, R6.
  *
  * Design: C1 = C2 = C, R3 = R4 = R5 = R6 = R = 1/(w0 C), R1 = R2 = 2 Q R.
  * `resistor` sets R3 (default 10 kOhm), `capacitor` sets C1. No ratio
