@@ -24,4 +24,6 @@ export * from "./multiple-feedback.ts";
 export * from "./state-variable.ts";
 export * from "./tow-thomas.ts";
 export * from "./boctor.ts";
+export * from "./twin-t.ts";
+export * from "./fliege.ts";
 export { getTopology, topologies, topologiesFor, type TopologyQuery } from "./registry.ts";

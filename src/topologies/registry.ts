@@ -8,10 +8,12 @@
 import { InvalidArgumentError } from "../errors.ts";
 import { boctorTopologies } from "./boctor.ts";
 import { firstOrderTopologies } from "./first-order.ts";
+import { fliegeTopologies } from "./fliege.ts";
 import { multipleFeedbackTopologies } from "./multiple-feedback.ts";
 import { sallenKeyTopologies } from "./sallen-key.ts";
 import { stateVariableTopologies } from "./state-variable.ts";
 import { towThomasTopologies } from "./tow-thomas.ts";
+import { twinTTopologies } from "./twin-t.ts";
 import type { StageKind, Topology } from "./types.ts";
 
 /** Every topology, first order first, then by family (each family file lists its own). */
@@ -22,6 +24,8 @@ export const topologies: readonly Topology[] = Object.freeze([
   ...stateVariableTopologies,
   ...towThomasTopologies,
   ...boctorTopologies,
+  ...twinTTopologies,
+  ...fliegeTopologies,
 ]);
 
 /**

@@ -183,7 +183,9 @@ export interface Topology {
    * Present when the topology has closed-form polynomials: the highest
    * degree of its numerator and denominator with the `ideal` and
    * `single-pole` op-amp models (2 + the op-amp count for a second-order
-   * stage; the ideal model leaves the top coefficients 0).
+   * stage, or the passive network's order + the op-amp count where the
+   * network is of higher order, as in the twin-T's 3 + 1; the ideal model
+   * leaves the top coefficients 0).
    */
   readonly polynomialDegree?: number;
   /**
