@@ -65,8 +65,7 @@ ${helpLines("spec").join("\n")}
 output options (FILE "-" writes to standard output; the summary then goes to standard error):
 ${helpLines("output").join("\n")}
 
-  --help, -h               this text
-  --version                the program version
+${helpLines("general").join("\n")}
 
 values: numbers are plain decimals (12, 0.5, 2.2e-9); frequencies, resistances, capacitances, volts,
 noise densities and V/V gains also take engineering notation (20k, 4k7, 10 MHz, 100n); dB figures may
