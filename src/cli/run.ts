@@ -104,9 +104,11 @@ function extraLines(r: DesignResult, o: ReadonlyMap<string, GivenOption>): strin
   const runs = o.get("yield")?.value;
   if (typeof runs === "number") {
     const seed = o.get("seed")?.value;
-    const mc = analysis(o, () => monteCarlo(r, { runs, seed: typeof seed === "number" ? seed : 1 }));
+    // The boards spread their parts as the spec says (--distribution), as the design's own yield check does.
+    const distribution = r.spec.partDistribution;
+    const mc = analysis(o, () => monteCarlo(r, { runs, seed: typeof seed === "number" ? seed : 1, distribution }));
     extra.push(
-      `Monte Carlo: ${mc.runs} boards, resistors +-${(mc.tolerances.resistor * 100).toFixed(1)} %, capacitors +-${(mc.tolerances.capacitor * 100).toFixed(1)} % (uniform): ` +
+      `Monte Carlo: ${mc.runs} boards, resistors +-${(mc.tolerances.resistor * 100).toFixed(1)} %, capacitors +-${(mc.tolerances.capacitor * 100).toFixed(1)} % (${distribution}): ` +
         `${(mc.yield * 100).toFixed(1)} % meet the mask (+-${(mc.yieldStandardError * 100).toFixed(1)} %); ` +
         `worst margin ${mc.marginDb.min.toFixed(3)} dB, median ${mc.marginDb.median.toFixed(3)} dB`,
     );

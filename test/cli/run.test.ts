@@ -121,6 +121,10 @@ describe("runCli", () => {
     expect(io.out).toMatch(/Monte Carlo: 20 boards, resistors \+-\d\.\d %, capacitors \+-\d\.\d %/);
     expect(io.out).toMatch(/% of boards \[[\d.]+, [\d.]+\] at/);
     expect(runCli([...LP, "--yield", "zero"], fakeIo())).toBe(2);
+    // The boards spread their parts as --distribution says (they were always uniform).
+    const normal = fakeIo();
+    expect(runCli([...LP, "--yield", "20", "--distribution", "normal", "--quiet"], normal)).toBe(0);
+    expect(normal.out).toMatch(/Monte Carlo: 20 boards, .* \(normal\): /);
   });
 
   it("checks the op-amp outputs for clipping at the signal levels given, and fails a design that clips", () => {
