@@ -137,9 +137,21 @@ function withoutLibraryHints(message: string): string {
  * @returns the message in command-line terms
  */
 export function inFlagTerms(message: string): string {
-  let m = withoutLibraryHints(message);
+  let m = withoutLibraryHints(message).replace("two edge frequencies [low, high]", "two edge frequencies separated by a comma, low first (e.g. 300,3.4k)");
   for (const [re, flag] of FIELD_WORDS) m = m.replace(re, flag);
   return m;
+}
+
+/** The "did you mean" of an unknown field of a spec file, from the accepted fields its message lists. */
+function fieldSuggestion(issue: Issue): string {
+  if (!issue.message.startsWith("unknown field")) return "";
+  const accepted = [...issue.message.matchAll(/"([^"]+)"/g)].map((m) => m[1] as string);
+  return didYouMean(issue.path.slice(issue.path.lastIndexOf(".") + 1), accepted);
+}
+
+/** The example of a flag, after a message from the spec check that gives none. */
+function exampleAfter(def: OptionDef, message: string): string {
+  return def.values !== undefined || message.includes("e.g.") ? "" : `, e.g. --${def.name} ${def.example}`;
 }
 
 /** "Did you mean" for a name the spec rejected, when the field takes names. */
@@ -168,7 +180,8 @@ export function issueLines(issues: readonly Issue[], source: SpecSource, skip: R
       const stage = /^topology\.(\d+)$/.exec(issue.path);
       const which = stage === null ? "" : ` (entry ${Number(stage[1]) + 1})`;
       const received = stage === null ? issue.received : valueAt(source.options.get("topology")?.value, stage[1] as string);
-      lines.push(`--${def?.name} ${quoted(given.text)}${which}: ${inFlagTerms(issue.message)}${suggestion(def, received)}`);
+      const message = inFlagTerms(issue.message);
+      lines.push(`--${given.def.name} ${quoted(given.text)}${which}: ${message}${exampleAfter(given.def, message)}${suggestion(def, received)}`);
       continue;
     }
     const fromBase = valueAt(source.base, issue.path) !== undefined || issue.path === "";
@@ -188,7 +201,7 @@ export function issueLines(issues: readonly Issue[], source: SpecSource, skip: R
     const where = issue.path === "" ? "" : `${issue.path}: `;
     if (source.name !== undefined && fromBase) {
       const override = def === undefined ? "" : ` (correct it in ${source.name} or override it with --${def.name})`;
-      lines.push(`${source.name}: ${where}${withoutLibraryHints(issue.message)}${got}${suggestion(def, issue.received)}${override}`);
+      lines.push(`${source.name}: ${where}${withoutLibraryHints(issue.message)}${got}${suggestion(def, issue.received)}${fieldSuggestion(issue)}${override}`);
     } else {
       lines.push(`${def === undefined ? where : `--${def.name}: `}${inFlagTerms(issue.message)}${got}${suggestion(def, issue.received)}`);
     }

@@ -38,7 +38,7 @@ describe("runCli", () => {
     expect(io.out).toMatch(/resistors \+-0\.1 %, capacitors \+-2\.0 %/);
     const bad = fakeIo();
     expect(runCli([...LP, "--cap-tol", "80%"], bad)).toBe(2);
-    expect(bad.err).toBe('filterwright: --cap-tol "80%": expected a tolerance as a fraction (0.01 for 1 %) greater than 0 and at most 0.5\n');
+    expect(bad.err).toBe('filterwright: --cap-tol "80%": expected a tolerance as a fraction (0.01 for 1 %) greater than 0 and at most 0.5, e.g. --cap-tol 2%\n');
   });
 
   it("prints the output noise and its largest contributors with --noise", () => {

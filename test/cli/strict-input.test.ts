@@ -231,6 +231,16 @@ describe("runCli: messages name the flag, not the spec's field path", () => {
     expect(fixed.code, fixed.io.err).toBe(0);
   });
 
+  it("a fraction out of range shows how to type one; a spec file's misspelt field gets a suggestion", () => {
+    const { code, io } = run([...LP, "--yield-target", "95"]);
+    expect(code).toBe(2);
+    expect(oneLine(io)).toBe('filterwright: --yield-target "95": expected a fraction of boards (0.95 for 95 %) greater than 0 and less than 1, e.g. --yield-target 99%');
+    const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 0.5, maxLosDb: 1 }, stopband: { edgeHz: "5k", minAttenuationDb: 50 } };
+    const file = run(["design", "--spec", "s.json"], fakeIo({ "s.json": JSON.stringify(spec) }));
+    expect(file.code).toBe(2);
+    expect(oneLine(file.io)).toMatch(/^filterwright: s\.json: passband\.maxLosDb: unknown field; .*; did you mean "maxLossDb"\?$/);
+  });
+
   it("a negative frequency says what to type (was 'pass allowNegative')", () => {
     const { code, io } = run(["design", "--response", "lowpass", "--pass", "-2k", "--pass-loss", "0.5", "--stop", "5k", "--stop-atten", "50"]);
     expect(code).toBe(2);
