@@ -268,7 +268,15 @@ function run(argv: readonly string[], io: CliIo): number {
     }
     case "design": {
       const file = o.get("spec")?.text;
-      const start = file === undefined ? { base: {}, sourceName: undefined, heading: "" } : { base: readSpecFile(file, io), sourceName: file, heading: "" };
+      let base: Record<string, unknown> = {};
+      if (file !== undefined) {
+        try {
+          base = readSpecFile(file, io);
+        } catch (e) {
+          throw e instanceof CliProblem ? new CliProblems([...earlier.lines, e.message]) : e;
+        }
+      }
+      const start = { base, sourceName: file, heading: "" };
       return design(start, o, earlier, io);
     }
     case "demo": {

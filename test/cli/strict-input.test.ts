@@ -49,6 +49,13 @@ describe("runCli: I/O failures exit 2 with the path and the reason in plain word
     const b = run(["design", "--spec", "s.json"], fakeIo({ "s.json": "{ response: lowpass" }));
     expect(b.code).toBe(2);
     expect(oneLine(b.io)).toMatch(/^filterwright: s\.json \(--spec\) is not valid JSON: /);
+    // A value refused on the command line is still reported beside the file's problem.
+    const c = run(["design", "--spec", "nothing.json", "--order", "0x4"]);
+    expect(c.code).toBe(2);
+    expect(c.io.err).toBe(
+      'filterwright: --order "0x4": expected the prototype order, a whole number from 1 to 16, e.g. --order 6\n' +
+        "filterwright: cannot read nothing.json (--spec): there is no such file (ENOENT)\n",
+    );
   });
 
   it("an unexpected exception is one line and exit 2, never 3 and never a stack trace", () => {
