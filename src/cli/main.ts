@@ -6,6 +6,14 @@
 import { readFileSync, writeFileSync } from "node:fs";
 import { runCli } from "./run.ts";
 
+// A reader that stops early (`filterwright ... --json - | head`) closes the pipe: finish quietly with the exit code so far.
+for (const stream of [process.stdout, process.stderr]) {
+  stream.on("error", (e: NodeJS.ErrnoException) => {
+    if (e.code === "EPIPE") process.exit(process.exitCode ?? 0);
+    throw e;
+  });
+}
+
 process.exitCode = runCli(process.argv.slice(2), {
   stdout: (t) => process.stdout.write(t),
   stderr: (t) => process.stderr.write(t),

@@ -2,31 +2,9 @@ import { readdirSync, readFileSync } from "node:fs";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
-import { runCli, type CliIo } from "../../src/cli/run.ts";
+import { runCli } from "../../src/cli/run.ts";
+import { fakeIo } from "./fake-io.ts";
 import { fromJson } from "../../src/report/index.ts";
-
-function fakeIo(files: Record<string, string> = {}): CliIo & { out: string; err: string; files: Record<string, string> } {
-  const io = {
-    out: "",
-    err: "",
-    files: { ...files },
-    stdout: (t: string) => {
-      io.out += t;
-    },
-    stderr: (t: string) => {
-      io.err += t;
-    },
-    readFile: (p: string) => {
-      const t = io.files[p];
-      if (t === undefined) throw new Error(`ENOENT: ${p}`);
-      return t;
-    },
-    writeFile: (p: string, t: string) => {
-      io.files[p] = t;
-    },
-  };
-  return io;
-}
 
 const LP = ["design", "--response", "lowpass", "--pass", "1k", "--pass-loss", "0.5", "--stop", "5k", "--stop-atten", "50"];
 
@@ -60,7 +38,7 @@ describe("runCli", () => {
     expect(io.out).toMatch(/resistors \+-0\.1 %, capacitors \+-2\.0 %/);
     const bad = fakeIo();
     expect(runCli([...LP, "--cap-tol", "80%"], bad)).toBe(2);
-    expect(bad.err).toContain("parts.capacitorTolerance");
+    expect(bad.err).toBe('filterwright: --cap-tol "80%": expected a tolerance as a fraction (0.01 for 1 %) greater than 0 and at most 0.5, e.g. --cap-tol 2%\n');
   });
 
   it("prints the output noise and its largest contributors with --noise", () => {
@@ -103,9 +81,13 @@ describe("runCli", () => {
     const io = fakeIo();
     const code = runCli(["design", "--response", "lowpass", "--pass", "fast", "--pass-loss", "-1", "--stop", "5k", "--stop-atten", "50", "--family", "gaussian"], io);
     expect(code).toBe(2);
-    expect(io.err).toContain("passband.edgeHz");
-    expect(io.err).toContain("passband.maxLossDb");
-    expect(io.err).toContain("family");
+    // One line per problem, each naming the flag as typed (not the spec's field path).
+    const lines = io.err.trimEnd().split("\n");
+    expect(lines).toHaveLength(3);
+    expect(lines[0]).toMatch(/^filterwright: --pass "fast": expected the passband edge in Hz/);
+    expect(lines[1]).toMatch(/^filterwright: --pass-loss "-1": expected a loss in dB greater than 0/);
+    expect(lines[2]).toMatch(/^filterwright: --family "gaussian": expected one of "butterworth"/);
+    expect(io.err).not.toContain("passband.");
     expect(io.err).not.toMatch(/\n\s+at /);
   });
 
@@ -139,6 +121,10 @@ describe("runCli", () => {
     expect(io.out).toMatch(/Monte Carlo: 20 boards, resistors \+-\d\.\d %, capacitors \+-\d\.\d %/);
     expect(io.out).toMatch(/% of boards \[[\d.]+, [\d.]+\] at/);
     expect(runCli([...LP, "--yield", "zero"], fakeIo())).toBe(2);
+    // The boards spread their parts as --distribution says (they were always uniform).
+    const normal = fakeIo();
+    expect(runCli([...LP, "--yield", "20", "--distribution", "normal", "--quiet"], normal)).toBe(0);
+    expect(normal.out).toMatch(/Monte Carlo: 20 boards, .* \(normal\): /);
   });
 
   it("checks the op-amp outputs for clipping at the signal levels given, and fails a design that clips", () => {
