@@ -2,7 +2,11 @@
  * How close a stage's values come to their target: the relative errors of
  * f0, Q, fz and gain, and the one ranking cost the component search and the
  * re-tuning use (the largest error plus a tenth of their sum, with the gain
- * error at half weight; common practice, no source).
+ * error at half weight; common practice, no source). Where a topology reports
+ * how far its zeros sit off the jw axis (`zeroDamping`, about 1/(2 Qz); a
+ * balance condition among unequal parts, as in the one-op-amp notch
+ * sections), it is added to the zero-frequency error, so the search keeps
+ * the notch deep as well as in place.
  *
  * @module
  */
@@ -42,7 +46,7 @@ export function stageErrors(fig: StageFigures, target: StageTarget): StageErrors
   return {
     f0: rel(fig.f0Hz, target.f0Hz),
     q: target.order === 2 ? rel(fig.q, target.q) : 0,
-    fz: rel(fig.fzHz, target.fzHz),
+    fz: rel(fig.fzHz, target.fzHz) + (fig.zeroDamping ?? 0),
     gain: rel(fig.gain, target.gain),
   };
 }
@@ -62,7 +66,7 @@ export function costOf(e: StageErrors): number {
 export function figuresCost(fig: StageFigures, target: StageTarget): number {
   if (!Number.isFinite(fig.f0Hz) || !Number.isFinite(fig.gain)) return NaN;
   const q = target.order === 2 ? rel(fig.q, target.q) : 0;
-  return cost4(rel(fig.f0Hz, target.f0Hz), q, rel(fig.fzHz, target.fzHz), rel(fig.gain, target.gain));
+  return cost4(rel(fig.f0Hz, target.f0Hz), q, rel(fig.fzHz, target.fzHz) + (fig.zeroDamping ?? 0), rel(fig.gain, target.gain));
 }
 
 /** The ideal figures of a topology's values: its unchecked core where it has one (values in the search are always positive). */
