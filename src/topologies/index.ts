@@ -23,4 +23,5 @@ export * from "./sallen-key.ts";
 export * from "./multiple-feedback.ts";
 export * from "./state-variable.ts";
 export * from "./tow-thomas.ts";
+export * from "./deliyannis-friend.ts";
 export { getTopology, topologies, topologiesFor, type TopologyQuery } from "./registry.ts";

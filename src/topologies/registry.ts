@@ -6,6 +6,7 @@
  * @module
  */
 import { InvalidArgumentError } from "../errors.ts";
+import { deliyannisFriendTopologies } from "./deliyannis-friend.ts";
 import { firstOrderTopologies } from "./first-order.ts";
 import { multipleFeedbackTopologies } from "./multiple-feedback.ts";
 import { sallenKeyTopologies } from "./sallen-key.ts";
@@ -20,6 +21,7 @@ export const topologies: readonly Topology[] = Object.freeze([
   ...multipleFeedbackTopologies,
   ...stateVariableTopologies,
   ...towThomasTopologies,
+  ...deliyannisFriendTopologies,
 ]);
 
 /**

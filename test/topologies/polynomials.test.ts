@@ -32,9 +32,9 @@ function difference(h: { re: Float64Array; im: Float64Array }, m2: Float64Array,
 const worst: Record<string, { mag: number; deg: number }> = {};
 
 describe("Topology.polynomials", () => {
-  it("the first-order, Sallen-Key and multiple-feedback topologies have closed-form polynomials; the multi-op-amp ones do not", () => {
+  it("the first-order, Sallen-Key, multiple-feedback and Deliyannis-Friend topologies have closed-form polynomials; the multi-op-amp ones do not", () => {
     const ids = withClosedForm.map((t) => t.id);
-    expect(ids.length).toBe(19);
+    expect(ids.length).toBe(20);
     for (const t of topologies) {
       const multi = t.id.startsWith("state-variable") || (t.id.startsWith("tow-thomas") && t.id !== "tow-thomas-lowpass" && t.id !== "tow-thomas-bandpass");
       expect(t.polynomials === undefined, t.id).toBe(multi);
