@@ -38,19 +38,20 @@
  * `resistorRatio` sets rho; `capacitorRatio` is not read (equal capacitors);
  * `capacitor` sets C1 (= C2); `resistor` sets R4, 10 kOhm by default.
  * Default rho (a choice of this project, no source): rho = 4 Q, i.e.
- * Q0 = sqrt(Q), the enhancement Q/Q0 = sqrt(Q), from Q = 4 up (rho 16 at
- * Q = 4, 60 at Q = 15, 200 at Q = 50, against 4 Q^2 = 900 and 10,000 for the
- * plain MFB bandpass), and rho = Q^2 (enhancement 2) below Q = 4. A fixed
- * rho = 16 (Q0 = 2) would keep the spread smaller but gives a Q spread of
- * about 17 % (one standard deviation) at Q = 15 with 5 % capacitors, against
- * about 7 % with the default (Monte Carlo below).
+ * Q0 = sqrt(Q) and the enhancement Q/Q0 = sqrt(Q) (rho 20 at Q = 5, 60 at
+ * Q = 15, 200 at Q = 50, against 4 Q^2 = 100, 900 and 10,000 for the MFB
+ * bandpass with equal capacitors). A fixed rho = 16 (Q0 = 2) would keep the
+ * spread smaller but gives a Q spread of about 17 % (one standard deviation)
+ * at Q = 15 with 5 % capacitors, against about 7 % with the default (Monte
+ * Carlo below).
  *
  * Gain: free, with |K| up to 99 % of 2 Q Q0 (1 + alpha) (the gain without
  * attenuator, R2 infinite; the 1 % margin keeps R2 below about 100 (R1 || R2)).
  *
- * Limits: Q from 2 (below that the MFB bandpass with an input attenuator
- * reaches the Q with a resistor ratio 4 Q^2 <= 16 and no positive feedback:
- * choose "mfb-bandpass-attenuated") up to 50 (above, choose the
+ * Limits: Q from 5 (below that the MFB bandpass with an input attenuator
+ * reaches the Q with a resistor ratio 4 Q^2 <= 100, no positive feedback and
+ * Q sensitivities of 1/2 at most, against E - 1/2 here: choose
+ * "mfb-bandpass-attenuated"; our choice, no source) up to 50 (above, choose the
  * "state-variable-bandpass"); a chosen rho within [1, 400] with the
  * enhancement Q/Q0 within [1.25, 25] (below 1.25 the divider ratio R5/R4
  * becomes a negligible, absurdly small resistor; above 25 the passive Q
@@ -77,16 +78,33 @@
  * Q0 (by 1 + alpha, and makes the DC-gain error E times larger); it stays
  * below that of a plain MFB bandpass at the full Q (whose Q0 is Q).
  * `gbwDemandHz` is computed numerically from this stage's own finite-GBW
- * poles (f0 and Q within 1 %), so it includes the feedback's effect; at
- * Q = 15, gain -10 it is 395 f0 here (Q0 = 3.87), against 1,498 f0 for
- * "mfb-bandpass-attenuated" and 1,505 f0 for "state-variable-bandpass"
- * (measured with the registry's `gbwDemandHz`).
+ * poles (f0 and Q within 1 %), so it includes the feedback's effect. At
+ * Q = 15, |gain| = 10 (measured with the registry's `gbwDemandHz`, in units
+ * of f0): 401 here (Q0 = 3.873; the formula above gives 403), 382 for the
+ * passive part alone ("mfb-bandpass-attenuated" at Q = Q0), 1,478 for
+ * "mfb-bandpass-attenuated" and "mfb-bandpass" at Q = 15, 7,059 for
+ * "state-variable-bandpass" (gain +10). The scipy reference
+ * (scripts/reference/topology_deliyannis_friend.py) agrees to 0.2 %.
  *
- * Monte Carlo (test/topologies/deliyannis-friend.test.ts; 2,000 boards,
- * resistors uniform within 1 %, capacitors uniform within 5 %, ideal
- * op-amp, figures from each topology's `figures`; Q = 15 at 10 kHz):
- * see MONTE CARLO FIGURES in that file's output; recorded here:
- *   (filled in below by the measurement)
+ * Monte Carlo (test/topologies/deliyannis-friend.test.ts, "MONTE CARLO
+ * FIGURES"): Q = 15 at 10 kHz, 2,000 boards, every resistor uniform within
+ * 1 %, every capacitor uniform within 5 %, figures from each topology's
+ * `figures` (ideal op-amp), mulberry32 seed 20261202; relative standard
+ * deviation and 0.5-99.5 % range:
+ *
+ *   topology (gain)                          Q sd    Q range            peak gain sd  peak gain range
+ *   deliyannis-friend-bandpass (-10)         6.91 %  -13.9 % .. +21.0 %  8.79 %       -18.0 % .. +26.3 %
+ *   same, resistorRatio 16 (Q0 = 2)          16.6 %  -26.5 % .. +60.8 %  18.6 %       -30.0 % .. +67.6 %
+ *   mfb-bandpass (-450, equal capacitors)    0.41 %  -0.94 % .. +0.88 %  2.19 %       -4.61 % .. +5.46 %
+ *   mfb-bandpass-attenuated (-10)            0.40 %  -0.89 % .. +0.87 %  2.18 %       -5.38 % .. +5.30 %
+ *   state-variable-bandpass (+10)            2.24 %  -4.80 % .. +5.41 %  0.94 %       -2.29 % .. +2.11 %
+ *
+ * The Deliyannis-Friend spreads agree with the root sum of squares of the
+ * sensitivities above to 15 %. So the stage buys a resistor spread of 60
+ * instead of 900 and a quarter of the MFB's GBW demand with about 17 times
+ * the MFB's Q spread (mostly the capacitor mismatch, S = E/2 - 1/2 = 1.4):
+ * at Q 15 it wants 1 % (or matched) capacitors; the state-variable stage
+ * remains the low-sensitivity choice at three op-amps.
  *
  * As-built polynomials (closed form, `polynomials`), with 1/A = g0 + g1 z,
  * z = s/w, k' = k - 1/A, multiplying through: c0 = G3 Ga, c1 = w G3 (C1 + C2),
@@ -113,8 +131,8 @@ import type { ComponentValues, StageChoices, StageTarget, Topology } from "./typ
 const REF =
   'T. Deliyannis, "High-Q factor circuit with reduced sensitivity", Electronics Letters 4(26):577-579, 1968; J. J. Friend, C. A. Harris & D. Hilberman, "STAR: an active biquadratic filter section", IEEE Trans. Circuits Syst. CAS-22(2):115-121, 1975 (equations derived here from the nodal equations)';
 
-/** Lowest Q the Deliyannis-Friend bandpass accepts (below it the plain MFB bandpass needs a resistor ratio of at most 16). */
-export const DELIYANNIS_FRIEND_MIN_Q = 2;
+/** Lowest Q the Deliyannis-Friend bandpass accepts (below it the MFB bandpass with an input attenuator needs a resistor ratio of at most 100 and is less sensitive). */
+export const DELIYANNIS_FRIEND_MIN_Q = 5;
 /** Highest Q the Deliyannis-Friend bandpass accepts (above it use the state-variable bandpass). */
 export const DELIYANNIS_FRIEND_MAX_Q = 50;
 /** Smallest and largest resistor ratio R3/(R1 || R2) accepted as a choice. */
@@ -128,8 +146,8 @@ const q = (t: StageTarget): number => t.q as number;
 
 /**
  * The default resistor ratio R3/(R1 || R2) of a Deliyannis-Friend bandpass
- * for a pole Q: `4 Q` from Q = 4 up (passive Q0 = sqrt(Q)), `Q^2` below
- * (Q0 = Q/2); a choice of this project (see the module header).
+ * for a pole Q: `4 Q` (passive Q0 = sqrt(Q)); a choice of this project (see
+ * the module header).
  *
  * @param qv - pole Q (> 0)
  * @returns the ratio
@@ -140,7 +158,7 @@ const q = (t: StageTarget): number => t.q as number;
  * ```
  */
 export function deliyannisFriendDefaultRatio(qv: number): number {
-  return qv >= 4 ? 4 * qv : qv * qv;
+  return 4 * qv;
 }
 
 function ratioOf(t: StageTarget, c: StageChoices): number {
@@ -161,7 +179,7 @@ function maxGain(qv: number, rho: number): number {
 function limits(t: StageTarget, c: StageChoices): string | null {
   const qv = q(t);
   if (qv < DELIYANNIS_FRIEND_MIN_Q * (1 - 1e-9)) {
-    return `a Deliyannis-Friend bandpass is meant for Q of ${DELIYANNIS_FRIEND_MIN_Q} and above (got Q = ${qv}); below that the multiple-feedback bandpass reaches the Q without positive feedback: choose "mfb-bandpass-attenuated"`;
+    return `a Deliyannis-Friend bandpass is meant for Q of ${DELIYANNIS_FRIEND_MIN_Q} and above (got Q = ${qv}); below that the multiple-feedback bandpass reaches the Q without positive feedback, with a resistor ratio 4Q^2 of at most 100 and lower sensitivities: choose "mfb-bandpass-attenuated"`;
   }
   if (qv > DELIYANNIS_FRIEND_MAX_Q * (1 + 1e-9)) {
     return `a Deliyannis-Friend bandpass at Q = ${qv} is too sensitive to its parts and its op-amp (it accepts Q up to ${DELIYANNIS_FRIEND_MAX_Q}); use the state-variable stage ("state-variable-bandpass") for this Q`;
