@@ -63,7 +63,7 @@ export function realisableArb(topo: Topology): fc.Arbitrary<{ target: StageTarge
 
 /**
  * One fixed target each topology realises (f0 2 kHz, Q 1.2, a gain it
- * accepts; Q 8 for the Deliyannis-Friend bandpass, which starts at Q 2).
+ * accepts; Q 8 for the Deliyannis-Friend bandpass, which starts at Q 5).
  */
 export function sampleTarget(t: Topology): StageTarget {
   const kind = t.kinds[0] as StageTarget["kind"];

@@ -8,6 +8,7 @@ import {
 } from "../../src/topologies/deliyannis-friend.ts";
 import type { ComponentValues, StageChoices, StageTarget, Topology } from "../../src/topologies/types.ts";
 import { UnrealisableError } from "../../src/errors.ts";
+import { asBuiltPole } from "../../src/topologies/as-built.ts";
 import { cascadeResponse } from "../../src/evaluate/cascade.ts";
 import { circuitToSpice } from "../../src/circuit/spice.ts";
 import type { Element, OpAmpModel } from "../../src/circuit/types.ts";
@@ -215,6 +216,11 @@ describe("deliyannisFriendBandpass sensitivities", () => {
     console.log(`GBW demand / f0 at Q 15: Deliyannis-Friend ${(d / 1e4).toFixed(0)}, MFB with attenuator at Q0 ${q0.toFixed(3)} ${(passive / 1e4).toFixed(0)}, at Q 15 ${(full / 1e4).toFixed(0)}`);
     expect(d).toBeGreaterThan(passive);
     expect(d).toBeLessThan(full);
+    // At GBW = 1000 f0 the pole moves by about delta = Q0 (1 + alpha)(1 + 1/(4 Q0^2)) / 1000 (first order): f0 down, Q up.
+    const delta = (q0 * (1 + alpha) * (1 + 1 / (4 * q0 * q0))) / 1000;
+    const pole = asBuiltPole(df, v, { kind: "single-pole", a0: 1e12, gbwHz: 1e7 });
+    expect(Math.abs((1 - pole.f0Hz / 1e4) / delta - 1)).toBeLessThan(0.05);
+    expect(Math.abs((pole.q! / 15 - 1) / delta - 1)).toBeLessThan(0.05);
   });
 });
 

@@ -87,7 +87,7 @@ describe("Topology.response at 0 Hz", () => {
     for (const topo of topologies) {
       const kind = topo.kinds[0]!;
       const fixed = topo.fixedGain;
-      // Q 6 for the Deliyannis-Friend bandpass, which starts at Q 2
+      // Q 6 for the Deliyannis-Friend bandpass, which starts at Q 5
       const base = { order: topo.order, kind, f0Hz: 500, q: topo.id === "deliyannis-friend-bandpass" ? 6 : 1.5 } as const;
       let gain = topo.id.includes("unity") || topo.id.includes("buffer") ? 1 : 3;
       if (fixed !== undefined) gain = fixed(base);
