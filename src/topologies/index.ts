@@ -26,4 +26,5 @@ export * from "./tow-thomas.ts";
 export * from "./boctor.ts";
 export * from "./twin-t.ts";
 export * from "./fliege.ts";
+export * from "./deliyannis-friend.ts";
 export { getTopology, topologies, topologiesFor, type TopologyQuery } from "./registry.ts";

@@ -5,7 +5,8 @@
  * call the Deliyannis-Friend form; strictly, T. Deliyannis ("High-Q factor
  * circuit with reduced sensitivity", Electronics Letters 4(26):577-579, 1968)
  * and J. J. Friend (1970) add positive feedback for Q enhancement, which this
- * stage does not have.
+ * stage does not have; the stage with it is "deliyannis-friend-bandpass"
+ * (deliyannis-friend.ts).
  *
  * General MFB structure: Y1 in -> a, Y2 a -> 0, Y3 a -> n, Y4 a -> out,
  * Y5 n -> out; U1 inverting input n, non-inverting input grounded.

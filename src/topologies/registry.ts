@@ -7,6 +7,7 @@
  */
 import { InvalidArgumentError } from "../errors.ts";
 import { boctorTopologies } from "./boctor.ts";
+import { deliyannisFriendTopologies } from "./deliyannis-friend.ts";
 import { firstOrderTopologies } from "./first-order.ts";
 import { fliegeTopologies } from "./fliege.ts";
 import { multipleFeedbackTopologies } from "./multiple-feedback.ts";
@@ -26,6 +27,7 @@ export const topologies: readonly Topology[] = Object.freeze([
   ...boctorTopologies,
   ...twinTTopologies,
   ...fliegeTopologies,
+  ...deliyannisFriendTopologies,
 ]);
 
 /**

@@ -61,10 +61,13 @@ export function realisableArb(topo: Topology): fc.Arbitrary<{ target: StageTarge
     .filter(({ target, choices }) => topo.check(target, choices) === null);
 }
 
-/** One fixed target each topology realises (f0 2 kHz, Q 1.2, a gain it accepts). */
+/**
+ * One fixed target each topology realises (f0 2 kHz, Q 1.2, a gain it
+ * accepts; Q 8 for the Deliyannis-Friend bandpass, which starts at Q 5).
+ */
 export function sampleTarget(t: Topology): StageTarget {
   const kind = t.kinds[0] as StageTarget["kind"];
-  const base = { order: t.order, kind, f0Hz: 2000, q: 1.2 } as const;
+  const base = { order: t.order, kind, f0Hz: 2000, q: t.id === "deliyannis-friend-bandpass" ? 8 : 1.2 } as const;
   let gain = t.id.includes("unity") || t.id.includes("buffer") ? 1 : 2.5;
   if (t.id === "mfb-bandpass") gain = 3;
   // the single-amplifier notch sections have a bounded gain (HF gain below 1 for the highpass-notch)

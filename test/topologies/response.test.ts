@@ -87,7 +87,8 @@ describe("Topology.response at 0 Hz", () => {
     for (const topo of topologies) {
       const kind = topo.kinds[0]!;
       const fixed = topo.fixedGain;
-      const base = { order: topo.order, kind, f0Hz: 500, q: 1.5 } as const;
+      // Q 6 for the Deliyannis-Friend bandpass, which starts at Q 5
+      const base = { order: topo.order, kind, f0Hz: 500, q: topo.id === "deliyannis-friend-bandpass" ? 6 : 1.5 } as const;
       let gain = topo.id.includes("unity") || topo.id.includes("buffer") ? 1 : 3;
       if (topo.id.startsWith("boctor-")) gain = kind === "highpass-notch" ? 0.8 : 1; // bounded gains (below 1 at HF for the highpass-notch)
       if (fixed !== undefined) gain = fixed(base);
