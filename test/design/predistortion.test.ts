@@ -211,10 +211,12 @@ describe("designFilter pre-distorts for a finite-GBW op-amp", () => {
 
 describe("designFilter with an ideal op-amp is unchanged", () => {
   // Component values printed by designFilter BEFORE the pre-distortion
-  // change (commit a8759cc), kept as literals so any drift shows.
+  // change (commit a8759cc), kept as literals so any drift shows. The family
+  // (spec 1) and the topologies (spec 4) are pinned to what the automatic
+  // choices picked then (one-op-amp notch sections exist since).
   const before: { spec: FilterSpec; components: Record<string, number>[] }[] = [
     {
-      spec: { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } },
+      spec: { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 }, family: "legendre" },
       components: [
         { R1: 8450, R2: 12100, C1: 2.2e-8, C2: 1.5e-8 },
         { R3: 4530, R4: 4530, R5: 4020, C3: 1.8e-7, C4: 4.7e-9 },
@@ -236,7 +238,7 @@ describe("designFilter with an ideal op-amp is unchanged", () => {
       ],
     },
     {
-      spec: { response: "lowpass", passband: { edgeHz: 2000, maxLossDb: 0.1 }, stopband: { edgeHz: 5000, minAttenuationDb: 60 }, family: "elliptic" },
+      spec: { response: "lowpass", passband: { edgeHz: 2000, maxLossDb: 0.1 }, stopband: { edgeHz: 5000, minAttenuationDb: 60 }, family: "elliptic", topology: ["auto", "state-variable-notch", "state-variable-notch"] },
       components: [
         { R1: 5230, C1: 2.2e-8 },
         { R2: 1070, R3: 1070, R4: 1050, R5: 1740, R6: 1020, R7: 1050, C2: 8.2e-8, R8: 1070, C3: 8.2e-8, R9: 19600, R10: 1050, R11: 1070 },

@@ -75,8 +75,13 @@ describe("gridMarginDb", () => {
       const h = cascadeResponse(builtStages(r), grid.freqHz, r.spec.opamp);
       const mag = grid.freqHz.map((_, i) => Math.hypot(h.re[i]!, h.im[i]!));
       const g = gridMarginDb(r.spec, grid, mag);
-      // the grid here is the closed form's, the verification the polynomials' (agreeing to about 1e-7 dB at high Q)
-      expect(g).toBeGreaterThanOrEqual(r.verification.marginDb - 1e-6);
+      // the grid here is the closed form's, the verification the polynomials' (agreeing to about 1e-7 dB at high Q);
+      // a refined peak can only raise the passband level, which shrinks the loss and attenuation margins but
+      // grows the gain margin when the level sits below the wanted gain: then the grid may be below by what
+      // the refinement found
+      const v = r.verification;
+      const gainBindsLow = v.gainMarginDb === v.marginDb && v.gainErrorDb < 0;
+      expect(g).toBeGreaterThanOrEqual(v.marginDb - (gainBindsLow ? 1e-4 : 1e-6));
       expect(g - r.verification.marginDb).toBeLessThan(0.05);
     }
   });

@@ -23,7 +23,9 @@ import type { ScaledRational } from "../../src/evaluate/types.ts";
 import { boardStagesOf } from "../helpers/boards.ts";
 
 // Our own scenarios: an anti-alias lowpass for a slow data logger with a real op-amp, a rumble highpass for a
-// turntable preamp, and the demo's hydrophone bandpass and hum notch (state-variable notches: the generic path).
+// turntable preamp, and the demo's hydrophone bandpass and hum notch (state-variable notches: the generic path),
+// their topologies pinned to the multi-amplifier stages the model was first checked on (the automatic choice now
+// builds the hydrophone as a band split and the hum notch with a one-op-amp notch section).
 const SPECS: Record<string, FilterSpec> = {
   "logger lowpass": {
     response: "lowpass",
@@ -33,9 +35,15 @@ const SPECS: Record<string, FilterSpec> = {
     opamp: { a0: 2e5, gbwHz: "3M" },
   },
   "rumble highpass": { response: "highpass", passband: { edgeHz: 300, maxLossDb: 1 }, stopband: { edgeHz: 100, minAttenuationDb: 40 } },
-  "hydrophone bandpass": SCENARIOS["hydrophone"]!.spec,
-  "hum notch": SCENARIOS["hum-notch"]!.spec,
+  "hydrophone bandpass": { ...SCENARIOS["hydrophone"]!.spec, topology: ["mfb-bandpass", "mfb-bandpass", "mfb-bandpass-attenuated", "tow-thomas-bandpass"] },
+  "hum notch": { ...SCENARIOS["hum-notch"]!.spec, topology: "state-variable-notch" },
+  // the same specs as the automatic choice builds them: a band split, a one-op-amp notch section
+  "hydrophone band split": SCENARIOS["hydrophone"]!.spec,
+  "hum notch, one-op-amp section": SCENARIOS["hum-notch"]!.spec,
 };
+// the model's own properties are checked on the first four; the automatic designs only board by board (a deep
+// one-op-amp notch puts a level near a zero, where the dB change is far from linear at 0.1 % steps)
+const MODEL_SPECS = ["logger lowpass", "rumble highpass", "hydrophone bandpass", "hum notch"];
 
 interface Case {
   readonly plan: MaskPlan;
@@ -89,7 +97,7 @@ function levelChanges(c: Case, d: Float64Array, eps: number): { exact: Float64Ar
 const maxAbs = (a: Float64Array): number => a.reduce((m, x) => Math.max(m, Math.abs(x)), 0);
 
 describe("linearModel", () => {
-  it.each(Object.keys(SPECS))("%s: its points give the design's own nominal margin (1e-9 dB)", (name) => {
+  it.each(MODEL_SPECS)("%s: its points give the design's own nominal margin (1e-9 dB)", (name) => {
     const c = caseOf(name);
     expect(Math.abs(c.model.nominal.marginDb - c.marginDb)).toBeLessThan(1e-9);
     expect(c.model.parts.length).toBe(c.stages.reduce((k, s) => k + s.nominal.length, 0));
@@ -104,7 +112,7 @@ describe("linearModel", () => {
     expect(Math.max(...stop)).toBe(c.model.levelDb[c.model.extremes.stop]);
   });
 
-  it.each(Object.keys(SPECS))("%s: predicts the level changes to second order in the deviations", (name) => {
+  it.each(MODEL_SPECS)("%s: predicts the level changes to second order in the deviations", (name) => {
     const c = caseOf(name);
     const d = unitDeviations(c.model.parts.length, 1, "uniform", 7);
     const big = levelChanges(c, d, 1e-3);
@@ -117,7 +125,7 @@ describe("linearModel", () => {
     expect(err(small)).toBeLessThan(err(big) / 30 + 1e-9);
   });
 
-  it.each(Object.keys(SPECS))("%s: gives the first-order change of the band extremes (envelope theorem)", (name) => {
+  it.each(MODEL_SPECS)("%s: gives the first-order change of the band extremes (envelope theorem)", (name) => {
     const c = caseOf(name);
     const p = c.model.parts.length;
     for (const seed of [1, 2, 3]) {
@@ -155,6 +163,11 @@ describe("predictYield", () => {
     ["hydrophone bandpass", 0.01, 0.01, "normal", 0.03, 0.97],
     ["hum notch", 0.001, 0.01, "uniform", 0.02, 0.98],
     ["hum notch", 0.01, 0.01, "normal", 0.03, 0.97],
+    // at 5 % capacitors the first-order model is a screen, not a verdict: measured 3.8 % apart in yield and
+    // 93 % of verdicts shared for the one-op-amp notch (the design's yield always comes from boards)
+    ["hydrophone band split", 0.01, 0.05, "uniform", 0.05, 0.95],
+    ["hum notch, one-op-amp section", 0.01, 0.05, "uniform", 0.05, 0.9],
+    ["hum notch, one-op-amp section", 0.001, 0.01, "normal", 0.03, 0.97],
   ];
   it.each(SMALL)("%s at %s R / %s C (%s): agrees with runBoards board by board", (name, rt, ct, distribution, diff, same) => {
     const c = caseOf(name);
