@@ -1,7 +1,8 @@
 /**
  * Re-verifying a stored design from its parts: the nominal verification a
  * design result records (the mask figures and margins, polarity, stability,
- * `meetsSpec`, the clipping check, the response curve) and each stage's
+ * `meetsSpec`, `boardsMeetSpec` from it and the stored yield verdict, the
+ * clipping check, the response curve) and each stage's
  * as-built figures are computed again from the stored part values with the
  * design layer's own checks ({@link checkMask}, {@link responseCurve},
  * {@link headroomOf}, each topology's `figures`, {@link asBuiltPole}) and
@@ -130,7 +131,8 @@ export function recheckDesign(
     meetsSpec: m.marginDb >= 0 && polarityOk && m.unstableStages.length === 0 && headroom?.clips !== true,
     opamp: spec.opamp,
   };
-  for (const [k, x] of Object.entries(recomputed)) same(`verification.${k}`, (v as unknown as Record<string, unknown>)[k], x);
+  const boardsMeetSpec = recomputed.meetsSpec && v.yield.met;
+  for (const [k, x] of Object.entries({ ...recomputed, boardsMeetSpec })) same(`verification.${k}`, (v as unknown as Record<string, unknown>)[k], x);
   same("verification.headroom", v.headroom, headroom);
   same("verification.curve", v.curve, responseCurve(spec, boards, spec.opamp, v.curve.freqHz.length));
 }
