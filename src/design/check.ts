@@ -11,6 +11,7 @@ import { FilterwrightError, InvalidArgumentError, type ErrorDetails } from "../e
 import { getTopology } from "../topologies/index.ts";
 import { isInSeries } from "../parts/index.ts";
 import { specToInput, validateSpec, type DesignSpec } from "./spec.ts";
+import { compare } from "./recheck.ts";
 import type { DesignResult } from "./types.ts";
 
 const known = new WeakSet<object>();
@@ -72,8 +73,8 @@ function listOf(keys: readonly string[]): string {
 
 class Checker {
   constructor(
-    private readonly fn: string,
-    private readonly make: ResultErrorFactory,
+    readonly fn: string,
+    readonly make: ResultErrorFactory,
     readonly strict: boolean,
   ) {}
 
@@ -283,6 +284,8 @@ function checkSpecField(c: Checker, prefix: string, specRaw: Raw): DesignSpec {
   }
   if (c.strict) {
     c.keys(`${prefix}.spec`, specRaw, Object.keys(spec));
+    // Already canonical: what validation makes of it is what is stored.
+    compare(c.make, c.fn, `${prefix}.spec`, specRaw, spec, "the canonical value validateSpec makes of the stored spec");
     for (const k of ["resistorRange", "capacitorRange"] as const) c.obj(`${prefix}.spec.${k}`, specRaw[k], ["min", "max"]);
     c.obj(`${prefix}.spec.opamp`, specRaw["opamp"], spec.opamp.kind === "ideal" ? ["kind"] : ["kind", "a0", "gbwHz"]);
     if (specRaw["levels"] !== null) c.obj(`${prefix}.spec.levels`, specRaw["levels"], ["inputPeakV", "outputSwingV"]);

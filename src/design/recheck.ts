@@ -47,14 +47,30 @@ function show(v: unknown): string {
 
 /**
  * Compare a stored value with its recomputed one, walking both with an
- * explicit stack, and throw at the first difference.
+ * explicit stack, and throw at the first difference (numbers within the
+ * recheck tolerance; strings, booleans and null exactly).
+ *
+ * @param make - builds the error
+ * @param fn - public function name, for the error
+ * @param path - path of the stored value
+ * @param stored - the stored value
+ * @param recomputed - the value it should be
+ * @param what - what the recomputed value is, for the message
+ * @throws whatever `make` builds, naming the first differing field with both values
  */
-function compare(make: (d: ErrorDetails) => FilterwrightError, fn: string, path: string, stored: unknown, recomputed: unknown): void {
+export function compare(
+  make: (d: ErrorDetails) => FilterwrightError,
+  fn: string,
+  path: string,
+  stored: unknown,
+  recomputed: unknown,
+  what = "the value recomputed from the parts",
+): void {
   const stack: [string, unknown, unknown][] = [[path, stored, recomputed]];
   while (stack.length > 0) {
     const [p, a, b] = stack.pop() as [string, unknown, unknown];
     const differ = (): never => {
-      throw make({ fn, path: p, received: a, message: `the stored value ${show(a)} differs from the value recomputed from the parts, ${show(b)}` });
+      throw make({ fn, path: p, received: a, message: `the stored value ${show(a)} differs from ${what}, ${show(b)}` });
     };
     if (typeof a === "number" && typeof b === "number") {
       if (!close(a, b)) differ();

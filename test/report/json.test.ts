@@ -224,3 +224,14 @@ describe("fromJson", () => {
     );
   });
 });
+
+describe("fromJson stored spec", () => {
+  it("refuses a stored spec that is valid but not canonical, naming the field", () => {
+    const f = file();
+    const s = at(f, "result.spec");
+    s["capacitorTolerance"] = 0.1; // not fixed by the spec, so validation gives the default back
+    const e = refused(f);
+    expect(e.path).toBe("result.spec.capacitorTolerance");
+    expect(e.message).toContain("canonical value");
+  });
+});
