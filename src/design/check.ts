@@ -343,7 +343,8 @@ function checkYield(c: Checker, p: string, v: unknown, spec: DesignSpec): void {
   if (unstable > boards - passed) c.fail(`${p}.unstableBoards`, `expected at most the ${boards - passed} boards that failed`, unstable);
   const fraction = y["fraction"] as number;
   if (Math.abs(fraction - passed / boards) > 1e-12) c.fail(`${p}.fraction`, `expected passed / boards = ${passed / boards}`, fraction);
-  if (!((y["lower95"] as number) <= fraction && fraction <= (y["upper95"] as number))) c.fail(`${p}.fraction`, "expected a fraction inside its 95 % interval [lower95, upper95]", fraction);
+  // The Wilson interval holds its fraction; 1e-12 absorbs rounding at a fraction of 0 or 1.
+  if (!((y["lower95"] as number) <= fraction + 1e-12 && fraction <= (y["upper95"] as number) + 1e-12)) c.fail(`${p}.fraction`, "expected a fraction inside its 95 % interval [lower95, upper95]", fraction);
   if (y["target"] !== spec.yieldTarget) c.fail(`${p}.target`, `expected the spec's yield target ${spec.yieldTarget}`, y["target"]);
   if (y["met"] !== (y["lower95"] as number) >= spec.yieldTarget) c.fail(`${p}.met`, `expected ${String(!y["met"])}: met is whether lower95 reaches the target`, y["met"]);
   if (y["distribution"] !== spec.partDistribution) c.fail(`${p}.distribution`, `expected the spec's part distribution ${JSON.stringify(spec.partDistribution)}`, y["distribution"]);

@@ -89,17 +89,18 @@ function ownData(value: unknown, maxDepth: number): unknown {
 }
 
 /**
- * The op-amp must still have gain at every frequency the mask checks: its
- * gain-bandwidth product above the highest band frequency (edges and
- * `passband.topHz`), where a single-pole op-amp's open-loop gain falls to 1.
- * Below that no stage built with it reaches its figures (the margins come
- * out meaningless), so such a spec is refused rather than designed.
+ * The op-amp must still have gain across the passband the filter passes: its
+ * gain-bandwidth product (where a single-pole op-amp's open-loop gain falls
+ * to 1) above the highest passband frequency (its edges and
+ * `passband.topHz`). Below that no stage built with it can pass the band,
+ * so such a spec is refused rather than designed; between that and the
+ * stopband the design is made and reports, with its margins, that it fails.
  */
 function readOpampAboveBands(r: Reader, opamp: OpAmpModel, bands: ReturnType<typeof readBands>): void {
-  if (opamp.kind !== "single-pole" || bands.passbandHz === undefined || bands.stopbandHz === undefined) return;
-  const top = Math.max(...bands.passbandHz, ...bands.stopbandHz, bands.passbandTopHz ?? 0);
+  if (opamp.kind !== "single-pole" || bands.passbandHz === undefined) return;
+  const top = Math.max(...bands.passbandHz, bands.passbandTopHz ?? 0);
   if (!(opamp.gbwHz > top)) {
-    r.add("opamp.gbwHz", `expected a gain-bandwidth product above the highest band frequency (${top} Hz), where the op-amp's gain falls to 1`, opamp.gbwHz);
+    r.add("opamp.gbwHz", `expected a gain-bandwidth product above the highest passband frequency (${top} Hz); the op-amp's gain falls to 1 there`, opamp.gbwHz);
   }
 }
 

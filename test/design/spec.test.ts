@@ -238,10 +238,11 @@ describe("validateSpec op-amp ranges", () => {
     }
   });
 
-  it("refuses a gain-bandwidth product at or below the highest band frequency", () => {
-    const issues = issuesOf({ ...base, opamp: { a0: 1e5, gbwHz: 12000 } });
+  it("refuses a gain-bandwidth product at or below the highest passband frequency", () => {
+    const issues = issuesOf({ ...base, opamp: { a0: 1e5, gbwHz: 2000 } });
     expect(issues.map((i) => i.path)).toEqual(["opamp.gbwHz"]);
-    expect(issues[0]?.message).toContain("highest band frequency (12000 Hz)");
+    expect(issues[0]?.message).toContain("highest passband frequency (2000 Hz)");
+    expect(validateSpec({ ...base, opamp: { a0: 1e5, gbwHz: 2001 } }).opamp.kind).toBe("single-pole");
     const hp = { response: "highpass", passband: { edgeHz: 1000, maxLossDb: 1, topHz: "50k" }, stopband: { edgeHz: 200, minAttenuationDb: 30 } };
     expect(issuesOf({ ...hp, opamp: { a0: 1e5, gbwHz: 40000 } })[0]?.message).toContain("(50000 Hz)");
     expect(validateSpec({ ...hp, opamp: { a0: 1e5, gbwHz: 60000 } }).opamp).toEqual({ kind: "single-pole", a0: 1e5, gbwHz: 60000 });

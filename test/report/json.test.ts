@@ -3,7 +3,8 @@ import fc from "fast-check";
 import { designFilter, type DesignResult, type FilterSpec } from "../../src/design/index.ts";
 import { deepFreeze } from "../../src/design/check.ts";
 import { fromJson, toJson, JSON_MAX_CHARS, JSON_MAX_DEPTH } from "../../src/report/json.ts";
-import { ParseError } from "../../src/errors.ts";
+import { ParseError, SpecError } from "../../src/errors.ts";
+import { firstNonFinite } from "../helpers/finite.ts";
 import { eSeries } from "../../src/parts/index.ts";
 import { thrownBy } from "../helpers/throws.ts";
 
@@ -233,5 +234,22 @@ describe("fromJson stored spec", () => {
     const e = refused(f);
     expect(e.path).toBe("result.spec.capacitorTolerance");
     expect(e.message).toContain("canonical value");
+  });
+});
+
+describe("designFilter and fromJson at the op-amp's limits", () => {
+  it("refuses gbwHz = 5e-324 at validation (its design had NaN margins that toJson wrote as null)", () => {
+    const e = thrownBy(() => designFilter({ ...spec, opamp: { a0: 1e5, gbwHz: 5e-324 } }), SpecError);
+    expect(e.issues.map((i) => i.path)).toEqual(["opamp.gbwHz"]);
+  });
+
+  it.each([
+    ["lowpass", { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 }, opamp: { a0: 1e5, gbwHz: 1001 } }],
+    ["highpass, a0 = 10", { response: "highpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "300", minAttenuationDb: 40 }, opamp: { a0: 10, gbwHz: 1001 } }],
+    ["bandpass", { response: "bandpass", passband: { edgeHz: [900, 1100], maxLossDb: 1 }, stopband: { edgeHz: [500, 2000], minAttenuationDb: 30 }, opamp: { a0: 1e5, gbwHz: 1101 } }],
+  ] as const)("designs with the slowest accepted op-amp (%s): every number finite, and the file reads back", (_name, s) => {
+    const r = designFilter(s as FilterSpec);
+    expect(firstNonFinite(r)).toBeNull();
+    expect(fromJson(toJson(r))).toEqual(r);
   });
 });
