@@ -47,6 +47,7 @@ export {
 } from "./prototype.ts";
 export type { AttenuationPointOptions, PrototypeSpec } from "./prototype.ts";
 export { besselOrderForDelay, minimumOrder, ORDER_RANGES, ORDER_SEARCH_LIMIT } from "./order.ts";
+export type { AcceptedRange, OrderRanges } from "./order.ts";
 export type {
   BesselDelayResult,
   BesselDelaySpec,

@@ -96,6 +96,26 @@ export interface MinimumOrderResult {
  */
 export const ORDER_SEARCH_LIMIT: Readonly<Record<"bessel" | "legendre", number>> = Object.freeze({ bessel: 100, legendre: 60 });
 
+/** A closed range of accepted numbers. */
+export interface AcceptedRange {
+  /** Smallest accepted value (for the stopband attenuation: exclusive). */
+  readonly min: number;
+  /** Largest accepted value. */
+  readonly max: number;
+}
+
+/** The accepted ranges of {@link minimumOrder}'s numbers (see {@link ORDER_RANGES}). */
+export interface OrderRanges {
+  /** Every band edge, rad/s. */
+  readonly edgeW: AcceptedRange;
+  /** Smallest relative separation of two edges that must differ (high >= low * (1 + this)). */
+  readonly edgeSeparation: number;
+  /** `passbandLossDb`, dB. */
+  readonly passbandLossDb: AcceptedRange;
+  /** `stopbandAttenuationDb`, dB (above `min`, and above the passband loss). */
+  readonly stopbandAttenuationDb: AcceptedRange;
+}
+
 /**
  * Accepted ranges of {@link minimumOrder}'s numbers. Edges: 1e-9 to 1e15
  * rad/s (products and squares of two edges stay far inside the double
@@ -105,11 +125,11 @@ export const ORDER_SEARCH_LIMIT: Readonly<Record<"bessel" | "legendre", number>>
  * Stopband attenuation: up to 400 dB (10^40 in power, so the order formulas
  * stay finite). Chosen so every result is finite (common practice, no source).
  */
-export const ORDER_RANGES = Object.freeze({
+export const ORDER_RANGES: OrderRanges = Object.freeze({
   edgeW: Object.freeze({ min: 1e-9, max: 1e15 }),
   edgeSeparation: 1e-9,
   passbandLossDb: Object.freeze({ min: 1e-9, max: 60 }),
-  stopbandAttenuationDb: Object.freeze({ max: 400 }),
+  stopbandAttenuationDb: Object.freeze({ min: 0, max: 400 }),
 });
 
 interface CheckedSpec {
