@@ -46,7 +46,8 @@ export {
   unitFrequencyMeaning,
 } from "./prototype.ts";
 export type { AttenuationPointOptions, PrototypeSpec } from "./prototype.ts";
-export { besselOrderForDelay, minimumOrder, ORDER_SEARCH_LIMIT } from "./order.ts";
+export { besselOrderForDelay, minimumOrder, ORDER_RANGES, ORDER_SEARCH_LIMIT } from "./order.ts";
+export type { AcceptedRange, OrderRanges } from "./order.ts";
 export type {
   BesselDelayResult,
   BesselDelaySpec,

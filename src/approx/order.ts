@@ -96,6 +96,42 @@ export interface MinimumOrderResult {
  */
 export const ORDER_SEARCH_LIMIT: Readonly<Record<"bessel" | "legendre", number>> = Object.freeze({ bessel: 100, legendre: 60 });
 
+/** A closed range of accepted numbers. */
+export interface AcceptedRange {
+  /** Smallest accepted value (for the stopband attenuation: exclusive). */
+  readonly min: number;
+  /** Largest accepted value. */
+  readonly max: number;
+}
+
+/** The accepted ranges of {@link minimumOrder}'s numbers (see {@link ORDER_RANGES}). */
+export interface OrderRanges {
+  /** Every band edge, rad/s. */
+  readonly edgeW: AcceptedRange;
+  /** Smallest relative separation of two edges that must differ (high >= low * (1 + this)). */
+  readonly edgeSeparation: number;
+  /** `passbandLossDb`, dB. */
+  readonly passbandLossDb: AcceptedRange;
+  /** `stopbandAttenuationDb`, dB (above `min`, and above the passband loss). */
+  readonly stopbandAttenuationDb: AcceptedRange;
+}
+
+/**
+ * Accepted ranges of {@link minimumOrder}'s numbers. Edges: 1e-9 to 1e15
+ * rad/s (products and squares of two edges stay far inside the double
+ * range); two edges of a band, and a stopband edge and its passband edge,
+ * at least a relative 1e-9 apart (closer than that the transition band
+ * cannot be resolved in doubles). Passband loss: 1e-9 dB to 60 dB.
+ * Stopband attenuation: up to 400 dB (10^40 in power, so the order formulas
+ * stay finite). Chosen so every result is finite (common practice, no source).
+ */
+export const ORDER_RANGES: OrderRanges = Object.freeze({
+  edgeW: Object.freeze({ min: 1e-9, max: 1e15 }),
+  edgeSeparation: 1e-9,
+  passbandLossDb: Object.freeze({ min: 1e-9, max: 60 }),
+  stopbandAttenuationDb: Object.freeze({ min: 0, max: 400 }),
+});
+
 interface CheckedSpec {
   family: FamilyName;
   response: OrderResponse;
@@ -104,6 +140,11 @@ interface CheckedSpec {
   gpass: number;
   gstop: number;
   norm: BesselNormalization;
+}
+
+/** Whether `hi` lies above `lo` by the smallest resolvable relative separation. */
+function apart(lo: number, hi: number): boolean {
+  return hi >= lo * (1 + ORDER_RANGES.edgeSeparation);
 }
 
 function edgeList(issues: Issue[], path: string, value: unknown, count: number): number[] {
@@ -118,12 +159,13 @@ function edgeList(issues: Issue[], path: string, value: unknown, count: number):
   }
   const out: number[] = [];
   arr.forEach((x, i) => {
-    if (typeof x !== "number" || !Number.isFinite(x) || x <= 0) {
-      issues.push({ path: count === 1 && typeof value === "number" ? path : `${path}.${i}`, received: x, message: "expected a finite frequency greater than zero (rad/s)" });
+    const { min, max } = ORDER_RANGES.edgeW;
+    if (typeof x !== "number" || !Number.isFinite(x) || x < min || x > max) {
+      issues.push({ path: count === 1 && typeof value === "number" ? path : `${path}.${i}`, received: x, message: `expected a frequency from ${min} to ${max} rad/s` });
     } else out.push(x);
   });
-  if (out.length === count && count === 2 && !((out[0] as number) < (out[1] as number))) {
-    issues.push({ path, received: value, message: "expected [low, high] with low < high" });
+  if (out.length === count && count === 2 && !(apart(out[0] as number, out[1] as number))) {
+    issues.push({ path, received: value, message: `expected [low, high] with high above low by a relative ${ORDER_RANGES.edgeSeparation} at least` });
     return [];
   }
   return out.length === count ? out : [];
@@ -147,10 +189,12 @@ function checkSpec(spec: MinimumOrderSpec): CheckedSpec {
   const ws = okResponse ? edgeList(issues, "stopbandW", s["stopbandW"], count) : [];
   const gpass = s["passbandLossDb"];
   const gstop = s["stopbandAttenuationDb"];
-  const okPass = typeof gpass === "number" && Number.isFinite(gpass) && gpass > 0;
-  if (!okPass) issues.push({ path: "passbandLossDb", received: gpass, message: "expected a finite loss in dB greater than zero" });
-  if (!(typeof gstop === "number" && Number.isFinite(gstop) && gstop > 0)) {
-    issues.push({ path: "stopbandAttenuationDb", received: gstop, message: "expected a finite attenuation in dB greater than zero" });
+  const lossRange = ORDER_RANGES.passbandLossDb;
+  const attMax = ORDER_RANGES.stopbandAttenuationDb.max;
+  const okPass = typeof gpass === "number" && Number.isFinite(gpass) && gpass >= lossRange.min && gpass <= lossRange.max;
+  if (!okPass) issues.push({ path: "passbandLossDb", received: gpass, message: `expected a loss from ${lossRange.min} dB to ${lossRange.max} dB` });
+  if (!(typeof gstop === "number" && Number.isFinite(gstop) && gstop > 0 && gstop <= attMax)) {
+    issues.push({ path: "stopbandAttenuationDb", received: gstop, message: `expected an attenuation greater than 0 dB and at most ${attMax} dB` });
   } else if (okPass && !(gstop > (gpass as number))) {
     issues.push({
       path: "stopbandAttenuationDb",
@@ -166,13 +210,13 @@ function checkSpec(spec: MinimumOrderSpec): CheckedSpec {
   if (wp.length === count && ws.length === count && okResponse) {
     const [p0, p1] = wp as [number, number];
     const [s0, s1] = ws as [number, number];
-    if (response === "lowpass" && !(s0 > p0)) {
+    if (response === "lowpass" && !apart(p0, s0)) {
       issues.push({ path: "stopbandW", received: s["stopbandW"], message: `a lowpass stopband edge must lie above the passband edge (${p0} rad/s)` });
-    } else if (response === "highpass" && !(s0 < p0)) {
+    } else if (response === "highpass" && !apart(s0, p0)) {
       issues.push({ path: "stopbandW", received: s["stopbandW"], message: `a highpass stopband edge must lie below the passband edge (${p0} rad/s)` });
-    } else if (response === "bandpass" && !(s0 < p0 && s1 > p1)) {
+    } else if (response === "bandpass" && !(apart(s0, p0) && apart(p1, s1))) {
       issues.push({ path: "stopbandW", received: s["stopbandW"], message: `a bandpass stopband [low, high] must enclose the passband [${p0}, ${p1}] rad/s` });
-    } else if (response === "bandstop" && !(p0 < s0 && p1 > s1)) {
+    } else if (response === "bandstop" && !(apart(p0, s0) && apart(s1, p1))) {
       issues.push({ path: "stopbandW", received: s["stopbandW"], message: `a bandstop stopband [low, high] must lie inside the passband edges [${p0}, ${p1}] rad/s` });
     }
   }
@@ -310,7 +354,9 @@ function naturalFrequency(c: CheckedSpec, passb: number[], wpProto: number): num
  * @param spec - family, response, edges (rad/s), passband loss and stopband attenuation (dB)
  * @returns order, natural frequency (frequencies), range flag and the prototype arguments
  * @throws {@link SpecError} listing every problem (path per field): unknown family or response,
- *   wrong number of edges, non-positive numbers, stopband inside the passband, attenuation not above the loss
+ *   wrong number of edges, a number outside its range ({@link ORDER_RANGES}: edges 1e-9 to 1e15 rad/s and a
+ *   relative 1e-9 apart, loss 1e-9 to 60 dB, attenuation up to 400 dB), stopband inside the passband,
+ *   attenuation not above the loss
  * @throws {@link UnrealisableError} when a Bessel or Legendre search passes {@link ORDER_SEARCH_LIMIT}
  * @example
  * ```ts
@@ -324,7 +370,12 @@ function naturalFrequency(c: CheckedSpec, passb: number[], wpProto: number): num
 export function minimumOrder(spec: MinimumOrderSpec): MinimumOrderResult {
   const c = checkSpec(spec);
   const { nat, passb } = reduce(c);
-  const order = orderFor(c, nat);
+  if (!(nat > 1 && Number.isFinite(nat))) {
+    throw new SpecError("minimumOrder", [
+      { path: "stopbandW", received: spec.stopbandW, message: `the band reduction gives a stopband ratio of ${nat}, which cannot be resolved in doubles; move the stopband edges further from the passband edges` },
+    ]);
+  }
+  const order = Math.max(1, orderFor(c, nat));
   const maxOrder = familyMaxOrder(c.family);
   const wpProto = passbandEdgeOf(c, order);
   const nw = naturalFrequency(c, passb, wpProto);

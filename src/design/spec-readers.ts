@@ -364,6 +364,11 @@ export function readParts(r: Reader, parts: unknown): PartsPart {
   };
 }
 
+/** Accepted open-loop DC gain of a single-pole op-amp, V/V (20 dB to 180 dB: every real op-amp lies inside; common practice, no source). */
+export const OPAMP_A0_RANGE = Object.freeze({ min: 10, max: 1e9 });
+/** Accepted gain-bandwidth product, Hz (1 Hz to 100 GHz: every real op-amp lies inside; common practice, no source). */
+export const OPAMP_GBW_RANGE_HZ = Object.freeze({ min: 1, max: 1e11 });
+
 /** The op-amp: `"ideal"` or a single-pole model `{ a0, gbwHz }`. */
 export function readOpamp(r: Reader, oa: unknown): OpAmpModel {
   if (oa === undefined || oa === "ideal") return { kind: "ideal" };
@@ -372,8 +377,12 @@ export function readOpamp(r: Reader, oa: unknown): OpAmpModel {
     return { kind: "ideal" };
   }
   r.unknownKeys(oa, ["a0", "gbwHz"], "opamp.");
-  const a0 = r.number("opamp.a0", oa["a0"], { min: 10, max: 1e9 }, "an open-loop gain in V/V");
-  const gbw = r.quantity("opamp.gbwHz", oa["gbwHz"], "Hz");
+  const a0 = r.number("opamp.a0", oa["a0"], OPAMP_A0_RANGE, "an open-loop gain in V/V");
+  let gbw = r.quantity("opamp.gbwHz", oa["gbwHz"], "Hz");
+  if (gbw !== undefined && !(gbw >= OPAMP_GBW_RANGE_HZ.min && gbw <= OPAMP_GBW_RANGE_HZ.max)) {
+    r.add("opamp.gbwHz", `expected a gain-bandwidth product from ${OPAMP_GBW_RANGE_HZ.min} Hz to ${OPAMP_GBW_RANGE_HZ.max} Hz`, oa["gbwHz"]);
+    gbw = undefined;
+  }
   return a0 !== undefined && gbw !== undefined ? { kind: "single-pole", a0, gbwHz: gbw } : { kind: "ideal" };
 }
 

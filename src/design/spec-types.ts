@@ -163,9 +163,9 @@ export interface PartsSpec {
 
 /** A real op-amp described by its open-loop DC gain and gain-bandwidth product (single-pole model). */
 export interface OpAmpSpec {
-  /** Open-loop DC gain in V/V (e.g. 1e5 for 100 dB). */
+  /** Open-loop DC gain in V/V (e.g. 1e5 for 100 dB), from 10 to 1e9. */
   readonly a0: number;
-  /** Gain-bandwidth product in Hz. */
+  /** Gain-bandwidth product in Hz, from 1 Hz to 100 GHz and above the spec's highest passband frequency (its edges and `passband.topHz`). */
   readonly gbwHz: Quantity;
 }
 

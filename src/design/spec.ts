@@ -12,6 +12,7 @@
  * @module
  */
 import { InvalidArgumentError, SpecError, type Issue } from "../errors.ts";
+import type { OpAmpModel } from "../circuit/types.ts";
 import type { DesignSpec, EdgeInput, FilterSpec, GainSpec, ResponseType } from "./spec-types.ts";
 import { isObject, readBands, readFamily, readGain, readOpamp, readParts, readTopology, readYield, Reader } from "./spec-readers.ts";
 import { readLevels } from "./spec-levels.ts";
@@ -53,8 +54,59 @@ const TOP_KEYS = [
   "levels",
 ] as const;
 
+/** How deep {@link ownData} copies (a spec nests three levels; deeper data is only ever shown in an issue). */
+const OWN_COPY_DEPTH = 8;
+/** Arrays longer than this are kept as they are by {@link ownData} (no spec list is that long; its reader refuses it). */
+const OWN_COPY_MAX_ITEMS = 1024;
+
+/**
+ * A copy of plain data with only its own enumerable properties, in objects
+ * without a prototype, walked with an explicit stack to `maxDepth` levels
+ * (deeper values, and arrays over 1,024 items, are kept as they are). Reading the copy reads own
+ * properties only (`Object.hasOwn`): a field inherited from a prototype
+ * is absent, at every level.
+ */
+function ownData(value: unknown, maxDepth: number): unknown {
+  const copyOf = (v: unknown): unknown => {
+    if (Array.isArray(v)) return v.length > OWN_COPY_MAX_ITEMS ? v : new Array<unknown>(v.length);
+    if (typeof v === "object" && v !== null) return Object.create(null) as Record<string, unknown>;
+    return v;
+  };
+  const root = copyOf(value);
+  const stack: [unknown, unknown, number][] = [[value, root, 0]];
+  while (stack.length > 0) {
+    const [from, to, depth] = stack.pop() as [Record<string, unknown>, Record<string, unknown>, number];
+    if (to === from || typeof to !== "object" || to === null) continue;
+    const keys = Array.isArray(from) ? Array.from(from.keys(), String) : Object.keys(from);
+    for (const k of keys) {
+      const v = Object.hasOwn(from, k) ? from[k] : undefined;
+      const c = depth + 1 >= maxDepth ? v : copyOf(v);
+      to[k] = c;
+      if (c !== v) stack.push([v, c, depth + 1]);
+    }
+  }
+  return root;
+}
+
+/**
+ * The op-amp must still have gain across the passband the filter passes: its
+ * gain-bandwidth product (where a single-pole op-amp's open-loop gain falls
+ * to 1) above the highest passband frequency (its edges and
+ * `passband.topHz`). Below that no stage built with it can pass the band,
+ * so such a spec is refused rather than designed; between that and the
+ * stopband the design is made and reports, with its margins, that it fails.
+ */
+function readOpampAboveBands(r: Reader, opamp: OpAmpModel, bands: ReturnType<typeof readBands>): void {
+  if (opamp.kind !== "single-pole" || bands.passbandHz === undefined) return;
+  const top = Math.max(...bands.passbandHz, bands.passbandTopHz ?? 0);
+  if (!(opamp.gbwHz > top)) {
+    r.add("opamp.gbwHz", `expected a gain-bandwidth product above the highest passband frequency (${top} Hz); the op-amp's gain falls to 1 there`, opamp.gbwHz);
+  }
+}
+
 /** Read a whole spec: every issue, and the canonical spec when there is none. */
-function readSpec(spec: unknown): { readonly issues: readonly Issue[]; readonly spec: DesignSpec | null } {
+function readSpec(input: unknown): { readonly issues: readonly Issue[]; readonly spec: DesignSpec | null } {
+  const spec = ownData(input, OWN_COPY_DEPTH);
   if (!isObject(spec)) return { issues: [{ path: "", message: "expected a specification object", received: spec }], spec: null };
   const r = new Reader();
   r.unknownKeys(spec, TOP_KEYS, "");
@@ -66,6 +118,7 @@ function readSpec(spec: unknown): { readonly issues: readonly Issue[]; readonly 
   const opamp = readOpamp(r, spec["opamp"]);
   const yieldPart = readYield(r, spec);
   const levels = readLevels(r, spec["levels"]);
+  readOpampAboveBands(r, opamp, bands);
   if (r.issues.length > 0) return { issues: r.issues, spec: null };
   return {
     issues: [],
@@ -88,14 +141,23 @@ function readSpec(spec: unknown): { readonly issues: readonly Issue[]; readonly 
   };
 }
 
-/** A copy of a received value that is plain JSON-safe data: non-finite numbers become their text (`"NaN"`, `"Infinity"`). */
-function jsonSafe(value: unknown, seen = new Set<unknown>()): unknown {
+/** How deep {@link jsonSafe} copies a received value before cutting it off. */
+const JSON_SAFE_DEPTH = 16;
+
+/**
+ * A copy of a received value that is plain JSON-safe data: non-finite numbers
+ * become their text (`"NaN"`, `"Infinity"`), a cycle `"[circular]"`, and data
+ * nested deeper than 16 levels `"[nested too deeply]"` (so the recursion is
+ * bounded whatever the input).
+ */
+function jsonSafe(value: unknown, seen = new Set<unknown>(), depth = 0): unknown {
   if (typeof value === "number") return Number.isFinite(value) ? value : String(value);
   if (typeof value !== "object" || value === null) return value;
   if (seen.has(value)) return "[circular]";
+  if (depth >= JSON_SAFE_DEPTH) return "[nested too deeply]";
   seen.add(value);
-  if (Array.isArray(value)) return value.map((v) => jsonSafe(v, seen));
-  return Object.fromEntries(Object.entries(value).map(([k, v]) => [k, jsonSafe(v, seen)]));
+  if (Array.isArray(value)) return value.map((v) => jsonSafe(v, seen, depth + 1));
+  return Object.fromEntries(Object.entries(value).map(([k, v]) => [k, jsonSafe(v, seen, depth + 1)]));
 }
 
 /**
@@ -173,7 +235,8 @@ export function requireDesignSpec(fn: string, value: unknown, path = "spec"): De
     throw new InvalidArgumentError({ fn, path: field === "" ? path : `${path}.${field}`, received, message });
   };
   if (!isObject(value)) return fail("", "expected a canonical spec object (from validateSpec)", value);
-  const v = value;
+  // Own properties only: a field inherited from a prototype counts as missing.
+  const v = ownData(value, 2) as Record<string, unknown>;
   const num = (k: string, positive: boolean): void => {
     const x = v[k];
     if (typeof x !== "number" || !Number.isFinite(x) || (positive && !(x > 0))) {

@@ -6,6 +6,6 @@
  */
 export { toSpiceNetlist, type SpiceNetlistOptions } from "./spice.ts";
 export { toBomCsv, bomLines, type BomLine } from "./bom.ts";
-export { toJson, fromJson, DESIGN_FORMAT_VERSION } from "./json.ts";
+export { toJson, fromJson, DESIGN_FORMAT_VERSION, JSON_MAX_CHARS, JSON_MAX_DEPTH } from "./json.ts";
 export { toMarkdown, DESIGN_CAUTIONS } from "./markdown.ts";
 export { toSvgPlot, type SvgPlotOptions } from "./svg.ts";

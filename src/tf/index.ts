@@ -12,6 +12,7 @@ export {
   evalSection,
   fromSections,
   MAX_SECTION_FREQUENCY,
+  MIN_SECTION_FREQUENCY,
   toSections,
   type SectionOrdering,
   type ToSectionsOptions,

@@ -65,6 +65,9 @@ export type OriginZeroSharing = "spread" | "band-split";
 /** Largest root magnitude (rad/s) that {@link toSections} accepts: section coefficients hold w0^2, which must not overflow. */
 export const MAX_SECTION_FREQUENCY = 1e150;
 
+/** Smallest pole magnitude (rad/s) that {@link toSections} accepts: a section's w0^2 and the gain's 1/w0^2 factor must not underflow or overflow. */
+export const MIN_SECTION_FREQUENCY = 1e-150;
+
 /** Relative tolerance for classifying zeros (on the jw axis, at a pole mirror, symmetric notch). */
 const CLASSIFY_TOL = 1e-9;
 
@@ -339,7 +342,7 @@ export function toSectionsUnchecked(system: Zpk, ordering: SectionOrdering, zero
  *   and no more zeros than poles
  * @param options - section ordering and the sharing of zeros at the origin
  * @returns the cascade; `evalCascade(result, s)` equals `evalZpk(system, s)`
- * @throws {@link InvalidArgumentError} when the zpk is malformed, has more zeros than poles, a pole not in the open left half-plane, a root beyond {@link MAX_SECTION_FREQUENCY}, or an unknown ordering
+ * @throws {@link InvalidArgumentError} when the zpk is malformed, has more zeros than poles, a pole not in the open left half-plane, a root beyond {@link MAX_SECTION_FREQUENCY} or a pole below {@link MIN_SECTION_FREQUENCY}, a cascade gain that leaves the double range, or an unknown ordering
  * @example
  * ```ts
  * // 2nd-order Butterworth lowpass at 1 rad/s with a DC gain of 2
@@ -379,17 +382,33 @@ export function toSections(system: Zpk, options?: ToSectionsOptions): SectionCas
     [system.zeros, "zeros"],
   ] as const) {
     list.forEach((r, i) => {
-      if (Math.hypot(r.re, r.im) > MAX_SECTION_FREQUENCY) {
+      const m = Math.hypot(r.re, r.im);
+      if (m > MAX_SECTION_FREQUENCY || (name === "poles" && m < MIN_SECTION_FREQUENCY)) {
         throw new InvalidArgumentError({
           fn,
           path: `system.${name}[${i}]`,
           received: r,
-          message: `section coefficients hold w0^2, so roots must be at most ${MAX_SECTION_FREQUENCY} rad/s in magnitude`,
+          message: `section coefficients hold w0^2, so roots must be at most ${MAX_SECTION_FREQUENCY} rad/s in magnitude, and poles at least ${MIN_SECTION_FREQUENCY} rad/s`,
         });
       }
     });
   }
-  return toSectionsUnchecked(system, ordering, sharing);
+  const cascade = toSectionsUnchecked(system, ordering, sharing);
+  if (!Number.isFinite(cascade.gain) || (cascade.gain === 0) !== (system.gain === 0) || !cascade.sections.every(finiteSection)) {
+    throw new InvalidArgumentError({
+      fn,
+      path: "system",
+      received: cascade.gain,
+      message: "the cascade's gain (the zpk gain times each section's normalisation, such as 1/w0^2 for a lowpass section) leaves the double range; scale the frequencies towards 1 rad/s first",
+    });
+  }
+  return cascade;
+}
+
+/** Whether every number of a section is finite. */
+function finiteSection(s: Section): boolean {
+  const nums = [...s.num, ...s.den, s.w0, ...(s.order === 2 ? [s.q] : []), ...("wz" in s && s.wz !== undefined ? [s.wz] : [])];
+  return nums.every(Number.isFinite);
 }
 
 /** Roots of b2 s^2 + b1 s + b0 (degree taken from the leading non-zero coefficient), stable formula. */

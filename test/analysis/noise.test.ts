@@ -301,10 +301,10 @@ describe("noiseAnalysis properties", () => {
     expect(relErr(enTotal, Math.sqrt(p))).toBeLessThan(1e-5);
   });
 
-  it("tends to the ideal op-amp's noise as the op-amp model's gain and bandwidth grow", () => {
+  it("tends to the ideal op-amp's noise as the op-amp model's gain and bandwidth grow (to the largest accepted, 1e9 and 100 GHz)", () => {
     const spec = designs["lowpass (multiple feedback, vibration sensor)"] as FilterSpec;
     const ideal = noiseAnalysis(designFilter(spec), opts);
-    const fast = noiseAnalysis(designFilter({ ...spec, opamp: { a0: 1e9, gbwHz: 1e12 } }), opts);
+    const fast = noiseAnalysis(designFilter({ ...spec, opamp: { a0: 1e9, gbwHz: 1e11 } }), opts);
     expect(Object.keys(fast.contributions).sort()).toEqual(Object.keys(ideal.contributions).sort());
     for (const [name, d] of Object.entries(ideal.contributions)) {
       const f = fast.contributions[name] as Float64Array;

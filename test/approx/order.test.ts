@@ -8,6 +8,8 @@ import type { FamilyName } from "../../src/approx/types.ts";
 import { loadFixture } from "../helpers/fixtures.ts";
 import { expectArrayClose } from "../helpers/tolerance.ts";
 import { magnitudeDb } from "./prototype-fixtures.ts";
+import { thrownBy } from "../helpers/throws.ts";
+import { firstNonFinite } from "../helpers/finite.ts";
 
 interface OrderCase {
   family: FamilyName;
@@ -203,5 +205,67 @@ describe("besselOrderForDelay", () => {
     expect(() => besselOrderForDelay({ maxDelayErrorPercent: 100, upToW: 1 })).toThrow(/maxDelayErrorPercent/);
     expect(() => besselOrderForDelay({ maxDelayErrorPercent: 1, upToW: -1 })).toThrow(/upToW/);
     expect(() => besselOrderForDelay({ maxDelayErrorPercent: 1, upToW: 1, delaySeconds: 0 })).toThrow(/delaySeconds/);
+  });
+});
+
+describe("minimumOrder ranges", () => {
+  const FAMILIES: FamilyName[] = ["butterworth", "chebyshev1", "chebyshev2", "elliptic", "bessel", "legendre"];
+  const edgesFor = (response: OrderResponse, scale: number): Pick<MinimumOrderSpec, "passbandW" | "stopbandW"> =>
+    response === "lowpass"
+      ? { passbandW: scale, stopbandW: 3 * scale }
+      : response === "highpass"
+        ? { passbandW: 3 * scale, stopbandW: scale }
+        : response === "bandpass"
+          ? { passbandW: [2 * scale, 3 * scale], stopbandW: [scale, 6 * scale] }
+          : { passbandW: [scale, 6 * scale], stopbandW: [2 * scale, 3 * scale] };
+
+  it("refuses stopbandAttenuationDb = 1e300 for every family and response (it returned order Infinity)", () => {
+    for (const family of FAMILIES) {
+      for (const response of ["lowpass", "highpass", "bandpass", "bandstop"] as const) {
+        const e = thrownBy(() => minimumOrder({ family, response, ...edgesFor(response, 1000), passbandLossDb: 1, stopbandAttenuationDb: 1e300 }), SpecError);
+        expect(e.issues.map((i) => i.path)).toEqual(["stopbandAttenuationDb"]);
+        expect(e.issues[0]?.message).toContain("at most 400 dB");
+      }
+    }
+  });
+
+  it("refuses band edges near 1e308 rad/s (they gave NaN orders and frequencies), naming the edge and the range", () => {
+    for (const response of ["lowpass", "highpass", "bandpass", "bandstop"] as const) {
+      const e = thrownBy(() => minimumOrder({ family: "elliptic", response, ...edgesFor(response, 1e307), passbandLossDb: 1, stopbandAttenuationDb: 40 }), SpecError);
+      expect(e.issues.length).toBeGreaterThan(0);
+      for (const i of e.issues) expect(i.message).toContain("from 1e-9 to 1000000000000000 rad/s");
+    }
+  });
+
+  it("refuses edges closer than a relative 1e-9 and a loss below 1e-9 dB", () => {
+    expect(thrownBy(() => minimumOrder({ family: "butterworth", response: "lowpass", passbandW: 1, stopbandW: 1 + 1e-12, passbandLossDb: 1, stopbandAttenuationDb: 40 }), SpecError).issues[0]?.path).toBe("stopbandW");
+    expect(thrownBy(() => minimumOrder({ family: "butterworth", response: "lowpass", passbandW: 1, stopbandW: 2, passbandLossDb: 1e-300, stopbandAttenuationDb: 40 }), SpecError).issues[0]?.path).toBe("passbandLossDb");
+  });
+
+  it("returns only finite numbers or throws a typed error, over the whole accepted range (property)", () => {
+    const w = fc.oneof(fc.double({ min: -9, max: 15, noNaN: true }).map((x) => 10 ** x), fc.constantFrom(1e-9, 1e15));
+    fc.assert(
+      fc.property(
+        fc.constantFrom(...FAMILIES),
+        fc.constantFrom<OrderResponse>("lowpass", "highpass", "bandpass", "bandstop"),
+        fc.array(w, { minLength: 4, maxLength: 4 }),
+        fc.oneof(fc.double({ min: 1e-9, max: 60, noNaN: true }), fc.constantFrom(1e-9, 60)),
+        fc.oneof(fc.double({ min: 1e-9, max: 400, noNaN: true }), fc.constantFrom(400)),
+        (family, response, ws, loss, att) => {
+          const [a, b, c, d] = [...ws].sort((x, y) => x - y) as [number, number, number, number];
+          const edges =
+            response === "lowpass" ? { passbandW: a, stopbandW: d } : response === "highpass" ? { passbandW: d, stopbandW: a }
+            : response === "bandpass" ? { passbandW: [b, c], stopbandW: [a, d] } : { passbandW: [a, d], stopbandW: [b, c] };
+          try {
+            const r = minimumOrder({ family, response, ...edges, passbandLossDb: loss, stopbandAttenuationDb: att });
+            expect(firstNonFinite(r)).toBeNull();
+            expect(r.order).toBeGreaterThanOrEqual(1);
+          } catch (e) {
+            expect(e instanceof SpecError || e instanceof UnrealisableError).toBe(true);
+          }
+        },
+      ),
+      { numRuns: 400, seed: 1202 },
+    );
   });
 });

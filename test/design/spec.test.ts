@@ -195,3 +195,61 @@ describe("checkSpec received values", () => {
     expect(checkSpec([Number.NaN])[0]?.received).toEqual(["NaN"]);
   });
 });
+
+describe("validateSpec own properties", () => {
+  it("refuses fields inherited from a prototype, at the top level and inside a band", () => {
+    const top = Object.create({ passband: base.passband }) as Record<string, unknown>;
+    top["response"] = "lowpass";
+    top["stopband"] = base.stopband;
+    expect(issuesOf(top).map((i) => i.path)).toEqual(["passband"]);
+    const inner = Object.create({ edgeHz: "2k" }) as Record<string, unknown>;
+    inner["maxLossDb"] = 0.5;
+    expect(issuesOf({ ...base, passband: inner }).map((i) => i.path)).toEqual(["passband.edgeHz"]);
+    const oa = Object.create({ a0: 1e5 }) as Record<string, unknown>;
+    oa["gbwHz"] = 1e6;
+    expect(issuesOf({ ...base, opamp: oa }).map((i) => i.path)).toEqual(["opamp.a0"]);
+  });
+
+  it("reads a spec whose own fields are all there as before", () => {
+    const own = Object.assign(Object.create(null) as object, base);
+    expect(validateSpec(own)).toEqual(validateSpec(base));
+  });
+
+  it("reports an unknown field holding data nested 100,000 deep without exhausting the stack", () => {
+    let deep: unknown[] = [];
+    const root = deep;
+    for (let i = 0; i < 100000; i++) {
+      const next: unknown[] = [];
+      deep.push(next);
+      deep = next;
+    }
+    const issues = checkSpec({ ...base, deep: root });
+    expect(issues.map((i) => i.path)).toEqual(["deep"]);
+    expect(thrownBy(() => validateSpec({ ...base, deep: root }), SpecError).issues.map((i) => i.path)).toEqual(["deep"]);
+  });
+});
+
+describe("validateSpec op-amp ranges", () => {
+  it("refuses gbwHz = 5e-324 (it gave NaN margins), below 1 Hz and above 100 GHz, naming the field and the range", () => {
+    for (const gbwHz of [5e-324, 0.5, 2e11]) {
+      const issues = issuesOf({ ...base, opamp: { a0: 1e5, gbwHz } });
+      expect(issues.map((i) => i.path)).toEqual(["opamp.gbwHz"]);
+      expect(issues[0]?.message).toContain("from 1 Hz to 100000000000 Hz");
+    }
+  });
+
+  it("refuses a gain-bandwidth product at or below the highest passband frequency", () => {
+    const issues = issuesOf({ ...base, opamp: { a0: 1e5, gbwHz: 2000 } });
+    expect(issues.map((i) => i.path)).toEqual(["opamp.gbwHz"]);
+    expect(issues[0]?.message).toContain("highest passband frequency (2000 Hz)");
+    expect(validateSpec({ ...base, opamp: { a0: 1e5, gbwHz: 2001 } }).opamp.kind).toBe("single-pole");
+    const hp = { response: "highpass", passband: { edgeHz: 1000, maxLossDb: 1, topHz: "50k" }, stopband: { edgeHz: 200, minAttenuationDb: 30 } };
+    expect(issuesOf({ ...hp, opamp: { a0: 1e5, gbwHz: 40000 } })[0]?.message).toContain("(50000 Hz)");
+    expect(validateSpec({ ...hp, opamp: { a0: 1e5, gbwHz: 60000 } }).opamp).toEqual({ kind: "single-pole", a0: 1e5, gbwHz: 60000 });
+  });
+
+  it("refuses a0 outside 10 to 1e9", () => {
+    for (const a0 of [5, 2e9, 5e-324]) expect(issuesOf({ ...base, opamp: { a0, gbwHz: 1e6 } }).map((i) => i.path)).toEqual(["opamp.a0"]);
+    expect(validateSpec({ ...base, opamp: { a0: 10, gbwHz: 1e11 } }).opamp).toEqual({ kind: "single-pole", a0: 10, gbwHz: 1e11 });
+  });
+});

@@ -58,7 +58,7 @@ describe("toJson / fromJson", () => {
   it("round-trips a design", () => {
     const back = fromJson(toJson(result));
     expect(back).toEqual(result);
-    expect(JSON.parse(toJson(result)).formatVersion).toBe(2); // 2: the yield, stability and per-part tolerances
+    expect(JSON.parse(toJson(result)).formatVersion).toBe(3); // 3: the checksum (2: the yield, stability and per-part tolerances)
   });
 
   it("round-trips designs with every optional spec field", () => {

@@ -9,6 +9,8 @@ import type { SecondOrderSection, Zpk } from "../../src/tf/types.ts";
 import { InvalidArgumentError } from "../../src/errors.ts";
 import { expectClose } from "../helpers/tolerance.ts";
 import { complexList, loadFixture } from "../helpers/fixtures.ts";
+import { thrownBy } from "../helpers/throws.ts";
+import { firstNonFinite } from "../helpers/finite.ts";
 
 /** Match every expected value to the nearest unused actual value (order-free comparison). */
 function expectSameSet(actual: readonly Complex[], expected: readonly Complex[], rel: number, label: string): void {
@@ -239,5 +241,35 @@ describe("toSections band split (zerosAtOrigin)", () => {
 
   it("refuses an unknown sharing, naming the option", () => {
     expect(() => toSections(bandpass(2, 1), { zerosAtOrigin: "halves" as never })).toThrow(/options\.zerosAtOrigin/);
+  });
+});
+
+describe("toSections ranges", () => {
+  it("refuses a pole at -5e-324 (it returned a non-finite gain), naming the pole", () => {
+    const e = thrownBy(() => toSections(zpk([], [{ re: -5e-324, im: 0 }], 1)), InvalidArgumentError);
+    expect(e.path).toBe("system.poles[0]");
+    expect(e.message).toContain("poles at least 1e-150 rad/s");
+  });
+
+  it("refuses a cascade whose gain leaves the double range, though each pole is in range", () => {
+    const poles = Array.from({ length: 8 }, () => ({ re: -1e-100, im: 0 }));
+    const e = thrownBy(() => toSections(zpk([], poles, 1)), InvalidArgumentError);
+    expect(e.path).toBe("system");
+  });
+
+  it("returns only finite numbers or throws a typed error for poles and zeros across the range (property)", () => {
+    const mag = fc.double({ min: -150, max: 150, noNaN: true }).map((x) => 10 ** x);
+    fc.assert(
+      fc.property(fc.array(fc.tuple(mag, fc.double({ min: 0, max: 1.5, noNaN: true })), { minLength: 1, maxLength: 6 }), fc.array(mag, { maxLength: 3 }), (ps, zs) => {
+        const poles: Complex[] = ps.flatMap(([m, t]) => (t < 0.1 ? [{ re: -m, im: 0 }] : [{ re: -m * Math.cos(t), im: m * Math.sin(t) }, { re: -m * Math.cos(t), im: -m * Math.sin(t) }]));
+        const zeros: Complex[] = zs.slice(0, poles.length).map((m) => ({ re: -m, im: 0 }));
+        try {
+          expect(firstNonFinite(toSections(zpk(zeros, poles, 1)))).toBeNull();
+        } catch (e) {
+          expect(e).toBeInstanceOf(InvalidArgumentError);
+        }
+      }),
+      { numRuns: 300, seed: 1202 },
+    );
   });
 });
