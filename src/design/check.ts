@@ -295,7 +295,7 @@ function checkSpecField(c: Checker, prefix: string, specRaw: Raw): DesignSpec {
 
 /** How the family was chosen, and where the design sits in its slack. */
 function checkChoiceAndPlacement(c: Checker, prefix: string, r: Raw): void {
-  const fc = c.obj(`${prefix}.familyChoice`, r["familyChoice"], ["automatic", "priority", "candidates", "reason"]);
+  const fc = c.obj(`${prefix}.familyChoice`, r["familyChoice"], ["automatic", "priority", "candidates", "reason", "feasibility"]);
   if (c.strict) {
     c.bool(`${prefix}.familyChoice.automatic`, fc["automatic"]);
     if (fc["priority"] !== null) c.str(`${prefix}.familyChoice.priority`, fc["priority"]);
@@ -308,6 +308,28 @@ function checkChoiceAndPlacement(c: Checker, prefix: string, r: Raw): void {
       c.optNum(`${q}.delayVariation`, k["delayVariation"]);
       c.bool(`${q}.monotonic`, k["monotonic"]);
     });
+  }
+  if (fc["feasibility"] !== undefined) {
+    const q = `${prefix}.familyChoice.feasibility`;
+    const f = c.obj(q, fc["feasibility"], ["family", "order", "neededOrders", "relaxations"]);
+    if (c.strict) {
+      c.str(`${q}.family`, f["family"]);
+      c.num(`${q}.order`, f["order"], true);
+      c.arr(`${q}.neededOrders`, f["neededOrders"]).forEach((x, i) => {
+        const n = c.obj(`${q}.neededOrders.${i}`, x, ["family", "order"]);
+        c.str(`${q}.neededOrders.${i}.family`, n["family"]);
+        if (n["order"] !== null) c.num(`${q}.neededOrders.${i}.order`, n["order"], true);
+      });
+      c.arr(`${q}.relaxations`, f["relaxations"]).forEach((x, i) => {
+        const p = `${q}.relaxations.${i}`;
+        const x2 = c.obj(p, x, ["field", "value", "text"]);
+        c.oneOf(`${p}.field`, x2["field"], ["stopband.minAttenuationDb", "passband.maxLossDb", "stopband.edgeHz", "passband.edgeHz"]);
+        const v = x2["value"];
+        if (Array.isArray(v)) v.forEach((y, j) => c.num(`${p}.value.${j}`, y, true));
+        else c.num(`${p}.value`, v, true);
+        c.str(`${p}.text`, x2["text"]);
+      });
+    }
   }
   const pl = c.obj(`${prefix}.placement`, r["placement"], ["parameter", "lowHz", "highHz", "chosenHz", "position", "centreHz", "designRippleDb", "designAttenuationDb"]);
   for (const k of ["lowHz", "highHz", "chosenHz", "position"]) c.num(`${prefix}.placement.${k}`, pl[k]);
