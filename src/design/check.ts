@@ -12,7 +12,7 @@ import { getTopology } from "../topologies/index.ts";
 import { isInSeries } from "../parts/index.ts";
 import { specToInput, validateSpec, type DesignSpec } from "./spec.ts";
 import { compare } from "./recheck.ts";
-import type { DesignResult } from "./types.ts";
+import type { DesignAction, DesignResult, DesignWarning } from "./types.ts";
 
 const known = new WeakSet<object>();
 
@@ -411,9 +411,14 @@ const WARNING_CODES = [
   "predistortion-failed", "spec-not-met", "unstable", "yield-not-met", "clips",
 ] as const;
 const ACTION_CODES = [
-  "placed-in-slack", "re-tuned-to-mask", "moved-placement", "raised-order", "tightened-prototype", "kept-best-attempt", "predistorted-for-gbw",
+  "placed-in-slack", "re-tuned-to-mask", "moved-placement", "raised-order", "tightened-prototype", "sturdier-stages", "kept-best-attempt", "predistorted-for-gbw",
   "centred-for-yield", "tightened-tolerances", "changed-family-for-yield", "confirmed-yield",
 ] as const;
+// Compile-time: the lists name every code the result types allow (a new code must be added here).
+const everyWarningCode: Exclude<DesignWarning["code"], (typeof WARNING_CODES)[number]> extends never ? true : false = true;
+const everyActionCode: Exclude<DesignAction["code"], (typeof ACTION_CODES)[number]> extends never ? true : false = true;
+void everyWarningCode;
+void everyActionCode;
 const ALTERNATIVE_KEYS = [
   "change", "family", "order", "opamps", "resistorTolerance", "capacitorTolerance", "fraction", "lower95", "upper95", "boards", "met", "chosen",
 ] as const;
