@@ -16,7 +16,7 @@ import type { ComponentValues } from "../topologies/types.ts";
 import { TWO_PI } from "../units/constants.ts";
 import type { DesignSpec } from "./spec.ts";
 import type { Prototype } from "./family.ts";
-import { placeInInterval, transformPrototype, type FeasibleInterval } from "./placement.ts";
+import { intervalWidth, placeInInterval, prototypeInterval, transformPrototype, upHelpsPassband, type FeasibleInterval } from "./placement.ts";
 import { describeSections, peakGrid, planStages, type SectionInfo, type StagePlan } from "./stages.ts";
 import { tuneStage, type TunedStage, type ValueSet } from "./components.ts";
 import { predistortTarget, type PredistortionOutcome } from "./predistort.ts";
@@ -180,6 +180,27 @@ export function buildAttempt(spec: DesignSpec, placed: PlacedPrototype, options:
   const mask = checkMask(spec, boardStages(plans, chosen), spec.opamp);
   const gridHz = grid.map((w) => w / TWO_PI);
   return { proto, interval, position: options.position, value, gridHz, plans, exactPlans, tuned, chosen, mask, predistortion };
+}
+
+/**
+ * The stage plans a prototype gets where the pipeline first builds it: placed
+ * at the middle of its interval (at the passband end when the interval is
+ * empty, as `designAtOrder` does), split into sections and given a topology
+ * per stage by {@link planStages}, the spec's named topologies included.
+ *
+ * @param spec - canonical spec
+ * @param proto - the prototype (family.ts `choosePrototype`)
+ * @returns the plans (before gain correction)
+ * @throws {@link SpecError} when the spec's topologies do not fit the stages
+ * @throws {@link UnrealisableError} when no topology realises a stage
+ */
+export function planPrototype(spec: DesignSpec, proto: Prototype): readonly StagePlan[] {
+  const interval = prototypeInterval(spec, proto.zpk);
+  const position = intervalWidth(interval) >= 0 ? 0.5 : upHelpsPassband(spec) ? 0 : 1;
+  const value = placeInInterval(interval, position);
+  const cascade = toSections(transformPrototype(spec, proto.zpk, interval, value), { order: "ascending-q" });
+  const infos = describeSections(cascade, peakGrid(cascade));
+  return planStages(spec, infos, { forced: requestedTopologies(spec, infos) }).plans;
 }
 
 /** Whether the attempt's measured polarity satisfies the spec. */

@@ -31,6 +31,7 @@ import { getTopology, topologiesFor } from "../topologies/index.ts";
 import { SpecError, UnrealisableError } from "../errors.ts";
 import { TWO_PI } from "../units/constants.ts";
 import type { DesignSpec } from "./spec.ts";
+import { levelFit } from "./components.ts";
 
 /** One section of the target, described for the topology layer. */
 export interface SectionInfo {
@@ -258,6 +259,22 @@ export function capacitorSpreadOf(values: Readonly<Record<string, number>>): num
  */
 export const CAPACITOR_SPREAD_SOFT_LIMIT = 10;
 
+/**
+ * Largest gain (V/V) a stage other than the last is asked to carry when the
+ * gain still to be placed exceeds twice this: the remainder is then spread
+ * evenly over the later stages (no stage below this) instead of piling up in
+ * the first (common practice, no
+ * source: a single-op-amp stage's capacitor spread and its GBW demand grow
+ * with its gain, the multiple-feedback lowpass's spread as 1 + |K|, so 40 dB
+ * in one stage costs a large capacitor or a fast op-amp where two stages of
+ * 20 dB need neither). No stage output then peaks above the filter's output
+ * level; the early stages sit lower instead.
+ */
+export const STAGE_GAIN_CAP = 10;
+
+/** Score points for a topology whose parts leave the resistor window at every impedance level tried (more than one op-amp). */
+const OUTSIDE_WINDOW_PENALTY = 1.5;
+
 function score(t: Topology, info: SectionInfo, wish: number, got: number, last: boolean): number {
   const q = info.q ?? 0.5;
   let s = t.opampCount;
@@ -333,16 +350,24 @@ function assign(spec: DesignSpec, infos: readonly SectionInfo[], forced: readonl
   for (let i = 0; i < n; i++) {
     const info = infos[i] as SectionInfo;
     const last = i === n - 1;
-    const wish = last ? total / product : spec.gain / (peaks[i] as number) / product;
+    const remaining = total / product;
+    const share = remaining > 2 * STAGE_GAIN_CAP ? Math.max(STAGE_GAIN_CAP, remaining ** (1 / (n - i))) : Infinity;
+    const wish = last ? remaining : Math.min(spec.gain / (peaks[i] as number) / product, share);
     const choice = forced[i] ?? "auto";
     let best: { t: Topology; got: number; s: number } | null = null;
     const pool = choice === "auto" ? topologiesFor({ kind: info.kind, order: info.order }) : [getTopology(choice)];
+    // First only the topologies whose parts fit the hard limits at some impedance level; when none does, all of them.
+    for (const needFit of [true, false]) {
     for (const t of pool) {
       if (!t.kinds.includes(info.kind) || t.order !== info.order) continue;
       const got = realisableGain(t, info, wish);
       if (got === null) continue;
+      const fit = needFit ? levelFit(t, baseTarget(info, (t.inverting ? -1 : 1) * got), spec) : "none";
+      if (needFit && fit === "none") continue;
       // The last stage must carry the remaining gain exactly when it can.
       let s = score(t, info, wish, got, last) + (last ? 4 * Math.abs(Math.log(got / wish)) : 0);
+      // A stage that leaves the resistor window at every level costs more than an extra op-amp.
+      if (fit === "within-limits") s += OUTSIDE_WINDOW_PENALTY;
       // With a real op-amp, prefer stages whose GBW demand it meets.
       if (spec.opamp.kind !== "ideal") {
         try {
@@ -353,6 +378,8 @@ function assign(spec: DesignSpec, infos: readonly SectionInfo[], forced: readonl
         }
       }
       if (best === null || s < best.s) best = { t, got, s };
+    }
+    if (best !== null) break;
     }
     if (best === null) {
       return choice === "auto"
