@@ -47,6 +47,7 @@ export function runPartsCorpus(seed: number, n: number): PartsTally {
     } catch (e) {
       if (e instanceof UnrealisableError || e instanceof SpecError) {
         tally.skipped++;
+        if (tally.examples.length < 12) tally.examples.push(`${id} skipped: ${e.message.slice(0, 300)}`);
         continue;
       }
       throw e;
