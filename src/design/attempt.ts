@@ -21,6 +21,7 @@ import { describeSections, peakGrid, planStages, type SectionInfo, type StagePla
 import { tuneStage, type TunedStage, type ValueSet } from "./components.ts";
 import { predistortTarget, type PredistortionOutcome } from "./predistort.ts";
 import { checkMask, type BuiltStage, type MaskCheck } from "./verify.ts";
+import type { PartLimits } from "./impedance-level.ts";
 
 /** A prototype with the interval placement found for it. */
 export interface PlacedPrototype {
@@ -114,6 +115,9 @@ interface TunedCascade {
   readonly predistortion: (PredistortionOutcome | null)[];
 }
 
+/** Part limits for a stage no value set builds inside the usual ones: three decades beyond them on each side. */
+const LAST_RESORT_LIMITS: PartLimits = { resistor: { min: 0.1, max: 1e10 }, capacitor: { min: 1e-14, max: 1e-2 } };
+
 /** The plan with its gain target divided by the gain error carried from the stages before it, when the stage's gain is free and the corrected target is realisable. */
 function absorbGainError(plan: StagePlan, carried: number): StagePlan {
   if (carried === 1 || plan.topology.fixedGain !== undefined) return plan;
@@ -136,11 +140,15 @@ function tuneCascade(spec: DesignSpec, exactPlans: readonly StagePlan[], wide: b
   exactPlans.forEach((exact, i) => {
     const plan = absorbGainError(exact, carried);
     const pd = spec.opamp.kind !== "ideal" && plan.target.order === 2 ? predistortTarget(plan.topology, plan.target, spec.opamp) : null;
-    const t = tuneStage(plan.topology, pd?.ok === true ? pd.target : plan.target, spec, {
+    const tuneOptions = {
       ...(wide ? { capacitors: 12, spread: 3, keep: 12 } : {}),
       preferredCapacitors: usedCaps,
       ...(pd?.ok === true ? { opampScoring: { opamp: spec.opamp, wanted: plan.target } } : {}),
-    });
+    };
+    const stageTarget = pd?.ok === true ? pd.target : plan.target;
+    // A stage no value set builds inside the hard part limits (the planner found no topology that
+    // fits) is built beyond them rather than not at all; the result warns about each such part.
+    const t = tuneStage(plan.topology, stageTarget, spec, tuneOptions) ?? tuneStage(plan.topology, stageTarget, spec, { ...tuneOptions, limits: LAST_RESORT_LIMITS });
     if (t === null) {
       throw new UnrealisableError({
         fn: "designFilter",

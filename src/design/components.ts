@@ -7,10 +7,10 @@
  *    and impedance scaling): every capacitor value of the capacitor series in
  *    the allowed window is tried as the stage's capacitor; the topology's
  *    design equations give the resistors, and the capacitors whose resistors
- *    sit most centrally (on a log scale) inside the resistor window are kept:
- *    those within the middle half of the window (on a log scale) when there
- *    are three or more, and levels needing a capacitor above 1 µF only when
- *    no other level keeps the resistors inside the window.
+ *    sit most centrally (on a log scale) inside the resistor window are kept,
+ *    levels needing a capacitor above 1 µF only when no other level keeps
+ *    the resistors inside the window, and none with a part beyond the hard
+ *    limits (impedance-level.ts).
  * 2. Capacitor pairs: where the topology sets a capacitor ratio, the second
  *    capacitor is also taken from the series (the preferred values around the
  *    design's own choice) and the ratio follows from the pair, so both
@@ -138,10 +138,10 @@ function capacitorCandidates(
   t: Topology,
   target: StageTarget,
   spec: DesignSpec,
-  keep: number,
+  search: { keep: number; limits: PartLimits },
 ): { c: number; values: ComponentValues; centring: number }[] {
+  const { keep, limits } = search;
   const caps = seriesValuesInRange(spec.capacitorSeries, spec.capacitorRange);
-  const limits = partLimits(spec);
   const out: { c: number; values: ComponentValues; centring: number }[] = [];
   for (const c of caps) {
     const v = tryDesign(t, target, { capacitor: c }, spec.capacitorSeries);
@@ -156,10 +156,7 @@ function capacitorCandidates(
     out.length = 0;
     out.push(...kept);
   }
-  // The levels keeping every resistor within half the window's log width of its centre, when there are three or more.
-  const core = out.filter((x) => x.centring <= 0.5);
-  if (core.length >= 3) return core.slice(0, keep);
-  // Else every capacitor that keeps the resistors inside the window (up to `keep`), and at least the best three.
+  // Every capacitor that keeps the resistors inside the window (up to `keep`), and at least the best three.
   const inside = out.filter((x) => x.centring <= 1).length;
   return out.slice(0, Math.min(keep, Math.max(inside === 0 ? 8 : 3, inside)));
 }
@@ -173,9 +170,9 @@ function stockCapacitorDesigns(
   t: Topology,
   target: StageTarget,
   spec: DesignSpec,
-  base: { c: number; values: ComponentValues },
+  base: { c: number; values: ComponentValues; limits: PartLimits },
 ): ComponentValues[] {
-  const limits = partLimits(spec);
+  const limits = base.limits;
   const capNames = Object.keys(base.values).filter(isCap);
   const offSeries = capNames.filter((n) => !isInSeries(base.values[n] as number, spec.capacitorSeries));
   const out: ComponentValues[] = offSeries.length === 0 ? [base.values] : [];
@@ -300,6 +297,11 @@ export interface TuneOptions {
    * @defaultValue none (ideal-op-amp figures against `target`)
    */
   readonly opampScoring?: OpampScoring;
+  /**
+   * The hard part limits no value set passes.
+   * @defaultValue `partLimits(spec)` (impedance-level.ts)
+   */
+  readonly limits?: PartLimits;
 }
 
 /** How {@link tuneStage} scores candidates with a real op-amp. */
@@ -364,17 +366,18 @@ export function tuneStage(
   options: TuneOptions = {},
 ): TunedStage | null {
   const keep = options.keep ?? 6;
-  const bases = capacitorCandidates(t, target, spec, options.capacitors ?? 10);
+  const limits = options.limits ?? partLimits(spec);
+  const bases = capacitorCandidates(t, target, spec, { keep: options.capacitors ?? 10, limits });
   // Capacitor values earlier stages use are tried as well (when they keep the resistors near the window).
   for (const c of options.preferredCapacitors ?? []) {
     if (bases.some((b) => b.c === c) || c < spec.capacitorRange.min || c > spec.capacitorRange.max) continue;
     const v = tryDesign(t, target, { capacitor: c }, spec.capacitorSeries);
-    if (v !== null && centring(v, spec.resistorRange) <= 1 && capacitorsWithin(v, partLimits(spec))) bases.push({ c, values: v, centring: centring(v, spec.resistorRange) });
+    if (v !== null && centring(v, spec.resistorRange) <= 1 && capacitorsWithin(v, limits)) bases.push({ c, values: v, centring: centring(v, spec.resistorRange) });
   }
   if (bases.length === 0) {
     // No capacitor in the window works: let the topology pick its own impedance level.
     const v = tryDesign(t, target, {});
-    if (v === null || !capacitorsWithin(v, partLimits(spec)) || !resistorsWithin(v, partLimits(spec))) return null;
+    if (v === null || !capacitorsWithin(v, limits) || !resistorsWithin(v, limits)) return null;
     bases.push({ c: NaN, values: v, centring: centring(v, spec.resistorRange) });
   }
   const first = bases[0] as (typeof bases)[number];
@@ -382,17 +385,17 @@ export function tuneStage(
   const scoring = options.opampScoring;
   const all: ValueSet[] = [];
   for (const base of bases) {
-    const designs = Number.isNaN(base.c) ? [base.values] : centred(stockCapacitorDesigns(t, target, spec, base), spec, base.centring);
+    const designs = Number.isNaN(base.c) ? [base.values] : centred(stockCapacitorDesigns(t, target, spec, { ...base, limits }), spec, base.centring);
     for (const exact of designs) {
-      all.push(...searchResistors(t, localTarget(t, target, exact, scoring), exact, spec, options.spread ?? 2, keep));
+      all.push(...searchResistors(t, localTarget(t, target, exact, scoring), exact, spec, options.spread ?? 2, keep, limits));
     }
   }
   all.sort((a, b) => a.cost - b.cost);
   // A coarse result (worse than 0.3 %) gets one wider search around the best few bases.
   if ((all[0]?.cost ?? Infinity) > 3e-3 && (options.spread ?? 2) < 3) {
     for (const base of bases.slice(0, 4)) {
-      const designs = Number.isNaN(base.c) ? [base.values] : stockCapacitorDesigns(t, target, spec, base);
-      for (const exact of designs) all.push(...searchResistors(t, localTarget(t, target, exact, scoring), exact, spec, 3, keep));
+      const designs = Number.isNaN(base.c) ? [base.values] : centred(stockCapacitorDesigns(t, target, spec, { ...base, limits }), spec, base.centring);
+      for (const exact of designs) all.push(...searchResistors(t, localTarget(t, target, exact, scoring), exact, spec, 3, keep, limits));
     }
     all.sort((a, b) => a.cost - b.cost);
   }

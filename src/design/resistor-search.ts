@@ -140,6 +140,7 @@ function finalists(w: Workspace, target: StageTarget, keep: number): { found: Va
  * @param spec - canonical spec (the resistor series)
  * @param spread - preferred values tried on each side of every resistor
  * @param keep - sets returned
+ * @param limits - hard part limits no resistor passes (default `partLimits(spec)`, impedance-level.ts)
  * @returns the best `keep` sets met, ascending cost (ties in the order met)
  * @throws never
  * @example
@@ -155,12 +156,13 @@ export function searchResistors(
   spec: DesignSpec,
   spread: number,
   keep: number,
+  limits: PartLimits = partLimits(spec),
 ): ValueSet[] {
   const w = workspace(t, exact);
   const x = w.x;
   const slots = w.keys.flatMap((k, i) => (isRes(k) ? [i] : []));
   // Only preferred values inside the hard limits (impedance-level.ts `partLimits`): a stage with no such value for some resistor has no set.
-  const { resistor: lim } = partLimits(spec);
+  const lim = limits.resistor;
   const options = slots.map((i) => neighbours(x[i] as number, spec.resistorSeries, spread).filter((v) => v >= lim.min * (1 - 1e-9) && v <= lim.max * (1 + 1e-9)));
   if (options.some((o) => o.length === 0)) return [];
   const { found, trial } = finalists(w, target, keep);
