@@ -148,7 +148,9 @@ function tuneCascade(spec: DesignSpec, exactPlans: readonly StagePlan[], wide: b
     const stageTarget = pd?.ok === true ? pd.target : plan.target;
     // A stage no value set builds inside the hard part limits (the planner found no topology that
     // fits) is built beyond them rather than not at all; the result warns about each such part.
-    const t = tuneStage(plan.topology, stageTarget, spec, tuneOptions) ?? tuneStage(plan.topology, stageTarget, spec, { ...tuneOptions, limits: LAST_RESORT_LIMITS });
+    const inside = tuneStage(plan.topology, stageTarget, spec, tuneOptions);
+    const beyond = inside === null ? tuneStage(plan.topology, stageTarget, spec, { ...tuneOptions, limits: LAST_RESORT_LIMITS }) : null;
+    const t = inside ?? (beyond === null ? null : { ...beyond, beyondLimits: true as const });
     if (t === null) {
       throw new UnrealisableError({
         fn: "designFilter",

@@ -60,6 +60,8 @@ export interface TunedStage {
   readonly plain: ValueSet;
   /** The exact (unrounded) design the plain set was rounded from. */
   readonly exact: ComponentValues;
+  /** Set when no value set fitted the hard part limits and the stage was built beyond them (attempt.ts, the last resort; the result warns about each such part). */
+  readonly beyondLimits?: true;
 }
 
 function tryDesign(
