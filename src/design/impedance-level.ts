@@ -25,10 +25,24 @@
  */
 import type { ValueWindow } from "./spec-types.ts";
 
-/** The resistor limits no BOM passes unless the spec's own window is wider (common practice, no source). */
+/**
+ * The resistor limits no BOM passes unless the spec's own window is wider (common practice, no source).
+ *
+ * @example
+ * ```ts
+ * RESISTOR_LIMITS; //=> { min: 100, max: 10000000 }
+ * ```
+ */
 export const RESISTOR_LIMITS: ValueWindow = Object.freeze({ min: 100, max: 10e6 });
 
-/** The capacitor limits no BOM passes unless the spec's own window is wider (film and C0G parts; common practice, no source). */
+/**
+ * The capacitor limits no BOM passes unless the spec's own window is wider (film and C0G parts; common practice, no source).
+ *
+ * @example
+ * ```ts
+ * CAPACITOR_LIMITS; //=> { min: 1e-11, max: 0.00001 }
+ * ```
+ */
 export const CAPACITOR_LIMITS: ValueWindow = Object.freeze({ min: 10e-12, max: 10e-6 });
 
 /** The capacitor above which a design is avoided when another impedance level does without it (common practice, no source). */
