@@ -23,11 +23,12 @@ import { TWO_PI } from "../units/constants.ts";
 import type { DesignSpec } from "./spec.ts";
 import type { Prototype } from "./family.ts";
 import type { SectionCascade } from "../tf/types.ts";
-import { placeInInterval, transformPrototype, type FeasibleInterval } from "./placement.ts";
+import { intervalWidth, placeInInterval, prototypeInterval, transformPrototype, upHelpsPassband, type FeasibleInterval } from "./placement.ts";
 import { describeSections, peakGrid, planStages, type SectionInfo, type StagePlan } from "./stages.ts";
 import { tuneStage, type TunedStage, type ValueSet } from "./components.ts";
 import { predistortTarget, type PredistortionOutcome } from "./predistort.ts";
 import { checkMask, type BuiltStage, type MaskCheck } from "./verify.ts";
+import type { PartLimits } from "./impedance-level.ts";
 
 /** A prototype with the interval placement found for it. */
 export interface PlacedPrototype {
@@ -123,6 +124,9 @@ interface TunedCascade {
   readonly predistortion: (PredistortionOutcome | null)[];
 }
 
+/** Part limits for a stage no value set builds inside the usual ones: three decades beyond them on each side. */
+const LAST_RESORT_LIMITS: PartLimits = { resistor: { min: 0.1, max: 1e10 }, capacitor: { min: 1e-14, max: 1e-2 } };
+
 /** The plan with its gain target divided by the gain error carried from the stages before it, when the stage's gain is free and the corrected target is realisable. */
 function absorbGainError(plan: StagePlan, carried: number): StagePlan {
   if (carried === 1 || plan.topology.fixedGain !== undefined) return plan;
@@ -145,11 +149,17 @@ function tuneCascade(spec: DesignSpec, exactPlans: readonly StagePlan[], wide: b
   exactPlans.forEach((exact, i) => {
     const plan = absorbGainError(exact, carried);
     const pd = spec.opamp.kind !== "ideal" && plan.target.order === 2 ? predistortTarget(plan.topology, plan.target, spec.opamp) : null;
-    const t = tuneStage(plan.topology, pd?.ok === true ? pd.target : plan.target, spec, {
+    const tuneOptions = {
       ...(wide ? { capacitors: 12, spread: 3, keep: 12 } : {}),
       preferredCapacitors: usedCaps,
       ...(pd?.ok === true ? { opampScoring: { opamp: spec.opamp, wanted: plan.target } } : {}),
-    });
+    };
+    const stageTarget = pd?.ok === true ? pd.target : plan.target;
+    // A stage no value set builds inside the hard part limits (the planner found no topology that
+    // fits) is built beyond them rather than not at all; the result warns about each such part.
+    const inside = tuneStage(plan.topology, stageTarget, spec, tuneOptions);
+    const beyond = inside === null ? tuneStage(plan.topology, stageTarget, spec, { ...tuneOptions, limits: LAST_RESORT_LIMITS }) : null;
+    const t = inside ?? (beyond === null ? null : { ...beyond, beyondLimits: true as const });
     if (t === null) {
       throw new UnrealisableError({
         fn: "designFilter",
@@ -245,6 +255,26 @@ export function sturdierStagesOf(a: Attempt): ReadonlySet<string> {
     if (TRADED_KINDS.has(p.info.kind) || (p.info.q ?? 0) > 2) out.add(p.topology.id);
   }
   return out;
+}
+
+/**
+ * The stage plans a prototype gets where the pipeline first builds it: placed
+ * at the middle of its interval (at the passband end when the interval is
+ * empty, as `designAtOrder` does), split into sections and given a topology
+ * per stage by {@link planStages}, the spec's named topologies included (and,
+ * for a bandpass, the band split when it needs fewer op-amps, as `buildAttempt` does).
+ *
+ * @param spec - canonical spec
+ * @param proto - the prototype (family.ts `choosePrototype`)
+ * @returns the plans (before gain correction)
+ * @throws {@link SpecError} when the spec's topologies do not fit the stages
+ * @throws {@link UnrealisableError} when no topology realises a stage
+ */
+export function planPrototype(spec: DesignSpec, proto: Prototype): readonly StagePlan[] {
+  const interval = prototypeInterval(spec, proto.zpk);
+  const position = intervalWidth(interval) >= 0 ? 0.5 : upHelpsPassband(spec) ? 0 : 1;
+  const value = placeInInterval(interval, position);
+  return chooseSplit(spec, toSectionsFor(spec, proto, interval, value), undefined).exactPlans;
 }
 
 /** Whether the attempt's measured polarity satisfies the spec. */

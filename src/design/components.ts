@@ -7,7 +7,10 @@
  *    and impedance scaling): every capacitor value of the capacitor series in
  *    the allowed window is tried as the stage's capacitor; the topology's
  *    design equations give the resistors, and the capacitors whose resistors
- *    sit most centrally (on a log scale) inside the resistor window are kept.
+ *    sit most centrally (on a log scale) inside the resistor window are kept,
+ *    levels needing a capacitor above 1 µF only when no other level keeps
+ *    the resistors inside the window, and none with a part beyond the hard
+ *    limits (impedance-level.ts).
  * 2. Capacitor pairs: where the topology sets a capacitor ratio, the second
  *    capacitor is also taken from the series (the preferred values around the
  *    design's own choice) and the ratio follows from the pair, so both
@@ -41,7 +44,8 @@ import { topologyCore } from "../topologies/define.ts";
 import type { AsBuiltPole } from "../topologies/as-built.ts";
 import type { ComponentValues, StageChoices, StageTarget, Topology } from "../topologies/types.ts";
 import type { DesignSpec } from "./spec.ts";
-import { neighbours, searchResistors } from "./resistor-search.ts";
+import { neighbours, resistorsWithin, searchResistors } from "./resistor-search.ts";
+import { PREFERRED_CAPACITOR_MAX, partLimits, type PartLimits } from "./impedance-level.ts";
 import { costOf, evaluate, isCap, isRes, stageErrors, type ValueSet } from "./stage-cost.ts";
 
 export type { ValueSet } from "./stage-cost.ts";
@@ -56,6 +60,8 @@ export interface TunedStage {
   readonly plain: ValueSet;
   /** The exact (unrounded) design the plain set was rounded from. */
   readonly exact: ComponentValues;
+  /** Set when no value set fitted the hard part limits and the stage was built beyond them (attempt.ts, the last resort; the result warns about each such part). */
+  readonly beyondLimits?: true;
 }
 
 function tryDesign(
@@ -110,21 +116,48 @@ function centring(values: ComponentValues, range: { min: number; max: number }):
   return outside === 0 ? worst : 2 + outside + Math.min(worst, 1e3) / 1e4;
 }
 
+/** Whether every part of a design lies inside the hard limits (capacitors; resistors are held there by the value search). */
+function capacitorsWithin(values: ComponentValues, limits: PartLimits): boolean {
+  for (const [k, v] of Object.entries(values)) {
+    if (isCap(k) && (v < limits.capacitor.min * (1 - 1e-9) || v > limits.capacitor.max * (1 + 1e-9))) return false;
+  }
+  return true;
+}
+
+/**
+ * A small penalty for a capacitor above 1 µF (impedance-level.ts
+ * `PREFERRED_CAPACITOR_MAX`), so that among impedance levels that keep the
+ * resistors inside the window the one without large capacitors wins.
+ */
+function largeCapacitorPenalty(values: ComponentValues): number {
+  let n = 0;
+  for (const [k, v] of Object.entries(values)) if (isCap(k) && v > PREFERRED_CAPACITOR_MAX * (1 + 1e-9)) n++;
+  return 0.25 * n;
+}
+
 /** Capacitors of the series inside the window, best-centred first (at most `keep`). */
 function capacitorCandidates(
   t: Topology,
   target: StageTarget,
   spec: DesignSpec,
-  keep: number,
+  search: { keep: number; limits: PartLimits },
 ): { c: number; values: ComponentValues; centring: number }[] {
+  const { keep, limits } = search;
   const caps = seriesValuesInRange(spec.capacitorSeries, spec.capacitorRange);
   const out: { c: number; values: ComponentValues; centring: number }[] = [];
   for (const c of caps) {
     const v = tryDesign(t, target, { capacitor: c }, spec.capacitorSeries);
-    if (v === null) continue;
-    out.push({ c, values: v, centring: centring(v, spec.resistorRange) });
+    if (v === null || !capacitorsWithin(v, limits) || !resistorsWithin(v, limits)) continue;
+    out.push({ c, values: v, centring: centring(v, spec.resistorRange) + largeCapacitorPenalty(v) });
   }
   out.sort((a, b) => a.centring - b.centring);
+  // Levels with a capacitor above 1 µF are dropped when a level without one keeps the resistors inside the window.
+  const small = (x: (typeof out)[number]): boolean => largeCapacitorPenalty(x.values) === 0;
+  if (out.some((x) => small(x) && x.centring <= 1)) {
+    const kept = out.filter(small);
+    out.length = 0;
+    out.push(...kept);
+  }
   // Every capacitor that keeps the resistors inside the window (up to `keep`), and at least the best three.
   const inside = out.filter((x) => x.centring <= 1).length;
   return out.slice(0, Math.min(keep, Math.max(inside === 0 ? 8 : 3, inside)));
@@ -139,8 +172,9 @@ function stockCapacitorDesigns(
   t: Topology,
   target: StageTarget,
   spec: DesignSpec,
-  base: { c: number; values: ComponentValues },
+  base: { c: number; values: ComponentValues; limits: PartLimits },
 ): ComponentValues[] {
+  const limits = base.limits;
   const capNames = Object.keys(base.values).filter(isCap);
   const offSeries = capNames.filter((n) => !isInSeries(base.values[n] as number, spec.capacitorSeries));
   const out: ComponentValues[] = offSeries.length === 0 ? [base.values] : [];
@@ -170,7 +204,7 @@ function stockCapacitorDesigns(
       if (c2 === ideal && offSeries.length === 0) continue;
       const ratio = found.direct ? c2 / base.c : base.c / c2;
       const v = tryDesign(t, target, { capacitor: base.c, capacitorRatio: ratio }, spec.capacitorSeries);
-      if (v !== null) out.push(v);
+      if (v !== null && capacitorsWithin(v, limits) && resistorsWithin(v, limits)) out.push(v);
     }
   }
   // Fallback (or in addition): the design with its capacitors rounded, resistors kept.
@@ -178,8 +212,47 @@ function stockCapacitorDesigns(
   for (const n of offSeries) {
     rounded[n] = snapToSeries(base.values[n] as number, { series: spec.capacitorSeries, mode: "nearest" }).value;
   }
-  if (out.length === 0 && offSeries.length > 0) out.push(rounded);
+  if (out.length === 0 && offSeries.length > 0 && capacitorsWithin(rounded, limits)) out.push(rounded);
   return out;
+}
+
+/** How a topology's parts fit the windows for one stage target (see {@link levelFit}). */
+export type LevelFit = "inside" | "within-limits" | "none";
+
+/**
+ * Whether some impedance level puts a stage's parts inside the spec's
+ * resistor window (`"inside"`), only inside the hard limits
+ * (impedance-level.ts `partLimits`; `"within-limits"`), or nowhere
+ * (`"none"`). The levels probed are the capacitors 1, 2.2 and 4.7 of every
+ * decade of the capacitor window (the topology's own default ratios), a
+ * cheap stand-in for the full search of {@link tuneStage}, used by the
+ * stage planner to choose a topology that fits.
+ *
+ * @param t - topology
+ * @param target - stage target
+ * @param spec - canonical spec (windows)
+ * @returns the fit
+ * @example
+ * ```ts
+ * levelFit(getTopology("sallen-key-lowpass-unity"), { order: 2, kind: "lowpass", f0Hz: 1000, q: 0.7071, gain: 1 }, spec); //=> "inside"
+ * ```
+ */
+export function levelFit(t: Topology, target: StageTarget, spec: DesignSpec): LevelFit {
+  const limits = partLimits(spec);
+  let fit: LevelFit = "none";
+  const lo = Math.floor(Math.log10(spec.capacitorRange.min));
+  const hi = Math.ceil(Math.log10(spec.capacitorRange.max));
+  for (let d = lo; d <= hi; d++) {
+    for (const m of [1, 2.2, 4.7]) {
+      const c = m * 10 ** d;
+      if (c < spec.capacitorRange.min * (1 - 1e-9) || c > spec.capacitorRange.max * (1 + 1e-9)) continue;
+      const v = tryDesign(t, target, { capacitor: c });
+      if (v === null || !capacitorsWithin(v, limits) || !resistorsWithin(v, limits)) continue;
+      if (centring(v, spec.resistorRange) <= 1) return "inside";
+      fit = "within-limits";
+    }
+  }
+  return fit;
 }
 
 /** Every resistor rounded to its nearest preferred value, capacitors as given (rounded when off-series). */
@@ -192,6 +265,18 @@ function plainSnap(values: ComponentValues, spec: DesignSpec): ComponentValues {
   return out;
 }
 
+
+/**
+ * The stock-capacitor designs whose resistors sit no further from the
+ * window's centre than half its log width or the base design's own
+ * distance, whichever is larger (re-pairing the capacitors moves the
+ * resistor ratio); all of them when none does.
+ */
+function centred(designs: ComponentValues[], spec: DesignSpec, baseCentring: number): ComponentValues[] {
+  const limit = Math.max(0.5, baseCentring);
+  const kept = designs.filter((d) => centring(d, spec.resistorRange) <= limit + 1e-12);
+  return kept.length > 0 ? kept : designs;
+}
 
 /** Options of {@link tuneStage}. */
 export interface TuneOptions {
@@ -214,6 +299,11 @@ export interface TuneOptions {
    * @defaultValue none (ideal-op-amp figures against `target`)
    */
   readonly opampScoring?: OpampScoring;
+  /**
+   * The hard part limits no value set passes.
+   * @defaultValue `partLimits(spec)` (impedance-level.ts)
+   */
+  readonly limits?: PartLimits;
 }
 
 /** How {@link tuneStage} scores candidates with a real op-amp. */
@@ -278,17 +368,18 @@ export function tuneStage(
   options: TuneOptions = {},
 ): TunedStage | null {
   const keep = options.keep ?? 6;
-  const bases = capacitorCandidates(t, target, spec, options.capacitors ?? 10);
+  const limits = options.limits ?? partLimits(spec);
+  const bases = capacitorCandidates(t, target, spec, { keep: options.capacitors ?? 10, limits });
   // Capacitor values earlier stages use are tried as well (when they keep the resistors near the window).
   for (const c of options.preferredCapacitors ?? []) {
     if (bases.some((b) => b.c === c) || c < spec.capacitorRange.min || c > spec.capacitorRange.max) continue;
     const v = tryDesign(t, target, { capacitor: c }, spec.capacitorSeries);
-    if (v !== null && centring(v, spec.resistorRange) <= 1) bases.push({ c, values: v, centring: centring(v, spec.resistorRange) });
+    if (v !== null && centring(v, spec.resistorRange) <= 1 && capacitorsWithin(v, limits)) bases.push({ c, values: v, centring: centring(v, spec.resistorRange) });
   }
   if (bases.length === 0) {
     // No capacitor in the window works: let the topology pick its own impedance level.
     const v = tryDesign(t, target, {});
-    if (v === null) return null;
+    if (v === null || !capacitorsWithin(v, limits) || !resistorsWithin(v, limits)) return null;
     bases.push({ c: NaN, values: v, centring: centring(v, spec.resistorRange) });
   }
   const first = bases[0] as (typeof bases)[number];
@@ -296,17 +387,17 @@ export function tuneStage(
   const scoring = options.opampScoring;
   const all: ValueSet[] = [];
   for (const base of bases) {
-    const designs = Number.isNaN(base.c) ? [base.values] : stockCapacitorDesigns(t, target, spec, base);
+    const designs = Number.isNaN(base.c) ? [base.values] : centred(stockCapacitorDesigns(t, target, spec, { ...base, limits }), spec, base.centring);
     for (const exact of designs) {
-      all.push(...searchResistors(t, localTarget(t, target, exact, scoring), exact, spec, options.spread ?? 2, keep));
+      all.push(...searchResistors(t, localTarget(t, target, exact, scoring), exact, spec, options.spread ?? 2, keep, limits));
     }
   }
   all.sort((a, b) => a.cost - b.cost);
   // A coarse result (worse than 0.3 %) gets one wider search around the best few bases.
   if ((all[0]?.cost ?? Infinity) > 3e-3 && (options.spread ?? 2) < 3) {
     for (const base of bases.slice(0, 4)) {
-      const designs = Number.isNaN(base.c) ? [base.values] : stockCapacitorDesigns(t, target, spec, base);
-      for (const exact of designs) all.push(...searchResistors(t, localTarget(t, target, exact, scoring), exact, spec, 3, keep));
+      const designs = Number.isNaN(base.c) ? [base.values] : centred(stockCapacitorDesigns(t, target, spec, { ...base, limits }), spec, base.centring);
+      for (const exact of designs) all.push(...searchResistors(t, localTarget(t, target, exact, scoring), exact, spec, 3, keep, limits));
     }
     all.sort((a, b) => a.cost - b.cost);
   }

@@ -19,11 +19,11 @@
 import type { Zpk } from "../tf/types.ts";
 import { groupDelay, logGrid } from "../tf/index.ts";
 import { minimumOrder, prototype, type FamilyName } from "../approx/index.ts";
-import { topologiesFor } from "../topologies/index.ts";
 import type { DesignSpec } from "./spec.ts";
 import { TWO_PI } from "../units/constants.ts";
 import { intervalWidth, placeInInterval, prototypeInterval, transformPrototype } from "./placement.ts";
 import type { FamilyCandidate, FamilyChoice } from "./types.ts";
+import { planPrototype } from "./attempt.ts";
 
 /** Highest prototype order the automatic choices consider. */
 export const AUTO_MAX_ORDER = 12;
@@ -220,19 +220,19 @@ export function stageCount(spec: DesignSpec, order: number): number {
   return spec.response === "lowpass" || spec.response === "highpass" ? Math.ceil(order / 2) : order;
 }
 
+/**
+ * The op-amps a family at an order is built with: the stages planned for the
+ * prototype the pipeline builds first (attempt.ts `planPrototype`: the same
+ * sections, gains and topology choice), summed. A spec whose stages cannot
+ * be planned (the design itself will say why) falls back to one op-amp per
+ * stage.
+ */
 function opampEstimate(spec: DesignSpec, family: FamilyName, order: number): number {
-  // All-pole families need one op-amp per stage with the simplest topologies;
-  // families with finite zeros need notch-capable stages.
-  const stages = stageCount(spec, order);
-  if (family !== "chebyshev2" && family !== "elliptic" && spec.response !== "bandstop") return stages;
-  let notchOpamps = 3;
   try {
-    const t = topologiesFor({ kind: "lowpass-notch", order: 2 });
-    if (t.length > 0) notchOpamps = Math.min(...t.map((x) => x.opampCount));
+    return planPrototype(spec, choosePrototype(spec, family, order)).reduce((n, p) => n + p.topology.opampCount, 0);
   } catch {
-    // keep the estimate
+    return stageCount(spec, order);
   }
-  return stages * notchOpamps;
 }
 
 function delayVariation(spec: DesignSpec, p: Prototype): number {

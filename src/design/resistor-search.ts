@@ -11,6 +11,7 @@ import { isInSeries, nextInSeries, snapToSeries } from "../parts/index.ts";
 import { topologyCore } from "../topologies/define.ts";
 import type { ComponentValues, StageFigures, StageTarget, Topology } from "../topologies/types.ts";
 import type { DesignSpec } from "./spec.ts";
+import { partLimits, type PartLimits } from "./impedance-level.ts";
 import { figuresCost, figuresOf, isRes, rel, stageErrors, type ValueSet } from "./stage-cost.ts";
 
 /**
@@ -139,6 +140,7 @@ function finalists(w: Workspace, target: StageTarget, keep: number): { found: Va
  * @param spec - canonical spec (the resistor series)
  * @param spread - preferred values tried on each side of every resistor
  * @param keep - sets returned
+ * @param limits - hard part limits no resistor passes (default `partLimits(spec)`, impedance-level.ts)
  * @returns the best `keep` sets met, ascending cost (ties in the order met)
  * @throws never
  * @example
@@ -154,11 +156,15 @@ export function searchResistors(
   spec: DesignSpec,
   spread: number,
   keep: number,
+  limits: PartLimits = partLimits(spec),
 ): ValueSet[] {
   const w = workspace(t, exact);
   const x = w.x;
   const slots = w.keys.flatMap((k, i) => (isRes(k) ? [i] : []));
-  const options = slots.map((i) => neighbours(x[i] as number, spec.resistorSeries, spread));
+  // Only preferred values inside the hard limits (impedance-level.ts `partLimits`): a stage with no such value for some resistor has no set.
+  const lim = limits.resistor;
+  const options = slots.map((i) => neighbours(x[i] as number, spec.resistorSeries, spread).filter((v) => v >= lim.min * (1 - 1e-9) && v <= lim.max * (1 + 1e-9)));
+  if (options.some((o) => o.length === 0)) return [];
   const { found, trial } = finalists(w, target, keep);
   const total = options.reduce((p, o) => p * o.length, 1);
   const idx = slots.map(() => 0);
@@ -229,4 +235,24 @@ export function searchResistors(
     if (!improved) break;
   }
   return found;
+}
+
+/**
+ * Whether every resistor of an exact design can be rounded to a preferred
+ * value inside the hard limits: each lies within the limits or less than 5 %
+ * outside them, where the search's neighbours still reach inside.
+ *
+ * @param values - an exact design
+ * @param limits - the hard limits (impedance-level.ts `partLimits`)
+ * @returns true when the value search can keep every resistor inside
+ * @example
+ * ```ts
+ * resistorsWithin({ R1: 50, C1: 1e-9 }, { resistor: { min: 100, max: 1e7 }, capacitor: { min: 1e-11, max: 1e-5 } }); //=> false
+ * ```
+ */
+export function resistorsWithin(values: ComponentValues, limits: PartLimits): boolean {
+  for (const [k, v] of Object.entries(values)) {
+    if (isRes(k) && (v < limits.resistor.min / 1.05 || v > limits.resistor.max * 1.05)) return false;
+  }
+  return true;
 }

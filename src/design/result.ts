@@ -97,7 +97,7 @@ function partWarnings(spec: DesignSpec, index: number, components: Readonly<Reco
     warnings.push({
       code: "resistor-out-of-range",
       stage: index,
-      message: `${outR.map(([k, v]) => `${k} = ${significant(v, 3)} Ω`).join(", ")} outside the resistor window ${significant(spec.resistorRange.min)}-${significant(spec.resistorRange.max)} Ω; no capacitor of the series in the capacitor window puts every resistor inside it.`,
+      message: `${outR.map(([k, v]) => `${k} = ${significant(v, 3)} Ω`).join(", ")} outside the resistor window ${significant(spec.resistorRange.min)}-${significant(spec.resistorRange.max)} Ω; no impedance level (capacitor of the series in the capacitor window) and no other topology the planner tried puts every resistor inside it. Widen parts.resistorMinOhm/parts.resistorMaxOhm, or name another topology for this stage.`,
     });
   }
   const outC = outside("C", spec.capacitorRange);
@@ -105,7 +105,7 @@ function partWarnings(spec: DesignSpec, index: number, components: Readonly<Reco
     warnings.push({
       code: "capacitor-out-of-range",
       stage: index,
-      message: `${outC.map(([k, v]) => `${k} = ${v.toExponential(2)} F`).join(", ")} outside the capacitor window.`,
+      message: `${outC.map(([k, v]) => `${k} = ${v.toExponential(2)} F`).join(", ")} outside the capacitor window ${spec.capacitorRange.min.toExponential(2)}-${spec.capacitorRange.max.toExponential(2)} F; widen parts.capacitorMinF/parts.capacitorMaxF, or name another topology for this stage.`,
     });
   }
   const ratio = capacitorSpreadOf(components);

@@ -16,6 +16,7 @@ import { SERIES_NAMES, seriesTolerance, type SeriesName } from "../parts/index.t
 import { parseValue } from "../units/index.ts";
 import { getTopology, topologies } from "../topologies/index.ts";
 import type { DesignSpec, FamilyPriority, PartDistribution, Polarity, ResponseType } from "./spec-types.ts";
+import { CAPACITOR_LIMITS, RESISTOR_LIMITS, characteristicFrequencyHz, defaultResistorWindow } from "./impedance-level.ts";
 
 const RESPONSES: readonly ResponseType[] = ["lowpass", "highpass", "bandpass", "bandstop"];
 const PRIORITIES: readonly FamilyPriority[] = ["fewest-op-amps", "fewest-stages", "flattest-delay", "monotonic"];
@@ -316,11 +317,18 @@ const PARTS_KEYS = [
 /** Default capacitor tolerance: C0G/NP0 ceramic or film at 5 % (common practice, no source), unless the series' own is tighter. */
 export const DEFAULT_CAPACITOR_TOLERANCE = 0.05;
 
-/** The part series, their tolerances and the value windows (`parts`). */
-export function readParts(r: Reader, parts: unknown): PartsPart {
+/**
+ * The part series, their tolerances and the value windows (`parts`). A
+ * resistor window the spec leaves out follows the filter's frequency
+ * (impedance-level.ts `defaultResistorWindow`, from the band edges); a bound
+ * given alone keeps the default other bound when the pair still spans a
+ * factor of 2, else the library's limit on that side.
+ */
+export function readParts(r: Reader, parts: unknown, edgesHz: readonly number[] = []): PartsPart {
   let capacitorSeries: SeriesName = "E12";
   let resistorSeries: SeriesName = "E96";
-  const window = { rMin: 1e3, rMax: 1e5, cMin: 1e-10, cMax: 1e-5 };
+  const level = defaultResistorWindow(characteristicFrequencyHz(edgesHz));
+  const window = { rMin: level.min, rMax: level.max, cMin: CAPACITOR_LIMITS.min, cMax: CAPACITOR_LIMITS.max };
   let capacitorTolerance: number | undefined;
   let resistorTolerance: number | undefined;
   let partDistribution: PartDistribution = "uniform";
@@ -342,6 +350,13 @@ export function readParts(r: Reader, parts: unknown): PartsPart {
       parts[key] === undefined ? fallback : (r.quantity(`parts.${key}`, parts[key], unit) ?? fallback);
     window.rMin = q("resistorMinOhm", "Ω", window.rMin);
     window.rMax = q("resistorMaxOhm", "Ω", window.rMax);
+    // One bound given: the default other bound unless it leaves less than a factor of 2.
+    if (parts["resistorMinOhm"] !== undefined && parts["resistorMaxOhm"] === undefined && !(window.rMin * 2 <= window.rMax)) {
+      window.rMax = Math.max(RESISTOR_LIMITS.max, window.rMin * 2);
+    }
+    if (parts["resistorMaxOhm"] !== undefined && parts["resistorMinOhm"] === undefined && !(window.rMin * 2 <= window.rMax)) {
+      window.rMin = Math.min(RESISTOR_LIMITS.min, window.rMax / 2);
+    }
     window.cMin = q("capacitorMinF", "F", window.cMin);
     window.cMax = q("capacitorMaxF", "F", window.cMax);
     if (!(window.rMin * 2 <= window.rMax)) {

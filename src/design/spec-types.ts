@@ -136,26 +136,35 @@ export interface PartsSpec {
    */
   readonly distribution?: PartDistribution;
   /**
-   * Smallest resistor wanted, ohms (common practice, no source: below about 1 kΩ
-   * op-amp output current and distortion grow).
-   * @defaultValue 1000
+   * Smallest resistor wanted, ohms. Left out, the window follows the
+   * filter's frequency (common practice, no source; see
+   * `defaultResistorWindow`): a decade either side of
+   * `10 kΩ · sqrt(1.59 kHz / f)` held between 2 kΩ and 316 kΩ, f the
+   * geometric mean of the band edges, so low-frequency filters get a high
+   * impedance (small, low-leakage capacitors) and high-frequency filters a
+   * low one (capacitors well above stray capacitance, within op-amp drive).
+   * No resistor below 100 Ω or above 10 MΩ is used unless the window given
+   * here is wider.
+   * @defaultValue a decade below the frequency's level (200 Ω to 31.6 kΩ)
    */
   readonly resistorMinOhm?: Quantity;
   /**
-   * Largest resistor wanted, ohms (common practice, no source: above about
-   * 100 kΩ resistor noise and bias-current offsets grow).
-   * @defaultValue 100000
+   * Largest resistor wanted, ohms (see `resistorMinOhm` for the default).
+   * @defaultValue a decade above the frequency's level (20 kΩ to 3.16 MΩ)
    */
   readonly resistorMaxOhm?: Quantity;
   /**
-   * Smallest capacitor considered, farads (common practice, no source: below
-   * about 100 pF board and op-amp input capacitance matter).
-   * @defaultValue 1e-10
+   * Smallest capacitor considered, farads (common practice, no source: film
+   * and C0G/NP0 parts; below about 10 pF board and op-amp input capacitance
+   * dominate). No capacitor below 10 pF is used unless the window is wider.
+   * @defaultValue 1e-11
    */
   readonly capacitorMinF?: Quantity;
   /**
    * Largest capacitor considered, farads (common practice, no source: film
-   * capacitors above about 10 µF are large and costly).
+   * capacitors above about 10 µF are large and costly; levels that need
+   * more than 1 µF are avoided where another level keeps the resistors
+   * inside their window).
    * @defaultValue 1e-5
    */
   readonly capacitorMaxF?: Quantity;

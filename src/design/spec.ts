@@ -114,7 +114,7 @@ function readSpec(input: unknown): { readonly issues: readonly Issue[]; readonly
   const gain = readGain(r, spec["gain"]);
   const family = readFamily(r, spec);
   const topology = readTopology(r, spec["topology"]);
-  const parts = readParts(r, spec["parts"]);
+  const parts = readParts(r, spec["parts"], [...(bands.passbandHz ?? []), ...(bands.stopbandHz ?? [])]);
   const opamp = readOpamp(r, spec["opamp"]);
   const yieldPart = readYield(r, spec);
   const levels = readLevels(r, spec["levels"]);

@@ -11,7 +11,10 @@
  * and Passive", 1978, ch. 11). Stages whose topology fixes the gain take the
  * nearest realisable gain and the remainder moves to later stages. Peaks are
  * taken on a dense log grid (160 points per decade plus each section's pole
- * frequency).
+ * frequency). A gain above twice `STAGE_GAIN_CAP` still to be placed is
+ * shared instead: no stage before the last is asked for more than the larger
+ * of the cap and an even share of what remains, so 40 dB does not land in one
+ * stage with a large capacitor spread and GBW demand.
  *
  * Topology choice is rule-based (common practice, no source): Sallen-Key
  * unity gain for low-Q lowpass/highpass at unity gain, Sallen-Key with gain
@@ -20,7 +23,11 @@
  * stages for high Q and for sections with finite zeros. A single-op-amp stage
  * whose capacitor spread would exceed a decade pays for it in the score (two
  * points per further decade, against one point per extra op-amp), so Q above
- * roughly 2.5 moves to a multi-amplifier stage.
+ * roughly 2.5 moves to a multi-amplifier stage. A topology whose parts leave
+ * the resistor window at every impedance level the planner probes
+ * (components.ts `levelFit`) pays 1.5 points, and one whose parts cannot
+ * even stay inside the hard limits (impedance-level.ts) is taken only when
+ * no topology can.
  *
  * @module
  */
@@ -31,6 +38,7 @@ import { getTopology, topologiesFor } from "../topologies/index.ts";
 import { SpecError, UnrealisableError } from "../errors.ts";
 import { TWO_PI } from "../units/constants.ts";
 import type { DesignSpec } from "./spec.ts";
+import { levelFit } from "./components.ts";
 
 /** One section of the target, described for the topology layer. */
 export interface SectionInfo {
@@ -259,6 +267,22 @@ export function capacitorSpreadOf(values: Readonly<Record<string, number>>): num
  */
 export const CAPACITOR_SPREAD_SOFT_LIMIT = 10;
 
+/**
+ * Largest gain (V/V) a stage other than the last is asked to carry when the
+ * gain still to be placed exceeds twice this: the remainder is then spread
+ * evenly over the later stages (no stage below this) instead of piling up in
+ * the first (common practice, no
+ * source: a single-op-amp stage's capacitor spread and its GBW demand grow
+ * with its gain, the multiple-feedback lowpass's spread as 1 + |K|, so 40 dB
+ * in one stage costs a large capacitor or a fast op-amp where two stages of
+ * 20 dB need neither). No stage output then peaks above the filter's output
+ * level; the early stages sit lower instead.
+ */
+export const STAGE_GAIN_CAP = 10;
+
+/** Score points for a topology whose parts leave the resistor window at every impedance level tried (more than one op-amp). */
+const OUTSIDE_WINDOW_PENALTY = 1.5;
+
 function score(t: Topology, info: SectionInfo, wish: number, got: number, last: boolean): number {
   const q = info.q ?? 0.5;
   let s = t.opampCount;
@@ -327,6 +351,44 @@ interface Assignment {
   readonly negatives: number;
 }
 
+/**
+ * The best-scoring topology of the pool for one stage, with the gain it
+ * takes; with `needFit`, only topologies whose parts fit the hard limits at
+ * some impedance level ({@link levelFit}).
+ */
+function pickTopology(
+  spec: DesignSpec,
+  pool: readonly Topology[],
+  info: SectionInfo,
+  wish: number,
+  last: boolean,
+  needFit: boolean,
+): { t: Topology; got: number; s: number } | null {
+  let best: { t: Topology; got: number; s: number } | null = null;
+  for (const t of pool) {
+    if (!t.kinds.includes(info.kind) || t.order !== info.order) continue;
+    const got = realisableGain(t, info, wish);
+    if (got === null) continue;
+    const fit = needFit ? levelFit(t, baseTarget(info, (t.inverting ? -1 : 1) * got), spec) : "none";
+    if (needFit && fit === "none") continue;
+    // The last stage must carry the remaining gain exactly when it can.
+    let s = score(t, info, wish, got, last) + (last ? 4 * Math.abs(Math.log(got / wish)) : 0);
+    // A stage that leaves the resistor window at every level costs more than an extra op-amp.
+    if (fit === "within-limits") s += OUTSIDE_WINDOW_PENALTY;
+    // With a real op-amp, prefer stages whose GBW demand it meets.
+    if (spec.opamp.kind !== "ideal") {
+      try {
+        const demand = t.gbwDemandHz(baseTarget(info, (t.inverting ? -1 : 1) * got));
+        if (demand > spec.opamp.gbwHz) s += 1 + 2 * Math.log10(demand / spec.opamp.gbwHz);
+      } catch {
+        // no demand figure for this target
+      }
+    }
+    if (best === null || s < best.s) best = { t, got, s };
+  }
+  return best;
+}
+
 function assign(spec: DesignSpec, infos: readonly SectionInfo[], forced: readonly string[], avoid?: ReadonlySet<string>): Assignment | string {
   const n = infos.length;
   // Peaks of the unit partial cascades.
@@ -344,31 +406,17 @@ function assign(spec: DesignSpec, infos: readonly SectionInfo[], forced: readonl
   for (let i = 0; i < n; i++) {
     const info = infos[i] as SectionInfo;
     const last = i === n - 1;
-    const wish = last ? total / product : spec.gain / (peaks[i] as number) / product;
+    const remaining = total / product;
+    const share = remaining > 2 * STAGE_GAIN_CAP ? Math.max(STAGE_GAIN_CAP, remaining ** (1 / (n - i))) : Infinity;
+    const wish = last ? remaining : Math.min(spec.gain / (peaks[i] as number) / product, share);
     const choice = forced[i] ?? "auto";
-    let best: { t: Topology; got: number; s: number } | null = null;
     let pool = choice === "auto" ? topologiesFor({ kind: info.kind, order: info.order }) : [getTopology(choice)];
     if (choice === "auto" && avoid !== undefined && avoid.size > 0) {
       const kept = pool.filter((t) => !avoid.has(t.id));
       if (kept.some((t) => realisableGain(t, info, 1) !== null)) pool = kept;
     }
-    for (const t of pool) {
-      if (!t.kinds.includes(info.kind) || t.order !== info.order) continue;
-      const got = realisableGain(t, info, wish);
-      if (got === null) continue;
-      // The last stage must carry the remaining gain exactly when it can.
-      let s = score(t, info, wish, got, last) + (last ? 4 * Math.abs(Math.log(got / wish)) : 0);
-      // With a real op-amp, prefer stages whose GBW demand it meets.
-      if (spec.opamp.kind !== "ideal") {
-        try {
-          const demand = t.gbwDemandHz(baseTarget(info, (t.inverting ? -1 : 1) * got));
-          if (demand > spec.opamp.gbwHz) s += 1 + 2 * Math.log10(demand / spec.opamp.gbwHz);
-        } catch {
-          // no demand figure for this target
-        }
-      }
-      if (best === null || s < best.s) best = { t, got, s };
-    }
+    // First only the topologies whose parts fit the hard limits at some impedance level; when none does, all of them.
+    const best = pickTopology(spec, pool, info, wish, last, true) ?? pickTopology(spec, pool, info, wish, last, false);
     if (best === null) {
       return choice === "auto"
         ? `no topology in the registry realises a ${info.order === 2 ? "second" : "first"}-order ${info.kind} stage (f0 ${info.f0Hz.toPrecision(4)} Hz${info.q === undefined ? "" : `, Q ${info.q.toPrecision(4)}`})`

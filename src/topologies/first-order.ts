@@ -82,10 +82,17 @@ const unityGain = (t: StageTarget): string | null =>
   Math.abs(t.gain - 1) > LIMIT_SLACK
     ? `a buffered RC stage has gain 1 (got ${t.gain}); for a gain above 1 choose the RC stage with a non-inverting gain stage, or an inverting stage`
     : null;
+/**
+ * Smallest gain step K - 1 of the non-inverting gain stage: its resistor
+ * R2 = (K - 1) R3 is then at least a fiftieth of R3 (nearer 1 it would be a
+ * near-short for a gain the buffer gives within 2 %; common practice, no source).
+ */
+const MIN_GAIN_STEP = 0.02;
+
 const aboveOne = (t: StageTarget): string | null =>
-  t.gain > 1 + LIMIT_SLACK
+  t.gain >= 1 + MIN_GAIN_STEP * (1 - 1e-9)
     ? null
-    : `a non-inverting gain stage needs a gain above 1 (got ${t.gain}); for gain 1 choose the buffered RC stage`;
+    : `a non-inverting gain stage needs a gain of at least ${1 + MIN_GAIN_STEP} (got ${t.gain}): nearer 1 its resistor R2 = (K - 1) R3 is a near-short; for gain 1 choose the buffered RC stage`;
 
 const beta = (v: ComponentValues): number => valueOf(v, "R3") / (valueOf(v, "R2") + valueOf(v, "R3"));
 

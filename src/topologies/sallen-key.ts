@@ -78,6 +78,15 @@ import { nonInvertingGain, type PolynomialCore } from "./kernels.ts";
 const REF =
   'R. P. Sallen & E. L. Key, IRE Trans. Circuit Theory CT-2(1):74-85, 1955; R. Schaumann & M. E. Van Valkenburg, "Design of Analog Filters", 2001, single-amplifier biquads (from memory)';
 
+/**
+ * Smallest K - 1 the gain forms take: the gain resistor R3 = (K - 1) R4 is
+ * then at least a fiftieth of R4. Nearer unity the pair would be a near-short
+ * beside a normal resistor (down to micro-ohms as K approaches 1) for a gain
+ * the unity form gives within 2 %, so the unity form is the stage to use
+ * (common practice, no source).
+ */
+export const SK_MIN_GAIN_STEP = 0.02;
+
 /** Q above which the equal-component form is refused (Q sensitivity to gain 3Q - 1 = 29). */
 export const EQUAL_COMPONENT_MAX_Q = 10;
 
@@ -261,6 +270,9 @@ function equalLimits(t: StageTarget): string | null {
   if (!(qv > 0.5)) {
     return `an equal-component Sallen-Key stage needs Q above 0.5 (its gain 3 - 1/Q must exceed 1), got Q = ${qv}; choose the unity-gain or general-gain form`;
   }
+  if (!(2 - 1 / qv >= SK_MIN_GAIN_STEP * (1 - 1e-9))) {
+    return `an equal-component Sallen-Key stage at Q = ${qv} has gain 3 - 1/Q within ${SK_MIN_GAIN_STEP * 100} % of 1, so its gain resistor R3 would be a near-short; choose the unity-gain form`;
+  }
   if (qv > EQUAL_COMPONENT_MAX_Q) {
     return `an equal-component Sallen-Key stage at Q = ${qv} is impractically sensitive to its gain (Q changes ${(3 * qv - 1).toFixed(1)} times faster than the gain); keep Q <= ${EQUAL_COMPONENT_MAX_Q} or choose a multiple-feedback or state-variable stage`;
   }
@@ -272,7 +284,9 @@ const unityOnly = (t: StageTarget): string | null =>
     ? `a unity-gain Sallen-Key stage has gain 1 (got ${t.gain}); choose the general-gain or equal-component form for other gains`
     : null;
 const aboveOne = (t: StageTarget): string | null =>
-  t.gain > 1 + 1e-9 ? null : `the general-gain Sallen-Key form needs a gain above 1 (got ${t.gain}); for gain 1 choose the unity-gain form`;
+  t.gain >= 1 + SK_MIN_GAIN_STEP * (1 - 1e-9)
+    ? null
+    : `the general-gain Sallen-Key form needs a gain of at least ${1 + SK_MIN_GAIN_STEP} (got ${t.gain}): nearer 1 its gain resistor R3 = (K - 1) R4 is a near-short; for gain 1 choose the unity-gain form`;
 
 function lowRatioLimit(t: StageTarget, c: StageChoices, unity: boolean): string | null {
   if (c.capacitorRatio !== undefined && c.resistorRatio !== undefined) {

@@ -267,6 +267,7 @@ describe("designFilter outcomes", () => {
       passband: { edgeHz: 2000, maxLossDb: 0.1 },
       stopband: { edgeHz: 24000, minAttenuationDb: 100 },
       family: "elliptic",
+      parts: { resistorMinOhm: "1k", resistorMaxOhm: "100k" },
     });
     expect(r.verification.meetsSpec).toBe(true);
     for (const stage of r.stages) {

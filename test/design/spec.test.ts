@@ -51,7 +51,10 @@ describe("validateSpec", () => {
     expect(s.order).toBeNull();
     expect(s.capacitorSeries).toBe("E12");
     expect(s.resistorSeries).toBe("E96");
-    expect(s.resistorRange).toEqual({ min: 1000, max: 100000 });
+    // the default window follows the filter's frequency (edges 2 kHz and 12 kHz: geometric mean 4.9 kHz)
+    expect(s.resistorRange.min).toBeCloseTo(1000 * Math.sqrt(1 / (2 * Math.PI * 1e-4) / Math.sqrt(2000 * 12000)), 6);
+    expect(s.resistorRange.max / s.resistorRange.min).toBeCloseTo(100, 9);
+    expect(s.capacitorRange).toEqual({ min: 1e-11, max: 1e-5 });
     expect(s.opamp).toEqual({ kind: "ideal" });
     expect(Object.isFrozen(s)).toBe(true);
   });

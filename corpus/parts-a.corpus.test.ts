@@ -1,0 +1,3 @@
+import { partsCorpusTest } from "./parts.ts";
+
+partsCorpusTest("A", 20261204);

@@ -1,0 +1,3 @@
+import { partsCorpusTest } from "./parts.ts";
+
+partsCorpusTest("B", 20261205);
