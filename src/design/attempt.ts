@@ -117,6 +117,17 @@ function requestedTopologies(spec: DesignSpec, infos: readonly SectionInfo[]): s
   return ids;
 }
 
+/** A stage whose topology gave no usable values (internal: {@link buildAttempt} tries another topology first). */
+class StageValuesError extends UnrealisableError {
+  constructor(
+    readonly stage: number,
+    readonly topologyId: string,
+    details: ConstructorParameters<typeof UnrealisableError>[0],
+  ) {
+    super(details);
+  }
+}
+
 /** What tuning the stages one after the other gives. */
 interface TunedCascade {
   readonly plans: StagePlan[];
@@ -161,7 +172,7 @@ function tuneCascade(spec: DesignSpec, exactPlans: readonly StagePlan[], wide: b
     const beyond = inside === null ? tuneStage(plan.topology, stageTarget, spec, { ...tuneOptions, limits: LAST_RESORT_LIMITS }) : null;
     const t = inside ?? (beyond === null ? null : { ...beyond, beyondLimits: true as const });
     if (t === null) {
-      throw new UnrealisableError({
+      throw new StageValuesError(i, plan.topology.id, {
         fn: "designFilter",
         path: `stages.${i}`,
         message: `topology "${plan.topology.id}" gives no usable values for stage ${i + 1} (${plan.target.kind}, f0 ${plan.target.f0Hz.toPrecision(4)} Hz) with capacitors between ${spec.capacitorRange.min} F and ${spec.capacitorRange.max} F; widen parts.capacitorMinF/capacitorMaxF or name another topology`,
@@ -190,8 +201,25 @@ function tuneCascade(spec: DesignSpec, exactPlans: readonly StagePlan[], wide: b
 export function buildAttempt(spec: DesignSpec, placed: PlacedPrototype, options: AttemptOptions): Attempt {
   const { proto, interval } = placed;
   const value = placeInInterval(interval, options.position);
-  const { grid, exactPlans } = chooseSplit(spec, toSectionsFor(spec, proto, interval, value), options.avoid);
-  const { plans, tuned, predistortion } = tuneCascade(spec, exactPlans, options.wide);
+  const cascades = toSectionsFor(spec, proto, interval, value);
+  // A stage whose automatic topology gives no usable values in the part windows is planned again without it.
+  let avoid = options.avoid;
+  let built: { grid: Float64Array; exactPlans: readonly StagePlan[]; cascade: TunedCascade } | null = null;
+  for (let round = 0; built === null; round++) {
+    const { grid, exactPlans } = chooseSplit(spec, cascades, avoid);
+    try {
+      built = { grid, exactPlans, cascade: tuneCascade(spec, exactPlans, options.wide) };
+    } catch (e) {
+      const plan = e instanceof StageValuesError ? exactPlans[e.stage] : undefined;
+      if (!(e instanceof StageValuesError) || plan === undefined || !plan.automatic || round >= 4 || avoid?.has(e.topologyId) === true) {
+        if (e instanceof StageValuesError) throw new UnrealisableError({ fn: e.fn, path: e.path, message: e.reason });
+        throw e;
+      }
+      avoid = new Set([...(avoid ?? []), e.topologyId]);
+    }
+  }
+  const { grid, exactPlans } = built;
+  const { plans, tuned, predistortion } = built.cascade;
   const chosen = tuned.map((t) => t.best);
   const mask = checkMask(spec, boardStages(plans, chosen), spec.opamp);
   const gridHz = grid.map((w) => w / TWO_PI);

@@ -350,6 +350,9 @@ export function designForYield(spec: DesignSpec, family: FamilyName, orders: Ord
         best = better(best, c);
         if (!clearsTarget(spec, c.estimate)) continue;
         const chosen = classes === defaults ? c : (allocatePerPart(spec, c) ?? c);
+        // the yield is reported on the spec's own boards (apart from the ones that chose it): a candidate
+        // that clears the selection boards but not those goes on up the ladder
+        if (chosen !== candidates[0] && !attemptYield(spec, chosen.attempt, chosen.tolerances).met) continue;
         if (order !== startOrder) actions.push({ code: "raised-order", message: `Raised the order to ${order} for the yield target.` });
         if (phase === 1) actions.push({ code: "sturdier-stages", message: `Built the design with ${pick.change} for the yield target (lower sensitivity to the parts, more op-amps).` });
         else if (pick.attempt !== base) {
