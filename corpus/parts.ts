@@ -37,6 +37,39 @@ export interface PartsTally {
 const R_LIMIT = [100, 10e6] as const;
 const C_LIMIT = [10e-12, 10e-6] as const;
 
+/**
+ * The parts invariants of one design (no expect inside): its parts inside the limits, none zero or
+ * negative, the family choice's op-amp estimate at the built order equal to the built count.
+ */
+export function countPartsInvariants(id: string, outcome: ReturnType<typeof chooseFamily>, attempt: ReturnType<typeof searchDesign>["attempt"], tally: PartsTally): void {
+  tally.designs++;
+  let out = false;
+  let bad = false;
+  if (attempt.tuned.some((t) => t.beyondLimits === true)) tally.builtBeyondLimits++;
+  attempt.chosen.forEach((set, i) => {
+    const beyond = attempt.tuned[i]!.beyondLimits === true;
+    for (const [k, v] of Object.entries(set.values)) {
+      if (!(v > 0) || !Number.isFinite(v)) bad = true;
+      const lim = k.startsWith("R") ? R_LIMIT : k.startsWith("C") ? C_LIMIT : null;
+      if (lim !== null && !beyond && (v < lim[0] * (1 - 1e-9) || v > lim[1] * (1 + 1e-9))) {
+        out = true;
+        if (tally.examples.length < 12) tally.examples.push(`${id} stage ${i + 1} ${attempt.plans[i]!.topology.id} ${k}=${v.toPrecision(3)}`);
+      }
+    }
+  });
+  if (out) tally.outOfWindow++;
+  if (bad) tally.nonPositive++;
+  const built = attempt.plans.reduce((s, p) => s + p.topology.opampCount, 0);
+  const order = attempt.proto.order;
+  if (outcome.order !== null && order !== outcome.order) tally.orderRaised++;
+  const cand = outcome.choice.candidates.find((c) => c.family === attempt.proto.family);
+  // The family choice records the estimate at the minimum order; compare it where the built order is that order.
+  if (cand !== undefined && cand.order === order && cand.opamps !== built) {
+    tally.estimateMismatch++;
+    if (tally.examples.length < 12) tally.examples.push(`${id} estimate ${cand.opamps} built ${built} (${attempt.plans.map((p) => p.topology.id).join(", ")})`);
+  }
+}
+
 /** Design `n` specs of the corpus from `seed` and count the parts invariants' failures (no expect inside). */
 export function runPartsCorpus(seed: number, n: number): PartsTally {
   const tally: PartsTally = { designs: 0, skipped: 0, outOfWindow: 0, builtBeyondLimits: 0, nonPositive: 0, estimateMismatch: 0, orderRaised: 0, examples: [] };
@@ -56,34 +89,23 @@ export function runPartsCorpus(seed: number, n: number): PartsTally {
       }
       throw e;
     }
-    tally.designs++;
-    let out = false;
-    let bad = false;
-    if (attempt.tuned.some((t) => t.beyondLimits === true)) tally.builtBeyondLimits++;
-    attempt.chosen.forEach((set, i) => {
-      const beyond = attempt.tuned[i]!.beyondLimits === true;
-      for (const [k, v] of Object.entries(set.values)) {
-        if (!(v > 0) || !Number.isFinite(v)) bad = true;
-        const lim = k.startsWith("R") ? R_LIMIT : k.startsWith("C") ? C_LIMIT : null;
-        if (lim !== null && !beyond && (v < lim[0] * (1 - 1e-9) || v > lim[1] * (1 + 1e-9))) {
-          out = true;
-          if (tally.examples.length < 12) tally.examples.push(`${id} stage ${i + 1} ${attempt.plans[i]!.topology.id} ${k}=${v.toPrecision(3)}`);
-        }
-      }
-    });
-    if (out) tally.outOfWindow++;
-    if (bad) tally.nonPositive++;
-    const built = attempt.plans.reduce((s, p) => s + p.topology.opampCount, 0);
-    const order = attempt.proto.order;
-    if (outcome.order !== null && order !== outcome.order) tally.orderRaised++;
-    const cand = outcome.choice.candidates.find((c) => c.family === attempt.proto.family);
-    // The family choice records the estimate at the minimum order; compare it where the built order is that order.
-    if (cand !== undefined && cand.order === order && cand.opamps !== built) {
-      tally.estimateMismatch++;
-      if (tally.examples.length < 12) tally.examples.push(`${id} estimate ${cand.opamps} built ${built} (${attempt.plans.map((p) => p.topology.id).join(", ")})`);
-    }
+    countPartsInvariants(id, outcome, attempt, tally);
   }
   return tally;
+}
+
+/** A tally with nothing counted yet. */
+export function emptyPartsTally(): PartsTally {
+  return { designs: 0, skipped: 0, outOfWindow: 0, builtBeyondLimits: 0, nonPositive: 0, estimateMismatch: 0, orderRaised: 0, examples: [] };
+}
+
+/** The parts invariants' expectations on a corpus tally of `n` specs. */
+export function expectPartsInvariants(t: PartsTally, n: number): void {
+  expect(t.outOfWindow, t.examples.join("\n")).toBe(0);
+  expect(t.nonPositive, t.examples.join("\n")).toBe(0);
+  // a stage built beyond the limits is the last resort: at most one design in a thousand
+  expect(t.builtBeyondLimits, t.examples.join("\n")).toBeLessThanOrEqual(Math.ceil(n / 1000));
+  expect(t.estimateMismatch, t.examples.join("\n")).toBe(0);
 }
 
 /**
@@ -97,10 +119,6 @@ export function partsCorpusTest(label: string, seed: number): void {
     console.log(`parts corpus ${label}`, JSON.stringify(t));
     expect(t.designs + t.skipped).toBe(n);
     expect(t.designs).toBeGreaterThan(0.9 * n);
-    expect(t.outOfWindow, t.examples.join("\n")).toBe(0);
-    expect(t.nonPositive, t.examples.join("\n")).toBe(0);
-    // a stage built beyond the limits is the last resort: at most one design in a thousand
-    expect(t.builtBeyondLimits, t.examples.join("\n")).toBeLessThanOrEqual(Math.ceil(n / 1000));
-    expect(t.estimateMismatch, t.examples.join("\n")).toBe(0);
+    expectPartsInvariants(t, n);
   });
 }

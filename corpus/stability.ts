@@ -7,6 +7,9 @@
 // polynomial from the generic nodal path (the stamp program, not the
 // closed form), by the polynomial root finder. And the peak gains to every
 // stage output and op-amp output are checked against a dense evaluation.
+// The same designs carry the parts invariants (corpus/parts.ts): every part
+// inside 100 Ω-10 MΩ / 10 pF-10 µF, none zero or negative, the op-amp
+// estimate equal to the built count.
 import { expect, it } from "vitest";
 import { validateSpec } from "../src/design/spec.ts";
 import { chooseFamily } from "../src/design/family.ts";
@@ -22,6 +25,7 @@ import { peakSpanHz, stagePeakGains } from "../src/design/headroom.ts";
 import { opampOutputTransfers } from "../src/evaluate/opamp-outputs.ts";
 import { logGrid } from "../src/tf/index.ts";
 import { denseCascadePeaks } from "../test/helpers/dense-peak.ts";
+import { countPartsInvariants, emptyPartsTally, expectPartsInvariants, type PartsTally } from "./parts.ts";
 // @ts-expect-error plain JavaScript module without types
 import { randomSpecs } from "../scripts/spec-corpus.mjs";
 
@@ -68,7 +72,7 @@ function checkPeaks(spec: ReturnType<typeof validateSpec>, attempt: ReturnType<t
 }
 
 /** Design `n` specs of the corpus from `seed` and check the stability invariant on each. */
-export function runStabilityCorpus(seed: number, n: number): Tally {
+export function runStabilityCorpus(seed: number, n: number, parts: PartsTally = emptyPartsTally()): Tally {
   const rnd = mulberry32(seed ^ 0x5bd1e995);
   const tally: Tally = { designs: 0, met: 0, unstableStages: 0, unstableFlagged: 0, skipped: 0, peaksChecked: 0, worstPeakDb: 0 };
   for (const { id, spec } of randomSpecs(seed, n) as { id: string; spec: Record<string, unknown> }[]) {
@@ -79,10 +83,11 @@ export function runStabilityCorpus(seed: number, n: number): Tally {
     }
     let canonical;
     let attempt;
+    let outcome;
     try {
       canonical = validateSpec(spec);
-      const { family, order } = chooseFamily(canonical);
-      attempt = searchDesign(canonical, family, orderRange(canonical, order)).attempt;
+      outcome = chooseFamily(canonical);
+      attempt = searchDesign(canonical, outcome.family, orderRange(canonical, outcome.order)).attempt;
     } catch (e) {
       if (e instanceof UnrealisableError || e instanceof SpecError) {
         tally.skipped++;
@@ -91,6 +96,7 @@ export function runStabilityCorpus(seed: number, n: number): Tally {
       throw e;
     }
     tally.designs++;
+    countPartsInvariants(id, outcome, attempt, parts);
     const span = spanRadS(maskPlan(canonical).bands);
     const unstable: number[] = [];
     attempt.plans.forEach((p, i) => {
@@ -126,9 +132,12 @@ export function runStabilityCorpus(seed: number, n: number): Tally {
  */
 export function stabilityCorpusTest(label: string, seed: number): void {
   const n = Number(process.env["CORPUS_SIZE"] ?? 1000);
-  it(`corpus ${label} (${n} specs, seed ${seed}): no design meets the spec with an unstable stage; peaks agree with a dense evaluation to 0.01 dB`, () => {
-    const t = runStabilityCorpus(seed, n);
+  it(`corpus ${label} (${n} specs, seed ${seed}): no design meets the spec with an unstable stage; peaks agree with a dense evaluation to 0.01 dB; every part inside 100 Ω-10 MΩ / 10 pF-10 µF, none zero or negative, op-amp estimate = built count`, () => {
+    const parts = emptyPartsTally();
+    const t = runStabilityCorpus(seed, n, parts);
     console.log(`stability corpus ${label}`, JSON.stringify(t));
+    console.log(`parts corpus ${label}`, JSON.stringify(parts));
+    expectPartsInvariants(parts, n);
     expect(t.designs + t.skipped).toBe(n);
     expect(t.designs).toBeGreaterThan(0.9 * n);
     expect(t.peaksChecked).toBeGreaterThan(0.8 * n);

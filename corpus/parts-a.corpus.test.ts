@@ -1,3 +1,0 @@
-import { partsCorpusTest } from "./parts.ts";
-
-partsCorpusTest("A", 20261204);

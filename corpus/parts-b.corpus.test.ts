@@ -1,3 +1,0 @@
-import { partsCorpusTest } from "./parts.ts";
-
-partsCorpusTest("B", 20261205);
