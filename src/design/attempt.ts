@@ -24,7 +24,7 @@ import type { DesignSpec } from "./spec.ts";
 import type { Prototype } from "./family.ts";
 import type { SectionCascade } from "../tf/types.ts";
 import { intervalWidth, placeInInterval, prototypeInterval, transformPrototype, upHelpsPassband, type FeasibleInterval } from "./placement.ts";
-import { describeSections, peakGrid, planStages, type SectionInfo, type StagePlan } from "./stages.ts";
+import { describeSections, peakGrid, planStages, windowGiven, type SectionInfo, type StagePlan } from "./stages.ts";
 import { tuneStage, type TunedStage, type ValueSet } from "./components.ts";
 import { predistortTarget, type PredistortionOutcome } from "./predistort.ts";
 import { checkMask, type BuiltStage, type MaskCheck } from "./verify.ts";
@@ -203,13 +203,30 @@ export function buildAttempt(spec: DesignSpec, placed: PlacedPrototype, options:
   const value = placeInInterval(interval, options.position);
   const cascades = toSectionsFor(spec, proto, interval, value);
   // A stage whose automatic topology gives no usable values in the part windows is planned again without it.
+  // So is one whose parts leave a window the spec gives, when another topology can build it.
   let avoid = options.avoid;
-  let built: { grid: Float64Array; exactPlans: readonly StagePlan[]; cascade: TunedCascade } | null = null;
+  type Built = { grid: Float64Array; exactPlans: readonly StagePlan[]; cascade: TunedCascade };
+  let built: Built | null = null;
+  // (when every topology tried leaves it, the cascade with the fewest parts outside is kept)
+  let outside: { built: Built; parts: number } | null = null;
   for (let round = 0; built === null; round++) {
     const { grid, exactPlans } = chooseSplit(spec, cascades, avoid);
     try {
-      built = { grid, exactPlans, cascade: tuneCascade(spec, exactPlans, options.wide) };
+      const cascade = tuneCascade(spec, exactPlans, options.wide);
+      const leaving = stageLeavingWindow(spec, exactPlans, cascade, avoid);
+      const here = { grid, exactPlans, cascade };
+      if (leaving === null && (outside === null || partsOutsideWindow(spec, cascade) <= outside.parts)) built = here;
+      else {
+        const parts = partsOutsideWindow(spec, cascade);
+        if (outside === null || parts < outside.parts) outside = { built: here, parts };
+        if (leaving === null || round >= 3) built = outside.built;
+        else avoid = new Set([...(avoid ?? []), leaving]);
+      }
     } catch (e) {
+      if (outside !== null) {
+        built = outside.built;
+        break;
+      }
       const plan = e instanceof StageValuesError ? exactPlans[e.stage] : undefined;
       if (!(e instanceof StageValuesError) || plan === undefined || !plan.automatic || round >= 4 || avoid?.has(e.topologyId) === true) {
         if (e instanceof StageValuesError) throw new UnrealisableError({ fn: e.fn, path: e.path, message: e.reason });
@@ -224,6 +241,34 @@ export function buildAttempt(spec: DesignSpec, placed: PlacedPrototype, options:
   const mask = checkMask(spec, boardStages(plans, chosen), spec.opamp);
   const gridHz = grid.map((w) => w / TWO_PI);
   return { proto, interval, position: options.position, value, gridHz, plans, exactPlans, tuned, chosen, mask, predistortion };
+}
+
+/** How many resistors and capacitors of a tuned cascade lie outside the spec's windows. */
+function partsOutsideWindow(spec: DesignSpec, cascade: TunedCascade): number {
+  let n = 0;
+  for (const t of cascade.tuned) {
+    for (const [k, v] of Object.entries(t.best.values)) {
+      const w = k.startsWith("R") ? spec.resistorRange : k.startsWith("C") ? spec.capacitorRange : null;
+      if (w !== null && (v < w.min * (1 - 1e-9) || v > w.max * (1 + 1e-9))) n++;
+    }
+  }
+  return n;
+}
+
+/** The topology of the first automatic stage whose parts leave a window the spec gives (null when none does, or the window is the default). */
+function stageLeavingWindow(spec: DesignSpec, plans: readonly StagePlan[], cascade: TunedCascade, avoid: ReadonlySet<string> | undefined): string | null {
+  if (!windowGiven(spec)) return null;
+  const r = spec.resistorRange;
+  const c = spec.capacitorRange;
+  for (const [i, t] of cascade.tuned.entries()) {
+    const plan = plans[i] as StagePlan;
+    if (!plan.automatic || avoid?.has(plan.topology.id) === true) continue;
+    for (const [k, v] of Object.entries(t.best.values)) {
+      const w = k.startsWith("R") ? r : k.startsWith("C") ? c : null;
+      if (w !== null && (v < w.min * (1 - 1e-9) || v > w.max * (1 + 1e-9))) return plan.topology.id;
+    }
+  }
+  return null;
 }
 
 /** The cascades an attempt may build: the usual pairing and, for a bandpass from an all-pole prototype with automatic topologies, the band split. */

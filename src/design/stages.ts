@@ -39,6 +39,7 @@ import { SpecError, UnrealisableError } from "../errors.ts";
 import { TWO_PI } from "../units/constants.ts";
 import type { DesignSpec } from "./spec.ts";
 import { levelFit } from "./components.ts";
+import { characteristicFrequencyHz, defaultResistorWindow } from "./impedance-level.ts";
 
 /** One section of the target, described for the topology layer. */
 export interface SectionInfo {
@@ -283,6 +284,18 @@ export const STAGE_GAIN_CAP = 10;
 /** Score points for a topology whose parts leave the resistor window at every impedance level tried (more than one op-amp). */
 const OUTSIDE_WINDOW_PENALTY = 1.5;
 
+/**
+ * Whether the spec's resistor window is the user's (it differs from the
+ * default the filter's frequency gives).
+ *
+ * @param spec - canonical spec
+ * @returns true for a window the spec gives
+ */
+export function windowGiven(spec: DesignSpec): boolean {
+  const d = defaultResistorWindow(characteristicFrequencyHz([...spec.passbandHz, ...spec.stopbandHz]));
+  return Math.abs(d.min / spec.resistorRange.min - 1) > 1e-12 || Math.abs(d.max / spec.resistorRange.max - 1) > 1e-12;
+}
+
 function score(t: Topology, info: SectionInfo, wish: number, got: number, last: boolean): number {
   const q = info.q ?? 0.5;
   let s = t.opampCount;
@@ -371,6 +384,8 @@ function pickTopology(
     if (got === null) continue;
     const fit = needFit ? levelFit(t, baseTarget(info, (t.inverting ? -1 : 1) * got), spec) : "none";
     if (needFit && fit === "none") continue;
+    // A window the spec gives is kept: a topology whose parts fit only the wider limits waits for the second pass.
+    if (needFit && fit === "within-limits" && windowGiven(spec)) continue;
     // The last stage must carry the remaining gain exactly when it can.
     let s = score(t, info, wish, got, last) + (last ? 4 * Math.abs(Math.log(got / wish)) : 0);
     // A stage that leaves the resistor window at every level costs more than an extra op-amp.

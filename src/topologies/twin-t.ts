@@ -99,6 +99,7 @@ import { TWO_PI } from "../units/constants.ts";
 import { defineTopology } from "./define.ts";
 import { atLeast, indexedFigures, LIMIT_SLACK, type PartSpec } from "./spec.ts";
 import type { PolynomialCore } from "./kernels.ts";
+import { requireInRange } from "../validate.ts";
 
 const REF =
   'bootstrapped twin-T: A. B. Williams & F. J. Taylor, "Electronic Filter Design Handbook", McGraw-Hill, band-reject filters; L. P. Huelsman & P. E. Allen, "Introduction to the Theory and Design of Active Filters", McGraw-Hill, 1980 (both from memory); exact loaded-divider design derived here by nodal analysis';
@@ -296,14 +297,15 @@ function normalised(g: number): { y: number; x: number; wz: number; q0: number }
  *
  * @param resistorRatio - g, from 6 + 4 sqrt(2) to 1000 (default 12)
  * @returns the smallest Q
- * @throws never (no checks: a helper for the design layer's choices)
+ * @throws `InvalidArgumentError` at `resistorRatio` when it is not a number from 6 + 4 sqrt(2) to 1000
  * @example
  * ```ts
  * twinTMinQ(12); //=> 0.2083...
  * ```
  */
-export function twinTMinQ(resistorRatio = DEFAULT_G): number {
-  return normalised(resistorRatio).q0 / (1 - K_MIN);
+export function twinTMinQ(resistorRatio: number = DEFAULT_G): number {
+  const g = requireInRange("twinTMinQ", "resistorRatio", resistorRatio, { min: TWIN_T_MIN_RATIO, max: MAX_G });
+  return normalised(g).q0 / (1 - K_MIN);
 }
 
 function limits(t: StageTarget, c: StageChoices): string | null {

@@ -81,12 +81,13 @@ describe("validateSpec windows", () => {
 });
 
 describe("impedance level of a design", () => {
-  it("a 1 Hz lowpass gets resistors of 100 kΩ-1 MΩ and capacitors of at most 1 µF", () => {
+  it("a 1 Hz lowpass gets a high impedance level (resistors' geometric mean at least 100 kΩ, all inside 10 kΩ-10 MΩ: a one-op-amp notch section's spread reaches past the window's decade) and capacitors of at most 1 µF", () => {
     const d = nominal({ response: "lowpass", passband: { edgeHz: 1, maxLossDb: 0.5 }, stopband: { edgeHz: 3, minAttenuationDb: 50 } });
     const r = resistors(d.stages);
     const c = capacitors(d.stages);
     expect(r.length).toBeGreaterThan(0);
-    for (const x of r) expect(x).toBeGreaterThanOrEqual(100e3), expect(x).toBeLessThanOrEqual(1e6);
+    for (const x of r) expect(x).toBeGreaterThanOrEqual(10e3), expect(x).toBeLessThanOrEqual(10e6);
+    expect(Math.exp(r.reduce((s, x) => s + Math.log(x), 0) / r.length)).toBeGreaterThanOrEqual(100e3);
     for (const x of c) expect(x).toBeLessThanOrEqual(1e-6);
   });
 
@@ -100,15 +101,29 @@ describe("impedance level of a design", () => {
     for (const x of capacitors(high.stages)) expect(x).toBeGreaterThanOrEqual(10e-12);
   });
 
-  it("a user window is used as given: every resistor inside 2 kΩ-20 kΩ for a 1 kHz lowpass", () => {
+  it("a user window is used as given: every resistor inside 2 kΩ-20 kΩ for a 1 kHz all-pole lowpass", () => {
     const d = nominal({
       response: "lowpass",
       passband: { edgeHz: 1000, maxLossDb: 0.5 },
       stopband: { edgeHz: 3000, minAttenuationDb: 50 },
+      family: "chebyshev1",
       parts: { resistorMinOhm: "2k", resistorMaxOhm: "20k" },
     });
     expect(d.spec.resistorRange).toEqual({ min: 2000, max: 20000 });
     for (const x of resistors(d.stages)) expect(x).toBeGreaterThanOrEqual(2000), expect(x).toBeLessThanOrEqual(20000);
+  });
+
+  it("where no topology keeps a finite-zero stage inside a one-decade user window, the design says so and keeps the fewest parts outside", () => {
+    const spec = { response: "lowpass", passband: { edgeHz: 1000, maxLossDb: 0.5 }, stopband: { edgeHz: 3000, minAttenuationDb: 50 }, family: "elliptic", parts: { resistorMinOhm: "2k", resistorMaxOhm: "20k" } } as const;
+    const r = designFilter(spec);
+    const outside = (s: typeof r.stages) => s.flatMap((st) => Object.entries(st.components)).filter(([k, v]) => k.startsWith("R") && (v < 2000 * (1 - 1e-9) || v > 20000 * (1 + 1e-9))).length;
+    const n = outside(r.stages);
+    if (n > 0) expect(r.warnings.some((w) => w.code === "resistor-out-of-range")).toBe(true);
+    // each multi-amplifier alternative named for the notch stages leaves at least as many parts outside
+    for (const t of ["state-variable-notch", "tow-thomas-lowpass-notch"]) {
+      const alt = designFilter({ ...spec, topology: ["auto", t, t] });
+      expect(outside(alt.stages), t).toBeGreaterThanOrEqual(n);
+    }
   });
 });
 

@@ -86,12 +86,18 @@ describe("fromJson", () => {
   });
 
   it("refuses unknown fields at every level: top, result, stage, verification, yield, headroom, warning", () => {
-    for (const path of ["", "result", "result.stages.0", "result.stages.0.asBuilt", "result.verification", "result.verification.yield", "result.verification.headroom", "result.warnings.0", "result.placement"]) {
+    for (const path of ["", "result", "result.stages.0", "result.stages.0.asBuilt", "result.verification", "result.verification.yield", "result.verification.headroom", "result.placement"]) {
       const f = file();
       const o = path === "" ? f : at(f, path);
       o["extra"] = 0;
       expect(refused(f).path).toBe(path === "" ? "extra" : `${path}.extra`);
     }
+    // a warning: from a design with one (an op-amp too slow for its stages)
+    const warned = designFilter({ ...spec, opamp: { a0: 2e5, gbwHz: "60k" } });
+    expect(warned.warnings.length).toBeGreaterThan(0);
+    const w = JSON.parse(toJson(warned)) as Json;
+    at(w, "result.warnings.0")["extra"] = 0;
+    expect(refused(w).path).toBe("result.warnings.0.extra");
   });
 
   it("refuses a flipped meetsSpec, saying the stored and the recomputed value", () => {
