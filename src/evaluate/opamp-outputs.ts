@@ -24,7 +24,13 @@
  *
  * Accuracy: that of the generic path, better than 1e-10 relative over four
  * decades about the stage's f0 against the nodal analysis of the same
- * elements (test/evaluate/opamp-outputs.test.ts checks 1e-9 dB).
+ * elements (test/evaluate/opamp-outputs.test.ts checks 1e-9 dB). Beyond
+ * them (a wide bandstop's mask reaching three decades past a low f0, with a
+ * slow op-amp) an internal node's coefficients can be wrong by tens of dB, so
+ * when a span is asked every internal transfer is spot-checked against the
+ * nodal analysis at seven log-spaced frequencies across it, and the stage
+ * gives null (its caller samples by nodal analysis instead) when any differs
+ * by more than 1e-6 relative.
  *
  * @module
  */
@@ -38,6 +44,8 @@ import {
   stagePolynomials,
 } from "./stage-polynomials.ts";
 import type { ScaledRational } from "./types.ts";
+import { acAnalysis } from "../circuit/mna.ts";
+import { magnitudeSquaredAt } from "./cascade.ts";
 
 /** One op-amp output of a stage and the transfer function to it. */
 export interface OpampOutput {
@@ -80,7 +88,26 @@ function internalTransfer(
   const num = new Float64Array(cs.points);
   const den = new Float64Array(cs.points);
   const r = genericStagePolynomialsInto(cs, v, 2 * Math.PI * topology.figures(values).f0Hz, num, den);
-  return r === 0 ? null : { num: trimmed(num), den: trimmed(den), scale: r };
+  return r === 0 ? null : { num: properNumerator(trimmed(num), trimmed(den).length), den: trimmed(den), scale: r };
+}
+
+/**
+ * The numerator without the sampled interpolation's noise above the
+ * denominator's degree: a node of an RC network with op-amps stays bounded at
+ * infinite frequency (capacitors become shorts), so its transfer function is
+ * proper, and numerator coefficients above the denominator's degree are
+ * interpolation noise; they are dropped when below 1e-6 of the largest
+ * coefficient (kept otherwise, so a genuine term is never lost). Left in, such
+ * noise made an internal node of a state-variable stage read 142 dB at the top
+ * of the peak span.
+ */
+function properNumerator(num: Float64Array, denLength: number): Float64Array {
+  if (num.length <= denLength) return num;
+  let big = 0;
+  for (const x of num) big = Math.max(big, Math.abs(x));
+  let first = 0;
+  while (num.length - first > denLength && Math.abs(num[first] as number) <= 1e-6 * big) first++;
+  return first === 0 ? num : num.slice(first);
 }
 
 /**
@@ -112,5 +139,29 @@ export function opampOutputTransfers(
     if (transfer === null) return null;
     out.push({ opamp: name, index: index++, node, transfer });
   }
+  if (spanRadS !== undefined && spanRadS[1] > 0 && out.some((o) => o.node !== "out") && !internalTransfersHold(topology, values, opamp, spanRadS, out)) return null;
   return out;
+}
+
+/** Whether every internal transfer agrees with the stage's nodal analysis at seven frequencies across the span (1e-6 relative). */
+function internalTransfersHold(topology: Topology, values: ComponentValues, opamp: OpAmpModel, span: readonly [number, number], outs: readonly OpampOutput[]): boolean {
+  const internal = outs.filter((o) => o.node !== "out");
+  const lo = Math.max(span[0], span[1] * 1e-9);
+  const freqHz = Float64Array.from({ length: 7 }, (_, i) => (lo * (span[1] / lo) ** (i / 6)) / (2 * Math.PI));
+  let r;
+  try {
+    r = acAnalysis({ title: "stage", elements: stageElements(topology, values, opamp) }, { freqHz, source: "Vin", outputs: internal.map((o) => INTERNAL_NODE_PREFIX + o.node) });
+  } catch {
+    return false;
+  }
+  for (const o of internal) {
+    const v = r.outputs[INTERNAL_NODE_PREFIX + o.node];
+    if (v === undefined) return false;
+    for (let i = 0; i < freqHz.length; i++) {
+      const m = Math.hypot(v.re[i] as number, v.im[i] as number);
+      const p = Math.sqrt(magnitudeSquaredAt([o.transfer], 2 * Math.PI * (freqHz[i] as number)));
+      if (!(Math.abs(p - m) <= 1e-6 * Math.max(m, 1e-12))) return false;
+    }
+  }
+  return true;
 }
