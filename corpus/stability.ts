@@ -84,10 +84,13 @@ export function runStabilityCorpus(seed: number, n: number, parts: PartsTally = 
     let canonical;
     let attempt;
     let outcome;
+    let sturdier = false;
     try {
       canonical = validateSpec(spec);
       outcome = chooseFamily(canonical);
-      attempt = searchDesign(canonical, outcome.family, orderRange(canonical, outcome.order)).attempt;
+      const searched = searchDesign(canonical, outcome.family, orderRange(canonical, outcome.order));
+      attempt = searched.attempt;
+      sturdier = searched.actions.some((a) => a.code === "sturdier-stages" || a.code === "tightened-prototype");
     } catch (e) {
       if (e instanceof UnrealisableError || e instanceof SpecError) {
         tally.skipped++;
@@ -96,7 +99,7 @@ export function runStabilityCorpus(seed: number, n: number, parts: PartsTally = 
       throw e;
     }
     tally.designs++;
-    countPartsInvariants(id, outcome, attempt, parts);
+    countPartsInvariants(id, outcome, attempt, parts, sturdier);
     const span = spanRadS(maskPlan(canonical).bands);
     const unstable: number[] = [];
     attempt.plans.forEach((p, i) => {
