@@ -28,7 +28,7 @@ export interface PartsTally {
   builtBeyondLimits: number;
   /** Designs whose built op-amp count differs from the family choice's estimate at the built order. */
   estimateMismatch: number;
-  /** Designs whose estimate differs because the fallback ladder re-planned the stages (sturdier stages or a tightened prototype; counted apart). */
+  /** Designs whose estimate differs because the fallback ladder re-planned the stages after the first attempt missed (counted apart). */
   sturdierRebuilt: number;
   /** Designs whose order was raised above the minimum (their estimate is compared at the built order). */
   orderRaised: number;
@@ -67,8 +67,9 @@ export function countPartsInvariants(id: string, outcome: ReturnType<typeof choo
   const cand = outcome.choice.candidates.find((c) => c.family === attempt.proto.family);
   // The family choice records the estimate at the minimum order; compare it where the built order is that order.
   if (cand !== undefined && cand.order === order && cand.opamps !== built && sturdier) {
-    // the fallback ladder re-planned the stages after the family was chosen (sturdier multi-amplifier stages, or a
-    // tightened prototype): the estimate is of the first plan
+    // the first attempt missed the mask and the fallback ladder re-planned the stages after the family was chosen
+    // (a moved placement, a tightened prototype or sturdier stages can change the sections' topologies): the
+    // estimate is of the first plan
     tally.sturdierRebuilt++;
   } else if (cand !== undefined && cand.order === order && cand.opamps !== built) {
     tally.estimateMismatch++;

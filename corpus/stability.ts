@@ -90,7 +90,7 @@ export function runStabilityCorpus(seed: number, n: number, parts: PartsTally = 
       outcome = chooseFamily(canonical);
       const searched = searchDesign(canonical, outcome.family, orderRange(canonical, outcome.order));
       attempt = searched.attempt;
-      sturdier = searched.actions.some((a) => a.code === "sturdier-stages" || a.code === "tightened-prototype");
+      sturdier = searched.actions.some((a) => a.code === "re-tuned-to-mask");
     } catch (e) {
       if (e instanceof UnrealisableError || e instanceof SpecError) {
         tally.skipped++;
