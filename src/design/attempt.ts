@@ -243,30 +243,26 @@ export function buildAttempt(spec: DesignSpec, placed: PlacedPrototype, options:
   return { proto, interval, position: options.position, value, gridHz, plans, exactPlans, tuned, chosen, mask, predistortion };
 }
 
+/** Whether part `name` of value `v` lies outside the spec's window for its kind. */
+function leavesWindow(spec: DesignSpec, name: string, v: number): boolean {
+  const w = name.startsWith("R") ? spec.resistorRange : name.startsWith("C") ? spec.capacitorRange : null;
+  return w !== null && (v < w.min * (1 - 1e-9) || v > w.max * (1 + 1e-9));
+}
+
 /** How many resistors and capacitors of a tuned cascade lie outside the spec's windows. */
 function partsOutsideWindow(spec: DesignSpec, cascade: TunedCascade): number {
   let n = 0;
-  for (const t of cascade.tuned) {
-    for (const [k, v] of Object.entries(t.best.values)) {
-      const w = k.startsWith("R") ? spec.resistorRange : k.startsWith("C") ? spec.capacitorRange : null;
-      if (w !== null && (v < w.min * (1 - 1e-9) || v > w.max * (1 + 1e-9))) n++;
-    }
-  }
+  for (const t of cascade.tuned) for (const [k, v] of Object.entries(t.best.values)) if (leavesWindow(spec, k, v)) n++;
   return n;
 }
 
 /** The topology of the first automatic stage whose parts leave a window the spec gives (null when none does, or the window is the default). */
 function stageLeavingWindow(spec: DesignSpec, plans: readonly StagePlan[], cascade: TunedCascade, avoid: ReadonlySet<string> | undefined): string | null {
   if (!windowGiven(spec)) return null;
-  const r = spec.resistorRange;
-  const c = spec.capacitorRange;
   for (const [i, t] of cascade.tuned.entries()) {
     const plan = plans[i] as StagePlan;
     if (!plan.automatic || avoid?.has(plan.topology.id) === true) continue;
-    for (const [k, v] of Object.entries(t.best.values)) {
-      const w = k.startsWith("R") ? r : k.startsWith("C") ? c : null;
-      if (w !== null && (v < w.min * (1 - 1e-9) || v > w.max * (1 + 1e-9))) return plan.topology.id;
-    }
+    if (Object.entries(t.best.values).some(([k, v]) => leavesWindow(spec, k, v))) return plan.topology.id;
   }
   return null;
 }

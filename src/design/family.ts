@@ -131,6 +131,26 @@ export function isEquiripple(family: FamilyName): boolean {
 }
 
 /**
+ * The approximation layer's order formula for a spec's mask (band edges in
+ * rad/s), before any prototype is checked.
+ *
+ * @param spec - canonical spec
+ * @param family - the family
+ * @returns the formula's result
+ * @throws whatever `minimumOrder` throws for a mask beyond its ranges
+ */
+export function orderFormula(spec: DesignSpec, family: FamilyName): ReturnType<typeof minimumOrder> {
+  return minimumOrder({
+    family,
+    response: spec.response,
+    passbandW: spec.passbandHz.map((f) => TWO_PI * f),
+    stopbandW: spec.stopbandHz.map((f) => TWO_PI * f),
+    passbandLossDb: spec.maxLossDb,
+    stopbandAttenuationDb: spec.minAttenuationDb,
+  } as Parameters<typeof minimumOrder>[0]);
+}
+
+/**
  * Smallest order of a family whose exact prototype meets the mask, starting
  * from the approximation layer's order formula and confirmed on the prototype.
  *
@@ -139,14 +159,7 @@ export function isEquiripple(family: FamilyName): boolean {
 export function familyMinimumOrder(spec: DesignSpec, family: FamilyName, maxOrder: number): number | null {
   let start = 1;
   try {
-    const est = minimumOrder({
-      family,
-      response: spec.response,
-      passbandW: spec.passbandHz.map((f) => TWO_PI * f),
-      stopbandW: spec.stopbandHz.map((f) => TWO_PI * f),
-      passbandLossDb: spec.maxLossDb,
-      stopbandAttenuationDb: spec.minAttenuationDb,
-    } as Parameters<typeof minimumOrder>[0]);
+    const est = orderFormula(spec, family);
     if (est.beyondRange && est.order > maxOrder) return null;
     start = Math.max(1, Math.min(est.order, maxOrder) - 1);
   } catch {

@@ -26,7 +26,7 @@ import type { FilterwrightError, ErrorDetails } from "../errors.ts";
 import { getTopology } from "../topologies/index.ts";
 import type { DesignSpec } from "./spec.ts";
 import type { DesignResult } from "./types.ts";
-import { checkMask, responseCurve, type BuiltStage } from "./verify.ts";
+import { checkMask, maskVerification, responseCurve, type BuiltStage } from "./verify.ts";
 import { headroomOf } from "./headroom.ts";
 
 /** Relative tolerance of the comparison of a stored figure with its recomputed value. */
@@ -126,25 +126,11 @@ export function recheckDesign(
   });
   const m = checkMask(spec, boards, spec.opamp);
   const v = result.verification;
-  const polarityOk = spec.polarity === "either" || m.polarity === spec.polarity;
   const headroom = headroomOf(spec, result.stages);
+  const figures = maskVerification(spec, m);
   const recomputed = {
-    passbandLossDb: m.passbandLossDb,
-    passbandWorstHz: m.passbandWorstHz,
-    passbandMarginDb: m.passbandMarginDb,
-    stopbandAttenuationDb: m.stopbandAttenuationDb,
-    stopbandWorstHz: m.stopbandWorstHz,
-    stopbandMarginDb: m.stopbandMarginDb,
-    gainDb: m.gainDb,
-    targetGainDb: 20 * Math.log10(spec.gain),
-    gainErrorDb: m.gainErrorDb,
-    gainMarginDb: m.gainMarginDb,
-    polarity: m.polarity,
-    polarityOk,
-    marginDb: m.marginDb,
-    stable: m.unstableStages.length === 0,
-    unstableStages: [...m.unstableStages],
-    meetsSpec: m.marginDb >= 0 && polarityOk && m.unstableStages.length === 0 && headroom?.clips !== true,
+    ...figures,
+    meetsSpec: m.marginDb >= 0 && figures.polarityOk && m.unstableStages.length === 0 && headroom?.clips !== true,
     opamp: spec.opamp,
   };
   const boardsMeetSpec = recomputed.meetsSpec && v.yield.met;

@@ -20,10 +20,9 @@
  *
  * @module
  */
-import { minimumOrder, type FamilyName } from "../approx/index.ts";
-import { TWO_PI } from "../units/constants.ts";
+import type { FamilyName } from "../approx/index.ts";
 import type { DesignSpec } from "./spec.ts";
-import { familyMinimumOrder } from "./family.ts";
+import { familyMinimumOrder, orderFormula } from "./family.ts";
 import { significant } from "./text.ts";
 import type { Feasibility, NeededOrder, Relaxation } from "./types.ts";
 
@@ -32,14 +31,7 @@ const FAMILIES: readonly FamilyName[] = ["butterworth", "chebyshev1", "chebyshev
 /** The order formula's order for a (possibly relaxed) spec, or Infinity when the formula refuses it. */
 function formulaOrder(spec: DesignSpec, family: FamilyName): number {
   try {
-    const r = minimumOrder({
-      family,
-      response: spec.response,
-      passbandW: spec.passbandHz.map((f) => TWO_PI * f),
-      stopbandW: spec.stopbandHz.map((f) => TWO_PI * f),
-      passbandLossDb: spec.maxLossDb,
-      stopbandAttenuationDb: spec.minAttenuationDb,
-    } as Parameters<typeof minimumOrder>[0]);
+    const r = orderFormula(spec, family);
     return Number.isFinite(r.order) ? r.order : Infinity;
   } catch {
     return Infinity;

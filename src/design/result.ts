@@ -18,7 +18,7 @@ import { CAPACITOR_SPREAD_SOFT_LIMIT, capacitorSpreadOf, type StagePlan } from "
 import type { TunedStage, ValueSet } from "./components.ts";
 import { stageErrors } from "./stage-cost.ts";
 import type { PredistortionOutcome } from "./predistort.ts";
-import { checkMask, responseCurve, type BuiltStage } from "./verify.ts";
+import { checkMask, maskVerification, responseCurve, type BuiltStage } from "./verify.ts";
 import { clipWarning, headroomOf, opampPeaksOf, stagePeakGains, type StagePeakGains } from "./headroom.ts";
 import { boardStages, meetsSpec as nominalMeets, polarityMet, type Attempt } from "./attempt.ts";
 import { classText, opampCount, yieldText, type YieldCandidate, type YieldOutcome } from "./yield.ts";
@@ -330,28 +330,13 @@ function verificationOf(spec: DesignSpec, a: Attempt, boards: readonly BuiltStag
   const exactBoards = a.exactPlans.map((p) => ({ topology: p.topology, values: p.topology.design(p.target, {}) }));
   const ideal = checkMask(spec, exactBoards, IDEAL);
   const m = a.mask;
-  const polarityOk = polarityMet(spec, a);
   const nominal = nominalMeets(spec, a) && headroom?.clips !== true;
   const boardYield = boardYieldOf(spec, robust.chosen);
   return {
     meetsSpec: nominal,
     boardsMeetSpec: nominal && boardYield.met,
     opamp: spec.opamp,
-    passbandLossDb: m.passbandLossDb,
-    passbandWorstHz: m.passbandWorstHz,
-    passbandMarginDb: m.passbandMarginDb,
-    stopbandAttenuationDb: m.stopbandAttenuationDb,
-    stopbandWorstHz: m.stopbandWorstHz,
-    stopbandMarginDb: m.stopbandMarginDb,
-    gainDb: m.gainDb,
-    targetGainDb: 20 * Math.log10(spec.gain),
-    gainErrorDb: m.gainErrorDb,
-    gainMarginDb: m.gainMarginDb,
-    polarity: m.polarity,
-    polarityOk,
-    marginDb: m.marginDb,
-    stable: m.unstableStages.length === 0,
-    unstableStages: [...m.unstableStages],
+    ...maskVerification(spec, m),
     yield: boardYield,
     idealMarginDb: ideal.marginDb,
     curve: responseCurve(spec, boards, spec.opamp, CURVE_POINTS),

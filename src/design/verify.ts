@@ -377,3 +377,33 @@ export function responseCurve(
   }
   return { freqHz: Array.from(f), magnitudeDb, phaseDeg, groupDelayS };
 }
+
+/**
+ * The verification's figures of a mask check (margins, where they bind,
+ * polarity, stability), as the result stores them; `designFilter` and
+ * `fromJson`'s re-verification both build them here.
+ *
+ * @param spec - canonical spec
+ * @param m - the mask check of the stages as built
+ * @returns the figures
+ */
+export function maskVerification(spec: DesignSpec, m: MaskCheck) {
+  const polarityOk = spec.polarity === "either" || m.polarity === spec.polarity;
+  return {
+    passbandLossDb: m.passbandLossDb,
+    passbandWorstHz: m.passbandWorstHz,
+    passbandMarginDb: m.passbandMarginDb,
+    stopbandAttenuationDb: m.stopbandAttenuationDb,
+    stopbandWorstHz: m.stopbandWorstHz,
+    stopbandMarginDb: m.stopbandMarginDb,
+    gainDb: m.gainDb,
+    targetGainDb: 20 * Math.log10(spec.gain),
+    gainErrorDb: m.gainErrorDb,
+    gainMarginDb: m.gainMarginDb,
+    polarity: m.polarity,
+    polarityOk,
+    marginDb: m.marginDb,
+    stable: m.unstableStages.length === 0,
+    unstableStages: [...m.unstableStages],
+  };
+}
