@@ -5,13 +5,21 @@
  * response for curves. No checks and no allocation but the outputs: this is
  * the hot path under the design loop and the Monte Carlo boards.
  *
- * Method: Horner's rule at `z = j w / scale` in real arithmetic (a real
- * polynomial at an imaginary point: `(p_r + j p_i) j x + c`), one quotient
- * per stage and point. Accuracy: a few ulps per coefficient times the
- * polynomial's condition number at the point (N. J. Higham, "Accuracy and
- * Stability of Numerical Algorithms", 2nd ed., SIAM 2002, section 5.1); with
- * scaled coefficients near unity this is about 1e-15 relative except close
- * to a transmission zero, where the absolute error stays at that level.
+ * Method: Horner's rule at `z = j w / scale` in real arithmetic. A real
+ * polynomial at an imaginary point splits into its even and odd parts,
+ * `p(j x) = E(-x^2) + j x O(-x^2)` with `E` and `O` of half the degree, so
+ * each stage's coefficients are split once per call into scratch and every
+ * grid point costs two real Horner evaluations of half the length per
+ * polynomial (biquads, the common case, run an unrolled loop), one quotient,
+ * and no square root or logarithm. Accuracy: Horner's rule errs by a few
+ * ulps per coefficient times the polynomial's condition number at the point
+ * (N. J. Higham, "Accuracy and Stability of Numerical Algorithms", 2nd ed.,
+ * SIAM 2002, section 5.1); the split evaluates the same real and imaginary
+ * parts as complex Horner would, so with scaled coefficients near unity this
+ * is about 1e-15 relative except close to a transmission zero, where the
+ * absolute error stays at that level (the magnitude squared is formed from
+ * the parts, never expanded into a polynomial in `x^2`, whose cancellation
+ * near a zero or a high-Q resonance would cost digits).
  *
  * @module
  */
@@ -42,6 +50,31 @@ function stageMagnitudeSquared(num: Float64Array, den: Float64Array, x: number):
 }
 
 /**
+ * The even and odd parts of a real polynomial (descending coefficients in
+ * `c`) in `t = -x^2`, ascending: `p(j x) = E(t) + j x O(t)`. Writes `E` into
+ * `out` from `even` and `O` from `odd`; returns the polynomial's degree
+ * (leading zero coefficients skipped).
+ */
+export function splitEvenOdd(c: Float64Array, out: Float64Array, even: number, odd: number): number {
+  let lead = 0;
+  while (lead < c.length - 1 && c[lead] === 0) lead++;
+  const top = c.length - 1;
+  const deg = top - lead;
+  for (let k = 0; k <= deg; k++) out[((k & 1) === 0 ? even : odd) + (k >> 1)] = c[top - k] as number;
+  return deg;
+}
+
+/** Scratch for one stage's even and odd parts (grown when a stage needs more). */
+let scratchParts = new Float64Array(64);
+
+/** `E(t)` (ascending coefficients `e[0..n-1]` at offset `o`) by Horner's rule. */
+function horner(e: Float64Array, o: number, n: number, t: number): number {
+  let p = e[o + n - 1] as number;
+  for (let i = n - 2; i >= 0; i--) p = p * t + (e[o + i] as number);
+  return p;
+}
+
+/**
  * `|num(j x)|^2 / |den(j x)|^2` at `x = w / scale` for one stage, multiplied
  * into `out` (so a cascade is a loop over its stages on one buffer).
  *
@@ -58,8 +91,64 @@ export function multiplyMagnitudeSquared(
   w: Float64Array,
   out: Float64Array,
 ): void {
+  // at least four entries a part, so the unrolled loops below read zeros past a short polynomial
+  const size = Math.max(num.length, den.length, 4);
+  if (scratchParts.length < 4 * size) scratchParts = new Float64Array(4 * size);
+  const q = scratchParts;
+  q.fill(0, 0, 4 * size);
+  // layout: numerator even, numerator odd, denominator even, denominator odd; `size` entries each
+  const dn = splitEvenOdd(num, q, 0, size);
+  const dd = splitEvenOdd(den, q, 2 * size, 3 * size);
   const inv = 1 / scale;
-  for (let k = 0; k < w.length; k++) out[k] = (out[k] as number) * stageMagnitudeSquared(num, den, (w[k] as number) * inv);
+  const n = w.length;
+  if (dn <= 2 && dd <= 2) {
+    const ne0 = q[0] as number;
+    const ne1 = q[1] as number;
+    const no0 = q[size] as number;
+    const de0 = q[2 * size] as number;
+    const de1 = q[2 * size + 1] as number;
+    const do0 = q[3 * size] as number;
+    for (let k = 0; k < n; k++) {
+      const x = (w[k] as number) * inv;
+      const y = x * x;
+      const nr = ne0 - ne1 * y;
+      const ni = no0 * x;
+      const dr = de0 - de1 * y;
+      const di = do0 * x;
+      out[k] = ((out[k] as number) * (nr * nr + ni * ni)) / (dr * dr + di * di);
+    }
+    return;
+  }
+  if (dn <= 4 && dd <= 4) {
+    // degree four and below (a biquad with one or two op-amp poles): E of three terms, O of two
+    const [ne0, ne1, ne2] = [q[0] as number, q[1] as number, q[2] as number];
+    const [no0, no1] = [q[size] as number, q[size + 1] as number];
+    const [de0, de1, de2] = [q[2 * size] as number, q[2 * size + 1] as number, q[2 * size + 2] as number];
+    const [do0, do1] = [q[3 * size] as number, q[3 * size + 1] as number];
+    for (let k = 0; k < n; k++) {
+      const x = (w[k] as number) * inv;
+      const t = -x * x;
+      const nr = (ne2 * t + ne1) * t + ne0;
+      const ni = (no1 * t + no0) * x;
+      const dr = (de2 * t + de1) * t + de0;
+      const di = (do1 * t + do0) * x;
+      out[k] = ((out[k] as number) * (nr * nr + ni * ni)) / (dr * dr + di * di);
+    }
+    return;
+  }
+  const ne = (dn >> 1) + 1;
+  const no = (dn + 1) >> 1;
+  const de = (dd >> 1) + 1;
+  const dO = (dd + 1) >> 1;
+  for (let k = 0; k < n; k++) {
+    const x = (w[k] as number) * inv;
+    const t = -x * x;
+    const nr = horner(q, 0, ne, t);
+    const ni = no > 0 ? x * horner(q, size, no, t) : 0;
+    const dr = horner(q, 2 * size, de, t);
+    const di = dO > 0 ? x * horner(q, 3 * size, dO, t) : 0;
+    out[k] = ((out[k] as number) * (nr * nr + ni * ni)) / (dr * dr + di * di);
+  }
 }
 
 /**

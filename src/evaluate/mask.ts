@@ -86,6 +86,10 @@ const REFINED = 4;
 interface BandGrid {
   readonly hz: readonly [number, number];
   readonly w: Float64Array;
+  /** Step of the grid in log frequency (natural log). */
+  readonly step: number;
+  /** Scratch for |H|^2 on this grid. */
+  readonly m: Float64Array;
 }
 
 /** The mask's grids, made once and used for every board. */
@@ -100,6 +104,10 @@ export interface MaskPlan {
   readonly stop: readonly BandGrid[];
   /** Scratch for |H|^2 on the largest grid. */
   readonly scratch: Float64Array;
+  /** Scratch for the indices of a band's best local extremes. */
+  readonly extremes: Int32Array;
+  /** Scratch for a band's extreme and a refined point, [w, m2] each. */
+  readonly points: Float64Array;
 }
 
 /** The band's log grid (the same points as `logGrid` in Hz), in rad/s. */
@@ -117,11 +125,16 @@ function logGridRadS(aHz: number, bHz: number, n: number): Float64Array {
  * @returns the plan
  */
 export function planMask(bands: MaskBands, limits: MaskLimits): MaskPlan {
-  const grid = (b: readonly [number, number], n: number): BandGrid => ({ hz: b, w: logGridRadS(b[0], b[1], n) });
+  const grid = (b: readonly [number, number], n: number): BandGrid => ({
+    hz: b,
+    w: logGridRadS(b[0], b[1], n),
+    step: n > 1 ? Math.log(b[1] / b[0]) / (n - 1) : 0,
+    m: new Float64Array(n),
+  });
   const pass = bands.pass.map((b) => grid(b, Math.round(PASSBAND_POINTS / bands.pass.length)));
   const stop = bands.stop.map((b) => grid(b, Math.round(STOPBAND_POINTS / bands.stop.length)));
   const longest = Math.max(...pass.map((g) => g.w.length), ...stop.map((g) => g.w.length));
-  return { bands, limits, pass, stop, scratch: new Float64Array(longest) };
+  return { bands, limits, pass, stop, scratch: new Float64Array(longest), extremes: new Int32Array(REFINED), points: new Float64Array(4) };
 }
 
 /**
@@ -134,12 +147,13 @@ export function planMask(bands: MaskBands, limits: MaskLimits): MaskPlan {
  * @param wb - upper end, rad/s
  * @param sign - 1 to find a maximum, -1 a minimum
  * @param out - written: [w, |H|^2]
+ * @param at - where in `out`
  */
-export function refineExtreme(source: ResponseSource, wa: number, wb: number, sign: number, out: Float64Array): void {
+export function refineExtreme(source: ResponseSource, wa: number, wb: number, sign: number, out: Float64Array, at: number = 0): void {
   const g = (x: number): number => sign * source.magnitudeSquaredAt(Math.exp(x));
   const x = goldenMax(g, [Math.log(wa), Math.log(wb)], { iterations: 60, width: 1e-9 });
-  out[0] = Math.exp(x);
-  out[1] = source.magnitudeSquaredAt(out[0] as number);
+  out[at] = Math.exp(x);
+  out[at + 1] = source.magnitudeSquaredAt(out[at] as number);
 }
 
 /**
@@ -153,71 +167,108 @@ export function refineExtreme(source: ResponseSource, wa: number, wb: number, si
  * @returns the indices
  */
 export function localExtremes(m: Float64Array, n: number, sign: number, limit: number = REFINED): number[] {
-  const found: number[] = [];
+  const out = new Int32Array(limit);
+  return Array.from(out.subarray(0, bestExtremesInto(m, n, sign, out)));
+}
+
+/**
+ * The indices {@link localExtremes} returns, written into `out` (its length
+ * is the limit) without allocating; returns how many were found.
+ *
+ * @param m - the sampled values
+ * @param n - how many of them
+ * @param sign - 1 for maxima, -1 for minima
+ * @param out - written: the indices, best first
+ * @returns the number written
+ */
+export function bestExtremesInto(m: Float64Array, n: number, sign: number, out: Int32Array): number {
+  const limit = out.length;
+  let count = 0;
   for (let i = 0; i < n; i++) {
     const here = sign * (m[i] as number);
-    const left = i > 0 ? sign * (m[i - 1] as number) : -Infinity;
-    const right = i < n - 1 ? sign * (m[i + 1] as number) : -Infinity;
-    if (!(left > here) && !(right > here)) found.push(i);
+    if (i > 0 && sign * (m[i - 1] as number) > here) continue;
+    if (i < n - 1 && sign * (m[i + 1] as number) > here) continue;
+    // insert by value, best first; a tie keeps the earlier index first (a stable order)
+    let j = count < limit ? count++ : limit;
+    if (j === limit) {
+      if (!(here > sign * (m[out[limit - 1] as number] as number))) continue;
+      j = limit - 1;
+    }
+    while (j > 0 && here > sign * (m[out[j - 1] as number] as number)) {
+      out[j] = out[j - 1] as number;
+      j--;
+    }
+    out[j] = i;
   }
-  found.sort((a, b) => sign * ((m[b] as number) - (m[a] as number)));
-  return found.slice(0, limit);
+  return count;
 }
 
 /** How far the band extremes between grid points are searched. */
 export type Refinement = "golden" | "parabola";
 
 /**
- * The vertex of the parabola through three neighbouring grid points, in log
- * frequency and log |H|^2 (one step of successive parabolic interpolation,
- * R. P. Brent, "Algorithms for Minimization without Derivatives", Prentice-Hall
- * 1973, ch. 5): exact for a peak that is a parabola there, and within the
- * grid's cubic term otherwise. Written into `out` as [w, |H|^2].
+ * The vertex of the parabola through three neighbouring grid points
+ * `c - 1, c, c + 1`, in log frequency and log |H|^2 (one step of successive
+ * parabolic interpolation, R. P. Brent, "Algorithms for Minimization without
+ * Derivatives", Prentice-Hall 1973, ch. 5; on the grid's equal log steps the
+ * vertex is `x_c + h (y_- - y_+) / (2 (y_- - 2 y_c + y_+))`), kept within
+ * the grid interval `[lo, hi]` (indices) and evaluated there. Exact for a
+ * peak that is a parabola there, and within the grid's cubic term otherwise.
+ * Written into `out` at `at` as [w, |H|^2].
  */
-function parabola(source: ResponseSource, g: BandGrid, m: Float64Array, i: number, out: Float64Array): void {
-  const x0 = Math.log(g.w[i - 1] as number);
-  const x1 = Math.log(g.w[i] as number);
-  const x2 = Math.log(g.w[i + 1] as number);
-  const y0 = Math.log(m[i - 1] as number);
-  const y1 = Math.log(m[i] as number);
-  const y2 = Math.log(m[i + 1] as number);
-  const d = (x1 - x0) * (y1 - y2) - (x1 - x2) * (y1 - y0);
-  const x = d === 0 ? x1 : x1 - ((x1 - x0) ** 2 * (y1 - y2) - (x1 - x2) ** 2 * (y1 - y0)) / (2 * d);
-  out[0] = Math.exp(Math.min(x2, Math.max(x0, x)));
-  out[1] = source.magnitudeSquaredAt(out[0] as number);
+function parabola(
+  source: ResponseSource,
+  g: BandGrid,
+  m: Float64Array,
+  c: number,
+  lo: number,
+  hi: number,
+  out: Float64Array,
+  at: number,
+): void {
+  const y0 = Math.log(m[c - 1] as number);
+  const y1 = Math.log(m[c] as number);
+  const y2 = Math.log(m[c + 1] as number);
+  const d = y0 - 2 * y1 + y2;
+  const shift = d === 0 || !Number.isFinite(d) ? 0 : (g.step * (y0 - y2)) / (2 * d);
+  const x = Math.log(g.w[c] as number) + (Number.isFinite(shift) ? shift : 0);
+  const w = Math.exp(Math.min(Math.log(g.w[hi] as number), Math.max(Math.log(g.w[lo] as number), x)));
+  out[at] = w;
+  out[at + 1] = source.magnitudeSquaredAt(w);
 }
 
 /**
  * The band's highest (`sign` = 1) or lowest (-1) |H|^2 and where (rad/s),
- * into `best` as [w, m2], from |H|^2 already sampled on the band's grid.
+ * into `plan.points[0..1]` as [w, m2], from |H|^2 already sampled on the
+ * band's grid.
  */
-function bandExtreme(
-  source: ResponseSource,
-  g: BandGrid,
-  m: Float64Array,
-  sign: number,
-  refinement: Refinement,
-  best: Float64Array,
-): void {
+function bandExtreme(source: ResponseSource, plan: MaskPlan, g: BandGrid, m: Float64Array, sign: number, refinement: Refinement): void {
   const n = g.w.length;
-  const better = (a: number, b: number): boolean => sign * a > sign * b;
+  const best = plan.points;
   best[0] = g.w[0] as number;
   best[1] = m[0] as number;
-  if (better(m[n - 1] as number, best[1] as number)) {
+  if (sign * (m[n - 1] as number) > sign * (best[1] as number)) {
     best[0] = g.w[n - 1] as number;
     best[1] = m[n - 1] as number;
   }
-  const r = new Float64Array(2);
-  for (const i of localExtremes(m, n, sign)) {
+  const found = bestExtremesInto(m, n, sign, plan.extremes);
+  for (let e = 0; e < found; e++) {
+    const i = plan.extremes[e] as number;
     const mi = m[i] as number;
-    const a = g.w[Math.max(0, i - 1)] as number;
-    const b = g.w[Math.min(n - 1, i + 1)] as number;
-    if (a < b) {
-      if (refinement === "golden" || i === 0 || i === n - 1) refineExtreme(source, a, b, sign, r);
-      else parabola(source, g, m, i, r);
-      if (better(r[1] as number, best[1] as number)) best.set(r);
+    const a = Math.max(0, i - 1);
+    const b = Math.min(n - 1, i + 1);
+    if ((g.w[a] as number) < (g.w[b] as number)) {
+      if (refinement === "golden" || n < 3) refineExtreme(source, g.w[a] as number, g.w[b] as number, sign, best, 2);
+      // at an end, the parabola through the end's three points, kept within the end interval
+      else if (i === 0) parabola(source, g, m, 1, 0, 1, plan.points, 2);
+      else if (i === n - 1) parabola(source, g, m, n - 2, n - 2, n - 1, plan.points, 2);
+      else parabola(source, g, m, i, i - 1, i + 1, plan.points, 2);
+      if (sign * (best[3] as number) > sign * (best[1] as number)) {
+        best[0] = best[2] as number;
+        best[1] = best[3] as number;
+      }
     }
-    if (better(mi, best[1] as number)) {
+    if (sign * mi > sign * (best[1] as number)) {
       best[0] = g.w[i] as number;
       best[1] = mi;
     }
@@ -268,25 +319,25 @@ export function rationalSource(stages: readonly ScaledRational[]): ResponseSourc
  * @returns the figures and margins
  */
 export function maskFigures(source: ResponseSource, plan: MaskPlan, refinement: Refinement = "golden"): MaskFigures {
-  const { limits, scratch } = plan;
-  const e = new Float64Array(2);
+  const { limits } = plan;
+  const e = plan.points;
   let peak = -Infinity;
   let lowW = NaN;
   let low = Infinity;
   for (const g of plan.pass) {
-    const m = scratch.subarray(0, g.w.length);
+    const m = g.m;
     source.magnitudeSquared(g.w, m);
-    bandExtreme(source, g, m, 1, refinement, e);
+    bandExtreme(source, plan, g, m, 1, refinement);
     peak = Math.max(peak, e[1] as number);
-    bandExtreme(source, g, m, -1, refinement, e);
+    bandExtreme(source, plan, g, m, -1, refinement);
     if ((e[1] as number) < low) [lowW, low] = [e[0] as number, e[1] as number];
   }
   let stopW = NaN;
   let stop = -Infinity;
   for (const g of plan.stop) {
-    const m = scratch.subarray(0, g.w.length);
+    const m = g.m;
     source.magnitudeSquared(g.w, m);
-    bandExtreme(source, g, m, 1, refinement, e);
+    bandExtreme(source, plan, g, m, 1, refinement);
     if ((e[1] as number) > stop) [stopW, stop] = [e[0] as number, e[1] as number];
   }
   const reference = source.realPartAt(TWO_PI * plan.bands.referenceHz);
