@@ -10,7 +10,8 @@
  * `p(j x) = E(-x^2) + j x O(-x^2)` with `E` and `O` of half the degree, so
  * each stage's coefficients are split once per call into scratch and every
  * grid point costs two real Horner evaluations of half the length per
- * polynomial (biquads, the common case, run an unrolled loop), one quotient,
+ * polynomial (biquads, the common case, and stages up to degree six run
+ * unrolled loops), one quotient,
  * and no square root or logarithm. Accuracy: Horner's rule errs by a few
  * ulps per coefficient times the polynomial's condition number at the point
  * (N. J. Higham, "Accuracy and Stability of Numerical Algorithms", 2nd ed.,
@@ -119,19 +120,20 @@ export function multiplyMagnitudeSquared(
     }
     return;
   }
-  if (dn <= 4 && dd <= 4) {
-    // degree four and below (a biquad with one or two op-amp poles): E of three terms, O of two
-    const [ne0, ne1, ne2] = [q[0] as number, q[1] as number, q[2] as number];
-    const [no0, no1] = [q[size] as number, q[size + 1] as number];
-    const [de0, de1, de2] = [q[2 * size] as number, q[2 * size + 1] as number, q[2 * size + 2] as number];
-    const [do0, do1] = [q[3 * size] as number, q[3 * size + 1] as number];
+  if (dn <= 6 && dd <= 6) {
+    // degree six and below (a biquad with up to four op-amp poles): E of four terms, O of three
+    const [ne0, ne1, ne2, ne3] = [q[0] as number, q[1] as number, q[2] as number, q[3] as number];
+    const [no0, no1, no2] = [q[size] as number, q[size + 1] as number, q[size + 2] as number];
+    const o = 2 * size;
+    const [de0, de1, de2, de3] = [q[o] as number, q[o + 1] as number, q[o + 2] as number, q[o + 3] as number];
+    const [do0, do1, do2] = [q[o + size] as number, q[o + size + 1] as number, q[o + size + 2] as number];
     for (let k = 0; k < n; k++) {
       const x = (w[k] as number) * inv;
       const t = -x * x;
-      const nr = (ne2 * t + ne1) * t + ne0;
-      const ni = (no1 * t + no0) * x;
-      const dr = (de2 * t + de1) * t + de0;
-      const di = (do1 * t + do0) * x;
+      const nr = ((ne3 * t + ne2) * t + ne1) * t + ne0;
+      const ni = ((no2 * t + no1) * t + no0) * x;
+      const dr = ((de3 * t + de2) * t + de1) * t + de0;
+      const di = ((do2 * t + do1) * t + do0) * x;
       out[k] = ((out[k] as number) * (nr * nr + ni * ni)) / (dr * dr + di * di);
     }
     return;

@@ -46,6 +46,21 @@
  * its inverting input at beta bp - hp/A, gives
  * `hp = -G1 vin / (G2 + G3 T1 T2 - G beta T1 + G/A)` (T1 = bp/hp, T2 = lp/bp);
  * the output summer is `-sum(Gk vk)/(G10 + (sum(Gk) + G10)/A)`.
+ * The same as real polynomials (derived here from those equations), with
+ * `1/A = g0 + g1 z`, `z = s / w`, `c1 = C1 w`, `c2 = C2 w`, ascending
+ * coefficients:
+ *
+ *   I1 = G6 g0 + (c1 (1 + g0) + G6 g1) z + c1 g1 z^2   (T1 = -G6/I1)
+ *   I2 = G7 g0 + (c2 (1 + g0) + G7 g1) z + c2 g1 z^2   (T2 = -G7/I2)
+ *   P  = (G2 + G g0 + G g1 z) I1 I2 + G3 G6 G7 + G beta G6 I2
+ *   hp = -G1 I1 I2 / P,  bp = G1 G6 I2 / P,  lp = -G1 G6 G7 / P
+ *   out = G1 (G8 I1 I2 + G9 G6 G7 - G11 G6 I2) / (P S),
+ *   S = G10 + (G8 + G9 + G11 + G10)(g0 + g1 z)
+ *
+ * Every coefficient of I1, I2, P and S is a sum of positive terms (a few
+ * ulps of relative error); the only subtraction is the allpass numerator's
+ * bandpass term, which the allpass needs. Degrees: 5 for the three taps
+ * (2 + one per op-amp), 6 with the output summer.
  * GBW demand: computed numerically (f0 and Q within 1 %); common practice,
  * no source, asks for GBW >= 100 Q f0 for state-variable stages.
  *
@@ -55,8 +70,8 @@ import type { ComponentValues, StageFigures, StageTarget, Topology } from "./typ
 import { cadd, cdiv, cmul, complex, cscale, csub, type Complex } from "../math/complex.ts";
 import { TWO_PI } from "../units/constants.ts";
 import { defineTopology } from "./define.ts";
-import { indexedFigures, loopIndex, withOutputAt, valueOf, conductanceOf, type PartSpec } from "./spec.ts";
-import { invertingGain, summer } from "./kernels.ts";
+import { indexedFigures, loopIndex, partIndex, withOutputAt, valueOf, conductanceOf, type PartSpec } from "./spec.ts";
+import { invertingGain, summer, type PolynomialCore } from "./kernels.ts";
 
 const REF =
   'W. J. Kerwin, L. P. Huelsman & R. W. Newcomb, IEEE J. Solid-State Circuits SC-2(3):87-92, 1967; L. P. Huelsman & P. E. Allen, "Introduction to the Theory and Design of Active Filters", 1980, state-variable realisations (from memory)';
@@ -140,6 +155,87 @@ function finiteTaps(v: ComponentValues, s: Complex, a: Complex): { hp: Complex; 
   return { hp, bp, lp: cmul(t2, bp) };
 }
 
+/** `out = a * b` for ascending coefficient arrays (`out` has length a.length + b.length - 1). */
+function multiplyInto(a: Float64Array, b: Float64Array, out: Float64Array): void {
+  out.fill(0);
+  for (let i = 0; i < a.length; i++) for (let j = 0; j < b.length; j++) out[i + j] = (out[i + j] as number) + (a[i] as number) * (b[j] as number);
+}
+
+const i1 = new Float64Array(3);
+const i2 = new Float64Array(3);
+const i12 = new Float64Array(5);
+const a1 = new Float64Array(2);
+const loopP = new Float64Array(6);
+const sum = new Float64Array(2);
+
+/** The loop polynomial P and I1 I2, I2 into the module scratch (see the module notes). */
+function loopInto(x: Float64Array, g0: number, g1: number, w: number): void {
+  const G2 = 1 / (x[R2] as number);
+  const G3 = 1 / (x[R3] as number);
+  const G6 = 1 / (x[R6] as number);
+  const G7 = 1 / (x[R7] as number);
+  const gs = 1 / (x[R1] as number) + G2 + G3;
+  const r5 = x[R5] as number;
+  const beta = r5 / ((x[R4] as number) + r5);
+  const c1 = (x[C1] as number) * w;
+  const c2 = (x[C2] as number) * w;
+  i1[0] = G6 * g0;
+  i1[1] = c1 * (1 + g0) + G6 * g1;
+  i1[2] = c1 * g1;
+  i2[0] = G7 * g0;
+  i2[1] = c2 * (1 + g0) + G7 * g1;
+  i2[2] = c2 * g1;
+  multiplyInto(i1, i2, i12);
+  a1[0] = G2 + gs * g0;
+  a1[1] = gs * g1;
+  multiplyInto(a1, i12, loopP);
+  const b = gs * beta * G6;
+  loopP[0] = (loopP[0] as number) + G3 * G6 * G7 + b * (i2[0] as number);
+  loopP[1] = (loopP[1] as number) + b * (i2[1] as number);
+  loopP[2] = (loopP[2] as number) + b * (i2[2] as number);
+}
+
+/** Polynomials of one tap (degree 5). */
+function tapPolynomials(node: "hp" | "bp" | "lp"): PolynomialCore {
+  return (x, g0, g1, w, num, den) => {
+    loopInto(x, g0, g1, w);
+    den.set(loopP);
+    const G1 = 1 / (x[R1] as number);
+    const G6 = 1 / (x[R6] as number);
+    if (node === "hp") for (let k = 0; k < 5; k++) num[k] = -G1 * (i12[k] as number);
+    else if (node === "bp") for (let k = 0; k < 3; k++) num[k] = G1 * G6 * (i2[k] as number);
+    else num[0] = -G1 * G6 * (1 / (x[R7] as number));
+  };
+}
+
+/** Polynomials of the summed output (degree 6); `r11` is -1 without the allpass's bandpass term. */
+function summedPolynomials(r8: number, r9: number, r10: number, r11: number): PolynomialCore {
+  return (x, g0, g1, w, num, den) => {
+    loopInto(x, g0, g1, w);
+    const G1 = 1 / (x[R1] as number);
+    const G6 = 1 / (x[R6] as number);
+    const G7 = 1 / (x[R7] as number);
+    const G8 = 1 / (x[r8] as number);
+    const G9 = 1 / (x[r9] as number);
+    const G10 = 1 / (x[r10] as number);
+    const G11 = r11 < 0 ? 0 : 1 / (x[r11] as number);
+    const all = G8 + G9 + G11 + G10;
+    sum[0] = G10 + all * g0;
+    sum[1] = all * g1;
+    multiplyInto(loopP, sum, den);
+    for (let k = 0; k < 5; k++) num[k] = G1 * G8 * (i12[k] as number);
+    num[0] = (num[0] as number) + G1 * G9 * G6 * G7;
+    if (r11 >= 0) for (let k = 0; k < 3; k++) num[k] = (num[k] as number) - G1 * G11 * G6 * (i2[k] as number);
+  };
+}
+
+/** The summed output's polynomial form for a parts list. */
+function summedForm(parts: readonly PartSpec[], allpass: boolean): { readonly degree: number; readonly core: PolynomialCore } {
+  const at = partIndex(parts);
+  const idx = (n: string): number => at[n] as number;
+  return { degree: 6, core: summedPolynomials(idx("R8"), idx("R9"), idx("R10"), allpass ? idx("R11") : -1) };
+}
+
 function closedForm(allpass: boolean) {
   return (v: ComponentValues, s: Complex, a: Complex | null): Complex => {
     if (a !== null) {
@@ -219,6 +315,7 @@ export const stateVariableNotch: Topology = defineTopology({
   ...figures(core, false),
   closedForm: closedForm(false),
   closedFormFinite: true,
+  polynomials: summedForm(core, false),
 });
 
 const allpassParts: PartSpec[] = [...core, { kind: "R", name: "R11", a: "bp", b: "n4" }];
@@ -246,6 +343,7 @@ export const stateVariableAllpass: Topology = defineTopology({
   ...figures(allpassParts, true),
   closedForm: closedForm(true),
   closedFormFinite: true,
+  polynomials: summedForm(allpassParts, true),
 });
 
 type Tap = "lowpass" | "highpass" | "bandpass";
@@ -302,6 +400,7 @@ function makeTap(tap: Tap): Topology {
     })),
     closedForm: (v, s, a) => (a === null ? tapResponse(tap, v, s) : finiteTaps(v, s, a)[node === "lp" ? "lp" : node === "hp" ? "hp" : "bp"]),
     closedFormFinite: true,
+    polynomials: { degree: 5, core: tapPolynomials(node) },
   });
 }
 

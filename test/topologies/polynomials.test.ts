@@ -35,11 +35,11 @@ function difference(h: { re: Float64Array; im: Float64Array }, m2: Float64Array,
 const worst: Record<string, { mag: number; deg: number }> = {};
 
 describe("Topology.polynomials", () => {
-  it("the first-order, Sallen-Key, multiple-feedback, Deliyannis-Friend, one-op-amp notch, twin-T and Fliege-type topologies have closed-form polynomials; the other multi-op-amp ones do not", () => {
+  it("the first-order, Sallen-Key, multiple-feedback, Deliyannis-Friend, one-op-amp notch, twin-T, Fliege-type and state-variable topologies have closed-form polynomials; the other multi-op-amp ones do not", () => {
     const ids = withClosedForm.map((t) => t.id);
-    expect(ids.length).toBe(24);
+    expect(ids.length).toBe(29);
     for (const t of topologies) {
-      const multi = t.id.startsWith("state-variable") || (t.id.startsWith("tow-thomas") && t.id !== "tow-thomas-lowpass" && t.id !== "tow-thomas-bandpass");
+      const multi = (t.id.startsWith("tow-thomas") && t.id !== "tow-thomas-lowpass" && t.id !== "tow-thomas-bandpass");
       expect(t.polynomials === undefined, t.id).toBe(multi);
       expect(t.polynomialsInto === undefined, t.id).toBe(multi);
       expect(t.polynomialDegree === undefined, t.id).toBe(multi);
