@@ -73,6 +73,19 @@ export interface PrototypeEdges {
  * @returns the two edges and the prototype's peak level
  */
 export function prototypeEdges(zpk: Zpk, lossDb: number, attenuationDb: number): PrototypeEdges {
+  // the same prototype is placed many times over a design (family choice, attempts, recovery, yield ladder)
+  let byLimits = edgesCache.get(zpk);
+  if (byLimits === undefined) edgesCache.set(zpk, (byLimits = new Map()));
+  const key = `${lossDb} ${attenuationDb}`;
+  let edges = byLimits.get(key);
+  if (edges === undefined) byLimits.set(key, (edges = computeEdges(zpk, lossDb, attenuationDb)));
+  return edges;
+}
+
+/** Edges already found, per prototype object (prototypes are frozen) and limits. */
+const edgesCache = new WeakMap<Zpk, Map<string, PrototypeEdges>>();
+
+function computeEdges(zpk: Zpk, lossDb: number, attenuationDb: number): PrototypeEdges {
   const w = logGrid(1e-4, 1e5, 1801);
   const m = zpkMagnitude(zpk, w);
   // one-point values for the bisections: the same numbers as zpkMagnitude, without its per-call checks
