@@ -18,5 +18,6 @@ process.exitCode = runCli(process.argv.slice(2), {
   stdout: (t) => process.stdout.write(t),
   stderr: (t) => process.stderr.write(t),
   readFile: (p) => readFileSync(p, "utf8"),
+  readStdin: () => readFileSync(0, "utf8"),
   writeFile: (p, t) => writeFileSync(p, t, "utf8"),
 });

@@ -36,6 +36,8 @@ export interface CliIo {
   readonly stderr: (text: string) => void;
   /** Read a text file (UTF-8). */
   readonly readFile: (path: string) => string;
+  /** Read all of standard input (UTF-8), for `--spec -`. */
+  readonly readStdin: () => string;
   /** Write a text file (UTF-8). */
   readonly writeFile: (path: string, text: string) => void;
 }
@@ -225,13 +227,16 @@ function design(start: Start, o: ReadonlyMap<string, GivenOption>, earlier: Earl
 
 /** The spec file named by --spec, as an object. */
 function readSpecFile(file: string, io: CliIo): Record<string, unknown> {
-  if (file === "-") throw new CliProblem('--spec "-": a spec cannot be read from standard input; give the path of a JSON file, e.g. --spec spec.json');
+  // "-" reads the spec from standard input (`... | filterwright design --spec -`)
+  const name = file === "-" ? "standard input" : file;
   let text: string;
   try {
-    text = io.readFile(file);
+    text = file === "-" ? io.readStdin() : io.readFile(file);
   } catch (e) {
-    throw new CliProblem(`cannot read ${file} (--spec): ${ioReason(e, false)}`);
+    throw new CliProblem(`cannot read ${name} (--spec): ${ioReason(e, false)}`);
   }
+  if (file === "-" && text.trim() === "") throw new CliProblem("standard input (--spec -) is empty; pipe a JSON spec into the command, or give the path of a JSON file");
+  file = name;
   let parsed: unknown;
   try {
     parsed = JSON.parse(text);

@@ -20,6 +20,11 @@ export function fakeIo(files: Record<string, string> = {}, overrides: Partial<Cl
       if (t === undefined) throw Object.assign(new Error(`ENOENT: no such file or directory, open '${p}'`), { code: "ENOENT" });
       return t;
     },
+    readStdin: () => {
+      const t = io.files["<stdin>"];
+      if (t === undefined) throw Object.assign(new Error("EAGAIN: resource temporarily unavailable, read"), { code: "EAGAIN" });
+      return t;
+    },
     writeFile: (p: string, t: string) => {
       io.files[p] = t;
     },

@@ -294,3 +294,28 @@ describe("runCli: did you mean", () => {
     expect(stage.io.err).not.toContain("did you mean");
   });
 });
+
+describe("runCli: --spec - reads the spec from standard input", () => {
+  const spec = { response: "lowpass", passband: { edgeHz: 1000, maxLossDb: 0.5 }, stopband: { edgeHz: 5000, minAttenuationDb: 50 } };
+
+  it("designs the piped spec, and flags still override its fields", () => {
+    const a = run(["design", "--spec", "-", "--quiet", "--json", "out.json"], fakeIo({ "<stdin>": JSON.stringify(spec) }));
+    expect(a.code, a.io.err).toBe(0);
+    expect(fromJson(a.io.files["out.json"]!).spec.passbandHz).toEqual([1000]);
+    const b = run(["design", "--spec", "-", "--stop-atten", "40", "--quiet", "--json", "out.json"], fakeIo({ "<stdin>": JSON.stringify(spec) }));
+    expect(b.code, b.io.err).toBe(0);
+    expect(fromJson(b.io.files["out.json"]!).spec.minAttenuationDb).toBe(40);
+  });
+
+  it("empty input, unreadable input and text that is not JSON each exit 2 with one line naming standard input", () => {
+    const empty = run(["design", "--spec", "-"], fakeIo({ "<stdin>": "  \n" }));
+    expect(empty.code).toBe(2);
+    expect(oneLine(empty.io)).toBe("filterwright: standard input (--spec -) is empty; pipe a JSON spec into the command, or give the path of a JSON file");
+    const unreadable = run(["design", "--spec", "-"], fakeIo());
+    expect(unreadable.code).toBe(2);
+    expect(oneLine(unreadable.io)).toMatch(/^filterwright: cannot read standard input \(--spec\): /);
+    const text = run(["design", "--spec", "-"], fakeIo({ "<stdin>": "response: lowpass" }));
+    expect(text.code).toBe(2);
+    expect(oneLine(text.io)).toMatch(/^filterwright: standard input \(--spec\) is not valid JSON: /);
+  });
+});
