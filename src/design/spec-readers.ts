@@ -74,6 +74,17 @@ export class Reader {
     return undefined;
   }
 
+  /** One band edge in Hz, within {@link EDGE_RANGE_HZ}. */
+  edge(path: string, value: unknown): number | undefined {
+    const f = this.quantity(path, value, "Hz");
+    if (f === undefined) return undefined;
+    if (f < EDGE_RANGE_HZ.min || f > EDGE_RANGE_HZ.max) {
+      this.add(path, `expected an edge frequency from ${EDGE_RANGE_HZ.min} Hz to ${EDGE_RANGE_HZ.max} Hz (1 mHz to 1 GHz, the reach of an op-amp filter)`, value);
+      return undefined;
+    }
+    return f;
+  }
+
   number(
     path: string,
     value: unknown,
@@ -117,15 +128,15 @@ export class Reader {
         this.add(path, "expected one edge frequency for this response, not a list", value);
         return undefined;
       }
-      const f = this.quantity(path, value, "Hz");
+      const f = this.edge(path, value);
       return f === undefined ? undefined : [f];
     }
     if (!Array.isArray(value) || value.length !== 2) {
       this.add(path, "expected two edge frequencies [low, high] for this response", value);
       return undefined;
     }
-    const lo = this.quantity(`${path}.0`, value[0], "Hz");
-    const hi = this.quantity(`${path}.1`, value[1], "Hz");
+    const lo = this.edge(`${path}.0`, value[0]);
+    const hi = this.edge(`${path}.1`, value[1]);
     if (lo === undefined || hi === undefined) return undefined;
     if (!(lo < hi)) {
       this.add(path, "the low edge must be below the high edge", value);
@@ -134,6 +145,20 @@ export class Reader {
     return [lo, hi];
   }
 }
+
+/**
+ * Band edges a spec may give, Hz: 1 mHz to 1 GHz. Below, even 10 MOhm and
+ * 10 uF parts cannot reach; above, no op-amp stage works (common practice,
+ * no source); the default part limits reach about 2 mHz to 150 MHz.
+ */
+export const EDGE_RANGE_HZ = Object.freeze({ min: 1e-3, max: 1e9 });
+
+/**
+ * Passband loss a spec may allow, dB: 0.001 dB (a flatness no toleranced
+ * board holds more closely; the prototypes take ripples down to 1e-6 dB, which
+ * leaves room for the margin the design holds back) to 20 dB.
+ */
+export const MAX_LOSS_RANGE_DB = Object.freeze({ min: 0.001, max: 20 });
 
 export type Bands = Pick<DesignSpec, "response" | "passbandHz" | "stopbandHz" | "passbandTopHz" | "maxLossDb" | "minAttenuationDb">;
 export type GainPart = Pick<DesignSpec, "gain" | "polarity" | "gainToleranceDb">;
@@ -181,6 +206,10 @@ function readPassbandTop(r: Reader, response: ResponseType | undefined, pb: Raw,
     return null;
   }
   const top = r.quantity("passband.topHz", pb["topHz"], "Hz");
+  if (top !== undefined && top > 100 * EDGE_RANGE_HZ.max) {
+    r.add("passband.topHz", `expected a top frequency of at most ${100 * EDGE_RANGE_HZ.max} Hz (100 times the highest edge a spec may give)`, pb["topHz"]);
+    return null;
+  }
   const upper = passbandHz?.[passbandHz.length - 1];
   if (top !== undefined && upper !== undefined && !(top > upper)) {
     r.add("passband.topHz", `must lie above the upper passband edge (${upper} Hz)`, pb["topHz"]);
@@ -204,7 +233,7 @@ export function readBands(r: Reader, spec: Raw): AsRead<Bands> {
   } else {
     r.unknownKeys(pb, ["edgeHz", "maxLossDb", "topHz"], "passband.");
     passbandHz = r.edges("passband.edgeHz", pb["edgeHz"], edgeCount);
-    maxLossDb = r.number("passband.maxLossDb", pb["maxLossDb"], { min: 0, max: 20, exclusiveMin: true }, "a loss in dB");
+    maxLossDb = r.number("passband.maxLossDb", pb["maxLossDb"], MAX_LOSS_RANGE_DB, "a loss in dB");
   }
   const sb = spec["stopband"];
   if (!isObject(sb)) {

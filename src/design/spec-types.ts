@@ -58,9 +58,9 @@ export type EdgeInput = Quantity | readonly [Quantity, Quantity];
 
 /** The passband of the spec. */
 export interface PassbandSpec {
-  /** Passband edge in Hz (lowpass, highpass) or the two edges `[low, high]` (bandpass, bandstop). */
+  /** Passband edge in Hz (lowpass, highpass) or the two edges `[low, high]` (bandpass, bandstop), each from 1 mHz to 1 GHz. */
   readonly edgeHz: EdgeInput;
-  /** Largest loss allowed anywhere in the passband, in dB, relative to the passband's highest level (> 0). */
+  /** Largest loss allowed anywhere in the passband, in dB, relative to the passband's highest level (0.001 to 20). */
   readonly maxLossDb: number;
   /**
    * Highpass and bandstop only: the highest frequency, Hz, up to which the
@@ -72,7 +72,7 @@ export interface PassbandSpec {
 
 /** The stopband of the spec. */
 export interface StopbandSpec {
-  /** Stopband edge in Hz (lowpass, highpass) or the two edges `[low, high]` (bandpass, bandstop). */
+  /** Stopband edge in Hz (lowpass, highpass) or the two edges `[low, high]` (bandpass, bandstop), each from 1 mHz to 1 GHz. */
   readonly edgeHz: EdgeInput;
   /** Smallest attenuation allowed anywhere in the stopband, in dB, relative to the passband's highest level. */
   readonly minAttenuationDb: number;

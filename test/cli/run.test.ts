@@ -85,7 +85,7 @@ describe("runCli", () => {
     const lines = io.err.trimEnd().split("\n");
     expect(lines).toHaveLength(3);
     expect(lines[0]).toMatch(/^filterwright: --pass "fast": expected the passband edge in Hz/);
-    expect(lines[1]).toMatch(/^filterwright: --pass-loss "-1": expected a loss in dB greater than 0/);
+    expect(lines[1]).toMatch(/^filterwright: --pass-loss "-1": expected a loss in dB at least 0.001/);
     expect(lines[2]).toMatch(/^filterwright: --family "gaussian": expected one of "butterworth"/);
     expect(io.err).not.toContain("passband.");
     expect(io.err).not.toMatch(/\n\s+at /);

@@ -233,7 +233,7 @@ describe("runCli: messages name the flag, not the spec's field path", () => {
     const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 30 }, stopband: { edgeHz: "5k", minAttenuationDb: 50 } };
     const { code, io } = run(["design", "--spec", "s.json"], fakeIo({ "s.json": JSON.stringify(spec) }));
     expect(code).toBe(2);
-    expect(oneLine(io)).toBe("filterwright: s.json: passband.maxLossDb: expected a loss in dB greater than 0 and at most 20 (received 30) (correct it in s.json or override it with --pass-loss)");
+    expect(oneLine(io)).toBe("filterwright: s.json: passband.maxLossDb: expected a loss in dB at least 0.001 and at most 20 (received 30) (correct it in s.json or override it with --pass-loss)");
     const fixed = run(["design", "--spec", "s.json", "--pass-loss", "0.5", "--quiet"], fakeIo({ "s.json": JSON.stringify(spec) }));
     expect(fixed.code, fixed.io.err).toBe(0);
   });

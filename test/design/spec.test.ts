@@ -256,3 +256,27 @@ describe("validateSpec op-amp ranges", () => {
     expect(validateSpec({ ...base, opamp: { a0: 10, gbwHz: 1e11 } }).opamp).toEqual({ kind: "single-pole", a0: 10, gbwHz: 1e11 });
   });
 });
+
+describe("validateSpec ranges of the bands", () => {
+  it("edges from 1 mHz to 1 GHz, and a top frequency up to 100 GHz", () => {
+    const lp = (pass: unknown, stop: unknown) => ({ response: "lowpass", passband: { edgeHz: pass, maxLossDb: 0.5 }, stopband: { edgeHz: stop, minAttenuationDb: 40 } });
+    expect(checkSpec(lp(1e-3, 5e-3))).toEqual([]);
+    expect(checkSpec(lp(2e8, 1e9))).toEqual([]);
+    const low = issuesOf(lp(5e-4, 5e-3));
+    expect(low.map((i) => i.path)).toEqual(["passband.edgeHz"]);
+    expect(low[0]?.message).toContain("from 0.001 Hz to 1000000000 Hz");
+    expect(issuesOf(lp("1k", "2G")).map((i) => i.path)).toEqual(["stopband.edgeHz"]);
+    const bs = { response: "bandstop", passband: { edgeHz: [1e8, 2e9], maxLossDb: 0.5 }, stopband: { edgeHz: [2e8, 5e8], minAttenuationDb: 40 } };
+    expect(issuesOf(bs).map((i) => i.path)).toEqual(["passband.edgeHz.1"]);
+    const hp = { response: "highpass", passband: { edgeHz: 1000, maxLossDb: 0.5, topHz: 2e11 }, stopband: { edgeHz: 200, minAttenuationDb: 40 } };
+    expect(issuesOf(hp).map((i) => i.path)).toEqual(["passband.topHz"]);
+  });
+
+  it("a passband loss from 0.001 dB (was: anything above zero, and 1e-9 dB failed deep in the prototype with the wrong field)", () => {
+    const lp = (loss: number) => ({ response: "lowpass", passband: { edgeHz: 1000, maxLossDb: loss }, stopband: { edgeHz: 5000, minAttenuationDb: 40 } });
+    expect(checkSpec(lp(0.001))).toEqual([]);
+    const tiny = issuesOf(lp(1e-9));
+    expect(tiny.map((i) => i.path)).toEqual(["passband.maxLossDb"]);
+    expect(tiny[0]?.message).toBe("expected a loss in dB at least 0.001 and at most 20");
+  });
+});
