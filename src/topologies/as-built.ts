@@ -14,7 +14,13 @@
  * replaced by the single-pole model (a0 = 1e12, so the gain-bandwidth product
  * alone matters), and the smallest GBW for which the pole's f0 and Q both stay
  * within 1 % of target is found by quadrupling and then bisection in log(GBW)
- * to 0.1 %. A first-order stage has no Q, and its op-amp adds a pole rather
+ * to 0.1 %. Each step's pole comes from the stage's closed-form as-built
+ * polynomials where the topology has them (the same Muller iteration on
+ * their denominator, which is the nodal determinant up to a constant: a
+ * Horner evaluation per step instead of a complex LU; the two agree to 1e-9,
+ * test/topologies/gbw-demand.test.ts), else from the nodal determinant; each
+ * topology keeps the demands it has found per target (define.ts), since the
+ * design loop asks for the same targets again. A first-order stage has no Q, and its op-amp adds a pole rather
  * than moving the stage's own, so there the criterion is on the response at
  * f0: `|H(j w0)/H_ideal(j w0) - 1|` may not exceed what a 1 % shift of f0
  * would cause (about 0.70 %).
@@ -31,7 +37,7 @@ import { geometricBisect } from "../math/optimize.ts";
 import { TWO_PI } from "../units/constants.ts";
 import { requirePositive } from "../validate.ts";
 import { openLoopGain, type ClosedForm } from "./kernels.ts";
-import type { ComponentValues, StageChoices, StageFigures, StageTarget, Topology } from "./types.ts";
+import type { ComponentValues, PolynomialsInto, StageChoices, StageFigures, StageTarget, Topology } from "./types.ts";
 
 /**
  * DC gain of the op-amp model used to compute the GBW demand.
@@ -94,10 +100,62 @@ export function circuitPole(circuit: Circuit, order: 1 | 2, start: AsBuiltPole):
   // Scale the determinant so Muller's divided differences stay in range.
   const ref = mnaDeterminant(sys, { re: 0, im: w0 * 3 });
   const refMag = Math.hypot(ref.re, ref.im) || 1;
-  const f = (s: Complex): Complex => {
+  return poleNear((s) => {
     const d = mnaDeterminant(sys, s);
     return { re: d.re / refMag, im: d.im / refMag };
-  };
+  }, order, start);
+}
+
+/**
+ * The root of a stage's characteristic polynomial nearest an ideal first- or
+ * second-order pole, as {@link circuitPole} finds it on the nodal
+ * determinant: the same Muller iteration on `den(s / scale)` of the stage's
+ * closed-form as-built polynomials (the determinant up to a constant factor,
+ * since those are derived from the same nodal equations without
+ * cancelling), so each step costs a Horner evaluation instead of a complex
+ * LU. Null when the polynomials overflow or the iteration fails.
+ *
+ * @param into - the topology's unchecked polynomial core
+ * @param degree - its degree
+ * @param x - component values in the topology's component order
+ * @param opamp - op-amp model
+ * @param order - 1 or 2
+ * @param start - ideal f0 (and Q)
+ * @returns the pole's f0 and Q
+ * @throws never
+ * @internal
+ */
+export function polynomialPole(
+  into: PolynomialsInto,
+  degree: number,
+  x: Float64Array,
+  opamp: OpAmpModel,
+  order: 1 | 2,
+  start: AsBuiltPole,
+): AsBuiltPole | null {
+  const scale = TWO_PI * start.f0Hz;
+  const num = new Float64Array(degree + 1);
+  const den = new Float64Array(degree + 1);
+  if (into(x, opamp, scale, num, den) === 0) return null;
+  const inv = 1 / scale;
+  return poleNear((s) => {
+    // den at z = s / scale by Horner's rule (descending coefficients)
+    const zr = s.re * inv;
+    const zi = s.im * inv;
+    let pr = den[0] as number;
+    let pi = 0;
+    for (let k = 1; k < den.length; k++) {
+      const t = pr * zr - pi * zi + (den[k] as number);
+      pi = pr * zi + pi * zr;
+      pr = t;
+    }
+    return { re: pr, im: pi };
+  }, order, start);
+}
+
+/** The zero of `f` (s in rad/s) nearest the ideal pole of `start`, as `{ f0Hz, q }`; the two real poles of a Q <= 1/2 target one after the other. */
+function poleNear(f: (s: Complex) => Complex, order: 1 | 2, start: AsBuiltPole): AsBuiltPole | null {
+  const w0 = TWO_PI * start.f0Hz;
   const ideal = idealPoles(order, start.f0Hz, start.q ?? 0.5);
   const p = mullerRoot(f, ideal[0] as Complex, w0);
   if (p === null) return null;
@@ -128,6 +186,12 @@ export interface GbwDemandStage {
   readonly closedForm: ClosedForm;
   /** The stage alone, driven by `Vin` at `in`, output at `out`, every op-amp given `opamp`. */
   readonly circuit: (v: ComponentValues, opamp: OpAmpModel) => Circuit;
+  /**
+   * The pole with the op-amp from the stage's closed-form polynomials
+   * ({@link polynomialPole}), where it has them; the nodal determinant's
+   * otherwise.
+   */
+  readonly pole?: (v: ComponentValues, opamp: OpAmpModel, order: 1 | 2, start: AsBuiltPole) => AsBuiltPole | null;
 }
 
 /**
@@ -160,7 +224,8 @@ export function gbwDemand(
       const r = cdiv(h, h0);
       return Math.hypot(r.re - 1, r.im) <= FIRST_ORDER_DEVIATION;
     }
-    const p = circuitPole(stage.circuit(v, { kind: "single-pole", a0: GBW_DEMAND_A0, gbwHz }), stage.order, ideal);
+    const model: OpAmpModel = { kind: "single-pole", a0: GBW_DEMAND_A0, gbwHz };
+    const p = stage.pole !== undefined ? stage.pole(v, model, stage.order, ideal) : circuitPole(stage.circuit(v, model), stage.order, ideal);
     if (p === null) return false;
     if (Math.abs(p.f0Hz / ideal.f0Hz - 1) > 0.01) return false;
     if (ideal.q !== undefined && (p.q === undefined || Math.abs(p.q / ideal.q - 1) > 0.01)) return false;

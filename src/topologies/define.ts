@@ -20,7 +20,7 @@ import { checkCircuit, checkOpAmpModel } from "../circuit/validate.ts";
 import { InvalidArgumentError, UnrealisableError } from "../errors.ts";
 import { TWO_PI } from "../units/constants.ts";
 import { requirePositive } from "../validate.ts";
-import { gbwDemand } from "./as-built.ts";
+import { gbwDemand, polynomialPole, type AsBuiltPole } from "./as-built.ts";
 import { openLoopGain, type PolynomialCore } from "./kernels.ts";
 import { LIMIT_SLACK, type FiguresKernel, type PartSpec, type TopologySpec } from "./spec.ts";
 import type {
@@ -40,6 +40,14 @@ import type {
  * @internal
  */
 export const DEFAULT_LEVEL_OHMS = 10_000;
+
+/** Most GBW demands a topology keeps (then it starts again). */
+const DEMAND_CACHE_SIZE = 4096;
+
+/** A target as a key: every field the demand depends on, in a fixed order. */
+function targetKey(t: StageTarget): string {
+  return `${t.order} ${t.kind} ${t.f0Hz} ${t.q} ${t.fzHz} ${t.gain}`;
+}
 
 /**
  * The unchecked {@link PolynomialsInto} of a polynomial core: the op-amp
@@ -439,10 +447,30 @@ export function defineTopology(spec: TopologySpec): Topology {
     checkCircuit(fn, { title: spec.name, elements: out });
     return out;
   };
+  const polynomialForm = spec.polynomials;
+  const polynomialCore = polynomialForm === undefined ? undefined : polynomialsIntoOf(polynomialForm);
+  const demandStage = {
+    ...spec,
+    circuit: (v: ComponentValues, opamp: OpAmpModel) => stageCircuit(spec, v, opamp),
+    ...(polynomialForm === undefined || polynomialCore === undefined
+      ? {}
+      : {
+          pole: (v: ComponentValues, opamp: OpAmpModel, order: 1 | 2, start: AsBuiltPole) =>
+            polynomialPole(polynomialCore, polynomialForm.degree, Float64Array.from(componentNames, (n) => v[n] as number), opamp, order, start),
+        }),
+  };
+  // The design loop asks for the same targets' demands again (every attempt re-plans its stages): kept per target, a few thousand at most.
+  const demands = new Map<string, number>();
   const gbwDemandHz = (t: StageTarget): number => {
     const why = reason(`${spec.id}.gbwDemandHz`, t, {});
     if (why !== null) throw new UnrealisableError({ fn: `${spec.id}.gbwDemandHz`, path: "target", received: t, message: why });
-    return gbwDemand({ ...spec, circuit: (v, opamp) => stageCircuit(spec, v, opamp) }, designFn, t);
+    const key = targetKey(t);
+    const known = demands.get(key);
+    if (known !== undefined) return known;
+    const d = gbwDemand(demandStage, designFn, t);
+    if (demands.size >= DEMAND_CACHE_SIZE) demands.clear();
+    demands.set(key, d);
+    return d;
   };
   const ownGain = spec.fixedGain;
   const fixedGain =

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { getTopology, topologies } from "../../src/topologies/registry.ts";
-import { GBW_DEMAND_A0, asBuiltPole } from "../../src/topologies/as-built.ts";
+import { GBW_DEMAND_A0, asBuiltPole, polynomialPole } from "../../src/topologies/as-built.ts";
 import type { StageTarget } from "../../src/topologies/types.ts";
 import { loadFixture } from "../helpers/fixtures.ts";
 import fc from "fast-check";
@@ -71,6 +71,33 @@ describe("Topology.gbwDemandHz over the realisable range", () => {
           expect(d).toBeGreaterThan(target.f0Hz);
         }),
         { numRuns: 12 },
+      );
+    });
+  }
+});
+
+describe("polynomialPole (the GBW demand's pole from the closed-form polynomials)", () => {
+  for (const topo of topologies.filter((t) => t.order === 2 && t.polynomialsInto !== undefined)) {
+    it(`${topo.id}: the same pole as Muller on the nodal determinant, to 1e-9, for random targets and op-amps`, () => {
+      fc.assert(
+        fc.property(realisableArb(topo), fc.double({ min: 0.3, max: 4, noNaN: true }), ({ target }, gbwLog) => {
+          const v = topo.design(target, {});
+          const ideal = topo.figures(v);
+          const opamp = { kind: "single-pole", a0: GBW_DEMAND_A0, gbwHz: target.f0Hz * 10 ** gbwLog * Math.max(1, target.q ?? 1) } as const;
+          const x = Float64Array.from(topo.componentNames, (n) => v[n]!);
+          const p = polynomialPole(topo.polynomialsInto!, topo.polynomialDegree!, x, opamp, 2, ideal);
+          let m: ReturnType<typeof asBuiltPole> | null = null;
+          try {
+            m = asBuiltPole(topo, v, opamp);
+          } catch {
+            m = null; // the nodal determinant's iteration found no pole near the ideal one
+          }
+          fc.pre(m !== null);
+          expect(p, `${topo.id} ${JSON.stringify(target)}`).not.toBeNull();
+          expect(Math.abs(p!.f0Hz / m.f0Hz - 1)).toBeLessThan(1e-9);
+          expect(Math.abs(p!.q! / m.q! - 1)).toBeLessThan(1e-9);
+        }),
+        { numRuns: 25 },
       );
     });
   }
