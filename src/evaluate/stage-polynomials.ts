@@ -180,7 +180,9 @@ export function compileStage(
   const half = points / 2;
   const into = topology.polynomialsInto;
   const atOutput = outputNode === "out";
-  const closed = atOutput && into !== undefined && (topology.polynomialDegree as number) < points && (opamp.kind !== "single-pole-rout" || opamp.routOhm === 0);
+  // the closed form's degree with this model: the ideal op-amp adds none (its top coefficients are 0)
+  const closedDegree = (topology.polynomialDegree as number) - (opamp.kind === "ideal" ? topology.opampCount : 0);
+  const closed = atOutput && into !== undefined && closedDegree < points && (opamp.kind !== "single-pole-rout" || opamp.routOhm === 0);
   return {
     componentNames: names,
     program,
