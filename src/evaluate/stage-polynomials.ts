@@ -165,10 +165,8 @@ export function compileStage(
   const componentOfElement = Int32Array.from(elements, (e) => names.indexOf(e.name));
   const n = program.n;
   const bound = degreeBound(program);
-  // at least one spare power above the bound, to measure each circle's noise; room for a closed form's
-  // full degree too (with the ideal op-amp its top coefficients are zero, below the nodal bound)
-  const closedDegree = outputNode === "out" && topology.polynomialsInto !== undefined ? (topology.polynomialDegree as number) : 0;
-  const points = 2 * Math.ceil((Math.max(bound, closedDegree) + 2) / 2);
+  // at least one spare power above the bound, to measure each circle's noise
+  const points = 2 * Math.ceil((bound + 2) / 2);
   const cosTable = new Float64Array(points * points);
   const sinTable = new Float64Array(points * points);
   for (let k = 0; k < points; k++) {
@@ -182,7 +180,9 @@ export function compileStage(
   const half = points / 2;
   const into = topology.polynomialsInto;
   const atOutput = outputNode === "out";
-  const closed = atOutput && into !== undefined && (topology.polynomialDegree as number) < points && (opamp.kind !== "single-pole-rout" || opamp.routOhm === 0);
+  // the closed form's degree with this model: the ideal op-amp adds none (its top coefficients are 0)
+  const closedDegree = (topology.polynomialDegree as number) - (opamp.kind === "ideal" ? topology.opampCount : 0);
+  const closed = atOutput && into !== undefined && closedDegree < points && (opamp.kind !== "single-pole-rout" || opamp.routOhm === 0);
   return {
     componentNames: names,
     program,

@@ -53,7 +53,8 @@ function targetKey(t: StageTarget): string {
  * The unchecked {@link PolynomialsInto} of a polynomial core: the op-amp
  * model turned into `1/A = g0 + g1 z`, the core run on zeroed scratch, the
  * result normalised (largest denominator coefficient 1) and written
- * descending, right-aligned.
+ * descending, right-aligned; declines (0) when a non-zero coefficient does
+ * not fit the arrays.
  */
 function polynomialsIntoOf(form: { readonly degree: number; readonly core: PolynomialCore }): PolynomialsInto {
   const d = form.degree;
@@ -81,6 +82,11 @@ function polynomialsIntoOf(form: { readonly degree: number; readonly core: Polyn
     for (let k = 0; k <= d; k++) {
       const n = (lowNum[k] as number) / big;
       if (!Number.isFinite(n)) return 0;
+      if (k > last) {
+        // arrays shorter than the degree (the ideal op-amp's top coefficients are 0): only zeros may be left out
+        if (n !== 0 || lowDen[k] !== 0) return 0;
+        continue;
+      }
       num[last - k] = n;
       den[last - k] = (lowDen[k] as number) / big;
     }

@@ -39,6 +39,27 @@
  * input sits at -v_out/A; the inverter and integrator are
  * `-Y1/(Y2 + (Y1 + Y2)/A)`, the loop is solved for v1, and the summer gives
  * `-sum(Gk vk)/(G9 + (sum(Gk) + G9)/A)`.
+ *
+ * As-built polynomials (closed form, derived here from those same nodal
+ * equations; `1/A = g0 + g1 z`, `z = s/w0`, Gk = 1/Rk):
+ *
+ *   D1 = G2 + s C1 + (G1 + G2 + G3 + s C1)/A,  D2 = s C2 + (G4 + s C2)/A,
+ *   D3 = G6 + (G5 + G6)/A,  P = D1 D2 D3 + G3 G4 G5   (degree 5)
+ *   v1 = -G1 D2 D3 / P,  v2 = G1 G4 D3 / P,  v3 = -G1 G4 G5 / P   (per volt in)
+ *   S = G9 + (G7 + G8 + G10 + G9)/A,  E = G7 D1 - G1 G8
+ *   H = -(E D2 D3 + G3 G4 G5 G7 + X) / (P S)   (degree 6)
+ *
+ * with X = G1 G4 G10 D3 (lowpass-notch), -G1 G4 G5 G10 (highpass-notch) or
+ * 0 (notch, allpass); the loop alone gives the lowpass v2 and bandpass v1.
+ * Every denominator coefficient is a sum of positive terms (a few ulps); the
+ * numerators subtract only where the circuit does (E's constant
+ * `G7 G2 - G1 G8 + G7 (G1 + G2 + G3) g0`, the s-term the notch cancels, and
+ * the highpass-notch's `G4 G5 (G3 G7 - G1 G10)`), each a single difference
+ * of products, so a numerator coefficient is within a few ulps of the sum
+ * of its terms' magnitudes. Checked symbolically against the full nodal
+ * equations by scripts/reference/topology_tow_thomas_polynomials.py and
+ * numerically (test/topologies/polynomials.test.ts, within 1e-9 dB and
+ * 1e-7 degree of nodal analysis).
  * GBW demand: computed numerically (f0 and Q within 1 %); common practice,
  * no source, asks for GBW >= 100 f0 for the integrators, with the damped
  * integrator's Q-enhancement the limiting effect at high Q.
@@ -156,6 +177,37 @@ const d2 = new Float64Array(3);
 const d3 = new Float64Array(2);
 const d23 = new Float64Array(4);
 const loop = new Float64Array(6);
+const eq = new Float64Array(3);
+const sq = new Float64Array(2);
+const ed23 = new Float64Array(6);
+
+/**
+ * The loop's factors into the module scratch: `d1`, `d2`, `d3` (D1, D2, D3
+ * below), `d23` = D2 D3 and `loop` = P = D1 D2 D3 + G3 G4 G5, ascending in
+ * z = s / w, for `1/A = g0 + g1 z`.
+ */
+function loopInto(x: Float64Array, g0: number, g1: number, w: number): void {
+  const G1 = 1 / (x[R1] as number);
+  const G2 = 1 / (x[R2] as number);
+  const G3 = 1 / (x[R3] as number);
+  const G4 = 1 / (x[R4] as number);
+  const G5 = 1 / (x[R5] as number);
+  const G6 = 1 / (x[R6] as number);
+  const c1 = (x[C1] as number) * w;
+  const c2 = (x[C2] as number) * w;
+  const s1 = G1 + G2 + G3;
+  d1[0] = G2 + s1 * g0;
+  d1[1] = c1 * (1 + g0) + s1 * g1;
+  d1[2] = c1 * g1;
+  d2[0] = G4 * g0;
+  d2[1] = c2 * (1 + g0) + G4 * g1;
+  d2[2] = c2 * g1;
+  d3[0] = G6 + (G5 + G6) * g0;
+  d3[1] = (G5 + G6) * g1;
+  multiplyInto(d2, d3, d23);
+  multiplyInto(d1, d23, loop);
+  loop[0] = (loop[0] as number) + G3 * G4 * G5;
+}
 
 /**
  * As-built polynomials of the loop alone (lowpass at v2, bandpass at v1),
@@ -171,33 +223,79 @@ const loop = new Float64Array(6);
  */
 function loopPolynomials(variant: "lowpass" | "bandpass"): PolynomialCore {
   return (x, g0, g1, w, num, den) => {
-    const G1 = 1 / (x[R1] as number);
-    const G2 = 1 / (x[R2] as number);
-    const G3 = 1 / (x[R3] as number);
-    const G4 = 1 / (x[R4] as number);
-    const G5 = 1 / (x[R5] as number);
-    const G6 = 1 / (x[R6] as number);
-    const c1 = (x[C1] as number) * w;
-    const c2 = (x[C2] as number) * w;
-    const s1 = G1 + G2 + G3;
-    d1[0] = G2 + s1 * g0;
-    d1[1] = c1 * (1 + g0) + s1 * g1;
-    d1[2] = c1 * g1;
-    d2[0] = G4 * g0;
-    d2[1] = c2 * (1 + g0) + G4 * g1;
-    d2[2] = c2 * g1;
-    d3[0] = G6 + (G5 + G6) * g0;
-    d3[1] = (G5 + G6) * g1;
-    multiplyInto(d2, d3, d23);
-    multiplyInto(d1, d23, loop);
-    loop[0] = (loop[0] as number) + G3 * G4 * G5;
+    loopInto(x, g0, g1, w);
     den.set(loop);
+    const G1 = 1 / (x[R1] as number);
     if (variant === "lowpass") {
+      const G4 = 1 / (x[R4] as number);
       num[0] = G1 * G4 * (d3[0] as number);
       num[1] = G1 * G4 * (d3[1] as number);
     } else {
       for (let k = 0; k < d23.length; k++) num[k] = -G1 * (d23[k] as number);
     }
+  };
+}
+
+/**
+ * As-built polynomials of the summed stages (lowpass-notch, highpass-notch,
+ * notch, allpass), derived here from the same nodal equations as
+ * {@link finiteForm} (and checked symbolically against the stage's full
+ * nodal equations by scripts/reference/topology_tow_thomas_polynomials.py).
+ * With the loop's D1, D2, D3 and P ({@link loopPolynomials}),
+ * `v1 = -G1 D2 D3 / P`, `v2 = G1 G4 D3 / P` and `v3 = -G1 G4 G5 / P` (per
+ * volt in), and the summer `out = -(G7 + G8 v1 + G10 vx) / S` with
+ *
+ *   S = G9 + (G7 + G8 + G10 + G9)/A      (G10 = 0 without R10)
+ *   E = G7 D1 - G1 G8 = (G7 G2 - G1 G8) + G7 s C1 + G7 (G1 + G2 + G3 + s C1)/A
+ *   N = -(E D2 D3 + G3 G4 G5 G7 + X),  H = out/vin = N / (P S)
+ *
+ * where X = G1 G4 G10 D3 (lowpass-notch, vx = v2), X = -G1 G4 G5 G10
+ * (highpass-notch, vx = v3; folded into the constant as
+ * `G4 G5 (G3 G7 - G1 G10)`) and X = 0 (notch, allpass). The denominator
+ * P S (degree 2 + one per op-amp = 6) is a product of sums of positive
+ * terms, so every coefficient carries a few ulps of relative error. The
+ * numerator subtracts only where the circuit itself does: the constant of E,
+ * `G7 (G2 + (G1 + G2 + G3) g0) - G1 G8` (zero for the ideal notch forms, whose
+ * s-term cancels; `-G7 G2` for the ideal allpass), and the highpass-notch's
+ * `G3 G7 - G1 G10` (w0^2 - wz^2); each is one difference of products
+ * rounded to a few ulps, so a numerator coefficient's error is a few ulps of
+ * the sum of its terms' magnitudes.
+ */
+function summedPolynomials(variant: "lowpass-notch" | "highpass-notch" | "notch" | "allpass"): PolynomialCore {
+  const withR10 = variant === "lowpass-notch" || variant === "highpass-notch";
+  const at = loopIndex(parts(variant), withR10 ? ["R7", "R8", "R9", "R10"] : ["R7", "R8", "R9"]).at as Readonly<Record<string, number>>;
+  const r7 = at["R7"] as number;
+  const r8 = at["R8"] as number;
+  const r9 = at["R9"] as number;
+  const r10 = withR10 ? (at["R10"] as number) : -1;
+  return (x, g0, g1, w, num, den) => {
+    loopInto(x, g0, g1, w);
+    const G1 = 1 / (x[R1] as number);
+    const G3 = 1 / (x[R3] as number);
+    const G4 = 1 / (x[R4] as number);
+    const G5 = 1 / (x[R5] as number);
+    const G7 = 1 / (x[r7] as number);
+    const G8 = 1 / (x[r8] as number);
+    const G9 = 1 / (x[r9] as number);
+    const G10 = withR10 ? 1 / (x[r10] as number) : 0;
+    const gs = G7 + G8 + G10 + G9;
+    sq[0] = G9 + gs * g0;
+    sq[1] = gs * g1;
+    multiplyInto(loop, sq, den);
+    eq[0] = G7 * (d1[0] as number) - G1 * G8;
+    eq[1] = G7 * (d1[1] as number);
+    eq[2] = G7 * (d1[2] as number);
+    multiplyInto(eq, d23, ed23);
+    let c0 = G3 * G4 * G5 * G7;
+    if (variant === "lowpass-notch") {
+      const k = G1 * G4 * G10;
+      c0 += k * (d3[0] as number);
+      ed23[1] = (ed23[1] as number) + k * (d3[1] as number);
+    } else if (variant === "highpass-notch") {
+      c0 = G4 * G5 * (G3 * G7 - G1 * G10);
+    }
+    ed23[0] = (ed23[0] as number) + c0;
+    for (let k = 0; k < ed23.length; k++) num[k] = -(ed23[k] as number);
   };
 }
 
@@ -283,8 +381,8 @@ function make(variant: Variant, id: string, name: string): Topology {
     ...figures(variant),
     closedForm: closedForm(variant),
     closedFormFinite: true,
-    // the loop alone: degree 2 + one per op-amp (the summed forms stay on the generic path)
-    ...(variant === "lowpass" || variant === "bandpass" ? { polynomials: { degree: 5, core: loopPolynomials(variant) } } : {}),
+    // degree 2 + one per op-amp: 5 for the loop alone, 6 with the summer
+    polynomials: variant === "lowpass" || variant === "bandpass" ? { degree: 5, core: loopPolynomials(variant) } : { degree: 6, core: summedPolynomials(variant) },
   });
 }
 

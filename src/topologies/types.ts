@@ -116,9 +116,12 @@ export interface AsBuiltPolynomials {
  * powers, right-aligned (the constant term last; leading entries zero), the
  * largest denominator coefficient 1. `values` holds the component values in
  * {@link Topology.componentNames} order; `num` and `den` need at least
- * {@link Topology.polynomialDegree} + 1 entries. Returns `scale`, or 0 when
- * it declines (an op-amp model with an output resistance, or coefficients
- * that overflow): then use nodal analysis. No checks, no allocation.
+ * {@link Topology.polynomialDegree} + 1 entries (with the ideal op-amp, whose
+ * top coefficients are 0, `polynomialDegree - opampCount + 1` suffice).
+ * Returns `scale`, or 0 when it declines (an op-amp model with an output
+ * resistance, coefficients that overflow, or a non-zero coefficient that
+ * does not fit the arrays): then use nodal analysis. No checks, no
+ * allocation.
  */
 export type PolynomialsInto = (values: Float64Array, opamp: OpAmpModel, scale: number, num: Float64Array, den: Float64Array) => number;
 

@@ -3,6 +3,7 @@ import { topologies } from "../../src/topologies/index.ts";
 import { topologyCore } from "../../src/topologies/define.ts";
 import { indexedFigures } from "../../src/topologies/spec.ts";
 import { mulberry32 } from "../../src/math/index.ts";
+import { sampleTarget } from "./arbitraries.ts";
 
 describe("topologyCore", () => {
   const rand = mulberry32(20261201);
@@ -42,4 +43,26 @@ describe("indexedFigures", () => {
       }),
     ).toThrow(/R9/);
   });
+});
+
+describe("polynomialsInto with arrays shorter than the degree", () => {
+  const ideal = { kind: "ideal" } as const;
+  const finite = { kind: "single-pole", a0: 1e5, gbwHz: 1e6 } as const;
+  for (const t of topologies.filter((tp) => tp.polynomialsInto !== undefined)) {
+    it(`${t.id}: fits the ideal op-amp's lower degree in polynomialDegree - opampCount + 1 entries and declines the single-pole model there`, () => {
+      const v = t.design(sampleTarget(t), {});
+      const x = Float64Array.from(t.componentNames, (n) => v[n]!);
+      const scale = 2 * Math.PI * t.figures(v).f0Hz;
+      const full = t.polynomialDegree! + 1;
+      const short = full - t.opampCount;
+      const wide = { num: new Float64Array(full), den: new Float64Array(full) };
+      const narrow = { num: new Float64Array(short), den: new Float64Array(short) };
+      expect(t.polynomialsInto!(x, ideal, scale, wide.num, wide.den)).toBe(scale);
+      expect(t.polynomialsInto!(x, ideal, scale, narrow.num, narrow.den)).toBe(scale);
+      expect(Array.from(narrow.num)).toEqual(Array.from(wide.num.subarray(t.opampCount)));
+      expect(Array.from(narrow.den)).toEqual(Array.from(wide.den.subarray(t.opampCount)));
+      expect(Array.from(wide.den.subarray(0, t.opampCount)).every((c) => c === 0)).toBe(true);
+      expect(t.polynomialsInto!(x, finite, scale, narrow.num, narrow.den)).toBe(0);
+    });
+  }
 });
