@@ -4,7 +4,9 @@
 // (`monteCarloParallel`, filterwright/node). The bench runner times
 // synchronous calls only, so this script times the asynchronous run itself:
 // the three take turns for `rounds` rounds and the median of each is
-// printed, with the speed-up. Every parallel result is checked to be the
+// printed, with the speed-up and the cores the run had (the process's CPU
+// time over the wall-clock time: on a busy machine the second worker may
+// not get a core of its own). Every parallel result is checked to be the
 // main thread's. Prints the figures; nothing is written (docs/benchmarks.md
 // records them by hand).
 import { dirname, join } from "node:path";
@@ -33,12 +35,18 @@ const cases = [
   { name: "monteCarloParallel, threads 2", run: () => monteCarloParallel(result, { runs: boards, threads: 2 }) },
 ];
 const seconds = cases.map(() => []);
+// the process's CPU time (every thread) over the wall-clock time: the cores the run actually had
+const cores = cases.map(() => []);
 let expected;
 for (let r = 0; r < rounds; r++) {
   for (const [i, c] of cases.entries()) {
     const t0 = performance.now();
+    const cpu0 = process.cpuUsage();
     const out = JSON.stringify(await c.run());
-    seconds[i].push((performance.now() - t0) / 1000);
+    const wall = (performance.now() - t0) / 1000;
+    const cpu = process.cpuUsage(cpu0);
+    seconds[i].push(wall);
+    cores[i].push((cpu.user + cpu.system) / 1e6 / wall);
     expected ??= out;
     if (out !== expected) throw new Error(`${c.name}: a different result from the main thread's`);
   }
@@ -47,6 +55,8 @@ const median = (xs) => [...xs].sort((a, b) => a - b)[xs.length >> 1];
 const m = seconds.map(median);
 console.log(`${boards} boards, ${rounds} rounds, ${cpus().length} cores (${cpus()[0]?.model ?? "unknown CPU"}), Node ${process.version}; median wall-clock:`);
 cases.forEach((c, i) => {
-  console.log(`  ${c.name.padEnd(32)} ${m[i].toFixed(3)} s  (${((m[i] / boards) * 1e6).toFixed(1)} µs per board; all: ${seconds[i].map((s) => s.toFixed(2)).join(", ")})`);
+  console.log(
+    `  ${c.name.padEnd(32)} ${m[i].toFixed(3)} s  (${((m[i] / boards) * 1e6).toFixed(1)} µs per board; cores used ${median(cores[i]).toFixed(2)}; all: ${seconds[i].map((s) => s.toFixed(2)).join(", ")})`,
+  );
 });
 console.log(`  speed-up, threads 1 -> 2: ${(m[1] / m[2]).toFixed(2)}x; main thread -> threads 2: ${(m[0] / m[2]).toFixed(2)}x`);
