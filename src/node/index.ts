@@ -12,6 +12,15 @@
  * board the earliest with the smallest margin, as one run picks it) and
  * summarises them with `monteCarlo`'s own code.
  *
+ * One limit of "bit for bit", on stages without closed-form polynomials
+ * only: every worker makes the generic path's circle plan at the nominal
+ * values, as one run does at its start, but one run makes it again from a
+ * board whose sample point falls on a pole (an LU pivot at most 2^-46 of its
+ * column), and the boards after it in that run reuse that plan; the same
+ * boards in a worker that did not see that board keep the nominal plan. Their
+ * coefficients are the same unless the two plans differ in a circle that
+ * supplies a coefficient, so at most the last bits could move.
+ *
  * @module
  */
 import { availableParallelism } from "node:os";
