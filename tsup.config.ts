@@ -15,6 +15,14 @@ export const layers = [
   "report",
 ] as const;
 
+/**
+ * Node-only entries, published as subpath exports like the layers but
+ * importing node: built-ins (kept external): `filterwright/node` and the
+ * worker thread it starts (`node/worker`, reached by its path beside it, not
+ * exported).
+ */
+export const nodeEntries = { "node/index": "src/node/index.ts", "node/worker": "src/node/worker.ts" } as const;
+
 /** Layers built into dist/ for the benchmarks (bench/*.bench.mjs) but not (yet) published as subpath exports. */
 export const internalLayers = ["evaluate"] as const;
 
@@ -23,7 +31,10 @@ export default defineConfig([
     entry: {
       index: "src/index.ts",
       ...Object.fromEntries([...layers, ...internalLayers].map((l) => [`${l}/index`, `src/${l}/index.ts`])),
+      // in this build (not one of its own) so that it shares the chunks, and so the error classes, of the other entries
+      ...nodeEntries,
     },
+    external: [/^node:/],
     format: ["esm", "cjs"],
     dts: true,
     sourcemap: true,

@@ -21,7 +21,8 @@ import type { DesignResult } from "../design/index.ts";
 import { builtStages } from "../design/response.ts";
 import { maskPlan, spanRadS } from "../design/verify.ts";
 import { requireDesignResult } from "../design/check.ts";
-import { runBoards, type BoardStage, type PartDistribution } from "../evaluate/boards.ts";
+import { runBoards, type BoardRun, type BoardStage, type PartDistribution } from "../evaluate/boards.ts";
+import type { MaskPlan } from "../evaluate/mask.ts";
 import { compileStage } from "../evaluate/stage-polynomials.ts";
 import { TWO_PI } from "../units/constants.ts";
 
@@ -103,23 +104,32 @@ function spread(xs: Float64Array): Spread {
   return { min: s[0] as number, median, max: s[s.length - 1] as number };
 }
 
+/** The options of a Monte Carlo run, checked, with their defaults filled in. */
+export interface MonteCarloSettings {
+  /** Boards. */
+  readonly runs: number;
+  /** Seed. */
+  readonly seed: number;
+  /** Every resistor's tolerance, when the caller fixed one. */
+  readonly resistorTolerance: number | undefined;
+  /** Every capacitor's tolerance, when the caller fixed one. */
+  readonly capacitorTolerance: number | undefined;
+  /** Part spread. */
+  readonly distribution: PartDistribution;
+}
+
 /**
- * Simulate boards built with parts spread within their tolerances and report
- * the yield against the design's mask.
+ * Check a Monte Carlo call's design and options (shared by `monteCarlo` and
+ * the parallel run of `filterwright/node`, which names itself in `fn`).
  *
- * @param result - a design
- * @param options - runs, seed and tolerances
- * @returns the yield and the spread of the mask figures
- * @throws `InvalidArgumentError` for a non-integer or out-of-range `runs`/`seed`, or a tolerance outside [0, 0.5]
- * @example
- * ```ts
- * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
- * monteCarlo(designFilter(spec), { runs: 500, capacitorTolerance: 0.01 }).runs; //=> 500
- * ```
+ * @param fn - the public function, for the errors
+ * @param result - the design
+ * @param options - the options as given
+ * @returns the settings
+ * @throws `InvalidArgumentError` as {@link monteCarlo} documents
  */
-export function monteCarlo(result: DesignResult, options?: MonteCarloOptions): MonteCarloResult {
-  requireDesignResult("monteCarlo", result);
-  const fn = "monteCarlo";
+export function monteCarloSettings(fn: string, result: DesignResult, options: unknown): MonteCarloSettings {
+  requireDesignResult(fn, result);
   const o = requireOptions(fn, "options", options);
   const runs = o["runs"] === undefined ? 200 : requireInteger(fn, "options.runs", o["runs"], { min: 1, max: 100000 });
   const seed = o["seed"] === undefined ? 1 : requireInteger(fn, "options.seed", o["seed"], { min: -(2 ** 31), max: 2 ** 32 - 1 });
@@ -136,6 +146,31 @@ export function monteCarlo(result: DesignResult, options?: MonteCarloOptions): M
   }
   const distribution =
     o["distribution"] === undefined ? "uniform" : requireOneOf(fn, "options.distribution", o["distribution"], ["uniform", "normal"] as const);
+  return { runs, seed, resistorTolerance: rt, capacitorTolerance: ct, distribution };
+}
+
+/** A design's boards as the board engine takes them. */
+export interface MonteCarloStages {
+  /** The mask. */
+  readonly plan: MaskPlan;
+  /** The band edges' span, rad/s, the stages were compiled for. */
+  readonly span: readonly [number, number];
+  /** Each stage: compiled, nominal values, tolerances and scale. */
+  readonly stages: readonly BoardStage[];
+}
+
+/**
+ * The mask and the board stages of a checked design: each stage compiled with
+ * the design's op-amp model over the mask's span, its nominal values, each
+ * part's tolerance (the caller's fixed one, else the part's own, else the
+ * spec's) and its scale (the stage's ideal f0, rad/s).
+ *
+ * @param result - a checked design
+ * @param settings - from {@link monteCarloSettings}
+ * @returns the plan, the span and the stages
+ */
+export function monteCarloStages(result: DesignResult, settings: MonteCarloSettings): MonteCarloStages {
+  const { resistorTolerance: rt, capacitorTolerance: ct } = settings;
   const plan = maskPlan(result.spec);
   const span = spanRadS(plan.bands);
   const opamp = result.spec.opamp;
@@ -154,7 +189,26 @@ export function monteCarlo(result: DesignResult, options?: MonteCarloOptions): M
       radius: TWO_PI * s.topology.figures(s.values).f0Hz,
     };
   });
-  const run = runBoards(stages, plan, { boards: runs, seed, distribution });
+  return { plan, span, stages };
+}
+
+/**
+ * The result of a Monte Carlo run from its boards: the yield, the tolerances
+ * used, the spread of each figure and the worst board by designator.
+ *
+ * @param result - the design
+ * @param stages - its board stages ({@link monteCarloStages})
+ * @param settings - the run's settings
+ * @param run - the boards, every one of `settings.runs` from board 0
+ * @returns the summary
+ */
+export function monteCarloSummary(
+  result: DesignResult,
+  stages: readonly BoardStage[],
+  settings: MonteCarloSettings,
+  run: BoardRun,
+): MonteCarloResult {
+  const { runs, resistorTolerance: rt, capacitorTolerance: ct } = settings;
   const worstBoard: Record<string, number> = {};
   result.stages.forEach((st, k) => {
     const names = (stages[k] as BoardStage).compiled.componentNames;
@@ -177,4 +231,25 @@ export function monteCarlo(result: DesignResult, options?: MonteCarloOptions): M
     gainDb: spread(run.gainDb),
     worstBoard,
   };
+}
+
+/**
+ * Simulate boards built with parts spread within their tolerances and report
+ * the yield against the design's mask.
+ *
+ * @param result - a design
+ * @param options - runs, seed and tolerances
+ * @returns the yield and the spread of the mask figures
+ * @throws `InvalidArgumentError` for a non-integer or out-of-range `runs`/`seed`, or a tolerance outside [0, 0.5]
+ * @example
+ * ```ts
+ * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
+ * monteCarlo(designFilter(spec), { runs: 500, capacitorTolerance: 0.01 }).runs; //=> 500
+ * ```
+ */
+export function monteCarlo(result: DesignResult, options?: MonteCarloOptions): MonteCarloResult {
+  const settings = monteCarloSettings("monteCarlo", result, options);
+  const { plan, stages } = monteCarloStages(result, settings);
+  const run = runBoards(stages, plan, { boards: settings.runs, seed: settings.seed, distribution: settings.distribution });
+  return monteCarloSummary(result, stages, settings, run);
 }

@@ -89,6 +89,8 @@ export interface BoardRun {
   readonly gainDb: Float64Array;
   /** Number of the board with the smallest margin (an unstable or singular one first), counted from board 0 of the seed. */
   readonly worstBoard: number;
+  /** That board's margin, dB: -Infinity for an unstable or singular board, +Infinity when no board had a margin (internal, for {@link mergeBoardRuns}). */
+  readonly worstMarginDb: number;
   /** That board's component values, per stage in component order. */
   readonly worstValues: readonly Float64Array[];
 }
@@ -226,5 +228,45 @@ export function runBoards(stages: readonly BoardStage[], plan: MaskPlan, options
       }
     }
   }
-  return { boards, passed, unstable, ...out, worstBoard, worstValues };
+  return { boards, passed, unstable, ...out, worstBoard, worstMarginDb: worstMargin, worstValues };
+}
+
+/**
+ * One run from runs of consecutive board ranges (the first from board 0 or
+ * wherever the whole run starts, each next starting where the one before
+ * ended, as {@link BoardRunOptions.firstBoard} continues a run): counts
+ * summed, per-board figures concatenated, and the worst board the one
+ * {@link runBoards} would pick over the whole range, the earliest board with
+ * the smallest margin (an unstable or singular board's -Infinity first).
+ * The result is the single run's, bit for bit.
+ *
+ * @param runs - the ranges' runs, in board order (at least one)
+ * @returns the whole run
+ */
+export function mergeBoardRuns(runs: readonly BoardRun[]): BoardRun {
+  const boards = runs.reduce((n, r) => n + r.boards, 0);
+  const joined = (pick: (r: BoardRun) => Float64Array): Float64Array => {
+    const out = new Float64Array(boards);
+    let at = 0;
+    for (const r of runs) {
+      out.set(pick(r), at);
+      at += r.boards;
+    }
+    return out;
+  };
+  // a later range takes over only with a strictly smaller margin, as a later board does within a run
+  let worst = runs[0] as BoardRun;
+  for (const r of runs) if (r.worstMarginDb < worst.worstMarginDb) worst = r;
+  return {
+    boards,
+    passed: runs.reduce((n, r) => n + r.passed, 0),
+    unstable: runs.reduce((n, r) => n + r.unstable, 0),
+    marginDb: joined((r) => r.marginDb),
+    passbandLossDb: joined((r) => r.passbandLossDb),
+    stopbandAttenuationDb: joined((r) => r.stopbandAttenuationDb),
+    gainDb: joined((r) => r.gainDb),
+    worstBoard: worst.worstBoard,
+    worstMarginDb: worst.worstMarginDb,
+    worstValues: worst.worstValues,
+  };
 }

@@ -2,7 +2,8 @@ import { describe, expect, it } from "vitest";
 import { designFilter } from "../../src/design/index.ts";
 import { builtStages } from "../../src/design/response.ts";
 import { checkMask, maskPlan, spanRadS } from "../../src/design/verify.ts";
-import { BATCH, runBoards, type BoardStage } from "../../src/evaluate/boards.ts";
+import { BATCH, mergeBoardRuns, runBoards, type BoardRun, type BoardStage } from "../../src/evaluate/boards.ts";
+import { expectSameBits } from "../helpers/same-bits.ts";
 import { compileStage } from "../../src/evaluate/stage-polynomials.ts";
 
 const TWO_PI = 2 * Math.PI;
@@ -87,5 +88,63 @@ describe("runBoards", () => {
     const ratio = sd(n.gainDb) / sd(u.gainDb);
     expect(ratio).toBeGreaterThan(0.45);
     expect(ratio).toBeLessThan(0.72);
+  });
+});
+
+describe("mergeBoardRuns", () => {
+  it("joins runs of consecutive whole batches into the one run over them all, bit for bit", () => {
+    const stages = boardStages(0.01, 0.05);
+    const boards = 3 * BATCH + 41;
+    const whole = runBoards(stages, plan, { boards, seed: 21, distribution: "normal" });
+    const piece = (from: number, to: number): BoardRun =>
+      runBoards(stages, plan, { boards: to - from, seed: 21, distribution: "normal", firstBoard: from });
+    expectSameBits(mergeBoardRuns([piece(0, BATCH), piece(BATCH, boards)]), whole);
+    expectSameBits(mergeBoardRuns([piece(0, BATCH), piece(BATCH, 3 * BATCH), piece(3 * BATCH, boards)]), whole);
+    expectSameBits(mergeBoardRuns([whole]), whole);
+  });
+
+  /** A made-up run of `margins.length` boards from `first` (NaN: an unstable board), with the worst board as runBoards picks it. */
+  function made(first: number, margins: readonly number[]): BoardRun {
+    let worst = 0;
+    let worstMargin = Infinity;
+    margins.forEach((m, k) => {
+      const x = Number.isNaN(m) ? -Infinity : m;
+      if (x < worstMargin) {
+        worstMargin = x;
+        worst = first + k;
+      }
+    });
+    const none = worstMargin === Infinity;
+    return {
+      boards: margins.length,
+      passed: margins.filter((m) => m >= 0).length,
+      unstable: margins.filter((m) => Number.isNaN(m)).length,
+      marginDb: Float64Array.from(margins),
+      passbandLossDb: Float64Array.from(margins, (m) => -m),
+      stopbandAttenuationDb: Float64Array.from(margins, (m) => 2 * m),
+      gainDb: Float64Array.from(margins, (m) => 3 * m),
+      worstBoard: none ? 0 : worst,
+      worstMarginDb: worstMargin,
+      worstValues: [Float64Array.of(none ? 0 : worst)],
+    };
+  }
+
+  it.each([
+    ["a tie across runs goes to the earlier board", [[0.5, -1, 2], [-1, 3]], 1],
+    ["a smaller margin in a later run wins", [[0.5, -1, 2], [3, -1.5]], 4],
+    ["the first unstable board wins over any margin", [[-3, 1], [NaN, -9], [NaN]], 2],
+    ["an unstable board in the first run stays worst", [[NaN], [-9, NaN]], 0],
+    ["a run without a worst board (+Infinity) gives way to one with a margin", [[], [1, -2]], 1],
+  ] as [string, number[][], number][])("%s", (_what, parts, expected) => {
+    let first = 0;
+    const runs = parts.map((m) => {
+      const r = made(first, m);
+      first += m.length;
+      return r;
+    });
+    const merged = mergeBoardRuns(runs);
+    const single = made(0, parts.flat());
+    expect(merged.worstBoard).toBe(expected);
+    expectSameBits(merged, single);
   });
 });
