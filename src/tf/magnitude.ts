@@ -18,8 +18,8 @@
  *
  * @module
  */
-import { isCascade, requireGrid, requireSystem } from "./check.ts";
-import { checkNoAxisPoleOf, packCascade, packZpk, type PackedCascade, type PackedFactors, type PackedZpk } from "./response.ts";
+import { isCascade, requireGrid } from "./check.ts";
+import { packCascade, packSystem, packZpk, rejectAxisPoles, type PackedCascade, type PackedFactors, type PackedZpk } from "./response.ts";
 import { fromSectionsUnchecked } from "./sections.ts";
 import type { SectionCascade, Zpk } from "./types.ts";
 
@@ -478,8 +478,11 @@ export function magnitudeDbUnchecked(system: Zpk | SectionCascade, w: Float64Arr
  */
 export function magnitudeDb(system: Zpk | SectionCascade, w: Float64Array): Float64Array {
   const fn = "magnitudeDb";
-  requireSystem(fn, "system", system);
+  const p = packSystem(fn, system);
   const grid = requireGrid(fn, "w", w);
-  checkNoAxisPoleOf(fn, system, grid);
-  return magnitudeDbUnchecked(system, grid);
+  rejectAxisPoles(fn, p, grid);
+  const out = new Float64Array(grid.length);
+  if ("cascade" in p) cascadeMagnitudeDbInto(p, grid, out);
+  else zpkMagnitudeDbInto(p, grid, out);
+  return out;
 }

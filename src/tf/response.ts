@@ -55,21 +55,18 @@ export function checkNoAxisPole(fn: string, poles: readonly Complex[], w: Float6
 }
 
 /**
- * {@link checkNoAxisPole} for a zpk or a cascade. A cascade's jw-axis poles
- * are read from its sections' denominators without forming the zpk: the same
- * root formulas as `fromSections` (sections.ts, quadRoots), so the same
- * values, in the same order.
+ * Imaginary parts of a cascade's jw-axis poles, read from its sections'
+ * denominators without forming the zpk: the same root formulas as
+ * `fromSections` (sections.ts, quadRoots), so the same values, in the same
+ * order, as {@link checkNoAxisPole} on `fromSections(cascade).poles` would scan.
  */
-export function checkNoAxisPoleOf(fn: string, system: Zpk | SectionCascade, w: Float64Array): void {
-  if (!isCascade(system)) {
-    checkNoAxisPole(fn, system.poles, w);
-    return;
-  }
-  for (const sec of system.sections) {
+function cascadeAxisPoles(cascade: SectionCascade): Float64Array {
+  const out: number[] = [];
+  for (const sec of cascade.sections) {
     const [a2, a1, a0] = sec.den;
     if (a2 === 0) {
       // one root -a0/a1 (none when a1 is 0 too)
-      if (a1 !== 0 && -a0 / a1 === 0) rejectAxisPole(fn, 0, w);
+      if (a1 !== 0 && -a0 / a1 === 0) out.push(0);
       continue;
     }
     const h = a1 / (2 * a2);
@@ -77,17 +74,24 @@ export function checkNoAxisPoleOf(fn: string, system: Zpk | SectionCascade, w: F
     const disc = h * h - c;
     if (disc < 0) {
       // the pair -h +- j sqrt(-disc)
-      if (h === 0) {
-        const im = Math.sqrt(-disc);
-        rejectAxisPole(fn, im, w);
-        rejectAxisPole(fn, -im, w);
-      }
-    } else if (c === 0) rejectAxisPole(fn, 0, w); // roots 0 and -2h
+      if (h === 0) out.push(Math.sqrt(-disc), -Math.sqrt(-disc));
+    } else if (c === 0) out.push(0); // roots 0 and -2h
     else {
       const r1 = -(h + (h >= 0 ? 1 : -1) * Math.sqrt(disc));
-      if (r1 === 0 || c / r1 === 0) rejectAxisPole(fn, 0, w);
+      if (r1 === 0 || c / r1 === 0) out.push(0);
     }
   }
+  return Float64Array.from(out);
+}
+
+/** Imaginary parts of the jw-axis poles (Re = 0) of a pole list, in order. */
+function zpkAxisPoles(poles: readonly Complex[]): Float64Array {
+  let m = 0;
+  for (const p of poles) if (p.re === 0) m++;
+  const out = new Float64Array(m);
+  m = 0;
+  for (const p of poles) if (p.re === 0) out[m++] = p.im;
+  return out;
 }
 
 /**
@@ -101,18 +105,23 @@ export interface PackedFactors {
   readonly singles: Float64Array;
 }
 
+/** Scratch of {@link pack}: which roots are already taken (grown when a list is longer). */
+let taken = new Uint8Array(64);
+
 /**
  * Pack the roots: exact conjugate pairs (equal real parts, opposite
  * imaginary parts) become one quadratic factor each, in the order of their
- * first member; the other roots stay single.
+ * first member; the other roots stay single. One buffer holds both arrays.
  */
 export function pack(roots: readonly Complex[]): PackedFactors {
   const n = roots.length;
-  const used = new Uint8Array(n);
-  const pairs = new Float64Array(3 * (n >> 1));
-  const singles = new Float64Array(2 * n);
+  if (taken.length < n) taken = new Uint8Array(2 * n);
+  const used = taken;
+  used.fill(0, 0, n);
+  const pairsEnd = 3 * (n >> 1);
+  const buf = new Float64Array(pairsEnd + 2 * n);
   let np = 0;
-  let ns = 0;
+  let ns = pairsEnd;
   for (let i = 0; i < n; i++) {
     if (used[i] === 1) continue;
     used[i] = 1;
@@ -123,16 +132,16 @@ export function pack(roots: readonly Complex[]): PackedFactors {
       while (j < n && !(used[j] === 0 && (roots[j] as Complex).re === r.re && (roots[j] as Complex).im === -r.im)) j++;
       if (j < n) {
         used[j] = 1;
-        pairs[np++] = a * a;
-        pairs[np++] = 2 * a;
-        pairs[np++] = Math.abs(r.im);
+        buf[np++] = a * a;
+        buf[np++] = 2 * a;
+        buf[np++] = Math.abs(r.im);
         continue;
       }
     }
-    singles[ns++] = a;
-    singles[ns++] = r.im;
+    buf[ns++] = a;
+    buf[ns++] = r.im;
   }
-  return { pairs: pairs.subarray(0, np), singles: singles.subarray(0, ns) };
+  return { pairs: buf.subarray(0, np), singles: buf.subarray(pairsEnd, ns) };
 }
 
 /** A zpk with its factors packed once (for the grid loop, and for repeated one-point evaluation: {@link packedMagnitudeAt}). */
@@ -143,11 +152,13 @@ export interface PackedZpk {
   readonly zeros: PackedFactors;
   /** Packed poles. */
   readonly poles: PackedFactors;
+  /** Imaginary parts of the poles on the jw axis, in the order of `system.poles` (see {@link rejectAxisPoles}). */
+  readonly axisPoles: Float64Array;
 }
 
 /** Pack a zpk (internal core, no checks). */
 export function packZpk(system: Zpk): PackedZpk {
-  return { system, zeros: pack(system.zeros), poles: pack(system.poles) };
+  return { system, zeros: pack(system.zeros), poles: pack(system.poles), axisPoles: zpkAxisPoles(system.poles) };
 }
 
 /** Scratch written by {@link productsAt1} and {@link sectionProductsAt1}: `[re, im]` of one product. */
@@ -465,6 +476,8 @@ export interface PackedCascade {
   readonly num: Float64Array;
   /** The cascade gain times the folded constant numerators. */
   readonly gain: number;
+  /** Imaginary parts of the poles on the jw axis, in the order of `fromSections(cascade).poles` (see {@link rejectAxisPoles}). */
+  readonly axisPoles: Float64Array;
 }
 
 /** Pack a cascade (internal core, no checks). */
@@ -488,10 +501,62 @@ export function packCascade(cascade: SectionCascade): PackedCascade {
       nr += 3;
     }
   });
+  const axisPoles = cascadeAxisPoles(cascade);
   if (Number.isFinite(gain) && (exactZero || (Math.abs(gain) > SAFE_LO && Math.abs(gain) < SAFE_HI))) {
-    return { cascade, den, num: rest.subarray(0, nr), gain };
+    return { cascade, den, num: rest.subarray(0, nr), gain, axisPoles };
   }
-  return { cascade, den, num: all, gain: cascade.gain };
+  return { cascade, den, num: all, gain: cascade.gain, axisPoles };
+}
+
+/** A validated system, packed: a zpk or a cascade. */
+export type PackedSystem = PackedZpk | PackedCascade;
+
+/**
+ * Packed forms of the deeply frozen systems already validated (zpk() and
+ * toSections() return such systems): their values cannot change, so a
+ * repeated call (one-point evaluations in a loop, say) neither validates nor
+ * packs them again. Systems that are not frozen are validated and packed on
+ * every call. Entries go with their systems (weak keys).
+ */
+const packedSystems = new WeakMap<object, PackedSystem>();
+
+/** Whether the system and every array and value inside it are frozen (its numbers then cannot change). */
+function deeplyFrozen(system: Zpk | SectionCascade): boolean {
+  if (!Object.isFrozen(system)) return false;
+  if (isCascade(system)) {
+    if (!Object.isFrozen(system.sections)) return false;
+    for (const sec of system.sections) {
+      if (!Object.isFrozen(sec) || !Object.isFrozen(sec.num) || !Object.isFrozen(sec.den)) return false;
+    }
+    return true;
+  }
+  if (!Object.isFrozen(system.zeros) || !Object.isFrozen(system.poles)) return false;
+  for (const z of system.zeros) if (!Object.isFrozen(z)) return false;
+  for (const p of system.poles) if (!Object.isFrozen(p)) return false;
+  return true;
+}
+
+/**
+ * Validate (as `requireSystem(fn, "system", ...)`) and pack a system for the
+ * grid loops; a deeply frozen system is validated and packed once.
+ *
+ * @throws {@link InvalidArgumentError} when the system is malformed
+ */
+export function packSystem(fn: string, system: unknown): PackedSystem {
+  if (typeof system === "object" && system !== null) {
+    const hit = packedSystems.get(system);
+    if (hit !== undefined) return hit;
+  }
+  const s = requireSystem(fn, "system", system);
+  const packed = isCascade(s) ? packCascade(s) : packZpk(s);
+  if (deeplyFrozen(s)) packedSystems.set(s, packed);
+  return packed;
+}
+
+/** Reject a grid point that lands exactly on one of the packed system's jw-axis poles (as {@link checkNoAxisPole}). */
+export function rejectAxisPoles(fn: string, p: PackedSystem, w: Float64Array): void {
+  const axis = p.axisPoles;
+  for (let i = 0; i < axis.length; i++) rejectAxisPole(fn, axis[i] as number, w);
 }
 
 /**
@@ -709,14 +774,12 @@ function cascadePointSlow(cascade: SectionCascade, wk: number, k: number, outRe:
  */
 export function frequencyResponse(system: Zpk | SectionCascade, w: Float64Array): ComplexResponse {
   const fn = "frequencyResponse";
-  requireSystem(fn, "system", system);
+  const p = packSystem(fn, system);
   const grid = requireGrid(fn, "w", w);
-  checkNoAxisPoleOf(fn, system, grid);
+  rejectAxisPoles(fn, p, grid);
   const re = new Float64Array(grid.length);
   const im = new Float64Array(grid.length);
-  const bad = isCascade(system)
-    ? cascadeResponseInto(packCascade(system), grid, re, im)
-    : zpkResponseInto(packZpk(system), grid, re, im);
+  const bad = "cascade" in p ? cascadeResponseInto(p, grid, re, im) : zpkResponseInto(p, grid, re, im);
   if (bad >= 0) {
     throw new InvalidArgumentError({
       fn,
