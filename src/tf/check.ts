@@ -242,6 +242,28 @@ function allFinite(a: Float64Array): boolean {
 }
 
 /**
+ * Largest |w| on the grid: 0 for an empty grid, Infinity or NaN when a value
+ * is not finite (Math.max propagates NaN), so a finite answer also proves
+ * the grid finite.
+ */
+export function maxAbs(w: Float64Array): number {
+  let m0 = 0;
+  let m1 = 0;
+  let m2 = 0;
+  let m3 = 0;
+  const n = w.length;
+  const head = n & 3;
+  for (let i = 0; i < head; i++) m0 = Math.max(m0, Math.abs(w[i] as number));
+  for (let i = head; i < n; i += 4) {
+    m0 = Math.max(m0, Math.abs(w[i] as number));
+    m1 = Math.max(m1, Math.abs(w[i + 1] as number));
+    m2 = Math.max(m2, Math.abs(w[i + 2] as number));
+    m3 = Math.max(m3, Math.abs(w[i + 3] as number));
+  }
+  return Math.max(m0, m1, m2, m3);
+}
+
+/**
  * Require a grid: a Float64Array (or number array) of finite values.
  *
  * @param fn - public function name

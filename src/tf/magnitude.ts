@@ -32,7 +32,7 @@
  *
  * @module
  */
-import { isCascade, requireGrid } from "./check.ts";
+import { isCascade, maxAbs, requireGrid } from "./check.ts";
 import { packCascade, packSystem, packZpk, rejectAxisPoles, type PackedCascade, type PackedFactors, type PackedZpk } from "./response.ts";
 import { fromSectionsUnchecked } from "./sections.ts";
 import type { SectionCascade, Zpk } from "./types.ts";
@@ -133,10 +133,14 @@ function squaredProductAt1(f: PackedFactors, wk: number): void {
   sq[1] = lo;
 }
 
-/** `gainDb + 10 log10 q`, clamped to the floor (NaN too). */
+/**
+ * `gainDb + 10 log10 q` for a normal, finite `q`, clamped to the floor.
+ * (`Math.max`, not a conditional with the constant: the conditional made the
+ * compiler box every value. The sum is never NaN here: the gain's dB value is
+ * finite or -Infinity, the logarithm finite.)
+ */
 function dbOf(gainDb: number, q: number): number {
-  const v = gainDb + DB10 * Math.log(q);
-  return v >= MAGNITUDE_FLOOR_DB ? v : MAGNITUDE_FLOOR_DB;
+  return Math.max(gainDb + DB10 * Math.log(q), MAGNITUDE_FLOOR_DB);
 }
 
 /** One grid point of a zpk on its own: the quotient of squared products, else the per-factor sum. */
@@ -152,24 +156,6 @@ function zpkDbPoint(p: PackedZpk, gainDb: number, wk: number): number {
   if (numLo >= MIN_NORMAL && (sq[1] as number) >= MIN_NORMAL && q >= MIN_NORMAL && q < Infinity) return dbOf(gainDb, q);
   const v = zpkDbByFactor(p.system, wk);
   return v >= MAGNITUDE_FLOOR_DB ? v : MAGNITUDE_FLOOR_DB;
-}
-
-/** Largest |w| on the grid (0 for an empty grid, NaN if a value is NaN). */
-function maxAbs(w: Float64Array): number {
-  let m0 = 0;
-  let m1 = 0;
-  let m2 = 0;
-  let m3 = 0;
-  const n = w.length;
-  const head = n & 3;
-  for (let i = 0; i < head; i++) m0 = Math.max(m0, Math.abs(w[i] as number));
-  for (let i = head; i < n; i += 4) {
-    m0 = Math.max(m0, Math.abs(w[i] as number));
-    m1 = Math.max(m1, Math.abs(w[i + 1] as number));
-    m2 = Math.max(m2, Math.abs(w[i + 2] as number));
-    m3 = Math.max(m3, Math.abs(w[i + 3] as number));
-  }
-  return Math.max(m0, m1, m2, m3);
 }
 
 /**
@@ -274,8 +260,8 @@ function cascadeProductsInRange(p: PackedCascade, wmax: number): boolean {
  * when any term, partial product or quotient of the four leaves the normal
  * range, the four are redone one by one.
  */
-function zpkMagnitudeDbInto(p: PackedZpk, w: Float64Array, out: Float64Array): void {
-  const track = !zpkProductsInRange(p, maxAbs(w));
+function zpkMagnitudeDbInto(p: PackedZpk, w: Float64Array, wmax: number, out: Float64Array): void {
+  const track = !zpkProductsInRange(p, wmax);
   const n = w.length;
   const gainDb = DB20 * Math.log(Math.abs(p.system.gain));
   const dp = p.poles.pairs;
@@ -415,17 +401,17 @@ function zpkMagnitudeDbInto(p: PackedZpk, w: Float64Array, out: Float64Array): v
     const q1 = y1 / x1;
     const q2 = y2 / x2;
     const q3 = y3 / x3;
-    // the test and the operations of zpkDbPoint, for the four points at once
+    // the test and the operations of zpkDbPoint (dbOf), for the four points at once
     // (Math.min/max propagate NaN, which fails the comparisons)
     if (lo >= MIN_NORMAL && Math.min(q0, q1, q2, q3) >= MIN_NORMAL && Math.max(q0, q1, q2, q3) < Infinity) {
       const v0 = gainDb + DB10 * Math.log(q0);
       const v1 = gainDb + DB10 * Math.log(q1);
       const v2 = gainDb + DB10 * Math.log(q2);
       const v3 = gainDb + DB10 * Math.log(q3);
-      out[k] = v0 >= MAGNITUDE_FLOOR_DB ? v0 : MAGNITUDE_FLOOR_DB;
-      out[k + 1] = v1 >= MAGNITUDE_FLOOR_DB ? v1 : MAGNITUDE_FLOOR_DB;
-      out[k + 2] = v2 >= MAGNITUDE_FLOOR_DB ? v2 : MAGNITUDE_FLOOR_DB;
-      out[k + 3] = v3 >= MAGNITUDE_FLOOR_DB ? v3 : MAGNITUDE_FLOOR_DB;
+      out[k] = Math.max(v0, MAGNITUDE_FLOOR_DB);
+      out[k + 1] = Math.max(v1, MAGNITUDE_FLOOR_DB);
+      out[k + 2] = Math.max(v2, MAGNITUDE_FLOOR_DB);
+      out[k + 3] = Math.max(v3, MAGNITUDE_FLOOR_DB);
     } else {
       out[k] = zpkDbPoint(p, gainDb, w0);
       out[k + 1] = zpkDbPoint(p, gainDb, w1);
@@ -474,8 +460,8 @@ function cascadeDbPoint(p: PackedCascade, gainDb: number, wk: number): number {
  * checks, no allocation); four points per pass as in {@link zpkMagnitudeDbInto}.
  * Constant numerators (lowpass sections) are in the packed gain.
  */
-function cascadeMagnitudeDbInto(p: PackedCascade, w: Float64Array, out: Float64Array): void {
-  const track = !cascadeProductsInRange(p, maxAbs(w));
+function cascadeMagnitudeDbInto(p: PackedCascade, w: Float64Array, wmax: number, out: Float64Array): void {
+  const track = !cascadeProductsInRange(p, wmax);
   const n = w.length;
   const gainDb = DB20 * Math.log(Math.abs(p.gain));
   const den = p.den;
@@ -559,17 +545,17 @@ function cascadeMagnitudeDbInto(p: PackedCascade, w: Float64Array, out: Float64A
     const q1 = y1 / x1;
     const q2 = y2 / x2;
     const q3 = y3 / x3;
-    // the test and the operations of cascadeDbPoint, for the four points at once
+    // the test and the operations of cascadeDbPoint (dbOf), for the four points at once
     // (Math.min/max propagate NaN, which fails the comparisons)
     if (lo >= MIN_NORMAL && Math.min(q0, q1, q2, q3) >= MIN_NORMAL && Math.max(q0, q1, q2, q3) < Infinity) {
       const v0 = gainDb + DB10 * Math.log(q0);
       const v1 = gainDb + DB10 * Math.log(q1);
       const v2 = gainDb + DB10 * Math.log(q2);
       const v3 = gainDb + DB10 * Math.log(q3);
-      out[k] = v0 >= MAGNITUDE_FLOOR_DB ? v0 : MAGNITUDE_FLOOR_DB;
-      out[k + 1] = v1 >= MAGNITUDE_FLOOR_DB ? v1 : MAGNITUDE_FLOOR_DB;
-      out[k + 2] = v2 >= MAGNITUDE_FLOOR_DB ? v2 : MAGNITUDE_FLOOR_DB;
-      out[k + 3] = v3 >= MAGNITUDE_FLOOR_DB ? v3 : MAGNITUDE_FLOOR_DB;
+      out[k] = Math.max(v0, MAGNITUDE_FLOOR_DB);
+      out[k + 1] = Math.max(v1, MAGNITUDE_FLOOR_DB);
+      out[k + 2] = Math.max(v2, MAGNITUDE_FLOOR_DB);
+      out[k + 3] = Math.max(v3, MAGNITUDE_FLOOR_DB);
     } else {
       out[k] = cascadeDbPoint(p, gainDb, w0);
       out[k + 1] = cascadeDbPoint(p, gainDb, w1);
@@ -589,8 +575,8 @@ function cascadeMagnitudeDbInto(p: PackedCascade, w: Float64Array, out: Float64A
  */
 export function magnitudeDbUnchecked(system: Zpk | SectionCascade, w: Float64Array): Float64Array {
   const out = new Float64Array(w.length);
-  if (isCascade(system)) cascadeMagnitudeDbInto(packCascade(system), w, out);
-  else zpkMagnitudeDbInto(packZpk(system), w, out);
+  if (isCascade(system)) cascadeMagnitudeDbInto(packCascade(system), w, maxAbs(w), out);
+  else zpkMagnitudeDbInto(packZpk(system), w, maxAbs(w), out);
   return out;
 }
 
@@ -614,10 +600,16 @@ export function magnitudeDbUnchecked(system: Zpk | SectionCascade, w: Float64Arr
 export function magnitudeDb(system: Zpk | SectionCascade, w: Float64Array): Float64Array {
   const fn = "magnitudeDb";
   const p = packSystem(fn, system);
-  const grid = requireGrid(fn, "w", w);
+  // one pass for the grid check and the largest |w| (finite exactly when every value is)
+  let wmax = w instanceof Float64Array ? maxAbs(w) : Number.NaN;
+  let grid = w;
+  if (!Number.isFinite(wmax)) {
+    grid = requireGrid(fn, "w", w);
+    wmax = maxAbs(grid);
+  }
   rejectAxisPoles(fn, p, grid);
   const out = new Float64Array(grid.length);
-  if ("cascade" in p) cascadeMagnitudeDbInto(p, grid, out);
-  else zpkMagnitudeDbInto(p, grid, out);
+  if ("cascade" in p) cascadeMagnitudeDbInto(p, grid, wmax, out);
+  else zpkMagnitudeDbInto(p, grid, wmax, out);
   return out;
 }
