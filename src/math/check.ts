@@ -75,6 +75,13 @@ export function requireComplex(fn: string, path: string, value: unknown): Comple
   return value as Complex;
 }
 
+/** Whether a value is a complex value `{ re, im }` with finite parts (what {@link requireComplex} accepts). */
+function isFiniteComplex(value: unknown): boolean {
+  if (typeof value !== "object" || value === null) return false;
+  const v = value as { re?: unknown; im?: unknown };
+  return typeof v.re === "number" && Number.isFinite(v.re) && typeof v.im === "number" && Number.isFinite(v.im);
+}
+
 /**
  * Require an array of complex values with finite parts.
  *
@@ -92,7 +99,8 @@ export function requireComplexArray(fn: string, path: string, value: unknown): r
   if (!Array.isArray(value)) {
     throw new InvalidArgumentError({ fn, path, received: value, message: "expected an array of complex values { re, im }" });
   }
-  for (let i = 0; i < value.length; i++) requireComplex(fn, `${path}[${i}]`, value[i]);
+  // the element path is built only for the element that fails
+  for (let i = 0; i < value.length; i++) if (!isFiniteComplex(value[i])) requireComplex(fn, `${path}[${i}]`, value[i]);
   return value as readonly Complex[];
 }
 

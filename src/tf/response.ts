@@ -9,10 +9,14 @@
  *   floating-point range are redone one root at a time); an exact conjugate pair is
  *   applied as one quadratic factor built from the rounded differences
  *   `w - Im r` and `w + Im r`, which keeps the same accuracy. A cascade is
- *   evaluated section by section. Relative error a few units of 2^-53 per
- *   factor (worst 1.6e-15 against scipy.signal.freqs_zpk in the fixtures).
- *   The loop runs over two grid points per pass (two independent chains of
- *   multiplications the CPU overlaps), each formed exactly as alone.
+ *   evaluated section by section, with constant numerators (lowpass
+ *   sections) multiplied into the gain once per call. Relative error a few
+ *   units of 2^-53 per factor (worst 1.6e-15 against scipy.signal.freqs_zpk
+ *   in the fixtures).
+ *   The loop runs over four grid points per pass (four independent chains of
+ *   multiplications the CPU overlaps, all in registers: no call and no
+ *   allocation per point), each formed with exactly the operations of the
+ *   one-point path, so a value does not depend on the grid around it.
  *
  * @module
  */
@@ -31,25 +35,63 @@ export interface ComplexResponse {
   readonly im: Float64Array;
 }
 
-/** Reject a grid point that lands exactly on a jw-axis pole (the response would be infinite). */
-export function checkNoAxisPole(fn: string, poles: readonly Complex[], w: Float64Array): void {
-  for (const p of poles) {
-    if (p.re !== 0) continue;
-    for (let i = 0; i < w.length; i++) {
-      if (w[i] === p.im) {
-        throw new InvalidArgumentError({
-          fn,
-          path: `w[${i}]`,
-          received: w[i],
-          message: "this frequency is a pole on the jw axis, where the response is infinite; move the grid point",
-        });
-      }
+/** Reject a grid point equal to `im`, the imaginary part of a jw-axis pole. */
+function rejectAxisPole(fn: string, im: number, w: Float64Array): void {
+  for (let i = 0; i < w.length; i++) {
+    if (w[i] === im) {
+      throw new InvalidArgumentError({
+        fn,
+        path: `w[${i}]`,
+        received: w[i],
+        message: "this frequency is a pole on the jw axis, where the response is infinite; move the grid point",
+      });
     }
   }
 }
 
-export function polesOf(system: Zpk | SectionCascade): readonly Complex[] {
-  return isCascade(system) ? fromSectionsUnchecked(system).poles : system.poles;
+/** Reject a grid point that lands exactly on a jw-axis pole (the response would be infinite). */
+export function checkNoAxisPole(fn: string, poles: readonly Complex[], w: Float64Array): void {
+  for (const p of poles) if (p.re === 0) rejectAxisPole(fn, p.im, w);
+}
+
+/**
+ * Imaginary parts of a cascade's jw-axis poles, read from its sections'
+ * denominators without forming the zpk: the same root formulas as
+ * `fromSections` (sections.ts, quadRoots), so the same values, in the same
+ * order, as {@link checkNoAxisPole} on `fromSections(cascade).poles` would scan.
+ */
+function cascadeAxisPoles(cascade: SectionCascade): Float64Array {
+  const out: number[] = [];
+  for (const sec of cascade.sections) {
+    const [a2, a1, a0] = sec.den;
+    if (a2 === 0) {
+      // one root -a0/a1 (none when a1 is 0 too)
+      if (a1 !== 0 && -a0 / a1 === 0) out.push(0);
+      continue;
+    }
+    const h = a1 / (2 * a2);
+    const c = a0 / a2;
+    const disc = h * h - c;
+    if (disc < 0) {
+      // the pair -h +- j sqrt(-disc)
+      if (h === 0) out.push(Math.sqrt(-disc), -Math.sqrt(-disc));
+    } else if (c === 0) out.push(0); // roots 0 and -2h
+    else {
+      const r1 = -(h + (h >= 0 ? 1 : -1) * Math.sqrt(disc));
+      if (r1 === 0 || c / r1 === 0) out.push(0);
+    }
+  }
+  return Float64Array.from(out);
+}
+
+/** Imaginary parts of the jw-axis poles (Re = 0) of a pole list, in order. */
+function zpkAxisPoles(poles: readonly Complex[]): Float64Array {
+  let m = 0;
+  for (const p of poles) if (p.re === 0) m++;
+  const out = new Float64Array(m);
+  m = 0;
+  for (const p of poles) if (p.re === 0) out[m++] = p.im;
+  return out;
 }
 
 /**
@@ -63,18 +105,23 @@ export interface PackedFactors {
   readonly singles: Float64Array;
 }
 
+/** Scratch of {@link pack}: which roots are already taken (grown when a list is longer). */
+let taken = new Uint8Array(64);
+
 /**
  * Pack the roots: exact conjugate pairs (equal real parts, opposite
  * imaginary parts) become one quadratic factor each, in the order of their
- * first member; the other roots stay single.
+ * first member; the other roots stay single. One buffer holds both arrays.
  */
 export function pack(roots: readonly Complex[]): PackedFactors {
   const n = roots.length;
-  const used = new Uint8Array(n);
-  const pairs = new Float64Array(3 * (n >> 1));
-  const singles = new Float64Array(2 * n);
+  if (taken.length < n) taken = new Uint8Array(2 * n);
+  const used = taken;
+  used.fill(0, 0, n);
+  const pairsEnd = 3 * (n >> 1);
+  const buf = new Float64Array(pairsEnd + 2 * n);
   let np = 0;
-  let ns = 0;
+  let ns = pairsEnd;
   for (let i = 0; i < n; i++) {
     if (used[i] === 1) continue;
     used[i] = 1;
@@ -85,69 +132,81 @@ export function pack(roots: readonly Complex[]): PackedFactors {
       while (j < n && !(used[j] === 0 && (roots[j] as Complex).re === r.re && (roots[j] as Complex).im === -r.im)) j++;
       if (j < n) {
         used[j] = 1;
-        pairs[np++] = a * a;
-        pairs[np++] = 2 * a;
-        pairs[np++] = Math.abs(r.im);
+        buf[np++] = a * a;
+        buf[np++] = 2 * a;
+        buf[np++] = Math.abs(r.im);
         continue;
       }
     }
-    singles[ns++] = a;
-    singles[ns++] = r.im;
+    buf[ns++] = a;
+    buf[ns++] = r.im;
   }
-  return { pairs: pairs.subarray(0, np), singles: singles.subarray(0, ns) };
+  return { pairs: buf.subarray(0, np), singles: buf.subarray(pairsEnd, ns) };
 }
 
-/** Scratch written by {@link productsAt}: `[re, im]` at the first frequency, then at the second (no allocation per point). */
-const acc = new Float64Array(4);
+/** A zpk with its factors packed once (for the grid loop, and for repeated one-point evaluation: {@link packedMagnitudeAt}). */
+export interface PackedZpk {
+  /** The system (for the overflow-safe path). */
+  readonly system: Zpk;
+  /** Packed zeros. */
+  readonly zeros: PackedFactors;
+  /** Packed poles. */
+  readonly poles: PackedFactors;
+  /** Imaginary parts of the poles on the jw axis, in the order of `system.poles` (see {@link rejectAxisPoles}). */
+  readonly axisPoles: Float64Array;
+}
+
+/** Pack a zpk (internal core, no checks). */
+export function packZpk(system: Zpk): PackedZpk {
+  return { system, zeros: pack(system.zeros), poles: pack(system.poles), axisPoles: zpkAxisPoles(system.poles) };
+}
+
+/** Scratch written by {@link productsAt1} and {@link sectionProductsAt1}: `[re, im]` of one product. */
+const one = new Float64Array(2);
 
 /**
- * prod over the packed factors of `(jw - r)` at two frequencies at once,
- * written into `acc`. The two products are independent chains, so the CPU
- * overlaps them; each is formed exactly as a one-point loop would form it.
+ * prod over the packed factors of `(jw - r)` at one frequency, written into
+ * `one`. A conjugate pair is the quadratic
+ * `(a + j(w - b))(a + j(w + b)) = a^2 - (w - b)(w + b) + j 2 a w`, formed from
+ * the exactly rounded differences `w - b`, `w + b`, so it keeps a relative
+ * error of a few ulps even where it nearly cancels. The grid loop
+ * ({@link zpkResponseInto}) runs exactly these operations, in this order, for
+ * each of its four points.
  */
-function productsAt(f: PackedFactors, wk: number, wl: number): void {
+function productsAt1(f: PackedFactors, wk: number): void {
   let xr = 1;
   let xi = 0;
-  let yr = 1;
-  let yi = 0;
   const { pairs, singles } = f;
   for (let i = 0; i < pairs.length; i += 3) {
     const aa = pairs[i] as number;
-    const a2 = pairs[i + 1] as number;
     const b = pairs[i + 2] as number;
     const fr = aa - (wk - b) * (wk + b);
-    const fi = a2 * wk;
+    const fi = (pairs[i + 1] as number) * wk;
     const t = xr * fr - xi * fi;
     xi = xr * fi + xi * fr;
     xr = t;
-    const gr = aa - (wl - b) * (wl + b);
-    const gi = a2 * wl;
-    const u = yr * gr - yi * gi;
-    yi = yr * gi + yi * gr;
-    yr = u;
   }
   for (let i = 0; i < singles.length; i += 2) {
     const a = singles[i] as number;
-    const b = singles[i + 1] as number;
-    const fi = wk - b;
+    const fi = wk - (singles[i + 1] as number);
     const t = xr * a - xi * fi;
     xi = xr * fi + xi * a;
     xr = t;
-    const gi = wl - b;
-    const u = yr * a - yi * gi;
-    yi = yr * gi + yi * a;
-    yr = u;
   }
-  acc[0] = xr;
-  acc[1] = xi;
-  acc[2] = yr;
-  acc[3] = yi;
+  one[0] = xr;
+  one[1] = xi;
 }
+
+/** Squared magnitudes of the products inside this range (both) take the fast path. */
+const SAFE_LO = 1e-280;
+const SAFE_HI = 1e280;
 
 /**
  * Store `k0 * (nr + j ni) / (dr + j di)` at index `k` when both products are
  * comfortably inside the floating-point range and the quotient is finite;
- * returns false (storing nothing) when the point needs the slow, overflow-safe path.
+ * returns false (storing nothing) when the point needs the slow, overflow-safe
+ * path. The grid loops' four-point blocks apply the same test and the same
+ * operations to four points at once.
  */
 function storeQuotient(
   k0: number,
@@ -161,75 +220,230 @@ function storeQuotient(
 ): boolean {
   const nm = nr * nr + ni * ni;
   const dm = dr * dr + di * di;
-  if (!(nm > 1e-280 && nm < 1e280 && dm > 1e-280 && dm < 1e280)) return false;
+  if (!(nm > SAFE_LO && nm < SAFE_HI && dm > SAFE_LO && dm < SAFE_HI)) return false;
   const inv = k0 / dm;
   const re = (nr * dr + ni * di) * inv;
   const im = (ni * dr - nr * di) * inv;
-  if (!Number.isFinite(re) || !Number.isFinite(im)) return false;
+  if (!(re - re === 0 && im - im === 0)) return false;
   outRe[k] = re;
   outIm[k] = im;
   return true;
 }
 
-/** One grid point of a zpk, one root at a time (slow, overflow-safe path). */
-function zpkPointByRoot(system: Zpk, wk: number, k: number, outRe: Float64Array, outIm: Float64Array): void {
+/**
+ * One grid point of a zpk, one root at a time (slow, overflow-safe path);
+ * returns whether the value stored is finite.
+ */
+function zpkPointByRoot(system: Zpk, wk: number, k: number, outRe: Float64Array, outIm: Float64Array): boolean {
   // s = -0 + j wk: `-0 - Re r` is exactly `-Re r`, signed zeros included.
   const v = evalZpkUnchecked(system, -0, wk, true);
   outRe[k] = v.re;
   outIm[k] = v.im;
+  return v.re - v.re === 0 && v.im - v.im === 0;
+}
+
+/** One grid point of a zpk on its own (fast path, else the slow one); returns whether the value stored is finite. */
+function zpkPoint(p: PackedZpk, wk: number, k: number, outRe: Float64Array, outIm: Float64Array): boolean {
+  productsAt1(p.poles, wk);
+  const dr = one[0] as number;
+  const di = one[1] as number;
+  productsAt1(p.zeros, wk);
+  return (
+    storeQuotient(p.system.gain, one[0] as number, one[1] as number, dr, di, outRe, outIm, k) ||
+    zpkPointByRoot(p.system, wk, k, outRe, outIm)
+  );
+}
+
+/**
+ * Zpk response into `outRe`, `outIm` (no checks, no allocation); returns the
+ * first grid index whose value is not finite (beyond the double range even
+ * on the slow path), or -1.
+ *
+ * Four grid points per pass: the products of the four points are independent
+ * chains, so the CPU overlaps their multiplications; each point's products
+ * are formed with exactly the operations of {@link productsAt1}, and the four
+ * quotients with those of {@link storeQuotient}, so a point's value does not
+ * depend on its neighbours. When any of the four leaves the comfortable range
+ * (large |w| at high order, or a point on an exact transmission zero), the
+ * four are redone one by one ({@link zpkPoint}), the failing ones one root at
+ * a time with Smith's division, interleaving zeros and poles so that nothing
+ * overflows.
+ */
+function zpkResponseInto(p: PackedZpk, w: Float64Array, outRe: Float64Array, outIm: Float64Array): number {
+  const n = w.length;
+  const k0 = p.system.gain;
+  const dp = p.poles.pairs;
+  const ds = p.poles.singles;
+  const np = p.zeros.pairs;
+  const ns = p.zeros.singles;
+  let bad = -1;
+  for (let k = 0; k < n; k += 4) {
+    if (k + 4 > n) {
+      // the last one to three points, one by one (the same values)
+      for (let j = k; j < n; j++) if (!zpkPoint(p, w[j] as number, j, outRe, outIm) && bad < 0) bad = j;
+      break;
+    }
+    const w0 = w[k] as number;
+    const w1 = w[k + 1] as number;
+    const w2 = w[k + 2] as number;
+    const w3 = w[k + 3] as number;
+    // denominators: a + j b at each point
+    let a0 = 1;
+    let b0 = 0;
+    let a1 = 1;
+    let b1 = 0;
+    let a2 = 1;
+    let b2 = 0;
+    let a3 = 1;
+    let b3 = 0;
+    for (let i = 0; i < dp.length; i += 3) {
+      const aa = dp[i] as number;
+      const ta = dp[i + 1] as number;
+      const b = dp[i + 2] as number;
+      let fr = aa - (w0 - b) * (w0 + b);
+      let fi = ta * w0;
+      let t = a0 * fr - b0 * fi;
+      b0 = a0 * fi + b0 * fr;
+      a0 = t;
+      fr = aa - (w1 - b) * (w1 + b);
+      fi = ta * w1;
+      t = a1 * fr - b1 * fi;
+      b1 = a1 * fi + b1 * fr;
+      a1 = t;
+      fr = aa - (w2 - b) * (w2 + b);
+      fi = ta * w2;
+      t = a2 * fr - b2 * fi;
+      b2 = a2 * fi + b2 * fr;
+      a2 = t;
+      fr = aa - (w3 - b) * (w3 + b);
+      fi = ta * w3;
+      t = a3 * fr - b3 * fi;
+      b3 = a3 * fi + b3 * fr;
+      a3 = t;
+    }
+    for (let i = 0; i < ds.length; i += 2) {
+      const a = ds[i] as number;
+      const b = ds[i + 1] as number;
+      let fi = w0 - b;
+      let t = a0 * a - b0 * fi;
+      b0 = a0 * fi + b0 * a;
+      a0 = t;
+      fi = w1 - b;
+      t = a1 * a - b1 * fi;
+      b1 = a1 * fi + b1 * a;
+      a1 = t;
+      fi = w2 - b;
+      t = a2 * a - b2 * fi;
+      b2 = a2 * fi + b2 * a;
+      a2 = t;
+      fi = w3 - b;
+      t = a3 * a - b3 * fi;
+      b3 = a3 * fi + b3 * a;
+      a3 = t;
+    }
+    // numerators: c + j d at each point
+    let c0 = 1;
+    let d0 = 0;
+    let c1 = 1;
+    let d1 = 0;
+    let c2 = 1;
+    let d2 = 0;
+    let c3 = 1;
+    let d3 = 0;
+    for (let i = 0; i < np.length; i += 3) {
+      const aa = np[i] as number;
+      const ta = np[i + 1] as number;
+      const b = np[i + 2] as number;
+      let fr = aa - (w0 - b) * (w0 + b);
+      let fi = ta * w0;
+      let t = c0 * fr - d0 * fi;
+      d0 = c0 * fi + d0 * fr;
+      c0 = t;
+      fr = aa - (w1 - b) * (w1 + b);
+      fi = ta * w1;
+      t = c1 * fr - d1 * fi;
+      d1 = c1 * fi + d1 * fr;
+      c1 = t;
+      fr = aa - (w2 - b) * (w2 + b);
+      fi = ta * w2;
+      t = c2 * fr - d2 * fi;
+      d2 = c2 * fi + d2 * fr;
+      c2 = t;
+      fr = aa - (w3 - b) * (w3 + b);
+      fi = ta * w3;
+      t = c3 * fr - d3 * fi;
+      d3 = c3 * fi + d3 * fr;
+      c3 = t;
+    }
+    for (let i = 0; i < ns.length; i += 2) {
+      const a = ns[i] as number;
+      const b = ns[i + 1] as number;
+      let fi = w0 - b;
+      let t = c0 * a - d0 * fi;
+      d0 = c0 * fi + d0 * a;
+      c0 = t;
+      fi = w1 - b;
+      t = c1 * a - d1 * fi;
+      d1 = c1 * fi + d1 * a;
+      c1 = t;
+      fi = w2 - b;
+      t = c2 * a - d2 * fi;
+      d2 = c2 * fi + d2 * a;
+      c2 = t;
+      fi = w3 - b;
+      t = c3 * a - d3 * fi;
+      d3 = c3 * fi + d3 * a;
+      c3 = t;
+    }
+    // the four quotients, with the test and the operations of storeQuotient
+    // (Math.min/max propagate NaN, which fails both comparisons; x - x is 0
+    // for finite x, NaN otherwise); one branch for the four
+    const nm0 = c0 * c0 + d0 * d0;
+    const nm1 = c1 * c1 + d1 * d1;
+    const nm2 = c2 * c2 + d2 * d2;
+    const nm3 = c3 * c3 + d3 * d3;
+    const dm0 = a0 * a0 + b0 * b0;
+    const dm1 = a1 * a1 + b1 * b1;
+    const dm2 = a2 * a2 + b2 * b2;
+    const dm3 = a3 * a3 + b3 * b3;
+    const v0 = k0 / dm0;
+    const v1 = k0 / dm1;
+    const v2 = k0 / dm2;
+    const v3 = k0 / dm3;
+    const r0 = (c0 * a0 + d0 * b0) * v0;
+    const i0 = (d0 * a0 - c0 * b0) * v0;
+    const r1 = (c1 * a1 + d1 * b1) * v1;
+    const i1 = (d1 * a1 - c1 * b1) * v1;
+    const r2 = (c2 * a2 + d2 * b2) * v2;
+    const i2 = (d2 * a2 - c2 * b2) * v2;
+    const r3 = (c3 * a3 + d3 * b3) * v3;
+    const i3 = (d3 * a3 - c3 * b3) * v3;
+    if (
+      Math.min(nm0, nm1, nm2, nm3, dm0, dm1, dm2, dm3) > SAFE_LO &&
+      Math.max(nm0, nm1, nm2, nm3, dm0, dm1, dm2, dm3) < SAFE_HI &&
+      r0 - r0 + (i0 - i0) + (r1 - r1) + (i1 - i1) + (r2 - r2) + (i2 - i2) + (r3 - r3) + (i3 - i3) === 0
+    ) {
+      outRe[k] = r0;
+      outIm[k] = i0;
+      outRe[k + 1] = r1;
+      outIm[k + 1] = i1;
+      outRe[k + 2] = r2;
+      outIm[k + 2] = i2;
+      outRe[k + 3] = r3;
+      outIm[k + 3] = i3;
+    } else {
+      for (let j = k; j < k + 4; j++) if (!zpkPoint(p, w[j] as number, j, outRe, outIm) && bad < 0) bad = j;
+    }
+  }
+  return bad;
 }
 
 /** Zpk response core (no checks). */
 export function zpkResponseUnchecked(system: Zpk, w: Float64Array): ComplexResponse {
-  const n = w.length;
-  const outRe = new Float64Array(n);
-  const outIm = new Float64Array(n);
-  const zf = pack(system.zeros);
-  const pf = pack(system.poles);
-  const k0 = system.gain;
-  // Point by point (two points per pass, see productsAt): numerator and
-  // denominator products accumulate separately and meet in one division. A
-  // conjugate pair is the quadratic
-  // `(a + j(w - b))(a + j(w + b)) = a^2 - (w - b)(w + b) + j 2 a w`, formed from
-  // the exactly rounded differences `w - b`, `w + b`, so it keeps a relative
-  // error of a few ulps even where it nearly cancels. Where either product
-  // leaves the comfortable range (large |w| at high order, or a point on an
-  // exact transmission zero), the point is redone one root at a time with
-  // Smith's division, interleaving zeros and poles so that nothing overflows.
-  for (let k = 0; k < n; k += 2) {
-    const l = k + 1 < n ? k + 1 : k;
-    const wk = w[k] as number;
-    const wl = w[l] as number;
-    // poles first: the first call site is the one the compiler inlines
-    productsAt(pf, wk, wl);
-    const dr = acc[0] as number;
-    const di = acc[1] as number;
-    const er = acc[2] as number;
-    const ei = acc[3] as number;
-    productsAt(zf, wk, wl);
-    const nr = acc[0] as number;
-    const ni = acc[1] as number;
-    const mr = acc[2] as number;
-    const mi = acc[3] as number;
-    if (!storeQuotient(k0, nr, ni, dr, di, outRe, outIm, k)) zpkPointByRoot(system, wk, k, outRe, outIm);
-    if (l !== k && !storeQuotient(k0, mr, mi, er, ei, outRe, outIm, l)) zpkPointByRoot(system, wl, l, outRe, outIm);
-  }
+  const outRe = new Float64Array(w.length);
+  const outIm = new Float64Array(w.length);
+  zpkResponseInto(packZpk(system), w, outRe, outIm);
   return { re: outRe, im: outIm };
-}
-
-/** A zpk with its factors packed once, for repeated one-point evaluation (see {@link packedMagnitudeAt}). */
-export interface PackedZpk {
-  /** The system (for the overflow-safe path). */
-  readonly system: Zpk;
-  /** Packed zeros. */
-  readonly zeros: PackedFactors;
-  /** Packed poles. */
-  readonly poles: PackedFactors;
-}
-
-/** Pack a zpk for {@link packedMagnitudeAt} (internal core, no checks). */
-export function packZpk(system: Zpk): PackedZpk {
-  return { system, zeros: pack(system.zeros), poles: pack(system.poles) };
 }
 
 /** Scratch point for {@link packedMagnitudeAt}. */
@@ -242,148 +456,307 @@ const oneIm = new Float64Array(1);
  * callers that bisect with one-point evaluations.
  */
 export function packedMagnitudeAt(p: PackedZpk, w: number): number {
-  productsAt(p.poles, w, w);
-  const dr = acc[0] as number;
-  const di = acc[1] as number;
-  productsAt(p.zeros, w, w);
-  if (!storeQuotient(p.system.gain, acc[0] as number, acc[1] as number, dr, di, oneRe, oneIm, 0)) {
-    zpkPointByRoot(p.system, w, 0, oneRe, oneIm);
-  }
+  zpkPoint(p, w, 0, oneRe, oneIm);
   return Math.hypot(oneRe[0] as number, oneIm[0] as number);
 }
 
-/** Section coefficients packed as `[b2, b1, b0, a2, a1, a0]` per section. */
-export function packSections(cascade: SectionCascade): Float64Array {
-  const c = new Float64Array(6 * cascade.sections.length);
+/**
+ * A cascade packed for the grid loops: `[a2, a1, a0]` of every section's
+ * denominator, `[b2, b1, b0]` of the numerators that are not constants, and
+ * the gain with the constant numerators (`[0, 0, b0]`, as in lowpass
+ * sections) multiplied in, so that they cost nothing per point. When that
+ * product would leave the comfortable range, nothing is folded.
+ */
+export interface PackedCascade {
+  /** The cascade (for the slow path). */
+  readonly cascade: SectionCascade;
+  /** Denominator coefficients, three per section. */
+  readonly den: Float64Array;
+  /** Coefficients of the numerators not folded into {@link PackedCascade.gain}, three per section. */
+  readonly num: Float64Array;
+  /** The cascade gain times the folded constant numerators. */
+  readonly gain: number;
+  /** Imaginary parts of the poles on the jw axis, in the order of `fromSections(cascade).poles` (see {@link rejectAxisPoles}). */
+  readonly axisPoles: Float64Array;
+}
+
+/** Pack a cascade (internal core, no checks). */
+export function packCascade(cascade: SectionCascade): PackedCascade {
+  const m = cascade.sections.length;
+  const den = new Float64Array(3 * m);
+  const all = new Float64Array(3 * m);
+  const rest = new Float64Array(3 * m);
+  let nr = 0;
+  let gain = cascade.gain;
+  let exactZero = gain === 0;
   cascade.sections.forEach((sec, i) => {
-    c.set(sec.num, 6 * i);
-    c.set(sec.den, 6 * i + 3);
+    den.set(sec.den, 3 * i);
+    all.set(sec.num, 3 * i);
+    const [b2, b1, b0] = sec.num;
+    if (b2 === 0 && b1 === 0) {
+      gain *= b0;
+      if (b0 === 0) exactZero = true;
+    } else {
+      rest.set(sec.num, nr);
+      nr += 3;
+    }
   });
-  return c;
-}
-
-/**
- * Numerator and denominator products of the packed sections at two
- * frequencies at once, written into `acc2` as `[nr, ni, dr, di]` at the first
- * frequency, then the same at the second.
- */
-function sectionProductsAt(c: Float64Array, wk: number, wl: number): void {
-  const wk2 = wk * wk;
-  const wl2 = wl * wl;
-  let nr = 1;
-  let ni = 0;
-  let dr = 1;
-  let di = 0;
-  let mr = 1;
-  let mi = 0;
-  let er = 1;
-  let ei = 0;
-  for (let i = 0; i < c.length; i += 6) {
-    const b2 = c[i] as number;
-    const b1 = c[i + 1] as number;
-    const b0 = c[i + 2] as number;
-    const a2 = c[i + 3] as number;
-    const a1 = c[i + 4] as number;
-    const a0 = c[i + 5] as number;
-    let fr = b0 - b2 * wk2;
-    let fi = b1 * wk;
-    let t = nr * fr - ni * fi;
-    ni = nr * fi + ni * fr;
-    nr = t;
-    fr = a0 - a2 * wk2;
-    fi = a1 * wk;
-    t = dr * fr - di * fi;
-    di = dr * fi + di * fr;
-    dr = t;
-    fr = b0 - b2 * wl2;
-    fi = b1 * wl;
-    t = mr * fr - mi * fi;
-    mi = mr * fi + mi * fr;
-    mr = t;
-    fr = a0 - a2 * wl2;
-    fi = a1 * wl;
-    t = er * fr - ei * fi;
-    ei = er * fi + ei * fr;
-    er = t;
+  const axisPoles = cascadeAxisPoles(cascade);
+  if (Number.isFinite(gain) && (exactZero || (Math.abs(gain) > SAFE_LO && Math.abs(gain) < SAFE_HI))) {
+    return { cascade, den, num: rest.subarray(0, nr), gain, axisPoles };
   }
-  acc2[0] = nr;
-  acc2[1] = ni;
-  acc2[2] = dr;
-  acc2[3] = di;
-  acc2[4] = mr;
-  acc2[5] = mi;
-  acc2[6] = er;
-  acc2[7] = ei;
+  return { cascade, den, num: all, gain: cascade.gain, axisPoles };
 }
 
-/** Scratch written by {@link sectionProductsAt}. */
-const acc2 = new Float64Array(8);
+/** A validated system, packed: a zpk or a cascade. */
+export type PackedSystem = PackedZpk | PackedCascade;
 
 /**
- * Cascade response core (no checks). Where a section's polynomials overflow
- * (w^2 beyond the double range) even the section-by-section value is not
- * finite; those points are recomputed from the factored form.
+ * Packed forms of the deeply frozen systems already validated (zpk() and
+ * toSections() return such systems): their values cannot change, so a
+ * repeated call (one-point evaluations in a loop, say) neither validates nor
+ * packs them again. Systems that are not frozen are validated and packed on
+ * every call. Entries go with their systems (weak keys).
  */
-export function cascadeResponseUnchecked(cascade: SectionCascade, w: Float64Array): ComplexResponse {
+const packedSystems = new WeakMap<object, PackedSystem>();
+
+/** Whether the system and every array and value inside it are frozen (its numbers then cannot change). */
+function deeplyFrozen(system: Zpk | SectionCascade): boolean {
+  if (!Object.isFrozen(system)) return false;
+  if (isCascade(system)) {
+    if (!Object.isFrozen(system.sections)) return false;
+    for (const sec of system.sections) {
+      if (!Object.isFrozen(sec) || !Object.isFrozen(sec.num) || !Object.isFrozen(sec.den)) return false;
+    }
+    return true;
+  }
+  if (!Object.isFrozen(system.zeros) || !Object.isFrozen(system.poles)) return false;
+  for (const z of system.zeros) if (!Object.isFrozen(z)) return false;
+  for (const p of system.poles) if (!Object.isFrozen(p)) return false;
+  return true;
+}
+
+/**
+ * Validate (as `requireSystem(fn, "system", ...)`) and pack a system for the
+ * grid loops; a deeply frozen system is validated and packed once.
+ *
+ * @throws {@link InvalidArgumentError} when the system is malformed
+ */
+export function packSystem(fn: string, system: unknown): PackedSystem {
+  if (typeof system === "object" && system !== null) {
+    const hit = packedSystems.get(system);
+    if (hit !== undefined) return hit;
+  }
+  const s = requireSystem(fn, "system", system);
+  const packed = isCascade(s) ? packCascade(s) : packZpk(s);
+  if (deeplyFrozen(s)) packedSystems.set(s, packed);
+  return packed;
+}
+
+/** Reject a grid point that lands exactly on one of the packed system's jw-axis poles (as {@link checkNoAxisPole}). */
+export function rejectAxisPoles(fn: string, p: PackedSystem, w: Float64Array): void {
+  const axis = p.axisPoles;
+  for (let i = 0; i < axis.length; i++) rejectAxisPole(fn, axis[i] as number, w);
+}
+
+/**
+ * prod over packed section polynomials `c2 (jw)^2 + c1 jw + c0 = (c0 - c2 w^2) + j c1 w`
+ * at one frequency, written into `one`; the grid loop
+ * ({@link cascadeResponseInto}) runs exactly these operations for each of its
+ * four points.
+ */
+function sectionProductsAt1(c: Float64Array, wk: number): void {
+  const w2 = wk * wk;
+  let xr = 1;
+  let xi = 0;
+  for (let i = 0; i < c.length; i += 3) {
+    const fr = (c[i + 2] as number) - (c[i] as number) * w2;
+    const fi = (c[i + 1] as number) * wk;
+    const t = xr * fr - xi * fi;
+    xi = xr * fi + xi * fr;
+    xr = t;
+  }
+  one[0] = xr;
+  one[1] = xi;
+}
+
+/** One grid point of a cascade on its own (fast path, else the slow one); returns whether the value stored is finite. */
+function cascadePoint(p: PackedCascade, wk: number, k: number, outRe: Float64Array, outIm: Float64Array): boolean {
+  sectionProductsAt1(p.den, wk);
+  const dr = one[0] as number;
+  const di = one[1] as number;
+  sectionProductsAt1(p.num, wk);
+  return (
+    storeQuotient(p.gain, one[0] as number, one[1] as number, dr, di, outRe, outIm, k) ||
+    cascadePointSlow(p.cascade, wk, k, outRe, outIm)
+  );
+}
+
+/**
+ * Cascade response into `outRe`, `outIm` (no checks, no allocation); returns
+ * the first grid index whose value is not finite, or -1. Four points per
+ * pass as in {@link zpkResponseInto}: numerator and denominator products meet
+ * in one division; where any of the four leaves the comfortable range, they
+ * are redone one by one, a failing one one section at a time (each with
+ * Smith's division) and, where a section's polynomials overflow (w^2 beyond
+ * the double range), from the factored form.
+ */
+function cascadeResponseInto(p: PackedCascade, w: Float64Array, outRe: Float64Array, outIm: Float64Array): number {
   const n = w.length;
-  const outRe = new Float64Array(n);
-  const outIm = new Float64Array(n);
-  const c = packSections(cascade);
-  const k0 = cascade.gain;
-  // Point by point (two points per pass): numerator and denominator products
-  // meet in one division; where either leaves the comfortable range, the
-  // point is redone one section at a time (each with Smith's division).
-  for (let k = 0; k < n; k += 2) {
-    const l = k + 1 < n ? k + 1 : k;
-    const wk = w[k] as number;
-    const wl = w[l] as number;
-    sectionProductsAt(c, wk, wl);
-    const a = acc2;
-    if (!storeQuotient(k0, a[0] as number, a[1] as number, a[2] as number, a[3] as number, outRe, outIm, k)) {
-      cascadePointSlow(cascade, c, wk, k, outRe, outIm);
+  const k0 = p.gain;
+  const den = p.den;
+  const num = p.num;
+  let bad = -1;
+  for (let k = 0; k < n; k += 4) {
+    if (k + 4 > n) {
+      // the last one to three points, one by one (the same values)
+      for (let j = k; j < n; j++) if (!cascadePoint(p, w[j] as number, j, outRe, outIm) && bad < 0) bad = j;
+      break;
     }
-    if (l !== k && !storeQuotient(k0, a[4] as number, a[5] as number, a[6] as number, a[7] as number, outRe, outIm, l)) {
-      cascadePointSlow(cascade, c, wl, l, outRe, outIm);
+    const w0 = w[k] as number;
+    const w1 = w[k + 1] as number;
+    const w2 = w[k + 2] as number;
+    const w3 = w[k + 3] as number;
+    const ww0 = w0 * w0;
+    const ww1 = w1 * w1;
+    const ww2 = w2 * w2;
+    const ww3 = w3 * w3;
+    let a0 = 1;
+    let b0 = 0;
+    let a1 = 1;
+    let b1 = 0;
+    let a2 = 1;
+    let b2 = 0;
+    let a3 = 1;
+    let b3 = 0;
+    for (let i = 0; i < den.length; i += 3) {
+      const e2 = den[i] as number;
+      const e1 = den[i + 1] as number;
+      const e0 = den[i + 2] as number;
+      let fr = e0 - e2 * ww0;
+      let fi = e1 * w0;
+      let t = a0 * fr - b0 * fi;
+      b0 = a0 * fi + b0 * fr;
+      a0 = t;
+      fr = e0 - e2 * ww1;
+      fi = e1 * w1;
+      t = a1 * fr - b1 * fi;
+      b1 = a1 * fi + b1 * fr;
+      a1 = t;
+      fr = e0 - e2 * ww2;
+      fi = e1 * w2;
+      t = a2 * fr - b2 * fi;
+      b2 = a2 * fi + b2 * fr;
+      a2 = t;
+      fr = e0 - e2 * ww3;
+      fi = e1 * w3;
+      t = a3 * fr - b3 * fi;
+      b3 = a3 * fi + b3 * fr;
+      a3 = t;
+    }
+    let c0 = 1;
+    let d0 = 0;
+    let c1 = 1;
+    let d1 = 0;
+    let c2 = 1;
+    let d2 = 0;
+    let c3 = 1;
+    let d3 = 0;
+    for (let i = 0; i < num.length; i += 3) {
+      const e2 = num[i] as number;
+      const e1 = num[i + 1] as number;
+      const e0 = num[i + 2] as number;
+      let fr = e0 - e2 * ww0;
+      let fi = e1 * w0;
+      let t = c0 * fr - d0 * fi;
+      d0 = c0 * fi + d0 * fr;
+      c0 = t;
+      fr = e0 - e2 * ww1;
+      fi = e1 * w1;
+      t = c1 * fr - d1 * fi;
+      d1 = c1 * fi + d1 * fr;
+      c1 = t;
+      fr = e0 - e2 * ww2;
+      fi = e1 * w2;
+      t = c2 * fr - d2 * fi;
+      d2 = c2 * fi + d2 * fr;
+      c2 = t;
+      fr = e0 - e2 * ww3;
+      fi = e1 * w3;
+      t = c3 * fr - d3 * fi;
+      d3 = c3 * fi + d3 * fr;
+      c3 = t;
+    }
+    // the four quotients, with the test and the operations of storeQuotient
+    // (Math.min/max propagate NaN, which fails both comparisons; x - x is 0
+    // for finite x, NaN otherwise); one branch for the four
+    const nm0 = c0 * c0 + d0 * d0;
+    const nm1 = c1 * c1 + d1 * d1;
+    const nm2 = c2 * c2 + d2 * d2;
+    const nm3 = c3 * c3 + d3 * d3;
+    const dm0 = a0 * a0 + b0 * b0;
+    const dm1 = a1 * a1 + b1 * b1;
+    const dm2 = a2 * a2 + b2 * b2;
+    const dm3 = a3 * a3 + b3 * b3;
+    const v0 = k0 / dm0;
+    const v1 = k0 / dm1;
+    const v2 = k0 / dm2;
+    const v3 = k0 / dm3;
+    const r0 = (c0 * a0 + d0 * b0) * v0;
+    const i0 = (d0 * a0 - c0 * b0) * v0;
+    const r1 = (c1 * a1 + d1 * b1) * v1;
+    const i1 = (d1 * a1 - c1 * b1) * v1;
+    const r2 = (c2 * a2 + d2 * b2) * v2;
+    const i2 = (d2 * a2 - c2 * b2) * v2;
+    const r3 = (c3 * a3 + d3 * b3) * v3;
+    const i3 = (d3 * a3 - c3 * b3) * v3;
+    if (
+      Math.min(nm0, nm1, nm2, nm3, dm0, dm1, dm2, dm3) > SAFE_LO &&
+      Math.max(nm0, nm1, nm2, nm3, dm0, dm1, dm2, dm3) < SAFE_HI &&
+      r0 - r0 + (i0 - i0) + (r1 - r1) + (i1 - i1) + (r2 - r2) + (i2 - i2) + (r3 - r3) + (i3 - i3) === 0
+    ) {
+      outRe[k] = r0;
+      outIm[k] = i0;
+      outRe[k + 1] = r1;
+      outIm[k + 1] = i1;
+      outRe[k + 2] = r2;
+      outIm[k + 2] = i2;
+      outRe[k + 3] = r3;
+      outIm[k + 3] = i3;
+    } else {
+      for (let j = k; j < k + 4; j++) if (!cascadePoint(p, w[j] as number, j, outRe, outIm) && bad < 0) bad = j;
     }
   }
+  return bad;
+}
+
+/** Cascade response core (no checks). */
+export function cascadeResponseUnchecked(cascade: SectionCascade, w: Float64Array): ComplexResponse {
+  const outRe = new Float64Array(w.length);
+  const outIm = new Float64Array(w.length);
+  cascadeResponseInto(packCascade(cascade), w, outRe, outIm);
   return { re: outRe, im: outIm };
 }
 
-/** One grid point of a cascade off the fast path: section by section, else from the factored form. */
-function cascadePointSlow(
-  cascade: SectionCascade,
-  c: Float64Array,
-  wk: number,
-  k: number,
-  outRe: Float64Array,
-  outIm: Float64Array,
-): void {
-  cascadePointBySection(c, cascade.sections.length, cascade.gain, wk, k, outRe, outIm);
-  if (Number.isFinite(outRe[k] as number) && Number.isFinite(outIm[k] as number)) return;
-  const v = zpkResponseUnchecked(fromSectionsUnchecked(cascade), Float64Array.of(wk));
-  outRe[k] = v.re[0] as number;
-  outIm[k] = v.im[0] as number;
-}
-
-/** One grid point of a cascade, one section at a time with Smith's division (slow, overflow-safe path). */
-function cascadePointBySection(
-  c: Float64Array,
-  m: number,
-  k0: number,
-  wk: number,
-  k: number,
-  outRe: Float64Array,
-  outIm: Float64Array,
-): void {
+/**
+ * One grid point of a cascade off the fast path: section by section with
+ * Smith's division, else (a section polynomial overflows) from the factored
+ * form; returns whether the value stored is finite.
+ */
+function cascadePointSlow(cascade: SectionCascade, wk: number, k: number, outRe: Float64Array, outIm: Float64Array): boolean {
   const w2 = wk * wk;
-  let v: Complex = { re: k0, im: 0 };
-  for (let i = 0; i < 6 * m; i += 6) {
-    const num = { re: (c[i + 2] as number) - (c[i] as number) * w2, im: (c[i + 1] as number) * wk };
-    const den = { re: (c[i + 5] as number) - (c[i + 3] as number) * w2, im: (c[i + 4] as number) * wk };
-    v = cmul(v, cdiv(num, den));
+  let v: Complex = { re: cascade.gain, im: 0 };
+  for (const sec of cascade.sections) {
+    const [b2, b1, b0] = sec.num;
+    const [a2, a1, a0] = sec.den;
+    v = cmul(v, cdiv({ re: b0 - b2 * w2, im: b1 * wk }, { re: a0 - a2 * w2, im: a1 * wk }));
   }
-  outRe[k] = v.re;
-  outIm[k] = v.im;
+  if (v.re - v.re === 0 && v.im - v.im === 0) {
+    outRe[k] = v.re;
+    outIm[k] = v.im;
+    return true;
+  }
+  return zpkPoint(packZpk(fromSectionsUnchecked(cascade)), wk, k, outRe, outIm);
 }
 
 /**
@@ -401,19 +774,19 @@ function cascadePointBySection(
  */
 export function frequencyResponse(system: Zpk | SectionCascade, w: Float64Array): ComplexResponse {
   const fn = "frequencyResponse";
-  requireSystem(fn, "system", system);
+  const p = packSystem(fn, system);
   const grid = requireGrid(fn, "w", w);
-  checkNoAxisPole(fn, polesOf(system), grid);
-  const h = isCascade(system) ? cascadeResponseUnchecked(system, grid) : zpkResponseUnchecked(system, grid);
-  for (let i = 0; i < grid.length; i++) {
-    if (!Number.isFinite(h.re[i] as number) || !Number.isFinite(h.im[i] as number)) {
-      throw new InvalidArgumentError({
-        fn,
-        path: `w[${i}]`,
-        received: grid[i],
-        message: "the response at this frequency is beyond the double range (a pole or zero product overflows or underflows to 0/0); scale the gain or the roots, or leave this frequency out",
-      });
-    }
+  rejectAxisPoles(fn, p, grid);
+  const re = new Float64Array(grid.length);
+  const im = new Float64Array(grid.length);
+  const bad = "cascade" in p ? cascadeResponseInto(p, grid, re, im) : zpkResponseInto(p, grid, re, im);
+  if (bad >= 0) {
+    throw new InvalidArgumentError({
+      fn,
+      path: `w[${bad}]`,
+      received: grid[bad],
+      message: "the response at this frequency is beyond the double range (a pole or zero product overflows or underflows to 0/0); scale the gain or the roots, or leave this frequency out",
+    });
   }
-  return h;
+  return { re, im };
 }

@@ -327,7 +327,7 @@ export function toSectionsUnchecked(system: Zpk, ordering: SectionOrdering, zero
     if (ordering === "descending-q") built.reverse();
   }
   return Object.freeze({
-    sections: Object.freeze(built.map(({ section }) => Object.freeze(section))),
+    sections: Object.freeze(built.map(({ section }) => freezeSection(section))),
     gain,
   });
 }
@@ -403,6 +403,13 @@ export function toSections(system: Zpk, options?: ToSectionsOptions): SectionCas
     });
   }
   return cascade;
+}
+
+/** Freeze a section and its coefficient arrays (a cascade from {@link toSections} is frozen all through). */
+function freezeSection(s: Section): Section {
+  Object.freeze(s.num);
+  Object.freeze(s.den);
+  return Object.freeze(s);
 }
 
 /** Whether every number of a section is finite. */

@@ -3,7 +3,7 @@ import fc from "fast-check";
 import { frequencyResponse, packedMagnitudeAt, packZpk } from "../../src/tf/response.ts";
 import { magnitudeDb, magnitudeDbByFactorUnchecked, MAGNITUDE_FLOOR_DB } from "../../src/tf/magnitude.ts";
 import { groupDelay, phase } from "../../src/tf/phase.ts";
-import { toSections } from "../../src/tf/sections.ts";
+import { evalCascade, fromSections, toSections } from "../../src/tf/sections.ts";
 import { zpk } from "../../src/tf/zpk.ts";
 import type { Complex } from "../../src/math/complex.ts";
 import { InvalidArgumentError } from "../../src/errors.ts";
@@ -133,17 +133,151 @@ describe("packedMagnitudeAt (one-point, unchecked)", () => {
   });
 });
 
-describe("frequencyResponse two points per pass", () => {
-  it("gives at every point of an odd-length grid exactly the one-point value", () => {
-    const h = fixtureZpk(filters[0]!);
-    const w = Float64Array.from(filters[0]!.w.slice(0, 7));
-    for (const system of [h, toSections(h)]) {
+describe("four grid points per pass", () => {
+  // a grid of 11 points (two blocks of four and a tail of three); the last
+  // point of the first block is far above the band, where the pole product
+  // overflows, so that block falls back to one point at a time
+  const poles = butterworth30();
+  const h = zpk([{ re: 0, im: 3 }, { re: 0, im: -3 }], poles, 1);
+  const w = Float64Array.of(0, 0.3, 0.9, 1e12, 1.1, 2, 3, 5, 40, 700, 9e3);
+  for (const [label, system] of [
+    ["zpk", h],
+    ["cascade", toSections(h)],
+    ["fixture cascade", toSections(fixtureZpk(filters[0]!))],
+  ] as const) {
+    it(`${label}: every point is exactly its one-point value (frequencyResponse and magnitudeDb)`, () => {
       const all = frequencyResponse(system, w);
+      const db = magnitudeDb(system, w);
       for (let i = 0; i < w.length; i++) {
         const one = frequencyResponse(system, w.subarray(i, i + 1));
         expect([all.re[i], all.im[i]]).toEqual([one.re[0], one.im[0]]);
+        expect(db[i]).toBe(magnitudeDb(system, w.subarray(i, i + 1))[0]);
+      }
+    });
+  }
+
+  it("magnitudeDb gives the same values whether or not the grid lets it skip the range tracking", () => {
+    // the grid's largest |w| decides whether the products' range is proven
+    // for the whole grid (no per-point tracking); a far point turns that off
+    const f = fixtureZpk(filters[0]!);
+    const w0 = Float64Array.from(f.poles.map((p) => Math.abs(p.im) * 1.01 + 0.5));
+    const far = Float64Array.from([...w0, 1e250]);
+    for (const system of [f, toSections(f)]) {
+      const near = magnitudeDb(system, w0);
+      const mixed = magnitudeDb(system, far);
+      for (let i = 0; i < w0.length; i++) expect(mixed[i]).toBe(near[i]);
+      expect(mixed[w0.length]).toBe(magnitudeDbByFactorUnchecked(system, far.subarray(w0.length))[0]);
+    }
+  });
+});
+
+describe("magnitudeDb (squared products) vs the complex response", () => {
+  const root = fc.record({
+    re: fc.double({ min: -1e4, max: 1e4, noNaN: true }),
+    im: fc.double({ min: 0, max: 1e4, noNaN: true }),
+    real: fc.boolean(),
+    axis: fc.boolean(),
+  });
+  const expand = (r: { re: number; im: number; real: boolean; axis: boolean }): Complex[] => {
+    const re = r.axis ? 0 : r.re;
+    return r.real ? [{ re, im: 0 }] : [{ re, im: r.im }, { re, im: -r.im }];
+  };
+  const stable = (r: { re: number; im: number; real: boolean; axis: boolean }): Complex[] =>
+    expand({ ...r, re: -Math.max(Math.abs(r.re), 1e-2), axis: false });
+
+  it("20 log10 |frequencyResponse| agrees to 1e-12 dB over random zpk systems and their cascades", () => {
+    fc.assert(
+      fc.property(
+        fc.array(root, { maxLength: 6 }),
+        fc.array(root, { minLength: 1, maxLength: 8 }),
+        fc.double({ min: -6, max: 6, noNaN: true }),
+        fc.array(fc.double({ min: -2e4, max: 2e4, noNaN: true }), { minLength: 1, maxLength: 14 }),
+        (zs, ps, logGain, ws) => {
+          const h = zpk(zs.flatMap(expand), ps.flatMap(stable), 10 ** logGain);
+          const w = Float64Array.from(ws);
+          for (const system of h.zeros.length <= h.poles.length ? [h, toSections(h)] : [h]) {
+            const db = magnitudeDb(system, w);
+            const r = frequencyResponse(system, w);
+            for (let i = 0; i < w.length; i++) {
+              const m = Math.hypot(r.re[i]!, r.im[i]!);
+              const ref = 20 * Math.log10(m);
+              // section polynomials s^2 + wz^2 lose relative accuracy next to a notch: both forms
+              // are then far below the passband; compare the zpk form everywhere above the floor
+              if (!(ref > MAGNITUDE_FLOOR_DB)) expect(db[i]).toBe(MAGNITUDE_FLOOR_DB);
+              else if (system === h || ref > -200) expectClose(db[i]!, ref, { rel: 0, abs: 1e-12, label: `dB at w=${w[i]}` });
+            }
+          }
+        },
+      ),
+      { numRuns: 300 },
+    );
+  });
+});
+
+describe("cascade jw-axis poles (read from the sections)", () => {
+  it("rejects the same grid points, with the same paths, as the cascade's zpk", () => {
+    const cascade = {
+      gain: 1,
+      sections: [
+        { order: 2 as const, num: [0, 0, 4] as const, den: [1, 0.5, 4] as const, w0: 2, q: 4, kind: "lowpass" as const },
+        { order: 2 as const, num: [0, 0, 9] as const, den: [1, 0, 9] as const, w0: 3, q: Infinity, kind: "lowpass" as const },
+        { order: 1 as const, num: [0, 1, 0] as const, den: [0, 1, 0] as const, w0: 0, kind: "highpass" as const },
+      ],
+    };
+    const z = fromSections(cascade);
+    expect(() => magnitudeDb(cascade, Float64Array.of(1, 3))).toThrow(/jw axis/);
+    expect(() => frequencyResponse(cascade, Float64Array.of(1, -3))).toThrow(InvalidArgumentError);
+    expect(() => frequencyResponse(cascade, Float64Array.of(2, 0))).toThrow(/jw axis/);
+    for (const w of [Float64Array.of(1, 3), Float64Array.of(-3, 5), Float64Array.of(2, 0), Float64Array.of(1, 2, 2.5)]) {
+      const fromZpk = (() => {
+        try {
+          frequencyResponse(z, w);
+          return "ok";
+        } catch (e) {
+          return (e as Error).message;
+        }
+      })();
+      for (const f of [frequencyResponse, magnitudeDb] as const) {
+        if (fromZpk === "ok") expect(() => f(cascade, w)).not.toThrow();
+        else expect(() => f(cascade, w)).toThrow(fromZpk.replace("frequencyResponse", f.name));
       }
     }
+  });
+});
+
+describe("packed systems", () => {
+  it("a system that is not frozen is read afresh on every call", () => {
+    const h = { zeros: [] as Complex[], poles: [{ re: -1, im: 0 }], gain: 1 };
+    const w = Float64Array.of(1);
+    expect(magnitudeDb(h, w)[0]).toBeCloseTo(-3.0103, 4);
+    h.poles[0] = { re: -2, im: 0 };
+    h.gain = 2;
+    expect(magnitudeDb(h, w)[0]).toBeCloseTo(20 * Math.log10(2 / Math.sqrt(5)), 12);
+    expect(frequencyResponse(h, w).re[0]).toBeCloseTo(0.8, 14);
+    h.gain = Number.NaN;
+    expect(() => frequencyResponse(h, w)).toThrow(/gain/);
+  });
+
+  it("toSections returns a cascade frozen down to the coefficient arrays", () => {
+    const c = toSections(fixtureZpk(filters[0]!));
+    expect(Object.isFrozen(c.sections[0]!.num) && Object.isFrozen(c.sections[0]!.den)).toBe(true);
+  });
+
+  it("a cascade whose constant numerators would overflow when multiplied into the gain is evaluated as given", () => {
+    // three sections with b0 = a0 = 1e200: the product 1e600 of the numerators is not folded
+    const sec = { order: 2 as const, num: [0, 0, 1e200] as const, den: [1, 1e100, 1e200] as const, w0: 1e100, q: 1, kind: "lowpass" as const };
+    const cascade = { gain: 1, sections: [sec, sec, sec] };
+    const w = Float64Array.of(0, 3e99, 1e100, 2e100, 1e101);
+    const r = frequencyResponse(cascade, w);
+    const db = magnitudeDb(cascade, w);
+    w.forEach((x, i) => {
+      const v = evalCascade(cascade, { re: 0, im: x });
+      expectClose(r.re[i]!, v.re, { rel: 1e-14, abs: 1e-16 });
+      expectClose(r.im[i]!, v.im, { rel: 1e-14, abs: 1e-16 });
+      // where w^2 terms overflow the dB value is a sum of logarithms of magnitudes near 1e200
+      // (460 natural-log units, ulp 6e-14, times 8.7 dB per unit): 1e-11 dB
+      expectClose(db[i]!, 20 * Math.log10(Math.hypot(v.re, v.im)), { rel: 0, abs: 1e-11 });
+    });
   });
 });
 
@@ -272,6 +406,30 @@ describe("response argument validation", () => {
     expect(() => groupDelay({ sections: [], gain: "1" } as unknown as never, Float64Array.of(1))).toThrow(/gain/);
     const integrator = zpk([], [{ re: 0, im: 0 }], 1);
     expect(() => frequencyResponse(integrator, Float64Array.of(0, 1))).toThrow(/jw axis/);
+  });
+});
+
+describe("system validation on the public boundary", () => {
+  const w = Float64Array.of(0.5, 2);
+  const p = { re: -1, im: 2 };
+  const q = { re: -3, im: 0.5 };
+  const c = (x: Complex): Complex => ({ re: x.re, im: -x.im });
+  it("accepts conjugates in any order and within the pairing tolerance, with the same values", () => {
+    const ref = magnitudeDb({ zeros: [], poles: [p, c(p), q, c(q)], gain: 3 }, w);
+    for (const poles of [
+      [p, q, c(q), c(p)],
+      [p, q, c(p), c(q)],
+      [c(p), p, { re: -3, im: -0.5 * (1 + 1e-12) }, q],
+    ]) {
+      expectArrayClose(magnitudeDb({ zeros: [], poles, gain: 3 }, w), ref, { rel: 0, abs: 1e-10 });
+    }
+  });
+  it("names the failing field", () => {
+    expect(() => magnitudeDb({ zeros: [], poles: [p, c(p), q], gain: 1 }, w)).toThrow(/system\.poles\[2\]/);
+    expect(() => frequencyResponse({ zeros: [{ re: 0, im: Number.NaN }], poles: [q, c(q)], gain: 1 }, w)).toThrow(/system\.zeros\[0\]/);
+    expect(() => frequencyResponse({ zeros: [], poles: [p, c(p)], gain: Infinity }, w)).toThrow(/system\.gain/);
+    const sec = { order: 2, num: [0, 0, 1], den: [2, 1, 1], w0: 1, q: 1, kind: "lowpass" };
+    expect(() => magnitudeDb({ gain: 1, sections: [sec] } as never, w)).toThrow(/system\.sections\[0\]\.den/);
   });
 });
 
