@@ -67,12 +67,13 @@ describe("boardPolynomialsInto (a board's parts on the circles planned at nomina
     fc.record({
       design: realisableArb(topo),
       deviation: fc.array(fc.double({ min: -0.1, max: 0.1, noNaN: true }), { minLength: 12, maxLength: 12 }),
-      model: fc.constantFrom("ideal", "single-pole", "single-pole-rout"),
+      // an op-amp with an output resistance: every topology's closed form declines it, so the board takes the planned circles
+      model: fc.constant("single-pole-rout" as const),
       a0Log: fc.double({ min: 3, max: 7, noNaN: true }),
       gbwLog: fc.double({ min: 0.5, max: 4, noNaN: true }),
     });
-  for (const topo of topologies.filter((t) => t.polynomialDegree === undefined)) {
-    it(`${topo.id}: agrees with the full generic path to 1e-9 dB for parts within 10 %`, () => {
+  for (const topo of topologies) {
+    it(`${topo.id}: agrees with the full generic path to 1e-9 dB for parts within 10 % (op-amp with an output resistance)`, () => {
       fc.assert(
         fc.property(boardArb(topo), ({ design, deviation, model, a0Log, gbwLog }) => {
           const nominal = topo.design(design.target, design.choices);
