@@ -63,7 +63,13 @@ export class Reader {
     }
     if (typeof value === "string") {
       try {
-        return parseValue(value, { unit });
+        // zero and negative values are refused here, in the spec's terms (the parser's own message names its options)
+        const v = parseValue(value, { unit, allowZero: true, allowNegative: true });
+        if (!(v > 0)) {
+          this.add(path, `expected a number of ${unit} greater than zero${v < 0 ? "; write it without the minus sign" : ""}`, value);
+          return undefined;
+        }
+        return v;
       } catch (e) {
         const why = e instanceof FilterwrightError ? e.reason : e instanceof Error ? e.message : String(e);
         this.add(path, `could not read ${JSON.stringify(value)} as ${unit} (${why})`, value);

@@ -280,3 +280,15 @@ describe("validateSpec ranges of the bands", () => {
     expect(tiny[0]?.message).toBe("expected a loss in dB at least 0.001 and at most 20");
   });
 });
+
+describe("validateSpec quantities written as text", () => {
+  it("a negative or zero edge is refused in the spec's terms, without the parser's option names", () => {
+    const lp = (pass: unknown) => ({ response: "lowpass", passband: { edgeHz: pass, maxLossDb: 0.5 }, stopband: { edgeHz: "5k", minAttenuationDb: 40 } });
+    const negative = issuesOf(lp("-2k"));
+    expect(negative.map((i) => i.path)).toEqual(["passband.edgeHz"]);
+    expect(negative[0]?.message).toBe("expected a number of Hz greater than zero; write it without the minus sign");
+    const zero = issuesOf(lp("0k"));
+    expect(zero[0]?.message).toBe("expected a number of Hz greater than zero");
+    expect(checkSpec(lp("2k"))).toEqual([]);
+  });
+});
