@@ -37,7 +37,8 @@ import {
   lowpassToHighpass,
   lowpassToLowpass,
 } from "../tf/index.ts";
-import { packedMagnitudeAt, packZpk } from "../tf/response.ts";
+import { packZpk } from "../tf/packed.ts";
+import { packedMagnitudeAt } from "../tf/response.ts";
 import { TWO_PI } from "../units/constants.ts";
 import { geometricBisect, goldenMax } from "../math/optimize.ts";
 import type { DesignSpec } from "./spec.ts";

@@ -20,7 +20,7 @@
  */
 import type { Complex } from "../math/complex.ts";
 import { isCascade, requireGrid, requireSystem } from "./check.ts";
-import { checkNoAxisPole } from "./response.ts";
+import { checkNoAxisPole } from "./packed.ts";
 import { fromSectionsUnchecked } from "./sections.ts";
 import type { SectionCascade, Zpk } from "./types.ts";
 

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { frequencyResponse, packedMagnitudeAt, packZpk } from "../../src/tf/response.ts";
+import { packZpk } from "../../src/tf/packed.ts";
+import { frequencyResponse, packedMagnitudeAt } from "../../src/tf/response.ts";
 import { magnitudeDb, magnitudeDbByFactorUnchecked, MAGNITUDE_FLOOR_DB } from "../../src/tf/magnitude.ts";
 import { groupDelay, phase } from "../../src/tf/phase.ts";
 import { evalCascade, fromSections, toSections } from "../../src/tf/sections.ts";
