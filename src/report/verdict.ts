@@ -28,11 +28,16 @@ function tolerances(xs: readonly number[]): string {
 export function verdictLine(r: DesignResult): string {
   const v = r.verification;
   const y = v.yield;
+  const margin = `margin ${v.marginDb.toFixed(3)} dB`;
   const nominal = v.meetsSpec
-    ? `meets the mask nominally, margin ${v.marginDb.toFixed(3)} dB`
-    : v.stable
-      ? `misses the mask nominally, margin ${v.marginDb.toFixed(3)} dB`
-      : `is unstable (stage ${v.unstableStages.join(", ")} oscillates with the op-amp)`;
+    ? `meets the mask nominally, ${margin}`
+    : !v.stable
+      ? `is unstable (stage ${v.unstableStages.join(", ")} oscillates with the op-amp)`
+      : v.marginDb < 0 || !v.polarityOk
+        ? `misses the mask nominally, ${margin}`
+        : v.headroom?.clips === true
+          ? `meets the mask nominally (${margin}) but op-amp ${v.headroom.worstOpamp} clips at the spec's signal levels`
+          : `misses the spec nominally, ${margin}`;
   const boards = `${pc(y.fraction)} % of boards [${pc(y.lower95)}, ${pc(y.upper95)}] at ${tolerances(y.resistorTolerances)} R / ${tolerances(y.capacitorTolerances)} C`;
   const unstable = y.unstableBoards > 0 ? `, ${y.unstableBoards} of ${y.boards} boards unstable` : "";
   return `${nominal}; ${boards} (${y.boards} boards${unstable}; target ${pc(y.target)} %: ${y.met ? "met" : "NOT met"})`;
