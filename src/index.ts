@@ -102,6 +102,9 @@ export {
   toMarkdown,
   toSvgPlot,
   type SpiceNetlistOptions,
+  type OpampSubcircuit,
+  type OpampPin,
+  type OpampSupply,
   type BomLine,
   type SvgPlotOptions,
 } from "./report/index.ts";

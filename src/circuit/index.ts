@@ -36,3 +36,4 @@ export {
   type CircuitToSpiceOptions,
   type SpiceAcSweep,
 } from "./spice.ts";
+export { OPAMP_PINS, type OpampPin, type OpampSubcircuit, type OpampSupply } from "./spice-opamp.ts";

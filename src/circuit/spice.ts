@@ -4,7 +4,9 @@
  * Values are written in plain exponent notation with every significant digit
  * (`1.5915494309189535e-8`), never with SPICE scale suffixes, so there is no
  * milli/mega (`M`/`MEG`) ambiguity and the simulator sees the exact value.
- * Op-amps become one `.subckt` per distinct model:
+ * Op-amps become one `.subckt` per distinct model, or instances of a
+ * subcircuit of the caller's own (`opampSubcircuit`, with supply rails when it
+ * has supply pins):
  * - ideal: a VCVS of gain 1e9 (the nullor's limit; the error it adds is of
  *   order noise gain / 1e9);
  * - single-pole: a transconductance `G` of 1 S into `R = a0` ohms in parallel
@@ -18,6 +20,7 @@ import { TWO_PI } from "../units/constants.ts";
 import { InvalidArgumentError } from "../errors.ts";
 import type { Circuit, Element, OpAmpModel } from "./types.ts";
 import { checkCircuit } from "./validate.ts";
+import { checkOpampSubcircuit, opampDefinition, opampInstance, SUPPLY_NODES, type OpampSubcircuit } from "./spice-opamp.ts";
 
 /** The `.ac` sweep card: logarithmic, N points per decade. */
 export interface SpiceAcSweep {
@@ -42,6 +45,18 @@ export interface CircuitToSpiceOptions {
    * @defaultValue `[]`
    */
   readonly comments?: readonly string[];
+  /**
+   * An op-amp subcircuit of your own that every op-amp instantiates, in place
+   * of the built-in models (see {@link OpampSubcircuit}).
+   * @defaultValue each op-amp's own model, written as a built-in subcircuit
+   */
+  readonly opampSubcircuit?: OpampSubcircuit;
+  /**
+   * Lines written after the `.ac` card and before `.end`: `.print`, `.meas`
+   * or a `.control` block.
+   * @defaultValue `[]`
+   */
+  readonly cards?: readonly string[];
 }
 
 /** Gain of the VCVS that stands in for an ideal op-amp in the netlist. */
@@ -116,6 +131,21 @@ function checkSweep(fn: string, ac: unknown): SpiceAcSweep {
   return { pointsPerDecade: n, startHz: f1, stopHz: f2 };
 }
 
+/** The supply rails' nodes and sources must not collide with the circuit's own. */
+function requireFreeSupplyNodes(fn: string, circuit: Circuit): void {
+  const taken = new Set<string>();
+  for (const e of circuit.elements) {
+    taken.add(e.name.toLowerCase());
+    if (e.kind === "OA") [e.inP, e.inN, e.out].forEach((n) => taken.add(n.toLowerCase()));
+    else [e.a, e.b, ...(e.kind === "E" ? [e.cp, e.cn] : [])].forEach((n) => taken.add(n.toLowerCase()));
+  }
+  for (const n of [...Object.values(SUPPLY_NODES), "vpos", "vneg"]) {
+    if (taken.has(n)) {
+      throw new InvalidArgumentError({ fn, path: "options.opampSubcircuit.supplyV", received: n, message: `the circuit already uses the name "${n}" that the supply rails need; rename that node or element` });
+    }
+  }
+}
+
 /**
  * Write a circuit as a SPICE netlist (title line, elements, op-amp
  * subcircuits, optional `.ac` card, `.end`) that ngspice runs unchanged.
@@ -150,6 +180,12 @@ export function circuitToSpice(circuit: Circuit, options: CircuitToSpiceOptions 
   if (!Array.isArray(comments) || comments.some((c) => typeof c !== "string")) {
     throw new InvalidArgumentError({ fn, path: "options.comments", received: comments, message: "expected an array of strings" });
   }
+  const sub = options.opampSubcircuit === undefined ? undefined : checkOpampSubcircuit(fn, "options.opampSubcircuit", options.opampSubcircuit);
+  if (sub?.supplyV !== undefined) requireFreeSupplyNodes(fn, circuit);
+  const cards = options.cards ?? [];
+  if (!Array.isArray(cards) || cards.some((c) => typeof c !== "string" || /[\r\n]/.test(c) || /^\s*\.end\s*$/i.test(c))) {
+    throw new InvalidArgumentError({ fn, path: "options.cards", received: cards, message: "expected an array of single lines (no .end: it is written last)" });
+  }
   const title = circuit.title.replace(/[\r\n]+/g, " ").trim();
   const lines: string[] = [title === "" ? "filterwright circuit" : title];
   for (const c of comments) for (const l of c.split(/\r?\n/)) lines.push(`* ${l}`);
@@ -169,6 +205,10 @@ export function circuitToSpice(circuit: Circuit, options: CircuitToSpiceOptions 
         lines.push(`${d} ${e.a} ${e.b} ${e.cp} ${e.cn} ${spiceNumber(e.gain)}`);
         break;
       case "OA": {
+        if (sub !== undefined) {
+          lines.push(opampInstance(d, e, sub));
+          break;
+        }
         const key = modelKey(e.model);
         let entry = models.get(key);
         if (entry === undefined) {
@@ -183,9 +223,11 @@ export function circuitToSpice(circuit: Circuit, options: CircuitToSpiceOptions 
     }
   }
   for (const { name, model } of models.values()) lines.push(...subckt(name, model));
+  if (sub !== undefined && circuit.elements.some((e) => e.kind === "OA")) lines.push(...opampDefinition(sub, spiceNumber));
   if (sweep !== false) {
     lines.push(`.ac dec ${sweep.pointsPerDecade} ${spiceNumber(sweep.startHz)} ${spiceNumber(sweep.stopHz)}`);
   }
+  lines.push(...cards);
   lines.push(".end", "");
   return lines.join("\n");
 }

@@ -5,6 +5,7 @@
  * @module
  */
 export { toSpiceNetlist, type SpiceNetlistOptions } from "./spice.ts";
+export type { OpampPin, OpampSubcircuit, OpampSupply } from "../circuit/index.ts";
 export { toBomCsv, bomLines, type BomLine } from "./bom.ts";
 export { toJson, fromJson, DESIGN_FORMAT_VERSION, JSON_MAX_CHARS, JSON_MAX_DEPTH } from "./json.ts";
 export { toMarkdown, DESIGN_CAUTIONS } from "./markdown.ts";

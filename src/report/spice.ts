@@ -3,10 +3,13 @@
  *
  * @module
  */
-import { circuitToSpice } from "../circuit/index.ts";
+import { circuitToSpice, type OpampSubcircuit } from "../circuit/index.ts";
 import { designCircuit, responseSpanHz, type DesignResult } from "../design/index.ts";
 import type { OpAmpModel } from "../circuit/types.ts";
 import { requireDesignResult } from "../design/check.ts";
+import { requireOptions } from "../validate.ts";
+import { InvalidArgumentError } from "../errors.ts";
+import { maskCheckCards } from "./spice-measure.ts";
 
 /** Options of {@link toSpiceNetlist}. */
 export interface SpiceNetlistOptions {
@@ -30,12 +33,32 @@ export interface SpiceNetlistOptions {
    * @defaultValue the design's op-amp (ideal: a VCVS of gain 1e9)
    */
   readonly opamp?: OpAmpModel;
+  /**
+   * An op-amp subcircuit of your own (a vendor macromodel, say) that every
+   * op-amp instantiates, with its pin order and, when it has supply pins, the
+   * rails; replaces `opamp` in the netlist. The netlist's signals sit at 0 V,
+   * so a model with supply pins needs split rails.
+   * @defaultValue the built-in model of `opamp`
+   */
+  readonly opampSubcircuit?: OpampSubcircuit;
+  /**
+   * Write the mask check: a `.control` block (ngspice's control language) that
+   * runs the sweep and prints the passband loss, the passband level and the
+   * stopband attenuation beside the spec's limits. `false` leaves it out (for
+   * other simulators, or to add your own analyses); the `.print ac vdb(out)
+   * vp(out)` card is written either way.
+   * @defaultValue true
+   */
+  readonly measure?: boolean;
 }
 
 /**
  * The SPICE netlist of a design's whole cascade: `Vin` drives node `in` with
- * AC 1 V, the filter's output node is `out`, and an `.ac` card sweeps the span
- * of the mask, so ngspice (or any SPICE) runs it unchanged.
+ * AC 1 V, the filter's output node is `out`, an `.ac` card sweeps the span
+ * of the mask, a `.print` card lists the output's level and phase, and
+ * (unless `measure: false`) a `.control` block measures the
+ * mask figures, so `ngspice -b` on the file prints the passband loss, level
+ * and stopband attenuation beside the spec's limits.
  *
  * @param result - a design from `designFilter`
  * @param options - sweep and op-amp model
@@ -49,7 +72,12 @@ export interface SpiceNetlistOptions {
  * ```
  */
 export function toSpiceNetlist(result: DesignResult, options: SpiceNetlistOptions = {}): string {
-  requireDesignResult("toSpiceNetlist", result);
+  const fn = "toSpiceNetlist";
+  requireDesignResult(fn, result);
+  requireOptions(fn, "options", options);
+  if (options.measure !== undefined && typeof options.measure !== "boolean") {
+    throw new InvalidArgumentError({ fn, path: "options.measure", received: options.measure, message: "expected true (write the mask check) or false" });
+  }
   const [lo, hi] = responseSpanHz(result.spec);
   const circuit = designCircuit(result, options.opamp === undefined ? {} : { opamp: options.opamp });
   const v = result.verification;
@@ -59,8 +87,11 @@ export function toSpiceNetlist(result: DesignResult, options: SpiceNetlistOption
     "input node: in (driven by Vin, AC 1 V); output node: out",
     ...result.stages.map((s) => `stage ${s.index}: ${s.topologyName} (${s.topology}), ${Object.keys(s.components).join(" ")} ${s.opamps.join(" ")}`),
   ];
+  const ac = { pointsPerDecade: options.pointsPerDecade ?? 50, startHz: options.startHz ?? lo, stopHz: options.stopHz ?? hi };
   return circuitToSpice(circuit, {
-    ac: { pointsPerDecade: options.pointsPerDecade ?? 50, startHz: options.startHz ?? lo, stopHz: options.stopHz ?? hi },
+    ac,
     comments,
+    ...(options.opampSubcircuit === undefined ? {} : { opampSubcircuit: options.opampSubcircuit }),
+    cards: [".print ac vdb(out) vp(out)", ...(options.measure === false ? [] : maskCheckCards(result, [ac.startHz, ac.stopHz]))],
   });
 }

@@ -34,7 +34,7 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import type { MaskBands, MaskLimits } from "../../src/evaluate/mask.ts";
-import { assertNgspice } from "./ngspice.ts";
+import { assertNgspice, withoutControl } from "./ngspice.ts";
 
 /** One board's part values, by designator (`R1`, `C3`, ...). */
 export type BoardValues = Readonly<Record<string, number>>;
@@ -118,7 +118,7 @@ function topLevelParts(lines: readonly string[]): string[] {
  */
 function runBoardsInNgspice(netlist: string, boards: readonly BoardValues[], analyses: (board: number) => readonly string[]): Sweep[] {
   assertNgspice();
-  const lines = netlist.split("\n").filter((l) => !/^\.(ac\s|end\s*$)/i.test(l.trim()));
+  const lines = withoutControl(netlist).split("\n").filter((l) => !/^\.(ac\s|end\s*$)/i.test(l.trim()));
   const parts = topLevelParts(lines);
   const dir = mkdtempSync(join(tmpdir(), "fw-ngspice-mc-"));
   try {

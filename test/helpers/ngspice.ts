@@ -38,6 +38,16 @@ export function assertNgspice(): void {
   if (!hasNgspice()) throw new Error("ngspice is required (the CI environment variable is set) but was not found on the PATH");
 }
 
+/**
+ * The netlist without its `.control` blocks (an exported design's mask
+ * check), so a harness's own control block is the only one that runs.
+ *
+ * @param netlist - SPICE netlist text
+ */
+export function withoutControl(netlist: string): string {
+  return netlist.replace(/^\.control\s*$[\s\S]*?^\.endc\s*$\n?/gim, "");
+}
+
 /** One AC sweep read back from ngspice: frequencies (Hz) and complex values of the probed vectors. */
 export interface AcResult {
   /** Frequencies in Hz. */
@@ -59,7 +69,7 @@ export function runAc(netlist: string, nodes: readonly string[]): AcResult {
   try {
     const cir = join(dir, "circuit.cir");
     const out = join(dir, "out.txt");
-    const body = netlist.replace(/\n\.end\s*$/i, "\n");
+    const body = withoutControl(netlist).replace(/\n\.end\s*$/i, "\n");
     const probes = nodes.map((n) => `v(${n})`).join(" ");
     const control = [
       ".control",
