@@ -24,7 +24,9 @@ export type ErrorCode =
   /** A filter specification has one or more problems (see `issues`). */
   | "INVALID_SPEC"
   /** An iterative method did not converge. */
-  | "NOT_CONVERGED";
+  | "NOT_CONVERGED"
+  /** A long run was stopped by its caller (an aborted signal, a time limit, or a progress callback that asked to stop). */
+  | "CANCELLED";
 
 /** Fields shared by every filterwright error. */
 export interface ErrorDetails {
@@ -190,5 +192,18 @@ export class ConvergenceError extends FilterwrightError {
   constructor(details: ErrorDetails) {
     super("NOT_CONVERGED", details);
     this.name = "ConvergenceError";
+  }
+}
+
+/**
+ * A long run (a design, a Monte Carlo run) was stopped by its caller: its
+ * `signal` was aborted, its `timeLimitMs` ran out, or its `onProgress`
+ * callback returned `false`. `path` names the option that stopped it.
+ */
+export class CancelledError extends FilterwrightError {
+  /** @param details - function, path (the option that stopped the run), received value and message */
+  constructor(details: ErrorDetails) {
+    super("CANCELLED", details);
+    this.name = "CancelledError";
   }
 }

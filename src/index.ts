@@ -32,6 +32,7 @@ export {
   SingularCircuitError,
   SpecError,
   ConvergenceError,
+  CancelledError,
   type ErrorCode,
   type ErrorDetails,
   type Issue,
@@ -75,6 +76,9 @@ export {
   type YieldCheckSpec,
   type DesignWarning,
   type DesignAction,
+  type Progress,
+  type ProgressStep,
+  type RunControl,
 } from "./design/index.ts";
 export {
   monteCarlo,

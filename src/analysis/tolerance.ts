@@ -25,6 +25,7 @@ import { runBoards, type BoardRun, type BoardStage, type PartDistribution } from
 import type { MaskPlan } from "../evaluate/mask.ts";
 import { compileStage } from "../evaluate/stage-polynomials.ts";
 import { TWO_PI } from "../units/constants.ts";
+import { checkpoint, checkRunControl, watched, type RunControl } from "../evaluate/progress.ts";
 
 /** Options of {@link monteCarlo}. */
 export interface MonteCarloOptions {
@@ -54,6 +55,21 @@ export interface MonteCarloOptions {
    * @defaultValue "uniform"
    */
   readonly distribution?: PartDistribution;
+  /**
+   * Called after every batch of 256 boards with the boards built so far; return `false` to stop the run.
+   * @defaultValue none
+   */
+  readonly onProgress?: RunControl["onProgress"];
+  /**
+   * Stops the run at the next batch once aborted.
+   * @defaultValue none
+   */
+  readonly signal?: AbortSignal;
+  /**
+   * Stops the run at the first batch after this many milliseconds (1 ms to 1 day).
+   * @defaultValue no limit
+   */
+  readonly timeLimitMs?: number;
 }
 
 /** Smallest, median and largest of a figure over the runs. */
@@ -249,7 +265,11 @@ export function monteCarloSummary(
  */
 export function monteCarlo(result: DesignResult, options?: MonteCarloOptions): MonteCarloResult {
   const settings = monteCarloSettings("monteCarlo", result, options);
+  const control = checkRunControl("monteCarlo", "options", options === undefined ? undefined : { onProgress: options.onProgress, signal: options.signal, timeLimitMs: options.timeLimitMs });
   const { plan, stages } = monteCarloStages(result, settings);
-  const run = runBoards(stages, plan, { boards: settings.runs, seed: settings.seed, distribution: settings.distribution });
+  const run = watched("monteCarlo", "options", control, () => {
+    checkpoint("boards", "Monte Carlo boards", { done: 0, total: settings.runs });
+    return runBoards(stages, plan, { boards: settings.runs, seed: settings.seed, distribution: settings.distribution });
+  });
   return monteCarloSummary(result, stages, settings, run);
 }

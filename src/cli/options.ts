@@ -118,6 +118,7 @@ export const OPTIONS: readonly OptionDef[] = [
   { name: "seed", kind: "integer", placeholder: "S", what: "a whole number", example: "7", help: "seed of the --yield boards (default 1; needs --yield)", commands: DESIGNING, section: "output" },
   { name: "noise", kind: "density-v", placeholder: "EN", what: "a noise density in V/rtHz, such as 8n, or 0 for resistors only", example: "8n", help: "output noise: resistors plus op-amp voltage noise EN (V/rtHz, e.g. 8n; 0 for resistors only)", commands: DESIGNING, section: "output" },
   { name: "noise-in", kind: "density-a", placeholder: "IN", what: "a noise density in A/rtHz, such as 1p", example: "1p", help: "and op-amp current noise IN (A/rtHz, e.g. 1p; needs --noise)", commands: DESIGNING, section: "output" },
+  { name: "progress", kind: "none", placeholder: "", what: "", example: "", help: "report each step of a long run on standard error (family, search, yield candidates, boards)", commands: DESIGNING, section: "output" },
   { name: "quiet", kind: "none", placeholder: "", what: "", example: "", help: "print only the verification line", commands: DESIGNING, section: "output" },
   { name: "help", kind: "none", placeholder: "", what: "", example: "", help: "this text (also -h)", commands: COMMANDS, section: "general" },
   { name: "version", kind: "none", placeholder: "", what: "", example: "", help: "the program version", commands: COMMANDS, section: "general" },

@@ -11,7 +11,7 @@
  * @module
  */
 import { FilterwrightError, SpecError } from "../errors.ts";
-import { checkSpec, designFilter, type DesignResult, type FilterSpec } from "../design/index.ts";
+import { checkSpec, designFilter, type DesignResult, type FilterSpec, type Progress, type RunControl } from "../design/index.ts";
 import { toBomCsv, toJson, toMarkdown, toSpiceNetlist, toSvgPlot } from "../report/index.ts";
 import { topologies } from "../topologies/index.ts";
 import { formatValue } from "../units/index.ts";
@@ -101,14 +101,14 @@ function analysis<T>(options: ReadonlyMap<string, GivenOption>, f: () => T): T {
 }
 
 /** The extra report lines asked for: Monte Carlo boards, output noise, part sensitivities. */
-function extraLines(r: DesignResult, o: ReadonlyMap<string, GivenOption>): string[] {
+function extraLines(r: DesignResult, o: ReadonlyMap<string, GivenOption>, control: RunControl): string[] {
   const extra: string[] = [];
   const runs = o.get("yield")?.value;
   if (typeof runs === "number") {
     const seed = o.get("seed")?.value;
     // The boards spread their parts as the spec says (--distribution), as the design's own yield check does.
     const distribution = r.spec.partDistribution;
-    const mc = analysis(o, () => monteCarlo(r, { runs, seed: typeof seed === "number" ? seed : 1, distribution }));
+    const mc = analysis(o, () => monteCarlo(r, { runs, seed: typeof seed === "number" ? seed : 1, distribution, ...control }));
     extra.push(
       `Monte Carlo: ${mc.runs} boards, resistors +-${(mc.tolerances.resistor * 100).toFixed(1)} %, capacitors +-${(mc.tolerances.capacitor * 100).toFixed(1)} % (${distribution}): ` +
         `${(mc.yield * 100).toFixed(1)} % meet the mask (+-${(mc.yieldStandardError * 100).toFixed(1)} %); ` +
@@ -177,13 +177,29 @@ function writeOutputs(r: DesignResult, o: ReadonlyMap<string, GivenOption>, io: 
 }
 
 /** Design the spec, or say in command-line terms why it cannot be designed. */
-function designOrExplain(spec: Record<string, unknown>, source: SpecSource, earlier: Earlier): DesignResult {
+/** The `--progress` reporter: every step on standard error, batches of boards at most once a second. */
+function progressOf(o: ReadonlyMap<string, GivenOption>, io: CliIo): RunControl {
+  if (o.get("progress")?.value !== true) return {};
+  let lastBoards = -Infinity;
+  return {
+    onProgress: (p: Progress) => {
+      if (p.step === "boards") {
+        if (p.elapsedMs - lastBoards < 1000) return;
+        lastBoards = p.elapsedMs;
+      }
+      const boards = p.boards === undefined ? "" : ` ${p.boards}/${p.totalBoards}`;
+      io.stderr(`[${(p.elapsedMs / 1000).toFixed(1)} s] ${p.message}${boards}\n`);
+    },
+  };
+}
+
+function designOrExplain(spec: Record<string, unknown>, source: SpecSource, earlier: Earlier, control: RunControl = {}): DesignResult {
   // The spec's own issues are listed with the values that could not be read, those options' fields left out.
   const lines = [...earlier.lines, ...issueLines(checkSpec(spec), source, earlier.failed)];
   if (lines.length > 0) throw new CliProblems(lines);
   try {
     // the spec comes from JSON and flags: designFilter validates it at run time
-    return designFilter(spec as unknown as FilterSpec);
+    return designFilter(spec as unknown as FilterSpec, control);
   } catch (e) {
     if (e instanceof SpecError) throw new CliProblems(issueLines(e.issues, source));
     if (e instanceof FilterwrightError) {
@@ -212,8 +228,9 @@ function design(start: Start, o: ReadonlyMap<string, GivenOption>, earlier: Earl
   const { base, sourceName } = start;
   const merged = specFromOptions(base, o);
   if (merged.problems.length > 0) throw new CliProblems([...earlier.lines, ...merged.problems]);
-  const r = designOrExplain(merged.spec, { name: sourceName, base, options: o }, earlier);
-  const extra = extraLines(r, o);
+  const control = progressOf(o, io);
+  const r = designOrExplain(merged.spec, { name: sourceName, base, options: o }, earlier, control);
+  const extra = extraLines(r, o, control);
   const toStdout = writeOutputs(r, o, io);
   // With an output on standard output, the summary goes to standard error so the output can be piped.
   const say = toStdout === undefined ? io.stdout : io.stderr;

@@ -53,3 +53,4 @@ export type {
   BoardYield,
   YieldAlternative,
 } from "./types.ts";
+export type { Progress, ProgressStep, RunControl } from "../evaluate/progress.ts";

@@ -22,6 +22,7 @@ import { designForYieldAcrossFamilies } from "./yield.ts";
 import { feasibility } from "./relax.ts";
 import type { DesignResult } from "./types.ts";
 import type { FilterSpec } from "./spec-types.ts";
+import { checkpoint, checkRunControl, watched, type RunControl } from "../evaluate/progress.ts";
 
 export { LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./result.ts";
 
@@ -35,9 +36,17 @@ export { LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./result.ts";
  * the limit meets the mask, `familyChoice.feasibility` says the order each
  * family would need and the nearest relaxations that make the mask feasible.
  *
+ * A long design (a high-order bandstop whose yield ladder builds thousands of
+ * boards) can be watched and stopped: `control.onProgress` is told each step
+ * (family, component search, each yield candidate, each batch of boards), and
+ * the design stops with a {@link CancelledError} when the callback returns
+ * `false`, `control.signal` is aborted or `control.timeLimitMs` has passed.
+ *
  * @param spec - the specification (validated here; see {@link FilterSpec})
+ * @param control - progress callback, abort signal and time limit (all optional)
  * @returns the design as plain readonly data
  * @throws {@link SpecError} listing every problem of a malformed spec
+ * @throws {@link CancelledError} when `control` stops the run (its `path` names the option)
  * @throws {@link UnrealisableError} when no topology or capacitor window can build a stage
  * @example
  * ```ts
@@ -50,14 +59,19 @@ export { LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./result.ts";
  * r.stages.length; //=> 2
  * ```
  */
-export function designFilter(spec: FilterSpec): DesignResult {
+export function designFilter(spec: FilterSpec, control?: RunControl): DesignResult {
   const canonical: DesignSpec = validateSpec(spec);
-  const chosen = chooseFamily(canonical);
-  const { family, order } = chosen;
-  const orders = orderRange(canonical, order);
-  const choice = order === null ? { ...chosen.choice, feasibility: feasibility(canonical, family, orders.last) } : chosen.choice;
-  const nominal = searchDesign(canonical, family, orders);
-  const robust = designForYieldAcrossFamilies(canonical, { family, orders, nominal }, choice);
-  const actions = robust.family === family ? [...nominal.actions, ...robust.actions] : [...robust.actions];
-  return assembleResult(canonical, { family: robust.family, choice, minimumOrder: orders.minimum, actions }, robust);
+  return watched("designFilter", "control", checkRunControl("designFilter", "control", control), () => {
+    checkpoint("family", "family and order");
+    const chosen = chooseFamily(canonical);
+    const { family, order } = chosen;
+    const orders = orderRange(canonical, order);
+    const choice = order === null ? { ...chosen.choice, feasibility: feasibility(canonical, family, orders.last) } : chosen.choice;
+    checkpoint("search", `component search: ${family} from order ${orders.first}`);
+    const nominal = searchDesign(canonical, family, orders);
+    const robust = designForYieldAcrossFamilies(canonical, { family, orders, nominal }, choice);
+    const actions = robust.family === family ? [...nominal.actions, ...robust.actions] : [...robust.actions];
+    checkpoint("result", `result: ${robust.family}`);
+    return assembleResult(canonical, { family: robust.family, choice, minimumOrder: orders.minimum, actions }, robust);
+  });
 }

@@ -44,6 +44,7 @@ import type { FamilyName } from "../approx/index.ts";
 import { BATCH, type BoardStage } from "../evaluate/boards.ts";
 import { compileStage } from "../evaluate/stage-polynomials.ts";
 import { sequentialYield, type YieldEstimate } from "../evaluate/yield.ts";
+import { checkpoint } from "../evaluate/progress.ts";
 import { linearModel, predictYield, type LinearModel } from "../evaluate/spread.ts";
 import { allocateTolerances, CAPACITOR_CLASSES, RESISTOR_CLASSES, type ToleranceClass } from "../evaluate/allocate.ts";
 import { TWO_PI } from "../units/constants.ts";
@@ -293,6 +294,7 @@ export function designForYield(spec: DesignSpec, family: FamilyName, orders: Ord
   const candidates: YieldCandidate[] = [];
   const actions: DesignAction[] = [];
   const confirm = (attempt: Attempt, classes: ToleranceClasses, change: string): YieldCandidate => {
+    checkpoint("yield", `yield: ${family} order ${attempt.proto.order}, ${change} at ${classText(classes)}`);
     const tolerances = classTolerances(attempt, classes);
     const isFirst = candidates.length === 0;
     const estimate = isFirst

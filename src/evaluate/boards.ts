@@ -29,6 +29,7 @@ import { boardPolynomialsInto, genericStagePolynomialsInto, type CompiledStage }
 import { maskFigures, rationalSource, type MaskPlan } from "./mask.ts";
 import { isHurwitz } from "./stability.ts";
 import type { ScaledRational } from "./types.ts";
+import { checkpoint } from "./progress.ts";
 
 /**
  * Margin (dB) within which a board's verdict is settled by the full
@@ -184,6 +185,7 @@ export function runBoards(stages: readonly BoardStage[], plan: MaskPlan, options
     genericPlan(s, p.num, p.den);
   });
   for (let start = 0; start < boards; start += BATCH) {
+    if (start > 0) checkpoint("boards", "Monte Carlo boards", { done: start, total: boards });
     const count = Math.min(BATCH, boards - start);
     drawDeviations(seed, (first + start) / BATCH, count, parts, distribution, draws);
     for (let b = 0; b < count; b++) {

@@ -16,5 +16,6 @@ export * from "./yield.ts";
 export * from "./spread.ts";
 export * from "./allocate.ts";
 export * from "./sensitivity.ts";
+export * from "./progress.ts";
 export * from "./opamp-outputs.ts";
 export * from "./peak-gain.ts";

@@ -26,6 +26,7 @@
  */
 import { BATCH, runBoards, type BoardStage, type PartDistribution } from "./boards.ts";
 import type { MaskPlan } from "./mask.ts";
+import { checkpoint } from "./progress.ts";
 
 /** The 97.5 % point of the standard normal distribution (two-sided 95 %). */
 export const Z95 = 1.959963984540054;
@@ -100,6 +101,7 @@ export function sequentialYield(stages: readonly BoardStage[], plan: MaskPlan, o
   let lower = 0;
   let upper = 1;
   while (boards < cap) {
+    checkpoint("boards", "yield boards", { done: boards, total: cap });
     const run = runBoards(stages, plan, { boards: BATCH, seed, distribution, firstBoard: boards });
     boards += BATCH;
     passed += run.passed;

@@ -15,6 +15,7 @@
 import { Worker } from "node:worker_threads";
 import {
   ConvergenceError,
+  CancelledError,
   FilterwrightError,
   InvalidArgumentError,
   ParseError,
@@ -108,6 +109,8 @@ export function errorOf(f: WorkerFailure, where: string): Error {
         return new FilterwrightError(w.code, details);
       case "NOT_CONVERGED":
         return new ConvergenceError(details);
+      case "CANCELLED":
+        return new CancelledError(details);
       default:
         return new FilterwrightError(w.code, details);
     }
