@@ -39,6 +39,8 @@ import {
 import { BATCH, mergeBoardRuns, type BoardRun } from "../evaluate/boards.ts";
 import { jobStages, splitBoards, type BoardJob } from "./job.ts";
 import { runInWorkers } from "./pool.ts";
+import { checkRunControl } from "../evaluate/progress.ts";
+import { CancelledError } from "../errors.ts";
 
 /** Most worker threads {@link monteCarloParallel} takes. */
 export const MAX_THREADS = 64;
@@ -94,6 +96,17 @@ export async function monteCarloParallel(result: DesignResult, options?: MonteCa
     const r = ranges[i] as (typeof ranges)[number];
     return `${fn}: the worker of boards ${r.firstBoard}-${r.firstBoard + r.boards - 1}`;
   };
-  const runs = await runInWorkers<BoardJob, BoardRun>(workerScript(), jobs, label);
+  const control = checkRunControl(fn, "options", { onProgress: o["onProgress"], signal: o["signal"], timeLimitMs: o["timeLimitMs"] });
+  const start = Date.now();
+  let done = 0;
+  const runs = await runInWorkers<BoardJob, BoardRun>(workerScript(), jobs, label, {
+    ...(control.signal === undefined ? {} : { signal: control.signal }),
+    ...(control.timeLimitMs === undefined ? {} : { timeLimitMs: control.timeLimitMs }),
+    onDone: (i) => {
+      done += (ranges[i] as (typeof ranges)[number]).boards;
+      return control.onProgress?.({ step: "boards", message: "Monte Carlo boards", elapsedMs: Date.now() - start, boards: done, totalBoards: settings.runs });
+    },
+    cancelled: (field) => new CancelledError({ fn, path: `options.${field}`, message: field === "signal" ? "stopped by the aborted signal" : field === "timeLimitMs" ? `the time limit of ${control.timeLimitMs} ms ran out` : "stopped by onProgress" }),
+  });
   return monteCarloSummary(result, stages, settings, mergeBoardRuns(runs));
 }

@@ -121,27 +121,50 @@ export function errorOf(f: WorkerFailure, where: string): Error {
   return new Error(`${where} failed: ${f.name}: ${f.message}`, { cause });
 }
 
+/** How the caller watches and stops a pool run. */
+export interface PoolWatch {
+  /** Terminates every worker once aborted. */
+  readonly signal?: AbortSignal;
+  /** Terminates every worker after this many milliseconds. */
+  readonly timeLimitMs?: number;
+  /** Called when worker `i` has replied (and others still run); `false` stops the run. */
+  readonly onDone?: (i: number) => unknown;
+  /** The error a stop rejects with, given the option that stopped it. */
+  readonly cancelled?: (field: "signal" | "timeLimitMs" | "onProgress") => Error;
+}
+
 /**
  * Run each job on its own worker thread.
  *
  * @param script - the worker's module (it reads `workerData` and posts one {@link WorkerReply})
  * @param jobs - one per worker, posted as `workerData` (structured clone)
  * @param label - names worker `i` in the message of a failure
+ * @param watch - abort signal, time limit and a callback per finished worker
  * @returns the workers' values, in job order
  */
-export function runInWorkers<J, T>(script: URL, jobs: readonly J[], label: (i: number) => string): Promise<T[]> {
+export function runInWorkers<J, T>(script: URL, jobs: readonly J[], label: (i: number) => string, watch: PoolWatch = {}): Promise<T[]> {
   return new Promise<T[]>((resolve, reject) => {
     const values: (T | undefined)[] = jobs.map(() => undefined);
     const workers: Worker[] = [];
     let pending = jobs.length;
     let settled = false;
+    let timer: ReturnType<typeof setTimeout> | undefined;
+    const onAbort = (): void => finish(watch.cancelled?.("signal") ?? new Error("aborted"));
     const finish = (error: Error | undefined): void => {
       if (settled) return;
       settled = true;
+      if (timer !== undefined) clearTimeout(timer);
+      watch.signal?.removeEventListener("abort", onAbort);
       for (const w of workers) void w.terminate();
       if (error === undefined) resolve(values as T[]);
       else reject(error);
     };
+    if (watch.signal?.aborted === true) {
+      onAbort();
+      return;
+    }
+    watch.signal?.addEventListener("abort", onAbort);
+    if (watch.timeLimitMs !== undefined) timer = setTimeout(() => finish(watch.cancelled?.("timeLimitMs") ?? new Error("time limit")), watch.timeLimitMs);
     jobs.forEach((job, i) => {
       if (settled) return;
       let replied = false;
@@ -158,6 +181,7 @@ export function runInWorkers<J, T>(script: URL, jobs: readonly J[], label: (i: n
         if (reply.ok) {
           values[i] = reply.value;
           if (--pending === 0) finish(undefined);
+          else if (!settled && watch.onDone?.(i) === false) finish(watch.cancelled?.("onProgress") ?? new Error("stopped"));
         } else {
           finish(errorOf(reply.error, label(i)));
         }

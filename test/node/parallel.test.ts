@@ -86,6 +86,26 @@ describe.skipIf(!built)("monteCarloParallel on worker threads (the built package
     });
   });
 
+  it("reports each finished worker and stops on an aborted signal or a time limit, terminating its workers", async () => {
+    const design = lib.designFilter(IDEAL);
+    const seen: number[] = [];
+    const got = await node.monteCarloParallel(design, { runs: 1000, threads: 2, onProgress: (p) => void seen.push(p.boards ?? -1) });
+    expectSameBits(got, lib.monteCarlo(design, { runs: 1000 }));
+    expect(seen).toHaveLength(1); // the first worker to finish (the last one resolves the run)
+    expect([512, 488]).toContain(seen[0]);
+    const pre = new AbortController();
+    pre.abort();
+    const e1 = (await rejection(node.monteCarloParallel(design, { runs: 1000, threads: 2, signal: pre.signal }))) as FilterwrightError;
+    expect([e1.code, e1.path]).toEqual(["CANCELLED", "options.signal"]);
+    const later = new AbortController();
+    setTimeout(() => later.abort(), 20);
+    const e2 = (await rejection(node.monteCarloParallel(design, { runs: 20000, threads: 2, signal: later.signal }))) as FilterwrightError;
+    expect([e2.code, e2.path]).toEqual(["CANCELLED", "options.signal"]);
+    const e3 = (await rejection(node.monteCarloParallel(design, { runs: 20000, threads: 2, timeLimitMs: 5 }))) as FilterwrightError;
+    expect([e3.code, e3.path]).toEqual(["CANCELLED", "options.timeLimitMs"]);
+    expect(e3.message).toMatch(/time limit of 5 ms/);
+  });
+
   it("runs with the default number of threads, and with more threads than the run has batches", async () => {
     const design = lib.designFilter(IDEAL);
     expectSameBits(await node.monteCarloParallel(design, { runs: 300 }), lib.monteCarlo(design, { runs: 300 }));
