@@ -113,6 +113,8 @@ export const OPTIONS: readonly OptionDef[] = [
   { name: "bom", kind: "path", placeholder: "FILE", what: "a file path, or - for standard output", example: "bom.csv", help: "the bill of materials (CSV)", commands: DESIGNING, section: "output" },
   { name: "markdown", kind: "path", placeholder: "FILE", what: "a file path, or - for standard output", example: "design.md", help: "the design summary (Markdown)", commands: DESIGNING, section: "output" },
   { name: "svg", kind: "path", placeholder: "FILE", what: "a file path, or - for standard output", example: "response.svg", help: "the magnitude and the mask (SVG)", commands: DESIGNING, section: "output" },
+  { name: "sections", kind: "path", placeholder: "FILE", what: "a file path, or - for standard output", example: "sos.csv", help: "the as-built second-order sections (CSV, scipy's analog sos rows)", commands: DESIGNING, section: "output" },
+  { name: "curves", kind: "path", placeholder: "FILE", what: "a file path, or - for standard output", example: "curves.csv", help: "magnitude, phase and group delay (CSV, 1000 points)", commands: DESIGNING, section: "output" },
   { name: "sensitivity", kind: "none", placeholder: "", what: "", example: "", help: "list each part's sensitivities (S^f0, S^Q, S^gain)", commands: DESIGNING, section: "output" },
   { name: "yield", kind: "count", placeholder: "N", what: "a whole number of boards from 1 to 100000", example: "500", help: "also build N boards with parts spread within their tolerance (Monte Carlo)", commands: DESIGNING, section: "output" },
   { name: "seed", kind: "integer", placeholder: "S", what: "a whole number", example: "7", help: "seed of the --yield boards (default 1; needs --yield)", commands: DESIGNING, section: "output" },
@@ -137,4 +139,4 @@ export function optionNamed(name: string): OptionDef | undefined {
 }
 
 /** The outputs a design can write, in writing order. */
-export const OUTPUT_OPTIONS = ["json", "netlist", "bom", "markdown", "svg"] as const;
+export const OUTPUT_OPTIONS = ["json", "netlist", "bom", "markdown", "svg", "sections", "curves"] as const;

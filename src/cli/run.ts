@@ -12,7 +12,7 @@
  */
 import { FilterwrightError, SpecError } from "../errors.ts";
 import { checkSpec, designFilter, type DesignResult, type FilterSpec, type Progress, type RunControl } from "../design/index.ts";
-import { toBomCsv, toJson, toMarkdown, toSpiceNetlist, toSvgPlot } from "../report/index.ts";
+import { toBomCsv, toCurveCsv, toJson, toMarkdown, toSectionsCsv, toSpiceNetlist, toSvgPlot } from "../report/index.ts";
 import { topologies } from "../topologies/index.ts";
 import { formatValue } from "../units/index.ts";
 import { verdictLine } from "../report/verdict.ts";
@@ -153,6 +153,8 @@ const RENDER: Readonly<Record<(typeof OUTPUT_OPTIONS)[number], (r: DesignResult)
   bom: toBomCsv,
   markdown: toMarkdown,
   svg: (r) => toSvgPlot(r),
+  sections: toSectionsCsv,
+  curves: (r) => toCurveCsv(r),
 };
 
 /** Write the files asked for; returns the text bound for standard output (at most one output asks for it). */

@@ -332,6 +332,7 @@ export function responseSpanHz(spec: DesignSpec): readonly [number, number] {
  * @param stages - stages
  * @param opamp - op-amp model
  * @param points - number of points
+ * @param spanHz - first and last frequency (default {@link responseSpanHz} of the spec)
  * @returns the curve
  */
 export function responseCurve(
@@ -339,8 +340,9 @@ export function responseCurve(
   stages: readonly BuiltStage[],
   opamp: OpAmpModel,
   points: number,
+  spanHz: readonly [number, number] = responseSpanHz(spec),
 ): ResponseCurve {
-  const [lo, hi] = responseSpanHz(spec);
+  const [lo, hi] = spanHz;
   const f = logGrid(lo, hi, points);
   const d = 1e-6;
   const all = new Float64Array(points * 3);

@@ -10,3 +10,4 @@ export { toBomCsv, bomLines, type BomLine } from "./bom.ts";
 export { toJson, fromJson, DESIGN_FORMAT_VERSION, JSON_MAX_CHARS, JSON_MAX_DEPTH } from "./json.ts";
 export { toMarkdown, DESIGN_CAUTIONS } from "./markdown.ts";
 export { toSvgPlot, type SvgPlotOptions } from "./svg.ts";
+export { sectionRows, toSectionsCsv, toCurveCsv, type SectionRow, type CurveCsvOptions } from "./exports.ts";
