@@ -12,6 +12,7 @@ import * as report from "../src/report/index.ts";
 import * as units from "../src/units/index.ts";
 
 const ROOT_NAMES = [
+  "CancelledError",
   "ConvergenceError",
   "FilterwrightError",
   "InvalidArgumentError",
@@ -29,9 +30,12 @@ const ROOT_NAMES = [
   "opampRequirements",
   "parseValue",
   "partSensitivities",
+  "sectionRows",
   "toBomCsv",
+  "toCurveCsv",
   "toJson",
   "toMarkdown",
+  "toSectionsCsv",
   "toSpiceNetlist",
   "toSvgPlot",
   "validateSpec",
