@@ -105,6 +105,8 @@ export {
   fromJson,
   toMarkdown,
   toSvgPlot,
+  svgFigure,
+  plotFigure,
   sectionRows,
   toSectionsCsv,
   toCurveCsv,
@@ -116,4 +118,8 @@ export {
   type OpampSupply,
   type BomLine,
   type SvgPlotOptions,
+  type Figure,
+  type SvgFigureOptions,
+  type MediaBundle,
+  type Displayable,
 } from "./report/index.ts";

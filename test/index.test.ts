@@ -30,6 +30,7 @@ const ROOT_NAMES = [
   "opampRequirements",
   "parseValue",
   "partSensitivities",
+  "plotFigure",
   "sectionRows",
   "toBomCsv",
   "toCurveCsv",
@@ -37,6 +38,7 @@ const ROOT_NAMES = [
   "toMarkdown",
   "toSectionsCsv",
   "toSpiceNetlist",
+  "svgFigure",
   "toSvgPlot",
   "validateSpec",
 ];

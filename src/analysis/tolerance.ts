@@ -15,6 +15,8 @@
  *
  * @module
  */
+import { withDisplay } from "../display.ts";
+import { monteCarloBundle } from "./display.ts";
 import { InvalidArgumentError } from "../errors.ts";
 import { requireInRange, requireInteger, requireOneOf, requireOptions } from "../validate.ts";
 import type { DesignResult } from "../design/index.ts";
@@ -233,7 +235,7 @@ export function monteCarloSummary(
   });
   const pass = run.passed;
   const p = pass / runs;
-  return {
+  return withDisplay({
     runs,
     yield: p,
     yieldStandardError: Math.sqrt((p * (1 - p)) / runs),
@@ -246,7 +248,7 @@ export function monteCarloSummary(
     stopbandAttenuationDb: spread(run.stopbandAttenuationDb),
     gainDb: spread(run.gainDb),
     worstBoard,
-  };
+  }, monteCarloBundle);
 }
 
 /**

@@ -15,7 +15,7 @@ import { checkSpec, designFilter, type DesignResult, type FilterSpec, type Progr
 import { toBomCsv, toCurveCsv, toJson, toMarkdown, toSectionsCsv, toSpiceNetlist, toSvgPlot } from "../report/index.ts";
 import { topologies } from "../topologies/index.ts";
 import { formatValue } from "../units/index.ts";
-import { verdictLine } from "../report/verdict.ts";
+import { verdictLine } from "../design/verdict.ts";
 import { monteCarlo, noiseAnalysis, partSensitivities } from "../analysis/index.ts";
 import { readArgs, type GivenOption } from "./args.ts";
 import { OPTIONS, OUTPUT_OPTIONS, type OptionDef } from "./options.ts";

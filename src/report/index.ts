@@ -10,4 +10,6 @@ export { toBomCsv, bomLines, type BomLine } from "./bom.ts";
 export { toJson, fromJson, DESIGN_FORMAT_VERSION, JSON_MAX_CHARS, JSON_MAX_DEPTH } from "./json.ts";
 export { toMarkdown, DESIGN_CAUTIONS } from "./markdown.ts";
 export { toSvgPlot, type SvgPlotOptions } from "./svg.ts";
+export { svgFigure, plotFigure, type Figure, type SvgFigureOptions } from "./figure.ts";
+export type { MediaBundle, Displayable } from "../display.ts";
 export { sectionRows, toSectionsCsv, toCurveCsv, type SectionRow, type CurveCsvOptions } from "./exports.ts";

@@ -10,10 +10,11 @@ import type { DesignResult } from "../design/index.ts";
 import { bomLines } from "./bom.ts";
 import { opampRequirements } from "../analysis/index.ts";
 import { requireDesignResult } from "../design/check.ts";
-import { verdictLine } from "./verdict.ts";
+import { verdictLine } from "../design/verdict.ts";
+import { hertz } from "../design/text.ts";
 import { headroomLines } from "./headroom.ts";
 
-const f3 = (x: number): string => formatValue(x, { digits: 4, unit: "Hz" });
+const f3 = (x: number): string => hertz(x);
 const n4 = (x: number): string => Number(x.toPrecision(4)).toString();
 const dB = (x: number, d = 3): string => `${x.toFixed(d)} dB`;
 const pct = (x: number): string => `${(x * 100).toFixed(3)} %`;
@@ -98,7 +99,7 @@ export function toMarkdown(result: DesignResult): string {
   // Columns for the pole with the real op-amp, only when the design has them.
   const withOpamp = result.stages.some((st) => st.asBuiltWithOpamp !== undefined);
   L.push(
-    `| stage | topology | kind | f0 target | f0 as built |${withOpamp ? " f0 with op-amp |" : ""} Q target | Q as built |${withOpamp ? " Q with op-amp |" : ""} gain target | gain as built | peak gain to here | GBW needed |`,
+    `| stage | topology | kind | f0 target | f0 as built |${withOpamp ? " f0 with op-amp |" : ""} Q target | Q as built |${withOpamp ? " Q with op-amp |" : ""} gain target | gain as built | peak gain at stage output | GBW required |`,
     `|---|---|---|---|---|${withOpamp ? "---|" : ""}---|---|${withOpamp ? "---|" : ""}---|---|---|---|`,
   );
   for (const st of result.stages) {
@@ -142,7 +143,7 @@ export function toMarkdown(result: DesignResult): string {
   L.push(...headroomLines(result));
   L.push("## What each op-amp must do", "");
   L.push("For a 1 V peak sinusoid at the input, anywhere in the plotted span:", "");
-  L.push("| stage | op-amps | GBW needed | peak output | at | slew rate | at |", "|---|---|---|---|---|---|---|");
+  L.push("| stage | op-amps | GBW required | peak output | at | slew rate | at |", "|---|---|---|---|---|---|---|");
   for (const q of opampRequirements(result)) {
     L.push(
       `| ${q.stage} | ${q.opamps.join(", ")} | ${f3(q.gbwDemandHz)} | ${n4(q.peakOutputV)} V | ${f3(q.peakHz)} | ${formatValue(q.slewRateVPerS, { digits: 3, unit: "V" })}/s | ${f3(q.slewHz)} |`,
