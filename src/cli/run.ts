@@ -40,6 +40,12 @@ export interface CliIo {
   readonly readStdin: () => string;
   /** Write a text file (UTF-8). */
   readonly writeFile: (path: string, text: string) => void;
+  /**
+   * Whether standard error is a terminal: a long run then shows one progress
+   * line there, rewritten in place and cleared when the run ends.
+   * @defaultValue false
+   */
+  readonly stderrIsTerminal?: boolean;
 }
 
 /** The program version printed by `--version`. */
@@ -178,10 +184,25 @@ function writeOutputs(r: DesignResult, o: ReadonlyMap<string, GivenOption>, io: 
   return toStdout;
 }
 
-/** Design the spec, or say in command-line terms why it cannot be designed. */
-/** The `--progress` reporter: every step on standard error, batches of boards at most once a second. */
+/**
+ * The progress reporter. With `--progress`, every step on its own line of
+ * standard error (batches of boards at most once a second); otherwise, when
+ * standard error is a terminal and `--quiet` is not given, one line rewritten
+ * in place (at most ten times a second) that {@link endProgress} clears.
+ */
 function progressOf(o: ReadonlyMap<string, GivenOption>, io: CliIo): RunControl {
-  if (o.get("progress")?.value !== true) return {};
+  if (o.get("progress")?.value !== true) {
+    if (io.stderrIsTerminal !== true || o.get("quiet")?.value === true) return {};
+    let last = -Infinity;
+    return {
+      onProgress: (p: Progress) => {
+        if (p.elapsedMs - last < 100) return;
+        last = p.elapsedMs;
+        const boards = p.boards === undefined ? "" : ` ${p.boards}/${p.totalBoards}`;
+        io.stderr(`\r\x1b[2K[${(p.elapsedMs / 1000).toFixed(1)} s] ${p.message}${boards}`.slice(0, 200));
+      },
+    };
+  }
   let lastBoards = -Infinity;
   return {
     onProgress: (p: Progress) => {
@@ -195,6 +216,12 @@ function progressOf(o: ReadonlyMap<string, GivenOption>, io: CliIo): RunControl 
   };
 }
 
+/** Clear the in-place progress line, if one was shown. */
+function endProgress(o: ReadonlyMap<string, GivenOption>, io: CliIo): void {
+  if (io.stderrIsTerminal === true && o.get("progress")?.value !== true && o.get("quiet")?.value !== true) io.stderr("\r\x1b[2K");
+}
+
+/** Design the spec, or say in command-line terms why it cannot be designed. */
 function designOrExplain(spec: Record<string, unknown>, source: SpecSource, earlier: Earlier, control: RunControl = {}): DesignResult {
   // The spec's own issues are listed with the values that could not be read, those options' fields left out.
   const lines = [...earlier.lines, ...issueLines(checkSpec(spec), source, earlier.failed)];
@@ -231,8 +258,14 @@ function design(start: Start, o: ReadonlyMap<string, GivenOption>, earlier: Earl
   const merged = specFromOptions(base, o);
   if (merged.problems.length > 0) throw new CliProblems([...earlier.lines, ...merged.problems]);
   const control = progressOf(o, io);
-  const r = designOrExplain(merged.spec, { name: sourceName, base, options: o }, earlier, control);
-  const extra = extraLines(r, o, control);
+  let r: DesignResult;
+  let extra: string[];
+  try {
+    r = designOrExplain(merged.spec, { name: sourceName, base, options: o }, earlier, control);
+    extra = extraLines(r, o, control);
+  } finally {
+    endProgress(o, io);
+  }
   const toStdout = writeOutputs(r, o, io);
   // With an output on standard output, the summary goes to standard error so the output can be piped.
   const say = toStdout === undefined ? io.stdout : io.stderr;
