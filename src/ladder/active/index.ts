@@ -1,0 +1,15 @@
+/**
+ * Active simulations of doubly terminated LC ladders: grounded inductors by
+ * the Antoniou GIC (highpass ladders), the lowpass ladder by Bruton's FDNR
+ * transformation, and leapfrog (operational) simulation. Each returns a
+ * circuit of preferred-value parts for the nodal analysis and the SPICE
+ * netlist of `filterwright/circuit`.
+ *
+ * @module
+ */
+export type { ActiveLadder, ActiveLadderMethod, ActiveLadderOptions, ActiveLadderPart } from "./types.ts";
+export { gicHighpassLadder } from "./gic-highpass.ts";
+export { fdnrLowpassLadder, FDNR_LEVEL_OHMS, type FdnrDcPath, type FdnrLadder, type FdnrLadderOptions } from "./fdnr-lowpass.ts";
+export { leapfrogLowpassLadder } from "./leapfrog.ts";
+export { PAIR_ABOVE, RESISTOR_LIMITS_OHMS, CAPACITOR_LIMITS_F } from "./build.ts";
+export { CAPACITOR_RANGE_F, DEFAULT_LEVEL_OHMS, MAX_LADDER_ORDER } from "./options.ts";

@@ -1,0 +1,146 @@
+/**
+ * A lowpass ladder by leapfrog (operational) simulation: one integrator per
+ * reactive arm, each computing its arm's state (a shunt capacitor's
+ * voltage, a series inductor's current times RS) from its neighbours', the
+ * terminations as the losses of the first and last integrators.
+ *
+ * Method: F. E. J. Girling & E. F. Good, "Active filters 12: the leapfrog
+ * or active-ladder synthesis", Wireless World 76:341-345, 1970. The arm
+ * equations of the doubly terminated ladder,
+ * `x_k = (a_k x_{k-1} - b_k x_{k+1} - d_k x_k) / s` with `x_0` the source,
+ * `a_k = b_k = 1 / (c_k RS)` for a shunt capacitor c_k and `RS / l_k` for a
+ * series inductor l_k, and the losses `d_1` (the source resistance seen by
+ * the first arm) and `d_n` (the load's by the last), are built with
+ * integrators that alternate: odd arms an inverting (Miller) integrator,
+ * even arms an inverting integrator followed by a unity inverter. With the
+ * signs of the states alternating in pairs (- - + + - - ...) every
+ * connection is then a plain resistor into a summing node, and each loss a
+ * resistor across its integrating capacitor. Every integrator has the
+ * shared capacitor; the time constants are set by the resistors,
+ * R = 1 / (w C) for a coefficient w (rad/s) = Kf times the normalised one.
+ * The source enters the first integrator with weight `k a_1`, where `k`
+ * takes the ladder's level at maximum power transfer, sqrt(RL / RS) / 2
+ * (over RL / RS when the last arm is an inductor, whose state is then
+ * `RS I`), to the gain asked for. The output is the last integrator's state
+ * with its sign (node `x<n>`), or for an even last arm its inverse at the
+ * integrator's own output (node `u<n>`) when that is the positive one: the
+ * circuit inverts when n = 1, 5, 9, ... (mod 4).
+ *
+ * Accuracy: with ideal op-amps and exact values the integrators solve the
+ * ladder's state equations exactly, so the response is the prototype's
+ * transfer scaled (below 1e-9 dB; test/ladder/active/leapfrog.test.ts).
+ *
+ * @module
+ */
+import { requireZpk } from "../../tf/check.ts";
+import { lowpassToLowpass } from "../../tf/transforms.ts";
+import type { LadderPrototype } from "../types.ts";
+import { addCapacitor, addOpamp, addResistor, startBuilder, type Builder } from "./build.ts";
+import { readActiveOptions, requireLadder, type ReadOptions } from "./options.ts";
+import type { ActiveLadder, ActiveLadderOptions } from "./types.ts";
+
+/** One integrator's inputs: the node of each signal and its coefficient (normalised, rad/s). */
+interface Inputs {
+  readonly from: readonly (readonly [string, number])[];
+  /** Loss across the integrating capacitor (normalised, rad/s), 0 for none. */
+  readonly loss: number;
+}
+
+/** The coefficients of arm k (0-based): from the previous state (or the source), to the next, the loss. */
+function coefficients(p: LadderPrototype, k: number, sourceWeight: number): { a: number; b: number; d: number } {
+  const e = p.elements[k] as LadderPrototype["elements"][number];
+  const n = p.elements.length;
+  const rs = p.sourceOhms;
+  const shunt = e.kind === "shunt-C";
+  const w = shunt ? 1 / (e.value * rs) : rs / e.value;
+  let d = 0;
+  if (k === 0) d += shunt ? 1 / (e.value * rs) : rs / e.value;
+  if (k === n - 1) d += shunt ? 1 / (e.value * p.loadOhms) : p.loadOhms / e.value;
+  return { a: k === 0 ? w * sourceWeight : w, b: w, d };
+}
+
+/** Output node of integrator k (1-based): the state with its sign. */
+const stateNode = (k: number): string => `x${k}`;
+
+/** Place integrator k (1-based) with its inputs; even k get the inverter after. */
+function placeIntegrator(b: Builder, k: number, inputs: Inputs, o: ReadOptions, inverterOhms: number): void {
+  const sum = `s${k}`;
+  const even = k % 2 === 0;
+  const out = even ? `u${k}` : stateNode(k);
+  const c = o.capacitorF;
+  for (const [node, w] of inputs.from) addResistor(b, node, sum, 1 / (w * o.kf * c), `integrator ${k}: input from ${node === "in" ? "the source" : `integrator ${node.slice(1)}`}`);
+  if (inputs.loss > 0) addResistor(b, sum, out, 1 / (inputs.loss * o.kf * c), `integrator ${k}: loss (termination)`);
+  addCapacitor(b, sum, out, c, `integrator ${k}: integrating capacitor`);
+  addOpamp(b, "0", sum, out);
+  if (even) {
+    const t = `t${k}`;
+    addResistor(b, out, t, inverterOhms, `inverter ${k}: input`);
+    addResistor(b, t, stateNode(k), inverterOhms, `inverter ${k}: feedback`);
+    addOpamp(b, "0", t, stateNode(k));
+  }
+}
+
+/** Sign of state k (1-based) at node x_k: - - + + - - + + ... */
+const stateSign = (k: number): number => (Math.floor((k - 1) / 2) % 2 === 0 ? -1 : 1);
+
+/**
+ * A lowpass filter from a normalised all-pole lowpass ladder by leapfrog
+ * simulation: an integrator per arm (each even arm's followed by an
+ * inverter), the terminations as losses of the end integrators, every
+ * integrating capacitor the shared one.
+ *
+ * @param prototype - the normalised lowpass ladder (1 rad/s) without transmission zeros, either form
+ * @param options - the passband edge, the shared capacitor, series, values, op-amp, gain
+ * @returns the circuit, its parts, op-amp count and the transfer it realises (`inverting` for n = 1, 5, 9, ...)
+ * @throws {@link InvalidArgumentError} for a malformed prototype or option (the path names it)
+ * @throws {@link UnrealisableError} for a ladder with transmission zeros, or a part outside the
+ *   hard window (the message says which way to move the capacitor)
+ * @example
+ * ```ts
+ * const third = { family: "butterworth", order: 3, form: "shunt-first", sourceOhms: 1, loadOhms: 1,
+ *   elements: [{ kind: "shunt-C", value: 1 }, { kind: "series-L", value: 2 }, { kind: "shunt-C", value: 1 }],
+ *   transfer: { zeros: [], poles: [{ re: -1, im: 0 }, { re: -0.5, im: 0.866 }, { re: -0.5, im: -0.866 }], gain: 0.5 } };
+ * const f = leapfrogLowpassLadder(third, { edgeHz: 1000, capacitorF: 10e-9 });
+ * f.opampCount; //=> 4
+ * f.inverting; //=> false
+ * ```
+ */
+export function leapfrogLowpassLadder(prototype: LadderPrototype, options: ActiveLadderOptions): ActiveLadder {
+  const fn = "leapfrogLowpassLadder";
+  const p = requireLadder(fn, prototype, "all-pole");
+  const transfer = requireZpk(fn, "prototype.transfer", p.transfer);
+  const o = readActiveOptions(fn, options);
+  const n = p.elements.length;
+  const lastSeries = (p.elements[n - 1] as LadderPrototype["elements"][number]).kind === "series-L";
+  // the last state is RS I when the last arm is an inductor: the load voltage RL I is RL / RS times it
+  const outputFactor = lastSeries ? p.loadOhms / p.sourceOhms : 1;
+  const level = Math.sqrt(p.loadOhms / p.sourceOhms) / 2;
+  // the source's weight: the output is k H / outputFactor, with H the ladder's transfer (peak `level`)
+  const k = (o.gain * outputFactor) / level;
+  const b = startBuilder(fn, o);
+  const inverterOhms = 1 / (o.kf * o.capacitorF);
+  for (let i = 1; i <= n; i++) {
+    const { a, b: next, d } = coefficients(p, i - 1, k);
+    const from: [string, number][] = [[i === 1 ? "in" : stateNode(i - 1), a]];
+    if (i < n) from.push([stateNode(i + 1), next]);
+    placeIntegrator(b, i, { from, loss: d }, o, inverterOhms);
+  }
+  // the output: x_n carries the state times its sign; an even arm's integrator output u_n carries minus that
+  const sign = stateSign(n);
+  const tap = sign > 0 || n % 2 === 1 ? stateNode(n) : `u${n}`;
+  const inverting = sign < 0 && n % 2 === 1;
+  const lp = lowpassToLowpass(transfer, { w0: o.kf });
+  return Object.freeze({
+    method: "leapfrog",
+    response: "lowpass",
+    circuit: Object.freeze({ title: `leapfrog lowpass ladder, order ${p.order}`, elements: Object.freeze(b.elements) }),
+    source: "Vin",
+    output: tap,
+    parts: Object.freeze(b.parts),
+    opampCount: b.count.U,
+    target: Object.freeze({ ...lp, gain: ((lp.gain * o.gain) / level) * (inverting ? -1 : 1) }),
+    inverting,
+    impedanceScale: 1 / (o.kf * o.capacitorF * p.sourceOhms),
+    frequencyScale: o.kf,
+  });
+}

@@ -1,0 +1,142 @@
+/**
+ * The checks every active ladder realisation runs at its public boundary:
+ * its options (edge, capacitor, series, values, op-amp, gain) and the
+ * normalised lowpass prototype it is given.
+ *
+ * @module
+ */
+import { InvalidArgumentError, UnrealisableError } from "../../errors.ts";
+import { requireInRange, requireOneOf, requireOptions } from "../../validate.ts";
+import { checkOpAmpModel } from "../../circuit/validate.ts";
+import type { OpAmpModel } from "../../circuit/types.ts";
+import { seriesTable, type SeriesName } from "../../parts/eseries.ts";
+import { isInSeries, snapToSeries } from "../../parts/snap.ts";
+import { TWO_PI } from "../../units/constants.ts";
+import type { LadderElement, LadderPrototype } from "../types.ts";
+
+/** Smallest and largest capacitor a realisation accepts, farads (the design layer's window). */
+export const CAPACITOR_RANGE_F = Object.freeze({ min: 10e-12, max: 10e-6 });
+
+/** The impedance level the default capacitor aims at, ohms (common practice, no source). */
+export const DEFAULT_LEVEL_OHMS = 10e3;
+
+/** Highest ladder order accepted. */
+export const MAX_LADDER_ORDER = 20;
+
+/** The checked options, every default filled in. */
+export interface ReadOptions {
+  /** Passband edge, Hz. */
+  readonly edgeHz: number;
+  /** Frequency scale 2 pi edgeHz, rad/s. */
+  readonly kf: number;
+  /** The shared capacitor, farads. */
+  readonly capacitorF: number;
+  /** Resistor series. */
+  readonly resistorSeries: SeriesName;
+  /** Capacitor series. */
+  readonly capacitorSeries: SeriesName;
+  /** Whether values are left unrounded. */
+  readonly exact: boolean;
+  /** Op-amp model. */
+  readonly opamp: OpAmpModel;
+  /** Passband peak gain, V/V. */
+  readonly gain: number;
+}
+
+/**
+ * Check the options shared by every realisation.
+ *
+ * @param fn - public function name
+ * @param options - what the caller gave
+ * @param levelOhms - the impedance level the default capacitor aims at
+ * @returns the options with defaults
+ * @throws {@link InvalidArgumentError} naming the field
+ */
+export function readActiveOptions(fn: string, options: unknown, levelOhms = DEFAULT_LEVEL_OHMS): ReadOptions {
+  if (options === undefined) {
+    throw new InvalidArgumentError({ fn, path: "options", received: options, message: "expected { edgeHz, ... }: give at least the passband edge in Hz" });
+  }
+  const o = requireOptions(fn, "options", options);
+  const edgeHz = requireInRange(fn, "options.edgeHz", o["edgeHz"], { min: 1e-3, max: 1e9 });
+  const kf = TWO_PI * edgeHz;
+  const resistorSeries = o["resistorSeries"] === undefined ? "E96" : seriesTable(fn, "options.resistorSeries", o["resistorSeries"]).name;
+  const capacitorSeries = o["capacitorSeries"] === undefined ? "E12" : seriesTable(fn, "options.capacitorSeries", o["capacitorSeries"]).name;
+  let capacitorF: number;
+  if (o["capacitorF"] === undefined) {
+    const ideal = 1 / (kf * levelOhms);
+    capacitorF = snapToSeries(Math.min(CAPACITOR_RANGE_F.max, Math.max(CAPACITOR_RANGE_F.min, ideal)), { series: capacitorSeries }).value;
+  } else {
+    capacitorF = requireInRange(fn, "options.capacitorF", o["capacitorF"], CAPACITOR_RANGE_F);
+    if (!isInSeries(capacitorF, capacitorSeries)) {
+      const near = snapToSeries(capacitorF, { series: capacitorSeries }).value;
+      throw new InvalidArgumentError({ fn, path: "options.capacitorF", received: capacitorF, message: `expected a member of the capacitor series ${capacitorSeries}, such as ${near}` });
+    }
+  }
+  const values = o["values"] === undefined ? "preferred" : requireOneOf(fn, "options.values", o["values"], ["preferred", "exact"] as const);
+  const opamp = (o["opamp"] ?? { kind: "ideal" }) as OpAmpModel;
+  checkOpAmpModel(fn, "options.opamp", opamp);
+  const gain = o["gain"] === undefined ? 1 : requireInRange(fn, "options.gain", o["gain"], { min: 0.01, max: 100 });
+  return { edgeHz, kf, capacitorF, resistorSeries, capacitorSeries, exact: values === "exact", opamp, gain };
+}
+
+/** What a method needs of the ladder's arms. */
+export type ArmRule =
+  /** Every capacitor grounded: no capacitor across a series inductor (the GIC and FDNR methods). */
+  | "grounded-capacitors"
+  /** No transmission zero at all (the leapfrog method as built here). */
+  | "all-pole";
+
+function bad(fn: string, path: string, received: unknown, message: string): never {
+  throw new InvalidArgumentError({ fn, path, received, message });
+}
+
+function positive(x: unknown): x is number {
+  return typeof x === "number" && Number.isFinite(x) && x > 0 && x < 1e12;
+}
+
+function checkElement(fn: string, path: string, e: unknown, rule: ArmRule): LadderElement {
+  if (e === null || typeof e !== "object") bad(fn, path, e, 'expected an arm { kind: "series-L" | "shunt-C", value }');
+  const a = e as Record<string, unknown>;
+  if (a["kind"] !== "series-L" && a["kind"] !== "shunt-C") bad(fn, `${path}.kind`, a["kind"], 'expected "series-L" or "shunt-C"');
+  if (!positive(a["value"])) bad(fn, `${path}.value`, a["value"], "expected a finite normalised element value above 0 (below 1e12)");
+  const extra = a["kind"] === "series-L" ? "parallelC" : "seriesL";
+  const wrong = a["kind"] === "series-L" ? "seriesL" : "parallelC";
+  if (a[wrong] !== undefined) bad(fn, `${path}.${wrong}`, a[wrong], `a ${String(a["kind"])} arm has no ${wrong}; leave it out`);
+  if (a[extra] !== undefined) {
+    if (!positive(a[extra])) bad(fn, `${path}.${extra}`, a[extra], "expected a finite normalised element value above 0 (below 1e12), or no field");
+    if (rule === "all-pole") {
+      throw new UnrealisableError({ fn, path: `${path}.${extra}`, received: a[extra], message: "this method realises ladders without transmission zeros (all-pole families: Butterworth, Chebyshev I, Bessel, Legendre); use the FDNR or GIC method for a ladder with finite zeros" });
+    }
+    if (extra === "parallelC") {
+      throw new UnrealisableError({ fn, path: `${path}.parallelC`, received: a[extra], message: "a capacitor across a series inductor becomes a floating element this method cannot build with grounded GICs; use the ladder's other form (transmission zeros made by series resonators in the shunt arms)" });
+    }
+  }
+  return e as LadderElement;
+}
+
+/**
+ * Check a normalised lowpass ladder prototype for a method.
+ *
+ * @param fn - public function name
+ * @param value - what the caller gave
+ * @param rule - what the method needs of the arms
+ * @returns the prototype
+ * @throws {@link InvalidArgumentError} naming the field for a malformed prototype
+ * @throws {@link UnrealisableError} when the arms need what the method cannot build
+ */
+export function requireLadder(fn: string, value: unknown, rule: ArmRule): LadderPrototype {
+  if (value === null || typeof value !== "object") bad(fn, "prototype", value, "expected a normalised lowpass ladder { elements, sourceOhms, loadOhms, ... }");
+  const p = value as Record<string, unknown>;
+  const els = p["elements"];
+  if (!Array.isArray(els) || els.length < 1 || els.length > MAX_LADDER_ORDER) bad(fn, "prototype.elements", els, `expected 1 to ${MAX_LADDER_ORDER} arms, in order from the source end`);
+  els.forEach((e, i) => checkElement(fn, `prototype.elements[${i}]`, e, rule));
+  for (let i = 1; i < els.length; i++) {
+    if ((els[i] as LadderElement).kind === (els[i - 1] as LadderElement).kind) {
+      bad(fn, `prototype.elements[${i}].kind`, (els[i] as LadderElement).kind, "series and shunt arms must alternate; merge two neighbouring arms of one kind into one");
+    }
+  }
+  for (const key of ["sourceOhms", "loadOhms"] as const) {
+    if (!positive(p[key]) || (p[key] as number) < 1e-6 || (p[key] as number) > 1e6) bad(fn, `prototype.${key}`, p[key], "expected a normalised termination from 1e-6 to 1e6 ohms");
+  }
+  return value as LadderPrototype;
+}

@@ -1,0 +1,104 @@
+/**
+ * Plain-data types of the active simulations of a doubly terminated LC
+ * ladder: the options every realisation shares and the circuit it returns.
+ *
+ * @module
+ */
+import type { Circuit, OpAmpModel } from "../../circuit/types.ts";
+import type { SeriesName } from "../../parts/eseries.ts";
+import type { Zpk } from "../../tf/types.ts";
+
+/** Which published method a realisation follows. */
+export type ActiveLadderMethod = "gic-inductor" | "fdnr" | "leapfrog";
+
+/** Options every active ladder realisation takes. */
+export interface ActiveLadderOptions {
+  /**
+   * The frequency, Hz, that the prototype's 1 rad/s maps to (the passband
+   * edge of the normalised ladder: the ripple edge of a Chebyshev or
+   * elliptic ladder, the 3 dB point of a Butterworth one), from 1 mHz to 1 GHz.
+   */
+  readonly edgeHz: number;
+  /**
+   * The capacitor every integrator, GIC and terminating capacitor uses
+   * where the method lets them share one value, farads (10 pF to 10 µF; a
+   * member of `capacitorSeries`). The impedance level follows from it.
+   * @defaultValue the member of `capacitorSeries` nearest 1 / (2 pi edgeHz R)
+   *   with R = 10 kΩ (1 kΩ for the FDNR method, whose DC path resistors sit
+   *   `dcPathRatio` times higher)
+   */
+  readonly capacitorF?: number;
+  /**
+   * Preferred-value series of the resistors.
+   * @defaultValue "E96"
+   */
+  readonly resistorSeries?: SeriesName;
+  /**
+   * Preferred-value series of the capacitors.
+   * @defaultValue "E12"
+   */
+  readonly capacitorSeries?: SeriesName;
+  /**
+   * `"preferred"`: every part rounded to its series (a capacitor the method
+   * cannot give the shared value made of two in parallel when one alone is
+   * further than 0.5 % off); `"exact"`: the computed values, unrounded.
+   * @defaultValue "preferred"
+   */
+  readonly values?: "preferred" | "exact";
+  /**
+   * Op-amp model of every op-amp, in the circuit and its netlist.
+   * @defaultValue `{ kind: "ideal" }`
+   */
+  readonly opamp?: OpAmpModel;
+  /**
+   * Passband peak gain of the whole circuit, V/V (0.01 to 100): the
+   * ladder's largest transfer (at maximum power transfer) is taken to it.
+   * @defaultValue 1
+   */
+  readonly gain?: number;
+}
+
+/** A part of an active ladder: its designator, its computed and its as-built value. */
+export interface ActiveLadderPart {
+  /** Designator in the circuit, e.g. `"R7"`, `"C3"`. */
+  readonly name: string;
+  /** Resistor or capacitor. */
+  readonly kind: "resistor" | "capacitor";
+  /** Value in the circuit (ohms or farads): preferred, or exact with `values: "exact"`. */
+  readonly value: number;
+  /** The computed value it stands for (for two capacitors in parallel, their sum's target). */
+  readonly ideal: number;
+  /** What the part does, in a few words. */
+  readonly role: string;
+}
+
+/** An active realisation of a ladder, ready for nodal analysis and SPICE. */
+export interface ActiveLadder {
+  /** The method followed. */
+  readonly method: ActiveLadderMethod;
+  /** What the circuit passes. */
+  readonly response: "lowpass" | "highpass";
+  /** The circuit, driven by the voltage source `"Vin"` at node `"in"`, output at node {@link ActiveLadder.output}. */
+  readonly circuit: Circuit;
+  /** Name of the driving source. */
+  readonly source: "Vin";
+  /** Output node (`"out"`, the output amplifier's, for the GIC and FDNR methods; the last integrator's for leapfrog). */
+  readonly output: string;
+  /** Every resistor and capacitor, in circuit order. */
+  readonly parts: readonly ActiveLadderPart[];
+  /** Number of op-amps. */
+  readonly opampCount: number;
+  /**
+   * The transfer function (rad/s) the circuit realises with ideal op-amps and
+   * exact values: the prototype's transfer scaled to `edgeHz`, times the gain
+   * factor (with the FDNR method, up to the documented effect of the DC
+   * resistors at low frequencies, `dcPath`).
+   */
+  readonly target: Zpk;
+  /** Whether the passband output is inverted (`target.gain` is then negative). */
+  readonly inverting: boolean;
+  /** Impedance scale Km (ohms per normalised ohm) of the realisation. */
+  readonly impedanceScale: number;
+  /** Frequency scale Kf = 2 pi edgeHz, rad/s. */
+  readonly frequencyScale: number;
+}
