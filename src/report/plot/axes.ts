@@ -9,7 +9,7 @@
  * @module
  */
 import { formatValue } from "../../units/index.ts";
-import { linearTicksCore, logTicksCore, niceStep, tidy } from "./ticks.ts";
+import { linearTicksCore, logTicksCore, niceStep, tidy, type LinearTicks } from "./ticks.ts";
 import { textWidth } from "./text.ts";
 
 /** What an axis shows. */
@@ -93,12 +93,34 @@ function decimalLabel(v: number, step: number): string {
   return text.startsWith("-") ? `\u2212${text.slice(1)}` : text;
 }
 
+/**
+ * Of the 1-2-5 tick sets for `intervals - 1` to `intervals + 3` intervals, the
+ * one that wastes the least of the axis beyond the data (a step of 20 would
+ * put the top of a curve peaking at +1 dB at +20 dB), with a small penalty
+ * per interval away from the wanted count (our own rule, after the
+ * "loose labelling" of Heckbert, Graphics Gems, 1990).
+ */
+function tightestTicks(lo: number, hi: number, intervals: number): LinearTicks {
+  let best = linearTicksCore(lo, hi, intervals);
+  let bestScore = Infinity;
+  for (let n = Math.max(2, intervals - 1); n <= intervals + 3; n++) {
+    const t = linearTicksCore(lo, hi, n);
+    const count = t.major.length - 1;
+    const score = 1 - (hi - lo) / (t.max - t.min) + 0.02 * Math.abs(count - intervals) + (count > 12 ? 1 : 0);
+    if (score < bestScore - 1e-12) {
+      best = t;
+      bestScore = score;
+    }
+  }
+  return best;
+}
+
 /** A linear axis's ticks over [lo, hi] with about `intervals` steps. */
 function linearAxis(spec: AxisSpec, intervals: number): Axis {
   const span = spec.max - spec.min;
   const lo = spec.min;
   const hi = span > 0 ? spec.max : spec.min + (Math.abs(spec.min) || 1);
-  let ticks = linearTicksCore(lo, hi, intervals);
+  let ticks = tightestTicks(lo, hi, intervals);
   if (spec.angular === true) {
     const step = angularStep((hi - lo) / intervals);
     const k0 = Math.floor(lo / step + 1e-9);

@@ -17,7 +17,7 @@ export interface LegendEntry {
   /** Fill opacity of the box. */
   readonly fillOpacity?: number;
   /** SVG dash pattern of the line. */
-  readonly dash?: string;
+  readonly dash?: string | undefined;
   /** Line width. */
   readonly strokeWidth?: number;
   /** A marker instead of a line: a cross (pole) or a ring (zero). */
