@@ -32,7 +32,7 @@ export const FAMILY_SETTINGS: readonly FamilySettings[] = [
 export const ORDERS: readonly number[] = [2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12];
 
 export function label(s: FamilySettings): string {
-  const parts = [s.family];
+  const parts: string[] = [s.family];
   if (s.rippleDb !== undefined) parts.push(`${s.rippleDb} dB ripple`);
   if (s.attenuationDb !== undefined) parts.push(`${s.attenuationDb} dB attenuation`);
   if (s.normalization !== undefined) parts.push(s.normalization);
