@@ -135,8 +135,11 @@ function refuseSide(order: number, form: LadderForm, r: number): never {
 /** Closed-form arms, normalised to a 1 ohm source, for a ratio on the form's natural side. */
 function closedFormArms(order: number, eps: number | null, r: number, form: LadderForm): LadderElement[] {
   const core = form === "series-first" ? r : 1 / r; // >= 1
-  // the caller has checked the load; what is left below 0 is rounding at the limiting ratio
-  const rho2 = Math.max(0, closedFormReflection(order, eps, core));
+  // Butterworth and odd Chebyshev: ((r - 1)/(r + 1))^2, exactly 0 at r = 1. Even Chebyshev: computed with
+  // cancellation near the ripple's own ratio, where rounding (below 1e-13; the caller has refused loads
+  // short of that ratio) is set to 0, as the g-values depend on sqrt(rho2) and the response only on rho2.
+  const raw = closedFormReflection(order, eps, core);
+  const rho2 = eps !== null && order % 2 === 0 && raw <= 1e-13 ? 0 : raw;
   const g = closedFormValues(order, eps, rho2);
   return g.map((value, i) => ({ kind: (i % 2 === 0) === (form === "series-first") ? "series-L" : "shunt-C", value }));
 }
