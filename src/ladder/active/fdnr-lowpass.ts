@@ -22,10 +22,12 @@
  * capacitor give one and keep the DC gain exactly RL / (RS + RL) (common
  * practice, no source beyond the paper). Their effect is part of the
  * circuit, so of every analysis of it: in the undivided ladder they are
- * inductors Ra and Rb (normalised) across the terminations, which move the
- * response near `edgeHz / dcPathRatio`, by at most about 10 / dcPathRatio dB
- * for the ladders tested (0.0101 dB for a 7th-order Chebyshev I at the
- * default 1000; test/ladder/active/fdnr-lowpass.test.ts).
+ * inductors Ra / Km and Rb / Km (normalised) across the terminations, which
+ * move the response near `edgeHz / dcPathRatio`: for ratios of 1000 and
+ * more by at most about 30 / dcPathRatio dB for the ladders tested
+ * (Butterworth orders 1-10, Chebyshev I of 0.5 dB orders 2-10), odd orders
+ * the most (0.027 dB at the default 1000), even orders below 0.0005 dB;
+ * 0.27 dB at a ratio of 100 (test/ladder/active/fdnr-lowpass.test.ts).
  *
  * Accuracy: with ideal op-amps and exact values the circuit is the
  * divided ladder with those two resistors exactly (below 1e-9 dB from it).
@@ -50,7 +52,7 @@ export interface FdnrLadderOptions extends ActiveLadderOptions {
   /**
    * The DC path resistor across the source capacitor as a multiple of the
    * scaled source resistance (10 to 1e6); the response departs from the
-   * ladder's by about 10 / dcPathRatio dB near edgeHz / dcPathRatio.
+   * ladder's by up to about 30 / dcPathRatio dB near edgeHz / dcPathRatio.
    * @defaultValue 1000
    */
   readonly dcPathRatio?: number;
