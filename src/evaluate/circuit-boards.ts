@@ -46,6 +46,30 @@ export function compileCircuit(circuit: Circuit, componentNames: readonly string
   return compileElements(circuit, componentNames, { ...options, bandwidthRadS, closedForm: null });
 }
 
+/**
+ * How far beyond the highest sample circle a root may lie and still be told
+ * from the transform's rounding noise (common practice, no source).
+ */
+export const RESOLVED_BEYOND_TOP = 1e3;
+
+/**
+ * Zero the leading coefficients (of both polynomials) whose root lies more
+ * than {@link RESOLVED_BEYOND_TOP} times beyond the highest circle sampled:
+ * a whole circuit's degree bound exceeds its degree by many powers, and the
+ * spare powers' noise can then stand above the noise test of the generic
+ * path (a root at 1e20 rad/s for a ladder whose circles end at 1e8).
+ */
+function dropUnresolved(cs: CompiledStage, radius: number, num: Float64Array, den: Float64Array): void {
+  const top = Math.max(4 * cs.bandwidthRadS, cs.spanRadS[1], 10 * radius) / radius;
+  for (let i = 0; i < den.length - 1; i++) {
+    const a = den[i] as number;
+    if (a === 0) continue;
+    if (Math.abs((den[i + 1] as number) / a) <= RESOLVED_BEYOND_TOP * top) return;
+    den[i] = 0;
+    num[i] = 0;
+  }
+}
+
 /** The resistors and capacitors of a circuit, by name, in circuit order. */
 export function circuitParts(circuit: Circuit): string[] {
   return circuit.elements.filter((e) => e.kind === "R" || e.kind === "C").map((e) => e.name);
@@ -62,7 +86,8 @@ function nominalValues(circuit: Circuit, names: readonly string[]): Float64Array
 
 /**
  * A circuit's transfer function from `source` to `output` as polynomials in
- * `z = s / radiusRadS`, with its nominal values (internal: no checks).
+ * `z = s / radiusRadS`, with its nominal values, leading coefficients whose
+ * roots lie beyond every circle's reach dropped (internal: no checks).
  *
  * @param circuit - a valid circuit
  * @param options - source, output and span (see {@link compileCircuit})
@@ -76,6 +101,7 @@ export function circuitPolynomials(circuit: Circuit, options: CircuitCompileOpti
   const den = new Float64Array(cs.points);
   const r = genericStagePolynomialsInto(cs, nominalValues(circuit, names), radiusRadS, num, den);
   if (r === 0) return null;
+  dropUnresolved(cs, r, num, den);
   const trim = (a: Float64Array): Float64Array => {
     let i = 0;
     while (i < a.length - 1 && a[i] === 0) i++;

@@ -80,3 +80,36 @@ export function unstableRoots(circuit: Circuit, output: string, edgeHz: number):
   if (p === null) throw new Error("singular circuit");
   return { rhp: rightHalfPlaneRoots(p.den), degree: p.den.length - 1 };
 }
+
+/**
+ * The circuit with every GIC grounded inductor replaced by the inductor it
+ * simulates (C4 R1 R3 R5 / R2 of its own parts), so the GIC circuit can be
+ * compared with the passive ladder it stands for.
+ */
+export function gicsAsInductors(ladder: ActiveLadder): Circuit {
+  const gic = /^g\d+_/;
+  const byName = new Map(ladder.parts.map((p) => [p.name, p]));
+  const inGic = (node: string): boolean => gic.test(node);
+  const kept = ladder.circuit.elements.filter((e) => (e.kind === "OA" ? !inGic(e.out) : e.kind === "V" || e.kind === "E" ? true : !(inGic(e.a) || inGic(e.b))));
+  const inductors: Circuit["elements"][number][] = [];
+  // group the GIC parts by their label (everything before ": GIC Z")
+  const groups = new Map<string, Record<string, number>>();
+  const inputOf = new Map<string, string>();
+  for (const e of ladder.circuit.elements) {
+    if (e.kind !== "R" && e.kind !== "C") continue;
+    const role = byName.get(e.name)?.role ?? "";
+    const m = /^(.*): GIC (Z\d)$/.exec(role);
+    if (m === null) continue;
+    const label = m[1] as string;
+    const g = groups.get(label) ?? {};
+    g[m[2] as string] = e.value;
+    groups.set(label, g);
+    if (m[2] === "Z1") inputOf.set(label, e.a);
+  }
+  let k = 0;
+  for (const [label, z] of groups) {
+    const henries = ((z["Z4"] as number) * (z["Z1"] as number) * (z["Z3"] as number) * (z["Z5"] as number)) / (z["Z2"] as number);
+    inductors.push({ kind: "L", name: `Lsim${++k}`, a: inputOf.get(label) as string, b: "0", value: henries });
+  }
+  return { title: `${ladder.circuit.title} with inductors`, elements: [...kept, ...inductors] };
+}
