@@ -48,7 +48,7 @@ describe("designPolesZeros", () => {
       const p = poles[0] as { re: number; im: number };
       const w0 = Math.hypot(p.re, p.im);
       expect(w0 / TWO_PI / st.asBuilt.f0Hz).toBeCloseTo(1, 10);
-      if (st.order === 2) expect(w0 / (2 * -p.re) / st.asBuilt.q).toBeCloseTo(1, 10);
+      if (st.order === 2) expect(w0 / (2 * -p.re) / (st.asBuilt.q as number)).toBeCloseTo(1, 10);
     });
   });
 
