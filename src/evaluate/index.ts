@@ -19,3 +19,4 @@ export * from "./sensitivity.ts";
 export * from "./progress.ts";
 export * from "./opamp-outputs.ts";
 export * from "./peak-gain.ts";
+export * from "./circuit-boards.ts";

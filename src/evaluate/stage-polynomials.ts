@@ -31,7 +31,7 @@
  * @module
  */
 import { elementValues, stampProgram, applyStamps, type StampProgram } from "../circuit/stamps.ts";
-import type { Element, OpAmpModel } from "../circuit/types.ts";
+import type { Circuit, Element, OpAmpModel } from "../circuit/types.ts";
 import { equilibrate, powerOfTwo } from "../math/equilibrate.ts";
 import { luDeterminantInto, luFactorInPlace, luSolveInPlace } from "../math/linear.ts";
 import type { ComponentValues, PolynomialsInto, Topology } from "../topologies/types.ts";
@@ -158,11 +158,47 @@ export function compileStage(
   spanRadS: readonly [number, number] = [0, 0],
   outputNode = "out",
 ): CompiledStage {
-  const elements = stageElements(topology, nominal, opamp);
-  const circuit = { title: topology.id, elements };
+  const into = topology.polynomialsInto;
+  const atOutput = outputNode === "out";
+  // the closed form's degree with this model: the ideal op-amp adds none (its top coefficients are 0)
+  const closedDegree = (topology.polynomialDegree as number) - (opamp.kind === "ideal" ? topology.opampCount : 0);
+  const closed = atOutput && into !== undefined && (opamp.kind !== "single-pole-rout" || opamp.routOhm === 0);
+  return compileElements({ title: topology.id, elements: stageElements(topology, nominal, opamp) }, topology.componentNames, {
+    source: "Vin",
+    output: atOutput ? "out" : `${INTERNAL_NODE_PREFIX}${outputNode}`,
+    spanRadS: spanRadS[1] > 0 ? spanRadS : defaultSpan(topology, nominal),
+    bandwidthRadS: opamp.kind === "ideal" ? 0 : 2 * Math.PI * opamp.gbwHz,
+    closedForm: closed ? { into, opamp, degree: closedDegree } : null,
+  });
+}
+
+/** How {@link compileElements} compiles a circuit. */
+export interface CompileElementsOptions {
+  /** The driving voltage source. */
+  readonly source: string;
+  /** The output node. */
+  readonly output: string;
+  /** Angular frequencies (rad/s) where the result will be evaluated: the sample circles cover them. */
+  readonly spanRadS: readonly [number, number];
+  /** Highest op-amp gain-bandwidth product, rad/s (0 for ideal op-amps). */
+  readonly bandwidthRadS: number;
+  /** A topology's closed-form polynomials, the model and their degree with it; null for none. */
+  readonly closedForm: { readonly into: PolynomialsInto | undefined; readonly opamp: OpAmpModel; readonly degree: number } | null;
+}
+
+/**
+ * The compiled form of a circuit: its stamp program, the transform tables
+ * and the scratch (the common part of {@link compileStage} and
+ * `compileCircuit` in ./circuit-boards.ts). No checks.
+ *
+ * @param circuit - a valid circuit
+ * @param names - the elements (by name) whose values a board's values replace, in board order
+ * @param o - source, output, span, bandwidth, closed form
+ * @returns the compiled circuit
+ */
+export function compileElements(circuit: Circuit, names: readonly string[], o: CompileElementsOptions): CompiledStage {
   const program = stampProgram(circuit);
-  const names = topology.componentNames;
-  const componentOfElement = Int32Array.from(elements, (e) => names.indexOf(e.name));
+  const componentOfElement = Int32Array.from(circuit.elements, (e) => names.indexOf(e.name));
   const n = program.n;
   const bound = degreeBound(program);
   // at least one spare power above the bound, to measure each circle's noise
@@ -178,24 +214,20 @@ export function compileStage(
   }
   const values = elementValues(circuit);
   const half = points / 2;
-  const into = topology.polynomialsInto;
-  const atOutput = outputNode === "out";
-  // the closed form's degree with this model: the ideal op-amp adds none (its top coefficients are 0)
-  const closedDegree = (topology.polynomialDegree as number) - (opamp.kind === "ideal" ? topology.opampCount : 0);
-  const closed = atOutput && into !== undefined && closedDegree < points && (opamp.kind !== "single-pole-rout" || opamp.routOhm === 0);
+  const cf = o.closedForm;
   return {
     componentNames: names,
     program,
     componentOfElement,
-    output: program.nodeIndex.get(atOutput ? "out" : `${INTERNAL_NODE_PREFIX}${outputNode}`) as number,
-    sourceRow: program.sourceRow.get("Vin") as number,
+    output: program.nodeIndex.get(o.output) as number,
+    sourceRow: program.sourceRow.get(o.source) as number,
     points,
     degreeBound: bound,
-    spanRadS: spanRadS[1] > 0 ? spanRadS : defaultSpan(topology, nominal),
-    bandwidthRadS: opamp.kind === "ideal" ? 0 : 2 * Math.PI * opamp.gbwHz,
+    spanRadS: o.spanRadS,
+    bandwidthRadS: o.bandwidthRadS,
     cosTable,
     sinTable,
-    closedForm: closed ? { into, opamp } : null,
+    closedForm: cf !== null && cf.into !== undefined && cf.degree < points ? { into: cf.into, opamp: cf.opamp } : null,
     scratch: {
       values,
       g: new Float64Array(n * n),

@@ -115,7 +115,8 @@ export function addCapacitor(b: Builder, a: string, c: string, ideal: number, ro
   }
   const one = snapToSeries(ideal, { series });
   if (Math.abs(one.relativeError) > PAIR_ABOVE) {
-    const pair = bestCombination(ideal, { series, kinds: ["parallel"] }).best;
+    // capacitors in parallel add: the additive ("series") combination of the two values
+    const pair = bestCombination(ideal, { series, kinds: ["series"] }).best;
     const [c1, c2] = pair.parts;
     if (Math.abs(pair.relativeError) < Math.abs(one.relativeError) && c2 <= CAPACITOR_LIMITS_F.max && c1 >= CAPACITOR_LIMITS_F.min && c2 >= CAPACITOR_LIMITS_F.min) {
       pushCapacitor(b, a, c, c1, ideal, `${role} (1 of 2 in parallel)`);

@@ -22,57 +22,29 @@
  * capacitor give one and keep the DC gain exactly RL / (RS + RL) (common
  * practice, no source beyond the paper). Their effect is part of the
  * circuit, so of every analysis of it: in the undivided ladder they are
- * inductors Ra and Rb (normalised) across the terminations, which move the
- * response near `edgeHz / dcPathRatio`, by at most about 10 / dcPathRatio dB
- * for the ladders tested (0.0101 dB for a 7th-order Chebyshev I at the
- * default 1000; test/ladder/active/fdnr-lowpass.test.ts).
+ * inductors Ra / Km and Rb / Km (normalised) across the terminations, which
+ * move the response near `edgeHz / dcPathRatio`: for ratios of 1000 and
+ * more by at most about 30 / dcPathRatio dB for the ladders tested
+ * (Butterworth orders 1-10, Chebyshev I of 0.5 dB orders 2-10), odd orders
+ * the most (0.027 dB at the default 1000), even orders below 0.0005 dB;
+ * 0.27 dB at a ratio of 100 (test/ladder/active/fdnr-lowpass.test.ts).
  *
  * Accuracy: with ideal op-amps and exact values the circuit is the
  * divided ladder with those two resistors exactly (below 1e-9 dB from it).
  *
  * @module
  */
-import { requireInRange, requireOptions } from "../../validate.ts";
 import { requireZpk } from "../../tf/check.ts";
 import { lowpassToLowpass } from "../../tf/transforms.ts";
 import type { LadderPrototype } from "../types.ts";
 import { addCapacitor, addOutputAmplifier, addResistor, startBuilder, type Builder } from "./build.ts";
 import { addGicFdnr } from "./gic.ts";
 import { amplifierGain } from "./gic-highpass.ts";
-import { readActiveOptions, requireLadder, type ReadOptions } from "./options.ts";
-import type { ActiveLadder, ActiveLadderOptions } from "./types.ts";
-
-/** The impedance level the FDNR method's default capacitor aims at, ohms (common practice, no source). */
-export const FDNR_LEVEL_OHMS = 1e3;
+import { DC_PATH_LEVEL_OHMS, readActiveOptions, readDcPathRatio, requireLadder, type ReadOptions } from "./options.ts";
+import type { ActiveLadder, ActiveLadderOptions, ActiveLadderPart, DcPathOptions } from "./types.ts";
 
 /** Options of {@link fdnrLowpassLadder}. */
-export interface FdnrLadderOptions extends ActiveLadderOptions {
-  /**
-   * The DC path resistor across the source capacitor as a multiple of the
-   * scaled source resistance (10 to 1e6); the response departs from the
-   * ladder's by about 10 / dcPathRatio dB near edgeHz / dcPathRatio.
-   * @defaultValue 1000
-   */
-  readonly dcPathRatio?: number;
-}
-
-/** The DC path resistors of an FDNR ladder. */
-export interface FdnrDcPath {
-  /** The resistor across the source capacitor, ohms (as built). */
-  readonly sourceOhms: number;
-  /** The resistor across the load capacitor, ohms (as built). */
-  readonly loadOhms: number;
-  /** The ratio asked for. */
-  readonly ratio: number;
-}
-
-/** An FDNR ladder: the circuit and its DC path resistors. */
-export interface FdnrLadder extends ActiveLadder {
-  /** The method followed. */
-  readonly method: "fdnr";
-  /** The DC path resistors. */
-  readonly dcPath: FdnrDcPath;
-}
+export interface FdnrLadderOptions extends ActiveLadderOptions, DcPathOptions {}
 
 /** The arms placed from node `a1` on; returns the last node and the sum of the series resistors. */
 function placeArms(b: Builder, p: LadderPrototype, km: number, o: ReadOptions): { node: string; seriesOhms: number } {
@@ -109,7 +81,7 @@ function placeArms(b: Builder, p: LadderPrototype, km: number, o: ReadOptions): 
  *   across a series inductor (use the form whose zeros sit in the shunt arms)
  * @param options - the passband edge, the shared capacitor, series, values,
  *   op-amp, gain, and the DC path ratio
- * @returns the circuit, its parts, op-amp count, the transfer it realises and the DC path resistors
+ * @returns the circuit, its parts, op-amp count, the transfer it realises and the DC path resistors (across the source and load capacitors)
  * @throws {@link InvalidArgumentError} for a malformed prototype or option (the path names it)
  * @throws {@link UnrealisableError} for a capacitor across a series inductor, a gain below the
  *   ladder's own level, or a part outside the hard window (the message says which way to move the capacitor)
@@ -120,25 +92,26 @@ function placeArms(b: Builder, p: LadderPrototype, km: number, o: ReadOptions): 
  *   transfer: { zeros: [], poles: [{ re: -1, im: 0 }, { re: -0.5, im: 0.866 }, { re: -0.5, im: -0.866 }], gain: 0.5 } };
  * const f = fdnrLowpassLadder(third, { edgeHz: 1000, capacitorF: 100e-9 });
  * f.opampCount; //=> 3
- * f.dcPath.sourceOhms; //=> 1590000 (1000 x 1.59 kΩ, rounded to E96)
+ * f.dcPath.resistors.map((r) => r.value); //=> [1580000, 1580000] (1000 x 1.59 kΩ, rounded to E96)
  * ```
  */
-export function fdnrLowpassLadder(prototype: LadderPrototype, options: FdnrLadderOptions): FdnrLadder {
+export function fdnrLowpassLadder(prototype: LadderPrototype, options: FdnrLadderOptions): ActiveLadder {
   const fn = "fdnrLowpassLadder";
   const p = requireLadder(fn, prototype, "grounded-capacitors");
   const transfer = requireZpk(fn, "prototype.transfer", p.transfer);
-  const o = readActiveOptions(fn, options, FDNR_LEVEL_OHMS);
-  const raw = requireOptions(fn, "options", options);
-  const ratio = raw["dcPathRatio"] === undefined ? 1000 : requireInRange(fn, "options.dcPathRatio", raw["dcPathRatio"], { min: 10, max: 1e6 });
+  const o = readActiveOptions(fn, options, DC_PATH_LEVEL_OHMS);
+  const ratio = readDcPathRatio(fn, options);
   const gain = amplifierGain(fn, p, o.gain);
   // capacitor first: the source capacitor 1 / (Km Kf RS) is the shared one
   const km = 1 / (p.sourceOhms * o.kf * o.capacitorF);
   const b = startBuilder(fn, o);
   addCapacitor(b, "in", "a1", o.capacitorF, "source termination (resistor / s)");
   const ra = addResistor(b, "in", "a1", ratio * km * p.sourceOhms, "DC path across the source capacitor");
+  const raPart = b.parts[b.parts.length - 1] as ActiveLadderPart;
   const { node, seriesOhms } = placeArms(b, p, km, o);
   addCapacitor(b, node, "0", 1 / (km * o.kf * p.loadOhms), "load termination (resistor / s)");
-  const rb = addResistor(b, node, "0", (p.loadOhms * (ra + seriesOhms)) / p.sourceOhms, "DC path across the load capacitor");
+  addResistor(b, node, "0", (p.loadOhms * (ra + seriesOhms)) / p.sourceOhms, "DC path across the load capacitor");
+  const rbPart = b.parts[b.parts.length - 1] as ActiveLadderPart;
   addOutputAmplifier(b, node, gain, km * p.sourceOhms);
   const lp = lowpassToLowpass(transfer, { w0: o.kf });
   return Object.freeze({
@@ -153,6 +126,6 @@ export function fdnrLowpassLadder(prototype: LadderPrototype, options: FdnrLadde
     inverting: false,
     impedanceScale: km,
     frequencyScale: o.kf,
-    dcPath: Object.freeze({ sourceOhms: ra, loadOhms: rb, ratio }),
+    dcPath: Object.freeze({ ratio, resistors: Object.freeze([raPart, rbPart]) }),
   });
 }

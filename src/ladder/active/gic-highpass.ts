@@ -14,9 +14,19 @@
  * non-inverting output amplifier that takes the ladder's level at maximum
  * power transfer, sqrt(RL / RS) / 2, to the gain asked for.
  *
+ * DC path: a node between two series capacitors whose shunt arm is a
+ * resonator (a ladder with finite zeros) is reached only through
+ * capacitors; a resistor of dcPathRatio times the reactance at the edge
+ * across the capacitor before it gives it one (common practice, no source).
+ * Above the edge its effect falls with frequency; with the default ratio of
+ * 1000 it moves the passband by at most 0.023 dB for the elliptic ladders
+ * tested (orders 3 and 5; test/ladder/active/gic-highpass.test.ts). All-pole ladders need
+ * none: every node has a grounded inductor or a termination.
+ *
  * Accuracy: with ideal op-amps and exact values the circuit is the passive
- * ladder exactly, so its response is the prototype's transfer mapped to
- * highpass, to rounding (below 1e-9 dB; test/ladder/active/gic-highpass.test.ts).
+ * highpass ladder (with those resistors) exactly, so for an all-pole ladder
+ * its response is the prototype's transfer mapped to highpass, to rounding
+ * (below 1e-9 dB; test/ladder/active/gic-highpass.test.ts).
  *
  * @module
  */
@@ -26,8 +36,8 @@ import { lowpassToHighpass } from "../../tf/transforms.ts";
 import type { LadderPrototype } from "../types.ts";
 import { addCapacitor, addOutputAmplifier, addResistor, startBuilder, type Builder } from "./build.ts";
 import { addGicInductor } from "./gic.ts";
-import { readActiveOptions, requireLadder, type ReadOptions } from "./options.ts";
-import type { ActiveLadder, ActiveLadderOptions } from "./types.ts";
+import { DC_PATH_LEVEL_OHMS, DEFAULT_LEVEL_OHMS, readActiveOptions, readDcPathRatio, requireLadder, type ReadOptions } from "./options.ts";
+import type { ActiveLadder, ActiveLadderOptions, ActiveLadderPart, DcPathOptions } from "./types.ts";
 
 /**
  * The gain of the output amplifier that takes the ladder's level at maximum
@@ -48,17 +58,31 @@ export function amplifierGain(fn: string, p: LadderPrototype, gain: number): num
   return Math.max(1, g);
 }
 
-/** The ladder's arms placed from node `a1` on; returns the last node. */
-function placeArms(b: Builder, p: LadderPrototype, km: number, o: ReadOptions): string {
+/** Options of {@link gicHighpassLadder}. */
+export interface GicHighpassOptions extends ActiveLadderOptions, DcPathOptions {}
+
+/** A series capacitor placed, and whether the node after it has a DC path. */
+interface SeriesArm {
+  readonly from: string;
+  readonly to: string;
+  readonly farads: number;
+  readonly arm: number;
+  grounded: boolean;
+}
+
+/** The ladder's arms placed from node `a1` on; returns the last node and the series capacitors. */
+function placeArms(b: Builder, p: LadderPrototype, km: number, o: ReadOptions): { node: string; series: SeriesArm[] } {
   let node = "a1";
   let nodes = 1;
   let gics = 0;
+  const series: SeriesArm[] = [];
   const levelOhms = 1 / (o.kf * o.capacitorF);
   p.elements.forEach((e, i) => {
     const arm = `arm ${i + 1}`;
     if (e.kind === "series-L") {
       const next = `a${++nodes}`;
-      addCapacitor(b, node, next, 1 / e.value / (km * o.kf), `${arm}: series capacitor`);
+      const farads = addCapacitor(b, node, next, 1 / e.value / (km * o.kf), `${arm}: series capacitor`);
+      series.push({ from: node, to: next, farads, arm: i + 1, grounded: false });
       node = next;
       return;
     }
@@ -67,10 +91,29 @@ function placeArms(b: Builder, p: LadderPrototype, km: number, o: ReadOptions): 
     if (e.seriesL !== undefined) {
       at = `r${i + 1}`;
       addCapacitor(b, node, at, 1 / e.seriesL / (km * o.kf), `${arm}: resonator capacitor`);
+    } else {
+      const last = series[series.length - 1];
+      if (last !== undefined && last.to === node) last.grounded = true;
     }
     addGicInductor(b, at, `g${++gics}_`, { henries, levelOhms }, `${arm}: grounded inductor`);
   });
-  return node;
+  return { node, series };
+}
+
+/**
+ * A resistor across each series capacitor whose far node has no DC path
+ * (only capacitors reach it: a node between series capacitors whose shunt
+ * arm is a resonator), of dcPathRatio times the capacitor's reactance at
+ * the edge; the last node has the load. Returns the resistors placed.
+ */
+function placeDcPaths(b: Builder, series: readonly SeriesArm[], last: string, ratio: number): ActiveLadderPart[] {
+  const out: ActiveLadderPart[] = [];
+  for (const c of series) {
+    if (c.grounded || c.to === last) continue;
+    addResistor(b, c.from, c.to, ratio / (b.options.kf * c.farads), `arm ${c.arm}: DC path across the series capacitor`);
+    out.push(b.parts[b.parts.length - 1] as ActiveLadderPart);
+  }
+  return out;
 }
 
 /**
@@ -80,7 +123,7 @@ function placeArms(b: Builder, p: LadderPrototype, km: number, o: ReadOptions): 
  *
  * @param prototype - the normalised lowpass ladder (1 rad/s), no capacitor
  *   across a series inductor (use the form whose zeros sit in the shunt arms)
- * @param options - the highpass edge, the shared capacitor, series, values, op-amp, gain
+ * @param options - the highpass edge, the shared capacitor, series, values, op-amp, gain, DC path ratio
  * @returns the circuit, its parts, op-amp count and the transfer it realises
  * @throws {@link InvalidArgumentError} for a malformed prototype or option (the path names it)
  * @throws {@link UnrealisableError} for a capacitor across a series inductor, a gain below the
@@ -93,11 +136,14 @@ function placeArms(b: Builder, p: LadderPrototype, km: number, o: ReadOptions): 
  * gicHighpassLadder(third, { edgeHz: 300, capacitorF: 10e-9 }).opampCount; //=> 5
  * ```
  */
-export function gicHighpassLadder(prototype: LadderPrototype, options: ActiveLadderOptions): ActiveLadder {
+export function gicHighpassLadder(prototype: LadderPrototype, options: GicHighpassOptions): ActiveLadder {
   const fn = "gicHighpassLadder";
   const p = requireLadder(fn, prototype, "grounded-capacitors");
   const transfer = requireZpk(fn, "prototype.transfer", p.transfer);
-  const o = readActiveOptions(fn, options);
+  // a ladder with finite zeros needs DC path resistors dcPathRatio times above its level: a lower level
+  const resonators = p.elements.some((e) => e.seriesL !== undefined);
+  const o = readActiveOptions(fn, options, resonators ? DC_PATH_LEVEL_OHMS : DEFAULT_LEVEL_OHMS);
+  const ratio = readDcPathRatio(fn, options);
   const gain = amplifierGain(fn, p, o.gain);
   const firstSeries = p.elements.find((e) => e.kind === "series-L");
   // capacitor first: the first series capacitor (1 / l normalised) is the shared one
@@ -105,7 +151,8 @@ export function gicHighpassLadder(prototype: LadderPrototype, options: ActiveLad
   const km = anchor / (o.kf * o.capacitorF);
   const b = startBuilder(fn, o);
   addResistor(b, "in", "a1", km * p.sourceOhms, "source termination");
-  const last = placeArms(b, p, km, o);
+  const { node: last, series } = placeArms(b, p, km, o);
+  const dc = placeDcPaths(b, series, last, ratio);
   addResistor(b, last, "0", km * p.loadOhms, "load termination");
   addOutputAmplifier(b, last, gain, 1 / (o.kf * o.capacitorF));
   const hp = lowpassToHighpass(transfer, { w0: o.kf });
@@ -118,6 +165,7 @@ export function gicHighpassLadder(prototype: LadderPrototype, options: ActiveLad
     parts: Object.freeze(b.parts),
     opampCount: b.count.U,
     target: Object.freeze({ ...hp, gain: hp.gain * gain }),
+    dcPath: Object.freeze({ ratio, resistors: Object.freeze(dc) }),
     inverting: false,
     impedanceScale: km,
     frequencyScale: o.kf,

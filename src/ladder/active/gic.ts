@@ -3,10 +3,9 @@
  * simulated inductor or frequency-dependent negative resistance (FDNR).
  *
  * Method: five impedances in a chain from the input node 1 through nodes
- * 2, 3, 4, 5 to ground; op-amp A has its non-inverting input at node 1,
- * its inverting input at node 3 and its output at node 2; op-amp B has its
- * non-inverting input at node 3, its inverting input at node 5 and its
- * output at node 4. With ideal op-amps nodes 1, 3 and 5 sit at one voltage
+ * 2, 3, 4, 5 to ground; op-amp A has its inputs at nodes 1 and 3 and its
+ * output at node 2, op-amp B its inputs at nodes 3 and 5 and its output at
+ * node 4. With ideal op-amps nodes 1, 3 and 5 sit at one voltage
  * and no current enters the inputs, so the input impedance is
  * `Zin = Z1 Z3 Z5 / (Z2 Z4)` (A. Antoniou, "Realisation of gyrators using
  * operational amplifiers, and their use in RC-active-network synthesis",
@@ -17,9 +16,12 @@
  * the concept of frequency-dependent negative resistance", IEEE Trans.
  * Circuit Theory 16(3):406-408, 1969).
  *
- * Of the four ways to connect the op-amps' inputs, only this one leaves the
- * op-amps' own poles in the left half-plane with a single-pole op-amp; and
- * of the places for the capacitors, Z4 (inductor) and Z1 with Z5 (FDNR) give
+ * Which input of each op-amp goes where decides stability with a real
+ * op-amp: for the inductor A's non-inverting input is at node 1 and B's at
+ * node 3; for the FDNR both the other way round (A's at node 3, B's at
+ * node 5). Of the four ways, each is the only one that leaves the op-amps'
+ * own poles in the left half-plane with a single-pole op-amp; and of the
+ * places for the capacitors, Z4 (inductor) and Z1 with Z5 (FDNR) give
  * the smallest error from the op-amps' finite gain-bandwidth (0.64 % of
  * the element's impedance, against 0.96 % for Z2, or Z1 with Z3, at the
  * frequency where the GIC's resistors and capacitors have equal impedances
@@ -92,7 +94,8 @@ export function addGicFdnr(b: Builder, node: string, prefix: string, target: Gic
   const r3 = addResistor(b, n3, n4, target.levelOhms, `${label}: GIC Z3`);
   const c5 = addCapacitor(b, n5, "0", c, `${label}: GIC Z5`);
   const r4 = addResistor(b, n4, n5, (target.d * r3) / (c1 * c5 * r2), `${label}: GIC Z4`);
-  addOpamp(b, node, n3, n2);
-  addOpamp(b, n3, n5, n4);
+  // the inputs the other way round from the inductor's: the only stable way for the FDNR
+  addOpamp(b, n3, node, n2);
+  addOpamp(b, n5, n3, n4);
   return (c1 * c5 * r2 * r4) / r3;
 }

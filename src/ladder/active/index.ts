@@ -7,9 +7,9 @@
  *
  * @module
  */
-export type { ActiveLadder, ActiveLadderMethod, ActiveLadderOptions, ActiveLadderPart } from "./types.ts";
-export { gicHighpassLadder } from "./gic-highpass.ts";
-export { fdnrLowpassLadder, FDNR_LEVEL_OHMS, type FdnrDcPath, type FdnrLadder, type FdnrLadderOptions } from "./fdnr-lowpass.ts";
+export type { ActiveLadder, ActiveLadderMethod, ActiveLadderOptions, ActiveLadderPart, DcPath, DcPathOptions } from "./types.ts";
+export { gicHighpassLadder, type GicHighpassOptions } from "./gic-highpass.ts";
+export { fdnrLowpassLadder, type FdnrLadderOptions } from "./fdnr-lowpass.ts";
 export { leapfrogLowpassLadder } from "./leapfrog.ts";
 export { PAIR_ABOVE, RESISTOR_LIMITS_OHMS, CAPACITOR_LIMITS_F } from "./build.ts";
-export { CAPACITOR_RANGE_F, DEFAULT_LEVEL_OHMS, MAX_LADDER_ORDER } from "./options.ts";
+export { CAPACITOR_RANGE_F, DC_PATH_LEVEL_OHMS, DEFAULT_DC_PATH_RATIO, DEFAULT_LEVEL_OHMS, MAX_LADDER_ORDER } from "./options.ts";

@@ -139,6 +139,7 @@ export function leapfrogLowpassLadder(prototype: LadderPrototype, options: Activ
     parts: Object.freeze(b.parts),
     opampCount: b.count.U,
     target: Object.freeze({ ...lp, gain: ((lp.gain * o.gain) / level) * (inverting ? -1 : 1) }),
+    dcPath: null,
     inverting,
     impedanceScale: 1 / (o.kf * o.capacitorF * p.sourceOhms),
     frequencyScale: o.kf,

@@ -20,6 +20,13 @@ export const CAPACITOR_RANGE_F = Object.freeze({ min: 10e-12, max: 10e-6 });
 /** The impedance level the default capacitor aims at, ohms (common practice, no source). */
 export const DEFAULT_LEVEL_OHMS = 10e3;
 
+/**
+ * The impedance level the default capacitor aims at where DC path resistors
+ * sit dcPathRatio times higher (the FDNR method, GIC ladders with finite
+ * zeros), ohms (common practice, no source).
+ */
+export const DC_PATH_LEVEL_OHMS = 1e3;
+
 /** Highest ladder order accepted. */
 export const MAX_LADDER_ORDER = 20;
 
@@ -77,6 +84,22 @@ export function readActiveOptions(fn: string, options: unknown, levelOhms = DEFA
   checkOpAmpModel(fn, "options.opamp", opamp);
   const gain = o["gain"] === undefined ? 1 : requireInRange(fn, "options.gain", o["gain"], { min: 0.01, max: 100 });
   return { edgeHz, kf, capacitorF, resistorSeries, capacitorSeries, exact: values === "exact", opamp, gain };
+}
+
+/** Default of `dcPathRatio`. */
+export const DEFAULT_DC_PATH_RATIO = 1000;
+
+/**
+ * Check `options.dcPathRatio`.
+ *
+ * @param fn - public function name
+ * @param options - what the caller gave (already checked to be an object or undefined)
+ * @returns the ratio
+ * @throws {@link InvalidArgumentError} outside 10 to 1e6
+ */
+export function readDcPathRatio(fn: string, options: unknown): number {
+  const raw = requireOptions(fn, "options", options)["dcPathRatio"];
+  return raw === undefined ? DEFAULT_DC_PATH_RATIO : requireInRange(fn, "options.dcPathRatio", raw, { min: 10, max: 1e6 });
 }
 
 /** What a method needs of the ladder's arms. */

@@ -24,8 +24,8 @@ export interface ActiveLadderOptions {
    * where the method lets them share one value, farads (10 pF to 10 µF; a
    * member of `capacitorSeries`). The impedance level follows from it.
    * @defaultValue the member of `capacitorSeries` nearest 1 / (2 pi edgeHz R)
-   *   with R = 10 kΩ (1 kΩ for the FDNR method, whose DC path resistors sit
-   *   `dcPathRatio` times higher)
+   *   with R = 10 kΩ (1 kΩ for the FDNR method and for GIC ladders with
+   *   finite zeros, whose DC path resistors sit `dcPathRatio` times higher)
    */
   readonly capacitorF?: number;
   /**
@@ -56,6 +56,26 @@ export interface ActiveLadderOptions {
    * @defaultValue 1
    */
   readonly gain?: number;
+}
+
+/** Options of the realisations that add DC path resistors (the FDNR and GIC methods). */
+export interface DcPathOptions {
+  /**
+   * How far above the impedance it shunts a DC path resistor sits (10 to
+   * 1e6): the FDNR ladder's resistor across the source capacitor is
+   * dcPathRatio times the scaled source resistance; the GIC ladder's across a
+   * series capacitor dcPathRatio times that capacitor's reactance at edgeHz.
+   * @defaultValue 1000
+   */
+  readonly dcPathRatio?: number;
+}
+
+/** The resistors a realisation adds so that every node has a DC path; their effect is part of the circuit. */
+export interface DcPath {
+  /** The ratio used. */
+  readonly ratio: number;
+  /** The resistors added, in circuit order (none when every node already has a DC path). */
+  readonly resistors: readonly ActiveLadderPart[];
 }
 
 /** A part of an active ladder: its designator, its computed and its as-built value. */
@@ -91,10 +111,12 @@ export interface ActiveLadder {
   /**
    * The transfer function (rad/s) the circuit realises with ideal op-amps and
    * exact values: the prototype's transfer scaled to `edgeHz`, times the gain
-   * factor (with the FDNR method, up to the documented effect of the DC
-   * resistors at low frequencies, `dcPath`).
+   * factor, up to the documented effect of the DC path resistors
+   * ({@link ActiveLadder.dcPath}).
    */
   readonly target: Zpk;
+  /** The DC path resistors (null for leapfrog, where every node is driven by an op-amp). */
+  readonly dcPath: DcPath | null;
   /** Whether the passband output is inverted (`target.gain` is then negative). */
   readonly inverting: boolean;
   /** Impedance scale Km (ohms per normalised ohm) of the realisation. */

@@ -14,7 +14,7 @@
  * @module
  */
 import { buildAxis, widestLabel, type Axis, type AxisSpec } from "./axes.ts";
-import { legendRows, legendSvg, type LegendEntry } from "./legend.ts";
+import { fittedLegendRows, legendSvg, type LegendEntry, type LegendItem } from "./legend.ts";
 import { esc, hashText, px, textWidth, wrapText } from "./text.ts";
 
 /** What a frame holds. */
@@ -64,7 +64,11 @@ export interface Frame {
   /** The title's lines. */
   readonly titleLines: readonly string[];
   /** The legend's rows. */
-  readonly legendRows: readonly (readonly LegendEntry[])[];
+  readonly legendRows: readonly (readonly LegendItem[])[];
+  /** The x title's lines (wrapped to the plot's width). */
+  readonly xTitleLines: readonly string[];
+  /** The y title's lines (wrapped to the plot's height). */
+  readonly yTitleLines: readonly string[];
 }
 
 /** Label font size, pixels. */
@@ -99,6 +103,9 @@ function axesFor(spec: FrameSpec, plotWidth: number, plotHeight: number): { x: A
   return { x, y };
 }
 
+/** An axis title with its unit, before the axis picks a prefix (for a first guess of its length). */
+const titleOf = (a: AxisSpec): string => (a.unit === "" ? a.title : `${a.title} (${a.unit})`);
+
 /** How far the first and last x labels reach beyond the plot area's sides, pixels. */
 function xOverhang(x: Axis, plotWidth: number): { left: number; right: number } {
   let left = 0;
@@ -122,20 +129,29 @@ function xOverhang(x: Axis, plotWidth: number): { left: number; right: number } 
 export function layoutFrame(spec: FrameSpec): Frame {
   const { width, height } = spec;
   const titleLines = spec.title === "" ? [] : wrapText(spec.title, TITLE_SIZE, width - 2 * PAD);
-  const rows = legendRows(spec.legend, FONT_SIZE, width - 2 * PAD);
   const top = PAD + titleLines.length * TITLE_LINE + (titleLines.length > 0 ? 6 : 4) + Math.ceil(FONT_SIZE / 2);
-  const bottomMargin = GAP + LINE + 4 + LINE + (rows.length > 0 ? 6 + rows.length * LINE : 0) + PAD;
-  const plotHeight = Math.max(40, height - top - bottomMargin);
+  // the legend may take the height the plot does not need: the plot keeps at least 60 pixels or 45 % of the height
+  const fixedBottom = GAP + LINE + 4 + 2 * LINE + 6 + PAD;
+  const maxRows = Math.max(1, Math.floor((height - top - Math.max(60, 0.45 * height) - fixedBottom) / LINE));
+  const rows = fittedLegendRows(spec.legend, FONT_SIZE, width - 2 * PAD, maxRows);
+  // the axis titles' line counts depend on the plot's size, which depends on them: settle in a few passes
+  let xTitleLines = [titleOf(spec.x)];
+  let yTitleLines = [titleOf(spec.y)];
   let left = PAD + LINE + 6 + 40 + GAP;
   let right = PAD + 8;
-  let axes = axesFor(spec, Math.max(40, width - left - right), plotHeight);
-  for (let pass = 0; pass < 3; pass++) {
+  let plotHeight = 40;
+  let axes = axesFor(spec, Math.max(40, width - left - right), Math.max(40, height - top - 80));
+  for (let pass = 0; pass < 4; pass++) {
+    const bottomMargin = GAP + LINE + 4 + xTitleLines.length * LINE + (rows.length > 0 ? 6 + rows.length * LINE : 0) + PAD;
+    plotHeight = Math.max(40, height - top - bottomMargin);
     const yLabels = widestLabel(axes.y, FONT_SIZE);
     const plotWidth0 = Math.max(40, width - left - right);
     const over = xOverhang(axes.x, plotWidth0);
-    left = Math.max(PAD + LINE + 6 + yLabels + GAP, PAD + over.left);
+    left = Math.max(PAD + yTitleLines.length * LINE + 6 + yLabels + GAP, PAD + over.left);
     right = Math.max(PAD + 8, PAD + over.right);
     axes = axesFor(spec, Math.max(40, width - left - right), plotHeight);
+    xTitleLines = wrapText(axes.x.title, FONT_SIZE, Math.max(40, width - left - right));
+    yTitleLines = wrapText(axes.y.title, FONT_SIZE, plotHeight);
   }
   const plotWidth = Math.max(40, width - left - right);
   const { x, y } = axes;
@@ -154,6 +170,8 @@ export function layoutFrame(spec: FrameSpec): Frame {
     clipId,
     titleLines,
     legendRows: rows,
+    xTitleLines,
+    yTitleLines,
   };
 }
 
@@ -206,15 +224,19 @@ export function frameClose(f: Frame): string[] {
     if (t.label === null) continue;
     out.push(`<text x="${px(f.left - GAP)}" y="${px(f.Y(t.value) + FONT_SIZE * 0.35)}" text-anchor="end">${esc(t.label)}</text>`);
   }
-  const xTitleBaseline = bottom + GAP + LINE + 4 + FONT_SIZE * 0.95;
-  out.push(`<text x="${px(f.left + f.plotWidth / 2)}" y="${px(xTitleBaseline)}" text-anchor="middle">${esc(f.x.title)}</text>`);
-  const yTitleX = PAD + FONT_SIZE * 0.95;
+  const xTitleTop = bottom + GAP + LINE + 4;
+  f.xTitleLines.forEach((l, i) => {
+    out.push(`<text x="${px(f.left + f.plotWidth / 2)}" y="${px(xTitleTop + i * LINE + FONT_SIZE * 0.95)}" text-anchor="middle">${esc(l)}</text>`);
+  });
   const yMid = f.top + f.plotHeight / 2;
-  out.push(`<text x="${px(yTitleX)}" y="${px(yMid)}" text-anchor="middle" transform="rotate(-90 ${px(yTitleX)} ${px(yMid)})">${esc(f.y.title)}</text>`);
+  f.yTitleLines.forEach((l, i) => {
+    const at = PAD + i * LINE + FONT_SIZE * 0.95;
+    out.push(`<text x="${px(at)}" y="${px(yMid)}" text-anchor="middle" transform="rotate(-90 ${px(at)} ${px(yMid)})">${esc(l)}</text>`);
+  });
   f.titleLines.forEach((line, i) => {
     out.push(`<text x="${PAD}" y="${px(PAD + i * TITLE_LINE + TITLE_SIZE * 0.95)}" font-size="${TITLE_SIZE}" fill="#111111">${esc(line)}</text>`);
   });
-  if (f.legendRows.length > 0) out.push(...legendSvg(f.legendRows, PAD, bottom + GAP + 2 * LINE + 4 + 6, FONT_SIZE, LINE));
+  if (f.legendRows.length > 0) out.push(...legendSvg(f.legendRows, PAD, bottom + GAP + (1 + f.xTitleLines.length) * LINE + 4 + 6, FONT_SIZE, LINE));
   out.push("</svg>", "");
   return out;
 }
