@@ -193,7 +193,7 @@ function synthesisArms(target: Zpk, r: number, form: LadderForm, spec: Record<st
  * @example
  * ```ts
  * ladderPrototype({ family: "butterworth", order: 3 }).elements.map((e) => e.value);
- * //=> [1.0000000000000002, 2, 1.0000000000000002]
+ * //=> [0.9999999999999999, 2, 0.9999999999999999]
  * ```
  */
 export function ladderPrototype(spec: LadderPrototypeSpec): LadderPrototype {

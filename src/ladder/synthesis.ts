@@ -158,7 +158,7 @@ function coefficientDistance(a: readonly DD[], b: readonly DD[]): number {
  * @throws never (unchecked)
  * @example
  * ```ts
- * synthesizeLadder(butterworth(3), 1, "series-first"); // elements 1, 2, 1 (to ~1e-15)
+ * synthesizeLadder(butterworth(3), 1, "series-first").elements.map((e) => e.value); //=> [1, 2, 1]
  * ```
  */
 export function synthesizeLadder(h: Zpk, r: number, form: LadderForm): SynthesisResult | SynthesisFailure {
