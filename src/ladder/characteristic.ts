@@ -10,13 +10,18 @@
  * Wiley, 1973, ch. 3 (the characteristic function K = F/N)):
  * 1. In x = w^2 the matched characteristic polynomial P1(x) = |E(jw)|^2 - |N(jw)|^2
  *    of a prototype whose peak gain is 1 is >= 0 on x >= 0; its roots there are
- *    the reflection zeros. The prototype's poles are doubles, so the exact
- *    structure is restored first: coefficients of P1 at x^0, x^1, ... that are
- *    below 1e-11 of the sum of the moduli of their terms are rounding of an
- *    exact zero (a reflection zero of that multiplicity at DC), and roots on
- *    the positive axis that Aberth's iteration returns as a close pair
- *    (relative distance below 1e-5) are one double root, refined as a root of
- *    P1' by Newton's iteration in double-double.
+ *    the reflection zeros, double. The prototype's poles are doubles, which
+ *    splits those double roots by about sqrt(1e-16) and, for selective
+ *    filters, by far more (the coefficients of |E|^2 cancel near high-Q poles),
+ *    so the exact structure is restored rather than found from the
+ *    coefficients: coefficients of P1 at x^0, x^1, ... below 1e-11 of the sum
+ *    of the moduli of their terms are rounding of an exact zero (a reflection
+ *    zero of that multiplicity at DC); the reflection zeros on the axis are
+ *    the maxima of |H(jw)| equal to the peak, found from the factored form
+ *    (see {@link axisReflectionZeros}); only what remains (the off-axis roots
+ *    of Bessel and Legendre responses) is left to Aberth's iteration on the
+ *    coefficients, divided by the known roots, and refined by Newton's
+ *    iteration in double-double.
  * 2. For a power gain K = 1 - rho2 < 1 (unequal terminations),
  *    P(x) = P1(x) + rho2 |N(jw)|^2 has only simple roots.
  * 3. F takes, from each root x of P, the left-half-plane root of s^2 = -x
@@ -62,8 +67,8 @@ import type { Zpk } from "../tf/types.ts";
 
 /** Relative size below which a low-order coefficient of P1 is taken as an exact zero. */
 export const EXACT_ZERO_THRESHOLD = 1e-11;
-/** Relative distance below which two roots of P1 on the positive axis are one double root. */
-export const DOUBLE_ROOT_THRESHOLD = 1e-5;
+/** A root of P1 left after the reflection zeros on the axis are divided out, this close (relative) to the positive axis, means the gain exceeds its peak. */
+export const AXIS_THRESHOLD = 1e-5;
 
 /** Real roots and the upper members of conjugate pairs of a real polynomial, in double-double. */
 export interface XRoots {
@@ -203,7 +208,7 @@ const PEAK_SEARCH = Object.freeze({
  * @throws never (unchecked)
  * @example
  * ```ts
- * axisReflectionZeros(chebyshev1(2, { rippleDb: 1 })); //=> [0.7071067811865476] (cos(pi/4), to rounding)
+ * axisReflectionZeros(chebyshev1(2, { rippleDb: 1 })); //=> [0.7071067811865477]
  * ```
  */
 export function axisReflectionZeros(h: Zpk): number[] | null {
@@ -286,7 +291,7 @@ export function matchedReflection(h: Zpk, e: DDPoly, n: DDPoly): MatchedReflecti
   }
   const other = polishedRoots(q);
   for (const x of other.real) if (!(x.hi < 0)) return null;
-  for (const z of other.upper) if (z.re.hi > 0 && Math.abs(z.im.hi) <= DOUBLE_ROOT_THRESHOLD * z.re.hi) return null;
+  for (const z of other.upper) if (z.re.hi > 0 && Math.abs(z.im.hi) <= AXIS_THRESHOLD * z.re.hi) return null;
   return { atDc, onAxis, other, lead };
 }
 

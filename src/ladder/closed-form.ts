@@ -39,7 +39,7 @@
  * @throws never (unchecked)
  * @example
  * ```ts
- * closedFormValues(3, null, 0); //=> [1.0000000000000002, 2, 1.0000000000000002] (up to rounding)
+ * closedFormValues(3, null, 0); //=> [0.9999999999999999, 2, 0.9999999999999999]
  * ```
  */
 export function closedFormValues(order: number, eps: number | null, rho2: number): number[] {

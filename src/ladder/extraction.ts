@@ -81,7 +81,7 @@ function timesS(p: DDPoly): DD[] {
  * @throws never (unchecked)
  * @example
  * ```ts
- * extractLadder(ddPoly([2, 2]), ddPoly([1]), [], 1); // { arms: [{ value: 2 }], termination: 2, ... }
+ * extractLadder(ddPoly([2, 2]), ddPoly([1]), [], 1); //=> { arms: [{ value: 2 }], termination: 2, worstResidual: 0 }
  * ```
  */
 export function extractLadder(a: DDPoly, b: DDPoly, zeros: readonly number[], arms: number): Extraction | null {

@@ -18,8 +18,11 @@
  * and a requested load must lie at or beyond it.
  * Accuracy: closed forms a few ulp; synthesis checked on its own result (the
  * ladder's response against `transfer` on 600 points must agree to 1e-10 dB,
- * else the call is refused); the tests measure both against the ladder's
- * nodal analysis.
+ * else the call is refused). Measured in test/ladder at orders 2-12, both
+ * forms, equal and 600/50 ohm terminations: element values within 6e-15
+ * (relative) of a 60-digit mpmath synthesis; the ladder's response within
+ * 1e-12 dB of `transfer` for the all-pole families and within 2e-11 dB for
+ * elliptic and Chebyshev II (down to -300 dB, away from the notches).
  * References: see the headers of the files named above.
  *
  * @module
@@ -193,7 +196,7 @@ function synthesisArms(target: Zpk, r: number, form: LadderForm, spec: Record<st
  * @example
  * ```ts
  * ladderPrototype({ family: "butterworth", order: 3 }).elements.map((e) => e.value);
- * //=> [1.0000000000000002, 2, 1.0000000000000002]
+ * //=> [0.9999999999999999, 2, 0.9999999999999999]
  * ```
  */
 export function ladderPrototype(spec: LadderPrototypeSpec): LadderPrototype {
