@@ -9,3 +9,4 @@ export { monteCarlo, type MonteCarloOptions, type MonteCarloResult, type Spread,
 export type { PartDistribution } from "../evaluate/boards.ts";
 export { partSensitivities, type PartSensitivity } from "./sensitivity.ts";
 export { noiseAnalysis, BOLTZMANN_J_PER_K, type NoiseAnalysisOptions, type NoiseAnalysisResult, type NoiseContributor } from "./noise.ts";
+export { activeLadderMonteCarlo } from "./ladder-yield.ts";

@@ -10,8 +10,10 @@
  * the board, drawn within its tolerance by ./boards.ts.
  *
  * Accuracy: as the generic path, a few ulps of the largest scaled
- * coefficient per coefficient; against the circuit's nodal analysis below
- * 1e-9 dB over the span for the active ladders
+ * coefficient per coefficient; against the circuit's nodal analysis, over
+ * three decades either side of the edge of the active ladders (orders 5 and
+ * 7, up to 17 poles), below 1e-9 dB with ideal op-amps and 1e-7 dB with
+ * single-pole ones, whose own poles form a tight cluster near GBW / 2
  * (test/evaluate/circuit-boards.test.ts).
  *
  * @module
