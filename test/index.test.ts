@@ -23,9 +23,11 @@ const ROOT_NAMES = [
   "bomLines",
   "checkSpec",
   "designFilter",
+  "designPolesZeros",
   "formatValue",
   "fromJson",
   "monteCarlo",
+  "monteCarloEnvelope",
   "noiseAnalysis",
   "opampRequirements",
   "parseValue",
@@ -38,6 +40,7 @@ const ROOT_NAMES = [
   "toSectionsCsv",
   "toSpiceNetlist",
   "toSvgPlot",
+  "toSvgSchematic",
   "validateSpec",
 ];
 
