@@ -23,9 +23,11 @@ const ROOT_NAMES = [
   "bomLines",
   "checkSpec",
   "designFilter",
+  "designPolesZeros",
   "formatValue",
   "fromJson",
   "monteCarlo",
+  "monteCarloEnvelope",
   "noiseAnalysis",
   "opampRequirements",
   "parseValue",
@@ -40,6 +42,7 @@ const ROOT_NAMES = [
   "toSpiceNetlist",
   "svgFigure",
   "toSvgPlot",
+  "toSvgSchematic",
   "validateSpec",
 ];
 

@@ -13,6 +13,21 @@ import { requireDesignResult } from "../design/check.ts";
 import { verdictLine } from "../design/verdict.ts";
 import { hertz } from "../design/text.ts";
 import { headroomLines } from "./headroom.ts";
+import { requireSchematics, schematicLines, type MarkdownSchematics } from "./markdown-schematics.ts";
+import { requireOptions } from "../validate.ts";
+
+/** Options of {@link toMarkdown}. */
+export interface MarkdownOptions {
+  /**
+   * Each stage's schematic after the stage list: `"inline"` writes the SVG
+   * into the Markdown (shown by renderers that allow HTML, such as VS Code,
+   * Jupyter and typedoc; GitHub does not), a file name containing `{stage}`
+   * (`"img/stage-{stage}.svg"`) links one image per stage, which you write
+   * with `toSvgSchematic(result, { stage })`, and `"none"` leaves them out.
+   * @defaultValue "none"
+   */
+  readonly schematics?: MarkdownSchematics;
+}
 
 const f3 = (x: number): string => hertz(x);
 const n4 = (x: number): string => Number(x.toPrecision(4)).toString();
@@ -56,16 +71,19 @@ function yieldSection(result: DesignResult): string[] {
  * Render a design as a Markdown summary.
  *
  * @param result - a design
+ * @param options - whether and how to show the stages' schematics
  * @returns Markdown text
- * @throws {@link InvalidArgumentError} when `result` is not a design result (the path names the first bad field)
+ * @throws {@link InvalidArgumentError} when `result` is not a design result (the path names the first bad field), or `schematics` is not one of its forms
  * @example
  * ```ts
  * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
  * toMarkdown(designFilter(spec)).split("\n")[0]; //=> "# Lowpass filter: legendre, 4 poles"
+ * toMarkdown(designFilter(spec), { schematics: "stage-{stage}.svg" }).includes("](stage-1.svg)"); //=> true
  * ```
  */
-export function toMarkdown(result: DesignResult): string {
+export function toMarkdown(result: DesignResult, options?: MarkdownOptions): string {
   requireDesignResult("toMarkdown", result);
+  const schematics = requireSchematics("toMarkdown", requireOptions("toMarkdown", "options", options)["schematics"]);
   const s = result.spec;
   const v = result.verification;
   const L: string[] = [];
@@ -131,7 +149,9 @@ export function toMarkdown(result: DesignResult): string {
       `- Stage ${st.index} (${st.topology}; ${st.topologyReason}): ${parts}; ${st.opamps.join(", ")}. f0 error ${pct(st.errors.f0)} (plain rounding: ${pct(st.plainSnapErrors.f0)}), Q error ${pct(st.errors.q)} (plain rounding: ${pct(st.plainSnapErrors.q)}).${real}`,
     );
   }
-  L.push("", "## Verification (as built)", "");
+  L.push("");
+  L.push(...schematicLines(result, schematics));
+  L.push("## Verification (as built)", "");
   L.push("| check | as built | spec | margin |", "|---|---|---|---|");
   L.push(`| passband loss | ${dB(v.passbandLossDb)} (worst at ${f3(v.passbandWorstHz)}) | ≤ ${s.maxLossDb} dB | ${dB(v.passbandMarginDb)} |`);
   L.push(`| stopband attenuation | ${dB(v.stopbandAttenuationDb, 2)} (worst at ${f3(v.stopbandWorstHz)}) | ≥ ${s.minAttenuationDb} dB | ${dB(v.stopbandMarginDb)} |`);

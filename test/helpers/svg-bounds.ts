@@ -28,7 +28,12 @@ export function viewBox(svg: string): { width: number; height: number } {
 export function textBoxes(svg: string): Box[] {
   const base = Number(/<svg[^>]*font-size="([\d.]+)"/.exec(svg)?.[1] ?? "12");
   const out: Box[] = [];
+  // a translate(dx dy) group moves the text after its start tag (the schematics use one)
+  const group = /<g transform="translate\(([-\d.]+) ([-\d.]+)\)">/.exec(svg);
   for (const m of svg.matchAll(/<text([^>]*)>([^<]*)<\/text>/g)) {
+    const moved = group !== null && (m.index as number) > group.index;
+    const gx = moved ? Number(group[1]) : 0;
+    const gy = moved ? Number(group[2]) : 0;
     const attrs = m[1] as string;
     const text = unescape(m[2] as string);
     const num = (name: string): number | undefined => {
@@ -51,7 +56,7 @@ export function textBoxes(svg: string): Box[] {
       const ys = [box.x0, box.x1].map((px) => cy - (px - cx));
       box = { x0: Math.min(...xs), x1: Math.max(...xs), y0: Math.min(...ys), y1: Math.max(...ys) };
     }
-    out.push({ text, ...box });
+    out.push({ text, x0: box.x0 + gx, x1: box.x1 + gx, y0: box.y0 + gy, y1: box.y1 + gy });
   }
   return out;
 }

@@ -71,11 +71,11 @@ function partSvg(p: PlacedPart): { svg: string[]; labels: Label[] } {
         : p.label === "right"
           ? [
               { text: p.name, x: cx + off, y: cy - 2, anchor: "start" },
-              { text: v, x: cx + off, y: cy + FONT, anchor: "start" },
+              { text: v, x: cx + off, y: cy + FONT + 1, anchor: "start" },
             ]
           : [
               { text: p.name, x: cx - off, y: cy - 2, anchor: "end" },
-              { text: v, x: cx - off, y: cy + FONT, anchor: "end" },
+              { text: v, x: cx - off, y: cy + FONT + 1, anchor: "end" },
             ];
   return { svg, labels };
 }
