@@ -76,6 +76,7 @@ export function htmlTable(head: readonly string[], rows: readonly (readonly stri
  */
 export function textTable(head: readonly string[], rows: readonly (readonly string[])[]): string {
   const all = [head, ...rows];
-  const widths = head.map((_, j) => Math.max(...all.map((r) => (r[j] ?? "").length)));
+  const widths: number[] = [];
+  for (const r of all) r.forEach((c, j) => (widths[j] = Math.max(widths[j] ?? 0, c.length)));
   return all.map((r) => r.map((c, j) => c.padEnd(widths[j] as number)).join("  ").trimEnd()).join("\n");
 }

@@ -22,6 +22,7 @@ const ROOT_NAMES = [
   "UnrealisableError",
   "bomLines",
   "checkSpec",
+  "compareRealisations",
   "designFilter",
   "designPolesZeros",
   "formatValue",

@@ -16,7 +16,7 @@ import { toBomCsv, toCurveCsv, toJson, toMarkdown, toSectionsCsv, toSpiceNetlist
 import { topologies } from "../topologies/index.ts";
 import { formatValue } from "../units/index.ts";
 import { verdictLine } from "../design/verdict.ts";
-import { monteCarlo, noiseAnalysis, partSensitivities } from "../analysis/index.ts";
+import { compareRealisations, monteCarlo, noiseAnalysis, partSensitivities } from "../analysis/index.ts";
 import { readArgs, type GivenOption } from "./args.ts";
 import { OPTIONS, OUTPUT_OPTIONS, type OptionDef } from "./options.ts";
 import { CliProblem, CliProblems, ioReason } from "./problems.ts";
@@ -119,6 +119,17 @@ function extraLines(r: DesignResult, o: ReadonlyMap<string, GivenOption>, contro
       `Monte Carlo: ${mc.runs} boards, resistors +-${(mc.tolerances.resistor * 100).toFixed(1)} %, capacitors +-${(mc.tolerances.capacitor * 100).toFixed(1)} % (${distribution}): ` +
         `${(mc.yield * 100).toFixed(1)} % meet the mask (+-${(mc.yieldStandardError * 100).toFixed(1)} %); ` +
         `worst margin ${mc.marginDb.min.toFixed(3)} dB, median ${mc.marginDb.median.toFixed(3)} dB`,
+    );
+  }
+  if (o.get("compare")?.value === true) {
+    const seed = o.get("seed")?.value;
+    const c = analysis(o, () => compareRealisations(r, { runs: typeof runs === "number" ? runs : 2000, ...(typeof seed === "number" ? { seed } : {}) }));
+    const pc = (x: number): string => `${(x * 100).toFixed(1)} %`;
+    const rows = [["realisation", "op-amps", "R and C", "yield", "95 % interval", "median margin"]];
+    for (const k of c.candidates) rows.push([k.method, String(k.opamps), String(k.parts), pc(k.yield), `${pc(k.lower95)} - ${pc(k.upper95)}`, `${k.medianMarginDb.toFixed(3)} dB`]);
+    extra.push(
+      `realisations on ${c.candidates[0]?.boards ?? 0} boards each at ${pc(c.tolerances.resistor)} R / ${pc(c.tolerances.capacitor)} C (seed ${c.seed}):\n${table(rows)}\n` +
+        `${c.skipped.map((k) => `${k.method}: not built (${k.reason})\n`).join("")}choice: ${c.reason}`,
     );
   }
   const en = o.get("noise")?.value;

@@ -9,17 +9,12 @@ import type { DesignResult } from "../design/index.ts";
 import { DESIGN_CAUTIONS } from "../report/index.ts";
 import { verdictLine } from "../design/verdict.ts";
 import { hertz } from "../design/text.ts";
+import { textTable } from "../display.ts";
 import { formatValue } from "../units/index.ts";
 
-function pad(s: string, n: number): string {
-  return s.length >= n ? s : s + " ".repeat(n - s.length);
-}
-
-/** Rows laid out in columns two spaces apart. */
+/** Rows laid out in columns two spaces apart (the first row is the heading). */
 export function table(rows: readonly (readonly string[])[]): string {
-  const widths: number[] = [];
-  for (const r of rows) r.forEach((c, i) => (widths[i] = Math.max(widths[i] ?? 0, c.length)));
-  return rows.map((r) => r.map((c, i) => pad(c, widths[i] as number)).join("  ").trimEnd()).join("\n");
+  return textTable(rows[0] ?? [], rows.slice(1));
 }
 
 const hz = (x: number): string => hertz(x);
