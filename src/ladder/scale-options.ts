@@ -100,7 +100,9 @@ function readBand(fn: string, o: Record<string, unknown>, response: "bandpass" |
   const lo = requirePositive(fn, "options.edgeHz[0]", edges[0]);
   const hi = requirePositive(fn, "options.edgeHz[1]", edges[1]);
   if (!(hi > lo)) fail(fn, "options.edgeHz[1]", hi, `expected the upper edge above the lower one (${lo} Hz)`);
-  return { response, centreHz: Math.sqrt(lo) * Math.sqrt(hi), bandwidthHz: hi - lo, lowerHz: lo, upperHz: hi };
+  const product = lo * hi;
+  const centreHz = Number.isFinite(product) && product > 0 ? Math.sqrt(product) : Math.sqrt(lo) * Math.sqrt(hi);
+  return { response, centreHz, bandwidthHz: hi - lo, lowerHz: lo, upperHz: hi };
 }
 
 function readTerminations(fn: string, o: Record<string, unknown>, prototype: LadderPrototype): { sourceOhms: number; loadOhms: number } {
