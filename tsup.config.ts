@@ -9,6 +9,7 @@ export const layers = [
   "parts",
   "scaling",
   "circuit",
+  "ladder/active",
   "topologies",
   "design",
   "analysis",
