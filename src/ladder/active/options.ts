@@ -13,9 +13,13 @@ import { seriesTable, type SeriesName } from "../../parts/eseries.ts";
 import { isInSeries, snapToSeries } from "../../parts/snap.ts";
 import { TWO_PI } from "../../units/constants.ts";
 import type { LadderElement, LadderPrototype } from "../types.ts";
+import type { PartWindow } from "./types.ts";
 
-/** Smallest and largest capacitor a realisation accepts, farads (the design layer's window). */
-export const CAPACITOR_RANGE_F = Object.freeze({ min: 10e-12, max: 10e-6 });
+/** Resistors a realisation may place, ohms (the design layer's hard limits). */
+export const RESISTOR_LIMITS_OHMS: PartWindow = Object.freeze({ min: 100, max: 10e6 });
+
+/** Capacitors a realisation may place (and the shared capacitor it accepts), farads (the design layer's hard limits). */
+export const CAPACITOR_LIMITS_F: PartWindow = Object.freeze({ min: 10e-12, max: 10e-6 });
 
 /** The impedance level the default capacitor aims at, ohms (common practice, no source). */
 export const DEFAULT_LEVEL_OHMS = 10e3;
@@ -71,9 +75,9 @@ export function readActiveOptions(fn: string, options: unknown, levelOhms = DEFA
   let capacitorF: number;
   if (o["capacitorF"] === undefined) {
     const ideal = 1 / (kf * levelOhms);
-    capacitorF = snapToSeries(Math.min(CAPACITOR_RANGE_F.max, Math.max(CAPACITOR_RANGE_F.min, ideal)), { series: capacitorSeries }).value;
+    capacitorF = snapToSeries(Math.min(CAPACITOR_LIMITS_F.max, Math.max(CAPACITOR_LIMITS_F.min, ideal)), { series: capacitorSeries }).value;
   } else {
-    capacitorF = requireInRange(fn, "options.capacitorF", o["capacitorF"], CAPACITOR_RANGE_F);
+    capacitorF = requireInRange(fn, "options.capacitorF", o["capacitorF"], CAPACITOR_LIMITS_F);
     if (!isInSeries(capacitorF, capacitorSeries)) {
       const near = snapToSeries(capacitorF, { series: capacitorSeries }).value;
       throw new InvalidArgumentError({ fn, path: "options.capacitorF", received: capacitorF, message: `expected a member of the capacitor series ${capacitorSeries}, such as ${near}` });
