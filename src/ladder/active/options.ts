@@ -110,8 +110,8 @@ export function readDcPathRatio(fn: string, options: unknown): number {
 export type ArmRule =
   /** Every capacitor grounded: no capacitor across a series inductor (the GIC and FDNR methods). */
   | "grounded-capacitors"
-  /** No transmission zero at all (the leapfrog method as built here). */
-  | "all-pole";
+  /** Any arms (the leapfrog method: an extra element couples the states on either side of it). */
+  | "any";
 
 function bad(fn: string, path: string, received: unknown, message: string): never {
   throw new InvalidArgumentError({ fn, path, received, message });
@@ -131,10 +131,7 @@ function checkElement(fn: string, path: string, e: unknown, rule: ArmRule): Ladd
   if (a[wrong] !== undefined) bad(fn, `${path}.${wrong}`, a[wrong], `a ${String(a["kind"])} arm has no ${wrong}; leave it out`);
   if (a[extra] !== undefined) {
     if (!positive(a[extra])) bad(fn, `${path}.${extra}`, a[extra], "expected a finite normalised element value above 0 (below 1e12), or no field");
-    if (rule === "all-pole") {
-      throw new UnrealisableError({ fn, path: `${path}.${extra}`, received: a[extra], message: "this method realises ladders without transmission zeros (all-pole families: Butterworth, Chebyshev I, Bessel, Legendre); use the FDNR or GIC method for a ladder with finite zeros" });
-    }
-    if (extra === "parallelC") {
+    if (rule === "grounded-capacitors" && extra === "parallelC") {
       throw new UnrealisableError({ fn, path: `${path}.parallelC`, received: a[extra], message: "a capacitor across a series inductor becomes a floating element this method cannot build with grounded GICs; use the ladder's other form (transmission zeros made by series resonators in the shunt arms)" });
     }
   }
