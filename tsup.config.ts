@@ -10,6 +10,7 @@ export const layers = [
   "parts",
   "scaling",
   "circuit",
+  "ladder/active",
   "topologies",
   "design",
   "analysis",

@@ -61,9 +61,13 @@ function requireLadderFor(fn: string, result: DesignResult, ladder: unknown): Ac
  * @throws {@link CancelledError} when the run is stopped (signal, time limit or progress callback)
  * @example
  * ```ts
- * const design = designFilter(spec);
- * const ladder = leapfrogLowpassLadder(chebyshevLadder, { edgeHz: design.placement.chosenHz });
- * activeLadderMonteCarlo(design, ladder, { runs: 1000, seed: 7 }).yield; //=> 0.9...
+ * const design = designFilter({ response: "lowpass", family: "chebyshev1", order: 7,
+ *   passband: { edgeHz: 18000, maxLossDb: 0.25 }, stopband: { edgeHz: 26000, minAttenuationDb: 33 },
+ *   parts: { resistorTolerance: 0.01, capacitorTolerance: 0.02 } });
+ * // `ladder`: the normalised 7th-order Chebyshev I ladder of design.placement.designRippleDb (0.125 dB)
+ * const leapfrog = leapfrogLowpassLadder(ladder, { edgeHz: design.placement.chosenHz });
+ * activeLadderMonteCarlo(design, leapfrog, { runs: 1000, seed: 7 }).yield; //=> 0.688
+ * monteCarlo(design, { runs: 1000, seed: 7 }).yield; //=> 0.037 (the design's biquad cascade)
  * ```
  */
 export function activeLadderMonteCarlo(result: DesignResult, ladder: ActiveLadder, options: MonteCarloOptions = {}): MonteCarloResult {

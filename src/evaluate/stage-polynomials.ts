@@ -187,9 +187,7 @@ export interface CompileElementsOptions {
 }
 
 /**
- * The compiled form of a circuit: its stamp program, the transform tables
- * and the scratch (the common part of {@link compileStage} and
- * `compileCircuit` in ./circuit-boards.ts). No checks.
+ * A circuit's stamp program, transform tables and scratch (for {@link compileStage} and ./circuit-boards.ts). No checks.
  *
  * @param circuit - a valid circuit
  * @param names - the elements (by name) whose values a board's values replace, in board order

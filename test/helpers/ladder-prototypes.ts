@@ -102,3 +102,18 @@ export function passiveLadderResponse(p: LadderPrototype, w: number, extra?: Ter
   const denom = add(add(m[0], mul(m[1], yl)), mul(zs, add(m[2], mul(m[3], yl))));
   return inv(denom);
 }
+
+/**
+ * The dual ladder (series and shunt arms exchanged, each element becoming
+ * its dual of the same normalised value: a series inductor a shunt
+ * capacitor, a shunt series resonator a series parallel tank), with the
+ * terminations inverted; for 1-ohm terminations it has the same transfer.
+ */
+export function dualLadder(p: LadderPrototype): LadderPrototype {
+  const elements: LadderElement[] = p.elements.map((e) =>
+    e.kind === "series-L"
+      ? { kind: "shunt-C", value: e.value, ...(e.parallelC === undefined ? {} : { seriesL: e.parallelC }) }
+      : { kind: "series-L", value: e.value, ...(e.seriesL === undefined ? {} : { parallelC: e.seriesL }) },
+  );
+  return { ...p, form: p.form === "series-first" ? "shunt-first" : "series-first", elements, sourceOhms: 1 / p.sourceOhms, loadOhms: 1 / p.loadOhms };
+}

@@ -20,16 +20,10 @@ import type { Element } from "../../circuit/types.ts";
 import { bestCombination } from "../../parts/combine.ts";
 import { isInSeries, snapToSeries } from "../../parts/snap.ts";
 import type { ActiveLadderPart } from "./types.ts";
-import type { ReadOptions } from "./options.ts";
+import { CAPACITOR_LIMITS_F, RESISTOR_LIMITS_OHMS, type ReadOptions } from "./options.ts";
 
 /** Relative error above which a capacitor is made of two in parallel (0.5 %; common practice, no source). */
 export const PAIR_ABOVE = 0.005;
-
-/** Resistors a realisation may place, ohms (the design layer's hard limits). */
-export const RESISTOR_LIMITS_OHMS = Object.freeze({ min: 100, max: 10e6 });
-
-/** Capacitors a realisation may place, farads (the design layer's hard limits). */
-export const CAPACITOR_LIMITS_F = Object.freeze({ min: 10e-12, max: 10e-6 });
 
 /** An element list being built. */
 export interface Builder {

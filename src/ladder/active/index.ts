@@ -7,9 +7,10 @@
  *
  * @module
  */
-export type { ActiveLadder, ActiveLadderMethod, ActiveLadderOptions, ActiveLadderPart, DcPath, DcPathOptions } from "./types.ts";
+export type { ActiveLadder, ActiveLadderMethod, ActiveLadderOptions, ActiveLadderPart, DcPath, DcPathOptions, PartWindow } from "./types.ts";
+export type { LadderElement, LadderElementKind, LadderForm, LadderPrototype } from "../types.ts";
 export { gicHighpassLadder, type GicHighpassOptions } from "./gic-highpass.ts";
 export { fdnrLowpassLadder, type FdnrLadderOptions } from "./fdnr-lowpass.ts";
 export { leapfrogLowpassLadder } from "./leapfrog.ts";
-export { PAIR_ABOVE, RESISTOR_LIMITS_OHMS, CAPACITOR_LIMITS_F } from "./build.ts";
-export { CAPACITOR_RANGE_F, DC_PATH_LEVEL_OHMS, DEFAULT_DC_PATH_RATIO, DEFAULT_LEVEL_OHMS, MAX_LADDER_ORDER } from "./options.ts";
+export { PAIR_ABOVE } from "./build.ts";
+export { CAPACITOR_LIMITS_F, DC_PATH_LEVEL_OHMS, DEFAULT_DC_PATH_RATIO, DEFAULT_LEVEL_OHMS, MAX_LADDER_ORDER, RESISTOR_LIMITS_OHMS } from "./options.ts";

@@ -2,7 +2,9 @@
  * A lowpass ladder by leapfrog (operational) simulation: one integrator per
  * reactive arm, each computing its arm's state (a shunt capacitor's
  * voltage, a series inductor's current times RS) from its neighbours', the
- * terminations as the losses of the first and last integrators.
+ * terminations as the losses of the first and last integrators, and a
+ * transmission zero by capacitive feed-forward between the states on either
+ * side of the arm that makes it.
  *
  * Method: F. E. J. Girling & E. F. Good, "Active filters 12: the leapfrog
  * or active-ladder synthesis", Wireless World 76:341-345, 1970. The arm
@@ -26,12 +28,25 @@
  * integrator's own output (node `u<n>`) when that is the positive one: the
  * circuit inverts when n = 1, 5, 9, ... (mod 4).
  *
+ * Transmission zeros: an inner arm's extra element (a capacitor across a
+ * series inductor, an inductor in series with a shunt capacitor) adds to the
+ * total capacitance (inductance) X of the states on either side and couples
+ * them directly: `x_k` gains `(e / X_k) x_{k +- 2}`, built as a capacitor
+ * `C e / X_k` from the other state's node (its inverse, `u`, into an even
+ * integrator) into the summing node. Both follow from the ladder's own node
+ * equations (shunt states) and loop equations (series states) with the extra
+ * element's current or voltage written out (common practice, no source
+ * beyond Girling & Good).
+ * An end arm with a zero is refused: its extra element would meet the
+ * termination.
+ *
  * Accuracy: with ideal op-amps and exact values the integrators solve the
  * ladder's state equations exactly, so the response is the prototype's
  * transfer scaled (below 1e-9 dB; test/ladder/active/leapfrog.test.ts).
  *
  * @module
  */
+import { UnrealisableError } from "../../errors.ts";
 import { requireZpk } from "../../tf/check.ts";
 import { lowpassToLowpass } from "../../tf/transforms.ts";
 import type { LadderPrototype } from "../types.ts";
@@ -44,19 +59,34 @@ interface Inputs {
   readonly from: readonly (readonly [string, number])[];
   /** Loss across the integrating capacitor (normalised, rad/s), 0 for none. */
   readonly loss: number;
+  /** Direct (capacitive) inputs: the node and the ratio of the feed-forward capacitor to the integrating one. */
+  readonly feedForward: readonly (readonly [string, number])[];
 }
 
-/** The coefficients of arm k (0-based): from the previous state (or the source), to the next, the loss. */
-function coefficients(p: LadderPrototype, k: number, sourceWeight: number): { a: number; b: number; d: number } {
-  const e = p.elements[k] as LadderPrototype["elements"][number];
-  const n = p.elements.length;
+type Arm = LadderPrototype["elements"][number];
+
+/** The element an arm adds to its neighbours' states: a series arm's parallel capacitor, a shunt arm's series inductor. */
+const extraOf = (e: Arm | undefined): number => (e === undefined ? 0 : ((e.kind === "series-L" ? e.parallelC : e.seriesL) ?? 0));
+
+/**
+ * The coefficients of arm k (0-based): from the previous state (or the
+ * source), to the next, the loss, and the direct couplings from the states
+ * two arms away (through the neighbours' extra elements).
+ */
+function coefficients(p: LadderPrototype, k: number, sourceWeight: number): { a: number; b: number; d: number; before: number; after: number } {
+  const els = p.elements;
+  const e = els[k] as Arm;
+  const n = els.length;
   const rs = p.sourceOhms;
   const shunt = e.kind === "shunt-C";
-  const w = shunt ? 1 / (e.value * rs) : rs / e.value;
+  const [left, right] = [extraOf(els[k - 1]), extraOf(els[k + 1])];
+  // the arm's own element and its neighbours' extras: the state's total capacitance or inductance
+  const x = e.value + left + right;
+  const w = shunt ? 1 / (x * rs) : rs / x;
   let d = 0;
-  if (k === 0) d += shunt ? 1 / (e.value * rs) : rs / e.value;
-  if (k === n - 1) d += shunt ? 1 / (e.value * p.loadOhms) : p.loadOhms / e.value;
-  return { a: k === 0 ? w * sourceWeight : w, b: w, d };
+  if (k === 0) d += shunt ? 1 / (x * rs) : rs / x;
+  if (k === n - 1) d += shunt ? 1 / (x * p.loadOhms) : p.loadOhms / x;
+  return { a: k === 0 ? w * sourceWeight : w, b: w, d, before: left / x, after: right / x };
 }
 
 /** Output node of integrator k (1-based): the state with its sign. */
@@ -69,6 +99,7 @@ function placeIntegrator(b: Builder, k: number, inputs: Inputs, o: ReadOptions, 
   const out = even ? `u${k}` : stateNode(k);
   const c = o.capacitorF;
   for (const [node, w] of inputs.from) addResistor(b, node, sum, 1 / (w * o.kf * c), `integrator ${k}: input from ${node === "in" ? "the source" : `integrator ${node.slice(1)}`}`);
+  for (const [node, ratio] of inputs.feedForward) addCapacitor(b, node, sum, ratio * c, `integrator ${k}: feed-forward from integrator ${node.slice(1)}`);
   if (inputs.loss > 0) addResistor(b, sum, out, 1 / (inputs.loss * o.kf * c), `integrator ${k}: loss (termination)`);
   addCapacitor(b, sum, out, c, `integrator ${k}: integrating capacitor`);
   addOpamp(b, "0", sum, out);
@@ -84,16 +115,17 @@ function placeIntegrator(b: Builder, k: number, inputs: Inputs, o: ReadOptions, 
 const stateSign = (k: number): number => (Math.floor((k - 1) / 2) % 2 === 0 ? -1 : 1);
 
 /**
- * A lowpass filter from a normalised all-pole lowpass ladder by leapfrog
+ * A lowpass filter from a normalised lowpass ladder by leapfrog
  * simulation: an integrator per arm (each even arm's followed by an
- * inverter), the terminations as losses of the end integrators, every
- * integrating capacitor the shared one.
+ * inverter), the terminations as losses of the end integrators, the
+ * transmission zeros by feed-forward capacitors, every integrating
+ * capacitor the shared one.
  *
- * @param prototype - the normalised lowpass ladder (1 rad/s) without transmission zeros, either form
+ * @param prototype - the normalised lowpass ladder (1 rad/s), either form; transmission zeros in inner arms only
  * @param options - the passband edge, the shared capacitor, series, values, op-amp, gain
  * @returns the circuit, its parts, op-amp count and the transfer it realises (`inverting` for n = 1, 5, 9, ...)
  * @throws {@link InvalidArgumentError} for a malformed prototype or option (the path names it)
- * @throws {@link UnrealisableError} for a ladder with transmission zeros, or a part outside the
+ * @throws {@link UnrealisableError} for a transmission zero in an end arm, or a part outside the
  *   hard window (the message says which way to move the capacitor)
  * @example
  * ```ts
@@ -107,7 +139,14 @@ const stateSign = (k: number): number => (Math.floor((k - 1) / 2) % 2 === 0 ? -1
  */
 export function leapfrogLowpassLadder(prototype: LadderPrototype, options: ActiveLadderOptions): ActiveLadder {
   const fn = "leapfrogLowpassLadder";
-  const p = requireLadder(fn, prototype, "all-pole");
+  const p = requireLadder(fn, prototype, "any");
+  for (const at of [0, p.elements.length - 1]) {
+    const e = p.elements[at] as Arm;
+    const field = e.kind === "series-L" ? "parallelC" : "seriesL";
+    if (extraOf(e) > 0) {
+      throw new UnrealisableError({ fn, path: `prototype.elements[${at}].${field}`, received: e[field], message: "an end arm with a transmission zero meets the termination, which the end integrator's loss cannot carry; use a ladder whose zeros sit in the inner arms (every usual elliptic and Chebyshev II form)" });
+    }
+  }
   const transfer = requireZpk(fn, "prototype.transfer", p.transfer);
   const o = readActiveOptions(fn, options);
   const n = p.elements.length;
@@ -120,10 +159,15 @@ export function leapfrogLowpassLadder(prototype: LadderPrototype, options: Activ
   const b = startBuilder(fn, o);
   const inverterOhms = 1 / (o.kf * o.capacitorF);
   for (let i = 1; i <= n; i++) {
-    const { a, b: next, d } = coefficients(p, i - 1, k);
+    const { a, b: next, d, before, after } = coefficients(p, i - 1, k);
     const from: [string, number][] = [[i === 1 ? "in" : stateNode(i - 1), a]];
     if (i < n) from.push([stateNode(i + 1), next]);
-    placeIntegrator(b, i, { from, loss: d }, o, inverterOhms);
+    // the state two arms away, with the sign this integrator needs: x for an odd one, u (its inverse) for an even one
+    const away = (m: number): string => (i % 2 === 1 ? stateNode(m) : `u${m}`);
+    const feedForward: [string, number][] = [];
+    if (before > 0) feedForward.push([away(i - 2), before]);
+    if (after > 0) feedForward.push([away(i + 2), after]);
+    placeIntegrator(b, i, { from, loss: d, feedForward }, o, inverterOhms);
   }
   // the output: x_n carries the state times its sign; an even arm's integrator output u_n carries minus that
   const sign = stateSign(n);

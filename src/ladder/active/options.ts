@@ -13,9 +13,13 @@ import { seriesTable, type SeriesName } from "../../parts/eseries.ts";
 import { isInSeries, snapToSeries } from "../../parts/snap.ts";
 import { TWO_PI } from "../../units/constants.ts";
 import type { LadderElement, LadderPrototype } from "../types.ts";
+import type { PartWindow } from "./types.ts";
 
-/** Smallest and largest capacitor a realisation accepts, farads (the design layer's window). */
-export const CAPACITOR_RANGE_F = Object.freeze({ min: 10e-12, max: 10e-6 });
+/** Resistors a realisation may place, ohms (the design layer's hard limits). */
+export const RESISTOR_LIMITS_OHMS: PartWindow = Object.freeze({ min: 100, max: 10e6 });
+
+/** Capacitors a realisation may place (and the shared capacitor it accepts), farads (the design layer's hard limits). */
+export const CAPACITOR_LIMITS_F: PartWindow = Object.freeze({ min: 10e-12, max: 10e-6 });
 
 /** The impedance level the default capacitor aims at, ohms (common practice, no source). */
 export const DEFAULT_LEVEL_OHMS = 10e3;
@@ -71,9 +75,9 @@ export function readActiveOptions(fn: string, options: unknown, levelOhms = DEFA
   let capacitorF: number;
   if (o["capacitorF"] === undefined) {
     const ideal = 1 / (kf * levelOhms);
-    capacitorF = snapToSeries(Math.min(CAPACITOR_RANGE_F.max, Math.max(CAPACITOR_RANGE_F.min, ideal)), { series: capacitorSeries }).value;
+    capacitorF = snapToSeries(Math.min(CAPACITOR_LIMITS_F.max, Math.max(CAPACITOR_LIMITS_F.min, ideal)), { series: capacitorSeries }).value;
   } else {
-    capacitorF = requireInRange(fn, "options.capacitorF", o["capacitorF"], CAPACITOR_RANGE_F);
+    capacitorF = requireInRange(fn, "options.capacitorF", o["capacitorF"], CAPACITOR_LIMITS_F);
     if (!isInSeries(capacitorF, capacitorSeries)) {
       const near = snapToSeries(capacitorF, { series: capacitorSeries }).value;
       throw new InvalidArgumentError({ fn, path: "options.capacitorF", received: capacitorF, message: `expected a member of the capacitor series ${capacitorSeries}, such as ${near}` });
@@ -106,8 +110,8 @@ export function readDcPathRatio(fn: string, options: unknown): number {
 export type ArmRule =
   /** Every capacitor grounded: no capacitor across a series inductor (the GIC and FDNR methods). */
   | "grounded-capacitors"
-  /** No transmission zero at all (the leapfrog method as built here). */
-  | "all-pole";
+  /** Any arms (the leapfrog method: an extra element couples the states on either side of it). */
+  | "any";
 
 function bad(fn: string, path: string, received: unknown, message: string): never {
   throw new InvalidArgumentError({ fn, path, received, message });
@@ -127,10 +131,7 @@ function checkElement(fn: string, path: string, e: unknown, rule: ArmRule): Ladd
   if (a[wrong] !== undefined) bad(fn, `${path}.${wrong}`, a[wrong], `a ${String(a["kind"])} arm has no ${wrong}; leave it out`);
   if (a[extra] !== undefined) {
     if (!positive(a[extra])) bad(fn, `${path}.${extra}`, a[extra], "expected a finite normalised element value above 0 (below 1e12), or no field");
-    if (rule === "all-pole") {
-      throw new UnrealisableError({ fn, path: `${path}.${extra}`, received: a[extra], message: "this method realises ladders without transmission zeros (all-pole families: Butterworth, Chebyshev I, Bessel, Legendre); use the FDNR or GIC method for a ladder with finite zeros" });
-    }
-    if (extra === "parallelC") {
+    if (rule === "grounded-capacitors" && extra === "parallelC") {
       throw new UnrealisableError({ fn, path: `${path}.parallelC`, received: a[extra], message: "a capacitor across a series inductor becomes a floating element this method cannot build with grounded GICs; use the ladder's other form (transmission zeros made by series resonators in the shunt arms)" });
     }
   }

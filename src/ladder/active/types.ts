@@ -8,6 +8,14 @@ import type { Circuit, OpAmpModel } from "../../circuit/types.ts";
 import type { SeriesName } from "../../parts/eseries.ts";
 import type { Zpk } from "../../tf/types.ts";
 
+/** An inclusive window of part values. */
+export interface PartWindow {
+  /** Smallest value. */
+  readonly min: number;
+  /** Largest value. */
+  readonly max: number;
+}
+
 /** Which published method a realisation follows. */
 export type ActiveLadderMethod = "gic-inductor" | "fdnr" | "leapfrog";
 

@@ -3,7 +3,7 @@ import { UnrealisableError } from "../../../src/errors.ts";
 import { isInSeries } from "../../../src/parts/index.ts";
 import { leapfrogLowpassLadder } from "../../../src/ladder/active/index.ts";
 import type { LadderForm } from "../../../src/ladder/types.ts";
-import { butterworthLadder, chebyshev1Ladder } from "../../helpers/ladder-prototypes.ts";
+import { butterworthLadder, chebyshev1Ladder, dualLadder } from "../../helpers/ladder-prototypes.ts";
 import { denseGridHz, ellipticLadders, errorAgainst, unstableRoots } from "../../helpers/active-ladder-check.ts";
 import { thrownBy } from "../../helpers/throws.ts";
 
@@ -71,9 +71,33 @@ describe("leapfrogLowpassLadder", () => {
     }
   });
 
-  it("refuses a ladder with transmission zeros", () => {
-    const [third] = ellipticLadders();
-    const e = thrownBy(() => leapfrogLowpassLadder(third as never, { edgeHz: 1000 }), UnrealisableError);
-    expect(e.path).toBe("prototype.elements[1].seriesL");
+  it("realises elliptic ladders (orders 3 and 5, both forms) to 1e-9 dB: the zeros by feed-forward capacitors", () => {
+    const edgeHz = 3_400;
+    const grid = denseGridHz(edgeHz, 3, 2);
+    for (const p of ellipticLadders().flatMap((l) => [l, dualLadder(l)])) {
+      const f = leapfrogLowpassLadder(p, { edgeHz, values: "exact" });
+      const e = errorAgainst(f, f.target, grid);
+      expect(e.db, `${p.order} ${p.form}`).toBeLessThan(1e-9);
+      expect(e.rad, `${p.order} ${p.form}`).toBeLessThan(1e-9);
+      // one feed-forward capacitor each way across every arm with a zero
+      const zeros = (p.order - 1) / 2;
+      expect(f.parts.filter((x) => x.role.includes("feed-forward")).length).toBe(2 * zeros);
+      expect(f.opampCount).toBe(p.order + Math.floor(p.order / 2));
+    }
+  });
+
+  it("keeps an elliptic leapfrog ladder stable with single-pole op-amps", () => {
+    for (const p of ellipticLadders().flatMap((l) => [l, dualLadder(l)])) {
+      const f = leapfrogLowpassLadder(p, { edgeHz: 3_400, opamp: { kind: "single-pole", a0: 1e5, gbwHz: 3e6 } });
+      expect(unstableRoots(f.circuit, f.output, 3_400).rhp, `${p.order} ${p.form}`).toBe(0);
+    }
+  });
+
+  it("refuses a transmission zero in an end arm", () => {
+    const p = butterworthLadder(3, "series-first");
+    const bad = { ...p, elements: [{ kind: "series-L", value: 1, parallelC: 0.3 }, ...p.elements.slice(1)] } as typeof p;
+    expect(thrownBy(() => leapfrogLowpassLadder(bad, { edgeHz: 1000 }), UnrealisableError).path).toBe("prototype.elements[0].parallelC");
+    const last = { ...p, elements: [...p.elements.slice(0, 2), { kind: "series-L", value: 1, parallelC: 0.3 }] } as typeof p;
+    expect(thrownBy(() => leapfrogLowpassLadder(last, { edgeHz: 1000 }), UnrealisableError).path).toBe("prototype.elements[2].parallelC");
   });
 });

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { acAnalysis, circuitToSpice } from "../../../src/circuit/index.ts";
 import type { OpAmpModel } from "../../../src/circuit/types.ts";
 import { fdnrLowpassLadder, gicHighpassLadder, leapfrogLowpassLadder, type ActiveLadder } from "../../../src/ladder/active/index.ts";
-import { butterworthLadder, chebyshev1Ladder } from "../../helpers/ladder-prototypes.ts";
+import { butterworthLadder, chebyshev1Ladder, dualLadder } from "../../helpers/ladder-prototypes.ts";
 import { ellipticLadders } from "../../helpers/active-ladder-check.ts";
 import { requireNgspice, runAc } from "../../helpers/ngspice.ts";
 
@@ -34,6 +34,8 @@ function compare(f: ActiveLadder, edgeHz: number): { db: number; deg: number; po
 
 const cases: readonly [string, (opamp: OpAmpModel) => ActiveLadder, number][] = [
   ["leapfrog, Chebyshev I order 7", (opamp) => leapfrogLowpassLadder(chebyshev1Ladder(7, 0.125, "series-first"), { edgeHz: 18_000, opamp }), 18_000],
+  ["leapfrog, elliptic order 5, series-first", (opamp) => leapfrogLowpassLadder(ellipticLadders()[1] as never, { edgeHz: 3_400, opamp }), 3_400],
+  ["leapfrog, elliptic order 5, shunt-first", (opamp) => leapfrogLowpassLadder(dualLadder(ellipticLadders()[1] as never), { edgeHz: 3_400, opamp }), 3_400],
   ["leapfrog, Butterworth order 6", (opamp) => leapfrogLowpassLadder(butterworthLadder(6, "shunt-first"), { edgeHz: 2_000, opamp }), 2_000],
   ["FDNR, Chebyshev I order 7", (opamp) => fdnrLowpassLadder(chebyshev1Ladder(7, 0.125, "series-first"), { edgeHz: 18_000, opamp }), 18_000],
   ["FDNR, Chebyshev I order 6 (unequal terminations)", (opamp) => fdnrLowpassLadder(chebyshev1Ladder(6, 0.5, "series-first"), { edgeHz: 5_000, gain: 2, opamp }), 5_000],
