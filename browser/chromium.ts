@@ -1,193 +1,91 @@
 /**
- * A headless Chromium driven over the DevTools protocol, with no dependency:
- * Node's WebSocket client (global in Node 22, `--experimental-websocket` in
- * Node 20; the browser config sets it) and Debian's `chromium` package.
+ * Headless Chromium (the Debian package `chromium`) for the browser tests:
+ * a screenshot of a page, and the DOM of a page after its inline scripts ran.
+ * Each run gets a fresh profile directory, removed afterwards, and the flags
+ * that keep a headless browser from reaching the network on its own.
  *
- * Tests that need it are declared with `describe.skipIf(!requireChromium())`:
- * skipped locally without Chromium, run (and failing) under CI.
- *
- * Reference: Chrome DevTools Protocol, domains Page, Runtime and Emulation
- * (chromedevtools.github.io/devtools-protocol).
+ * The tests run when a Chromium binary is found (`CHROMIUM` names one, else
+ * `chromium` or `chromium-browser` on the PATH); without one they are skipped
+ * locally and FAIL under CI (the CI environment variable set), as the
+ * ngspice tests do.
  */
-import { spawn, spawnSync, type ChildProcess } from "node:child_process";
-import { mkdtempSync, rmSync } from "node:fs";
+import { spawnSync } from "node:child_process";
+import { mkdtempSync, readFileSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
+import { pathToFileURL } from "node:url";
 
-const BINARIES = ["chromium", "chromium-browser", "google-chrome"];
+let found: string | null | undefined;
 
-/** The Chromium binary on the PATH, or null. */
-export function chromiumPath(): string | null {
-  for (const b of BINARIES) {
-    const r = spawnSync("sh", ["-c", `command -v ${b}`], { encoding: "utf8" });
-    if (r.status === 0 && r.stdout.trim() !== "") return r.stdout.trim();
-  }
-  return null;
-}
-
-/** Whether the browser tests run: Chromium is here, or CI is set (where a missing one then fails). */
-export function requireChromium(): boolean {
-  return chromiumPath() !== null || Boolean(process.env["CI"]);
-}
-
-interface Pending {
-  resolve: (v: Record<string, unknown>) => void;
-  reject: (e: Error) => void;
-}
-
-/** One page of a running browser. */
-export class Page {
-  private next = 1;
-  private readonly pending = new Map<number, Pending>();
-  private readonly listeners: ((method: string, params: Record<string, unknown>) => void)[] = [];
-  /** Console messages and uncaught exceptions seen on the page. */
-  readonly problems: string[] = [];
-
-  constructor(private readonly ws: WebSocket) {
-    ws.addEventListener("message", (ev) => {
-      const msg = JSON.parse(String(ev.data)) as { id?: number; result?: Record<string, unknown>; error?: { message: string }; method?: string; params?: Record<string, unknown> };
-      if (msg.id !== undefined) {
-        const p = this.pending.get(msg.id);
-        this.pending.delete(msg.id);
-        if (msg.error !== undefined) p?.reject(new Error(msg.error.message));
-        else p?.resolve(msg.result ?? {});
-      } else if (msg.method !== undefined) {
-        for (const l of this.listeners) l(msg.method, msg.params ?? {});
+/** The Chromium binary, or null. */
+export function chromiumBinary(): string | null {
+  if (found === undefined) {
+    found = null;
+    for (const name of [process.env["CHROMIUM"], "chromium", "chromium-browser"]) {
+      if (name === undefined || name === "") continue;
+      const r = spawnSync(name, ["--version"], { encoding: "utf8" });
+      if (r.status === 0 && /chrom/i.test(r.stdout ?? "")) {
+        found = name;
+        break;
       }
-    });
-    this.listeners.push((method, params) => {
-      if (method === "Runtime.exceptionThrown") {
-        const d = params["exceptionDetails"] as { text?: string; exception?: { description?: string } };
-        this.problems.push(`exception: ${d.exception?.description ?? d.text ?? "?"}`);
-      }
-      if (method === "Runtime.consoleAPICalled" && params["type"] === "error") {
-        this.problems.push(`console.error: ${JSON.stringify(params["args"])}`);
-      }
-    });
-  }
-
-  /** Send one protocol command. */
-  send(method: string, params: Record<string, unknown> = {}): Promise<Record<string, unknown>> {
-    const id = this.next++;
-    return new Promise((resolve, reject) => {
-      this.pending.set(id, { resolve, reject });
-      this.ws.send(JSON.stringify({ id, method, params }));
-    });
-  }
-
-  /** Evaluate an expression in the page (promises awaited) and return its value. */
-  async evaluate<T>(expression: string): Promise<T> {
-    const r = (await this.send("Runtime.evaluate", { expression, awaitPromise: true, returnByValue: true })) as {
-      result: { value?: T };
-      exceptionDetails?: { text: string; exception?: { description?: string } };
-    };
-    if (r.exceptionDetails !== undefined) throw new Error(`in the page: ${r.exceptionDetails.exception?.description ?? r.exceptionDetails.text}`);
-    return r.result.value as T;
-  }
-
-  /** Load a URL and wait for its load event. */
-  async goto(url: string): Promise<void> {
-    const loaded = new Promise<void>((resolve) => {
-      this.listeners.push((method) => {
-        if (method === "Page.loadEventFired") resolve();
-      });
-    });
-    await this.send("Page.navigate", { url });
-    await loaded;
-  }
-
-  /** Poll an expression until it is truthy (or throw after `timeoutMs`). */
-  async waitFor(expression: string, timeoutMs = 60_000): Promise<void> {
-    const end = Date.now() + timeoutMs;
-    while (Date.now() < end) {
-      if (await this.evaluate<boolean>(`Boolean(${expression})`)) return;
-      await new Promise((r) => setTimeout(r, 100));
     }
-    throw new Error(`timed out after ${timeoutMs} ms waiting for ${expression}`);
   }
-
-  /** Set the viewport size (CSS pixels, scale 1). */
-  async viewport(width: number, height: number): Promise<void> {
-    await this.send("Emulation.setDeviceMetricsOverride", { width, height, deviceScaleFactor: 1, mobile: false });
-  }
-
-  /** A PNG screenshot of the whole page, scaled by `scale` (0.6 gives a small image for the docs). */
-  async screenshot(scale = 1): Promise<Buffer> {
-    const size = await this.evaluate<{ w: number; h: number }>(`({ w: document.documentElement.scrollWidth, h: document.documentElement.scrollHeight })`);
-    const r = (await this.send("Page.captureScreenshot", {
-      format: "png",
-      captureBeyondViewport: true,
-      clip: { x: 0, y: 0, width: size.w, height: size.h, scale },
-    })) as { data: string };
-    return Buffer.from(r.data, "base64");
-  }
+  return found;
 }
 
-/** A running headless browser with one page. */
-export interface Browser {
-  readonly page: Page;
-  close(): Promise<void>;
+/** Whether the browser tests run (see the module header). */
+export function requireChromium(): boolean {
+  return chromiumBinary() !== null || Boolean(process.env["CI"]);
+}
+
+export const CHROMIUM_FLAGS: readonly string[] = [
+  "--headless",
+  "--no-sandbox",
+  "--disable-gpu",
+  "--disable-quic",
+  "--no-first-run",
+  "--disable-background-networking",
+  "--disable-component-update",
+  "--disable-sync",
+  "--disable-extensions",
+  "--hide-scrollbars",
+  "--force-device-scale-factor=1",
+];
+
+/** Run Chromium on a local file with extra flags; returns stdout. */
+function run(file: string, extra: readonly string[]): string {
+  const bin = chromiumBinary();
+  if (bin === null) throw new Error("Chromium is required (the CI environment variable is set) but was not found: install the Debian package chromium, or set CHROMIUM");
+  const profile = mkdtempSync(join(tmpdir(), "fw-chromium-"));
+  try {
+    const r = spawnSync(bin, [...CHROMIUM_FLAGS, `--user-data-dir=${profile}`, ...extra, pathToFileURL(file).href], { encoding: "utf8", timeout: 120_000, maxBuffer: 64 * 1024 * 1024 });
+    if (r.status !== 0) throw new Error(`chromium exited with ${r.status ?? r.signal}: ${(r.stderr ?? "").slice(-2000)}`);
+    return r.stdout;
+  } finally {
+    rmSync(profile, { recursive: true, force: true });
+  }
 }
 
 /**
- * Start headless Chromium with a fresh profile and no background networking,
- * and attach to its first page.
+ * A screenshot of a page, as PNG bytes.
  *
- * @returns the browser
+ * @param file - the HTML file
+ * @param width - window width, pixels
+ * @param height - window height, pixels
+ * @param out - where to write the PNG
+ * @returns the PNG file's bytes
  */
-export async function launchChromium(): Promise<Browser> {
-  const bin = chromiumPath();
-  if (bin === null) throw new Error("Chromium is required (the CI environment variable is set) but was not found on the PATH; apt-get install -y chromium");
-  const profile = mkdtempSync(join(tmpdir(), "filterwright-chromium-"));
-  const child: ChildProcess = spawn(
-    bin,
-    [
-      "--headless",
-      "--no-sandbox",
-      "--disable-gpu",
-      "--disable-quic",
-      "--no-first-run",
-      "--disable-background-networking",
-      "--disable-component-update",
-      "--disable-sync",
-      "--hide-scrollbars",
-      `--user-data-dir=${profile}`,
-      "--remote-debugging-port=0",
-      "about:blank",
-    ],
-    { stdio: ["ignore", "ignore", "pipe"] },
-  );
-  const port = await new Promise<number>((resolve, reject) => {
-    let err = "";
-    const t = setTimeout(() => reject(new Error(`Chromium did not start: ${err.slice(-500)}`)), 30_000);
-    child.stderr?.on("data", (d: Buffer) => {
-      err += d.toString();
-      const m = /DevTools listening on ws:\/\/[^:]+:(\d+)\//.exec(err);
-      if (m !== null) {
-        clearTimeout(t);
-        resolve(Number(m[1]));
-      }
-    });
-    child.on("exit", (code) => reject(new Error(`Chromium exited (${code}): ${err.slice(-500)}`)));
-  });
-  const targets = (await (await fetch(`http://127.0.0.1:${port}/json/list`)).json()) as { type: string; webSocketDebuggerUrl: string }[];
-  const target = targets.find((t) => t.type === "page");
-  if (target === undefined) throw new Error("Chromium has no page target");
-  const ws = new WebSocket(target.webSocketDebuggerUrl);
-  await new Promise<void>((resolve, reject) => {
-    ws.addEventListener("open", () => resolve());
-    ws.addEventListener("error", () => reject(new Error("could not connect to Chromium's DevTools endpoint")));
-  });
-  const page = new Page(ws);
-  await page.send("Page.enable");
-  await page.send("Runtime.enable");
-  return {
-    page,
-    close: async () => {
-      ws.close();
-      child.kill("SIGKILL");
-      await new Promise((r) => setTimeout(r, 200));
-      rmSync(profile, { recursive: true, force: true });
-    },
-  };
+export function screenshot(file: string, width: number, height: number, out: string): Buffer {
+  run(file, [`--screenshot=${out}`, `--window-size=${width},${height}`]);
+  return readFileSync(out);
+}
+
+/**
+ * The serialised DOM of a page after its scripts ran.
+ *
+ * @param file - the HTML file
+ * @returns the HTML text
+ */
+export function dumpDom(file: string): string {
+  return run(file, ["--dump-dom", "--virtual-time-budget=5000", "--window-size=1600,1200"]);
 }

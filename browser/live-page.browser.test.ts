@@ -10,7 +10,8 @@ import { execFileSync } from "node:child_process";
 import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join, resolve } from "node:path";
-import { launchChromium, requireChromium, type Browser } from "./chromium.ts";
+import { requireChromium } from "./chromium.ts";
+import { launchChromium, type Browser } from "./devtools.ts";
 import { decodePng, inkStats } from "./png.ts";
 import { serve } from "./static-server.ts";
 

@@ -1,78 +1,98 @@
 /**
- * Just enough PNG decoding to tell a blank screenshot from a drawn one:
- * 8-bit RGB or RGBA, non-interlaced (what Chromium writes), inflated with
- * node:zlib and unfiltered per scanline.
- *
- * Reference: W3C, "Portable Network Graphics (PNG) Specification (Second
- * Edition)", 2003, sections 7.3 and 9 (filter types 0-4, the Paeth predictor).
+ * Just enough of a PNG reader for the browser tests: the image's size and
+ * its pixels as 8-bit RGBA, from the chunks, zlib inflation (node:zlib) and
+ * the five scanline filters (W3C, "Portable Network Graphics (PNG)
+ * Specification", 2nd ed., 2003, sections 5, 9 and 11.2.2). Colour types 2
+ * (RGB) and 6 (RGBA) at 8 bits, not interlaced: what Chromium writes.
  */
 import { inflateSync } from "node:zlib";
 
-/** Decoded pixels. */
-export interface Pixels {
+/** A decoded image. */
+export interface Image {
+  /** Width, pixels. */
   readonly width: number;
+  /** Height, pixels. */
   readonly height: number;
-  /** Bytes per pixel (3 or 4). */
-  readonly channels: number;
-  readonly data: Uint8Array;
+  /** RGBA, row by row. */
+  readonly rgba: Uint8Array;
 }
 
-/** Decode an 8-bit RGB/RGBA PNG. */
-export function decodePng(png: Buffer): Pixels {
-  let p = 8;
+/** The Paeth predictor (PNG specification, section 9.4). */
+function paeth(a: number, b: number, c: number): number {
+  const p = a + b - c;
+  const pa = Math.abs(p - a);
+  const pb = Math.abs(p - b);
+  const pc = Math.abs(p - c);
+  return pa <= pb && pa <= pc ? a : pb <= pc ? b : c;
+}
+
+/**
+ * Decode a PNG.
+ *
+ * @param png - the file's bytes
+ * @returns the image
+ */
+export function decodePng(png: Uint8Array): Image {
+  const view = new DataView(png.buffer, png.byteOffset, png.byteLength);
+  if (view.getUint32(0) !== 0x89504e47) throw new Error("not a PNG");
+  let at = 8;
   let width = 0;
   let height = 0;
-  let channels = 0;
-  const idat: Buffer[] = [];
-  while (p < png.length) {
-    const len = png.readUInt32BE(p);
-    const type = png.toString("ascii", p + 4, p + 8);
-    const body = png.subarray(p + 8, p + 8 + len);
+  let colourType = 0;
+  const data: Uint8Array[] = [];
+  while (at < png.length) {
+    const length = view.getUint32(at);
+    const type = String.fromCharCode(...png.subarray(at + 4, at + 8));
+    const body = png.subarray(at + 8, at + 8 + length);
     if (type === "IHDR") {
-      width = body.readUInt32BE(0);
-      height = body.readUInt32BE(4);
-      if (body[8] !== 8 || body[12] !== 0) throw new Error("only 8-bit non-interlaced PNGs are decoded");
-      channels = body[9] === 6 ? 4 : body[9] === 2 ? 3 : 0;
-      if (channels === 0) throw new Error(`PNG colour type ${body[9]} is not decoded`);
-    } else if (type === "IDAT") idat.push(body);
+      width = view.getUint32(at + 8);
+      height = view.getUint32(at + 12);
+      const depth = body[8];
+      colourType = body[9] as number;
+      if (depth !== 8 || (colourType !== 2 && colourType !== 6) || body[12] !== 0) throw new Error(`unsupported PNG: depth ${depth}, colour type ${colourType}, interlace ${body[12]}`);
+    } else if (type === "IDAT") data.push(body);
     else if (type === "IEND") break;
-    p += 12 + len;
+    at += 12 + length;
   }
-  const raw = inflateSync(Buffer.concat(idat));
-  const stride = width * channels;
-  const data = new Uint8Array(height * stride);
+  const raw = inflateSync(Buffer.concat(data));
+  const bpp = colourType === 6 ? 4 : 3;
+  const stride = width * bpp;
+  const pixels = new Uint8Array(height * stride);
   for (let y = 0; y < height; y++) {
     const filter = raw[y * (stride + 1)] as number;
-    const src = y * (stride + 1) + 1;
-    for (let x = 0; x < stride; x++) {
-      const a = x >= channels ? (data[y * stride + x - channels] as number) : 0;
-      const b = y > 0 ? (data[(y - 1) * stride + x] as number) : 0;
-      const c = x >= channels && y > 0 ? (data[(y - 1) * stride + x - channels] as number) : 0;
-      const v = raw[src + x] as number;
-      let pred = 0;
-      if (filter === 1) pred = a;
-      else if (filter === 2) pred = b;
-      else if (filter === 3) pred = (a + b) >> 1;
-      else if (filter === 4) {
-        const pa = Math.abs(b - c);
-        const pb = Math.abs(a - c);
-        const pc = Math.abs(a + b - 2 * c);
-        pred = pa <= pb && pa <= pc ? a : pb <= pc ? b : c;
-      }
-      data[y * stride + x] = (v + pred) & 255;
+    const src = raw.subarray(y * (stride + 1) + 1, (y + 1) * (stride + 1));
+    const row = pixels.subarray(y * stride, (y + 1) * stride);
+    const up = y > 0 ? pixels.subarray((y - 1) * stride, y * stride) : new Uint8Array(stride);
+    for (let i = 0; i < stride; i++) {
+      const a = i >= bpp ? (row[i - bpp] as number) : 0;
+      const b = up[i] as number;
+      const c = i >= bpp ? (up[i - bpp] as number) : 0;
+      const x = src[i] as number;
+      row[i] = (filter === 0 ? x : filter === 1 ? x + a : filter === 2 ? x + b : filter === 3 ? x + ((a + b) >> 1) : x + paeth(a, b, c)) & 0xff;
     }
   }
-  return { width, height, channels, data };
+  const rgba = new Uint8Array(width * height * 4);
+  for (let p = 0; p < width * height; p++) {
+    rgba[4 * p] = pixels[bpp * p] as number;
+    rgba[4 * p + 1] = pixels[bpp * p + 1] as number;
+    rgba[4 * p + 2] = pixels[bpp * p + 2] as number;
+    rgba[4 * p + 3] = bpp === 4 ? (pixels[bpp * p + 3] as number) : 255;
+  }
+  return { width, height, rgba };
 }
 
-/** Distinct colours and the share of pixels that are not the most common colour (the background). */
-export function inkStats(px: Pixels): { colours: number; inkFraction: number } {
+/**
+ * How much of an image is drawn: its distinct colours, and the share of
+ * pixels that are not its most common colour (the background).
+ *
+ * @param img - a decoded image
+ * @returns the counts
+ */
+export function inkStats(img: Image): { colours: number; inkFraction: number } {
   const counts = new Map<number, number>();
-  for (let i = 0; i < px.data.length; i += px.channels) {
-    const key = ((px.data[i] as number) << 16) | ((px.data[i + 1] as number) << 8) | (px.data[i + 2] as number);
+  for (let p = 0; p < img.width * img.height; p++) {
+    const key = ((img.rgba[4 * p] as number) << 16) | ((img.rgba[4 * p + 1] as number) << 8) | (img.rgba[4 * p + 2] as number);
     counts.set(key, (counts.get(key) ?? 0) + 1);
   }
-  const total = px.width * px.height;
-  const background = Math.max(...counts.values());
-  return { colours: counts.size, inkFraction: 1 - background / total };
+  return { colours: counts.size, inkFraction: 1 - Math.max(...counts.values()) / (img.width * img.height) };
 }

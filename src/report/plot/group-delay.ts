@@ -1,7 +1,10 @@
 /**
  * The group-delay plot: `-d(phase)/d(omega)` of the as-built cascade over
- * frequency, in one SI prefix of seconds for the whole axis. The axis starts
- * at zero unless the delay goes negative (near a notch it can).
+ * frequency, in one SI prefix of seconds for the whole axis. The axis is
+ * sized to the delay across the passbands (from zero, unless it goes
+ * negative there), which is what a design is judged by: the spikes at the
+ * transmission zeros, where the phase turns by half a turn over a narrow
+ * band, run off the frame and are clipped at its edge.
  *
  * @module
  */
@@ -9,6 +12,7 @@ import type { DesignResult } from "../../design/index.ts";
 import { drawing, line } from "./draw.ts";
 import { MAIN } from "./palette.ts";
 import { finiteRange } from "./phase.ts";
+import { maskRegions } from "./mask-regions.ts";
 import { sampleResponse } from "./response-curves.ts";
 import type { PlotSettings } from "./settings.ts";
 
@@ -29,7 +33,9 @@ export function groupDelayPlot(result: DesignResult, o: PlotSettings): string {
     ranges: [[Math.min(0, rlo), rhi]],
   });
   const gd = curves[0] as Float64Array;
-  const [lo, hi] = finiteRange(gd);
+  const pass = maskRegions(result).filter((r) => r.lowDb === -Infinity);
+  const inPass = gd.filter((_, i) => pass.some((r) => (freqHz[i] as number) >= r.lowHz && (freqHz[i] as number) <= r.highHz));
+  const [lo, hi] = finiteRange(inPass.length >= 2 ? inPass : gd);
   const s = result.spec;
   const title = o.title ?? `${result.family} ${s.response}, ${result.filterOrder} poles: group delay as built`;
   return drawing(
@@ -38,7 +44,7 @@ export function groupDelayPlot(result: DesignResult, o: PlotSettings): string {
       height: o.height,
       title,
       x: { scale: "log", min: o.startHz, max: o.stopHz, title: "Frequency", unit: "Hz", exact: true },
-      y: { scale: "linear", min: Math.min(0, lo), max: hi + 0.05 * Math.abs(hi - Math.min(0, lo)), title: "Group delay", unit: "s", prefixed: true },
+      y: { scale: "linear", min: Math.min(0, lo), max: hi + 0.25 * Math.abs(hi - Math.min(0, lo)), title: "Group delay", unit: "s", prefixed: true },
       legend: [{ label: "as built", stroke: MAIN, strokeWidth: 1.8 }],
       idSeed: `group-delay|${gd.length}|${gd[0]}|${gd[gd.length - 1]}`,
     },

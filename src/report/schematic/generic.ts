@@ -101,7 +101,7 @@ export function genericSheet(elements: readonly Element[]): Sheet {
     if (to > from) s.wire([from, yy], [to, yy]);
     if (node === "in") s.terminal("in", [LEFT, yy], "left");
     else if (node === "out") s.terminal("out", [right, yy], "right");
-    else s.nodeLabel(node, [from - 3, yy]);
+    else s.nodeLabel(node, [from, yy]);
   }
   return s.done();
 }

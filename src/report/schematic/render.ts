@@ -173,7 +173,8 @@ export function renderSheet(sheet: Sheet, title: string): string {
     body.push(`<circle cx="${px(x)}" cy="${px(y)}" r="4" stroke="${STROKE}" stroke-width="1.5" fill="#ffffff"/>`);
     labels.push({ text: t.node, x: t.side === "left" ? x - 8 : x + 8, y: y + 4.5, anchor: t.side === "left" ? "end" : "start" });
   }
-  for (const n of sheet.nodeLabels) labels.push({ text: n.text, x: P(n.at[0]), y: P(n.at[1]) - 4, anchor: "start", fill: "#666666" });
+  // a node's name sits just above its line, right of the point given
+  for (const n of sheet.nodeLabels) labels.push({ text: n.text, x: P(n.at[0]) + 4, y: P(n.at[1]) - 4, anchor: "start", fill: "#666666" });
   // the bounding box of everything drawn
   const box: Box = { x0: Infinity, y0: Infinity, x1: -Infinity, y1: -Infinity };
   const grow = (b: Box): void => {
