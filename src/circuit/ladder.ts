@@ -7,6 +7,12 @@
  * and the load `RL` from the output node to ground. So
  * `v(outputNode) / ac(VS)` is the ladder's transfer V(load) / V(source emf).
  *
+ * A lossless bandstop ladder has, exactly at its centre frequency, parallel
+ * resonators in series with series resonators and nothing to damp them, so
+ * its nodal equations are singular there (`acAnalysis` throws
+ * `SingularCircuitError`); analyse beside the centre, or the as-built
+ * ladder, whose loss resistances remove the singularity.
+ *
  * @module
  */
 import { InvalidArgumentError } from "../errors.ts";
@@ -48,10 +54,14 @@ function defaultTitle(ladder: ScaledLadder | AsBuiltLadder): string {
  *   names the field, e.g. `ladder.components[2].value`) or the title is not a string
  * @example
  * ```ts
- * const c = ladderCircuit(scaleLadder(prototype, { edgeHz: 1e6, sourceOhms: 50 }));
- * c.elements.map((e) => e.name);
- * //=> ["VS", "RS", "C1", "L1", "C2", "RL"]
- * acAnalysis(c, { source: "VS", outputs: ["out"], freqHz }); // the ladder's transfer
+ * // prototype: the third-order Butterworth ladder of scaleLadder's example
+ * const prototype = { family: "butterworth", order: 3, form: "shunt-first", // g = 1, 2, 1
+ *   elements: [{ kind: "shunt-C", value: 1 }, { kind: "series-L", value: 2 }, { kind: "shunt-C", value: 1 }],
+ *   sourceOhms: 1, loadOhms: 1, transfer: { ...butterworth(3), gain: 0.5 } } as const;
+ * const ladder = scaleLadder(prototype, { edgeHz: 10e6, sourceOhms: 50 });
+ * const c = ladderCircuit(ladder);
+ * c.elements.map((e) => e.name); //=> ["VS", "RS", "C1", "L1", "C2", "RL"]
+ * acAnalysis(c, { source: "VS", outputs: [ladder.outputNode], freqHz }); // the ladder's transfer
  * ```
  */
 export function ladderCircuit(ladder: ScaledLadder | AsBuiltLadder, options: LadderCircuitOptions = {}): Circuit {

@@ -157,10 +157,13 @@ function build(c: ScaledLadder["components"][number], plan: Plan): AsBuiltCompon
  *   non-positive frequency or a negative ESR
  * @example
  * ```ts
+ * const prototype = { family: "butterworth", order: 3, form: "shunt-first", // g = 1, 2, 1
+ *   elements: [{ kind: "shunt-C", value: 1 }, { kind: "series-L", value: 2 }, { kind: "shunt-C", value: 1 }],
+ *   sourceOhms: 1, loadOhms: 1, transfer: { ...butterworth(3), gain: 0.5 } } as const;
  * const built = asBuiltLadder(scaleLadder(prototype, { edgeHz: 10e6, sourceOhms: 50 }), { inductorQ: 60 });
  * built.components[1];
- * //=> { designator: "L1", kind: "L", value: 1.5e-6, designValue: 1.5915e-6, series: "E12",
- * //     tolerance: 0.1, seriesOhms: 1.5708, ... }
+ * //=> { designator: "L1", kind: "L", value: 1.5e-6, a: "in", b: "out", arm: 2, designValue: 1.5915494309189533e-6,
+ * //     series: "E12", tolerance: 0.1, seriesOhms: 1.5707963267948968 }
  * ```
  */
 export function asBuiltLadder(ladder: ScaledLadder, options: AsBuiltLadderOptions = {}): AsBuiltLadder {

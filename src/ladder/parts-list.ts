@@ -63,9 +63,14 @@ function requirementOf(c: AsBuiltComponent, ladder: AsBuiltLadder): string {
  * @throws {@link InvalidArgumentError} when `ladder` is not an as-built ladder (the path names the field)
  * @example
  * ```ts
- * ladderParts(asBuiltLadder(scaled, { inductorQ: 60 }))[0];
- * //=> { designators: ["L1", "L2"], part: "inductor", value: 1.5e-6, valueText: "1.5 µH", rkm: "1µ5",
- * //     series: "E12", tolerance: 0.1, toleranceText: "10%", requirement: "Q >= 60 at 10 MHz", quantity: 2 }
+ * const prototype = { family: "butterworth", order: 3, form: "shunt-first", // g = 1, 2, 1
+ *   elements: [{ kind: "shunt-C", value: 1 }, { kind: "series-L", value: 2 }, { kind: "shunt-C", value: 1 }],
+ *   sourceOhms: 1, loadOhms: 1, transfer: { ...butterworth(3), gain: 0.5 } } as const;
+ * ladderParts(asBuiltLadder(scaleLadder(prototype, { edgeHz: 10e6, sourceOhms: 50 }), { inductorQ: 60 }));
+ * //=> [{ designators: ["L1"], part: "inductor", value: 1.5e-6, valueText: "1.5 µH", rkm: "1µ5", series: "E12",
+ * //      tolerance: 0.1, toleranceText: "10%", requirement: "Q >= 60 at 10 MHz", quantity: 1 },
+ * //    { designators: ["C1", "C2"], part: "capacitor", value: 3.3e-10, valueText: "330 pF", rkm: "330p", series: "E12",
+ * //      tolerance: 0.1, toleranceText: "10%", requirement: "", quantity: 2 }]
  * ```
  */
 export function ladderParts(ladder: AsBuiltLadder): LadderPartLine[] {

@@ -140,7 +140,7 @@ const KNOWN = new Set(["response", "edgeHz", "centreHz", "bandwidthHz", "sourceO
  * @throws {@link InvalidArgumentError} naming the field
  * @example
  * ```ts
- * readScaleOptions("scaleLadder", { edgeHz: 1000, sourceOhms: 50 }, prototype).impedance; //=> 50 for a 1-ohm prototype
+ * readScaleOptions("scaleLadder", { edgeHz: 1000, sourceOhms: 50 }, prototype).impedance; //=> 50 (a prototype with a 1-ohm source)
  * ```
  */
 export function readScaleOptions(fn: string, options: unknown, prototype: LadderPrototype): ScaleTarget {

@@ -96,11 +96,10 @@ function requireSaneValues(fn: string, components: readonly LadderComponent[], t
  *   ratio is not the prototype's, or values that would over- or underflow
  * @example
  * ```ts
- * const g = [1, 2, 1]; // third-order Butterworth, shunt capacitor first
- * const ladder = scaleLadder({ family: "butterworth", order: 3, form: "shunt-first",
- *   elements: [{ kind: "shunt-C", value: g[0] }, { kind: "series-L", value: g[1] }, { kind: "shunt-C", value: g[2] }],
- *   sourceOhms: 1, loadOhms: 1, transfer: prototypeTransfer },
- *   { response: "highpass", edgeHz: 1e6, sourceOhms: 50 });
+ * const prototype = { family: "butterworth", order: 3, form: "shunt-first", // g = 1, 2, 1
+ *   elements: [{ kind: "shunt-C", value: 1 }, { kind: "series-L", value: 2 }, { kind: "shunt-C", value: 1 }],
+ *   sourceOhms: 1, loadOhms: 1, transfer: { ...butterworth(3), gain: 0.5 } } as const;
+ * const ladder = scaleLadder(prototype, { response: "highpass", edgeHz: 1e6, sourceOhms: 50 });
  * ladder.components.map((c) => `${c.designator} ${c.a}-${c.b}`);
  * //=> ["L1 in-0", "C1 in-out", "L2 out-0"]
  * ```

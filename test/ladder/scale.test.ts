@@ -1,5 +1,6 @@
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { scaleLadder, type LadderForm, type LadderPrototype, type ScaleLadderOptions } from "../../src/ladder/index.ts";
+import { LADDER_RESPONSES, scaleLadder, type LadderForm, type LadderPrototype, type ScaleLadderOptions } from "../../src/ladder/index.ts";
 import { butterworthLadder, chebyshevLadder, ellipticLadder } from "./prototypes.ts";
 import { ladderGridHz, worstAgainst } from "./grid.ts";
 
@@ -35,4 +36,40 @@ describe("scaleLadder: the nodal response equals the transformed prototype trans
       expect(w.complex).toBeLessThan(2e-10);
     });
   }
+});
+
+describe("scaleLadder: any band and terminations (property)", () => {
+  it("the nodal response equals the transfer at random frequencies for random ladders, bands and source resistances", () => {
+    const ladder = fc.oneof(
+      fc.record({ n: fc.integer({ min: 1, max: 9 }), form: fc.constantFrom(...FORMS) }).map(({ n, form }) => butterworthLadder(n, form)),
+      fc
+        .record({ n: fc.integer({ min: 2, max: 9 }), ripple: fc.double({ min: 0.01, max: 3, noNaN: true }), form: fc.constantFrom(...FORMS) })
+        .map(({ n, ripple, form }) => chebyshevLadder(n, ripple, form)),
+      fc.constantFrom(...FORMS).map((form) => ellipticLadder(form)),
+    );
+    const target = fc.record({
+      response: fc.constantFrom(...LADDER_RESPONSES),
+      fHz: fc.double({ min: 1, max: 1e9, noNaN: true }),
+      fractional: fc.double({ min: 0.01, max: 2, noNaN: true }),
+      ohms: fc.double({ min: 1, max: 1e5, noNaN: true }),
+    });
+    fc.assert(
+      fc.property(ladder, target, fc.array(
+          // off the band centre itself, where a lossless bandstop ladder's resonators leave the nodal equations singular
+          fc.double({ min: -1, max: 1, noNaN: true }).filter((x) => Math.abs(x) > 1e-4),
+          { minLength: 5, maxLength: 5 },
+        ), (p, t, at) => {
+        const band = t.response === "bandpass" || t.response === "bandstop";
+        const options: ScaleLadderOptions = band
+          ? { response: t.response, centreHz: t.fHz, bandwidthHz: t.fHz * t.fractional, sourceOhms: t.ohms }
+          : { response: t.response, edgeHz: t.fHz, sourceOhms: t.ohms };
+        const l = scaleLadder(p, options);
+        const spread = band ? 1 + 2 * t.fractional : 10;
+        const f = Float64Array.from(at, (x) => t.fHz * spread ** x);
+        const w = worstAgainst(l, l.transfer, f, FLOOR_DB);
+        expect(w.db).toBeLessThan(1e-9);
+      }),
+      { numRuns: 60 },
+    );
+  });
 });
