@@ -59,7 +59,7 @@ export interface ActiveLadderOptions {
    * gain-bandwidth): with a single-pole op-amp a 7th-order Chebyshev I's
    * passband departs from the target by about 250 edgeHz / GBW dB (0.25 dB
    * at GBW = 1000 edgeHz) with each of the three methods
-   * (common practice to leave GBW / edgeHz of 1000 or more; measured here).
+   * (measured here).
    * @defaultValue `{ kind: "ideal" }`
    */
   readonly opamp?: OpAmpModel;
