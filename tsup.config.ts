@@ -6,6 +6,7 @@ export const layers = [
   "math",
   "tf",
   "approx",
+  "ladder",
   "parts",
   "scaling",
   "circuit",

@@ -4,8 +4,9 @@
  *
  * The root entry is the design API: {@link designFilter} and the spec it
  * validates, the result types, the reports of a finished design (SPICE
- * netlist, BOM, JSON, Markdown, SVG), its analyses (Monte Carlo yield, part
- * sensitivities, noise, op-amp requirements), the typed errors, and
+ * netlist, BOM, JSON, Markdown, SVG plots and schematics), its analyses
+ * (Monte Carlo yield and envelope, part sensitivities, noise, op-amp
+ * requirements, poles and zeros as built), the typed errors, and
  * {@link parseValue} / {@link formatValue} for the values in a spec and a
  * result. The layers underneath are subpath exports (`filterwright/units`,
  * `/math`, `/tf`, `/approx`, `/parts`, `/scaling`, `/circuit`, `/topologies`,
@@ -82,11 +83,24 @@ export {
 } from "./design/index.ts";
 export {
   monteCarlo,
+  monteCarloEnvelope,
+  designPolesZeros,
   partSensitivities,
   noiseAnalysis,
   opampRequirements,
+  compareRealisations,
+  type CompareRealisationsOptions,
+  type RealisationCandidate,
+  type RealisationComparison,
+  type RealisationMethod,
+  type RealisationSkipped,
   type MonteCarloOptions,
   type MonteCarloResult,
+  type MonteCarloEnvelope,
+  type MonteCarloEnvelopeOptions,
+  type DesignPolesZeros,
+  type DesignPolesZerosOptions,
+  type StagePolesZeros,
   type PartDistribution,
   type Spread,
   type ToleranceFractions,
@@ -105,6 +119,9 @@ export {
   fromJson,
   toMarkdown,
   toSvgPlot,
+  svgFigure,
+  plotFigure,
+  toSvgSchematic,
   sectionRows,
   toSectionsCsv,
   toCurveCsv,
@@ -116,4 +133,12 @@ export {
   type OpampSupply,
   type BomLine,
   type SvgPlotOptions,
+  type Figure,
+  type SvgFigureOptions,
+  type MediaBundle,
+  type Displayable,
+  type PlotKind,
+  type SvgSchematicOptions,
+  type MarkdownOptions,
+  type MarkdownSchematics,
 } from "./report/index.ts";

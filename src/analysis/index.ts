@@ -1,6 +1,7 @@
 /**
  * The analysis layer: what a finished design asks of its op-amps, how
- * part tolerances spread it against the mask, and its output noise.
+ * part tolerances spread it against the mask (and its magnitude response
+ * over frequency), its output noise, and its poles and zeros as built.
  *
  * @module
  */
@@ -10,3 +11,13 @@ export type { PartDistribution } from "../evaluate/boards.ts";
 export { partSensitivities, type PartSensitivity } from "./sensitivity.ts";
 export { noiseAnalysis, BOLTZMANN_J_PER_K, type NoiseAnalysisOptions, type NoiseAnalysisResult, type NoiseContributor } from "./noise.ts";
 export { activeLadderMonteCarlo } from "./ladder-yield.ts";
+export {
+  compareRealisations,
+  type CompareRealisationsOptions,
+  type RealisationCandidate,
+  type RealisationComparison,
+  type RealisationMethod,
+  type RealisationSkipped,
+} from "./realisations.ts";
+export { monteCarloEnvelope, ENVELOPE_MAX_SAMPLES, type MonteCarloEnvelope, type MonteCarloEnvelopeOptions } from "./envelope.ts";
+export { designPolesZeros, type DesignPolesZeros, type DesignPolesZerosOptions, type StagePolesZeros } from "./poles-zeros.ts";

@@ -21,17 +21,10 @@ import { maskPlan, spanRadS } from "../design/verify.ts";
 import { runBoards } from "../evaluate/boards.ts";
 import { circuitBoardStage } from "../evaluate/circuit-boards.ts";
 import type { ActiveLadder } from "../ladder/active/types.ts";
-import { monteCarloSettings, type MonteCarloOptions, type MonteCarloResult, type Spread } from "./tolerance.ts";
+import { monteCarloSettings, spread, type MonteCarloOptions, type MonteCarloResult } from "./tolerance.ts";
+import { withDisplay } from "../display.ts";
+import { monteCarloBundle } from "./display.ts";
 import { checkpoint, checkRunControl, watched } from "../evaluate/progress.ts";
-
-/** Smallest, median and largest of the finite entries. */
-function spread(xs: Float64Array): Spread {
-  const s = xs.filter((x) => Number.isFinite(x)).sort();
-  if (s.length === 0) return { min: -Infinity, median: -Infinity, max: -Infinity };
-  const m = s.length >> 1;
-  const median = s.length % 2 === 1 ? (s[m] as number) : ((s[m - 1] as number) + (s[m] as number)) / 2;
-  return { min: s[0] as number, median, max: s[s.length - 1] as number };
-}
 
 function requireLadderFor(fn: string, result: DesignResult, ladder: unknown): ActiveLadder {
   if (ladder === null || typeof ladder !== "object") {
@@ -103,7 +96,7 @@ export function activeLadderMonteCarlo(result: DesignResult, ladder: ActiveLadde
       worstBoard[name] = values[i] as number;
     });
     const p = run.passed / settings.runs;
-    return {
+    return withDisplay({
       runs: settings.runs,
       yield: p,
       yieldStandardError: Math.sqrt((p * (1 - p)) / settings.runs),
@@ -113,6 +106,6 @@ export function activeLadderMonteCarlo(result: DesignResult, ladder: ActiveLadde
       stopbandAttenuationDb: spread(run.stopbandAttenuationDb),
       gainDb: spread(run.gainDb),
       worstBoard,
-    };
+    }, monteCarloBundle);
   });
 }

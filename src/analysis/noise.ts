@@ -34,6 +34,8 @@
  *
  * @module
  */
+import { withDisplay } from "../display.ts";
+import { noiseBundle } from "./display.ts";
 import { InvalidArgumentError, SingularCircuitError } from "../errors.ts";
 import { requireInRange, requireInteger, requireOptions } from "../validate.ts";
 import type { DesignResult } from "../design/index.ts";
@@ -263,7 +265,7 @@ export function noiseAnalysis(result: DesignResult, options?: NoiseAnalysisOptio
   const outputDensity = total.map(Math.sqrt);
   const passbandGain = result.spec.gain;
   const inputReferredDensity = outputDensity.map((v) => v / passbandGain);
-  return {
+  return withDisplay({
     freqHz,
     outputDensity,
     contributions,
@@ -272,5 +274,5 @@ export function noiseAnalysis(result: DesignResult, options?: NoiseAnalysisOptio
     passbandGain,
     inputReferredDensity,
     topContributors: ranked,
-  };
+  }, noiseBundle);
 }

@@ -15,6 +15,8 @@
  *
  * @module
  */
+import { withDisplay } from "../display.ts";
+import { monteCarloBundle } from "./display.ts";
 import { InvalidArgumentError } from "../errors.ts";
 import { requireInRange, requireInteger, requireOneOf, requireOptions } from "../validate.ts";
 import type { DesignResult } from "../design/index.ts";
@@ -112,9 +114,10 @@ export interface MonteCarloResult {
   readonly worstBoard: Readonly<Record<string, number>>;
 }
 
-/** Smallest, median and largest of the finite entries (a singular board has none). */
-function spread(xs: Float64Array): Spread {
+/** Smallest, median and largest of the finite entries (a singular board has none; -Infinity when no board has one). */
+export function spread(xs: Float64Array): Spread {
   const s = xs.filter((x) => Number.isFinite(x)).sort();
+  if (s.length === 0) return { min: -Infinity, median: -Infinity, max: -Infinity };
   const m = s.length >> 1;
   const median = s.length % 2 === 1 ? (s[m] as number) : ((s[m - 1] as number) + (s[m] as number)) / 2;
   return { min: s[0] as number, median, max: s[s.length - 1] as number };
@@ -233,7 +236,7 @@ export function monteCarloSummary(
   });
   const pass = run.passed;
   const p = pass / runs;
-  return {
+  return withDisplay({
     runs,
     yield: p,
     yieldStandardError: Math.sqrt((p * (1 - p)) / runs),
@@ -246,7 +249,7 @@ export function monteCarloSummary(
     stopbandAttenuationDb: spread(run.stopbandAttenuationDb),
     gainDb: spread(run.gainDb),
     worstBoard,
-  };
+  }, monteCarloBundle);
 }
 
 /**

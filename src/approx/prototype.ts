@@ -74,7 +74,24 @@ export function familyMaxOrder(family: FamilyName): number {
  * ```
  */
 export function prototype(spec: PrototypeSpec): Zpk {
-  const fn = "prototype";
+  return checkedPrototype("prototype", spec);
+}
+
+/**
+ * {@link prototype} with the validation errors naming another public
+ * function `fn` (for callers that take the same family fields, such as the
+ * ladder synthesis). Not exported from the layer index.
+ *
+ * @param fn - public function name for the errors
+ * @param spec - family, order and the family's parameters (unknown input)
+ * @returns the prototype
+ * @throws {@link InvalidArgumentError} as {@link prototype}, naming `fn`
+ * @example
+ * ```ts
+ * checkedPrototype("ladderPrototype", { family: "butterworth", order: 2 }).poles.length; //=> 2
+ * ```
+ */
+export function checkedPrototype(fn: string, spec: unknown): Zpk {
   const s = requireOptions(fn, "", spec);
   const family = requireOneOf(fn, "family", s["family"], FAMILY_NAMES);
   const order = requireInteger(fn, "order", s["order"], { min: 1, max: MAX_ORDERS[family] });

@@ -37,3 +37,4 @@ export {
   type SpiceAcSweep,
 } from "./spice.ts";
 export { OPAMP_PINS, type OpampPin, type OpampSubcircuit, type OpampSupply } from "./spice-opamp.ts";
+export { ladderCircuit, LADDER_SOURCE, type LadderCircuitOptions } from "./ladder.ts";

@@ -20,4 +20,5 @@ process.exitCode = runCli(process.argv.slice(2), {
   readFile: (p) => readFileSync(p, "utf8"),
   readStdin: () => readFileSync(0, "utf8"),
   writeFile: (p, t) => writeFileSync(p, t, "utf8"),
+  stderrIsTerminal: process.stderr.isTTY === true,
 });

@@ -15,8 +15,8 @@ import { checkSpec, designFilter, type DesignResult, type FilterSpec, type Progr
 import { toBomCsv, toCurveCsv, toJson, toMarkdown, toSectionsCsv, toSpiceNetlist, toSvgPlot } from "../report/index.ts";
 import { topologies } from "../topologies/index.ts";
 import { formatValue } from "../units/index.ts";
-import { verdictLine } from "../report/verdict.ts";
-import { monteCarlo, noiseAnalysis, partSensitivities } from "../analysis/index.ts";
+import { verdictLine } from "../design/verdict.ts";
+import { compareRealisations, monteCarlo, noiseAnalysis, partSensitivities } from "../analysis/index.ts";
 import { readArgs, type GivenOption } from "./args.ts";
 import { OPTIONS, OUTPUT_OPTIONS, type OptionDef } from "./options.ts";
 import { CliProblem, CliProblems, ioReason } from "./problems.ts";
@@ -40,6 +40,12 @@ export interface CliIo {
   readonly readStdin: () => string;
   /** Write a text file (UTF-8). */
   readonly writeFile: (path: string, text: string) => void;
+  /**
+   * Whether standard error is a terminal: a long run then shows one progress
+   * line there, rewritten in place and cleared when the run ends.
+   * @defaultValue false
+   */
+  readonly stderrIsTerminal?: boolean;
 }
 
 /** The program version printed by `--version`. */
@@ -115,6 +121,17 @@ function extraLines(r: DesignResult, o: ReadonlyMap<string, GivenOption>, contro
         `worst margin ${mc.marginDb.min.toFixed(3)} dB, median ${mc.marginDb.median.toFixed(3)} dB`,
     );
   }
+  if (o.get("compare")?.value === true) {
+    const seed = o.get("seed")?.value;
+    const c = analysis(o, () => compareRealisations(r, { runs: typeof runs === "number" ? runs : 2000, ...(typeof seed === "number" ? { seed } : {}) }));
+    const pc = (x: number): string => `${(x * 100).toFixed(1)} %`;
+    const rows = [["realisation", "op-amps", "R and C", "yield", "95 % interval", "median margin"]];
+    for (const k of c.candidates) rows.push([k.method, String(k.opamps), String(k.parts), pc(k.yield), `${pc(k.lower95)} - ${pc(k.upper95)}`, `${k.medianMarginDb.toFixed(3)} dB`]);
+    extra.push(
+      `realisations on ${c.candidates[0]?.boards ?? 0} boards each at ${pc(c.tolerances.resistor)} R / ${pc(c.tolerances.capacitor)} C (seed ${c.seed}):\n${table(rows)}\n` +
+        `${c.skipped.map((k) => `${k.method}: not built (${k.reason})\n`).join("")}choice: ${c.reason}`,
+    );
+  }
   const en = o.get("noise")?.value;
   if (typeof en === "number") {
     const inoise = o.get("noise-in")?.value;
@@ -178,10 +195,25 @@ function writeOutputs(r: DesignResult, o: ReadonlyMap<string, GivenOption>, io: 
   return toStdout;
 }
 
-/** Design the spec, or say in command-line terms why it cannot be designed. */
-/** The `--progress` reporter: every step on standard error, batches of boards at most once a second. */
+/**
+ * The progress reporter. With `--progress`, every step on its own line of
+ * standard error (batches of boards at most once a second); otherwise, when
+ * standard error is a terminal and `--quiet` is not given, one line rewritten
+ * in place (at most ten times a second) that {@link endProgress} clears.
+ */
 function progressOf(o: ReadonlyMap<string, GivenOption>, io: CliIo): RunControl {
-  if (o.get("progress")?.value !== true) return {};
+  if (o.get("progress")?.value !== true) {
+    if (io.stderrIsTerminal !== true || o.get("quiet")?.value === true) return {};
+    let last = -Infinity;
+    return {
+      onProgress: (p: Progress) => {
+        if (p.elapsedMs - last < 100) return;
+        last = p.elapsedMs;
+        const boards = p.boards === undefined ? "" : ` ${p.boards}/${p.totalBoards}`;
+        io.stderr(`\r\x1b[2K[${(p.elapsedMs / 1000).toFixed(1)} s] ${p.message}${boards}`.slice(0, 200));
+      },
+    };
+  }
   let lastBoards = -Infinity;
   return {
     onProgress: (p: Progress) => {
@@ -195,6 +227,12 @@ function progressOf(o: ReadonlyMap<string, GivenOption>, io: CliIo): RunControl 
   };
 }
 
+/** Clear the in-place progress line, if one was shown. */
+function endProgress(o: ReadonlyMap<string, GivenOption>, io: CliIo): void {
+  if (io.stderrIsTerminal === true && o.get("progress")?.value !== true && o.get("quiet")?.value !== true) io.stderr("\r\x1b[2K");
+}
+
+/** Design the spec, or say in command-line terms why it cannot be designed. */
 function designOrExplain(spec: Record<string, unknown>, source: SpecSource, earlier: Earlier, control: RunControl = {}): DesignResult {
   // The spec's own issues are listed with the values that could not be read, those options' fields left out.
   const lines = [...earlier.lines, ...issueLines(checkSpec(spec), source, earlier.failed)];
@@ -231,8 +269,14 @@ function design(start: Start, o: ReadonlyMap<string, GivenOption>, earlier: Earl
   const merged = specFromOptions(base, o);
   if (merged.problems.length > 0) throw new CliProblems([...earlier.lines, ...merged.problems]);
   const control = progressOf(o, io);
-  const r = designOrExplain(merged.spec, { name: sourceName, base, options: o }, earlier, control);
-  const extra = extraLines(r, o, control);
+  let r: DesignResult;
+  let extra: string[];
+  try {
+    r = designOrExplain(merged.spec, { name: sourceName, base, options: o }, earlier, control);
+    extra = extraLines(r, o, control);
+  } finally {
+    endProgress(o, io);
+  }
   const toStdout = writeOutputs(r, o, io);
   // With an output on standard output, the summary goes to standard error so the output can be piped.
   const say = toStdout === undefined ? io.stdout : io.stderr;

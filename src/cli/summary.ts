@@ -7,21 +7,17 @@
  */
 import type { DesignResult } from "../design/index.ts";
 import { DESIGN_CAUTIONS } from "../report/index.ts";
-import { verdictLine } from "../report/verdict.ts";
+import { verdictLine } from "../design/verdict.ts";
+import { hertz } from "../design/text.ts";
+import { textTable } from "../display.ts";
 import { formatValue } from "../units/index.ts";
 
-function pad(s: string, n: number): string {
-  return s.length >= n ? s : s + " ".repeat(n - s.length);
-}
-
-/** Rows laid out in columns two spaces apart. */
+/** Rows laid out in columns two spaces apart (the first row is the heading). */
 export function table(rows: readonly (readonly string[])[]): string {
-  const widths: number[] = [];
-  for (const r of rows) r.forEach((c, i) => (widths[i] = Math.max(widths[i] ?? 0, c.length)));
-  return rows.map((r) => r.map((c, i) => pad(c, widths[i] as number)).join("  ").trimEnd()).join("\n");
+  return textTable(rows[0] ?? [], rows.slice(1));
 }
 
-const hz = (x: number): string => formatValue(x, { digits: 4, unit: "Hz" });
+const hz = (x: number): string => hertz(x);
 const p4 = (x: number): string => Number(x.toPrecision(4)).toString();
 
 /** The human-readable summary printed for a design. */
@@ -40,14 +36,14 @@ export function formatSummary(r: DesignResult, extra: readonly string[] = []): s
       "topology",
       "kind",
       "f0 target",
-      "f0 built",
-      ...(real ? ["f0 w/ op-amp"] : []),
+      "f0 as built",
+      ...(real ? ["f0 with op-amp"] : []),
       "Q target",
-      "Q built",
-      ...(real ? ["Q w/ op-amp"] : []),
+      "Q as built",
+      ...(real ? ["Q with op-amp"] : []),
       "gain",
-      "peak to here",
-      "GBW need",
+      "peak gain at stage output",
+      "GBW required",
       "parts",
     ],
   ];

@@ -23,7 +23,7 @@
 import type { FamilyName } from "../approx/index.ts";
 import type { DesignSpec } from "./spec.ts";
 import { familyMinimumOrder, orderFormula } from "./family.ts";
-import { significant } from "./text.ts";
+import { hertz, significant } from "./text.ts";
 import type { Feasibility, NeededOrder, Relaxation } from "./types.ts";
 
 const FAMILIES: readonly FamilyName[] = ["butterworth", "chebyshev1", "chebyshev2", "elliptic", "bessel", "legendre"];
@@ -46,15 +46,7 @@ interface Move {
   readonly text: (s: DesignSpec) => string;
 }
 
-const hz = (f: number): string => {
-  const units: [number, string][] = [
-    [1e6, "MHz"],
-    [1e3, "kHz"],
-    [1, "Hz"],
-  ];
-  for (const [k, u] of units) if (Math.abs(f) >= k) return `${significant(f / k, 3)} ${u}`;
-  return `${significant(f, 3)} Hz`;
-};
+const hz = (f: number): string => hertz(f, 3);
 
 /** The moves of a spec's mask, each with the furthest relaxation it may take (t = 1). */
 function movesOf(spec: DesignSpec): Move[] {

@@ -14,6 +14,8 @@ import { formatValue } from "../units/index.ts";
 import { TWO_PI } from "../units/constants.ts";
 import type { DesignSpec } from "./spec.ts";
 import { deepFreeze, registerDesignResult } from "./check.ts";
+import { withDisplay } from "../display.ts";
+import { designBundle } from "./display.ts";
 import { CAPACITOR_SPREAD_SOFT_LIMIT, capacitorSpreadOf, type StagePlan } from "./stages.ts";
 import type { TunedStage, ValueSet } from "./components.ts";
 import { stageErrors } from "./stage-cost.ts";
@@ -385,7 +387,7 @@ export function assembleResult(spec: DesignSpec, decisions: DesignDecisions, rob
   const headroom = headroomOf(spec, stages);
   const predistorted = predistortionAction(spec, stages);
   const order = a.proto.order;
-  return registerDesignResult(deepFreeze({
+  return registerDesignResult(deepFreeze(withDisplay({
     spec,
     family: decisions.family,
     familyChoice: decisions.choice,
@@ -398,5 +400,5 @@ export function assembleResult(spec: DesignSpec, decisions: DesignDecisions, rob
     warnings: [...records.flatMap((r) => r.warnings), ...cascadeWarnings(spec, a, found.map((p) => p.output), headroom, decisions.choice.feasibility), ...yieldWarning(spec, robust)],
     actions: predistorted === null ? [...decisions.actions] : [...decisions.actions, predistorted],
     yieldAlternatives: alternativesOf(robust),
-  }));
+  }, designBundle)));
 }

@@ -56,4 +56,11 @@ export interface LadderPrototype {
    * exactly (at DC an all-pole ladder gives loadOhms / (sourceOhms + loadOhms)).
    */
   readonly transfer: Zpk;
+  /**
+   * `"type-b"` when the ladder realises the modified even-order form of an
+   * elliptic or Chebyshev II prototype (the highest transmission zero moved
+   * to infinity and the lowest reflection zero to DC by a frequency
+   * transformation; `transfer` is that form's); absent otherwise.
+   */
+  readonly variant?: "type-b";
 }

@@ -16,8 +16,9 @@
 import { formatValue } from "../units/index.ts";
 import { responseSpanHz, type DesignResult } from "../design/index.ts";
 import { noiseAnalysis } from "../analysis/index.ts";
+import { hertz } from "../design/text.ts";
 
-const hz = (x: number): string => formatValue(x, { digits: 4, unit: "Hz" });
+const hz = (x: number): string => hertz(x);
 const dB = (x: number): string => `${x.toFixed(2)} dB`;
 const n4 = (x: number): string => Number(x.toPrecision(4)).toString();
 

@@ -1,6 +1,7 @@
 /**
  * The report layer: SPICE netlist, bill of materials, versioned JSON,
- * Markdown summary and SVG plots of a design. Presentation only.
+ * Markdown summary, SVG plots and schematics of a design, and the axis
+ * ticks the plots use. Presentation only.
  *
  * @module
  */
@@ -8,6 +9,11 @@ export { toSpiceNetlist, type SpiceNetlistOptions } from "./spice.ts";
 export type { OpampPin, OpampSubcircuit, OpampSupply } from "../circuit/index.ts";
 export { toBomCsv, bomLines, type BomLine } from "./bom.ts";
 export { toJson, fromJson, DESIGN_FORMAT_VERSION, JSON_MAX_CHARS, JSON_MAX_DEPTH } from "./json.ts";
-export { toMarkdown, DESIGN_CAUTIONS } from "./markdown.ts";
-export { toSvgPlot, type SvgPlotOptions } from "./svg.ts";
+export { svgFigure, plotFigure, type Figure, type SvgFigureOptions } from "./figure.ts";
+export type { MediaBundle, Displayable } from "../display.ts";
+export { toMarkdown, DESIGN_CAUTIONS, type MarkdownOptions } from "./markdown.ts";
+export type { MarkdownSchematics } from "./markdown-schematics.ts";
+export { toSvgPlot, PLOT_KINDS, type PlotKind, type SvgPlotOptions } from "./svg.ts";
+export { toSvgSchematic, type SvgSchematicOptions } from "./schematic.ts";
+export { linearTicks, logTicks, type LinearTicks, type LinearTicksOptions, type LogTicks } from "./plot/ticks.ts";
 export { sectionRows, toSectionsCsv, toCurveCsv, type SectionRow, type CurveCsvOptions } from "./exports.ts";

@@ -42,6 +42,8 @@
 import { ParseError, type InvalidArgumentError } from "../errors.ts";
 import type { DesignResult } from "../design/index.ts";
 import { checkDesignResult, deepFreeze, registerDesignResult, requireDesignResult } from "../design/check.ts";
+import { designBundle } from "../design/display.ts";
+import { withDisplay } from "../display.ts";
 import { recheckDesign } from "../design/recheck.ts";
 
 /** The format version written by {@link toJson}; {@link fromJson} also reads version 2 (without the checksum). */
@@ -177,5 +179,5 @@ export function fromJson(text: string): DesignResult {
       fail("checksum", `the result was changed after it was written (its checksum is ${expected}); every figure that can be recomputed from the parts agrees, so the change is in a field that cannot be (a message, a reason, the yield counts): write the file again with toJson`, top["checksum"]);
     }
   }
-  return registerDesignResult(deepFreeze(result));
+  return registerDesignResult(deepFreeze(withDisplay(result, designBundle)));
 }

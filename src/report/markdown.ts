@@ -10,10 +10,26 @@ import type { DesignResult } from "../design/index.ts";
 import { bomLines } from "./bom.ts";
 import { opampRequirements } from "../analysis/index.ts";
 import { requireDesignResult } from "../design/check.ts";
-import { verdictLine } from "./verdict.ts";
+import { verdictLine } from "../design/verdict.ts";
+import { hertz } from "../design/text.ts";
 import { headroomLines } from "./headroom.ts";
+import { requireSchematics, schematicLines, type MarkdownSchematics } from "./markdown-schematics.ts";
+import { requireOptions } from "../validate.ts";
 
-const f3 = (x: number): string => formatValue(x, { digits: 4, unit: "Hz" });
+/** Options of {@link toMarkdown}. */
+export interface MarkdownOptions {
+  /**
+   * Each stage's schematic after the stage list: `"inline"` writes the SVG
+   * into the Markdown (shown by renderers that allow HTML, such as VS Code,
+   * Jupyter and typedoc; GitHub does not), a file name containing `{stage}`
+   * (`"img/stage-{stage}.svg"`) links one image per stage, which you write
+   * with `toSvgSchematic(result, { stage })`, and `"none"` leaves them out.
+   * @defaultValue "none"
+   */
+  readonly schematics?: MarkdownSchematics;
+}
+
+const f3 = (x: number): string => hertz(x);
 const n4 = (x: number): string => Number(x.toPrecision(4)).toString();
 const dB = (x: number, d = 3): string => `${x.toFixed(d)} dB`;
 const pct = (x: number): string => `${(x * 100).toFixed(3)} %`;
@@ -55,16 +71,19 @@ function yieldSection(result: DesignResult): string[] {
  * Render a design as a Markdown summary.
  *
  * @param result - a design
+ * @param options - whether and how to show the stages' schematics
  * @returns Markdown text
- * @throws {@link InvalidArgumentError} when `result` is not a design result (the path names the first bad field)
+ * @throws {@link InvalidArgumentError} when `result` is not a design result (the path names the first bad field), or `schematics` is not one of its forms
  * @example
  * ```ts
  * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
  * toMarkdown(designFilter(spec)).split("\n")[0]; //=> "# Lowpass filter: legendre, 4 poles"
+ * toMarkdown(designFilter(spec), { schematics: "stage-{stage}.svg" }).includes("](stage-1.svg)"); //=> true
  * ```
  */
-export function toMarkdown(result: DesignResult): string {
+export function toMarkdown(result: DesignResult, options?: MarkdownOptions): string {
   requireDesignResult("toMarkdown", result);
+  const schematics = requireSchematics("toMarkdown", requireOptions("toMarkdown", "options", options)["schematics"]);
   const s = result.spec;
   const v = result.verification;
   const L: string[] = [];
@@ -98,7 +117,7 @@ export function toMarkdown(result: DesignResult): string {
   // Columns for the pole with the real op-amp, only when the design has them.
   const withOpamp = result.stages.some((st) => st.asBuiltWithOpamp !== undefined);
   L.push(
-    `| stage | topology | kind | f0 target | f0 as built |${withOpamp ? " f0 with op-amp |" : ""} Q target | Q as built |${withOpamp ? " Q with op-amp |" : ""} gain target | gain as built | peak gain to here | GBW needed |`,
+    `| stage | topology | kind | f0 target | f0 as built |${withOpamp ? " f0 with op-amp |" : ""} Q target | Q as built |${withOpamp ? " Q with op-amp |" : ""} gain target | gain as built | peak gain at stage output | GBW required |`,
     `|---|---|---|---|---|${withOpamp ? "---|" : ""}---|---|${withOpamp ? "---|" : ""}---|---|---|---|`,
   );
   for (const st of result.stages) {
@@ -130,7 +149,9 @@ export function toMarkdown(result: DesignResult): string {
       `- Stage ${st.index} (${st.topology}; ${st.topologyReason}): ${parts}; ${st.opamps.join(", ")}. f0 error ${pct(st.errors.f0)} (plain rounding: ${pct(st.plainSnapErrors.f0)}), Q error ${pct(st.errors.q)} (plain rounding: ${pct(st.plainSnapErrors.q)}).${real}`,
     );
   }
-  L.push("", "## Verification (as built)", "");
+  L.push("");
+  L.push(...schematicLines(result, schematics));
+  L.push("## Verification (as built)", "");
   L.push("| check | as built | spec | margin |", "|---|---|---|---|");
   L.push(`| passband loss | ${dB(v.passbandLossDb)} (worst at ${f3(v.passbandWorstHz)}) | ≤ ${s.maxLossDb} dB | ${dB(v.passbandMarginDb)} |`);
   L.push(`| stopband attenuation | ${dB(v.stopbandAttenuationDb, 2)} (worst at ${f3(v.stopbandWorstHz)}) | ≥ ${s.minAttenuationDb} dB | ${dB(v.stopbandMarginDb)} |`);
@@ -142,7 +163,7 @@ export function toMarkdown(result: DesignResult): string {
   L.push(...headroomLines(result));
   L.push("## What each op-amp must do", "");
   L.push("For a 1 V peak sinusoid at the input, anywhere in the plotted span:", "");
-  L.push("| stage | op-amps | GBW needed | peak output | at | slew rate | at |", "|---|---|---|---|---|---|---|");
+  L.push("| stage | op-amps | GBW required | peak output | at | slew rate | at |", "|---|---|---|---|---|---|---|");
   for (const q of opampRequirements(result)) {
     L.push(
       `| ${q.stage} | ${q.opamps.join(", ")} | ${f3(q.gbwDemandHz)} | ${n4(q.peakOutputV)} V | ${f3(q.peakHz)} | ${formatValue(q.slewRateVPerS, { digits: 3, unit: "V" })}/s | ${f3(q.slewHz)} |`,

@@ -1,130 +1,128 @@
 /**
- * SVG plots of a design's as-built response: magnitude with the spec mask,
- * and group delay. Plain SVG 1.1 text, no scripts, no external fonts.
+ * SVG plots of a design as built, for a design review: magnitude against
+ * the spec mask (with the Monte Carlo spread of the boards if given), phase,
+ * group delay, step response, pole-zero map, the signal level at every
+ * op-amp output, and the output noise density. Plain SVG 1.1 text: no
+ * scripts, no external fonts or files, every label inside the drawing.
+ *
+ * The frequency curves come from the stages' as-built responses with the
+ * design's op-amp model on a grid refined where the curves turn, with every
+ * peak and notch searched to its true extreme (src/report/plot/adaptive.ts);
+ * the axes step by 1, 2 or 5 times a power of ten (degrees by 15 to 360,
+ * frequencies by decades with minor lines at 2..9); the margins are sized
+ * from the labels (src/report/plot/frame.ts); the traces are clipped at the
+ * frame, not flattened onto it.
  *
  * @module
  */
-import { formatValue } from "../units/index.ts";
 import type { DesignResult } from "../design/index.ts";
 import { requireDesignResult } from "../design/check.ts";
+import type { MonteCarloEnvelope } from "../analysis/envelope.ts";
+import type { NoiseAnalysisOptions } from "../analysis/noise.ts";
+import { magnitudePlot } from "./plot/magnitude.ts";
+import { phasePlot } from "./plot/phase.ts";
+import { groupDelayPlot } from "./plot/group-delay.ts";
+import { stepPlot } from "./plot/step.ts";
+import { poleZeroPlot } from "./plot/pole-zero.ts";
+import { opampLevelsPlot } from "./plot/opamp-levels.ts";
+import { noisePlot } from "./plot/noise.ts";
+import { plotSettings, PLOT_KINDS, type PlotKind } from "./plot/settings.ts";
+
+export { PLOT_KINDS, type PlotKind };
 
 /** Options of {@link toSvgPlot}. */
 export interface SvgPlotOptions {
   /**
-   * What to plot.
+   * What to plot: `"magnitude"` (dB against the spec mask), `"phase"`
+   * (degrees, unwrapped), `"group-delay"` (seconds), `"step"` (the output
+   * for a 1 V step at the input), `"pole-zero"` (the as-built poles and
+   * zeros, in Hz), `"opamp-levels"` (the gain to every op-amp output, or its
+   * peak voltage when the spec gives signal levels) or `"noise"` (the output
+   * noise density).
    * @defaultValue `"magnitude"`
    */
-  readonly kind?: "magnitude" | "group-delay";
+  readonly kind?: PlotKind;
   /**
-   * Width in pixels.
+   * Width in pixels (240 to 4000).
    * @defaultValue 720
    */
   readonly width?: number;
   /**
-   * Height in pixels.
+   * Height in pixels (200 to 4000).
    * @defaultValue 420
    */
   readonly height?: number;
+  /**
+   * Title above the plot (at most 300 characters; wrapped to the width).
+   * @defaultValue the family, response, order and what is plotted
+   */
+  readonly title?: string;
+  /**
+   * First frequency of the frequency plots, Hz.
+   * @defaultValue a decade below the lowest band edge, rounded down to 1, 2 or 5 times a power of ten
+   */
+  readonly startHz?: number;
+  /**
+   * Last frequency of the frequency plots, Hz (above `startHz`, at most nine decades above it).
+   * @defaultValue a decade above the highest band edge, rounded up to 1, 2 or 5 times a power of ten
+   */
+  readonly stopHz?: number;
+  /**
+   * Shade the regions the spec forbids on the magnitude plot.
+   * @defaultValue true
+   */
+  readonly mask?: boolean;
+  /**
+   * The spread of Monte Carlo boards to draw on the magnitude plot, from `monteCarloEnvelope`.
+   * @defaultValue none
+   */
+  readonly envelope?: MonteCarloEnvelope;
+  /**
+   * Options of the noise analysis the noise plot draws (op-amp noise densities, temperature).
+   * @defaultValue resistor noise only, at 300.15 K, 400 points over the plot's span
+   */
+  readonly noise?: NoiseAnalysisOptions;
+  /**
+   * Length of the step response shown, seconds.
+   * @defaultValue twice the 2 % settling time where the response settles to a final value, at most seven time constants of the slowest pole
+   */
+  readonly durationS?: number;
 }
 
-const esc = (s: string): string => s.replace(/&/g, "&amp;").replace(/</g, "&lt;").replace(/>/g, "&gt;");
-const r1 = (x: number): string => (Math.round(x * 10) / 10).toString();
-
 /**
- * Plot the as-built response stored in a design (its 256-point curve).
- *
- * The magnitude plot shades the regions the mask forbids: below the passband
- * floor (passband level minus the allowed loss) across the passband, and above
- * the stopband ceiling (passband level minus the required attenuation) across
- * the stopband.
+ * Plot a design as built (see the module header).
  *
  * @param result - a design
- * @param options - plot kind and size
+ * @param options - the kind of plot, its size, title and span, and what the kind draws
  * @returns SVG text
- * @throws {@link InvalidArgumentError} when `result` is not a design result (the path names the first bad field)
+ * @throws {@link InvalidArgumentError} when `result` is not a design result, or an option is out of range (the path names it)
+ * @throws `SingularCircuitError` for the noise plot of a circuit that cannot be solved
  * @example
  * ```ts
  * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
- * toSvgPlot(designFilter(spec)).startsWith("<svg"); //=> true
+ * const result = designFilter(spec);
+ * toSvgPlot(result).startsWith("<svg"); //=> true
+ * toSvgPlot(result, { kind: "step", width: 480, height: 300 }).includes('viewBox="0 0 480 300"'); //=> true
  * ```
  */
 export function toSvgPlot(result: DesignResult, options: SvgPlotOptions = {}): string {
-  requireDesignResult("toSvgPlot", result);
-  const kind = options.kind ?? "magnitude";
-  const W = options.width ?? 720;
-  const H = options.height ?? 420;
-  const m = { l: 64, r: 16, t: 28, b: 44 };
-  const c = result.verification.curve;
-  const f = c.freqHz;
-  const y = kind === "magnitude" ? c.magnitudeDb : c.groupDelayS;
-  const s = result.spec;
-  const v = result.verification;
-  const fmin = f[0] as number;
-  const fmax = f[f.length - 1] as number;
-  let ymin: number;
-  let ymax: number;
-  if (kind === "magnitude") {
-    ymax = v.gainDb + 10;
-    ymin = Math.max(Math.min(...y), v.gainDb - s.minAttenuationDb - 40);
-  } else {
-    const finite = y.filter((x) => Number.isFinite(x));
-    ymin = Math.min(0, ...finite);
-    ymax = Math.max(...finite) * 1.1 || 1;
+  const fn = "toSvgPlot";
+  requireDesignResult(fn, result);
+  const o = plotSettings(fn, result, options);
+  switch (o.kind) {
+    case "magnitude":
+      return magnitudePlot(result, o);
+    case "phase":
+      return phasePlot(result, o);
+    case "group-delay":
+      return groupDelayPlot(result, o);
+    case "step":
+      return stepPlot(result, o);
+    case "pole-zero":
+      return poleZeroPlot(result, o);
+    case "opamp-levels":
+      return opampLevelsPlot(result, o);
+    case "noise":
+      return noisePlot(result, o);
   }
-  const X = (x: number): number => m.l + ((Math.log10(x) - Math.log10(fmin)) / (Math.log10(fmax) - Math.log10(fmin))) * (W - m.l - m.r);
-  const Y = (x: number): number => m.t + (1 - (Math.min(Math.max(x, ymin), ymax) - ymin) / (ymax - ymin)) * (H - m.t - m.b);
-  const out: string[] = [];
-  out.push(`<svg xmlns="http://www.w3.org/2000/svg" width="${W}" height="${H}" viewBox="0 0 ${W} ${H}" font-family="sans-serif" font-size="11">`);
-  out.push(`<rect x="0" y="0" width="${W}" height="${H}" fill="white"/>`);
-  // Decade grid.
-  for (let d = Math.ceil(Math.log10(fmin)); d <= Math.floor(Math.log10(fmax)); d++) {
-    const x = X(10 ** d);
-    out.push(`<line x1="${r1(x)}" y1="${m.t}" x2="${r1(x)}" y2="${H - m.b}" stroke="#ddd"/>`);
-    out.push(`<text x="${r1(x)}" y="${H - m.b + 14}" text-anchor="middle">${esc(formatValue(10 ** d, { unit: "Hz" }))}</text>`);
-  }
-  const ticks = 6;
-  for (let i = 0; i <= ticks; i++) {
-    const val = ymin + ((ymax - ymin) * i) / ticks;
-    const yy = Y(val);
-    out.push(`<line x1="${m.l}" y1="${r1(yy)}" x2="${W - m.r}" y2="${r1(yy)}" stroke="#eee"/>`);
-    const label = kind === "magnitude" ? `${val.toFixed(0)} dB` : formatValue(val, { digits: 3, unit: "s" });
-    out.push(`<text x="${m.l - 4}" y="${r1(yy + 4)}" text-anchor="end">${esc(label)}</text>`);
-  }
-  if (kind === "magnitude") {
-    const floor = v.gainDb - s.maxLossDb;
-    const ceil = v.gainDb - s.minAttenuationDb;
-    const band = (a: number, b: number): [number, number] => [Math.max(a, fmin), Math.min(b, fmax)];
-    const passBands: [number, number][] =
-      s.response === "lowpass"
-        ? [band(fmin, s.passbandHz[0] as number)]
-        : s.response === "highpass"
-          ? [band(s.passbandHz[0] as number, fmax)]
-          : s.response === "bandpass"
-            ? [band(s.passbandHz[0] as number, s.passbandHz[1] as number)]
-            : [band(fmin, s.passbandHz[0] as number), band(s.passbandHz[1] as number, fmax)];
-    const stopBands: [number, number][] =
-      s.response === "lowpass"
-        ? [band(s.stopbandHz[0] as number, fmax)]
-        : s.response === "highpass"
-          ? [band(fmin, s.stopbandHz[0] as number)]
-          : s.response === "bandpass"
-            ? [band(fmin, s.stopbandHz[0] as number), band(s.stopbandHz[1] as number, fmax)]
-            : [band(s.stopbandHz[0] as number, s.stopbandHz[1] as number)];
-    for (const [a, b] of passBands) {
-      out.push(`<rect x="${r1(X(a))}" y="${r1(Y(floor))}" width="${r1(X(b) - X(a))}" height="${r1(Y(ymin) - Y(floor))}" fill="#f4c7c3" fill-opacity="0.6"/>`);
-    }
-    for (const [a, b] of stopBands) {
-      out.push(`<rect x="${r1(X(a))}" y="${r1(Y(ymax))}" width="${r1(X(b) - X(a))}" height="${r1(Y(ceil) - Y(ymax))}" fill="#f4c7c3" fill-opacity="0.6"/>`);
-    }
-  }
-  const pts = f.map((x, i) => `${r1(X(x))},${r1(Y(y[i] as number))}`).join(" ");
-  out.push(`<polyline points="${pts}" fill="none" stroke="#1f4e99" stroke-width="1.6"/>`);
-  out.push(`<rect x="${m.l}" y="${m.t}" width="${W - m.l - m.r}" height="${H - m.t - m.b}" fill="none" stroke="#444"/>`);
-  const title =
-    kind === "magnitude"
-      ? `${result.family} ${s.response}, ${result.filterOrder} poles: as-built magnitude and the spec mask (shaded: forbidden)`
-      : `${result.family} ${s.response}, ${result.filterOrder} poles: as-built group delay`;
-  out.push(`<text x="${m.l}" y="18" font-size="12">${esc(title)}</text>`);
-  out.push("</svg>", "");
-  return out.join("\n");
 }

@@ -191,8 +191,8 @@ describe("designFilter pre-distorts for a finite-GBW op-amp", () => {
     expect(md).toContain("Pre-distorted for the op-amp's gain-bandwidth");
     const { ideal } = withOpamp(cases[0] as (typeof cases)[number]);
     expect(toMarkdown(ideal)).not.toContain("with op-amp");
-    expect(formatSummary(real)).toContain("f0 w/ op-amp");
-    expect(formatSummary(ideal)).not.toContain("w/ op-amp");
+    expect(formatSummary(real)).toContain("f0 with op-amp");
+    expect(formatSummary(ideal)).not.toContain("with op-amp");
   });
 
   it("warns instead of throwing when the op-amp is far too slow to pre-distort", () => {

@@ -90,3 +90,30 @@ describe("filterwright --progress", () => {
     expect(lines[lines.length - 1]).toMatch(/^\[\d+\.\d s\] result: chebyshev1$/);
   });
 });
+
+describe("filterwright on a terminal", () => {
+  const argv = ["design", "--response", "lowpass", "--pass", "2k", "--pass-loss", "0.5", "--stop", "6k", "--stop-atten", "50", "--family", "chebyshev1"];
+  const run = (extra: string[], terminal: boolean): { out: string; err: string } => {
+    const out: string[] = [];
+    const err: string[] = [];
+    runCli([...argv, ...extra], { stdout: (t) => void out.push(t), stderr: (t) => void err.push(t), readFile: () => "", readStdin: () => "", writeFile: () => undefined, stderrIsTerminal: terminal });
+    return { out: out.join(""), err: err.join("") };
+  };
+
+  it("shows one progress line rewritten in place and clears it before the summary", () => {
+    const tty = run([], true);
+    const plain = run([], false);
+    expect(tty.out).toBe(plain.out);
+    expect(plain.err).toBe("");
+    expect(tty.err).toMatch(/^\r\x1b\[2K\[\d+\.\d s\] family and order/);
+    expect(tty.err).not.toContain("\n");
+    expect(tty.err.endsWith("\r\x1b[2K")).toBe(true);
+  });
+
+  it("stays silent with --quiet and prints full lines with --progress", () => {
+    expect(run(["--quiet"], true).err).toBe("");
+    const p = run(["--progress"], true).err;
+    expect(p).not.toContain("\r");
+    expect(p.trimEnd().split("\n").length).toBeGreaterThan(2);
+  });
+});

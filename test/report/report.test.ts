@@ -107,8 +107,8 @@ describe("toSvgPlot", () => {
     const { toSvgPlot } = await import("../../src/report/index.ts");
     const mag = toSvgPlot(result);
     expect(mag.startsWith("<svg")).toBe(true);
-    expect(mag).toContain("<polyline");
-    expect((mag.match(/fill="#f4c7c3"/g) ?? []).length).toBe(2);
+    expect(mag).toMatch(/<g clip-path="url\(#fw-clip-[0-9a-f]{8}\)">/);
+    expect(mag).toContain("Magnitude (dB)");
     const gd = toSvgPlot(result, { kind: "group-delay" });
     expect(gd).toContain("group delay");
   });

@@ -6,7 +6,7 @@
  *
  * @module
  */
-import type { DesignResult } from "../design/index.ts";
+import type { DesignResult } from "./types.ts";
 
 const pc = (x: number): string => `${Number((x * 100).toPrecision(3))}`;
 
