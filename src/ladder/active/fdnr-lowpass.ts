@@ -40,7 +40,7 @@ import type { LadderPrototype } from "../types.ts";
 import { addCapacitor, addOutputAmplifier, addResistor, startBuilder, type Builder } from "./build.ts";
 import { addGicFdnr } from "./gic.ts";
 import { amplifierGain } from "./gic-highpass.ts";
-import { DC_PATH_LEVEL_OHMS, readActiveOptions, readDcPathRatio, requireLadder, type ReadOptions } from "./options.ts";
+import { DC_PATH_LEVEL_OHMS, ladderDegree, readActiveOptions, readDcPathRatio, requireLadder, type ReadOptions } from "./options.ts";
 import type { ActiveLadder, ActiveLadderOptions, ActiveLadderPart, DcPathOptions } from "./types.ts";
 
 /** Options of {@link fdnrLowpassLadder}. */
@@ -117,7 +117,7 @@ export function fdnrLowpassLadder(prototype: LadderPrototype, options: FdnrLadde
   return Object.freeze({
     method: "fdnr",
     response: "lowpass",
-    circuit: Object.freeze({ title: `FDNR lowpass ladder, order ${p.order}`, elements: Object.freeze(b.elements) }),
+    circuit: Object.freeze({ title: `FDNR lowpass ladder, order ${ladderDegree(p)}`, elements: Object.freeze(b.elements) }),
     source: "Vin",
     output: "out",
     parts: Object.freeze(b.parts),

@@ -36,7 +36,7 @@ import { lowpassToHighpass } from "../../tf/transforms.ts";
 import type { LadderPrototype } from "../types.ts";
 import { addCapacitor, addOutputAmplifier, addResistor, startBuilder, type Builder } from "./build.ts";
 import { addGicInductor } from "./gic.ts";
-import { DC_PATH_LEVEL_OHMS, DEFAULT_LEVEL_OHMS, readActiveOptions, readDcPathRatio, requireLadder, type ReadOptions } from "./options.ts";
+import { DC_PATH_LEVEL_OHMS, DEFAULT_LEVEL_OHMS, ladderDegree, readActiveOptions, readDcPathRatio, requireLadder, type ReadOptions } from "./options.ts";
 import type { ActiveLadder, ActiveLadderOptions, ActiveLadderPart, DcPathOptions } from "./types.ts";
 
 /**
@@ -159,7 +159,7 @@ export function gicHighpassLadder(prototype: LadderPrototype, options: GicHighpa
   return Object.freeze({
     method: "gic-inductor",
     response: "highpass",
-    circuit: Object.freeze({ title: `GIC highpass ladder, order ${p.order}`, elements: Object.freeze(b.elements) }),
+    circuit: Object.freeze({ title: `GIC highpass ladder, order ${ladderDegree(p)}`, elements: Object.freeze(b.elements) }),
     source: "Vin",
     output: "out",
     parts: Object.freeze(b.parts),

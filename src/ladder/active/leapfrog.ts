@@ -51,7 +51,7 @@ import { requireZpk } from "../../tf/check.ts";
 import { lowpassToLowpass } from "../../tf/transforms.ts";
 import type { LadderPrototype } from "../types.ts";
 import { addCapacitor, addOpamp, addResistor, startBuilder, type Builder } from "./build.ts";
-import { readActiveOptions, requireLadder, type ReadOptions } from "./options.ts";
+import { ladderDegree, readActiveOptions, requireLadder, type ReadOptions } from "./options.ts";
 import type { ActiveLadder, ActiveLadderOptions } from "./types.ts";
 
 /** One integrator's inputs: the node of each signal and its coefficient (normalised, rad/s). */
@@ -177,7 +177,7 @@ export function leapfrogLowpassLadder(prototype: LadderPrototype, options: Activ
   return Object.freeze({
     method: "leapfrog",
     response: "lowpass",
-    circuit: Object.freeze({ title: `leapfrog lowpass ladder, order ${p.order}`, elements: Object.freeze(b.elements) }),
+    circuit: Object.freeze({ title: `leapfrog lowpass ladder, order ${ladderDegree(p)}`, elements: Object.freeze(b.elements) }),
     source: "Vin",
     output: tap,
     parts: Object.freeze(b.parts),

@@ -164,3 +164,15 @@ export function requireLadder(fn: string, value: unknown, rule: ArmRule): Ladder
   }
   return value as LadderPrototype;
 }
+
+/**
+ * The degree of a ladder's transfer function: one pole per arm (an arm's
+ * extra element closes a capacitor loop or an inductor cut set with its
+ * neighbours, so it adds a pair of zeros and no pole).
+ *
+ * @param p - a checked ladder
+ * @returns its degree
+ */
+export function ladderDegree(p: LadderPrototype): number {
+  return p.elements.length;
+}
