@@ -12,6 +12,7 @@ import { designFilter, type DesignResult, type FilterSpec } from "../src/index.t
 import { toSvgPlot, PLOT_KINDS } from "../src/report/svg.ts";
 import { toSvgSchematic } from "../src/report/schematic.ts";
 import { textBoxes, viewBox } from "../test/helpers/svg-bounds.ts";
+// @ts-expect-error plain JavaScript module without types
 import { randomSpecs } from "../scripts/spec-corpus.mjs";
 
 const SEED = 20261203;
