@@ -85,7 +85,7 @@ function yieldSection(result: DesignResult): string[] {
  * @example
  * ```ts
  * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
- * toMarkdown(designFilter(spec)).split("\n")[0]; //=> "# Lowpass filter: legendre, 4 poles"
+ * toMarkdown(designFilter(spec)).split("\n")[0]; //=> "# Lowpass filter: elliptic, 3 poles"
  * toMarkdown(designFilter(spec), { schematics: "stage-{stage}.svg" }).includes("](stage-1.svg)"); //=> true
  * ```
  */

@@ -7,7 +7,7 @@ import { spawnSync } from "node:child_process";
 import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { bomLines, compareRealisations, designFilter, InvalidArgumentError, toBomCsv, toMarkdown, toSpiceNetlist, type FilterSpec } from "../../src/index.ts";
+import { bomLines, compareRealisations, designFilter, InvalidArgumentError, toBomCsv, toMarkdown, toSpiceNetlist, type FilterSpec, type RealisationCandidate } from "../../src/index.ts";
 import { acAnalysis } from "../../src/circuit/index.ts";
 import { requireNgspice, runAc, assertNgspice } from "../helpers/ngspice.ts";
 import { thrownBy } from "../helpers/throws.ts";
@@ -24,7 +24,7 @@ const spec: FilterSpec = {
 };
 const design = designFilter(spec);
 const comparison = compareRealisations(design, { runs: 300, seed: 4 });
-const [cascade, leapfrog, fdnr] = comparison.candidates;
+const [cascade, leapfrog, fdnr] = comparison.candidates as [RealisationCandidate, RealisationCandidate, RealisationCandidate];
 
 describe("toSpiceNetlist(result, { realisation })", () => {
   it("writes the ladder's own circuit, with the mask check on its output node", () => {
