@@ -78,7 +78,7 @@ function significant(c: Float64Array): number[] {
  * ```ts
  * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
  * const pz = designPolesZeros(designFilter(spec));
- * pz.zpk.poles.length;                  //=> 4
+ * pz.zpk.poles.length;                  //=> 3
  * pz.zpk.poles.every((p) => p.re < 0);  //=> true
  * ```
  */

@@ -53,6 +53,8 @@ export interface RealisationCandidate {
   readonly meetsTarget: boolean;
   /** Worst margin over the mask of the median board, dB. */
   readonly medianMarginDb: number;
+  /** Part tolerances the boards were built at (fractions): what the BOM of this realisation asks for. */
+  readonly tolerances: { readonly resistor: number; readonly capacitor: number };
   /** The circuit of an active ladder (absent for the cascade, whose circuit is the design itself). */
   readonly ladder?: ActiveLadder;
 }
@@ -161,7 +163,7 @@ function candidate(
   realisation: RealisationCandidate["realisation"],
   method: RealisationMethod,
   counts: { opamps: number; parts: number },
-  mc: { yield: number; runs: number; marginDb: { median: number } },
+  mc: { yield: number; runs: number; marginDb: { median: number }; tolerances: { resistor: number; capacitor: number } },
   target: number,
   ladder?: ActiveLadder,
 ): RealisationCandidate {
@@ -178,6 +180,7 @@ function candidate(
     boards: mc.runs,
     meetsTarget: lower95 >= target,
     medianMarginDb: mc.marginDb.median,
+    tolerances: { resistor: mc.tolerances.resistor, capacitor: mc.tolerances.capacitor },
     ...(ladder === undefined ? {} : { ladder }),
   };
 }

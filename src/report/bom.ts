@@ -12,6 +12,20 @@
 import { formatRkm, formatValue } from "../units/index.ts";
 import type { DesignResult } from "../design/index.ts";
 import { requireDesignResult } from "../design/check.ts";
+import { realisationOption, type RealisationChoice } from "./realisation.ts";
+import type { RealisationCandidate } from "../analysis/index.ts";
+import type { ActiveLadder } from "../ladder/active/types.ts";
+
+/** Options of {@link bomLines} and {@link toBomCsv}. */
+export interface BomOptions {
+  /**
+   * A realisation from `compareRealisations(result)`: the BOM of its board
+   * (an active ladder's parts, each at the tolerance its boards were measured
+   * at, and its op-amps) instead of the design's cascade.
+   * @defaultValue the design's own cascade
+   */
+  readonly realisation?: RealisationChoice;
+}
 
 /** One line of the bill of materials. */
 export interface BomLine {
@@ -43,6 +57,7 @@ export interface BomLine {
  * The bill of materials as data, one line per distinct part.
  *
  * @param result - a design
+ * @param options - the realisation to list (default: the design's cascade)
  * @returns lines: resistors by ascending value, then capacitors, then op-amps
  * @throws {@link InvalidArgumentError} when `result` is not a design result (the path names the first bad field)
  * @example
@@ -52,21 +67,42 @@ export interface BomLine {
  * [first.part, first.series, first.tolerance]; //=> ["resistor", "E96", "1%"]
  * ```
  */
-export function bomLines(result: DesignResult): BomLine[] {
+export function bomLines(result: DesignResult, options: BomOptions = {}): BomLine[] {
   requireDesignResult("bomLines", result);
-  const groups = new Map<string, { part: "resistor" | "capacitor"; value: number; tolerance: number; designators: string[] }>();
+  const realisation = realisationOption("bomLines", options);
+  if (realisation?.ladder !== undefined) return ladderBomLines(result, realisation);
+  const parts: PartEntry[] = [];
   for (const stage of result.stages) {
     for (const [d, v] of Object.entries(stage.components)) {
       const part = d.startsWith("C") ? "capacitor" : "resistor";
-      const tolerance = stage.tolerances[d] ?? (part === "resistor" ? result.spec.resistorTolerance : result.spec.capacitorTolerance);
-      const key = `${part}:${v}:${tolerance}`;
-      const g = groups.get(key) ?? { part, value: v, tolerance, designators: [] };
-      g.designators.push(d);
-      groups.set(key, g);
+      parts.push({ designator: d, part, value: v, tolerance: stage.tolerances[d] ?? (part === "resistor" ? result.spec.resistorTolerance : result.spec.capacitorTolerance) });
     }
   }
+  const lines = partLines(result, parts);
+  const opamps = result.stages.flatMap((s) => s.opamps);
+  if (opamps.length > 0) lines.push(opampLine(result, opamps, Math.max(...result.stages.map((s) => s.gbwDemandHz))));
+  return lines;
+}
+
+/** One resistor or capacitor of a board, before grouping. */
+export interface PartEntry {
+  readonly designator: string;
+  readonly part: "resistor" | "capacitor";
+  readonly value: number;
+  readonly tolerance: number;
+}
+
+/** Parts grouped by kind, value and tolerance: resistors by ascending value, then capacitors. */
+export function partLines(result: DesignResult, parts: readonly PartEntry[]): BomLine[] {
+  const groups = new Map<string, { part: "resistor" | "capacitor"; value: number; tolerance: number; designators: string[] }>();
+  for (const p of parts) {
+    const key = `${p.part}:${p.value}:${p.tolerance}`;
+    const g = groups.get(key) ?? { part: p.part, value: p.value, tolerance: p.tolerance, designators: [] };
+    g.designators.push(p.designator);
+    groups.set(key, g);
+  }
   const rank = (p: string): number => (p === "resistor" ? 0 : 1);
-  const lines: BomLine[] = [...groups.values()]
+  return [...groups.values()]
     .sort((a, b) => rank(a.part) - rank(b.part) || a.value - b.value || a.tolerance - b.tolerance)
     .map((g) => {
       const series = g.part === "resistor" ? result.spec.resistorSeries : result.spec.capacitorSeries;
@@ -83,16 +119,37 @@ export function bomLines(result: DesignResult): BomLine[] {
         quantity: g.designators.length,
       };
     });
-  const opamps = result.stages.flatMap((s) => s.opamps);
-  if (opamps.length > 0) {
-    const need = Math.max(...result.stages.map((s) => s.gbwDemandHz));
-    const m = result.spec.opamp;
-    const valueText =
-      m.kind === "ideal"
-        ? `GBW >= ${formatValue(need, { digits: 3, unit: "Hz" })}`
-        : `A0 ${formatValue(m.a0, { digits: 3 })}, GBW ${formatValue(m.gbwHz, { digits: 3, unit: "Hz" })}`;
-    lines.push({ designators: opamps, part: "op-amp", value: 0, valueText, rkm: "", series: "", tolerance: "", dielectric: "", quantity: opamps.length });
-  }
+}
+
+/** The op-amps' line: the spec's model, or with an ideal model the gain-bandwidth the board needs. */
+export function opampLine(result: DesignResult, designators: readonly string[], needHz: number): BomLine {
+  const m = result.spec.opamp;
+  const valueText =
+    m.kind === "ideal"
+      ? needHz > 0
+        ? `GBW >= ${formatValue(needHz, { digits: 3, unit: "Hz" })}`
+        : "ideal in the design: choose the op-amp by the realisation's GBW needs"
+      : `A0 ${formatValue(m.a0, { digits: 3 })}, GBW ${formatValue(m.gbwHz, { digits: 3, unit: "Hz" })}`;
+  return { designators: [...designators], part: "op-amp", value: 0, valueText, rkm: "", series: "", tolerance: "", dielectric: "", quantity: designators.length };
+}
+
+/**
+ * The BOM of an active ladder: its resistors and capacitors at the
+ * tolerances its boards were measured at, in the spec's series, and its
+ * op-amps.
+ *
+ * @param result - the design the ladder realises
+ * @param c - the candidate (with its ladder)
+ * @returns the lines
+ */
+export function ladderBomLines(result: DesignResult, c: RealisationCandidate): BomLine[] {
+  const l = c.ladder as ActiveLadder;
+  const lines = partLines(
+    result,
+    l.parts.map((p) => ({ designator: p.name, part: p.kind, value: p.value, tolerance: p.kind === "resistor" ? c.tolerances.resistor : c.tolerances.capacitor })),
+  );
+  const opamps = l.circuit.elements.filter((e) => e.kind === "OA").map((e) => e.name);
+  if (opamps.length > 0) lines.push(opampLine(result, opamps, 0));
   return lines;
 }
 
@@ -105,6 +162,7 @@ function csvField(x: string): string {
  * `designators,part,value,rkm,series,tolerance,quantity`.
  *
  * @param result - a design
+ * @param options - the realisation to list (default: the design's cascade)
  * @returns CSV text (CRLF line ends, UTF-8; values use Ω and µ)
  * @throws {@link InvalidArgumentError} when `result` is not a design result (the path names the first bad field)
  * @example
@@ -114,10 +172,10 @@ function csvField(x: string): string {
  * //=> "designators,part,value,rkm,series,tolerance,dielectric,quantity"
  * ```
  */
-export function toBomCsv(result: DesignResult): string {
+export function toBomCsv(result: DesignResult, options: BomOptions = {}): string {
   requireDesignResult("toBomCsv", result);
   const rows = [["designators", "part", "value", "rkm", "series", "tolerance", "dielectric", "quantity"]];
-  for (const l of bomLines(result)) {
+  for (const l of bomLines(result, options)) {
     rows.push([l.designators.join(", "), l.part, l.valueText, l.rkm, l.series, l.tolerance, l.dielectric, String(l.quantity)]);
   }
   return `${rows.map((r) => r.map(csvField).join(",")).join("\r\n")}\r\n`;

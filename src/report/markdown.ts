@@ -5,6 +5,8 @@
  *
  * @module
  */
+import { realisationLines, requireComparison } from "./realisation.ts";
+import type { RealisationComparison } from "../analysis/index.ts";
 import { formatValue } from "../units/index.ts";
 import type { DesignResult } from "../design/index.ts";
 import { bomLines } from "./bom.ts";
@@ -27,6 +29,12 @@ export interface MarkdownOptions {
    * @defaultValue "none"
    */
   readonly schematics?: MarkdownSchematics;
+  /**
+   * A comparison from `compareRealisations(result)`: a section with every
+   * realisation's op-amps and yield on the same boards, and the choice.
+   * @defaultValue no such section
+   */
+  readonly realisations?: RealisationComparison;
 }
 
 const f3 = (x: number): string => hertz(x);
@@ -77,13 +85,15 @@ function yieldSection(result: DesignResult): string[] {
  * @example
  * ```ts
  * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };
- * toMarkdown(designFilter(spec)).split("\n")[0]; //=> "# Lowpass filter: legendre, 4 poles"
+ * toMarkdown(designFilter(spec)).split("\n")[0]; //=> "# Lowpass filter: elliptic, 3 poles"
  * toMarkdown(designFilter(spec), { schematics: "stage-{stage}.svg" }).includes("](stage-1.svg)"); //=> true
  * ```
  */
 export function toMarkdown(result: DesignResult, options?: MarkdownOptions): string {
   requireDesignResult("toMarkdown", result);
-  const schematics = requireSchematics("toMarkdown", requireOptions("toMarkdown", "options", options)["schematics"]);
+  const o = requireOptions("toMarkdown", "options", options);
+  const schematics = requireSchematics("toMarkdown", o["schematics"]);
+  const realisations = requireComparison("toMarkdown", o["realisations"]);
   const s = result.spec;
   const v = result.verification;
   const L: string[] = [];
@@ -160,6 +170,7 @@ export function toMarkdown(result: DesignResult, options?: MarkdownOptions): str
   L.push(`| stability | ${v.stable ? "every stage stable" : `stage ${v.unstableStages.join(", ")} unstable`} | all poles in the left half-plane | ${v.stable ? "ok" : "not met"} |`, "");
   L.push(`Op-amp model used: ${v.opamp.kind === "ideal" ? "ideal" : `single pole, A0 ${n4(v.opamp.a0)}, GBW ${f3(v.opamp.gbwHz)}`}. Worst margin of the exact (unrounded) design: ${dB(v.idealMarginDb)}.`, "");
   L.push(...yieldSection(result));
+  if (realisations !== undefined) L.push(...realisationLines(realisations));
   L.push(...headroomLines(result));
   L.push("## What each op-amp must do", "");
   L.push("For a 1 V peak sinusoid at the input, anywhere in the plotted span:", "");

@@ -2,9 +2,10 @@
  * Schematics of a design's stages as SVG 1.1, drawn from each stage's own
  * element list (the topology's parts with the design's preferred values),
  * with the designators of the BOM and the values in engineering notation.
- * Sallen-Key and multiple-feedback stages are drawn as they usually are
- * (per-topology templates); every other topology by a generic layout with
- * one line per node (src/report/schematic/generic.ts). Whatever draws a
+ * Sallen-Key, multiple-feedback and the three-amplifier state-variable and
+ * Tow-Thomas stages are drawn as they usually are (per-topology templates,
+ * src/report/schematic/templates/); every other topology by a generic
+ * layout with one line per node (src/report/schematic/generic.ts). Whatever draws a
  * stage, the drawing is checked net by net against the element list before
  * it is used (src/report/schematic/connectivity.ts).
  *

@@ -32,13 +32,14 @@ function extremeOf(target: string, names: readonly string[], sign: ">" | "<"): s
 }
 
 /**
- * The `.control` block of the mask check, for the output node `out`.
+ * The `.control` block of the mask check.
  *
  * @param result - the design
  * @param sweepHz - the `.ac` sweep's start and stop, Hz
+ * @param node - the output node
  * @returns the lines, from `.control` to `.endc` (empty when no band lies in the sweep)
  */
-export function maskCheckCards(result: DesignResult, sweepHz: readonly [number, number]): string[] {
+export function maskCheckCards(result: DesignResult, sweepHz: readonly [number, number], node = "out"): string[] {
   const bands = maskBands(result.spec);
   const pass = clip(bands.pass, sweepHz[0], sweepHz[1]);
   const stop = clip(bands.stop, sweepHz[0], sweepHz[1]);
@@ -46,10 +47,10 @@ export function maskCheckCards(result: DesignResult, sweepHz: readonly [number, 
   const f = spiceNumber;
   const lines = [".control", "run"];
   pass.forEach(([a, b], i) => {
-    lines.push(`meas ac fw_pass${i + 1}_max max vdb(out) from=${f(a)} to=${f(b)}`);
-    lines.push(`meas ac fw_pass${i + 1}_min min vdb(out) from=${f(a)} to=${f(b)}`);
+    lines.push(`meas ac fw_pass${i + 1}_max max vdb(${node}) from=${f(a)} to=${f(b)}`);
+    lines.push(`meas ac fw_pass${i + 1}_min min vdb(${node}) from=${f(a)} to=${f(b)}`);
   });
-  stop.forEach(([a, b], i) => lines.push(`meas ac fw_stop${i + 1}_max max vdb(out) from=${f(a)} to=${f(b)}`));
+  stop.forEach(([a, b], i) => lines.push(`meas ac fw_stop${i + 1}_max max vdb(${node}) from=${f(a)} to=${f(b)}`));
   lines.push(...extremeOf("fw_pass_max", pass.map((_, i) => `fw_pass${i + 1}_max`), ">"));
   lines.push(...extremeOf("fw_pass_min", pass.map((_, i) => `fw_pass${i + 1}_min`), "<"));
   lines.push("let fw_passband_loss_db = fw_pass_max - fw_pass_min");

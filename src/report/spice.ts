@@ -10,6 +10,7 @@ import { requireDesignResult } from "../design/check.ts";
 import { requireOptions } from "../validate.ts";
 import { InvalidArgumentError } from "../errors.ts";
 import { maskCheckCards } from "./spice-measure.ts";
+import { ladderComments, realisationOption, type RealisationChoice } from "./realisation.ts";
 
 /** Options of {@link toSpiceNetlist}. */
 export interface SpiceNetlistOptions {
@@ -50,6 +51,14 @@ export interface SpiceNetlistOptions {
    * @defaultValue true
    */
   readonly measure?: boolean;
+  /**
+   * A realisation from `compareRealisations(result)`: the netlist of its
+   * circuit (an active ladder as built, with the op-amp model it was built
+   * with; `opamp` does not apply) instead of the design's cascade. The mask
+   * check then reads the ladder's output node.
+   * @defaultValue the design's own cascade
+   */
+  readonly realisation?: RealisationChoice;
 }
 
 /**
@@ -79,6 +88,18 @@ export function toSpiceNetlist(result: DesignResult, options: SpiceNetlistOption
     throw new InvalidArgumentError({ fn, path: "options.measure", received: options.measure, message: "expected true (write the mask check) or false" });
   }
   const [lo, hi] = responseSpanHz(result.spec);
+  const ac = { pointsPerDecade: options.pointsPerDecade ?? 50, startHz: options.startHz ?? lo, stopHz: options.stopHz ?? hi };
+  const sub = options.opampSubcircuit === undefined ? {} : { opampSubcircuit: options.opampSubcircuit };
+  const realisation = realisationOption(fn, options);
+  if (realisation?.ladder !== undefined) {
+    const l = realisation.ladder;
+    return circuitToSpice(l.circuit, {
+      ac,
+      comments: ladderComments(result, realisation),
+      ...sub,
+      cards: [`.print ac vdb(${l.output}) vp(${l.output})`, ...(options.measure === false ? [] : maskCheckCards(result, [ac.startHz, ac.stopHz], l.output))],
+    });
+  }
   const circuit = designCircuit(result, options.opamp === undefined ? {} : { opamp: options.opamp });
   const v = result.verification;
   const comments = [
@@ -87,11 +108,10 @@ export function toSpiceNetlist(result: DesignResult, options: SpiceNetlistOption
     "input node: in (driven by Vin, AC 1 V); output node: out",
     ...result.stages.map((s) => `stage ${s.index}: ${s.topologyName} (${s.topology}), ${Object.keys(s.components).join(" ")} ${s.opamps.join(" ")}`),
   ];
-  const ac = { pointsPerDecade: options.pointsPerDecade ?? 50, startHz: options.startHz ?? lo, stopHz: options.stopHz ?? hi };
   return circuitToSpice(circuit, {
     ac,
     comments,
-    ...(options.opampSubcircuit === undefined ? {} : { opampSubcircuit: options.opampSubcircuit }),
+    ...sub,
     cards: [".print ac vdb(out) vp(out)", ...(options.measure === false ? [] : maskCheckCards(result, [ac.startHz, ac.stopHz]))],
   });
 }

@@ -7,7 +7,8 @@
  * @module
  */
 import type { DesignResult } from "../../design/index.ts";
-import { noiseAnalysis } from "../../analysis/noise.ts";
+import { noiseAnalysis, type NoiseAnalysisResult } from "../../analysis/noise.ts";
+import { InvalidArgumentError } from "../../errors.ts";
 import { formatValue } from "../../units/index.ts";
 import { drawing, line } from "./draw.ts";
 import type { LegendEntry } from "./legend.ts";
@@ -22,7 +23,16 @@ import type { PlotSettings } from "./settings.ts";
  * @returns SVG text
  */
 export function noisePlot(result: DesignResult, o: PlotSettings): string {
-  const n = noiseAnalysis(result, { ...o.noise, bandHz: [o.startHz, o.stopHz], points: 400 });
+  let n: NoiseAnalysisResult;
+  try {
+    n = noiseAnalysis(result, { ...o.noise, bandHz: [o.startHz, o.stopHz], points: 400 });
+  } catch (e) {
+    // an option of the caller's noise options: name it where the caller wrote it
+    if (e instanceof InvalidArgumentError && e.fn === "noiseAnalysis" && e.path.startsWith("options.")) {
+      throw new InvalidArgumentError({ fn: "toSvgPlot", path: `options.noise.${e.path.slice("options.".length)}`, received: e.received, message: e.reason });
+    }
+    throw e;
+  }
   const top = n.topContributors.slice(0, 4).filter((c) => c.powerFraction > 0);
   const curves = [n.outputDensity, ...top.map((c) => n.contributions[c.name] as Float64Array)];
   let hi = 0;

@@ -14,6 +14,8 @@ import { sheetLabelBoxes } from "./render.ts";
 import { GRID, opampPins, type Point, type Sheet } from "./sheet.ts";
 import { multipleFeedbackSheet } from "./templates/multiple-feedback.ts";
 import { sallenKeySheet } from "./templates/sallen-key.ts";
+import { stateVariableSheet } from "./templates/state-variable.ts";
+import { towThomasSheet } from "./templates/tow-thomas.ts";
 
 /** A template: the topology ids it draws and the drawing (null when the elements are not of its shape). */
 export interface SchematicTemplate {
@@ -30,6 +32,8 @@ export const SCHEMATIC_TEMPLATES: readonly SchematicTemplate[] = [
     sheet: sallenKeySheet,
   },
   { ids: ["mfb-lowpass", "mfb-highpass", "mfb-bandpass", "mfb-bandpass-attenuated"], sheet: multipleFeedbackSheet },
+  { ids: ["state-variable-lowpass", "state-variable-highpass", "state-variable-bandpass"], sheet: stateVariableSheet },
+  { ids: ["tow-thomas-lowpass", "tow-thomas-bandpass"], sheet: towThomasSheet },
 ];
 
 /** How a stage was laid out. */

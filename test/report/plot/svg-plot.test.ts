@@ -100,6 +100,7 @@ describe("toSvgPlot: every kind for a lowpass, a bandstop with a notch and a ban
     expect(path({ envelope: { freqHz: [1, 2] } })).toBe("options.envelope.freqHz");
     expect(path({ durationS: 0 })).toBe("options.durationS");
     expect(path({ title: 5 })).toBe("options.title");
+    expect(path({ kind: "noise", noise: { temperatureK: -3 } })).toBe("options.noise.temperatureK");
     expect(thrownBy(() => toSvgPlot({} as never), InvalidArgumentError).fn).toBe("toSvgPlot");
   });
 });
