@@ -34,7 +34,6 @@
  *
  * @module
  */
-import { requireZpk } from "../../tf/check.ts";
 import { lowpassToLowpass } from "../../tf/transforms.ts";
 import type { LadderPrototype } from "../types.ts";
 import { addCapacitor, addOutputAmplifier, addResistor, startBuilder, type Builder } from "./build.ts";
@@ -98,7 +97,7 @@ function placeArms(b: Builder, p: LadderPrototype, km: number, o: ReadOptions): 
 export function fdnrLowpassLadder(prototype: LadderPrototype, options: FdnrLadderOptions): ActiveLadder {
   const fn = "fdnrLowpassLadder";
   const p = requireLadder(fn, prototype, "grounded-capacitors");
-  const transfer = requireZpk(fn, "prototype.transfer", p.transfer);
+  const transfer = p.transfer;
   const o = readActiveOptions(fn, options, DC_PATH_LEVEL_OHMS);
   const ratio = readDcPathRatio(fn, options);
   const gain = amplifierGain(fn, p, o.gain);

@@ -31,7 +31,6 @@
  * @module
  */
 import { UnrealisableError } from "../../errors.ts";
-import { requireZpk } from "../../tf/check.ts";
 import { lowpassToHighpass } from "../../tf/transforms.ts";
 import type { LadderPrototype } from "../types.ts";
 import { addCapacitor, addOutputAmplifier, addResistor, startBuilder, type Builder } from "./build.ts";
@@ -139,7 +138,7 @@ function placeDcPaths(b: Builder, series: readonly SeriesArm[], last: string, ra
 export function gicHighpassLadder(prototype: LadderPrototype, options: GicHighpassOptions): ActiveLadder {
   const fn = "gicHighpassLadder";
   const p = requireLadder(fn, prototype, "grounded-capacitors");
-  const transfer = requireZpk(fn, "prototype.transfer", p.transfer);
+  const transfer = p.transfer;
   // a ladder with finite zeros needs DC path resistors dcPathRatio times above its level: a lower level
   const resonators = p.elements.some((e) => e.seriesL !== undefined);
   const o = readActiveOptions(fn, options, resonators ? DC_PATH_LEVEL_OHMS : DEFAULT_LEVEL_OHMS);

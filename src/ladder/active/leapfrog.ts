@@ -47,7 +47,6 @@
  * @module
  */
 import { UnrealisableError } from "../../errors.ts";
-import { requireZpk } from "../../tf/check.ts";
 import { lowpassToLowpass } from "../../tf/transforms.ts";
 import type { LadderPrototype } from "../types.ts";
 import { addCapacitor, addOpamp, addResistor, startBuilder, type Builder } from "./build.ts";
@@ -147,7 +146,7 @@ export function leapfrogLowpassLadder(prototype: LadderPrototype, options: Activ
       throw new UnrealisableError({ fn, path: `prototype.elements[${at}].${field}`, received: e[field], message: "an end arm with a transmission zero meets the termination, which the end integrator's loss cannot carry; use a ladder whose zeros sit in the inner arms (every usual elliptic and Chebyshev II form)" });
     }
   }
-  const transfer = requireZpk(fn, "prototype.transfer", p.transfer);
+  const transfer = p.transfer;
   const o = readActiveOptions(fn, options);
   const n = p.elements.length;
   const lastSeries = (p.elements[n - 1] as LadderPrototype["elements"][number]).kind === "series-L";

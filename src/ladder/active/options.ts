@@ -12,6 +12,7 @@ import type { OpAmpModel } from "../../circuit/types.ts";
 import { seriesTable, type SeriesName } from "../../parts/eseries.ts";
 import { isInSeries, snapToSeries } from "../../parts/snap.ts";
 import { TWO_PI } from "../../units/constants.ts";
+import { requireLadderPrototype } from "../check-prototype.ts";
 import type { LadderElement, LadderPrototype } from "../types.ts";
 import type { PartWindow } from "./types.ts";
 
@@ -117,29 +118,18 @@ function bad(fn: string, path: string, received: unknown, message: string): neve
   throw new InvalidArgumentError({ fn, path, received, message });
 }
 
-function positive(x: unknown): x is number {
-  return typeof x === "number" && Number.isFinite(x) && x > 0 && x < 1e12;
-}
-
-function checkElement(fn: string, path: string, e: unknown, rule: ArmRule): LadderElement {
-  if (e === null || typeof e !== "object") bad(fn, path, e, 'expected an arm { kind: "series-L" | "shunt-C", value }');
-  const a = e as Record<string, unknown>;
-  if (a["kind"] !== "series-L" && a["kind"] !== "shunt-C") bad(fn, `${path}.kind`, a["kind"], 'expected "series-L" or "shunt-C"');
-  if (!positive(a["value"])) bad(fn, `${path}.value`, a["value"], "expected a finite normalised element value above 0 (below 1e12)");
-  const extra = a["kind"] === "series-L" ? "parallelC" : "seriesL";
-  const wrong = a["kind"] === "series-L" ? "seriesL" : "parallelC";
-  if (a[wrong] !== undefined) bad(fn, `${path}.${wrong}`, a[wrong], `a ${String(a["kind"])} arm has no ${wrong}; leave it out`);
-  if (a[extra] !== undefined) {
-    if (!positive(a[extra])) bad(fn, `${path}.${extra}`, a[extra], "expected a finite normalised element value above 0 (below 1e12), or no field");
-    if (rule === "grounded-capacitors" && extra === "parallelC") {
-      throw new UnrealisableError({ fn, path: `${path}.parallelC`, received: a[extra], message: "a capacitor across a series inductor becomes a floating element this method cannot build with grounded GICs; use the ladder's other form (transmission zeros made by series resonators in the shunt arms)" });
-    }
+/** What a method cannot build of an arm's transmission zero. */
+function checkArm(fn: string, path: string, e: LadderElement, rule: ArmRule): void {
+  if (rule === "grounded-capacitors" && e.parallelC !== undefined) {
+    throw new UnrealisableError({ fn, path: `${path}.parallelC`, received: e.parallelC, message: "a capacitor across a series inductor becomes a floating element this method cannot build with grounded GICs; use the ladder's other form (transmission zeros made by series resonators in the shunt arms)" });
   }
-  return e as LadderElement;
 }
 
 /**
- * Check a normalised lowpass ladder prototype for a method.
+ * Check a normalised lowpass ladder prototype for a method: the shape check
+ * every ladder function runs (`requireLadderPrototype`), at most
+ * {@link MAX_LADDER_ORDER} arms, terminations from 1e-6 to 1e6 ohms, and what
+ * the method needs of the arms.
  *
  * @param fn - public function name
  * @param value - what the caller gave
@@ -149,20 +139,13 @@ function checkElement(fn: string, path: string, e: unknown, rule: ArmRule): Ladd
  * @throws {@link UnrealisableError} when the arms need what the method cannot build
  */
 export function requireLadder(fn: string, value: unknown, rule: ArmRule): LadderPrototype {
-  if (value === null || typeof value !== "object") bad(fn, "prototype", value, "expected a normalised lowpass ladder { elements, sourceOhms, loadOhms, ... }");
-  const p = value as Record<string, unknown>;
-  const els = p["elements"];
-  if (!Array.isArray(els) || els.length < 1 || els.length > MAX_LADDER_ORDER) bad(fn, "prototype.elements", els, `expected 1 to ${MAX_LADDER_ORDER} arms, in order from the source end`);
-  els.forEach((e, i) => checkElement(fn, `prototype.elements[${i}]`, e, rule));
-  for (let i = 1; i < els.length; i++) {
-    if ((els[i] as LadderElement).kind === (els[i - 1] as LadderElement).kind) {
-      bad(fn, `prototype.elements[${i}].kind`, (els[i] as LadderElement).kind, "series and shunt arms must alternate; merge two neighbouring arms of one kind into one");
-    }
-  }
+  const p = requireLadderPrototype(fn, "prototype", value);
+  if (p.elements.length > MAX_LADDER_ORDER) bad(fn, "prototype.elements", p.elements.length, `expected at most ${MAX_LADDER_ORDER} arms for an active simulation`);
   for (const key of ["sourceOhms", "loadOhms"] as const) {
-    if (!positive(p[key]) || (p[key] as number) < 1e-6 || (p[key] as number) > 1e6) bad(fn, `prototype.${key}`, p[key], "expected a normalised termination from 1e-6 to 1e6 ohms");
+    if (!(p[key] >= 1e-6 && p[key] <= 1e6)) bad(fn, `prototype.${key}`, p[key], "expected a normalised termination from 1e-6 to 1e6 ohms");
   }
-  return value as LadderPrototype;
+  p.elements.forEach((e, i) => checkArm(fn, `prototype.elements[${i}]`, e, rule));
+  return p;
 }
 
 /**

@@ -12,6 +12,7 @@ const METHODS = [
 ] as const;
 
 const third = butterworthLadder(3, "series-first");
+const [L1, L2, L3] = third.elements;
 
 describe.each(METHODS)("%s: bad options", (fn, make) => {
   const call = (options: unknown, p: unknown = third): unknown => make(p as LadderPrototype, options as never);
@@ -42,12 +43,14 @@ describe.each(METHODS)("%s: bad options", (fn, make) => {
   it.each([
     ["not an object", null, "prototype"],
     ["no arms", { ...third, elements: [] }, "prototype.elements"],
-    ["an unknown arm", { ...third, elements: [{ kind: "shunt-L", value: 1 }] }, "prototype.elements[0].kind"],
-    ["a zero value", { ...third, elements: [{ kind: "series-L", value: 0 }] }, "prototype.elements[0].value"],
-    ["a NaN value", { ...third, elements: [{ kind: "series-L", value: 1 }, { kind: "shunt-C", value: Number.NaN }] }, "prototype.elements[1].value"],
-    ["two series arms in a row", { ...third, elements: [{ kind: "series-L", value: 1 }, { kind: "series-L", value: 1 }] }, "prototype.elements[1].kind"],
-    ["a shunt arm with a parallel capacitor", { ...third, elements: [{ kind: "shunt-C", value: 1, parallelC: 1 }] }, "prototype.elements[0].parallelC"],
-    ["a negative resonator inductor", { ...third, elements: [{ kind: "shunt-C", value: 1, seriesL: -1 }] }, "prototype.elements[0].seriesL"],
+    ["an unknown arm", { ...third, elements: [{ kind: "shunt-L", value: 1 }, L2, L3] }, "prototype.elements[0].kind"],
+    ["a zero value", { ...third, elements: [{ kind: "series-L", value: 0 }, L2, L3] }, "prototype.elements[0].value"],
+    ["a NaN value", { ...third, elements: [L1, { kind: "shunt-C", value: Number.NaN }, L3] }, "prototype.elements[1].value"],
+    ["two series arms in a row", { ...third, elements: [L1, { kind: "series-L", value: 1 }, L3] }, "prototype.elements[1].kind"],
+    ["a shunt arm with a parallel capacitor", { ...third, elements: [L1, { kind: "shunt-C", value: 2, parallelC: 1 }, L3] }, "prototype.elements[1].parallelC"],
+    ["a negative resonator inductor", { ...third, elements: [L1, { kind: "shunt-C", value: 2, seriesL: -1 }, L3] }, "prototype.elements[1].seriesL"],
+    ["arms fewer than its order", { ...third, elements: [L1, L2] }, "prototype.elements"],
+    ["an order its transfer does not have", { ...third, order: 2, elements: [L1, L2] }, "prototype.transfer.poles"],
     ["a zero load", { ...third, loadOhms: 0 }, "prototype.loadOhms"],
     ["a huge source", { ...third, sourceOhms: 1e9 }, "prototype.sourceOhms"],
     ["no transfer", { ...third, transfer: undefined }, "prototype.transfer"],
