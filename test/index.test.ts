@@ -40,6 +40,7 @@ const ROOT_NAMES = [
   "toJson",
   "toMarkdown",
   "toSectionsCsv",
+  "toSectionsJson",
   "toSpiceNetlist",
   "svgFigure",
   "toSvgPlot",

@@ -25,7 +25,7 @@ import { ladderPrototype } from "../ladder/ladder-prototype.ts";
 import type { LadderPrototype } from "../ladder/types.ts";
 import { fdnrLowpassLadder, gicHighpassLadder, leapfrogLowpassLadder } from "../ladder/active/index.ts";
 import type { ActiveLadder, ActiveLadderMethod } from "../ladder/active/types.ts";
-import { monteCarlo } from "./tolerance.ts";
+import { monteCarlo, type ToleranceFractions } from "./tolerance.ts";
 import { activeLadderMonteCarlo } from "./ladder-yield.ts";
 
 /** How a candidate is built. */
@@ -54,7 +54,7 @@ export interface RealisationCandidate {
   /** Worst margin over the mask of the median board, dB. */
   readonly medianMarginDb: number;
   /** Part tolerances the boards were built at (fractions): what the BOM of this realisation asks for. */
-  readonly tolerances: { readonly resistor: number; readonly capacitor: number };
+  readonly tolerances: ToleranceFractions;
   /** The circuit of an active ladder (absent for the cascade, whose circuit is the design itself). */
   readonly ladder?: ActiveLadder;
 }
@@ -78,7 +78,7 @@ export interface RealisationComparison {
   /** Why it was chosen, in a sentence. */
   readonly reason: string;
   /** Part tolerances the boards were built at (fractions). */
-  readonly tolerances: { readonly resistor: number; readonly capacitor: number };
+  readonly tolerances: ToleranceFractions;
   /** Seed of the boards (the same for every candidate). */
   readonly seed: number;
 }

@@ -12,7 +12,7 @@
  */
 import { FilterwrightError, SpecError } from "../errors.ts";
 import { checkSpec, designFilter, type DesignResult, type FilterSpec, type Progress, type RunControl } from "../design/index.ts";
-import { toBomCsv, toCurveCsv, toJson, toMarkdown, toSectionsCsv, toSpiceNetlist, toSvgPlot } from "../report/index.ts";
+import { toBomCsv, toCurveCsv, toJson, toMarkdown, toSectionsCsv, toSectionsJson, toSpiceNetlist, toSvgPlot } from "../report/index.ts";
 import { topologies } from "../topologies/index.ts";
 import { formatValue } from "../units/index.ts";
 import { verdictLine } from "../design/verdict.ts";
@@ -170,7 +170,7 @@ const RENDER: Readonly<Record<(typeof OUTPUT_OPTIONS)[number], (r: DesignResult)
   bom: toBomCsv,
   markdown: toMarkdown,
   svg: (r) => toSvgPlot(r),
-  sections: toSectionsCsv,
+  sections: toSectionsCsv, // a path ending in .json gets toSectionsJson (writeOutputs)
   curves: (r) => toCurveCsv(r),
 };
 
@@ -180,7 +180,7 @@ function writeOutputs(r: DesignResult, o: ReadonlyMap<string, GivenOption>, io: 
   for (const k of OUTPUT_OPTIONS) {
     const path = o.get(k)?.text;
     if (path === undefined) continue;
-    const text = RENDER[k](r);
+    const text = k === "sections" && /\.json$/i.test(path) ? toSectionsJson(r) : RENDER[k](r);
     if (path === "-") {
       toStdout = text;
       continue;

@@ -188,7 +188,7 @@ function synthesisArms(target: Zpk, r: number, form: LadderForm, spec: Record<st
  * form (`variant: "type-b"`, `transfer` is that form's, with two transmission
  * zeros at infinity instead of the highest finite pair).
  *
- * @param spec - family fields as {@link prototype}, plus `form`, `sourceOhms`, `loadOhms` and `method`
+ * @param spec - family fields as `prototype` in `filterwright/approx`, plus `form`, `sourceOhms`, `loadOhms` and `method`
  * @returns the ladder, frozen
  * @throws {@link InvalidArgumentError} when a field is missing or out of range (the path names it)
  * @throws {@link UnrealisableError} when no ladder of this form has these terminations, or the

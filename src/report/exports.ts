@@ -116,6 +116,26 @@ export function toSectionsCsv(result: DesignResult): string {
   return ["stage,b0,b1,b2,a0,a1,a2", ...rows.map((r) => [r.stage, ...r.num, ...r.den].map(String).join(","))].join("\n") + "\n";
 }
 
+/**
+ * The section table as JSON: `{ "layout": "scipy analog sos", "columns": [...],
+ * "sections": [{ "stage", "sos": [b0, b1, b2, a0, a1, a2] }, ...] }`, every
+ * digit kept, so `numpy.array([s["sos"] for s in data["sections"]])` is an
+ * analog `sos` array for scipy.
+ *
+ * @param result - a design from `designFilter`
+ * @returns the JSON text (ends in a newline)
+ * @throws {@link InvalidArgumentError} when `result` is not a design result
+ * @example
+ * ```ts
+ * JSON.parse(toSectionsJson(designFilter(spec))).columns; //=> ["b0", "b1", "b2", "a0", "a1", "a2"]
+ * ```
+ */
+export function toSectionsJson(result: DesignResult): string {
+  const rows = sectionRows(result);
+  const data = { layout: "scipy analog sos", columns: ["b0", "b1", "b2", "a0", "a1", "a2"], sections: rows.map((r) => ({ stage: r.stage, sos: [...r.num, ...r.den] })) };
+  return `${JSON.stringify(data, null, 1)}\n`;
+}
+
 /** Options of {@link toCurveCsv}. */
 export interface CurveCsvOptions {
   /**

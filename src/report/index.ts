@@ -7,7 +7,8 @@
  */
 export { toSpiceNetlist, type SpiceNetlistOptions } from "./spice.ts";
 export type { OpampPin, OpampSubcircuit, OpampSupply } from "../circuit/index.ts";
-export { toBomCsv, bomLines, type BomLine } from "./bom.ts";
+export { toBomCsv, bomLines, type BomLine, type BomOptions } from "./bom.ts";
+export type { RealisationChoice } from "./realisation.ts";
 export { toJson, fromJson, DESIGN_FORMAT_VERSION, JSON_MAX_CHARS, JSON_MAX_DEPTH } from "./json.ts";
 export { svgFigure, plotFigure, type Figure, type SvgFigureOptions } from "./figure.ts";
 export type { MediaBundle, Displayable } from "../display.ts";
@@ -16,4 +17,4 @@ export type { MarkdownSchematics } from "./markdown-schematics.ts";
 export { toSvgPlot, PLOT_KINDS, type PlotKind, type SvgPlotOptions } from "./svg.ts";
 export { toSvgSchematic, type SvgSchematicOptions } from "./schematic.ts";
 export { linearTicks, logTicks, type LinearTicks, type LinearTicksOptions, type LogTicks } from "./plot/ticks.ts";
-export { sectionRows, toSectionsCsv, toCurveCsv, type SectionRow, type CurveCsvOptions } from "./exports.ts";
+export { sectionRows, toSectionsCsv, toSectionsJson, toCurveCsv, type SectionRow, type CurveCsvOptions } from "./exports.ts";

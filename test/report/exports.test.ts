@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { CURVE_POINTS, designFilter, designResponse, type DesignResult, type FilterSpec } from "../../src/design/index.ts";
-import { sectionRows, toCurveCsv, toSectionsCsv } from "../../src/report/index.ts";
+import { sectionRows, toCurveCsv, toSectionsCsv, toSectionsJson } from "../../src/report/index.ts";
 import { InvalidArgumentError } from "../../src/errors.ts";
 import { logGrid } from "../../src/tf/grid.ts";
 import { thrownBy } from "../helpers/throws.ts";
@@ -71,6 +71,17 @@ describe("sectionRows / toSectionsCsv", () => {
   });
 });
 
+describe("toSectionsJson", () => {
+  it("carries the same rows as the CSV, in scipy's analog sos layout", () => {
+    for (const [, r] of designs) {
+      const data = JSON.parse(toSectionsJson(r)) as { layout: string; columns: string[]; sections: { stage: number; sos: number[] }[] };
+      expect(data.layout).toBe("scipy analog sos");
+      expect(data.columns).toEqual(["b0", "b1", "b2", "a0", "a1", "a2"]);
+      expect(data.sections).toEqual(sectionRows(r).map((x) => ({ stage: x.stage, sos: [...x.num, ...x.den] })));
+    }
+  });
+});
+
 describe("toCurveCsv", () => {
   it("is the design's own stored curve at its points, and any span and density asked for", () => {
     const r = designs[1]![1];
@@ -106,5 +117,8 @@ describe("filterwright --sections / --curves", () => {
     expect([0, 1]).toContain(runCli(argv, io));
     expect(out.join("")).toBe(toSectionsCsv(designs[0]![1]));
     expect(files.get("c.csv")).toBe(toCurveCsv(designs[0]![1]));
+    const json = new Map<string, string>();
+    expect([0, 1]).toContain(runCli([...argv.slice(0, -4), "--sections", "sos.json"], { ...io, writeFile: (p: string, t: string) => void json.set(p, t) }));
+    expect(json.get("sos.json")).toBe(toSectionsJson(designs[0]![1]));
   });
 });
