@@ -16,7 +16,7 @@ import { toBomCsv, toCurveCsv, toJson, toMarkdown, toSectionsCsv, toSectionsJson
 import { topologies } from "../topologies/index.ts";
 import { formatValue } from "../units/index.ts";
 import { verdictLine } from "../design/verdict.ts";
-import { compareRealisations, monteCarlo, noiseAnalysis, partSensitivities } from "../analysis/index.ts";
+import { compareRealisations, monteCarlo, noiseAnalysis, partSensitivities, type RealisationCandidate, type RealisationComparison } from "../analysis/index.ts";
 import { readArgs, type GivenOption } from "./args.ts";
 import { OPTIONS, OUTPUT_OPTIONS, type OptionDef } from "./options.ts";
 import { CliProblem, CliProblems, ioReason } from "./problems.ts";
@@ -106,8 +106,16 @@ function analysis<T>(options: ReadonlyMap<string, GivenOption>, f: () => T): T {
   }
 }
 
+/** With --compare, the cascade against the active ladders on the same boards (--yield boards each, default 2000; --seed). */
+function comparisonOf(r: DesignResult, o: ReadonlyMap<string, GivenOption>): RealisationComparison | undefined {
+  if (o.get("compare")?.value !== true) return undefined;
+  const runs = o.get("yield")?.value;
+  const seed = o.get("seed")?.value;
+  return analysis(o, () => compareRealisations(r, { runs: typeof runs === "number" ? runs : 2000, ...(typeof seed === "number" ? { seed } : {}) }));
+}
+
 /** The extra report lines asked for: Monte Carlo boards, output noise, part sensitivities. */
-function extraLines(r: DesignResult, o: ReadonlyMap<string, GivenOption>, control: RunControl): string[] {
+function extraLines(r: DesignResult, o: ReadonlyMap<string, GivenOption>, control: RunControl, c: RealisationComparison | undefined): string[] {
   const extra: string[] = [];
   const runs = o.get("yield")?.value;
   if (typeof runs === "number") {
@@ -121,15 +129,14 @@ function extraLines(r: DesignResult, o: ReadonlyMap<string, GivenOption>, contro
         `worst margin ${mc.marginDb.min.toFixed(3)} dB, median ${mc.marginDb.median.toFixed(3)} dB`,
     );
   }
-  if (o.get("compare")?.value === true) {
-    const seed = o.get("seed")?.value;
-    const c = analysis(o, () => compareRealisations(r, { runs: typeof runs === "number" ? runs : 2000, ...(typeof seed === "number" ? { seed } : {}) }));
+  if (c !== undefined) {
     const pc = (x: number): string => `${(x * 100).toFixed(1)} %`;
     const rows = [["realisation", "op-amps", "R and C", "yield", "95 % interval", "median margin"]];
     for (const k of c.candidates) rows.push([k.method, String(k.opamps), String(k.parts), pc(k.yield), `${pc(k.lower95)} - ${pc(k.upper95)}`, `${k.medianMarginDb.toFixed(3)} dB`]);
     extra.push(
       `realisations on ${c.candidates[0]?.boards ?? 0} boards each at ${pc(c.tolerances.resistor)} R / ${pc(c.tolerances.capacitor)} C (seed ${c.seed}):\n${table(rows)}\n` +
-        `${c.skipped.map((k) => `${k.method}: not built (${k.reason})\n`).join("")}choice: ${c.reason}`,
+        `${c.skipped.map((k) => `${k.method}: not built (${k.reason})\n`).join("")}choice: ${c.reason}` +
+        (c.chosen === 0 ? "" : `\nthe netlist, BOM and report written are of the chosen realisation (${c.candidates[c.chosen]?.method})`),
     );
   }
   const en = o.get("noise")?.value;
@@ -164,23 +171,24 @@ function extraLines(r: DesignResult, o: ReadonlyMap<string, GivenOption>, contro
   return extra;
 }
 
-const RENDER: Readonly<Record<(typeof OUTPUT_OPTIONS)[number], (r: DesignResult) => string>> = {
+/** Each output's text; with --compare, the netlist, BOM and report are of the chosen realisation. */
+const RENDER: Readonly<Record<(typeof OUTPUT_OPTIONS)[number], (r: DesignResult, c: RealisationComparison | undefined) => string>> = {
   json: toJson,
-  netlist: (r) => toSpiceNetlist(r),
-  bom: toBomCsv,
-  markdown: toMarkdown,
+  netlist: (r, c) => toSpiceNetlist(r, c === undefined ? {} : { realisation: c.candidates[c.chosen] as RealisationCandidate }),
+  bom: (r, c) => toBomCsv(r, c === undefined ? {} : { realisation: c.candidates[c.chosen] as RealisationCandidate }),
+  markdown: (r, c) => toMarkdown(r, c === undefined ? {} : { realisations: c }),
   svg: (r) => toSvgPlot(r),
   sections: toSectionsCsv, // a path ending in .json gets toSectionsJson (writeOutputs)
   curves: (r) => toCurveCsv(r),
 };
 
 /** Write the files asked for; returns the text bound for standard output (at most one output asks for it). */
-function writeOutputs(r: DesignResult, o: ReadonlyMap<string, GivenOption>, io: CliIo): string | undefined {
+function writeOutputs(r: DesignResult, o: ReadonlyMap<string, GivenOption>, io: CliIo, c: RealisationComparison | undefined): string | undefined {
   let toStdout: string | undefined;
   for (const k of OUTPUT_OPTIONS) {
     const path = o.get(k)?.text;
     if (path === undefined) continue;
-    const text = k === "sections" && /\.json$/i.test(path) ? toSectionsJson(r) : RENDER[k](r);
+    const text = k === "sections" && /\.json$/i.test(path) ? toSectionsJson(r) : RENDER[k](r, c);
     if (path === "-") {
       toStdout = text;
       continue;
@@ -271,13 +279,15 @@ function design(start: Start, o: ReadonlyMap<string, GivenOption>, earlier: Earl
   const control = progressOf(o, io);
   let r: DesignResult;
   let extra: string[];
+  let comparison: RealisationComparison | undefined;
   try {
     r = designOrExplain(merged.spec, { name: sourceName, base, options: o }, earlier, control);
-    extra = extraLines(r, o, control);
+    comparison = comparisonOf(r, o);
+    extra = extraLines(r, o, control, comparison);
   } finally {
     endProgress(o, io);
   }
-  const toStdout = writeOutputs(r, o, io);
+  const toStdout = writeOutputs(r, o, io, comparison);
   // With an output on standard output, the summary goes to standard error so the output can be piped.
   const say = toStdout === undefined ? io.stdout : io.stderr;
   if (start.heading !== "") say(start.heading);

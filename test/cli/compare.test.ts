@@ -12,4 +12,21 @@ describe("filterwright design --compare", () => {
     for (const m of ["biquad-cascade", "leapfrog", "fdnr"]) expect(text).toMatch(new RegExp(`^${m}\\s+\\d+\\s+\\d+\\s+\\d+\\.\\d %`, "m"));
     expect(text).toMatch(/^choice: the (biquad cascade|leapfrog active ladder|fdnr active ladder): /m);
   });
+
+  it("writes the chosen realisation's netlist and BOM, and the comparison into the report", () => {
+    const files = new Map<string, string>();
+    const io: CliIo = { stdout: () => undefined, stderr: () => undefined, readFile: () => "", readStdin: () => "", writeFile: (p, t) => void files.set(p, t) };
+    const argv = ["design", "--response", "lowpass", "--pass", "18k", "--pass-loss", "0.25", "--stop", "26k", "--stop-atten", "33", "--family", "chebyshev1", "--order", "7", "--yield", "300", "--netlist", "f.cir", "--bom", "f.csv", "--markdown", "f.md"];
+    runCli([...argv, "--compare"], io);
+    const chosen = files.get("f.md")?.match(/\| \*\*([a-z-]+)\*\* \|/)?.[1];
+    expect(files.get("f.md")).toContain("## Realisations compared");
+    // at 1 % R / 5 % C no realisation reaches 95 %: the leapfrog ladder comes closest (about 25 % against 0.4 % for the cascade)
+    expect(chosen).toBe("leapfrog");
+    expect(files.get("f.cir")).toContain("as an active ladder (leapfrog");
+    expect(files.get("f.csv")?.split("\r\n").some((l) => l.startsWith('"R') && l.includes(",resistor,"))).toBe(true);
+    const plain = new Map<string, string>();
+    runCli(argv, { ...io, writeFile: (p, t) => void plain.set(p, t) });
+    expect(plain.get("f.md")).not.toContain("## Realisations compared");
+    expect(plain.get("f.cir")).not.toContain("as an active ladder");
+  });
 });
