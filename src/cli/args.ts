@@ -189,6 +189,7 @@ function checkCombinations(options: ReadonlyMap<string, GivenOption>, problems: 
   const needs: [string, string, string][] = [
     ["seed", "yield", "--seed sets the boards of --yield; add e.g. --yield 500"],
     ["noise-in", "noise", "--noise-in needs --noise as well (the op-amp's voltage noise, e.g. --noise 8n, or --noise 0)"],
+    ["plot", "svg", "--plot chooses what --svg draws; add e.g. --svg response.svg"],
   ];
   for (const [a, b, line] of needs) if (options.has(a) && !options.has(b)) problems.push(line);
   const byPlace = new Map<string, string>();

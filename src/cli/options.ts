@@ -6,6 +6,7 @@
  *
  * @module
  */
+import { PLOT_KINDS } from "../report/svg.ts";
 import { FAMILY_NAMES } from "../approx/index.ts";
 import { MAX_SPEC_ORDER, type FamilyPriority, type Polarity, type ResponseType } from "../design/index.ts";
 import type { PartDistribution } from "../design/spec.ts";
@@ -112,7 +113,8 @@ export const OPTIONS: readonly OptionDef[] = [
   { name: "netlist", kind: "path", placeholder: "FILE", what: "a file path, or - for standard output", example: "filter.cir", help: "the SPICE netlist", commands: DESIGNING, section: "output" },
   { name: "bom", kind: "path", placeholder: "FILE", what: "a file path, or - for standard output", example: "bom.csv", help: "the bill of materials (CSV)", commands: DESIGNING, section: "output" },
   { name: "markdown", kind: "path", placeholder: "FILE", what: "a file path, or - for standard output", example: "design.md", help: "the design summary (Markdown)", commands: DESIGNING, section: "output" },
-  { name: "svg", kind: "path", placeholder: "FILE", what: "a file path, or - for standard output", example: "response.svg", help: "the magnitude and the mask (SVG)", commands: DESIGNING, section: "output" },
+  { name: "svg", kind: "path", placeholder: "FILE", what: "a file path, or - for standard output", example: "response.svg", help: "a plot (SVG): the magnitude and the mask unless --plot names another kind", commands: DESIGNING, section: "output" },
+  { name: "plot", kind: "enum", placeholder: "KIND", what: "a plot kind", example: "phase", help: `what --svg draws: ${PLOT_KINDS.join(" | ")} (default magnitude)`, commands: DESIGNING, values: () => [...PLOT_KINDS], section: "output" },
   { name: "sections", kind: "path", placeholder: "FILE", what: "a file path, or - for standard output", example: "sos.csv", help: "the as-built second-order sections, scipy's analog sos rows (CSV; JSON when FILE ends in .json)", commands: DESIGNING, section: "output" },
   { name: "curves", kind: "path", placeholder: "FILE", what: "a file path, or - for standard output", example: "curves.csv", help: "magnitude, phase and group delay (CSV, 1000 points)", commands: DESIGNING, section: "output" },
   { name: "sensitivity", kind: "none", placeholder: "", what: "", example: "", help: "list each part's sensitivities (S^f0, S^Q, S^gain)", commands: DESIGNING, section: "output" },

@@ -12,7 +12,7 @@
  */
 import { FilterwrightError, SpecError } from "../errors.ts";
 import { checkSpec, designFilter, type DesignResult, type FilterSpec, type Progress, type RunControl } from "../design/index.ts";
-import { toBomCsv, toCurveCsv, toJson, toMarkdown, toSectionsCsv, toSectionsJson, toSpiceNetlist, toSvgPlot } from "../report/index.ts";
+import { toBomCsv, toCurveCsv, toJson, toMarkdown, toSectionsCsv, toSectionsJson, toSpiceNetlist, toSvgPlot, PLOT_KINDS, type PlotKind } from "../report/index.ts";
 import { topologies } from "../topologies/index.ts";
 import { formatValue } from "../units/index.ts";
 import { verdictLine } from "../design/verdict.ts";
@@ -182,13 +182,25 @@ const RENDER: Readonly<Record<(typeof OUTPUT_OPTIONS)[number], (r: DesignResult,
   curves: (r) => toCurveCsv(r),
 };
 
+/** The --plot kind, checked (undefined when not given). */
+function plotKindOf(o: ReadonlyMap<string, GivenOption>): PlotKind | undefined {
+  const given = o.get("plot")?.text;
+  if (given === undefined) return undefined;
+  if (!(PLOT_KINDS as readonly string[]).includes(given)) {
+    throw new CliProblem(`--plot ${quoted(given)}: no such plot kind${didYouMean(given, PLOT_KINDS)} (kinds: ${PLOT_KINDS.join(", ")})`);
+  }
+  return given as PlotKind;
+}
+
 /** Write the files asked for; returns the text bound for standard output (at most one output asks for it). */
 function writeOutputs(r: DesignResult, o: ReadonlyMap<string, GivenOption>, io: CliIo, c: RealisationComparison | undefined): string | undefined {
   let toStdout: string | undefined;
   for (const k of OUTPUT_OPTIONS) {
     const path = o.get(k)?.text;
     if (path === undefined) continue;
-    const text = k === "sections" && /\.json$/i.test(path) ? toSectionsJson(r) : RENDER[k](r, c);
+    const kind = plotKindOf(o);
+    const text =
+      k === "sections" && /\.json$/i.test(path) ? toSectionsJson(r) : k === "svg" && kind !== undefined ? toSvgPlot(r, { kind }) : RENDER[k](r, c);
     if (path === "-") {
       toStdout = text;
       continue;
@@ -276,6 +288,7 @@ function design(start: Start, o: ReadonlyMap<string, GivenOption>, earlier: Earl
   const { base, sourceName } = start;
   const merged = specFromOptions(base, o);
   if (merged.problems.length > 0) throw new CliProblems([...earlier.lines, ...merged.problems]);
+  plotKindOf(o); // a misspelt --plot is refused before the design runs
   const control = progressOf(o, io);
   let r: DesignResult;
   let extra: string[];

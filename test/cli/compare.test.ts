@@ -30,3 +30,19 @@ describe("filterwright design --compare", () => {
     expect(plain.get("f.cir")).not.toContain("as an active ladder");
   });
 });
+
+describe("filterwright design --svg --plot", () => {
+  it("draws the kind asked for, and refuses --plot without --svg or with an unknown kind", () => {
+    const files = new Map<string, string>();
+    const err: string[] = [];
+    const io: CliIo = { stdout: () => undefined, stderr: (t) => void err.push(t), readFile: () => "", readStdin: () => "", writeFile: (p, t) => void files.set(p, t) };
+    const argv = ["design", "--response", "lowpass", "--pass", "2k", "--pass-loss", "0.5", "--stop", "8k", "--stop-atten", "50"];
+    expect([0, 1]).toContain(runCli([...argv, "--svg", "p.svg", "--plot", "phase"], io));
+    expect(files.get("p.svg")).toMatch(/^<svg/);
+    expect(files.get("p.svg")).toContain("Phase");
+    expect(runCli([...argv, "--plot", "phase"], io)).toBe(2);
+    expect(err.join("")).toContain("--plot chooses what --svg draws");
+    expect(runCli([...argv, "--svg", "p.svg", "--plot", "phsae"], io)).toBe(2);
+    expect(err.join("")).toContain("did you mean");
+  });
+});
