@@ -70,6 +70,26 @@ describe.skipIf(!requireChromium())("live page", () => {
     expect(page.problems).toEqual([]);
   });
 
+  it("compares a sharp lowpass's cascade with its active ladders and offers the chosen board's netlist", async () => {
+    const page = browser.page;
+    // The sonar receiver's anti-alias lowpass of examples/notebooks (our own scenario), left to the automatic family.
+    await page.evaluate(`${fill({ response: "lowpass", passEdge: "18k", maxLossDb: "0.25", stopEdge: "26k", minAttenuationDb: "33", gbwHz: "ideal", yieldPercent: "50" })} document.querySelector('[name="compare"]').checked = true; document.getElementById("design").click(); true`);
+    await page.waitFor(`["done", "error"].includes(document.body.dataset.state)`, 120_000);
+    expect(await page.evaluate<string>(`document.body.dataset.state`)).toBe("done");
+    const methods = await page.evaluate<string[]>(`[...document.querySelectorAll("#realisations tbody tr td:first-child")].map((td) => td.textContent)`);
+    expect(methods[0]).toBe("biquad-cascade");
+    expect(methods.length).toBeGreaterThanOrEqual(2);
+    expect(await page.evaluate<number>(`document.querySelectorAll("#realisations tr.chosen").length`)).toBe(1);
+    const reason = await page.evaluate<string>(`document.querySelector("#realisations p").textContent`);
+    expect(reason).toMatch(/^Choice: the /);
+    const chosen = await page.evaluate<string>(`document.querySelector("#realisations tr.chosen td").textContent`);
+    const netlist = await page.evaluate<string>(`fetch(document.querySelector('#downloads a[download="filter.cir"]').href).then((r) => r.text())`);
+    if (chosen === "biquad-cascade") expect(netlist).not.toContain("as an active ladder");
+    else expect(netlist).toContain(`as an active ladder (${chosen}`);
+    await page.evaluate(`document.querySelector('[name="compare"]').checked = false; true`);
+    expect(page.problems).toEqual([]);
+  });
+
   it("names the bad field when the form holds an impossible value", async () => {
     const page = browser.page;
     await page.evaluate(`${fill({ response: "lowpass", passEdge: "-2k", stopEdge: "8k" })} document.getElementById("design").click(); true`);

@@ -56,11 +56,37 @@ function download(name, text) {
   return a;
 }
 
+/** The comparison table (built from text, no HTML from the worker). */
+function showComparison(c) {
+  const box = document.getElementById("realisations");
+  box.hidden = c === null;
+  if (c === null) return;
+  const pc = (x) => `${(100 * x).toFixed(1)} %`;
+  const table = document.createElement("table");
+  const head = table.createTHead().insertRow();
+  for (const h of ["realisation", "op-amps", "resistors and capacitors", "yield", "95 % interval"]) head.insertCell().outerHTML = `<th>${h}</th>`;
+  const body = table.createTBody();
+  for (const r of c.rows) {
+    const tr = body.insertRow();
+    if (r.chosen) tr.className = "chosen";
+    for (const cell of [r.method, String(r.opamps), String(r.parts), pc(r.yield), `${pc(r.lower95)} – ${pc(r.upper95)}`]) tr.insertCell().textContent = cell;
+  }
+  const reason = document.createElement("p");
+  reason.textContent = `Choice: ${c.reason}${c.rows.findIndex((r) => r.chosen) > 0 ? " The netlist and BOM below are of this realisation." : ""}`;
+  const skipped = c.skipped.map((t) => {
+    const p = document.createElement("p");
+    p.textContent = `Not built: ${t}`;
+    return p;
+  });
+  box.replaceChildren(table, reason, ...skipped);
+}
+
 function show(msg) {
   for (const u of urls.splice(0)) URL.revokeObjectURL(u);
   document.getElementById("summary").innerHTML = msg.html;
   document.getElementById("plot-magnitude").innerHTML = msg.magnitude;
   document.getElementById("plot-delay").innerHTML = msg.delay;
+  showComparison(msg.comparison);
   const links = document.getElementById("downloads");
   links.replaceChildren("Downloads: ", ...Object.entries(msg.files).map(([n, t]) => download(n, t)));
   resultBox.hidden = false;
@@ -103,7 +129,7 @@ form.addEventListener("submit", (event) => {
   status.textContent = "designing…";
   cancel.disabled = false;
   designButton.disabled = true;
-  worker.postMessage({ id, spec: specFromForm() });
+  worker.postMessage({ id, spec: specFromForm(), compare: form.elements.namedItem("compare").checked });
 });
 
 cancel.addEventListener("click", () => {
