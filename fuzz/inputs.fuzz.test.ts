@@ -19,35 +19,14 @@ import { frequencyResponse, toSections } from "../src/tf/index.ts";
 import { topologies } from "../src/topologies/registry.ts";
 import { hasNgspice, runAc } from "../test/helpers/ngspice.ts";
 import { firstNonFinite } from "../test/helpers/finite.ts";
+import { anyNumber, anyValue, makeGuard } from "./guard.ts";
 // @ts-expect-error plain JavaScript module without types
 import { randomSpecs } from "../scripts/spec-corpus.mjs";
 
 const SEED = 20261202;
 const counts = { lowLevel: 0, typedErrors: 0, designs: 0, roundTrips: 0, bomParts: 0, netlists: 0 };
 
-/** Run `f`; a FilterwrightError is fine, anything else fails; a value must be finite throughout. */
-function guarded(what: string, f: () => unknown): void {
-  counts.lowLevel++;
-  let v: unknown;
-  try {
-    v = f();
-  } catch (e) {
-    if (e instanceof FilterwrightError) {
-      counts.typedErrors++;
-      return;
-    }
-    throw new Error(`${what}: threw ${e instanceof Error ? `${e.name}: ${e.message}` : String(e)}`);
-  }
-  const bad = firstNonFinite(v);
-  expect(bad, `${what}: a non-finite value`).toBeNull();
-}
-
-const anyNumber = fc.oneof(
-  fc.double(),
-  fc.constantFrom(0, -0, 1e-324, 5e-324, 1e-300, 1e300, 1.7e308, -1, Number.NaN, Infinity, -Infinity),
-  fc.double({ min: 1e-3, max: 1e7, noNaN: true }),
-);
-const anyValue = fc.oneof(anyNumber, fc.string(), fc.constant(undefined), fc.constant(null), fc.boolean(), fc.array(anyNumber, { maxLength: 3 }), fc.object({ maxDepth: 2 }));
+const guarded = makeGuard(counts);
 
 describe("fuzz: low-level calls", () => {
   const runs = 1500;
