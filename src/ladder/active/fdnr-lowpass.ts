@@ -41,6 +41,8 @@ import { addCapacitor, addOutputAmplifier, addResistor, startBuilder, type Build
 import { addGicFdnr } from "./gic.ts";
 import { amplifierGain } from "./gic-highpass.ts";
 import { DC_PATH_LEVEL_OHMS, readActiveOptions, readDcPathRatio, requireLadder, type ReadOptions } from "./options.ts";
+import { realiseLadder, type BuiltLadder } from "./predistort.ts";
+import type { Zpk } from "../../tf/types.ts";
 import type { ActiveLadder, ActiveLadderOptions, ActiveLadderPart, DcPathOptions } from "./types.ts";
 
 /** Options of {@link fdnrLowpassLadder}. */
@@ -67,6 +69,9 @@ function placeArms(b: Builder, p: LadderPrototype, km: number, o: ReadOptions): 
       addResistor(b, node, at, km * e.seriesL, `${arm}: resonator resistor (inductor / s)`);
     }
     addGicFdnr(b, at, `d${++gics}_`, { d: e.value / (km * o.kf * o.kf), levelOhms }, `${arm}: FDNR (capacitor / s)`);
+    // the pre-distortion's trim: a loss conductance g (normalised) across the arm's capacitor, a capacitor g / (Km Kf) here
+    const trim = o.armTrim?.[i] ?? 0;
+    if (trim !== 0) addCapacitor(b, at, "0", trim / (km * o.kf), `${arm}: op-amp compensation (loss / s)`);
   });
   return { node, seriesOhms };
 }
@@ -102,6 +107,12 @@ export function fdnrLowpassLadder(prototype: LadderPrototype, options: FdnrLadde
   const o = readActiveOptions(fn, options, DC_PATH_LEVEL_OHMS);
   const ratio = readDcPathRatio(fn, options);
   const gain = amplifierGain(fn, p, o.gain);
+  // not pre-distorted yet: built for the op-amp as it is
+  return realiseLadder(fn, p, { ...o, predistort: false }, (q, opamp, exact, armTrim, probing) => buildFdnr(fn, q, transfer, { ...o, opamp, exact, armTrim, probing }, ratio, gain), { gain: false, start: (_: number, r: number) => r });
+}
+
+/** The circuit of a checked prototype (its element values as given) with checked options, DC path ratio and amplifier gain. */
+function buildFdnr(fn: string, p: LadderPrototype, transfer: Zpk, o: ReadOptions, ratio: number, gain: number): BuiltLadder {
   // capacitor first: the source capacitor 1 / (Km Kf RS) is the shared one
   const km = 1 / (p.sourceOhms * o.kf * o.capacitorF);
   const b = startBuilder(fn, o);

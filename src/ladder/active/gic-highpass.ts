@@ -37,6 +37,8 @@ import type { LadderPrototype } from "../types.ts";
 import { addCapacitor, addOutputAmplifier, addResistor, startBuilder, type Builder } from "./build.ts";
 import { addGicInductor } from "./gic.ts";
 import { DC_PATH_LEVEL_OHMS, DEFAULT_LEVEL_OHMS, readActiveOptions, readDcPathRatio, requireLadder, type ReadOptions } from "./options.ts";
+import { realiseLadder, type BuiltLadder } from "./predistort.ts";
+import type { Zpk } from "../../tf/types.ts";
 import type { ActiveLadder, ActiveLadderOptions, ActiveLadderPart, DcPathOptions } from "./types.ts";
 
 /**
@@ -96,6 +98,9 @@ function placeArms(b: Builder, p: LadderPrototype, km: number, o: ReadOptions): 
       if (last !== undefined && last.to === node) last.grounded = true;
     }
     addGicInductor(b, at, `g${++gics}_`, { henries, levelOhms }, `${arm}: grounded inductor`);
+    // the pre-distortion's trim: a loss conductance g (normalised) across the arm's inductor, a resistor Km / g
+    const trim = o.armTrim?.[i] ?? 0;
+    if (trim !== 0) addResistor(b, at, "0", km / trim, `${arm}: op-amp compensation (loss)`);
   });
   return { node, series };
 }
@@ -145,6 +150,12 @@ export function gicHighpassLadder(prototype: LadderPrototype, options: GicHighpa
   const o = readActiveOptions(fn, options, resonators ? DC_PATH_LEVEL_OHMS : DEFAULT_LEVEL_OHMS);
   const ratio = readDcPathRatio(fn, options);
   const gain = amplifierGain(fn, p, o.gain);
+  // not pre-distorted yet: built for the op-amp as it is
+  return realiseLadder(fn, p, { ...o, predistort: false }, (q, opamp, exact, armTrim, probing) => buildGic(fn, q, transfer, { ...o, opamp, exact, armTrim, probing }, ratio, gain), { gain: false, start: (_: number, r: number) => r });
+}
+
+/** The circuit of a checked prototype (its element values as given) with checked options, DC path ratio and amplifier gain. */
+function buildGic(fn: string, p: LadderPrototype, transfer: Zpk, o: ReadOptions, ratio: number, gain: number): BuiltLadder {
   const firstSeries = p.elements.find((e) => e.kind === "series-L");
   // capacitor first: the first series capacitor (1 / l normalised) is the shared one
   const anchor = firstSeries === undefined ? 1 / p.sourceOhms : 1 / firstSeries.value;
