@@ -68,10 +68,7 @@ function placeArms(b: Builder, p: LadderPrototype, km: number, o: ReadOptions): 
       at = `r${i + 1}`;
       addResistor(b, node, at, km * e.seriesL, `${arm}: resonator resistor (inductor / s)`);
     }
-    addGicFdnr(b, at, `d${++gics}_`, { d: e.value / (km * o.kf * o.kf), levelOhms }, `${arm}: FDNR (capacitor / s)`);
-    // the pre-distortion's trim: a loss conductance g (normalised) across the arm's capacitor, a capacitor g / (Km Kf) here
-    const trim = o.armTrim?.[i] ?? 0;
-    if (trim !== 0) addCapacitor(b, at, "0", trim / (km * o.kf), `${arm}: op-amp compensation (loss / s)`);
+    addGicFdnr(b, at, `d${++gics}_`, { d: e.value / (km * o.kf * o.kf), levelOhms, compensation: o.armTrim?.[i] ?? 0 }, `${arm}: FDNR (capacitor / s)`);
   });
   return { node, seriesOhms };
 }
@@ -107,8 +104,12 @@ export function fdnrLowpassLadder(prototype: LadderPrototype, options: FdnrLadde
   const o = readActiveOptions(fn, options, DC_PATH_LEVEL_OHMS);
   const ratio = readDcPathRatio(fn, options);
   const gain = amplifierGain(fn, p, o.gain);
-  // not pre-distorted yet: built for the op-amp as it is
-  return realiseLadder(fn, p, { ...o, predistort: false }, (q, opamp, exact, armTrim, probing) => buildFdnr(fn, q, transfer, { ...o, opamp, exact, armTrim, probing }, ratio, gain), { gain: false, start: (_: number, r: number) => r });
+  return realiseLadder(fn, p, o, (q, opamp, exact, armTrim, probing) => buildFdnr(fn, q, transfer, { ...o, opamp, exact, armTrim, probing }, ratio, gain), {
+    gain: false,
+    load: false,
+    // the compensation capacitor of each GIC (shunt arms), as a fraction of the shared one: start at edge / GBW
+    start: (i: number, r: number) => ((p.elements[i] as LadderPrototype["elements"][number]).kind === "shunt-C" ? r : 0),
+  });
 }
 
 /** The circuit of a checked prototype (its element values as given) with checked options, DC path ratio and amplifier gain. */

@@ -97,10 +97,7 @@ function placeArms(b: Builder, p: LadderPrototype, km: number, o: ReadOptions): 
       const last = series[series.length - 1];
       if (last !== undefined && last.to === node) last.grounded = true;
     }
-    addGicInductor(b, at, `g${++gics}_`, { henries, levelOhms }, `${arm}: grounded inductor`);
-    // the pre-distortion's trim: a loss conductance g (normalised) across the arm's inductor, a resistor Km / g
-    const trim = o.armTrim?.[i] ?? 0;
-    if (trim !== 0) addResistor(b, at, "0", km / trim, `${arm}: op-amp compensation (loss)`);
+    addGicInductor(b, at, `g${++gics}_`, { henries, levelOhms, compensation: o.armTrim?.[i] ?? 0 }, `${arm}: grounded inductor`);
   });
   return { node, series };
 }
@@ -150,8 +147,12 @@ export function gicHighpassLadder(prototype: LadderPrototype, options: GicHighpa
   const o = readActiveOptions(fn, options, resonators ? DC_PATH_LEVEL_OHMS : DEFAULT_LEVEL_OHMS);
   const ratio = readDcPathRatio(fn, options);
   const gain = amplifierGain(fn, p, o.gain);
-  // not pre-distorted yet: built for the op-amp as it is
-  return realiseLadder(fn, p, { ...o, predistort: false }, (q, opamp, exact, armTrim, probing) => buildGic(fn, q, transfer, { ...o, opamp, exact, armTrim, probing }, ratio, gain), { gain: false, start: (_: number, r: number) => r });
+  return realiseLadder(fn, p, o, (q, opamp, exact, armTrim, probing) => buildGic(fn, q, transfer, { ...o, opamp, exact, armTrim, probing }, ratio, gain), {
+    gain: false,
+    load: false,
+    // the compensation capacitor of each GIC (shunt arms), as a fraction of the shared one: start at edge / GBW
+    start: (i: number, r: number) => ((p.elements[i] as LadderPrototype["elements"][number]).kind === "shunt-C" ? r : 0),
+  });
 }
 
 /** The circuit of a checked prototype (its element values as given) with checked options, DC path ratio and amplifier gain. */

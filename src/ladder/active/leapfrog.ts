@@ -180,6 +180,7 @@ export function leapfrogLowpassLadder(prototype: LadderPrototype, options: Activ
   const o = readActiveOptions(fn, options);
   return realiseLadder(fn, p, o, (q, opamp, exact, armTrim, probing) => buildLeapfrog(fn, q, transfer, { ...o, opamp, exact, armTrim, probing }), {
     gain: true,
+    load: false,
     // an inner integrator's loss is a resistor, so positive: start it at 3 edge / GBW, about where it ends (measured; no source)
     start: (i: number, ratio: number) => (i === 0 || i === p.elements.length - 1 ? 0 : 3 * ratio),
   });

@@ -46,8 +46,16 @@ import type { ActiveLadder, ActiveLadderPredistortion } from "./types.ts";
 export const PREDISTORT_POLE_TOLERANCE = 1e-9;
 /** Largest number of Gauss-Newton steps. */
 export const PREDISTORT_MAX_STEPS = 12;
-/** A pre-distortion whose pole error stays above this after the last step has failed. */
-const ACCEPT_POLE_ERROR = 1e-6;
+/**
+ * A pre-distortion whose pole error stays above this after the last step
+ * has failed (a relative pole error of 1e-4 moves the passband near a pole
+ * of Q 7 by about 0.006 dB). What the trims cannot remove grows as
+ * (edge / GBW)^2: for the FDNR ladder of the 7th-order Chebyshev I at
+ * 18 kHz, 8e-6 with 10 MHz op-amps, 9e-5 with 3 MHz.
+ */
+export const PREDISTORT_ACCEPT_POLE_ERROR = 1e-4;
+/** The iteration stops when a step lowers the residual by less than this fraction. */
+const STALLED = 1e-3;
 /** Relative step of the forward differences (on log values). */
 const FD_STEP = 1e-7;
 
@@ -55,6 +63,8 @@ const FD_STEP = 1e-7;
 export interface TrimPlan {
   /** Whether the last trim is the log of a gain factor (and the level at the edge a condition). */
   readonly gain: boolean;
+  /** Whether the load termination is a parameter too. */
+  readonly load: boolean;
   /** The start of arm i's trim, given the edge over the op-amps' gain-bandwidth. */
   readonly start: (arm: number, edgeOverGbw: number) => number;
 }
@@ -165,13 +175,14 @@ function referencePoints(ideal: BuiltLadder, t: TransferAt, g: number): Point[] 
 }
 
 /** The values a prototype exposes to the iteration: each arm's value, then its extra element. */
-function valuesOf(p: LadderPrototype): number[] {
+function valuesOf(p: LadderPrototype, load: boolean): number[] {
   const v: number[] = [];
   for (const e of p.elements) {
     v.push(e.value);
     const extra = e.kind === "series-L" ? e.parallelC : e.seriesL;
     if (extra !== undefined) v.push(extra);
   }
+  if (load) v.push(p.loadOhms);
   return v;
 }
 
@@ -182,7 +193,7 @@ function withValues(p: LadderPrototype, v: readonly number[]): LadderPrototype {
     if (e.kind === "series-L") return e.parallelC === undefined ? { ...e, value } : { ...e, value, parallelC: v[k++] as number };
     return e.seriesL === undefined ? { ...e, value } : { ...e, value, seriesL: v[k++] as number };
   });
-  return { ...p, elements };
+  return k < v.length ? { ...p, elements, loadOhms: v[k] as number } : { ...p, elements };
 }
 
 /** Residual vector of a circuit at the reference points. */
@@ -254,8 +265,11 @@ function solveDense(n: number, a: number[], b: number[]): number[] | null {
 /**
  * One Gauss-Newton step: the new parameters, or null when the Jacobian is
  * singular. The parameters outnumber the equations (an arm's value and its
- * trim), so the step is the least-norm one, `d = -J^T (J J^T + mu I)^-1 r`
- * with mu 1e-12 of the trace (a Levenberg-Marquardt guard).
+ * trim), so the step is the least-norm one, `d = -J^T (J J^T + mu I)^-1 r`,
+ * with mu 1e-6 of the trace (the damping of Levenberg-Marquardt: where
+ * two trims act alike, as a symmetric ladder's mirror arms do, the
+ * equations are nearly dependent, and an undamped step runs off along
+ * their difference).
  */
 function gaussNewtonStep(make: (x: readonly number[]) => BuiltLadder | null, x: readonly number[], r0: readonly number[], pts: readonly Point[], g: number, level: boolean): number[] | null {
   const m = x.length;
@@ -278,7 +292,7 @@ function gaussNewtonStep(make: (x: readonly number[]) => BuiltLadder | null, x: 
   }
   let trace = 0;
   for (let i = 0; i < rows; i++) trace += a[i * rows + i] as number;
-  for (let i = 0; i < rows; i++) a[i * rows + i] = (a[i * rows + i] as number) + 1e-12 * trace;
+  for (let i = 0; i < rows; i++) a[i * rows + i] = (a[i * rows + i] as number) + 1e-6 * trace;
   const y = solveDense(rows, a, r0.map((v) => -v));
   if (y === null) return null;
   return x.map((v, k) => {
@@ -304,7 +318,7 @@ function predistortValues(p: LadderPrototype, opamp: OpAmpModel, build: LadderBu
   const t = transferOf(ideal);
   const g = abs(t.at({ re: 0, im: ideal.frequencyScale }));
   const pts = referencePoints(ideal, t, g);
-  const values = valuesOf(p);
+  const values = valuesOf(p, trims.load);
   const nv = values.length;
   const arms = p.elements.length;
   // the parameters: the logs of the element values, then one trim per arm, then the log of the gain factor
@@ -329,6 +343,7 @@ function predistortValues(p: LadderPrototype, opamp: OpAmpModel, build: LadderBu
   };
   let err = errorOf(x);
   while (err > PREDISTORT_POLE_TOLERANCE && steps < PREDISTORT_MAX_STEPS && r.every(Number.isFinite)) {
+    const before = norm(r);
     const full = gaussNewtonStep(make, x, r, pts, g, level);
     if (full === null) break;
     steps++;
@@ -345,9 +360,10 @@ function predistortValues(p: LadderPrototype, opamp: OpAmpModel, build: LadderBu
     if (next === null) break;
     x = next;
     err = errorOf(x);
+    if (norm(r) > (1 - STALLED) * before) break;
   }
   const { proto, trim } = split(x);
-  return { prototype: err <= ACCEPT_POLE_ERROR ? proto : null, armTrim: trim, steps, poleError: err, gainErrorDb: gainErrorDb(make(x), g) };
+  return { prototype: err <= PREDISTORT_ACCEPT_POLE_ERROR ? proto : null, armTrim: trim, steps, poleError: err, gainErrorDb: gainErrorDb(make(x), g) };
 }
 
 /** The level at the edge over the ideal circuit's, dB. */

@@ -22,10 +22,10 @@ const e5 = ellipticLadders()[1] as never;
 const built: Record<string, ActiveLadder> = {
   "leapfrog Chebyshev I 7": leapfrogLowpassLadder(c7, { edgeHz: 18000, opamp, predistort: false }),
   "leapfrog elliptic 5": leapfrogLowpassLadder(e5, { edgeHz: 3400, opamp, predistort: false }),
-  "FDNR Chebyshev I 7": fdnrLowpassLadder(c7, { edgeHz: 18000, opamp }),
-  "FDNR elliptic 5": fdnrLowpassLadder(e5, { edgeHz: 3400, opamp }),
-  "GIC highpass Chebyshev I 7": gicHighpassLadder(c7, { edgeHz: 300, opamp }),
-  "GIC highpass elliptic 5": gicHighpassLadder(e5, { edgeHz: 1200, opamp }),
+  "FDNR Chebyshev I 7": fdnrLowpassLadder(c7, { edgeHz: 18000, opamp, predistort: false }),
+  "FDNR elliptic 5": fdnrLowpassLadder(e5, { edgeHz: 3400, opamp, predistort: false }),
+  "GIC highpass Chebyshev I 7": gicHighpassLadder(c7, { edgeHz: 300, opamp, predistort: false }),
+  "GIC highpass elliptic 5": gicHighpassLadder(e5, { edgeHz: 1200, opamp, predistort: false }),
 };
 
 describe("active ladder poles with single-pole op-amps, against numpy", () => {
