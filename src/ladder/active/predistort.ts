@@ -1,34 +1,46 @@
 /**
  * Pre-distortion of an active ladder for its op-amps' finite gain and
- * gain-bandwidth: the normalised ladder's element values are moved so that
- * the circuit built from them WITH the op-amp model has its natural
- * frequencies (and transmission zeros) where the same circuit has them with
- * ideal op-amps; the parts are then rounded to their series as usual.
+ * gain-bandwidth: the normalised ladder's element values, and one trim per
+ * arm, are moved so that the exact circuit WITH the op-amp model has its
+ * natural frequencies (and its notch frequencies) where the same circuit
+ * has them with ideal op-amps; then the parts are rounded as usual.
  *
- * Method: the classic pre-distortion of a design target for the amplifiers'
- * known imperfection (R. Schaumann and M. E. Van Valkenburg, "Design of
- * Analog Filters", Oxford University Press, 2001, the sections on the
- * effects of the op-amp's finite gain-bandwidth and their pre-distortion;
- * cited from memory), applied to the whole circuit rather than stage by
- * stage, as a Gauss-Newton iteration (the Jacobian by forward differences)
- * on the logarithms of the element values. The conditions are evaluated
- * with the circuit's own nodal equations (src/circuit/mna.ts) at fixed
- * reference points, so no polynomial is recovered and no root is matched:
- * at each reference pole p (one per conjugate pair) `g / H(p) = 0`, at each
- * reference zero z `H(z) / g = 0`, with g the ideal circuit's magnitude at
- * the edge; a complex condition gives two real equations, a real pole one.
- * An n-th order all-pole ladder has n element values and n equations: the
- * step is Newton's. The reference points are the natural frequencies and
- * zeros of the exact circuit with ideal op-amps, found by Newton's method
- * on `1 / H` (and `H`) from the target's poles and zeros (they differ from
- * the target's only by the DC path resistors of the FDNR and GIC methods).
- * Each step is halved (up to six times) until the residual falls.
+ * Method: pre-distortion of a design for the amplifiers' known
+ * imperfection (R. Schaumann and M. E. Van Valkenburg, "Design of Analog
+ * Filters", Oxford University Press, 2001, the sections on the op-amp's
+ * finite gain-bandwidth and its pre-distortion; cited from memory), here on
+ * the whole circuit: a damped Gauss-Newton (Levenberg-Marquardt) iteration,
+ * the Jacobian by forward differences, on the logs of the element values
+ * and the trims. The conditions come from the circuit's nodal equations
+ * (src/circuit/mna.ts, one complex LU per point), so no polynomial is
+ * recovered and no root matched: at each reference pole p (one per
+ * conjugate pair) `g / H(p) = 0`, two real equations (one for a real pole),
+ * g the ideal circuit's magnitude at the edge; at each reference zero the
+ * notch frequency, the imaginary part of `-H / H'`; where the realisation
+ * trims its gain, the level at the edge. The reference points are the poles
+ * and zeros of the exact circuit with ideal op-amps, found by Newton's method
+ * on `1 / H` and `H` from the target's (they differ from the target's only by
+ * the DC path resistors of the FDNR and GIC methods).
  *
- * Accuracy: stops when the first-order pole error `|r| / |d r / d s|`
- * falls below {@link PREDISTORT_POLE_TOLERANCE} of each pole's magnitude
- * (three to five steps for 10 MHz op-amps and an 18 kHz edge); what remains
- * is the op-amps' own poles near the GBW, which move the passband by
- * (f / GBW)^2-sized amounts (test/ladder/active/predistort.test.ts).
+ * Why trims: a lossless ladder's element values cannot raise or lower its
+ * transfer where it is at maximum power transfer (first-order
+ * insensitivity, H. J. Orchard, "Inductorless filters", Electronics Letters
+ * 2(6), 1966), while the op-amps' phase lag acts like negative loss there;
+ * the values alone leave the equations singular. Each realisation adds a
+ * loss it can build (see `ReadOptions.armTrim`): a resistor across an inner
+ * leapfrog integrator's capacitor, a small capacitor across a GIC resistor.
+ * Mirror arms of a symmetric ladder act alike, so the step is damped (mu
+ * 1e-6 of the trace) and the iteration stops when a step lowers the
+ * residual by less than 0.1 %.
+ *
+ * Accuracy: the relative pole error (first order, `|r| / |dr/ds|`) falls
+ * below {@link PREDISTORT_POLE_TOLERANCE} for leapfrog and levels off where
+ * the trims cannot follow, as (edge / GBW)^2 (8e-6 for the FDNR ladder of a
+ * 7th-order Chebyshev I at 18 kHz with 10 MHz op-amps); above
+ * {@link PREDISTORT_ACCEPT_POLE_ERROR} the op-amp is refused. The exact
+ * circuit's passband is then the ideal-op-amp circuit's within 5e-4 dB for
+ * those ladders (test/ladder/active/predistort.test.ts); what remains is
+ * the op-amps' own poles near the GBW.
  *
  * @module
  */

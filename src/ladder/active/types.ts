@@ -67,9 +67,11 @@ export interface ActiveLadderOptions {
   readonly gain?: number;
   /**
    * Pre-distort the ladder for the op-amp model: move the normalised
-   * element values so that the circuit with these op-amps (exact values)
-   * has the natural frequencies and zeros it has with ideal ones, then
-   * round (./predistort.ts). Ignored with ideal op-amps.
+   * element values, and add a loss per arm (a resistor across an inner
+   * leapfrog integrator's capacitor, a capacitor across a GIC resistor), so
+   * that the exact circuit with these op-amps has the poles and notch
+   * frequencies it has with ideal ones, then round (./predistort.ts).
+   * Ignored with ideal op-amps. An op-amp too slow for it is refused.
    * @defaultValue true when `opamp` is not ideal
    */
   readonly predistort?: boolean;
