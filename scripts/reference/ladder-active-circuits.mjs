@@ -39,12 +39,12 @@ const opamp = { kind: "single-pole", a0: 1e5, gbwHz: 3e6 };
 const c7 = chebyshevLadder(7, 0.125);
 const e5 = ellipticLadder(5);
 const cases = [
-  ["leapfrog Chebyshev I 7", leapfrogLowpassLadder(c7, { edgeHz: 18000, opamp }), 18000],
-  ["leapfrog elliptic 5", leapfrogLowpassLadder(e5, { edgeHz: 3400, opamp }), 3400],
-  ["FDNR Chebyshev I 7", fdnrLowpassLadder(c7, { edgeHz: 18000, opamp }), 18000],
-  ["FDNR elliptic 5", fdnrLowpassLadder(e5, { edgeHz: 3400, opamp }), 3400],
-  ["GIC highpass Chebyshev I 7", gicHighpassLadder(c7, { edgeHz: 300, opamp }), 300],
-  ["GIC highpass elliptic 5", gicHighpassLadder(e5, { edgeHz: 1200, opamp }), 1200],
+  ["leapfrog Chebyshev I 7", leapfrogLowpassLadder(c7, { edgeHz: 18000, opamp, predistort: false }), 18000],
+  ["leapfrog elliptic 5", leapfrogLowpassLadder(e5, { edgeHz: 3400, opamp, predistort: false }), 3400],
+  ["FDNR Chebyshev I 7", fdnrLowpassLadder(c7, { edgeHz: 18000, opamp, predistort: false }), 18000],
+  ["FDNR elliptic 5", fdnrLowpassLadder(e5, { edgeHz: 3400, opamp, predistort: false }), 3400],
+  ["GIC highpass Chebyshev I 7", gicHighpassLadder(c7, { edgeHz: 300, opamp, predistort: false }), 300],
+  ["GIC highpass elliptic 5", gicHighpassLadder(e5, { edgeHz: 1200, opamp, predistort: false }), 1200],
 ];
 const circuits = cases.map(([name, f, edgeHz]) => ({ name, output: f.output, edgeHz, elements: f.circuit.elements }));
 const path = join(root, "test", "fixtures", "ladder-active-circuits.json");

@@ -75,7 +75,7 @@ function outOfWindow(b: Builder, kind: "resistor" | "capacitor", value: number, 
  * @returns the value placed
  */
 export function addResistor(b: Builder, a: string, c: string, ideal: number, role: string): number {
-  if (!(ideal >= RESISTOR_LIMITS_OHMS.min && ideal <= RESISTOR_LIMITS_OHMS.max)) outOfWindow(b, "resistor", ideal, role);
+  if (b.options.probing !== true && !(ideal >= RESISTOR_LIMITS_OHMS.min && ideal <= RESISTOR_LIMITS_OHMS.max)) outOfWindow(b, "resistor", ideal, role);
   const value = b.options.exact ? ideal : snapToSeries(ideal, { series: b.options.resistorSeries }).value;
   const name = `R${++b.count.R}`;
   b.elements.push({ kind: "R", name, a, b: c, value });
@@ -101,7 +101,7 @@ function pushCapacitor(b: Builder, a: string, c: string, value: number, ideal: n
  * @returns the total capacitance placed
  */
 export function addCapacitor(b: Builder, a: string, c: string, ideal: number, role: string): number {
-  if (!(ideal >= CAPACITOR_LIMITS_F.min && ideal <= CAPACITOR_LIMITS_F.max)) outOfWindow(b, "capacitor", ideal, role);
+  if (b.options.probing !== true && !(ideal >= CAPACITOR_LIMITS_F.min && ideal <= CAPACITOR_LIMITS_F.max)) outOfWindow(b, "capacitor", ideal, role);
   const series = b.options.capacitorSeries;
   if (b.options.exact || isInSeries(ideal, series)) {
     pushCapacitor(b, a, c, ideal, ideal, role);

@@ -40,6 +40,8 @@ import { addCapacitor, addOutputAmplifier, addResistor, startBuilder, type Build
 import { addGicFdnr } from "./gic.ts";
 import { amplifierGain } from "./gic-highpass.ts";
 import { DC_PATH_LEVEL_OHMS, ladderDegree, readActiveOptions, readDcPathRatio, requireLadder, type ReadOptions } from "./options.ts";
+import { realiseLadder, type BuiltLadder } from "./predistort.ts";
+import type { Zpk } from "../../tf/types.ts";
 import type { ActiveLadder, ActiveLadderOptions, ActiveLadderPart, DcPathOptions } from "./types.ts";
 
 /** Options of {@link fdnrLowpassLadder}. */
@@ -65,7 +67,7 @@ function placeArms(b: Builder, p: LadderPrototype, km: number, o: ReadOptions): 
       at = `r${i + 1}`;
       addResistor(b, node, at, km * e.seriesL, `${arm}: resonator resistor (inductor / s)`);
     }
-    addGicFdnr(b, at, `d${++gics}_`, { d: e.value / (km * o.kf * o.kf), levelOhms }, `${arm}: FDNR (capacitor / s)`);
+    addGicFdnr(b, at, `d${++gics}_`, { d: e.value / (km * o.kf * o.kf), levelOhms, compensation: o.armTrim?.[i] ?? 0 }, `${arm}: FDNR (capacitor / s)`);
   });
   return { node, seriesOhms };
 }
@@ -101,6 +103,16 @@ export function fdnrLowpassLadder(prototype: LadderPrototype, options: FdnrLadde
   const o = readActiveOptions(fn, options, DC_PATH_LEVEL_OHMS);
   const ratio = readDcPathRatio(fn, options);
   const gain = amplifierGain(fn, p, o.gain);
+  return realiseLadder(fn, p, o, (q, opamp, exact, armTrim, probing) => buildFdnr(fn, q, transfer, { ...o, opamp, exact, armTrim, probing }, ratio, gain), {
+    gain: false,
+    load: false,
+    // the compensation capacitor of each GIC (shunt arms), as a fraction of the shared one: start at edge / GBW
+    start: (i: number, r: number) => ((p.elements[i] as LadderPrototype["elements"][number]).kind === "shunt-C" ? r : 0),
+  });
+}
+
+/** The circuit of a checked prototype (its element values as given) with checked options, DC path ratio and amplifier gain. */
+function buildFdnr(fn: string, p: LadderPrototype, transfer: Zpk, o: ReadOptions, ratio: number, gain: number): BuiltLadder {
   // capacitor first: the source capacitor 1 / (Km Kf RS) is the shared one
   const km = 1 / (p.sourceOhms * o.kf * o.capacitorF);
   const b = startBuilder(fn, o);

@@ -36,6 +36,8 @@ import type { LadderPrototype } from "../types.ts";
 import { addCapacitor, addOutputAmplifier, addResistor, startBuilder, type Builder } from "./build.ts";
 import { addGicInductor } from "./gic.ts";
 import { DC_PATH_LEVEL_OHMS, DEFAULT_LEVEL_OHMS, ladderDegree, readActiveOptions, readDcPathRatio, requireLadder, type ReadOptions } from "./options.ts";
+import { realiseLadder, type BuiltLadder } from "./predistort.ts";
+import type { Zpk } from "../../tf/types.ts";
 import type { ActiveLadder, ActiveLadderOptions, ActiveLadderPart, DcPathOptions } from "./types.ts";
 
 /**
@@ -94,7 +96,7 @@ function placeArms(b: Builder, p: LadderPrototype, km: number, o: ReadOptions): 
       const last = series[series.length - 1];
       if (last !== undefined && last.to === node) last.grounded = true;
     }
-    addGicInductor(b, at, `g${++gics}_`, { henries, levelOhms }, `${arm}: grounded inductor`);
+    addGicInductor(b, at, `g${++gics}_`, { henries, levelOhms, compensation: o.armTrim?.[i] ?? 0 }, `${arm}: grounded inductor`);
   });
   return { node, series };
 }
@@ -144,6 +146,16 @@ export function gicHighpassLadder(prototype: LadderPrototype, options: GicHighpa
   const o = readActiveOptions(fn, options, resonators ? DC_PATH_LEVEL_OHMS : DEFAULT_LEVEL_OHMS);
   const ratio = readDcPathRatio(fn, options);
   const gain = amplifierGain(fn, p, o.gain);
+  return realiseLadder(fn, p, o, (q, opamp, exact, armTrim, probing) => buildGic(fn, q, transfer, { ...o, opamp, exact, armTrim, probing }, ratio, gain), {
+    gain: false,
+    load: false,
+    // the compensation capacitor of each GIC (shunt arms), as a fraction of the shared one: start at edge / GBW
+    start: (i: number, r: number) => ((p.elements[i] as LadderPrototype["elements"][number]).kind === "shunt-C" ? r : 0),
+  });
+}
+
+/** The circuit of a checked prototype (its element values as given) with checked options, DC path ratio and amplifier gain. */
+function buildGic(fn: string, p: LadderPrototype, transfer: Zpk, o: ReadOptions, ratio: number, gain: number): BuiltLadder {
   const firstSeries = p.elements.find((e) => e.kind === "series-L");
   // capacitor first: the first series capacitor (1 / l normalised) is the shared one
   const anchor = firstSeries === undefined ? 1 / p.sourceOhms : 1 / firstSeries.value;

@@ -34,6 +34,22 @@
  * @module
  */
 import { addCapacitor, addOpamp, addResistor, type Builder } from "./build.ts";
+import { CAPACITOR_LIMITS_F } from "./options.ts";
+
+/**
+ * The pre-distortion's capacitor across a GIC resistor (none for 0). A
+ * single-pole op-amp's finite gain-bandwidth adds to the GIC's element an
+ * error of relative size about s / GBW, a loss (of either sign); a capacitor
+ * Cx across the inductor's R5 multiplies its impedance by 1 / (1 + s R5 Cx),
+ * across the FDNR's R2 by 1 + s R2 Cx: an error of the same form, whose size
+ * the pre-distortion chooses (common practice, no source). A value below
+ * the smallest capacitor placeable is left out: its effect is below the
+ * other parts' rounding.
+ */
+function addCompensation(b: Builder, a: string, c: string, farads: number, role: string): void {
+  if (farads === 0 || (b.options.probing !== true && farads < CAPACITOR_LIMITS_F.min)) return;
+  addCapacitor(b, a, c, farads, role);
+}
 
 /** A simulated grounded inductor: its value and the GIC's resistor level. */
 export interface GicInductorTarget {
@@ -41,6 +57,8 @@ export interface GicInductorTarget {
   readonly henries: number;
   /** Resistance of R2, R3 and R5 (before rounding), ohms: 1 / (2 pi f C4) at the filter's edge. */
   readonly levelOhms: number;
+  /** The pre-distortion's capacitor across R5, as a fraction of C4 (0: none). @defaultValue 0 */
+  readonly compensation?: number;
 }
 
 /** A simulated grounded FDNR: its value and the GIC's resistor level. */
@@ -49,6 +67,8 @@ export interface GicFdnrTarget {
   readonly d: number;
   /** Resistance of R2 and R3 (before rounding), ohms. */
   readonly levelOhms: number;
+  /** The pre-distortion's capacitor across R2, as a fraction of C1 (0: none). @defaultValue 0 */
+  readonly compensation?: number;
 }
 
 /**
@@ -70,6 +90,7 @@ export function addGicInductor(b: Builder, node: string, prefix: string, target:
   const r5 = addResistor(b, n5, "0", target.levelOhms, `${label}: GIC Z5`);
   const r1 = addResistor(b, node, n2, (target.henries * r2) / (c4 * r3 * r5), `${label}: GIC Z1`);
   addCapacitor(b, n4, n5, c4, `${label}: GIC Z4`);
+  addCompensation(b, n5, "0", (target.compensation ?? 0) * c4, `${label}: op-amp compensation across Z5`);
   addOpamp(b, node, n3, n2);
   addOpamp(b, n3, n5, n4);
   return (c4 * r1 * r3 * r5) / r2;
@@ -94,6 +115,7 @@ export function addGicFdnr(b: Builder, node: string, prefix: string, target: Gic
   const r3 = addResistor(b, n3, n4, target.levelOhms, `${label}: GIC Z3`);
   const c5 = addCapacitor(b, n5, "0", c, `${label}: GIC Z5`);
   const r4 = addResistor(b, n4, n5, (target.d * r3) / (c1 * c5 * r2), `${label}: GIC Z4`);
+  addCompensation(b, n4, n5, (target.compensation ?? 0) * c, `${label}: op-amp compensation across Z4`);
   // the inputs the other way round from the inductor's: the only stable way for the FDNR
   addOpamp(b, n3, node, n2);
   addOpamp(b, n5, n3, n4);

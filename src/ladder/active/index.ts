@@ -7,7 +7,9 @@
  *
  * @module
  */
-export type { ActiveLadder, ActiveLadderMethod, ActiveLadderOptions, ActiveLadderPart, DcPath, DcPathOptions, PartWindow } from "./types.ts";
+export type { ActiveLadder, ActiveLadderMethod, ActiveLadderOptions, ActiveLadderPart, ActiveLadderPredistortion, DcPath, DcPathOptions, PartWindow } from "./types.ts";
+export { PREDISTORT_ACCEPT_POLE_ERROR, PREDISTORT_MAX_STEPS, PREDISTORT_POLE_TOLERANCE } from "./predistort.ts";
+export { T_NETWORK_ABOVE_OHMS } from "./leapfrog.ts";
 export type { LadderElement, LadderElementKind, LadderForm, LadderPrototype } from "../types.ts";
 export { gicHighpassLadder, type GicHighpassOptions } from "./gic-highpass.ts";
 export { fdnrLowpassLadder, type FdnrLadderOptions } from "./fdnr-lowpass.ts";

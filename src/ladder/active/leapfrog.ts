@@ -52,6 +52,8 @@ import type { LadderPrototype } from "../types.ts";
 import { addCapacitor, addOpamp, addResistor, startBuilder, type Builder } from "./build.ts";
 import { ladderDegree, readActiveOptions, requireLadder, type ReadOptions } from "./options.ts";
 import type { ActiveLadder, ActiveLadderOptions } from "./types.ts";
+import { realiseLadder, type BuiltLadder } from "./predistort.ts";
+import type { Zpk } from "../../tf/types.ts";
 
 /** One integrator's inputs: the node of each signal and its coefficient (normalised, rad/s). */
 interface Inputs {
@@ -72,7 +74,7 @@ const extraOf = (e: Arm | undefined): number => (e === undefined ? 0 : ((e.kind 
  * source), to the next, the loss, and the direct couplings from the states
  * two arms away (through the neighbours' extra elements).
  */
-function coefficients(p: LadderPrototype, k: number, sourceWeight: number): { a: number; b: number; d: number; before: number; after: number } {
+function coefficients(p: LadderPrototype, k: number, sourceWeight: number, trim: number): { a: number; b: number; d: number; before: number; after: number } {
   const els = p.elements;
   const e = els[k] as Arm;
   const n = els.length;
@@ -82,7 +84,7 @@ function coefficients(p: LadderPrototype, k: number, sourceWeight: number): { a:
   // the arm's own element and its neighbours' extras: the state's total capacitance or inductance
   const x = e.value + left + right;
   const w = shunt ? 1 / (x * rs) : rs / x;
-  let d = 0;
+  let d = trim;
   if (k === 0) d += shunt ? 1 / (x * rs) : rs / x;
   if (k === n - 1) d += shunt ? 1 / (x * p.loadOhms) : p.loadOhms / x;
   return { a: k === 0 ? w * sourceWeight : w, b: w, d, before: left / x, after: right / x };
@@ -91,15 +93,42 @@ function coefficients(p: LadderPrototype, k: number, sourceWeight: number): { a:
 /** Output node of integrator k (1-based): the state with its sign. */
 const stateNode = (k: number): string => `x${k}`;
 
+/** Above this a compensation loss resistor is made as a T network (ohms; common practice, no source). */
+export const T_NETWORK_ABOVE_OHMS = 5e6;
+/** The series arms of that T network, ohms. */
+const T_ARM_OHMS = 1e6;
+
+/**
+ * The pre-distortion's loss across an inner integrator's capacitor: one
+ * resistor, or above {@link T_NETWORK_ABOVE_OHMS} (a fast op-amp needs
+ * little loss) a T of two 1 MΩ arms and a shunt `R1^2 / (R - 2 R1)` to
+ * ground, whose transfer resistance is R.
+ */
+function addCompensationLoss(b: Builder, k: number, sum: string, out: string, ohms: number): void {
+  const role = `integrator ${k}: loss (op-amp compensation)`;
+  if (!(ohms > T_NETWORK_ABOVE_OHMS)) {
+    addResistor(b, sum, out, ohms, role);
+    return;
+  }
+  const mid = `m${k}`;
+  const r1 = addResistor(b, out, mid, T_ARM_OHMS, `${role}, T arm`);
+  const r2 = addResistor(b, mid, sum, T_ARM_OHMS, `${role}, T arm`);
+  addResistor(b, mid, "0", (r1 * r2) / (ohms - r1 - r2), `${role}, T shunt`);
+}
+
 /** Place integrator k (1-based) with its inputs; even k get the inverter after. */
-function placeIntegrator(b: Builder, k: number, inputs: Inputs, o: ReadOptions, inverterOhms: number): void {
+function placeIntegrator(b: Builder, k: number, n: number, inputs: Inputs, o: ReadOptions, inverterOhms: number): void {
   const sum = `s${k}`;
   const even = k % 2 === 0;
   const out = even ? `u${k}` : stateNode(k);
   const c = o.capacitorF;
   for (const [node, w] of inputs.from) addResistor(b, node, sum, 1 / (w * o.kf * c), `integrator ${k}: input from ${node === "in" ? "the source" : `integrator ${node.slice(1)}`}`);
   for (const [node, ratio] of inputs.feedForward) addCapacitor(b, node, sum, ratio * c, `integrator ${k}: feed-forward from integrator ${node.slice(1)}`);
-  if (inputs.loss > 0) addResistor(b, sum, out, 1 / (inputs.loss * o.kf * c), `integrator ${k}: loss (termination)`);
+  if (inputs.loss !== 0) {
+    const ohms = 1 / (inputs.loss * o.kf * c);
+    if (k === 1 || k === n) addResistor(b, sum, out, ohms, `integrator ${k}: loss (termination)`);
+    else addCompensationLoss(b, k, sum, out, ohms);
+  }
   addCapacitor(b, sum, out, c, `integrator ${k}: integrating capacitor`);
   addOpamp(b, "0", sum, out);
   if (even) {
@@ -148,17 +177,27 @@ export function leapfrogLowpassLadder(prototype: LadderPrototype, options: Activ
   }
   const transfer = p.transfer;
   const o = readActiveOptions(fn, options);
+  return realiseLadder(fn, p, o, (q, opamp, exact, armTrim, probing) => buildLeapfrog(fn, q, transfer, { ...o, opamp, exact, armTrim, probing }), {
+    gain: true,
+    load: false,
+    // an inner integrator's loss is a resistor, so positive: start it at 3 edge / GBW, about where it ends (measured; no source)
+    start: (i: number, ratio: number) => (i === 0 || i === p.elements.length - 1 ? 0 : 3 * ratio),
+  });
+}
+
+/** The leapfrog circuit of a checked prototype (its element values as given) with checked options. */
+function buildLeapfrog(fn: string, p: LadderPrototype, transfer: Zpk, o: ReadOptions): BuiltLadder {
   const n = p.elements.length;
   const lastSeries = (p.elements[n - 1] as LadderPrototype["elements"][number]).kind === "series-L";
   // the last state is RS I when the last arm is an inductor: the load voltage RL I is RL / RS times it
   const outputFactor = lastSeries ? p.loadOhms / p.sourceOhms : 1;
   const level = Math.sqrt(p.loadOhms / p.sourceOhms) / 2;
   // the source's weight: the output is k H / outputFactor, with H the ladder's transfer (peak `level`)
-  const k = (o.gain * outputFactor) / level;
+  const k = (o.gain * outputFactor * Math.exp(o.armTrim?.[n] ?? 0)) / level;
   const b = startBuilder(fn, o);
   const inverterOhms = 1 / (o.kf * o.capacitorF);
   for (let i = 1; i <= n; i++) {
-    const { a, b: next, d, before, after } = coefficients(p, i - 1, k);
+    const { a, b: next, d, before, after } = coefficients(p, i - 1, k, o.armTrim?.[i - 1] ?? 0);
     const from: [string, number][] = [[i === 1 ? "in" : stateNode(i - 1), a]];
     if (i < n) from.push([stateNode(i + 1), next]);
     // the state two arms away, with the sign this integrator needs: x for an odd one, u (its inverse) for an even one
@@ -166,7 +205,7 @@ export function leapfrogLowpassLadder(prototype: LadderPrototype, options: Activ
     const feedForward: [string, number][] = [];
     if (before > 0) feedForward.push([away(i - 2), before]);
     if (after > 0) feedForward.push([away(i + 2), after]);
-    placeIntegrator(b, i, { from, loss: d, feedForward }, o, inverterOhms);
+    placeIntegrator(b, i, n, { from, loss: d, feedForward }, o, inverterOhms);
   }
   // the output: x_n carries the state times its sign; an even arm's integrator output u_n carries minus that
   const sign = stateSign(n);

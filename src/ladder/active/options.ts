@@ -53,6 +53,18 @@ export interface ReadOptions {
   readonly opamp: OpAmpModel;
   /** Passband peak gain, V/V. */
   readonly gain: number;
+  /** Whether to pre-distort for the op-amp (false with an ideal one). */
+  readonly predistort: boolean;
+  /**
+   * The pre-distortion's trim of each arm (internal; absent outside it): an
+   * added loss of a leapfrog integrator (normalised, rad/s), a loss
+   * conductance (normalised) across the arm's simulated element; one more entry after
+   * the arms' is the log of a factor on the passband gain (leapfrog only:
+   * the source weight).
+   */
+  readonly armTrim?: readonly number[] | undefined;
+  /** Inside the pre-distortion's iteration: exact values, no part window (internal). */
+  readonly probing?: boolean;
 }
 
 /**
@@ -88,7 +100,9 @@ export function readActiveOptions(fn: string, options: unknown, levelOhms = DEFA
   const opamp = (o["opamp"] ?? { kind: "ideal" }) as OpAmpModel;
   checkOpAmpModel(fn, "options.opamp", opamp);
   const gain = o["gain"] === undefined ? 1 : requireInRange(fn, "options.gain", o["gain"], { min: 0.01, max: 100 });
-  return { edgeHz, kf, capacitorF, resistorSeries, capacitorSeries, exact: values === "exact", opamp, gain };
+  const asked = o["predistort"] ?? true;
+  if (typeof asked !== "boolean") throw new InvalidArgumentError({ fn, path: "options.predistort", received: asked, message: "expected true or false (or no field: true for a real op-amp)" });
+  return { edgeHz, kf, capacitorF, resistorSeries, capacitorSeries, exact: values === "exact", opamp, gain, predistort: asked && opamp.kind !== "ideal" };
 }
 
 /** Default of `dcPathRatio`. */

@@ -7,6 +7,7 @@
 import type { Circuit, OpAmpModel } from "../../circuit/types.ts";
 import type { SeriesName } from "../../parts/eseries.ts";
 import type { Zpk } from "../../tf/types.ts";
+import type { LadderPrototype } from "../types.ts";
 
 /** An inclusive window of part values. */
 export interface PartWindow {
@@ -69,6 +70,42 @@ export interface ActiveLadderOptions {
    * @defaultValue 1
    */
   readonly gain?: number;
+  /**
+   * Pre-distort the ladder for the op-amp model: move the normalised
+   * element values, and add a loss per arm (a resistor across an inner
+   * leapfrog integrator's capacitor, a capacitor across a GIC resistor), so
+   * that the exact circuit with these op-amps has the poles and notch
+   * frequencies it has with ideal ones, then round (./predistort.ts).
+   * Ignored with ideal op-amps. An op-amp too slow for it is refused.
+   * @defaultValue true when `opamp` is not ideal
+   */
+  readonly predistort?: boolean;
+}
+
+/** What the pre-distortion for the op-amps did. */
+export interface ActiveLadderPredistortion {
+  /** Gauss-Newton steps taken. */
+  readonly steps: number;
+  /**
+   * Largest relative distance (first order) of a natural frequency or zero
+   * of the exact circuit with the op-amps from its place with ideal ones.
+   */
+  readonly poleError: number;
+  /** The normalised ladder the circuit was built from (its `transfer` the original's). */
+  readonly prototype: LadderPrototype;
+  /**
+   * Each arm's trim, from the source end: for leapfrog the loss added to the
+   * arm's integrator (normalised, rad/s; a resistor across its capacitor),
+   * for the FDNR and GIC methods the log of the ratio of the arm's GIC
+   * resistor R2 to R3 (the element's value kept; 0 for an arm with no GIC).
+   */
+  readonly armTrim: readonly number[];
+  /**
+   * The level at the edge of the exact circuit with the op-amps over the
+   * ideal one's, dB: near 0 for leapfrog (whose source weight is trimmed
+   * too); for the FDNR and GIC methods what the op-amps leave of their loss.
+   */
+  readonly gainErrorDb: number;
 }
 
 /** Options of the realisations that add DC path resistors (the FDNR and GIC methods). */
@@ -136,4 +173,6 @@ export interface ActiveLadder {
   readonly impedanceScale: number;
   /** Frequency scale Kf = 2 pi edgeHz, rad/s. */
   readonly frequencyScale: number;
+  /** The pre-distortion for the op-amps (null when none was made: ideal op-amps or `predistort: false`). */
+  readonly predistortion: ActiveLadderPredistortion | null;
 }

@@ -85,7 +85,7 @@ describe("gicHighpassLadder", () => {
   it("stays stable with single-pole op-amps (the nodal equations' poles, by the Routh array)", () => {
     for (const gbwHz of [1e6, 10e6]) {
       for (const p of [butterworthLadder(3, "shunt-first"), chebyshev1Ladder(7, 0.125, "series-first"), ...ellipticLadders()]) {
-        const f = gicHighpassLadder(p, { edgeHz: 2000, opamp: { kind: "single-pole", a0: 1e5, gbwHz } });
+        const f = gicHighpassLadder(p, { edgeHz: 2000, opamp: { kind: "single-pole", a0: 1e5, gbwHz }, predistort: false });
         expect(unstableRoots(f.circuit, f.output, 2000).rhp, `${p.family} ${p.order} GBW ${gbwHz}`).toBe(0);
       }
     }
