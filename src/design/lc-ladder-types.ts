@@ -24,8 +24,13 @@ export interface LcLadderPlacement {
   readonly lowHz: number;
   /** Highest such value, Hz (below `lowHz` when the ladder cannot meet the mask). */
   readonly highHz: number;
-  /** The value used, Hz: the geometric middle of the two. */
+  /** The value used, Hz. */
   readonly chosenHz: number;
+  /**
+   * Where in the interval, on log frequency: 0 at `lowHz`, 1 at `highHz`
+   * (one of 0, 0.1, ..., 1: the nominal as-built ladder's best margin).
+   */
+  readonly position: number;
   /** Bandpass and bandstop: the centre, Hz. */
   readonly centreHz?: number;
 }
