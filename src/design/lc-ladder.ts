@@ -89,7 +89,9 @@ function verification(figures: MaskFigures, exact: MaskFigures, yieldPart: LcLad
  *   stopband: { edgeHz: 60e6, minAttenuationDb: 45 }, parts: { capacitorSeries: "E24", capacitorTolerance: 0.01 } },
  *   { inductorSeries: "E24", inductorTolerance: 0.02, inductorQ: 100, seed: 3 });
  * d.family; //=> "elliptic"
+ * d.order; //=> 5
  * d.verification.meetsSpec; //=> true
+ * d.verification.yield.fraction; //=> 0.997 (1000 boards)
  * ```
  */
 export function designLcLadder(spec: FilterSpec, options: LcLadderOptions = {}): LcLadderDesign {

@@ -8,27 +8,10 @@
 import { describe, expect, it } from "vitest";
 import { acAnalysis, LADDER_SOURCE } from "../../src/circuit/index.ts";
 import { designLcLadder, lcLadderNetlist, type LcLadderDesign } from "../../src/design/lc-ladder.ts";
-import type { FilterSpec } from "../../src/design/spec.ts";
 import { InvalidArgumentError, SpecError, UnrealisableError } from "../../src/errors.ts";
 import { logGrid } from "../../src/tf/index.ts";
+import { ADC_SPEC, IF_SPEC, TIGHT } from "./lc-ladder-scenarios.ts";
 
-/** Ahead of a 125 MS/s ADC: pass 30 MHz within 1 dB, 45 dB down from 60 MHz (the first alias band). */
-export const ADC_SPEC: FilterSpec = {
-  response: "lowpass",
-  passband: { edgeHz: 30e6, maxLossDb: 1 },
-  stopband: { edgeHz: 60e6, minAttenuationDb: 45 },
-  parts: { capacitorSeries: "E24" },
-};
-
-/** A wideband 10.7 MHz IF stage: 9.8-11.7 MHz within 1.5 dB, 40 dB down below 7.5 MHz and above 15 MHz. */
-export const IF_SPEC: FilterSpec = {
-  response: "bandpass",
-  passband: { edgeHz: [9.8e6, 11.7e6], maxLossDb: 1.5 },
-  stopband: { edgeHz: [7.5e6, 15e6], minAttenuationDb: 40 },
-  parts: { capacitorSeries: "E24" },
-};
-
-export const TIGHT = { inductorSeries: "E24", inductorTolerance: 0.02, capacitorTolerance: 0.01, inductorQ: 80, seed: 11, boards: 512 } as const;
 const LOOSE = { ...TIGHT, inductorTolerance: 0.1, capacitorTolerance: 0.05 } as const;
 
 /** |V(out)| in dB by the nodal analysis of the design's circuit. */
