@@ -5,9 +5,11 @@
  * (acAnalysis), the lossless level, the boards' yield with tight and loose
  * parts, the dissipation loss of finite-Q inductors, and the typed errors.
  */
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { acAnalysis, LADDER_SOURCE } from "../../src/circuit/index.ts";
 import { designLcLadder, lcLadderNetlist, type LcLadderDesign } from "../../src/design/lc-ladder.ts";
+import type { FilterSpec } from "../../src/design/spec.ts";
 import { InvalidArgumentError, SpecError, UnrealisableError } from "../../src/errors.ts";
 import { logGrid } from "../../src/tf/index.ts";
 import { ADC_SPEC, IF_SPEC, TIGHT } from "./lc-ladder-scenarios.ts";
@@ -160,5 +162,58 @@ describe("designLcLadder: errors", () => {
   it("lcLadderNetlist refuses what is not a designed ladder", () => {
     expect(() => lcLadderNetlist({} as LcLadderDesign)).toThrow(InvalidArgumentError);
     expect(() => lcLadderNetlist(designLcLadder(ADC_SPEC, { boards: 1 }), { pointsPerDecade: 0 })).toThrow(InvalidArgumentError);
+  });
+});
+
+describe("designLcLadder: highpass and bandstop", () => {
+  it.each([
+    ["a 2 MHz highpass", { response: "highpass", passband: { edgeHz: 2e6, maxLossDb: 1 }, stopband: { edgeHz: 1e6, minAttenuationDb: 40 } }, 1e-9],
+    [
+      "a notch for the 88-108 MHz band",
+      { response: "bandstop", passband: { edgeHz: [80e6, 118e6], maxLossDb: 1 }, stopband: { edgeHz: [90e6, 106e6], minAttenuationDb: 30 } },
+      1e-6,
+    ],
+  ] as const)("builds %s whose figures are the nodal analysis's", (_name, spec, tol) => {
+    for (const form of ["shunt-first", "series-first"] as const) {
+      const d = designLcLadder(spec as FilterSpec, { form, boards: 64, inductorQ: 100, sourceOhms: 75 });
+      const v = d.verification;
+      expect(v.meetsSpec).toBe(true);
+      expect(d.asBuilt.loadOhms).toBeCloseTo(75, 9);
+      const [pass, stop] = mnaDb(d, [v.passbandWorstHz, v.stopbandWorstHz]) as unknown as [number, number];
+      expect(Math.abs(d.levelDb - pass - v.passbandLossDb)).toBeLessThan(tol);
+      expect(Math.abs(d.levelDb - stop - v.stopbandAttenuationDb)).toBeLessThan(tol);
+    }
+  });
+});
+
+describe("designLcLadder: random lowpass and highpass masks", () => {
+  it("returns finite figures, positive parts and a yield in [0, 1] (seeded)", () => {
+    fc.assert(
+      fc.property(
+        fc.constantFrom("lowpass", "highpass"),
+        fc.double({ min: 3, max: 8, noNaN: true }),
+        fc.double({ min: 1.3, max: 4, noNaN: true }),
+        fc.double({ min: 0.1, max: 3, noNaN: true }),
+        fc.double({ min: 20, max: 60, noNaN: true }),
+        fc.constantFrom("shunt-first", "series-first"),
+        (response, logEdge, ratio, lossDb, attDb, form) => {
+          const p = 10 ** logEdge;
+          const s = response === "lowpass" ? p * ratio : p / ratio;
+          const d = designLcLadder(
+            { response, passband: { edgeHz: p, maxLossDb: lossDb }, stopband: { edgeHz: s, minAttenuationDb: attDb } },
+            { form, boards: 8, seed: 1 },
+          );
+          const v = d.verification;
+          for (const x of [v.passbandLossDb, v.stopbandAttenuationDb, v.marginDb, v.exactMarginDb, d.levelDb, v.passbandWorstHz, v.stopbandWorstHz]) {
+            expect(Number.isFinite(x)).toBe(true);
+          }
+          for (const c of d.asBuilt.components) expect(c.value > 0 && Number.isFinite(c.value)).toBe(true);
+          expect(v.yield.fraction).toBeGreaterThanOrEqual(0);
+          expect(v.yield.fraction).toBeLessThanOrEqual(1);
+          expect(v.meetsSpec).toBe(v.marginDb >= 0);
+        },
+      ),
+      { numRuns: 24, seed: 20261203 },
+    );
   });
 });
