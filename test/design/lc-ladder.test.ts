@@ -81,6 +81,18 @@ describe("designLcLadder: a 30 MHz anti-alias lowpass", () => {
     expect(designLcLadder(ADC_SPEC, { ...LOOSE, seed: 12 }).verification.yield.passed).not.toBe(l.passed);
   });
 
+  it("builds boards whose verdict is the nominal one when the parts hardly spread, and spreads more with the terminations drawn", () => {
+    const exact = designLcLadder(ADC_SPEC, { ...TIGHT, inductorTolerance: 1e-9, capacitorTolerance: 1e-9, boards: 64 });
+    expect(exact.verification.meetsSpec).toBe(true);
+    expect(exact.verification.yield.fraction).toBe(1);
+    const miss = designLcLadder({ ...ADC_SPEC, stopband: { edgeHz: 60e6, minAttenuationDb: 45 }, family: "elliptic", order: 3 }, { ...TIGHT, inductorTolerance: 1e-9, capacitorTolerance: 1e-9, boards: 64 });
+    expect(miss.verification.meetsSpec).toBe(false);
+    expect(miss.verification.yield.fraction).toBe(0);
+    const drawn = designLcLadder(ADC_SPEC, { ...LOOSE, terminationTolerance: 0.1 });
+    expect(drawn.verification.yield.terminationTolerance).toBe(0.1);
+    expect(drawn.verification.yield.passed).toBeLessThan(loose.verification.yield.passed);
+  });
+
   it("shows the inductors' dissipation loss in the passband", () => {
     const fixed = { ...ADC_SPEC, family: "elliptic", order: 5 } as const;
     const lossless = designLcLadder(fixed, { ...TIGHT, inductorQ: 1e6, boards: 1 });
