@@ -80,7 +80,16 @@ export {
   type Progress,
   type ProgressStep,
   type RunControl,
+  designLcLadder,
+  lcLadderNetlist,
+  type LcLadderDesign,
+  type LcLadderNetlistOptions,
+  type LcLadderOptions,
+  type LcLadderPlacement,
+  type LcLadderVerification,
+  type LcLadderYield,
 } from "./design/index.ts";
+export type { LadderPartLine } from "./ladder/index.ts";
 export {
   monteCarlo,
   monteCarloEnvelope,

@@ -28,8 +28,10 @@ import { planPrototype } from "./attempt.ts";
 /** Highest prototype order the automatic choices consider. */
 export const AUTO_MAX_ORDER = 12;
 
-const MONOTONIC: ReadonlySet<FamilyName> = new Set(["butterworth", "legendre", "bessel", "chebyshev2"]);
-const ALL_FAMILIES: readonly FamilyName[] = ["butterworth", "chebyshev1", "chebyshev2", "elliptic", "bessel", "legendre"];
+/** The families whose passband is monotonic. */
+export const MONOTONIC: ReadonlySet<FamilyName> = new Set(["butterworth", "legendre", "bessel", "chebyshev2"]);
+/** Every family, in the order the automatic choice compares them. */
+export const ALL_FAMILIES: readonly FamilyName[] = ["butterworth", "chebyshev1", "chebyshev2", "elliptic", "bessel", "legendre"];
 
 /** How much of the spec's ripple/attenuation the prototype uses (tightening levels). */
 export interface MarginLevel {

@@ -1,6 +1,7 @@
 /**
  * The design layer: the filter specification, the design pipeline and the
- * circuit of a finished design.
+ * circuit of a finished design, and the passive LC ladder designed from the
+ * same specification (`designLcLadder`).
  *
  * @module
  */
@@ -53,4 +54,16 @@ export type {
   BoardYield,
   YieldAlternative,
 } from "./types.ts";
+export {
+  designLcLadder,
+  lcLadderNetlist,
+  type LcLadderDesign,
+  type LcLadderNetlistOptions,
+  type LcLadderOptions,
+  type LcLadderPlacement,
+  type LcLadderVerification,
+  type LcLadderYield,
+} from "./lc-ladder.ts";
+export { LC_LADDER_MAX_ORDER, LC_PLACEMENT_POSITIONS } from "./lc-ladder-choice.ts";
+export { DEFAULT_LC_BOARDS, MAX_LC_BOARDS } from "./lc-ladder-options.ts";
 export type { Progress, ProgressStep, RunControl } from "../evaluate/progress.ts";

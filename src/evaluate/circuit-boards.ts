@@ -82,7 +82,7 @@ function nominalValues(circuit: Circuit, names: readonly string[]): Float64Array
   const byName = new Map(circuit.elements.map((e) => [e.name, e]));
   return Float64Array.from(names, (n) => {
     const e = byName.get(n);
-    return e !== undefined && (e.kind === "R" || e.kind === "C") ? e.value : NaN;
+    return e !== undefined && (e.kind === "R" || e.kind === "C" || e.kind === "L") ? e.value : NaN;
   });
 }
 
@@ -120,20 +120,38 @@ export interface CircuitBoardOptions extends CircuitCompileOptions {
   readonly capacitorTolerance: number;
   /** The scale of the polynomials, rad/s, about the circuit's natural frequencies. */
   readonly radiusRadS: number;
+  /**
+   * Tolerance of every inductor, as a fraction. Given, the inductors are
+   * parts of the board too, after the resistors and capacitors (a passive
+   * LC ladder); absent, they keep their values (and a circuit's board is
+   * the same, bit for bit, as before inductors could be drawn).
+   */
+  readonly inductorTolerance?: number;
+  /** Parts (by name) held at their nominal value: a ladder's terminations and loss resistances. */
+  readonly heldParts?: readonly string[];
 }
 
 /**
  * A whole circuit as the one stage of a Monte Carlo board: every resistor
- * and capacitor a part, drawn within its tolerance (internal: no checks).
+ * and capacitor a part, drawn within its tolerance, and with
+ * `inductorTolerance` every inductor after them; `heldParts` at tolerance 0
+ * (internal: no checks).
  *
  * @param circuit - a valid circuit
  * @param options - source, output, span, tolerances, scale
  * @returns the board stage, for `runBoards`
  */
 export function circuitBoardStage(circuit: Circuit, options: CircuitBoardOptions): BoardStage {
-  const names = circuitParts(circuit);
+  const lt = options.inductorTolerance;
+  const names = lt === undefined ? circuitParts(circuit) : [...circuitParts(circuit), ...circuit.elements.filter((e) => e.kind === "L").map((e) => e.name)];
   const kinds = new Map(circuit.elements.map((e) => [e.name, e.kind]));
-  const tolerance = Float64Array.from(names, (n) => (kinds.get(n) === "R" ? options.resistorTolerance : options.capacitorTolerance));
+  const held = new Set(options.heldParts ?? []);
+  const toleranceOf = (n: string): number => {
+    if (held.has(n)) return 0;
+    const k = kinds.get(n);
+    return k === "R" ? options.resistorTolerance : k === "C" ? options.capacitorTolerance : (lt as number);
+  };
+  const tolerance = Float64Array.from(names, toleranceOf);
   const { source, output, spanRadS } = options;
   return { compiled: compileCircuit(circuit, names, { source, output, spanRadS }), nominal: nominalValues(circuit, names), tolerance, radius: options.radiusRadS };
 }

@@ -10,8 +10,10 @@
  * points is not missed. Golden-section search compares values only, so it
  * runs on |H|^2 (no square root or logarithm per point) and takes the same
  * steps as on |H| or on dB. Levels are measured from the passband's highest
- * point: passband loss is the drop below it, stopband attenuation the
- * distance below it, gain error its distance from the wanted gain.
+ * point (or from a fixed reference level, a passive ladder's, when the
+ * limits give one): passband loss is the drop below it, stopband
+ * attenuation the distance below it, gain error the peak's distance from
+ * the wanted gain.
  *
  * Accuracy: the levels are those of the polynomials (about 1e-12 dB, see
  * stage-polynomials.ts) at extremes located to 1e-9 relative frequency,
@@ -45,6 +47,13 @@ export interface MaskLimits {
   readonly gain: number;
   /** Largest gain error, dB. */
   readonly gainToleranceDb: number;
+  /**
+   * A fixed level (V/V) that passband loss and stopband attenuation are
+   * measured from instead of the passband's highest point: a passive
+   * ladder's lossless level, so that the loss of real parts counts against
+   * the passband. Absent: the passband's peak (every active design).
+   */
+  readonly reference?: number;
 }
 
 /** Figures of a response against the mask. */
@@ -341,8 +350,9 @@ export function maskFigures(source: ResponseSource, plan: MaskPlan, refinement: 
     if ((e[1] as number) > stop) [stopW, stop] = [e[0] as number, e[1] as number];
   }
   const reference = source.realPartAt(TWO_PI * plan.bands.referenceHz);
-  const passbandLossDb = db2(peak) - db2(low);
-  const stopbandAttenuationDb = db2(peak) - db2(stop);
+  const top = limits.reference === undefined ? peak : limits.reference * limits.reference;
+  const passbandLossDb = db2(top) - db2(low);
+  const stopbandAttenuationDb = db2(top) - db2(stop);
   const gainDb = db2(peak);
   const gainErrorDb = gainDb - 20 * Math.log10(limits.gain);
   const passbandMarginDb = limits.maxLossDb - passbandLossDb;
