@@ -40,6 +40,12 @@
  * An end arm with a zero is refused: its extra element would meet the
  * termination.
  *
+ * With a real op-amp the builder is pre-distorted (./predistort.ts): the
+ * element values, the source weight and a loss on each inner integrator (a
+ * resistor across its capacitor, made as a T of two 1 MΩ arms and a shunt
+ * above {@link T_NETWORK_ABOVE_OHMS}) are moved so that the circuit with
+ * that op-amp has the ideal circuit's poles, notch frequencies and level.
+ *
  * Accuracy: with ideal op-amps and exact values the integrators solve the
  * ladder's state equations exactly, so the response is the prototype's
  * transfer scaled (below 1e-9 dB; test/ladder/active/leapfrog.test.ts).
