@@ -2,7 +2,7 @@
 // import filterwright straight from src/. These tests check that path, for
 // the root entry and the layer entries: no std library imports, so they run
 // offline.
-import { designFilter, formatValue, parseValue, toSpiceNetlist } from "../src/index.ts";
+import { designFilter, designLcLadder, formatValue, lcLadderNetlist, parseValue, toSpiceNetlist } from "../src/index.ts";
 import { butterworth } from "../src/approx/index.ts";
 import { eSeries, snapToSeries } from "../src/parts/index.ts";
 import { frequencyResponse } from "../src/tf/index.ts";
@@ -37,4 +37,13 @@ Deno.test("designFilter meets a lowpass mask and exports a netlist", () => {
   assert(result.verification.meetsSpec, "as-built design meets the mask");
   const netlist = toSpiceNetlist(result);
   assert(/\.ac\s/i.test(netlist) && /\.end\s*$/i.test(netlist.trim() + "\n"), "netlist has .ac and .end");
+});
+
+Deno.test("designLcLadder builds a passive 30 MHz lowpass whose boards meet the mask", () => {
+  const d = designLcLadder(
+    { response: "lowpass", passband: { edgeHz: 30e6, maxLossDb: 1 }, stopband: { edgeHz: 60e6, minAttenuationDb: 45 }, parts: { capacitorSeries: "E24" } },
+    { inductorSeries: "E24", inductorTolerance: 0.02, capacitorTolerance: 0.01, inductorQ: 80, boards: 256, seed: 11 },
+  );
+  assert(d.verification.meetsSpec && d.verification.yield.fraction > 0.95, "the ladder and its boards meet the mask");
+  assert(lcLadderNetlist(d).includes(".print ac vdb(out)"), "netlist prints vdb(out)");
 });

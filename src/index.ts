@@ -82,6 +82,7 @@ export {
   type RunControl,
   designLcLadder,
   lcLadderNetlist,
+  type LcLadderBoard,
   type LcLadderDesign,
   type LcLadderNetlistOptions,
   type LcLadderOptions,

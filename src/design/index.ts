@@ -57,6 +57,7 @@ export type {
 export {
   designLcLadder,
   lcLadderNetlist,
+  type LcLadderBoard,
   type LcLadderDesign,
   type LcLadderNetlistOptions,
   type LcLadderOptions,

@@ -6,7 +6,9 @@
  * `familyMinimumOrder`: the order formula confirmed on the prototype), at
  * most {@link LC_LADDER_MAX_ORDER}; the spec's family (or, for
  * `"auto"`, every family, the monotonic ones only for the `"monotonic"`
- * priority) and the spec's order (else that minimum) are the candidates. An
+ * priority; the other priorities, which weigh op-amps, stages and group
+ * delay, are not read) and the spec's order (else that minimum) are the
+ * candidates. An
  * even-order elliptic or Chebyshev II ladder realises the type b form, whose
  * slack is not the prototype's: while its interval in the mask is empty
  * (and the spec leaves the order free) the next order is taken. Each

@@ -61,6 +61,18 @@ export interface LcLadderYield {
   readonly capacitorTolerance: number;
   /** Source and load resistance tolerance drawn, fraction (0: held). */
   readonly terminationTolerance: number;
+  /** The board with the smallest margin (the earliest of equals). */
+  readonly worstBoard: LcLadderBoard;
+}
+
+/** One Monte Carlo board. */
+export interface LcLadderBoard {
+  /** Its index in the run, from 0. */
+  readonly index: number;
+  /** Its margin against the mask, dB. */
+  readonly marginDb: number;
+  /** The value of every part drawn (H, F, ohms) by circuit element name, the loss resistances included. */
+  readonly values: Readonly<Record<string, number>>;
 }
 
 /** The as-built ladder against the spec's mask. */

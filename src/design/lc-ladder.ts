@@ -34,7 +34,7 @@ import { circuitToSpice } from "../circuit/spice.ts";
 import { checkCircuit } from "../circuit/validate.ts";
 import { InvalidArgumentError } from "../errors.ts";
 import { circuitBoardStage } from "../evaluate/circuit-boards.ts";
-import { runBoards } from "../evaluate/boards.ts";
+import { runBoards, type BoardRun } from "../evaluate/boards.ts";
 import { maskFigures, type MaskFigures } from "../evaluate/mask.ts";
 import { wilsonInterval } from "../evaluate/yield.ts";
 import { ladderParts } from "../ladder/parts-list.ts";
@@ -42,14 +42,24 @@ import { requireInteger, requireOptions } from "../validate.ts";
 import { zpkSource } from "./lc-ladder-build.ts";
 import { chooseLadder } from "./lc-ladder-choice.ts";
 import { readLcLadderOptions, type LcLadderOptions } from "./lc-ladder-options.ts";
-import type { LcLadderDesign, LcLadderVerification } from "./lc-ladder-types.ts";
+import type { LcLadderBoard, LcLadderDesign, LcLadderVerification } from "./lc-ladder-types.ts";
 
-export type { LcLadderDesign, LcLadderPlacement, LcLadderVerification, LcLadderYield } from "./lc-ladder-types.ts";
+export type { LcLadderBoard, LcLadderDesign, LcLadderPlacement, LcLadderVerification, LcLadderYield } from "./lc-ladder-types.ts";
 export type { LcLadderOptions } from "./lc-ladder-options.ts";
 import { requireDesignSpec, validateSpec, type FilterSpec } from "./spec.ts";
 import { responseSpanHz } from "./verify.ts";
 
 const FN = "designLcLadder";
+
+/** The run's worst board by element name (a passive ladder's boards are never singular, so its margin is finite). */
+function worstBoardOf(names: readonly string[], run: BoardRun): LcLadderBoard {
+  const v = run.worstValues[0] as Float64Array;
+  const values: Record<string, number> = {};
+  names.forEach((n, i) => {
+    values[n] = v[i] as number;
+  });
+  return { index: run.worstBoard, marginDb: run.worstMarginDb, values: Object.freeze(values) };
+}
 
 function verification(figures: MaskFigures, exact: MaskFigures, yieldPart: LcLadderVerification["yield"]): LcLadderVerification {
   const marginDb = Math.min(figures.passbandMarginDb, figures.stopbandMarginDb);
@@ -127,6 +137,7 @@ export function designLcLadder(spec: FilterSpec, options: LcLadderOptions = {}):
     inductorTolerance: plan.inductorTolerance,
     capacitorTolerance: plan.capacitorTolerance,
     terminationTolerance: plan.terminationTolerance,
+    worstBoard: worstBoardOf(stage.compiled.componentNames, run),
   };
   return Object.freeze({
     spec: s,

@@ -93,6 +93,20 @@ describe("designLcLadder: a 30 MHz anti-alias lowpass", () => {
     expect(drawn.verification.yield.passed).toBeLessThan(loose.verification.yield.passed);
   });
 
+  it("reports the worst board, whose margin the nodal analysis of its drawn parts confirms", () => {
+    const w = loose.verification.yield.worstBoard;
+    expect(w.marginDb).toBeLessThan(0);
+    const inductors = loose.circuit.elements.filter((e) => e.kind === "L");
+    for (const e of inductors) expect(Math.abs((w.values[e.name] as number) / e.value - 1)).toBeLessThanOrEqual(0.1 + 1e-12);
+    expect(inductors.some((e) => w.values[e.name] !== e.value)).toBe(true);
+    // the loss resistances and the terminations are held at their values
+    for (const e of loose.circuit.elements) if (e.kind === "R") expect(w.values[e.name], e.name).toBe(e.value);
+    const board = { ...loose, circuit: { ...loose.circuit, elements: loose.circuit.elements.map((e) => (e.kind === "V" ? e : { ...e, value: w.values[e.name] as number })) } };
+    const dense = denseFigures(board as LcLadderDesign, [[30e3, 30e6]], [[60e6, 60e9]]);
+    const margin = Math.min(1 - dense.loss, dense.attenuation - 45);
+    expect(Math.abs(margin - w.marginDb)).toBeLessThan(2e-3);
+  });
+
   it("shows the inductors' dissipation loss in the passband", () => {
     const fixed = { ...ADC_SPEC, family: "elliptic", order: 5 } as const;
     const lossless = designLcLadder(fixed, { ...TIGHT, inductorQ: 1e6, boards: 1 });
