@@ -8,6 +8,7 @@
 import { escapeHtml, htmlTable, textTable, type MediaBundle } from "../display.ts";
 import { formatValue } from "../units/index.ts";
 import type { DesignResult, DesignStage } from "./types.ts";
+import type { LcLadderDesign } from "./lc-ladder-types.ts";
 import { verdictLine } from "./verdict.ts";
 import { hertz, significant } from "./text.ts";
 
@@ -67,4 +68,29 @@ export function designBundle(r: DesignResult): MediaBundle {
     ...(warnings.length === 0 ? [] : [`${warnings.length} warning${warnings.length === 1 ? "" : "s"} (see result.warnings)`]),
   ].join("\n");
   return { "text/html": html, "text/plain": plain };
+}
+
+/**
+ * The notebook bundle of a passive LC ladder design: heading, verdict
+ * (nominal margins and the boards' yield) and the parts table.
+ *
+ * @param d - the ladder design
+ * @returns the bundle
+ */
+export function lcLadderBundle(d: LcLadderDesign): MediaBundle {
+  const v = d.verification;
+  const y = v.yield;
+  const pc = (x: number): string => `${significant(x * 100, 3)} %`;
+  const ok = v.meetsSpec && y.met;
+  const response = d.spec.response[0]?.toUpperCase() + d.spec.response.slice(1);
+  const title = `${response} LC ladder: ${d.family}, order ${d.order}, ${d.form}, ${formatValue(d.ladder.sourceOhms, { unit: "Ω" })} / ${formatValue(d.ladder.loadOhms, { unit: "Ω" })}`;
+  const verdict =
+    `${ok ? "Meets the spec" : "Does NOT meet the spec"}: nominal ${v.meetsSpec ? "meets" : "misses"} the mask (passband loss ${v.passbandLossDb.toFixed(3)} dB, stopband ${v.stopbandAttenuationDb.toFixed(2)} dB, margin ${v.marginDb.toFixed(3)} dB); ` +
+    `${pc(y.fraction)} of ${y.boards} boards [${pc(y.lower95)}, ${pc(y.upper95)}] at ${pc(y.inductorTolerance)} L / ${pc(y.capacitorTolerance)} C (target ${pc(y.target)}: ${y.met ? "met" : "NOT met"}).`;
+  const head = ["designators", "part", "value", "tolerance", "requirement"];
+  const rows = d.parts.map((p) => [p.designators.join(", "), p.part, p.valueText, p.toleranceText, p.requirement]);
+  return {
+    "text/html": `<div class="filterwright-design"><p><strong>${escapeHtml(title)}</strong></p><p style="color:${ok ? "#1a6b2a" : "#a32020"}">${escapeHtml(verdict)}</p>${htmlTable(head, rows)}<p>${escapeHtml(d.reason)}</p></div>`,
+    "text/plain": [title, verdict, textTable(head.slice(0, 4), rows.map((r) => r.slice(0, 4)))].join("\n"),
+  };
 }

@@ -30,6 +30,8 @@
  *
  * @module
  */
+import { withDisplay } from "../display.ts";
+import { lcLadderBundle } from "./display.ts";
 import { circuitToSpice } from "../circuit/spice.ts";
 import { checkCircuit } from "../circuit/validate.ts";
 import { InvalidArgumentError } from "../errors.ts";
@@ -139,7 +141,7 @@ export function designLcLadder(spec: FilterSpec, options: LcLadderOptions = {}):
     terminationTolerance: plan.terminationTolerance,
     worstBoard: worstBoardOf(stage.compiled.componentNames, run),
   };
-  return Object.freeze({
+  return Object.freeze(withDisplay({
     spec: s,
     family: chosen.family,
     order: chosen.order,
@@ -154,7 +156,7 @@ export function designLcLadder(spec: FilterSpec, options: LcLadderOptions = {}):
     parts: ladderParts(b.asBuilt),
     inductorSeries: plan.inductorSeries,
     verification: verification(b.figures, exact, yieldPart),
-  });
+  }, lcLadderBundle));
 }
 
 /** Options of {@link lcLadderNetlist}. */

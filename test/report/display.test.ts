@@ -4,11 +4,12 @@
  * short plain text; the property stays out of keys, JSON and equality.
  */
 import { describe, expect, it } from "vitest";
-import { designFilter, fromJson, monteCarlo, noiseAnalysis, plotFigure, svgFigure, toJson, toMarkdown, toSvgPlot, InvalidArgumentError } from "../../src/index.ts";
+import { designFilter, designLcLadder, fromJson, monteCarlo, noiseAnalysis, plotFigure, svgFigure, toJson, toMarkdown, toSvgPlot, InvalidArgumentError } from "../../src/index.ts";
 import type { MediaBundle } from "../../src/index.ts";
 import { escapeHtml, htmlTable, textTable } from "../../src/display.ts";
 import { hertz } from "../../src/design/text.ts";
 import { thrownBy } from "../helpers/throws.ts";
+import { ADC_SPEC, TIGHT } from "../design/lc-ladder-scenarios.ts";
 
 const DISPLAY = Symbol.for("Jupyter.display");
 const bundleOf = (x: unknown): MediaBundle => {
@@ -52,6 +53,18 @@ describe("designFilter result display", () => {
     expect(back).toEqual(design);
     expect(bundleOf(back)["text/html"]).toBe(bundleOf(design)["text/html"]);
     expect(Object.isFrozen(design)).toBe(true);
+  });
+});
+
+describe("designLcLadder result display", () => {
+  it("shows the ladder, its verdict on the boards and its parts", () => {
+    const d = designLcLadder(ADC_SPEC, { ...TIGHT, boards: 128 });
+    const b = bundleOf(d);
+    expect(b["text/html"]).toContain(`LC ladder: ${d.family}, order ${d.order}`);
+    expect(b["text/html"]).toContain(d.verification.meetsSpec && d.verification.yield.met ? "Meets the spec" : "Does NOT meet the spec");
+    expect(b["text/html"]?.match(/<tr>/g)?.length).toBe(d.parts.length + 1);
+    expect(b["text/plain"]).toContain("of 128 boards");
+    expect(Object.keys(d)).not.toContain(String(DISPLAY));
   });
 });
 
