@@ -124,6 +124,7 @@ export {
 export {
   toSpiceNetlist,
   toBomCsv,
+  toLcLadderBomCsv,
   bomLines,
   toJson,
   fromJson,

@@ -40,6 +40,7 @@ const ROOT_NAMES = [
   "toBomCsv",
   "toCurveCsv",
   "toJson",
+  "toLcLadderBomCsv",
   "toMarkdown",
   "toSectionsCsv",
   "toSectionsJson",

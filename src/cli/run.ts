@@ -10,6 +10,7 @@
  *
  * @module
  */
+import { ladderCommand } from "./ladder-command.ts";
 import { FilterwrightError, SpecError } from "../errors.ts";
 import { checkSpec, designFilter, type DesignResult, type FilterSpec, type Progress, type RunControl } from "../design/index.ts";
 import { toBomCsv, toCurveCsv, toJson, toMarkdown, toSectionsCsv, toSectionsJson, toSpiceNetlist, toSvgPlot, PLOT_KINDS, type PlotKind } from "../report/index.ts";
@@ -64,6 +65,7 @@ usage:
   filterwright design [spec options] [output options]
   filterwright design --spec file.json [spec options to override] [output options]
   filterwright demo [--scenario ${Object.keys(SCENARIOS).join("|")}] [spec options to override] [output options]
+  filterwright ladder [mask options] [ladder: options] [--netlist FILE] [--bom FILE]   (a passive LC ladder)
   filterwright topologies
   filterwright --help | --version
 
@@ -351,7 +353,7 @@ function run(argv: readonly string[], io: CliIo): number {
   }
   switch (args.command) {
     case undefined:
-      throw new CliProblem("no command given: use filterwright design, demo or topologies (filterwright --help lists the options)");
+      throw new CliProblem("no command given: use filterwright design, demo, ladder or topologies (filterwright --help lists the options)");
     case "topologies": {
       const rows = [["id", "name", "order", "kinds", "op-amps", "inverting"]];
       for (const t of topologies) rows.push([t.id, t.name, String(t.order), t.kinds.join(" "), String(t.opampCount), t.inverting ? "yes" : "no"]);
@@ -370,6 +372,18 @@ function run(argv: readonly string[], io: CliIo): number {
       }
       const start = { base, sourceName: file, heading: "" };
       return design(start, o, earlier, io);
+    }
+    case "ladder": {
+      const file = o.get("spec")?.text;
+      let base: Record<string, unknown> = {};
+      if (file !== undefined) {
+        try {
+          base = readSpecFile(file, io);
+        } catch (e) {
+          throw e instanceof CliProblem ? new CliProblems([...earlier.lines, e.message]) : e;
+        }
+      }
+      return ladderCommand(base, file, o, earlier, io);
     }
     case "demo": {
       const key = o.get("scenario")?.text ?? "vibration";

@@ -10,7 +10,8 @@
  * @module
  */
 import { formatRkm, formatValue } from "../units/index.ts";
-import type { DesignResult } from "../design/index.ts";
+import type { DesignResult, LcLadderDesign } from "../design/index.ts";
+import { InvalidArgumentError } from "../errors.ts";
 import { requireDesignResult } from "../design/check.ts";
 import { realisationOption, type RealisationChoice } from "./realisation.ts";
 import type { RealisationCandidate } from "../analysis/index.ts";
@@ -178,5 +179,29 @@ export function toBomCsv(result: DesignResult, options: BomOptions = {}): string
   for (const l of bomLines(result, options)) {
     rows.push([l.designators.join(", "), l.part, l.valueText, l.rkm, l.series, l.tolerance, l.dielectric, String(l.quantity)]);
   }
+  return `${rows.map((r) => r.map(csvField).join(",")).join("\r\n")}\r\n`;
+}
+
+/**
+ * The bill of materials of a passive LC ladder design as CSV text: one row
+ * per distinct part with its designators, value, RKM code, series,
+ * tolerance, what it must do (an inductor's Q at a frequency) and quantity.
+ *
+ * @param design - a design from `designLcLadder`
+ * @returns CSV text (CRLF line ends, UTF-8)
+ * @throws {@link InvalidArgumentError} when `design` is not a ladder design
+ * @example
+ * ```ts
+ * toLcLadderBomCsv(designLcLadder(spec)).split("\r\n")[0];
+ * //=> "designators,part,value,rkm,series,tolerance,requirement,quantity"
+ * ```
+ */
+export function toLcLadderBomCsv(design: LcLadderDesign): string {
+  const parts = (design as { parts?: unknown } | null)?.parts;
+  if (!Array.isArray(parts)) {
+    throw new InvalidArgumentError({ fn: "toLcLadderBomCsv", path: "design", received: design, message: "expected a design from designLcLadder" });
+  }
+  const rows = [["designators", "part", "value", "rkm", "series", "tolerance", "requirement", "quantity"]];
+  for (const l of design.parts) rows.push([l.designators.join(", "), l.part, l.valueText, l.rkm, l.series, l.toleranceText, l.requirement, String(l.quantity)]);
   return `${rows.map((r) => r.map(csvField).join(",")).join("\r\n")}\r\n`;
 }

@@ -181,7 +181,7 @@ describe("runCli: flags and their values", () => {
     }
     const demo = run(["demo", "--spec", "s.json"]);
     expect(demo.code).toBe(2);
-    expect(oneLine(demo.io)).toBe("filterwright: --spec belongs to the design command, not to demo");
+    expect(oneLine(demo.io)).toBe("filterwright: --spec belongs to the design and ladder commands, not to demo");
     const topo = run(["topologies", "--quiet"]);
     expect(topo.code).toBe(2);
     expect(oneLine(topo.io)).toContain("the topologies command takes no options");
