@@ -10,7 +10,8 @@ import { checkSpec, designLcLadder, lcLadderNetlist, type FilterSpec, type LcLad
 import { toLcLadderBomCsv } from "../report/index.ts";
 import { formatValue } from "../units/index.ts";
 import type { GivenOption } from "./args.ts";
-import { CliProblem, CliProblems, ioReason } from "./problems.ts";
+import { CliProblem, CliProblems } from "./problems.ts";
+import { writeOutputFiles } from "./outputs.ts";
 import { inFlagTerms, issueLines, specFromOptions } from "./spec-options.ts";
 import { table } from "./summary.ts";
 import { quoted } from "./values.ts";
@@ -108,25 +109,10 @@ export function ladderCommand(
   const merged = specFromOptions(base, o);
   if (merged.problems.length > 0) throw new CliProblems([...earlier.lines, ...merged.problems]);
   const d = designOrExplain(merged.spec, { name: sourceName, base, options: o }, earlier.lines, earlier.failed);
-  let toStdout: string | undefined;
-  for (const [flag, render] of [
+  const toStdout = writeOutputFiles(o, io, [
     ["netlist", () => lcLadderNetlist(d)],
     ["bom", () => toLcLadderBomCsv(d)],
-  ] as const) {
-    const path = o.get(flag)?.text;
-    if (path === undefined) continue;
-    const text = render();
-    if (path === "-") {
-      toStdout = text;
-      continue;
-    }
-    try {
-      io.writeFile(path, text);
-    } catch (e) {
-      throw new CliProblem(`cannot write ${path} (--${flag}): ${ioReason(e, true)}`);
-    }
-    io.stderr(`wrote ${path}\n`);
-  }
+  ]);
   const say = toStdout === undefined ? io.stdout : io.stderr;
   const text = summary(d);
   say(o.get("quiet")?.value === true ? `${text.split("\n").slice(0, 3).join("\n")}\n` : text);

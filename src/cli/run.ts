@@ -11,6 +11,7 @@
  * @module
  */
 import { ladderCommand } from "./ladder-command.ts";
+import { writeOutputFiles } from "./outputs.ts";
 import { FilterwrightError, SpecError } from "../errors.ts";
 import { checkSpec, designFilter, type DesignResult, type FilterSpec, type Progress, type RunControl } from "../design/index.ts";
 import { toBomCsv, toCurveCsv, toJson, toMarkdown, toSectionsCsv, toSectionsJson, toSpiceNetlist, toSvgPlot, PLOT_KINDS, type PlotKind } from "../report/index.ts";
@@ -196,25 +197,13 @@ function plotKindOf(o: ReadonlyMap<string, GivenOption>): PlotKind | undefined {
 
 /** Write the files asked for; returns the text bound for standard output (at most one output asks for it). */
 function writeOutputs(r: DesignResult, o: ReadonlyMap<string, GivenOption>, io: CliIo, c: RealisationComparison | undefined): string | undefined {
-  let toStdout: string | undefined;
-  for (const k of OUTPUT_OPTIONS) {
-    const path = o.get(k)?.text;
-    if (path === undefined) continue;
-    const kind = plotKindOf(o);
-    const text =
-      k === "sections" && /\.json$/i.test(path) ? toSectionsJson(r) : k === "svg" && kind !== undefined ? toSvgPlot(r, { kind }) : RENDER[k](r, c);
-    if (path === "-") {
-      toStdout = text;
-      continue;
-    }
-    try {
-      io.writeFile(path, text);
-    } catch (e) {
-      throw new CliProblem(`cannot write ${path} (--${k}): ${ioReason(e, true)}`);
-    }
-    io.stderr(`wrote ${path}\n`);
-  }
-  return toStdout;
+  const kind = plotKindOf(o);
+  const render = (k: (typeof OUTPUT_OPTIONS)[number]): string => {
+    const path = o.get(k)?.text ?? "";
+    if (k === "sections" && /\.json$/i.test(path)) return toSectionsJson(r);
+    return k === "svg" && kind !== undefined ? toSvgPlot(r, { kind }) : RENDER[k](r, c);
+  };
+  return writeOutputFiles(o, io, OUTPUT_OPTIONS.map((k) => [k, () => render(k)] as const));
 }
 
 /**
@@ -313,6 +302,16 @@ function design(start: Start, o: ReadonlyMap<string, GivenOption>, earlier: Earl
   return r.verification.boardsMeetSpec ? 0 : 1;
 }
 
+/** The base spec: the --spec file's contents, or empty without one (its read problems told with the earlier ones). */
+function specBase(file: string | undefined, earlier: Earlier, io: CliIo): Record<string, unknown> {
+  if (file === undefined) return {};
+  try {
+    return readSpecFile(file, io);
+  } catch (e) {
+    throw e instanceof CliProblem ? new CliProblems([...earlier.lines, e.message]) : e;
+  }
+}
+
 /** The spec file named by --spec, as an object. */
 function readSpecFile(file: string, io: CliIo): Record<string, unknown> {
   // "-" reads the spec from standard input (`... | filterwright design --spec -`)
@@ -362,28 +361,11 @@ function run(argv: readonly string[], io: CliIo): number {
     }
     case "design": {
       const file = o.get("spec")?.text;
-      let base: Record<string, unknown> = {};
-      if (file !== undefined) {
-        try {
-          base = readSpecFile(file, io);
-        } catch (e) {
-          throw e instanceof CliProblem ? new CliProblems([...earlier.lines, e.message]) : e;
-        }
-      }
-      const start = { base, sourceName: file, heading: "" };
-      return design(start, o, earlier, io);
+      return design({ base: specBase(file, earlier, io), sourceName: file, heading: "" }, o, earlier, io);
     }
     case "ladder": {
       const file = o.get("spec")?.text;
-      let base: Record<string, unknown> = {};
-      if (file !== undefined) {
-        try {
-          base = readSpecFile(file, io);
-        } catch (e) {
-          throw e instanceof CliProblem ? new CliProblems([...earlier.lines, e.message]) : e;
-        }
-      }
-      return ladderCommand(base, file, o, earlier, io);
+      return ladderCommand(specBase(file, earlier, io), file, o, earlier, io);
     }
     case "demo": {
       const key = o.get("scenario")?.text ?? "vibration";

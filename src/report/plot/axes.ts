@@ -8,6 +8,7 @@
  *
  * @module
  */
+import { PREFIX_FOR_EXPONENT } from "../../units/prefixes.ts";
 import { formatValue } from "../../units/index.ts";
 import { linearTicksCore, logTicksCore, niceStep, tidy, type LinearTicks } from "./ticks.ts";
 import { textWidth } from "./text.ts";
@@ -57,19 +58,6 @@ export interface Axis {
   /** Position of a value as a fraction of the axis length, 0 at `min` and 1 at `max` (beyond for values outside). */
   readonly fraction: (v: number) => number;
 }
-
-const PREFIX = new Map<number, string>([
-  [-15, "f"],
-  [-12, "p"],
-  [-9, "n"],
-  [-6, "\u00b5"],
-  [-3, "m"],
-  [0, ""],
-  [3, "k"],
-  [6, "M"],
-  [9, "G"],
-  [12, "T"],
-]);
 
 /** The power of ten (a multiple of 3) whose SI prefix writes values up to `largest` with 1 to 3 integer digits. */
 function engineeringExponent(largest: number): number {
@@ -136,7 +124,7 @@ function linearAxis(spec: AxisSpec, intervals: number): Axis {
   const inside = (v: number): boolean => v >= min - 1e-9 * (max - min) && v <= max + 1e-9 * (max - min);
   const e = spec.prefixed === true ? engineeringExponent(Math.max(Math.abs(min), Math.abs(max))) : 0;
   const factor = 10 ** e;
-  const unit = spec.prefixed === true ? `${PREFIX.get(e) ?? ""}${spec.unit}` : spec.unit;
+  const unit = spec.prefixed === true ? `${PREFIX_FOR_EXPONENT.get(e) ?? ""}${spec.unit}` : spec.unit;
   return {
     scale: "linear",
     min,
