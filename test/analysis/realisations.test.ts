@@ -4,21 +4,12 @@
  * op-amp count.
  */
 import { describe, expect, it } from "vitest";
-import { designFilter, InvalidArgumentError, type FilterSpec } from "../../src/index.ts";
+import { designFilter, InvalidArgumentError } from "../../src/index.ts";
 import { compareRealisations } from "../../src/analysis/index.ts";
 import { thrownBy } from "../helpers/throws.ts";
+import { SHARP_LOWPASS } from "../helpers/sharp-lowpass.ts";
 
-// The anti-alias lowpass ahead of a converter sampling at 52 kHz (our own scenario), as in
-// test/analysis/ladder-yield.test.ts: the cascade's boards mostly miss, the ladders' mostly meet.
-const sharp: FilterSpec = {
-  response: "lowpass",
-  passband: { edgeHz: 18_000, maxLossDb: 0.25 },
-  stopband: { edgeHz: 26_000, minAttenuationDb: 33 },
-  family: "chebyshev1",
-  order: 7,
-  parts: { resistorSeries: "E96", capacitorSeries: "E12", resistorTolerance: 0.01, capacitorTolerance: 0.02 },
-  yieldTarget: 0.5,
-};
+const sharp = SHARP_LOWPASS;
 
 describe("compareRealisations", () => {
   const design = designFilter(sharp);

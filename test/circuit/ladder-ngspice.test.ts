@@ -7,7 +7,7 @@
 import { describe, expect, it } from "vitest";
 import { acAnalysis, circuitToSpice, ladderCircuit, LADDER_SOURCE } from "../../src/circuit/index.ts";
 import { asBuiltLadder, scaleLadder, type AsBuiltLadder, type ScaledLadder } from "../../src/ladder/index.ts";
-import { requireNgspice, runAc } from "../helpers/ngspice.ts";
+import { requireNgspice, runAc, worstDbGap } from "../helpers/ngspice.ts";
 import { butterworthLadder, chebyshevLadder, ellipticLadder } from "../ladder/prototypes.ts";
 
 /**
@@ -33,16 +33,7 @@ function worstDb(l: ScaledLadder | AsBuiltLadder): { worst: number; points: numb
     re: Float64Array;
     im: Float64Array;
   };
-  let worst = 0;
-  let points = 0;
-  for (let i = 0; i < sim.freqHz.length; i++) {
-    const a = 10 * Math.log10((v.re[i] as number) ** 2 + (v.im[i] as number) ** 2);
-    const b = 10 * Math.log10((mna.re[i] as number) ** 2 + (mna.im[i] as number) ** 2);
-    if (!(b > -100)) continue;
-    points++;
-    worst = Math.max(worst, Math.abs(a - b));
-  }
-  return { worst, points };
+  return worstDbGap(v, mna);
 }
 
 const cases: [string, () => ScaledLadder | AsBuiltLadder][] = [

@@ -6,7 +6,7 @@
 import { describe, expect, it } from "vitest";
 import { acAnalysis, LADDER_SOURCE } from "../../src/circuit/index.ts";
 import { designLcLadder, lcLadderNetlist, type LcLadderDesign } from "../../src/design/lc-ladder.ts";
-import { requireNgspice, runAc } from "../helpers/ngspice.ts";
+import { requireNgspice, runAc, worstDbGap } from "../helpers/ngspice.ts";
 import { ADC_SPEC, IF_SPEC, TIGHT } from "./lc-ladder-scenarios.ts";
 
 /** Largest |dB difference| over the netlist's own sweep where the gain is above -100 dB. */
@@ -15,16 +15,7 @@ function worstDb(d: LcLadderDesign): { worst: number; points: number } {
   const sim = runAc(lcLadderNetlist(d, { pointsPerDecade: 200 }), [out]);
   const v = sim.vectors[out] as { re: Float64Array; im: Float64Array };
   const mna = acAnalysis(d.circuit, { source: LADDER_SOURCE, outputs: [out], freqHz: sim.freqHz }).outputs[out] as { re: Float64Array; im: Float64Array };
-  let worst = 0;
-  let points = 0;
-  for (let i = 0; i < sim.freqHz.length; i++) {
-    const a = 10 * Math.log10((v.re[i] as number) ** 2 + (v.im[i] as number) ** 2);
-    const b = 10 * Math.log10((mna.re[i] as number) ** 2 + (mna.im[i] as number) ** 2);
-    if (!(b > -100)) continue;
-    points++;
-    worst = Math.max(worst, Math.abs(a - b));
-  }
-  return { worst, points };
+  return worstDbGap(v, mna);
 }
 
 describe.runIf(requireNgspice())("designLcLadder netlist (ngspice)", () => {

@@ -112,3 +112,24 @@ export function runAc(netlist: string, nodes: readonly string[]): AcResult {
     rmSync(dir, { recursive: true, force: true });
   }
 }
+
+/**
+ * Largest |dB difference| between two complex responses on the same
+ * frequencies, over the points where `reference` is above `floorDb`.
+ *
+ * @param a - one response
+ * @param reference - the other (its level picks the points compared)
+ * @param floorDb - points below this level of `reference` are skipped
+ */
+export function worstDbGap(a: { re: Float64Array; im: Float64Array }, reference: { re: Float64Array; im: Float64Array }, floorDb = -100): { worst: number; points: number } {
+  let worst = 0;
+  let points = 0;
+  for (let i = 0; i < reference.re.length; i++) {
+    const x = 10 * Math.log10((a.re[i] as number) ** 2 + (a.im[i] as number) ** 2);
+    const y = 10 * Math.log10((reference.re[i] as number) ** 2 + (reference.im[i] as number) ** 2);
+    if (!(y > floorDb)) continue;
+    points++;
+    worst = Math.max(worst, Math.abs(x - y));
+  }
+  return { worst, points };
+}

@@ -7,21 +7,13 @@ import { spawnSync } from "node:child_process";
 import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { bomLines, compareRealisations, designFilter, InvalidArgumentError, toBomCsv, toMarkdown, toSpiceNetlist, type FilterSpec, type RealisationCandidate } from "../../src/index.ts";
+import { bomLines, compareRealisations, designFilter, InvalidArgumentError, toBomCsv, toMarkdown, toSpiceNetlist, type RealisationCandidate } from "../../src/index.ts";
 import { acAnalysis } from "../../src/circuit/index.ts";
 import { requireNgspice, runAc, assertNgspice } from "../helpers/ngspice.ts";
 import { thrownBy } from "../helpers/throws.ts";
+import { SHARP_LOWPASS } from "../helpers/sharp-lowpass.ts";
 
-// The 52 kS/s converter's anti-alias lowpass of test/analysis/realisations.test.ts (our own scenario).
-const spec: FilterSpec = {
-  response: "lowpass",
-  passband: { edgeHz: 18_000, maxLossDb: 0.25 },
-  stopband: { edgeHz: 26_000, minAttenuationDb: 33 },
-  family: "chebyshev1",
-  order: 7,
-  parts: { resistorSeries: "E96", capacitorSeries: "E12", resistorTolerance: 0.01, capacitorTolerance: 0.02 },
-  yieldTarget: 0.5,
-};
+const spec = SHARP_LOWPASS;
 const design = designFilter(spec);
 const comparison = compareRealisations(design, { runs: 300, seed: 4 });
 const [cascade, leapfrog, fdnr] = comparison.candidates as [RealisationCandidate, RealisationCandidate, RealisationCandidate];
