@@ -31,20 +31,20 @@
  * 4. With a real op-amp (pre-distorted stages), step 3 scores the ideal
  *    figures of each exact design's neighbours against the wanted f0 and Q
  *    divided by the shift the op-amp gives that exact design (one
- *    `asBuiltPole` per exact design; to first order the error of the pole with
+ *    `stagePole` per exact design; to first order the error of the pole with
  *    the op-amp), and the best few dozen candidates are then ranked again by
- *    the pole they really have WITH that op-amp (`asBuiltPole`).
+ *    the pole they really have WITH that op-amp (`stagePole`).
  *
  * @module
  */
 import { isInSeries, seriesValuesInRange, snapToSeries } from "../parts/index.ts";
 import type { OpAmpModel } from "../circuit/types.ts";
-import { asBuiltPole } from "../topologies/index.ts";
+import { stagePole } from "../topologies/as-built.ts";
 import { topologyCore } from "../topologies/define.ts";
 import type { AsBuiltPole } from "../topologies/as-built.ts";
 import type { ComponentValues, StageChoices, StageTarget, Topology } from "../topologies/types.ts";
 import type { DesignSpec } from "./spec.ts";
-import { neighbours, resistorsWithin, searchResistors } from "./resistor-search.ts";
+import { addToBound, neighbours, resistorsWithin, searchResistors, type SearchBound } from "./resistor-search.ts";
 import { PREFERRED_CAPACITOR_MAX, partLimits, type PartLimits } from "./impedance-level.ts";
 import { costOf, evaluate, isCap, isRes, stageErrors, type ValueSet } from "./stage-cost.ts";
 
@@ -327,8 +327,8 @@ function localTarget(t: Topology, target: StageTarget, exact: ComponentValues, s
   if (scoring === undefined || target.q === undefined || scoring.wanted.q === undefined) return target;
   try {
     const ideal = t.figures(exact);
-    const pole = asBuiltPole(t, exact, scoring.opamp);
-    if (pole.q === undefined || ideal.q === undefined || !(pole.q > 0) || !(pole.f0Hz > 0)) return target;
+    const pole = stagePole(t, exact, scoring.opamp);
+    if (pole === null || pole.q === undefined || ideal.q === undefined || !(pole.q > 0) || !(pole.f0Hz > 0)) return target;
     const f0Hz = (scoring.wanted.f0Hz * ideal.f0Hz) / pole.f0Hz;
     const q = (scoring.wanted.q * ideal.q) / pole.q;
     return Number.isFinite(f0Hz) && Number.isFinite(q) ? { ...target, f0Hz, q } : target;
@@ -339,13 +339,13 @@ function localTarget(t: Topology, target: StageTarget, exact: ComponentValues, s
 
 /** The same set scored by its pole with the op-amp; null when that pole cannot be found. */
 function rescore(t: Topology, v: ValueSet, target: StageTarget, scoring: OpampScoring): ValueSet | null {
-  let pole: AsBuiltPole;
+  let pole: AsBuiltPole | null;
   try {
-    pole = asBuiltPole(t, v.values, scoring.opamp);
+    pole = stagePole(t, v.values, scoring.opamp);
   } catch {
     return null;
   }
-  if (!Number.isFinite(pole.f0Hz) || (pole.q !== undefined && !(pole.q > 0))) return null;
+  if (pole === null || !Number.isFinite(pole.f0Hz) || (pole.q !== undefined && !(pole.q > 0))) return null;
   const poleErrors = stageErrors({ ...v.figures, f0Hz: pole.f0Hz, ...(pole.q === undefined ? {} : { q: pole.q }) }, scoring.wanted);
   const errors = { ...stageErrors(v.figures, target), f0: poleErrors.f0, q: poleErrors.q };
   const cost = costOf(errors);
@@ -367,6 +367,49 @@ export function tuneStage(
   spec: DesignSpec,
   options: TuneOptions = {},
 ): TunedStage | null {
+  const key = `${t.id} ${tuneKey(target, spec, options)}`;
+  const hit = tunedStages.get(key);
+  if (hit !== undefined && hit.topology === t) return hit.tuned;
+  if (tunedStages.size >= TUNE_CACHE_SIZE) tunedStages.clear();
+  const tuned = tuneStageUncached(t, target, spec, options);
+  tunedStages.set(key, { topology: t, tuned });
+  return tuned;
+}
+
+/**
+ * Stages tuned lately, by topology and everything the search reads: the
+ * design loop tunes the same stage again (each attempt and yield candidate
+ * re-plans the cascade), and the search is a pure function of its key, so a
+ * kept result is the one a new search would return. At most this many
+ * (a few kB each), then cleared.
+ */
+const TUNE_CACHE_SIZE = 256;
+const tunedStages = new Map<string, { readonly topology: Topology; readonly tuned: TunedStage | null }>();
+
+/** Everything {@link tuneStage} reads, as a string: the target, the spec's series and windows, and the options. */
+function tuneKey(target: StageTarget, spec: DesignSpec, o: TuneOptions): string {
+  const s = o.opampScoring;
+  return JSON.stringify([
+    target,
+    spec.resistorSeries,
+    spec.capacitorSeries,
+    spec.resistorRange,
+    spec.capacitorRange,
+    o.capacitors,
+    o.spread,
+    o.keep,
+    o.preferredCapacitors === undefined ? null : [...o.preferredCapacitors].sort((a, b) => a - b),
+    s === undefined ? null : [s.opamp, s.wanted, s.count],
+    o.limits ?? null,
+  ], (_k, v: unknown) => (typeof v === "number" && !Number.isFinite(v) ? String(v) : v));
+}
+
+function tuneStageUncached(
+  t: Topology,
+  target: StageTarget,
+  spec: DesignSpec,
+  options: TuneOptions,
+): TunedStage | null {
   const keep = options.keep ?? 6;
   const limits = options.limits ?? partLimits(spec);
   const bases = capacitorCandidates(t, target, spec, { keep: options.capacitors ?? 10, limits });
@@ -386,18 +429,27 @@ export function tuneStage(
   const plain = evaluate(t, plainSnap(first.values, spec), target);
   const scoring = options.opampScoring;
   const all: ValueSet[] = [];
+  // Below, the first `depth` sets of the sorted list are read (and, to reuse capacitors, those within 1e-3 of the best).
+  const bound: SearchBound = {
+    depth: scoring === undefined ? keep : Math.max(scoring.count ?? 24, keep),
+    near: options.preferredCapacitors !== undefined && options.preferredCapacitors.size > 0 ? 1e-3 : -Infinity,
+    costs: [],
+  };
+  const search = (exact: ComponentValues, spread: number): void => {
+    const found = searchResistors(t, localTarget(t, target, exact, scoring), exact, spec, spread, keep, limits, bound);
+    addToBound(bound, found);
+    all.push(...found);
+  };
   for (const base of bases) {
     const designs = Number.isNaN(base.c) ? [base.values] : centred(stockCapacitorDesigns(t, target, spec, { ...base, limits }), spec, base.centring);
-    for (const exact of designs) {
-      all.push(...searchResistors(t, localTarget(t, target, exact, scoring), exact, spec, options.spread ?? 2, keep, limits));
-    }
+    for (const exact of designs) search(exact, options.spread ?? 2);
   }
   all.sort((a, b) => a.cost - b.cost);
   // A coarse result (worse than 0.3 %) gets one wider search around the best few bases.
   if ((all[0]?.cost ?? Infinity) > 3e-3 && (options.spread ?? 2) < 3) {
     for (const base of bases.slice(0, 4)) {
       const designs = Number.isNaN(base.c) ? [base.values] : centred(stockCapacitorDesigns(t, target, spec, { ...base, limits }), spec, base.centring);
-      for (const exact of designs) all.push(...searchResistors(t, localTarget(t, target, exact, scoring), exact, spec, 3, keep, limits));
+      for (const exact of designs) search(exact, 3);
     }
     all.sort((a, b) => a.cost - b.cost);
   }

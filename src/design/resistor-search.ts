@@ -87,6 +87,41 @@ function valuesOf(w: Workspace): ComponentValues {
 }
 
 /**
+ * What the earlier searches of one stage returned, for the exact pruning of
+ * the later ones (several capacitor bases and exact designs per stage): the
+ * ascending costs of the best `depth` sets among all they returned, and how
+ * far above the best a set still matters to the caller (the re-ranking by
+ * shared capacitors looks 1e-3 above the best; `-Infinity` when nothing
+ * does). A later trial whose f0 bound reaches both is refused: it could not
+ * rank among the first `depth` of the combined, sorted list, nor come within
+ * `near` of its best, so the caller's choice is exactly that of costing it.
+ *
+ * @internal
+ */
+export interface SearchBound {
+  /** How many of the best sets of the combined list the caller reads. */
+  readonly depth: number;
+  /** How far above the best cost a set still matters. */
+  readonly near: number;
+  /** Ascending costs of the best `depth` sets returned so far (updated by {@link addToBound}). */
+  readonly costs: number[];
+}
+
+/**
+ * Merge the sets one search returned into a {@link SearchBound}.
+ *
+ * @param bound - the bound (its costs updated in place)
+ * @param sets - what the search returned
+ * @internal
+ */
+export function addToBound(bound: SearchBound, sets: readonly ValueSet[]): void {
+  const c = bound.costs;
+  for (const v of sets) if (Number.isFinite(v.cost)) c.push(v.cost);
+  c.sort((a, b) => a - b);
+  if (c.length > bound.depth) c.length = bound.depth;
+}
+
+/**
  * The best `keep` value sets met so far, in ascending cost (ties in the order
  * they were met), and the trial that costs the values the workspace holds.
  *
@@ -99,14 +134,21 @@ function valuesOf(w: Workspace): ComponentValues {
  * beat the best, so the search goes on exactly as if it had been costed. A
  * refused trial reports Infinity.
  */
-function finalists(w: Workspace, target: StageTarget, keep: number): { found: ValueSet[]; trial: () => number } {
+function finalists(w: Workspace, target: StageTarget, keep: number, earlier: SearchBound | undefined): { found: ValueSet[]; trial: () => number } {
   const found: ValueSet[] = [];
   const f0Hz = w.f0Hz;
+  // A set whose bound reaches the `depth`-th best cost the earlier searches returned, and lies more
+  // than `near` above their best, cannot rank where the caller looks: refused like the others.
+  const costs = earlier?.costs ?? [];
+  const rankBound = earlier !== undefined && earlier.depth > 0 && costs.length >= earlier.depth ? (costs[earlier.depth - 1] as number) : Infinity;
+  const nearBound = rankBound < Infinity ? (costs[0] as number) + (earlier as SearchBound).near : Infinity;
   /** Cost the values in the workspace (NaN or Infinity when unusable or refused) and keep them when they rank among the best `keep`. */
   const trial = (): number => {
-    if (f0Hz !== undefined && found.length >= keep) {
+    if (f0Hz !== undefined && (found.length >= keep || rankBound < Infinity)) {
       const e = rel(f0Hz(), target.f0Hz);
-      if (e + 0.1 * e >= (found[found.length - 1] as ValueSet).cost) return Infinity;
+      const b = e + 0.1 * e;
+      if (b >= rankBound && b > nearBound) return Infinity;
+      if (found.length >= keep && b >= (found[found.length - 1] as ValueSet).cost) return Infinity;
     }
     let fig: StageFigures;
     try {
@@ -141,7 +183,8 @@ function finalists(w: Workspace, target: StageTarget, keep: number): { found: Va
  * @param spread - preferred values tried on each side of every resistor
  * @param keep - sets returned
  * @param limits - hard part limits no resistor passes (default `partLimits(spec)`, impedance-level.ts)
- * @returns the best `keep` sets met, ascending cost (ties in the order met)
+ * @param earlier - what earlier searches of the same stage returned (exact pruning across searches; see {@link SearchBound})
+ * @returns the best `keep` sets met, ascending cost (ties in the order met); with `earlier`, less those refused by its bound
  * @throws never
  * @example
  * ```ts
@@ -157,6 +200,7 @@ export function searchResistors(
   spread: number,
   keep: number,
   limits: PartLimits = partLimits(spec),
+  earlier?: SearchBound,
 ): ValueSet[] {
   const w = workspace(t, exact);
   const x = w.x;
@@ -165,8 +209,9 @@ export function searchResistors(
   const lim = limits.resistor;
   const options = slots.map((i) => neighbours(x[i] as number, spec.resistorSeries, spread).filter((v) => v >= lim.min * (1 - 1e-9) && v <= lim.max * (1 + 1e-9)));
   if (options.some((o) => o.length === 0)) return [];
-  const { found, trial } = finalists(w, target, keep);
   const total = options.reduce((p, o) => p * o.length, 1);
+  // The descent steers by each trial's cost, so only the exhaustive walk takes the earlier searches' bound.
+  const { found, trial } = finalists(w, target, keep, total <= 1024 ? earlier : undefined);
   const idx = slots.map(() => 0);
   if (total <= 1024) {
     // Every combination, the first resistor's choice changing fastest.

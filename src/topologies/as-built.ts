@@ -8,7 +8,12 @@
  * method for solving algebraic equations using an automatic computer", MTAC
  * 10:208-215, 1956; `math/muller.ts`), started from the ideal pole, to about
  * 1e-13 relative. Two real poles (Q <= 1/2) are found one after the other,
- * the second with the first divided out.
+ * the second with the first divided out. Where the topology has closed-form
+ * as-built polynomials (every one in the registry, for the ideal and
+ * single-pole models), the same iteration runs on their denominator, the
+ * nodal determinant up to a constant factor (a Horner evaluation per step
+ * instead of a complex LU; the same root to 1e-9); the nodal determinant
+ * stays for the models the polynomials do not cover (an output resistance).
  *
  * GBW demand method: the stage is designed for the target, its op-amps are
  * replaced by the single-pole model (a0 = 1e12, so the gain-bandwidth product
@@ -277,15 +282,10 @@ export function asBuiltPole(topology: Topology, values: ComponentValues, opamp: 
     throw new InvalidArgumentError({ fn, path: "values", received: values, message: "expected component values keyed by designator" });
   }
   for (const n of topology.componentNames) requirePositive(fn, `values.${n}`, values[n]);
-  const circuit = checkCircuit(fn, {
-    title: topology.name,
-    elements: [
-      { kind: "V", name: "Vin", a: "in", b: "0", ac: 1 },
-      ...topology.elements(values, { input: "in", output: "out", nodePrefix: "x_", opamp }),
-    ],
-  });
+  // Validates the model and the values the way the circuit path needs them (throws the typed errors).
+  const circuit = checkCircuit(fn, { title: topology.name, elements: stageElements(topology, values, opamp) });
   const ideal = topology.figures(values);
-  const p = circuitPole(circuit, topology.order, ideal);
+  const p = polynomialStagePole(topology, values, opamp, ideal) ?? circuitPole(circuit, topology.order, ideal);
   if (p === null || !Number.isFinite(p.f0Hz) || (p.q !== undefined && !Number.isFinite(p.q))) {
     throw new ConvergenceError({
       fn,
@@ -295,4 +295,41 @@ export function asBuiltPole(topology: Topology, values: ComponentValues, opamp: 
     });
   }
   return p;
+}
+
+/** The stage driven by `Vin` at `in`, output at `out`. */
+function stageElements(topology: Topology, values: ComponentValues, opamp: OpAmpModel): Circuit["elements"] {
+  return [{ kind: "V", name: "Vin", a: "in", b: "0", ac: 1 }, ...topology.elements(values, { input: "in", output: "out", nodePrefix: "x_", opamp })];
+}
+
+/** The pole from the topology's closed-form polynomials ({@link polynomialPole}); null without them, for a model they do not cover, or when the iteration fails. */
+function polynomialStagePole(topology: Topology, values: ComponentValues, opamp: OpAmpModel, ideal: AsBuiltPole): AsBuiltPole | null {
+  const into = topology.polynomialsInto;
+  const degree = topology.polynomialDegree;
+  if (into === undefined || degree === undefined) return null;
+  const x = new Float64Array(topology.componentNames.length);
+  for (let i = 0; i < x.length; i++) x[i] = values[topology.componentNames[i] as string] as number;
+  return polynomialPole(into, degree, x, opamp, topology.order, ideal);
+}
+
+/**
+ * {@link asBuiltPole} without the argument checks, for the design loop's
+ * candidates (values the topology designed): the pole from the closed-form
+ * polynomials where the topology has them (a Horner evaluation per Muller
+ * step; the same root as the nodal determinant's to 1e-9,
+ * test/topologies/gbw-demand.test.ts), else from the nodal determinant.
+ * Null when no pole is found near the ideal one.
+ *
+ * @param topology - the stage's topology
+ * @param values - valid component values
+ * @param opamp - a valid op-amp model
+ * @returns the pole, or null
+ * @throws never for valid arguments
+ * @internal
+ */
+export function stagePole(topology: Topology, values: ComponentValues, opamp: OpAmpModel): AsBuiltPole | null {
+  const ideal = topology.figures(values);
+  const p = polynomialStagePole(topology, values, opamp, ideal);
+  if (p !== null) return p;
+  return circuitPole({ title: topology.name, elements: stageElements(topology, values, opamp) }, topology.order, ideal);
 }
