@@ -101,10 +101,10 @@ export function activeLadderMonteCarlo(result: DesignResult, ladder: ActiveLadde
       yield: p,
       yieldStandardError: Math.sqrt((p * (1 - p)) / settings.runs),
       tolerances: { resistor, capacitor },
-      marginDb: spread(run.marginDb),
-      passbandLossDb: spread(run.passbandLossDb),
-      stopbandAttenuationDb: spread(run.stopbandAttenuationDb),
-      gainDb: spread(run.gainDb),
+      marginDb: spread(run.marginDb, "activeLadderMonteCarlo"),
+      passbandLossDb: spread(run.passbandLossDb, "activeLadderMonteCarlo", "passbandLossDb"),
+      stopbandAttenuationDb: spread(run.stopbandAttenuationDb, "activeLadderMonteCarlo", "stopbandAttenuationDb"),
+      gainDb: spread(run.gainDb, "activeLadderMonteCarlo", "gainDb"),
       worstBoard,
     }, monteCarloBundle);
   });

@@ -17,7 +17,7 @@
  */
 import { withDisplay } from "../display.ts";
 import { monteCarloBundle } from "./display.ts";
-import { InvalidArgumentError } from "../errors.ts";
+import { InvalidArgumentError, SingularCircuitError } from "../errors.ts";
 import { requireInRange, requireInteger, requireOneOf, requireOptions } from "../validate.ts";
 import type { DesignResult } from "../design/index.ts";
 import { builtStages } from "../design/response.ts";
@@ -114,10 +114,27 @@ export interface MonteCarloResult {
   readonly worstBoard: Readonly<Record<string, number>>;
 }
 
-/** Smallest, median and largest of the finite entries (a singular board has none; -Infinity when no board has one). */
-export function spread(xs: Float64Array): Spread {
+/**
+ * Smallest, median and largest of the finite entries (a singular board has none).
+ *
+ * @param xs - one figure of every board
+ * @param fn - the public function, for the error
+ * @param figure - the figure's name, for the error
+ * @returns the spread
+ * @throws {@link SingularCircuitError} when no board has a finite figure (every board's circuit singular)
+ */
+export function spread(xs: Float64Array, fn = "monteCarlo", figure = "marginDb"): Spread {
   const s = xs.filter((x) => Number.isFinite(x)).sort();
-  if (s.length === 0) return { min: -Infinity, median: -Infinity, max: -Infinity };
+  if (s.length === 0) {
+    throw new SingularCircuitError(
+      {
+        fn,
+        path: "options",
+        message: `no board of the run has a finite ${figure}: every board's circuit was singular; check the design's parts, or lower options.resistorTolerance / options.capacitorTolerance`,
+      },
+      [],
+    );
+  }
   const m = s.length >> 1;
   const median = s.length % 2 === 1 ? (s[m] as number) : ((s[m - 1] as number) + (s[m] as number)) / 2;
   return { min: s[0] as number, median, max: s[s.length - 1] as number };
@@ -245,9 +262,9 @@ export function monteCarloSummary(
       capacitor: ct ?? Math.max(...stages.flatMap((s) => [...s.tolerance].filter((_, i) => (s.compiled.componentNames[i] as string).startsWith("C")))),
     },
     marginDb: spread(run.marginDb),
-    passbandLossDb: spread(run.passbandLossDb),
-    stopbandAttenuationDb: spread(run.stopbandAttenuationDb),
-    gainDb: spread(run.gainDb),
+    passbandLossDb: spread(run.passbandLossDb, "monteCarlo", "passbandLossDb"),
+    stopbandAttenuationDb: spread(run.stopbandAttenuationDb, "monteCarlo", "stopbandAttenuationDb"),
+    gainDb: spread(run.gainDb, "monteCarlo", "gainDb"),
     worstBoard,
   }, monteCarloBundle);
 }
@@ -260,6 +277,7 @@ export function monteCarloSummary(
  * @param options - runs, seed and tolerances
  * @returns the yield and the spread of the mask figures
  * @throws `InvalidArgumentError` for a non-integer or out-of-range `runs`/`seed`, or a tolerance outside [0, 0.5]
+ * @throws `SingularCircuitError` when no board of the run has a finite figure (every board singular)
  * @example
  * ```ts
  * const spec = { response: "lowpass", passband: { edgeHz: "1k", maxLossDb: 1 }, stopband: { edgeHz: "4k", minAttenuationDb: 40 } };

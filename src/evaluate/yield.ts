@@ -44,7 +44,8 @@ export function wilsonInterval(passed: number, n: number, z = Z95): readonly [nu
   const z2 = z * z;
   const centre = (p + z2 / (2 * n)) / (1 + z2 / n);
   const half = (z / (1 + z2 / n)) * Math.sqrt((p * (1 - p)) / n + z2 / (4 * n * n));
-  return [Math.max(0, centre - half), Math.min(1, centre + half)];
+  // At p = 0 and p = 1 the interval's outer end is exactly 0 and 1; the rounded sum leaves it an ulp inside.
+  return [passed <= 0 ? 0 : Math.max(0, centre - half), passed >= n ? 1 : Math.min(1, centre + half)];
 }
 
 /** Options of {@link sequentialYield}. */

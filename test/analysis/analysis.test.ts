@@ -2,7 +2,8 @@ import { describe, expect, it } from "vitest";
 import { designFilter, designResponse, type DesignResult, type FilterSpec } from "../../src/design/index.ts";
 import { monteCarlo, opampRequirements } from "../../src/analysis/index.ts";
 import { toSpiceNetlist } from "../../src/report/index.ts";
-import { InvalidArgumentError } from "../../src/errors.ts";
+import { InvalidArgumentError, SingularCircuitError } from "../../src/errors.ts";
+import { spread } from "../../src/analysis/tolerance.ts";
 import { requireNgspice, runAc } from "../helpers/ngspice.ts";
 
 const haveSpice = requireNgspice();
@@ -153,5 +154,14 @@ describe("partSensitivities", () => {
     expect(get("C1").q).toBeCloseTo(0.5, 6);
     expect(get("C2").q).toBeCloseTo(-0.5, 6);
     for (const l of ["R1", "R2", "C1", "C2"]) expect(get(l).f0).toBeCloseTo(-0.5, 6);
+  });
+});
+
+describe("spread (the Monte Carlo figures' min, median and max)", () => {
+  it("takes the finite figures only, and refuses a run where no board has one (never -Infinity)", () => {
+    expect(spread(Float64Array.from([3, Number.NaN, 1, Infinity, 2]))).toEqual({ min: 1, median: 2, max: 3 });
+    expect(spread(Float64Array.from([4, 1]))).toEqual({ min: 1, median: 2.5, max: 4 });
+    expect(() => spread(Float64Array.from([Number.NaN, -Infinity]), "monteCarlo", "gainDb")).toThrow(SingularCircuitError);
+    expect(() => spread(new Float64Array(0))).toThrow(/no board of the run has a finite marginDb/);
   });
 });

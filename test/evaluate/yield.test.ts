@@ -17,6 +17,16 @@ describe("wilsonInterval", () => {
       expect(Math.abs(hi - c.upper)).toBeLessThan(1e-12);
     }
   });
+
+  it("reaches exactly 1 when every board passes and exactly 0 when none does", () => {
+    for (const n of [1, 7, 256, 1280, 100_000]) {
+      expect(wilsonInterval(n, n)[1]).toBe(1);
+      expect(wilsonInterval(0, n)[0]).toBe(0);
+      // the inner ends stay strictly inside
+      expect(wilsonInterval(n, n)[0]).toBeLessThan(1);
+      expect(wilsonInterval(0, n)[1]).toBeGreaterThan(0);
+    }
+  });
 });
 
 // A strain-gauge lowpass (our own scenario) built from toleranced parts.
