@@ -125,6 +125,7 @@ export {
   toSpiceNetlist,
   toBomCsv,
   toLcLadderBomCsv,
+  lcLadderMarkdown,
   bomLines,
   toJson,
   fromJson,

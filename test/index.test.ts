@@ -41,6 +41,7 @@ const ROOT_NAMES = [
   "toCurveCsv",
   "toJson",
   "toLcLadderBomCsv",
+  "lcLadderMarkdown",
   "toMarkdown",
   "toSectionsCsv",
   "toSectionsJson",

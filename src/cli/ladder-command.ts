@@ -1,13 +1,13 @@
 /**
  * `filterwright ladder`: a passive doubly terminated LC ladder from the
  * same mask options as `design` (`designLcLadder`), its verdict on the
- * boards built from toleranced parts, and its netlist and BOM.
+ * boards built from toleranced parts, and its netlist, BOM and Markdown summary.
  *
  * @module
  */
 import { FilterwrightError, SpecError } from "../errors.ts";
 import { checkSpec, designLcLadder, lcLadderNetlist, type FilterSpec, type LcLadderDesign, type LcLadderOptions } from "../design/index.ts";
-import { toLcLadderBomCsv } from "../report/index.ts";
+import { lcLadderMarkdown, toLcLadderBomCsv } from "../report/index.ts";
 import { formatValue } from "../units/index.ts";
 import type { GivenOption } from "./args.ts";
 import { CliProblem, CliProblems } from "./problems.ts";
@@ -112,6 +112,7 @@ export function ladderCommand(
   const toStdout = writeOutputFiles(o, io, [
     ["netlist", () => lcLadderNetlist(d)],
     ["bom", () => toLcLadderBomCsv(d)],
+    ["markdown", () => lcLadderMarkdown(d)],
   ]);
   const say = toStdout === undefined ? io.stdout : io.stderr;
   const text = summary(d);

@@ -53,7 +53,7 @@ import { responseSpanHz } from "./verify.ts";
 
 const FN = "designLcLadder";
 
-/** The run's worst board by element name (a passive ladder's boards are never singular, so its margin is finite). */
+/** The run's worst board by element name (a passive ladder's boards are never singular nor put to the stability test, so its margin is finite). */
 function worstBoardOf(names: readonly string[], run: BoardRun): LcLadderBoard {
   const v = run.worstValues[0] as Float64Array;
   const values: Record<string, number> = {};

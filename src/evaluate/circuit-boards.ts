@@ -153,5 +153,12 @@ export function circuitBoardStage(circuit: Circuit, options: CircuitBoardOptions
   };
   const tolerance = Float64Array.from(names, toleranceOf);
   const { source, output, spanRadS } = options;
-  return { compiled: compileCircuit(circuit, names, { source, output, spanRadS }), nominal: nominalValues(circuit, names), tolerance, radius: options.radiusRadS };
+  const passive = circuit.elements.every((e) => e.kind === "R" || e.kind === "L" || e.kind === "C" || e.kind === "V");
+  return {
+    compiled: compileCircuit(circuit, names, { source, output, spanRadS }),
+    nominal: nominalValues(circuit, names),
+    tolerance,
+    radius: options.radiusRadS,
+    ...(passive ? { passive: true as const } : {}),
+  };
 }

@@ -1,10 +1,10 @@
 /**
  * filterwright ladder: a passive LC ladder from the mask options, its verdict
- * on the boards, its netlist and BOM; flag errors told as flags.
+ * on the boards, its netlist, BOM and Markdown summary; flag errors told as flags.
  */
 import { describe, expect, it } from "vitest";
 import { runCli, type CliIo } from "../../src/cli/run.ts";
-import { designLcLadder, lcLadderNetlist, toLcLadderBomCsv } from "../../src/index.ts";
+import { designLcLadder, lcLadderMarkdown, lcLadderNetlist, toLcLadderBomCsv } from "../../src/index.ts";
 
 // A 30 MHz anti-alias lowpass ahead of a fast converter, 50 ohm (our own scenario).
 const MASK = ["--response", "lowpass", "--pass", "30M", "--pass-loss", "1", "--stop", "60M", "--stop-atten", "40"];
@@ -20,7 +20,7 @@ function run(argv: readonly string[], stdin = ""): { code: number; out: string; 
 
 describe("filterwright ladder", () => {
   it("designs the ladder, prints its verdict on the boards and its parts, exits 0 when they meet the spec", () => {
-    const r = run(["ladder", ...MASK, ...PARTS, "--netlist", "l.cir", "--bom", "l.csv"]);
+    const r = run(["ladder", ...MASK, ...PARTS, "--netlist", "l.cir", "--bom", "l.csv", "--markdown", "l.md"]);
     expect(r.code).toBe(0);
     expect(r.out).toMatch(/^MEETS the spec: lowpass LC ladder, \w+ order \d+ \((shunt|series)-first\), 50 Ω source, 50 Ω load/);
     expect(r.out).toMatch(/^boards: [\d.]+ % of 300 \[/m);
@@ -30,6 +30,7 @@ describe("filterwright ladder", () => {
     );
     expect(r.files.get("l.cir")).toBe(lcLadderNetlist(d));
     expect(r.files.get("l.csv")).toBe(toLcLadderBomCsv(d));
+    expect(r.files.get("l.md")).toBe(lcLadderMarkdown(d));
     expect(r.files.get("l.csv")?.split("\r\n")[0]).toBe("designators,part,value,rkm,series,tolerance,requirement,quantity");
     for (const p of d.parts) expect(r.out).toContain(p.designators.join(", "));
   });
