@@ -367,24 +367,45 @@ export function tuneStage(
   spec: DesignSpec,
   options: TuneOptions = {},
 ): TunedStage | null {
+  const cache = tunedStages;
+  if (cache === null) return tuneStageUncached(t, target, spec, options);
   const key = `${t.id} ${tuneKey(target, spec, options)}`;
-  const hit = tunedStages.get(key);
+  const hit = cache.get(key);
   if (hit !== undefined && hit.topology === t) return hit.tuned;
-  if (tunedStages.size >= TUNE_CACHE_SIZE) tunedStages.clear();
+  if (cache.size >= TUNE_CACHE_SIZE) cache.clear();
   const tuned = tuneStageUncached(t, target, spec, options);
-  tunedStages.set(key, { topology: t, tuned });
+  cache.set(key, { topology: t, tuned });
   return tuned;
 }
 
 /**
- * Stages tuned lately, by topology and everything the search reads: the
+ * The stages tuned during one design (see {@link withTunedStages}): the
  * design loop tunes the same stage again (each attempt and yield candidate
  * re-plans the cascade), and the search is a pure function of its key, so a
- * kept result is the one a new search would return. At most this many
- * (a few kB each), then cleared.
+ * kept result is the one a new search would return. At most this many (a
+ * few kB each), then cleared; null outside a design, so nothing is kept
+ * from one call to the next.
  */
 const TUNE_CACHE_SIZE = 256;
-const tunedStages = new Map<string, { readonly topology: Topology; readonly tuned: TunedStage | null }>();
+let tunedStages: Map<string, { readonly topology: Topology; readonly tuned: TunedStage | null }> | null = null;
+
+/**
+ * Run `f` (one design) with a fresh cache of tuned stages, dropped when it
+ * returns or throws.
+ *
+ * @param f - the design
+ * @returns what `f` returns
+ * @internal
+ */
+export function withTunedStages<T>(f: () => T): T {
+  const outer = tunedStages;
+  tunedStages = new Map();
+  try {
+    return f();
+  } finally {
+    tunedStages = outer;
+  }
+}
 
 /** Everything {@link tuneStage} reads, as a string: the target, the spec's series and windows, and the options. */
 function tuneKey(target: StageTarget, spec: DesignSpec, o: TuneOptions): string {

@@ -19,6 +19,7 @@ import { chooseFamily } from "./family.ts";
 import { orderRange, searchDesign } from "./recovery.ts";
 import { assembleResult } from "./result.ts";
 import { designForYieldAcrossFamilies } from "./yield.ts";
+import { withTunedStages } from "./components.ts";
 import { feasibility } from "./relax.ts";
 import type { DesignResult } from "./types.ts";
 import type { FilterSpec } from "./spec-types.ts";
@@ -61,7 +62,7 @@ export { LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./result.ts";
  */
 export function designFilter(spec: FilterSpec, control?: RunControl): DesignResult {
   const canonical: DesignSpec = validateSpec(spec);
-  return watched("designFilter", "control", checkRunControl("designFilter", "control", control), () => {
+  return watched("designFilter", "control", checkRunControl("designFilter", "control", control), () => withTunedStages(() => {
     checkpoint("family", "family and order");
     const chosen = chooseFamily(canonical);
     const { family, order } = chosen;
@@ -73,5 +74,5 @@ export function designFilter(spec: FilterSpec, control?: RunControl): DesignResu
     const actions = robust.family === family ? [...nominal.actions, ...robust.actions] : [...robust.actions];
     checkpoint("result", `result: ${robust.family}`);
     return assembleResult(canonical, { family: robust.family, choice, minimumOrder: orders.minimum, actions }, robust);
-  });
+  }));
 }
