@@ -16,6 +16,17 @@
  * of the cap and an even share of what remains, so 40 dB does not land in one
  * stage with a large capacitor spread and GBW demand.
  *
+ * One exception to the equal-peak rule saves op-amps (bounded-gain.ts): a
+ * one-op-amp stage whose gain has a ceiling below its wish (the
+ * single-amplifier highpass-notch's high-frequency gain is below unity) may
+ * take 90 % of its ceiling when that leaves its output at most 1.4 dB below
+ * the output level (the later stages make the rest up), and a last stage may
+ * take it when the stages before it, lifted to make up the rest, peak at most
+ * 1.4 dB above the output level and the cascade then needs fewer op-amps.
+ * The search at each order and the yield ladder also try every stage at its
+ * equal-peak gain (`gainBounds: "none"`) and keep that where the other
+ * misses the mask or the yield target.
+ *
  * Topology choice is rule-based (common practice, no source): Sallen-Key
  * unity gain for low-Q lowpass/highpass at unity gain, Sallen-Key with gain
  * for low Q above unity, multiple feedback for moderate Q, inverting stages or
@@ -40,6 +51,7 @@ import { TWO_PI } from "../units/constants.ts";
 import type { DesignSpec } from "./spec.ts";
 import { levelFit } from "./components.ts";
 import { characteristicFrequencyHz, defaultResistorWindow } from "./impedance-level.ts";
+import { boundedGain, BOUNDED_LEVEL_FLOOR } from "./bounded-gain.ts";
 
 /** One section of the target, described for the topology layer. */
 export interface SectionInfo {
@@ -187,56 +199,10 @@ function baseTarget(info: SectionInfo, gain: number): StageTarget {
 }
 
 /**
- * Fraction of its largest realisable gain a topology with a bounded gain takes
- * when a stage before the last asks for more than it can give (common
- * practice, no source: a stage designed at its bound has a part at its limit,
- * e.g. R2 of the single-amplifier notch sections open, so preferred values and
- * tolerances would push it past; at 90 % the single-amplifier highpass-notch
- * keeps its capacitor ratio near 1, see topologies/boctor.ts `ratioOf`).
- */
-export const BOUNDED_GAIN_FRACTION = 0.9;
-
-/**
- * Lowest level, relative to the filter's output level, at which a stage with
- * a bounded gain may leave the signal for later stages to make up (common
- * practice, no source: the later stages' gain then multiplies the noise of the
- * stages before them; 0.5, 6 dB, bounds that cost).
- */
-export const BOUNDED_LEVEL_FLOOR = 0.85;
-
-/** Whether the topology realises the stage at gain magnitude g. */
-function realises(t: Topology, info: SectionInfo, g: number): boolean {
-  try {
-    return t.check(baseTarget(info, (t.inverting ? -1 : 1) * g), {}) === null;
-  } catch {
-    return false;
-  }
-}
-
-/**
- * The largest gain magnitude below the wish a topology realises for a stage,
- * times {@link BOUNDED_GAIN_FRACTION}, or null when it realises none between
- * a twentieth of min(wish, 1) and the wish (bisection on the log of the gain,
- * 40 halvings: the bound to 1e-10 relative of the bracket's log span).
- */
-function boundedGain(t: Topology, info: SectionInfo, wish: number): number | null {
-  let lo = Math.min(wish, 1) / 20;
-  let hi = wish;
-  if (!(lo < hi) || !realises(t, info, lo)) return null;
-  for (let k = 0; k < 40; k++) {
-    const mid = Math.sqrt(lo * hi);
-    if (realises(t, info, mid)) lo = mid;
-    else hi = mid;
-  }
-  const g = BOUNDED_GAIN_FRACTION * lo;
-  return realises(t, info, g) ? g : null;
-}
-
-/**
  * The gain magnitude a topology realises for a stage closest to the wish, or
  * null when it cannot realise the stage. With `bounded` (a stage before the
  * last), a topology that realises neither the wish nor unity gain but some
- * lower gain takes {@link boundedGain}: the remainder moves to later stages.
+ * lower gain takes bounded-gain.ts `boundedGain`: the remainder moves to later stages.
  */
 function realisableGain(t: Topology, info: SectionInfo, wish: number, bounded = false): number | null {
   const sign = t.inverting ? -1 : 1;
@@ -259,7 +225,7 @@ function realisableGain(t: Topology, info: SectionInfo, wish: number, bounded = 
     }
   }
   if (!bounded || t.fixedGain !== undefined) return null;
-  const g = boundedGain(t, info, wish);
+  const g = boundedGain(t, (gain) => baseTarget(info, gain), wish);
   return g !== null && g >= BOUNDED_LEVEL_FLOOR * wish ? g : null;
 }
 
@@ -422,7 +388,7 @@ export interface PlanOptions {
 /**
  * Where stages may take a bounded topology's largest gain below their wish:
  * `"any"` a stage before the last (the remainder moves on, see
- * {@link BOUNDED_GAIN_FRACTION}) and the last (the stages before it lifted,
+ * bounded-gain.ts `BOUNDED_GAIN_FRACTION`) and the last (the stages before it lifted,
  * see `liftedForLastStage`); `"last"` the last only; `"none"` no stage (every
  * stage at the equal-peak gain).
  */
@@ -531,8 +497,8 @@ function assign(spec: DesignSpec, infos: readonly SectionInfo[], forced: readonl
 
 /**
  * Where the last stage takes a multi-amplifier topology but a one-op-amp one
- * realises at least {@link BOUNDED_LEVEL_FLOOR} of its gain (its
- * {@link boundedGain}), the assignment with the stages before it lifted by
+ * realises at least `BOUNDED_LEVEL_FLOOR` of its gain (its
+ * `boundedGain`, bounded-gain.ts), the assignment with the stages before it lifted by
  * the difference (their outputs then peak at most 1/0.85, 1.4 dB, above the
  * filter's output level instead of at it), when that needs fewer op-amps.
  */
@@ -547,7 +513,7 @@ function liftedForLastStage(spec: DesignSpec, infos: readonly SectionInfo[], opt
   for (const t of topologiesFor({ kind: info.kind, order: info.order })) {
     if (t.opampCount !== 1 || t.fixedGain !== undefined || options.avoid?.has(t.id) === true) continue;
     if (realisableGain(t, info, remaining) !== null) continue;
-    const g = boundedGain(t, info, remaining);
+    const g = boundedGain(t, (gain) => baseTarget(info, gain), remaining);
     if (g === null || g < BOUNDED_LEVEL_FLOOR * remaining) continue;
     const a = assign(spec, infos, options.forced, options.avoid, bounded, remaining / g);
     if (typeof a !== "string" && opamps(a) < opamps(best)) best = a;
