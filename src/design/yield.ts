@@ -11,20 +11,27 @@
  *    classes where the spec leaves them free (capacitors and resistors a
  *    class at a time, capacitors first: a filter's response is usually most
  *    sensitive to them, common practice, no source);
- * 2. where the design traded sensitivity for op-amps (one-op-amp
- *    finite-zero, bandpass or high-Q stages, attempt.ts `sturdierStagesOf`),
- *    the same order with multi-amplifier stages, again from the default
- *    classes up (after the one-op-amp design has failed at every class, so
- *    tighter parts are preferred to more op-amps);
+ * 2. where a stage took a bounded topology's largest gain below its wish
+ *    (stages.ts, bounded-gain.ts), the same order with only the last stage
+ *    at a bounded gain and with every stage at its equal-peak gain, again
+ *    from the default classes up;
  * 3. design centring: the candidate placements inside the slack interval
  *    and the prototypes designed with part of the ripple and attenuation
- *    held back (family.ts `MARGIN_LEVELS`), each re-tuned to the mask, are
- *    screened and the one with the highest predicted yield is confirmed (a sampled form of design centring: S. W. Director & G. D.
- *    Hachtel, "The simplicial approximation approach to design centering",
- *    IEEE Trans. Circuits Syst. 24(7):363-372, 1977, centre the nominal point
- *    in the acceptable region; here the candidates are discrete, as the
- *    parts are), again from the default classes up;
- * 4. one order more (up to the order range's last), and again from 1.
+ *    held back (family.ts `MARGIN_LEVELS`), each re-tuned to the mask, of the
+ *    nominal design and of the designs of step 2, are screened and the one
+ *    with the highest predicted yield is confirmed (a sampled form of design
+ *    centring: S. W. Director & G. D. Hachtel, "The simplicial approximation
+ *    approach to design centering", IEEE Trans. Circuits Syst.
+ *    24(7):363-372, 1977, centre the nominal point in the acceptable region;
+ *    here the candidates are discrete, as the parts are), again from the
+ *    default classes up; it costs no op-amp, so it comes before step 4;
+ * 4. where the design traded sensitivity for op-amps (one-op-amp
+ *    finite-zero, bandpass or high-Q stages, attempt.ts `sturdierStagesOf`),
+ *    the same order with multi-amplifier stages in place of all of them, and
+ *    of each one alone, again from the default classes up (among the
+ *    candidates predicted to clear the target, the fewest op-amps), so
+ *    tighter parts and centring are preferred to more op-amps;
+ * 5. one order more (up to the order range's last), and again from 1.
  *    Centring is tried at an order only when its tightest classes come
  *    within half the target, so hopeless orders cost a screen, not a search.
  *
