@@ -24,7 +24,7 @@ import type { DesignSpec } from "./spec.ts";
 import type { Prototype } from "./family.ts";
 import type { SectionCascade } from "../tf/types.ts";
 import { intervalWidth, placeInInterval, prototypeInterval, transformPrototype, upHelpsPassband, type FeasibleInterval } from "./placement.ts";
-import { describeSections, peakGrid, planStages, windowGiven, type SectionInfo, type StagePlan } from "./stages.ts";
+import { describeSections, peakGrid, planStages, windowGiven, type GainBounds, type SectionInfo, type StagePlan } from "./stages.ts";
 import { tuneStage, type TunedStage, type ValueSet } from "./components.ts";
 import { predistortTarget, type PredistortionOutcome } from "./predistort.ts";
 import { checkMask, type BuiltStage, type MaskCheck } from "./verify.ts";
@@ -46,6 +46,12 @@ export interface AttemptOptions {
   readonly wide: boolean;
   /** Topology ids the automatic stage choice leaves out (see {@link sturdierStagesOf}). */
   readonly avoid?: ReadonlySet<string>;
+  /**
+   * Where a one-op-amp topology with a bounded gain may take less than its
+   * stage's wish (stages.ts `GainBounds`).
+   * @defaultValue "any"
+   */
+  readonly gainBounds?: GainBounds;
 }
 
 /** A design built at one prototype and position, checked against the mask. */
@@ -60,6 +66,8 @@ export interface Attempt extends PlacedPrototype {
   readonly plans: readonly StagePlan[];
   /** Plans before gain correction (the exact design's targets). */
   readonly exactPlans: readonly StagePlan[];
+  /** Where its stages could take a bounded gain (the option it was built with; rebuilds from it keep it). */
+  readonly gainBounds: GainBounds;
   /** Per stage: the value search. */
   readonly tuned: readonly TunedStage[];
   /** Per stage: the values on the board. */
@@ -210,7 +218,7 @@ export function buildAttempt(spec: DesignSpec, placed: PlacedPrototype, options:
   // (when every topology tried leaves it, the cascade with the fewest parts outside is kept)
   let outside: { built: Built; parts: number } | null = null;
   for (let round = 0; built === null; round++) {
-    const { grid, exactPlans } = chooseSplit(spec, cascades, avoid);
+    const { grid, exactPlans } = chooseSplit(spec, cascades, avoid, options.gainBounds ?? "any");
     try {
       const cascade = tuneCascade(spec, exactPlans, options.wide);
       const leaving = stageLeavingWindow(spec, exactPlans, cascade, avoid);
@@ -240,7 +248,7 @@ export function buildAttempt(spec: DesignSpec, placed: PlacedPrototype, options:
   const chosen = tuned.map((t) => t.best);
   const mask = checkMask(spec, boardStages(plans, chosen), spec.opamp);
   const gridHz = grid.map((w) => w / TWO_PI);
-  return { proto, interval, position: options.position, value, gridHz, plans, exactPlans, tuned, chosen, mask, predistortion };
+  return { proto, interval, position: options.position, value, gridHz, plans, exactPlans, gainBounds: options.gainBounds ?? "any", tuned, chosen, mask, predistortion };
 }
 
 /** Whether part `name` of value `v` lies outside the spec's window for its kind. */
@@ -284,14 +292,14 @@ function opampsOf(plans: readonly StagePlan[]): number {
 }
 
 /** Plan each candidate cascade and keep the first one with the fewest op-amps (the usual pairing wins ties). */
-function chooseSplit(spec: DesignSpec, cascades: readonly SectionCascade[], avoid: ReadonlySet<string> | undefined): { grid: Float64Array; exactPlans: readonly StagePlan[] } {
+function chooseSplit(spec: DesignSpec, cascades: readonly SectionCascade[], avoid: ReadonlySet<string> | undefined, gainBounds: GainBounds = "any"): { grid: Float64Array; exactPlans: readonly StagePlan[] } {
   let best: { grid: Float64Array; exactPlans: readonly StagePlan[]; opamps: number } | null = null;
   for (const [k, cascade] of cascades.entries()) {
     const grid = peakGrid(cascade);
     const infos = describeSections(cascade, grid);
     let plans: readonly StagePlan[];
     try {
-      plans = planStages(spec, infos, { forced: requestedTopologies(spec, infos), ...(avoid === undefined ? {} : { avoid }) }).plans;
+      plans = planStages(spec, infos, { forced: requestedTopologies(spec, infos), gainBounds, ...(avoid === undefined ? {} : { avoid }) }).plans;
     } catch (e) {
       if (k === 0) throw e;
       continue;

@@ -22,7 +22,7 @@ import { TWO_PI } from "../units/constants.ts";
 import { MAX_SPEC_ORDER, type DesignSpec } from "./spec.ts";
 import { AUTO_MAX_ORDER, choosePrototype, designPrototype, stricterLevels, type Prototype } from "./family.ts";
 import { intervalWidth, prototypeInterval, upHelpsPassband } from "./placement.ts";
-import type { StagePlan } from "./stages.ts";
+import type { GainBounds, StagePlan } from "./stages.ts";
 import type { TunedStage, ValueSet } from "./components.ts";
 import { checkMask, gridMarginDb, maskGrid, stageMagnitudeSquared } from "./verify.ts";
 import { boardStages, buildAttempt, meetsSpec, sturdierStagesOf, type Attempt, type PlacedPrototype } from "./attempt.ts";
@@ -155,7 +155,7 @@ export interface RecoveryStep {
 const retuneStep: RecoveryStep = {
   code: "re-tuned-to-mask",
   run(spec, placed, previous) {
-    const wide = buildAttempt(spec, placed, { position: 0.5, wide: true });
+    const wide = buildAttempt(spec, placed, { position: 0.5, wide: true, gainBounds: previous.gainBounds });
     const attempt = retuneToMask(spec, better(previous, wide));
     const message = `The rounded circuit missed the mask by ${significant(-previous.mask.marginDb, 3)} dB; re-tuned the preferred values against the mask itself (worst margin now ${significant(attempt.mask.marginDb, 3)} dB).`;
     return { attempt, actions: [{ code: "re-tuned-to-mask", message }] };
@@ -168,7 +168,7 @@ const moveStep: RecoveryStep = {
   run(spec, placed, previous) {
     const passShort = previous.mask.passbandMarginDb < previous.mask.stopbandMarginDb;
     const position = passShort === upHelpsPassband(spec) ? 0.75 : 0.25;
-    const attempt = retuneToMask(spec, buildAttempt(spec, placed, { position, wide: true }));
+    const attempt = retuneToMask(spec, buildAttempt(spec, placed, { position, wide: true, gainBounds: previous.gainBounds }));
     const message = `Moved the design to ${Math.round(position * 100)} % of the slack interval, shifting the transition band towards the ${passShort ? "stopband" : "passband"}, because the ${passShort ? "passband" : "stopband"} margin was the short one (worst margin now ${significant(attempt.mask.marginDb, 3)} dB).`;
     return { attempt, actions: [{ code: "moved-placement", message }] };
   },
@@ -193,7 +193,7 @@ const tightenStep: RecoveryStep = {
       const proto = designPrototype(spec, placed.proto.family, placed.proto.order, level);
       const interval = prototypeInterval(spec, proto.zpk);
       if (!(intervalWidth(interval) > 0)) continue;
-      const t = retuneToMask(spec, buildAttempt(spec, { proto, interval }, { position: 0.5, wide: true }));
+      const t = retuneToMask(spec, buildAttempt(spec, { proto, interval }, { position: 0.5, wide: true, gainBounds: previous.gainBounds }));
       actions.push({ code: "tightened-prototype", message: tightenedText(proto, t.mask.marginDb) });
       attempt = better(attempt, t);
       if (meetsSpec(spec, attempt)) break;
@@ -218,7 +218,7 @@ const sturdierStep: RecoveryStep = {
   run(spec, placed, previous) {
     const avoid = sturdierStagesOf(previous);
     if (avoid.size === 0) return null;
-    const attempt = retuneToMask(spec, buildAttempt(spec, placed, { position: previous.position, wide: true, avoid }));
+    const attempt = retuneToMask(spec, buildAttempt(spec, placed, { position: previous.position, wide: true, avoid, gainBounds: previous.gainBounds }));
     const message = `Rebuilt the stages that used ${namesOf(avoid)} with lower-sensitivity multi-amplifier stages (worst margin now ${significant(attempt.mask.marginDb, 3)} dB).`;
     return { attempt: better(previous, attempt), actions: [{ code: "sturdier-stages", message }] };
   },
@@ -285,13 +285,47 @@ export function designAtOrder(spec: DesignSpec, family: FamilyName, order: numbe
   const placed: PlacedPrototype = { proto, interval: prototypeInterval(spec, proto.zpk) };
   const feasible = intervalWidth(placed.interval) >= 0;
   const position = feasible ? 0.5 : upHelpsPassband(spec) ? 0 : 1;
-  const first = buildAttempt(spec, placed, { position, wide: false });
   if (record.placement) record.actions.push({ code: "placed-in-slack", message: placedText(order, placed, spec, feasible) });
-  if (meetsSpec(spec, first)) return { attempt: first, met: true, laddered: false, opampTooSlow: false };
-  if (!feasible || opampTooSlow(spec, first)) return { attempt: first, met: false, laddered: false, opampTooSlow: feasible };
-  const attempt = climbLadder(spec, placed, first, record.actions);
+  const actions: DesignAction[] = [];
+  const outcome = orderOutcome(spec, placed, feasible, position, "any", actions);
+  // Stages at a bounded gain below their wish (stages.ts) save op-amps but can leave a design more
+  // sensitive to rounding: when that one needed the ladder, the same order with every stage at its
+  // wish, kept when it meets the mask and the other does not, or meets it with no more op-amps.
+  if (outcome.laddered || !outcome.met) {
+    const bounded = outcome.first.exactPlans.some((p) => p.bounded === true) || outcome.attempt.exactPlans.some((p) => p.bounded === true);
+    if (bounded) {
+      const plainActions: DesignAction[] = [];
+      const plain = orderOutcome(spec, placed, feasible, position, "none", plainActions);
+      const plainWins = plain.met ? !outcome.met || opampsOf(plain.attempt) <= opampsOf(outcome.attempt) : !outcome.met && plain.attempt.mask.marginDb > outcome.attempt.mask.marginDb;
+      if (plainWins) {
+        record.actions.push(...plainActions);
+        return plain;
+      }
+    }
+  }
+  record.actions.push(...actions);
+  return outcome;
+}
+
+function opampsOf(a: Attempt): number {
+  return a.plans.reduce((k, p) => k + p.topology.opampCount, 0);
+}
+
+/** The first attempt at one order and, when it misses a mask the order can meet, the ladder. */
+function orderOutcome(
+  spec: DesignSpec,
+  placed: PlacedPrototype,
+  feasible: boolean,
+  position: number,
+  gainBounds: GainBounds,
+  actions: DesignAction[],
+): OrderOutcome & { readonly first: Attempt } {
+  const first = buildAttempt(spec, placed, { position, wide: false, gainBounds });
+  if (meetsSpec(spec, first)) return { attempt: first, first, met: true, laddered: false, opampTooSlow: false };
+  if (!feasible || opampTooSlow(spec, first)) return { attempt: first, first, met: false, laddered: false, opampTooSlow: feasible };
+  const attempt = climbLadder(spec, placed, first, actions);
   const met = meetsSpec(spec, attempt);
-  return { attempt, met, laddered: true, opampTooSlow: !met && opampTooSlow(spec, attempt) };
+  return { attempt, first, met, laddered: true, opampTooSlow: !met && opampTooSlow(spec, attempt) };
 }
 
 /** The outcome of {@link searchDesign}. */

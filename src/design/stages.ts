@@ -16,6 +16,17 @@
  * of the cap and an even share of what remains, so 40 dB does not land in one
  * stage with a large capacitor spread and GBW demand.
  *
+ * One exception to the equal-peak rule saves op-amps (bounded-gain.ts): a
+ * one-op-amp stage whose gain has a ceiling below its wish (the
+ * single-amplifier highpass-notch's high-frequency gain is below unity) may
+ * take 90 % of its ceiling when that leaves its output at most 1.4 dB below
+ * the output level (the later stages make the rest up), and a last stage may
+ * take it when the stages before it, lifted to make up the rest, peak at most
+ * 1.4 dB above the output level and the cascade then needs fewer op-amps.
+ * The search at each order and the yield ladder also try every stage at its
+ * equal-peak gain (`gainBounds: "none"`) and keep that where the other
+ * misses the mask or the yield target.
+ *
  * Topology choice is rule-based (common practice, no source): Sallen-Key
  * unity gain for low-Q lowpass/highpass at unity gain, Sallen-Key with gain
  * for low Q above unity, multiple feedback for moderate Q, inverting stages or
@@ -40,6 +51,7 @@ import { TWO_PI } from "../units/constants.ts";
 import type { DesignSpec } from "./spec.ts";
 import { levelFit } from "./components.ts";
 import { characteristicFrequencyHz, defaultResistorWindow } from "./impedance-level.ts";
+import { boundedGain, BOUNDED_LEVEL_FLOOR } from "./bounded-gain.ts";
 
 /** One section of the target, described for the topology layer. */
 export interface SectionInfo {
@@ -73,6 +85,8 @@ export interface StagePlan {
   readonly reason: string;
   /** Whether the topology was chosen automatically. */
   readonly automatic: boolean;
+  /** Whether the stage took a bounded topology's largest gain below its wish (the remainder moved to later stages). */
+  readonly bounded?: boolean;
 }
 
 /** Map a tf section to a stage kind and its reference gain. */
@@ -184,8 +198,13 @@ function baseTarget(info: SectionInfo, gain: number): StageTarget {
   };
 }
 
-/** The gain magnitude a topology realises for a stage closest to the wish, or null when it cannot realise the stage. */
-function realisableGain(t: Topology, info: SectionInfo, wish: number): number | null {
+/**
+ * The gain magnitude a topology realises for a stage closest to the wish, or
+ * null when it cannot realise the stage. With `bounded` (a stage before the
+ * last), a topology that realises neither the wish nor unity gain but some
+ * lower gain takes bounded-gain.ts `boundedGain`: the remainder moves to later stages.
+ */
+function realisableGain(t: Topology, info: SectionInfo, wish: number, bounded = false): number | null {
   const sign = t.inverting ? -1 : 1;
   const tries = [wish, 1];
   if (t.fixedGain !== undefined) {
@@ -205,7 +224,9 @@ function realisableGain(t: Topology, info: SectionInfo, wish: number): number | 
       // not realisable with this gain
     }
   }
-  return null;
+  if (!bounded || t.fixedGain !== undefined) return null;
+  const g = boundedGain(t, (gain) => baseTarget(info, gain), wish);
+  return g !== null && g >= BOUNDED_LEVEL_FLOOR * wish ? g : null;
 }
 
 /**
@@ -356,7 +377,22 @@ export interface PlanOptions {
   readonly forced: readonly string[];
   /** Topology ids automatic choices leave out, where another topology can build the stage. */
   readonly avoid?: ReadonlySet<string>;
+  /**
+   * Where a one-op-amp topology with a bounded gain may take less than its
+   * stage's wish (see {@link GainBounds}).
+   * @defaultValue "any"
+   */
+  readonly gainBounds?: GainBounds;
 }
+
+/**
+ * Where stages may take a bounded topology's largest gain below their wish:
+ * `"any"` a stage before the last (the remainder moves on, see
+ * bounded-gain.ts `BOUNDED_GAIN_FRACTION`) and the last (the stages before it lifted,
+ * see `liftedForLastStage`); `"last"` the last only; `"none"` no stage (every
+ * stage at the equal-peak gain).
+ */
+export type GainBounds = "any" | "last" | "none";
 
 interface Assignment {
   readonly plans: StagePlan[];
@@ -376,11 +412,12 @@ function pickTopology(
   wish: number,
   last: boolean,
   needFit: boolean,
+  boundedGains: boolean,
 ): { t: Topology; got: number; s: number } | null {
   let best: { t: Topology; got: number; s: number } | null = null;
   for (const t of pool) {
     if (!t.kinds.includes(info.kind) || t.order !== info.order) continue;
-    const got = realisableGain(t, info, wish);
+    const got = realisableGain(t, info, wish, boundedGains && !last);
     if (got === null) continue;
     const fit = needFit ? levelFit(t, baseTarget(info, (t.inverting ? -1 : 1) * got), spec) : "none";
     if (needFit && fit === "none") continue;
@@ -404,7 +441,12 @@ function pickTopology(
   return best;
 }
 
-function assign(spec: DesignSpec, infos: readonly SectionInfo[], forced: readonly string[], avoid?: ReadonlySet<string>): Assignment | string {
+/**
+ * Assign topologies and gains. `lift` (at least 1) raises the level every
+ * stage before the last is asked for above the filter's output level, so the
+ * last stage is left `1 / lift` of its equal-peak gain (see {@link planStages}).
+ */
+function assign(spec: DesignSpec, infos: readonly SectionInfo[], forced: readonly string[], avoid?: ReadonlySet<string>, boundedGains = true, lift = 1): Assignment | string {
   const n = infos.length;
   // Peaks of the unit partial cascades.
   const partial = new Float64Array((infos[0] as SectionInfo).unitMag.length).fill(1);
@@ -423,7 +465,7 @@ function assign(spec: DesignSpec, infos: readonly SectionInfo[], forced: readonl
     const last = i === n - 1;
     const remaining = total / product;
     const share = remaining > 2 * STAGE_GAIN_CAP ? Math.max(STAGE_GAIN_CAP, remaining ** (1 / (n - i))) : Infinity;
-    const wish = last ? remaining : Math.min(spec.gain / (peaks[i] as number) / product, share);
+    const wish = last ? remaining : Math.min((lift * spec.gain) / (peaks[i] as number) / product, share);
     const choice = forced[i] ?? "auto";
     let pool = choice === "auto" ? topologiesFor({ kind: info.kind, order: info.order }) : [getTopology(choice)];
     if (choice === "auto" && avoid !== undefined && avoid.size > 0) {
@@ -431,7 +473,7 @@ function assign(spec: DesignSpec, infos: readonly SectionInfo[], forced: readonl
       if (kept.some((t) => realisableGain(t, info, 1) !== null)) pool = kept;
     }
     // First only the topologies whose parts fit the hard limits at some impedance level; when none does, all of them.
-    const best = pickTopology(spec, pool, info, wish, last, true) ?? pickTopology(spec, pool, info, wish, last, false);
+    const best = pickTopology(spec, pool, info, wish, last, true, boundedGains) ?? pickTopology(spec, pool, info, wish, last, false, boundedGains);
     if (best === null) {
       return choice === "auto"
         ? `no topology in the registry realises a ${info.order === 2 ? "second" : "first"}-order ${info.kind} stage (f0 ${info.f0Hz.toPrecision(4)} Hz${info.q === undefined ? "" : `, Q ${info.q.toPrecision(4)}`})`
@@ -447,9 +489,36 @@ function assign(spec: DesignSpec, infos: readonly SectionInfo[], forced: readonl
       target: baseTarget(info, sign * best.got),
       reason: describeReason(best.t, info, choice === "auto", best.got, wish),
       automatic: choice === "auto",
+      ...(realisableGain(best.t, info, wish) === null || (last && lift > 1) ? { bounded: true } : {}),
     });
   }
   return { plans, score: sum, negatives };
+}
+
+/**
+ * Where the last stage takes a multi-amplifier topology but a one-op-amp one
+ * realises at least `BOUNDED_LEVEL_FLOOR` of its gain (its
+ * `boundedGain`, bounded-gain.ts), the assignment with the stages before it lifted by
+ * the difference (their outputs then peak at most 1/0.85, 1.4 dB, above the
+ * filter's output level instead of at it), when that needs fewer op-amps.
+ */
+function liftedForLastStage(spec: DesignSpec, infos: readonly SectionInfo[], options: PlanOptions, first: Assignment, bounded: boolean): Assignment {
+  const n = infos.length;
+  const lastPlan = first.plans[n - 1] as StagePlan;
+  if (n < 2 || !lastPlan.automatic || lastPlan.topology.opampCount < 2) return first;
+  const info = infos[n - 1] as SectionInfo;
+  const remaining = Math.abs(lastPlan.target.gain);
+  const opamps = (a: Assignment): number => a.plans.reduce((k, p) => k + p.topology.opampCount, 0);
+  let best = first;
+  for (const t of topologiesFor({ kind: info.kind, order: info.order })) {
+    if (t.opampCount !== 1 || t.fixedGain !== undefined || options.avoid?.has(t.id) === true) continue;
+    if (realisableGain(t, info, remaining) !== null) continue;
+    const g = boundedGain(t, (gain) => baseTarget(info, gain), remaining);
+    if (g === null || g < BOUNDED_LEVEL_FLOOR * remaining) continue;
+    const a = assign(spec, infos, options.forced, options.avoid, bounded, remaining / g);
+    if (typeof a !== "string" && opamps(a) < opamps(best)) best = a;
+  }
+  return best;
 }
 
 /**
@@ -467,12 +536,15 @@ export function planStages(
   infos: readonly SectionInfo[],
   options: PlanOptions,
 ): { readonly plans: readonly StagePlan[]; readonly polarityOk: boolean } {
-  const first = assign(spec, infos, options.forced, options.avoid);
+  const bounds = options.gainBounds ?? "any";
+  const bounded = bounds === "any";
+  let first = assign(spec, infos, options.forced, options.avoid, bounded);
   if (typeof first === "string") {
     const forcedAny = options.forced.some((f) => f !== "auto");
     if (forcedAny) throw new SpecError("designFilter", [{ path: "topology", message: first }]);
     throw new UnrealisableError({ fn: "designFilter", path: "topology", message: first });
   }
+  if (bounds !== "none") first = liftedForLastStage(spec, infos, options, first, bounded);
   const wantNegative = spec.polarity === "inverting";
   const ok = (a: Assignment): boolean =>
     spec.polarity === "either" || (a.negatives % 2 === 1) === wantNegative;
@@ -486,7 +558,7 @@ export function planStages(
     for (const t of topologiesFor({ kind: info.kind, order: info.order })) {
       if (t.inverting === current.inverting) continue;
       const forced = infos.map((_, j) => (j === i ? t.id : (options.forced[j] ?? "auto")));
-      const a = assign(spec, infos, forced, options.avoid);
+      const a = assign(spec, infos, forced, options.avoid, bounded);
       if (typeof a === "string" || !ok(a)) continue;
       // Keep the flipped stage marked as automatic.
       const plans = a.plans.map((p, j) => (j === i ? { ...p, automatic: true, reason: `${describeReason(p.topology, p.info, true, Math.abs(p.target.gain), Math.abs(p.target.gain))}; chosen for the requested polarity` } : p));

@@ -11,20 +11,27 @@
  *    classes where the spec leaves them free (capacitors and resistors a
  *    class at a time, capacitors first: a filter's response is usually most
  *    sensitive to them, common practice, no source);
- * 2. where the design traded sensitivity for op-amps (one-op-amp
- *    finite-zero, bandpass or high-Q stages, attempt.ts `sturdierStagesOf`),
- *    the same order with multi-amplifier stages, again from the default
- *    classes up (after the one-op-amp design has failed at every class, so
- *    tighter parts are preferred to more op-amps);
+ * 2. where a stage took a bounded topology's largest gain below its wish
+ *    (stages.ts, bounded-gain.ts), the same order with only the last stage
+ *    at a bounded gain and with every stage at its equal-peak gain, again
+ *    from the default classes up;
  * 3. design centring: the candidate placements inside the slack interval
  *    and the prototypes designed with part of the ripple and attenuation
- *    held back (family.ts `MARGIN_LEVELS`), each re-tuned to the mask, are
- *    screened and the one with the highest predicted yield is confirmed (a sampled form of design centring: S. W. Director & G. D.
- *    Hachtel, "The simplicial approximation approach to design centering",
- *    IEEE Trans. Circuits Syst. 24(7):363-372, 1977, centre the nominal point
- *    in the acceptable region; here the candidates are discrete, as the
- *    parts are), again from the default classes up;
- * 4. one order more (up to the order range's last), and again from 1.
+ *    held back (family.ts `MARGIN_LEVELS`), each re-tuned to the mask, of the
+ *    nominal design and of the designs of step 2, are screened and the one
+ *    with the highest predicted yield is confirmed (a sampled form of design
+ *    centring: S. W. Director & G. D. Hachtel, "The simplicial approximation
+ *    approach to design centering", IEEE Trans. Circuits Syst.
+ *    24(7):363-372, 1977, centre the nominal point in the acceptable region;
+ *    here the candidates are discrete, as the parts are), again from the
+ *    default classes up; it costs no op-amp, so it comes before step 4;
+ * 4. where the design traded sensitivity for op-amps (one-op-amp
+ *    finite-zero, bandpass or high-Q stages, attempt.ts `sturdierStagesOf`),
+ *    the same order with multi-amplifier stages in place of all of them, and
+ *    of each one alone, again from the default classes up (among the
+ *    candidates predicted to clear the target, the fewest op-amps), so
+ *    tighter parts and centring are preferred to more op-amps;
+ * 5. one order more (up to the order range's last), and again from 1.
  *    Centring is tried at an order only when its tightest classes come
  *    within half the target, so hopeless orders cost a screen, not a search.
  *
@@ -237,7 +244,7 @@ function centringCandidates(spec: DesignSpec, base: Attempt, short: "passband" |
   const out: { attempt: Attempt; change: string }[] = [];
   const placed: PlacedPrototype = { proto: base.proto, interval: base.interval };
   const build = (p: PlacedPrototype, position: number): Attempt | null => {
-    const a = buildAttempt(spec, p, { position, wide: false });
+    const a = buildAttempt(spec, p, { position, wide: false, gainBounds: base.gainBounds });
     return meetsSpec(spec, a) ? a : null;
   };
   // moving up the interval helps the passband when upHelpsPassband
@@ -321,21 +328,31 @@ export function designForYield(spec: DesignSpec, family: FamilyName, orders: Ord
     }
     const baseScreen = screenYield(spec, base, classTolerances(base, defaults));
     const baseDesign = { attempt: base, change: order === startOrder ? "the nominal design" : `order ${order}` };
-    // first the design as it is at each class; then, where it traded sensitivity for op-amps, the same
-    // order with multi-amplifier stages at each class; then (only when none will do) the centring
-    // candidates at each class
+    // first the design as it is at each class; then, where a stage took a bounded gain below its
+    // wish, the same order with fewer such stages; then (where the tightest classes come within reach
+    // of the target) the centring candidates at each class, which cost no op-amp; then, where it traded
+    // sensitivity for op-amps, the same order with multi-amplifier stages at each class
     let bestPredicted = 0;
-    for (const phase of [0, 1, 2]) {
+    let plainPool: { attempt: Attempt; change: string }[] = [];
+    for (const phase of [0, 1, 2, 3]) {
       let pool: { attempt: Attempt; change: string }[];
       if (phase === 0) pool = [baseDesign];
       else if (phase === 1) {
-        const sturdier = sturdierVariant(spec, base);
-        if (sturdier === null) continue;
-        pool = [sturdier];
-      } else {
+        // stages that took a bounded topology's largest gain: the same order with only the last stage
+        // at a bounded gain, and with every stage at its wish
+        plainPool = plainGainsVariants(spec, base);
+        pool = plainPool;
+        if (pool.length === 0) continue;
+      } else if (phase === 2) {
         // centring is worth its cost only where the tightest classes come within reach of the target
-        if (bestPredicted < spec.yieldTarget / 2) break;
-        pool = centringCandidates(spec, base, baseScreen.short);
+        if (bestPredicted < spec.yieldTarget / 2) continue;
+        pool = [
+          ...centringCandidates(spec, base, baseScreen.short),
+          ...plainPool.flatMap((d) => centringCandidates(spec, d.attempt, baseScreen.short).map((c) => ({ ...c, change: `${d.change}, ${c.change}` }))),
+        ];
+      } else {
+        pool = sturdierVariants(spec, base);
+        if (pool.length === 0) continue;
       }
       for (const classes of ladder) {
         let pick: { attempt: Attempt; change: string; fraction: number } | null = null;
@@ -356,7 +373,7 @@ export function designForYield(spec: DesignSpec, family: FamilyName, orders: Ord
         // that clears the selection boards but not those goes on up the ladder
         if (chosen !== candidates[0] && !attemptYield(spec, chosen.attempt, chosen.tolerances).met) continue;
         if (order !== startOrder) actions.push({ code: "raised-order", message: `Raised the order to ${order} for the yield target.` });
-        if (phase === 1) actions.push({ code: "sturdier-stages", message: `Built the design with ${pick.change} for the yield target (lower sensitivity to the parts, more op-amps).` });
+        if (phase === 1 || phase === 3) actions.push({ code: "sturdier-stages", message: `Built the design with ${pick.change} for the yield target (lower sensitivity to the parts, more op-amps).` });
         else if (pick.attempt !== base) {
           actions.push({
             code: "centred-for-yield",
@@ -381,18 +398,51 @@ export function designForYield(spec: DesignSpec, family: FamilyName, orders: Ord
 }
 
 /**
- * The attempt rebuilt with multi-amplifier stages where it used one-op-amp
- * finite-zero, bandpass or high-Q stages (attempt.ts `sturdierStagesOf`),
- * re-tuned to the mask; null when there is nothing to trade or the rebuilt
- * design misses the mask.
+ * The attempt rebuilt with fewer stages at a bounded gain below their wish
+ * (attempt.ts `gainBounds`): only the last stage (`"last"`, the stages
+ * before it at their wish) and none (`"none"`, every stage at the gain the
+ * equal-peak rule asks of it, so a multi-amplifier stage takes it), each
+ * re-tuned to the mask; those that meet it and differ from the base.
  */
-function sturdierVariant(spec: DesignSpec, base: Attempt): { attempt: Attempt; change: string } | null {
-  const avoid = sturdierStagesOf(base);
-  if (avoid.size === 0) return null;
+function plainGainsVariants(spec: DesignSpec, base: Attempt): { attempt: Attempt; change: string }[] {
+  if (!base.exactPlans.some((p) => p.bounded === true)) return [];
   const placed: PlacedPrototype = { proto: base.proto, interval: base.interval };
-  const a = retuneToMask(spec, buildAttempt(spec, placed, { position: base.position, wide: false, avoid }));
-  if (!meetsSpec(spec, a)) return null;
-  return { attempt: a, change: `multi-amplifier stages instead of ${[...avoid].map((id) => `"${id}"`).join(", ")}` };
+  const out: { attempt: Attempt; change: string }[] = [];
+  const ids = (a: Attempt): string => a.exactPlans.map((p) => `${p.topology.id} ${p.target.gain}`).join();
+  const seen = new Set([ids(base)]);
+  for (const gainBounds of ["last", "none"] as const) {
+    const a = retuneToMask(spec, buildAttempt(spec, placed, { position: base.position, wide: false, gainBounds }));
+    if (!meetsSpec(spec, a) || seen.has(ids(a))) continue;
+    seen.add(ids(a));
+    out.push({
+      attempt: a,
+      change: gainBounds === "none" ? "every stage at the gain the equal-peak rule gives it (no stage below its level)" : "only the last stage below the gain the equal-peak rule gives it",
+    });
+  }
+  return out;
+}
+
+/**
+ * The attempt rebuilt with multi-amplifier stages where it used one-op-amp
+ * finite-zero, bandpass or high-Q stages (attempt.ts `sturdierStagesOf`):
+ * all of them, and (where it used several such topologies) each one alone,
+ * each re-tuned to the mask; those that meet it (none when there is nothing
+ * to trade).
+ */
+function sturdierVariants(spec: DesignSpec, base: Attempt): { attempt: Attempt; change: string }[] {
+  const all = sturdierStagesOf(base);
+  if (all.size === 0) return [];
+  const placed: PlacedPrototype = { proto: base.proto, interval: base.interval };
+  // every traded topology left out, then (where there are several) each one on its own: the pool's
+  // preference (fewest op-amps among the candidates predicted to clear the target) picks among them
+  const sets: ReadonlySet<string>[] = [all, ...(all.size > 1 ? [...all].map((id) => new Set([id])) : [])];
+  const out: { attempt: Attempt; change: string }[] = [];
+  for (const avoid of sets) {
+    const a = retuneToMask(spec, buildAttempt(spec, placed, { position: base.position, wide: false, avoid, gainBounds: base.gainBounds }));
+    if (!meetsSpec(spec, a)) continue;
+    out.push({ attempt: a, change: `multi-amplifier stages instead of ${[...avoid].map((id) => `"${id}"`).join(", ")}` });
+  }
+  return out;
 }
 
 /**

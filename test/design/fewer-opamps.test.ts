@@ -7,10 +7,14 @@
  * still miss it and say so: the tightest of them need parts or a centring
  * this library does not reach yet).
  *
- * Measured: 229 op-amps before, 143 now (62.4 %). The goal is 60 %: the
- * highpass-notch sections that must carry a gain of one or more still take a
- * four-op-amp stage (the one-op-amp highpass-notch's gain is bounded below
- * unity), which is what is left.
+ * Measured: 229 op-amps before, 137 now (59.8 %; 143, 62.4 %, before a
+ * one-op-amp stage with a bounded gain could take 90 % of its ceiling and
+ * the sturdier stages of the yield ladder could trade one topology at a
+ * time). What is left are the bandstops whose lowpass-notch and
+ * highpass-notch pair must carry a high-frequency gain of one between them:
+ * both one-op-amp notch sections pass at most unity at high frequency (each
+ * is a follower of its input divider there), so one of the pair still takes
+ * a four-op-amp stage.
  */
 import { describe, expect, it } from "vitest";
 import { designFilter, type DesignResult } from "../../src/design/index.ts";
@@ -88,7 +92,7 @@ describe("fewer op-amps on notch, bandstop and wide-band specs (our own scenario
     for (const e of fewerOpampSpecs) expect(BEFORE[e.id], e.id).toBeGreaterThan(0);
   });
 
-  it("builds them with at most 63 % of the op-amps used before (measured 62.4 %; the goal is 60 %)", () => {
+  it("builds them with at most 60 % of the op-amps used before (measured 59.8 %: 137 of 229)", () => {
     let before = 0;
     let after = 0;
     const rows: string[] = [];
@@ -100,7 +104,7 @@ describe("fewer op-amps on notch, bandstop and wide-band specs (our own scenario
       rows.push(`${e.id}: ${BEFORE[e.id]} -> ${n} (${r.stages.map((s) => s.topology).join(", ")})`);
     }
     console.log(`op-amps: ${before} before, ${after} now (${((100 * after) / before).toFixed(1)} %)\n  ${rows.join("\n  ")}`);
-    expect(after, rows.join("\n")).toBeLessThanOrEqual(0.63 * before);
+    expect(after, rows.join("\n")).toBeLessThanOrEqual(0.6 * before);
   });
 
   for (const e of fewerOpampSpecs) {
