@@ -18,7 +18,7 @@
 import { SpecError, UnrealisableError } from "../errors.ts";
 import { toSections } from "../tf/index.ts";
 import { getTopology } from "../topologies/index.ts";
-import type { ComponentValues } from "../topologies/types.ts";
+import type { ComponentValues, StageChoices } from "../topologies/types.ts";
 import { TWO_PI } from "../units/constants.ts";
 import type { DesignSpec } from "./spec.ts";
 import type { Prototype } from "./family.ts";
@@ -27,6 +27,7 @@ import { intervalWidth, placeInInterval, prototypeInterval, transformPrototype, 
 import { describeSections, peakGrid, planStages, windowGiven, type GainBounds, type SectionInfo, type StagePlan } from "./stages.ts";
 import { tuneStage, type TunedStage, type ValueSet } from "./components.ts";
 import { predistortTarget, type PredistortionOutcome } from "./predistort.ts";
+import { internalLevels } from "./internal-level.ts";
 import { checkMask, type BuiltStage, type MaskCheck } from "./verify.ts";
 import type { PartLimits } from "./impedance-level.ts";
 
@@ -160,16 +161,20 @@ function absorbGainError(plan: StagePlan, carried: number): StagePlan {
  * op-amp each second-order stage is designed for the pre-distorted target
  * that lands on its pole with that op-amp; a deliberate gain pre-distortion
  * (a free-gain bandpass) is taken back out, since the op-amp undoes it.
+ * `choices` are each stage's design choices beyond what the search sets
+ * (internal-level.ts: a state-variable notch's internal level).
  */
-function tuneCascade(spec: DesignSpec, exactPlans: readonly StagePlan[], wide: boolean): TunedCascade {
+function tuneCascade(spec: DesignSpec, exactPlans: readonly StagePlan[], wide: boolean, choices?: readonly (StageChoices | undefined)[]): TunedCascade {
   const out: TunedCascade = { plans: [], tuned: [], predistortion: [] };
   let carried = 1;
   const usedCaps = new Set<number>();
   exactPlans.forEach((exact, i) => {
     const plan = absorbGainError(exact, carried);
-    const pd = spec.opamp.kind !== "ideal" && plan.target.order === 2 ? predistortTarget(plan.topology, plan.target, spec.opamp) : null;
+    const own = choices?.[i];
+    const pd = spec.opamp.kind !== "ideal" && plan.target.order === 2 ? predistortTarget(plan.topology, plan.target, spec.opamp, own) : null;
     const tuneOptions = {
       ...(wide ? { capacitors: 12, spread: 3, keep: 12 } : {}),
+      ...(own === undefined ? {} : { choices: own }),
       preferredCapacitors: usedCaps,
       ...(pd?.ok === true ? { opampScoring: { opamp: spec.opamp, wanted: plan.target } } : {}),
     };
@@ -244,6 +249,16 @@ export function buildAttempt(spec: DesignSpec, placed: PlacedPrototype, options:
     }
   }
   const { grid, exactPlans } = built;
+  // With signal levels, the state-variable notch stages whose loop nodes would clip are built again at a lower internal level.
+  const levels = spec.levels === null ? null : internalLevels(spec, built.cascade.plans, built.cascade.tuned.map((t) => t.best), grid);
+  if (levels !== null) {
+    try {
+      built = { ...built, cascade: tuneCascade(spec, exactPlans, options.wide, levels) };
+    } catch (e) {
+      // no values at the lower level inside the windows: the stage stays as it was (its clipping is reported)
+      if (!(e instanceof StageValuesError)) throw e;
+    }
+  }
   const { plans, tuned, predistortion } = built.cascade;
   const chosen = tuned.map((t) => t.best);
   const mask = checkMask(spec, boardStages(plans, chosen), spec.opamp);

@@ -140,13 +140,13 @@ function capacitorCandidates(
   t: Topology,
   target: StageTarget,
   spec: DesignSpec,
-  search: { keep: number; limits: PartLimits },
+  search: { keep: number; limits: PartLimits; choices: StageChoices },
 ): { c: number; values: ComponentValues; centring: number }[] {
-  const { keep, limits } = search;
+  const { keep, limits, choices } = search;
   const caps = seriesValuesInRange(spec.capacitorSeries, spec.capacitorRange);
   const out: { c: number; values: ComponentValues; centring: number }[] = [];
   for (const c of caps) {
-    const v = tryDesign(t, target, { capacitor: c }, spec.capacitorSeries);
+    const v = tryDesign(t, target, { ...choices, capacitor: c }, spec.capacitorSeries);
     if (v === null || !capacitorsWithin(v, limits) || !resistorsWithin(v, limits)) continue;
     out.push({ c, values: v, centring: centring(v, spec.resistorRange) + largeCapacitorPenalty(v) });
   }
@@ -172,7 +172,7 @@ function stockCapacitorDesigns(
   t: Topology,
   target: StageTarget,
   spec: DesignSpec,
-  base: { c: number; values: ComponentValues; limits: PartLimits },
+  base: { c: number; values: ComponentValues; limits: PartLimits; choices: StageChoices },
 ): ComponentValues[] {
   const limits = base.limits;
   const capNames = Object.keys(base.values).filter(isCap);
@@ -189,7 +189,7 @@ function stockCapacitorDesigns(
       [(2 * base.c) / other, 0.5, false],
     ];
     for (const [ratio, want, direct] of trials) {
-      const probe = tryDesign(t, target, { capacitor: base.c, capacitorRatio: ratio });
+      const probe = tryDesign(t, target, { ...base.choices, capacitor: base.c, capacitorRatio: ratio });
       if (probe !== null && Math.abs((probe[name] as number) / other - want) < 1e-6) {
         found = { name, direct };
         break;
@@ -203,7 +203,7 @@ function stockCapacitorDesigns(
       if (c2 < spec.capacitorRange.min || c2 > spec.capacitorRange.max) continue;
       if (c2 === ideal && offSeries.length === 0) continue;
       const ratio = found.direct ? c2 / base.c : base.c / c2;
-      const v = tryDesign(t, target, { capacitor: base.c, capacitorRatio: ratio }, spec.capacitorSeries);
+      const v = tryDesign(t, target, { ...base.choices, capacitor: base.c, capacitorRatio: ratio }, spec.capacitorSeries);
       if (v !== null && capacitorsWithin(v, limits) && resistorsWithin(v, limits)) out.push(v);
     }
   }
@@ -304,6 +304,13 @@ export interface TuneOptions {
    * @defaultValue `partLimits(spec)` (impedance-level.ts)
    */
   readonly limits?: PartLimits;
+  /**
+   * Choices every design of the search starts from (the capacitor the
+   * search sets is added), e.g. a state-variable notch's internal level
+   * (`resistorRatio`, internal-level.ts).
+   * @defaultValue none
+   */
+  readonly choices?: StageChoices;
 }
 
 /** How {@link tuneStage} scores candidates with a real op-amp. */
@@ -422,6 +429,7 @@ function tuneKey(target: StageTarget, spec: DesignSpec, o: TuneOptions): string 
     o.preferredCapacitors === undefined ? null : [...o.preferredCapacitors].sort((a, b) => a - b),
     s === undefined ? null : [s.opamp, s.wanted, s.count],
     o.limits ?? null,
+    o.choices ?? null,
   ], (_k, v: unknown) => (typeof v === "number" && !Number.isFinite(v) ? String(v) : v));
 }
 
@@ -433,16 +441,17 @@ function tuneStageUncached(
 ): TunedStage | null {
   const keep = options.keep ?? 6;
   const limits = options.limits ?? partLimits(spec);
-  const bases = capacitorCandidates(t, target, spec, { keep: options.capacitors ?? 10, limits });
+  const choices = options.choices ?? {};
+  const bases = capacitorCandidates(t, target, spec, { keep: options.capacitors ?? 10, limits, choices });
   // Capacitor values earlier stages use are tried as well (when they keep the resistors near the window).
   for (const c of options.preferredCapacitors ?? []) {
     if (bases.some((b) => b.c === c) || c < spec.capacitorRange.min || c > spec.capacitorRange.max) continue;
-    const v = tryDesign(t, target, { capacitor: c }, spec.capacitorSeries);
+    const v = tryDesign(t, target, { ...choices, capacitor: c }, spec.capacitorSeries);
     if (v !== null && centring(v, spec.resistorRange) <= 1 && capacitorsWithin(v, limits)) bases.push({ c, values: v, centring: centring(v, spec.resistorRange) });
   }
   if (bases.length === 0) {
     // No capacitor in the window works: let the topology pick its own impedance level.
-    const v = tryDesign(t, target, {});
+    const v = tryDesign(t, target, choices);
     if (v === null || !capacitorsWithin(v, limits) || !resistorsWithin(v, limits)) return null;
     bases.push({ c: NaN, values: v, centring: centring(v, spec.resistorRange) });
   }
@@ -462,14 +471,14 @@ function tuneStageUncached(
     all.push(...found);
   };
   for (const base of bases) {
-    const designs = Number.isNaN(base.c) ? [base.values] : centred(stockCapacitorDesigns(t, target, spec, { ...base, limits }), spec, base.centring);
+    const designs = Number.isNaN(base.c) ? [base.values] : centred(stockCapacitorDesigns(t, target, spec, { ...base, limits, choices }), spec, base.centring);
     for (const exact of designs) search(exact, options.spread ?? 2);
   }
   all.sort((a, b) => a.cost - b.cost);
   // A coarse result (worse than 0.3 %) gets one wider search around the best few bases.
   if ((all[0]?.cost ?? Infinity) > 3e-3 && (options.spread ?? 2) < 3) {
     for (const base of bases.slice(0, 4)) {
-      const designs = Number.isNaN(base.c) ? [base.values] : centred(stockCapacitorDesigns(t, target, spec, { ...base, limits }), spec, base.centring);
+      const designs = Number.isNaN(base.c) ? [base.values] : centred(stockCapacitorDesigns(t, target, spec, { ...base, limits, choices }), spec, base.centring);
       for (const exact of designs) search(exact, 3);
     }
     all.sort((a, b) => a.cost - b.cost);

@@ -29,7 +29,7 @@
  */
 import type { OpAmpModel } from "../circuit/types.ts";
 import { asBuiltPole } from "../topologies/index.ts";
-import type { StageTarget, Topology } from "../topologies/types.ts";
+import type { StageChoices, StageTarget, Topology } from "../topologies/types.ts";
 
 /** Relative pole error (f0 and Q) at which the iteration stops. */
 export const PREDISTORTION_TOLERANCE = 1e-6;
@@ -78,9 +78,10 @@ function withFigures(t: Topology, base: StageTarget, f0Hz: number, q: number, ga
  * @param t - the stage's topology (second order)
  * @param wanted - the stage target the cascade needs
  * @param opamp - the op-amp model of the spec (not ideal)
+ * @param choices - the design choices the stage is built with (e.g. a state-variable notch's internal level)
  * @returns the corrected target with its f0 and Q factors, or why none was found
  */
-export function predistortTarget(t: Topology, wanted: StageTarget, opamp: OpAmpModel): PredistortionOutcome {
+export function predistortTarget(t: Topology, wanted: StageTarget, opamp: OpAmpModel, choices: StageChoices = {}): PredistortionOutcome {
   const qWant = wanted.q;
   if (wanted.order !== 2 || qWant === undefined || opamp.kind === "ideal") {
     return { ok: false, reason: "only second-order stages with a non-ideal op-amp are pre-distorted" };
@@ -97,7 +98,7 @@ export function predistortTarget(t: Topology, wanted: StageTarget, opamp: OpAmpM
     let qBuilt: number;
     let kg = 1;
     try {
-      const values = t.design(cur, {});
+      const values = t.design(cur, choices);
       const pole = asBuiltPole(t, values, opamp);
       f0Built = pole.f0Hz;
       qBuilt = pole.q ?? NaN;

@@ -249,8 +249,11 @@ export interface FilterSpec {
   readonly yieldCheck?: YieldCheckSpec;
   /**
    * Signal levels, for the clipping check of every op-amp output (the
-   * result's `verification.headroom`). Without them the peak gains to the
-   * op-amp outputs are still reported, with no verdict.
+   * result's `verification.headroom`). With them, state-variable notch and
+   * allpass stages whose loop nodes would come within 1 dB of the swing are
+   * built at a lower internal level (the output summer takes the gain back,
+   * at some cost in noise). Without them the peak gains to the op-amp
+   * outputs are still reported, with no verdict.
    * @defaultValue none (no clipping check)
    */
   readonly levels?: LevelsSpec;

@@ -32,7 +32,19 @@
  * Notch: the gain at the reference frequency sets R9 (lowpass-notch, DC) or
  * R8 (highpass-notch and notch, high frequency) and R8/R9 = wz^2/w0^2.
  * `capacitor` sets C1 (= C2); `resistor` sets R1 (the level of every
- * resistor); default R1 = 10 kOhm. No ratio choices.
+ * resistor); default R1 = 10 kOhm.
+ *
+ * Internal level (notch and allpass forms): `resistorRatio` h = H0 = R2/R1,
+ * default 1, is the input summer's gain. The three integrator-loop outputs
+ * scale with it (each peaks near H0 Q times the stage input for Q above
+ * about 0.7, so at H0 = 1 they run Q above the passband), and the output
+ * summer takes the gain back: R1 = R/h, R4 = (Q (2 + h) - 1) R5 (beta =
+ * 1/(Q G R), G R = 2 + h), and R8, R9 (and R11) times h, so the transfer
+ * function is unchanged. Lowering h below 1 trades headroom at the internal
+ * nodes for noise: the output summer's noise gain rises as 1/h (dynamic-range
+ * scaling of the loop's nodes: R. Schaumann & M. E. Van Valkenburg, "Design
+ * of Analog Filters", Oxford University Press 2001, the chapter on dynamic
+ * range, from memory). Needs Q (2 + h) > 1.
  *
  * Without the output summer (U4, R8-R11) the three taps are themselves
  * sections (the stage output is then that node): highpass at hp (gain -R2/R1),
@@ -66,7 +78,7 @@
  *
  * @module
  */
-import type { ComponentValues, StageFigures, StageTarget, Topology } from "./types.ts";
+import type { ComponentValues, StageChoices, StageFigures, StageTarget, Topology } from "./types.ts";
 import { cadd, cdiv, cmul, complex, cscale, csub, type Complex } from "../math/complex.ts";
 import { TWO_PI } from "../units/constants.ts";
 import { defineTopology } from "./define.ts";
@@ -285,6 +297,29 @@ const qLimit = (t: StageTarget): string | null =>
     ? null
     : `this state-variable stage sets Q with a divider of ratio 1/(3Q), so it needs Q above 1/3 (got ${t.q}); choose a Sallen-Key or multiple-feedback stage for such a low Q`;
 
+/**
+ * The notch and allpass forms' input summer at gain `h` = R2/R1 (see the
+ * module header): R1 = R/h, and R4 keeps Q, R4 = (Q (2 + h) - 1) R5.
+ */
+function scaledInput(v: Record<string, number>, t: StageTarget, h: number): Record<string, number> {
+  if (h === 1) return v;
+  const r = v["R2"] as number;
+  v["R1"] = r / h;
+  v["R4"] = ((t.q as number) * (2 + h) - 1) * (v["R5"] as number);
+  return v;
+}
+
+/** The notch and allpass forms' limits: Q above 1/3 and, with an internal level `resistorRatio` h, Q (2 + h) > 1. */
+function summedLimits(t: StageTarget, c: StageChoices): string | null {
+  const why = qLimit(t);
+  if (why !== null) return why;
+  const h = c.resistorRatio;
+  if (h !== undefined && !((t.q as number) * (2 + h) > 1 + 1e-9)) {
+    return `the input summer's gain resistorRatio (R2/R1) = ${h} leaves no divider for Q = ${t.q} (it needs Q (2 + ratio) > 1); raise resistorRatio`;
+  }
+  return null;
+}
+
 /** KHN state-variable notch section: lowpass-notch, highpass-notch or symmetric notch, from the zero frequency. */
 export const stateVariableNotch: Topology = defineTopology({
   id: "state-variable-notch",
@@ -296,12 +331,13 @@ export const stateVariableNotch: Topology = defineTopology({
   levelCapacitor: "C1",
   levelResistor: "R1",
   parts: core,
-  limits: qLimit,
-  solve: (t) => {
-    const v = baseValues(t);
+  limits: summedLimits,
+  solve: (t, c) => {
+    const h = c.resistorRatio ?? 1;
+    const v = scaledInput(baseValues(t), t, h);
     const w0 = TWO_PI * t.f0Hz;
     const wz = TWO_PI * (t.fzHz ?? t.f0Hz);
-    const r10 = v["R10"] as number;
+    const r10 = (v["R10"] as number) * h;
     const ratio = (wz * wz) / (w0 * w0); // R8 / R9
     if (t.kind === "lowpass-notch") {
       v["R9"] = r10 / t.gain;
@@ -331,10 +367,11 @@ export const stateVariableAllpass: Topology = defineTopology({
   levelCapacitor: "C1",
   levelResistor: "R1",
   parts: allpassParts,
-  limits: qLimit,
-  solve: (t) => {
-    const v = baseValues(t);
-    const r8 = (v["R10"] as number) / t.gain;
+  limits: summedLimits,
+  solve: (t, c) => {
+    const h = c.resistorRatio ?? 1;
+    const v = scaledInput(baseValues(t), t, h);
+    const r8 = ((v["R10"] as number) * h) / t.gain;
     v["R8"] = r8;
     v["R9"] = r8;
     v["R11"] = (t.q as number) * r8;
