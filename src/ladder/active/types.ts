@@ -50,7 +50,8 @@ export interface ActiveLadderOptions {
   /**
    * `"preferred"`: every part rounded to its series (a capacitor the method
    * cannot give the shared value made of two in parallel when one alone is
-   * further than 0.5 % off); `"exact"`: the computed values, unrounded.
+   * further than 0.5 % off), then the resistors re-tuned (`retune`);
+   * `"exact"`: the computed values, unrounded.
    * @defaultValue "preferred"
    */
   readonly values?: "preferred" | "exact";
