@@ -108,7 +108,12 @@ interface Rows {
  */
 function rowsOf(elements: readonly Element[], l: BuiltLadder, t: RetuneTarget, starts?: readonly Complex[]): Rows | null {
   const circuit: Circuit = { title: l.circuit.title, elements };
-  const tr = new TransferAt(assembleMna(circuit), l.source, l.output);
+  let tr: TransferAt;
+  try {
+    tr = new TransferAt(assembleMna(circuit), l.source, l.output);
+  } catch {
+    return null;
+  }
   const r: number[] = t.level ? [Math.log(abs(tr.at({ re: 0, im: l.frequencyScale })) / t.g)] : [];
   const roots: Complex[] = [];
   t.points.forEach((p, i) => {
@@ -362,8 +367,13 @@ export function retuneResistors(l: BuiltLadder, target: RetuneTarget, series: Se
   const w0 = l.frequencyScale;
   const stable = (d: readonly number[]): boolean => {
     const elements = placed.map((e, i) => (e.kind === "R" ? { ...e, value: (base[rIdx.indexOf(i)] as number) * Math.exp(d[rIdx.indexOf(i)] as number) } : e));
-    const p = circuitPolynomials({ title: l.circuit.title, elements }, { source: l.source, output: l.output, spanRadS: [w0 / 1000, w0 * 1000] }, w0);
-    return p !== null && rightHalfPlaneRoots(p.den) === 0;
+    try {
+      const p = circuitPolynomials({ title: l.circuit.title, elements }, { source: l.source, output: l.output, spanRadS: [w0 / 1000, w0 * 1000] }, w0);
+      return p !== null && rightHalfPlaneRoots(p.den) === 0;
+    } catch {
+      // a circuit whose polynomials cannot be had is not taken
+      return false;
+    }
   };
   const first = rowsOf(elementsAt(zero), l, target);
   const r0 = first?.r ?? null;
