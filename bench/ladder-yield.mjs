@@ -11,6 +11,13 @@
 // Impedance-Matching Networks, and Coupling Structures", McGraw-Hill 1964,
 // sec. 4.05). With --write the table is recorded in docs/benchmarks.md
 // between the ladder-yield markers. Ideal op-amps, as the spec's default.
+// The second table sweeps the op-amp's gain-bandwidth (single-pole op-amps,
+// a0 2e5, in the spec and in every op-amp of the ladders, which are
+// pre-distorted for it) at 1 % / 2 %: each ladder with every part at its
+// exact value, rounded to the nearest preferred values (`retune: false`)
+// and rounded then re-tuned (the default); recorded between the
+// ladder-gbw markers. `gbw` or `tolerances` among the arguments runs one
+// table only.
 import { readFileSync, writeFileSync } from "node:fs";
 import { dirname, join } from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
@@ -62,40 +69,86 @@ const tolerances = [
   [0.001, 0.01],
 ];
 const pct = (x, digits = 1) => `${(100 * x).toFixed(digits)} %`;
-const rows = [];
-for (const [rt, ct] of tolerances) {
-  const design = designFilter({ ...base, parts: { resistorSeries: "E96", capacitorSeries: "E12", resistorTolerance: rt, capacitorTolerance: ct } });
-  const ladder = chebyshevLadder(7, design.placement.designRippleDb);
-  const edgeHz = design.placement.chosenHz;
-  const runs = [
-    ["biquad cascade", design.stages.reduce((n, s) => n + s.opamps.length, 0), monteCarlo(design, { runs: boards, seed })],
-    ...[
-      ["leapfrog ladder", leapfrogLowpassLadder(ladder, { edgeHz })],
-      ["FDNR ladder", fdnrLowpassLadder(ladder, { edgeHz })],
-    ].map(([name, l]) => [name, l.opampCount, activeLadderMonteCarlo(design, l, { runs: boards, seed })]),
-  ];
-  for (const [name, opamps, r] of runs) {
-    rows.push(
-      `| ${(rt * 100).toString()} % / ${(ct * 100).toString()} % | ${name} | ${opamps} | ${pct(r.yield)} ± ${pct(r.yieldStandardError, 2)} | ${r.marginDb.median.toFixed(3)} | ${r.marginDb.min.toFixed(3)} |`,
-    );
+const only = args.find((a) => a === "gbw" || a === "tolerances");
+const tables = [];
+
+if (only !== "gbw") {
+  const rows = [];
+  for (const [rt, ct] of tolerances) {
+    const design = designFilter({ ...base, parts: { resistorSeries: "E96", capacitorSeries: "E12", resistorTolerance: rt, capacitorTolerance: ct } });
+    const ladder = chebyshevLadder(7, design.placement.designRippleDb);
+    const edgeHz = design.placement.chosenHz;
+    const runs = [
+      ["biquad cascade", design.stages.reduce((n, s) => n + s.opamps.length, 0), monteCarlo(design, { runs: boards, seed })],
+      ...[
+        ["leapfrog ladder", leapfrogLowpassLadder(ladder, { edgeHz })],
+        ["FDNR ladder", fdnrLowpassLadder(ladder, { edgeHz })],
+      ].map(([name, l]) => [name, l.opampCount, activeLadderMonteCarlo(design, l, { runs: boards, seed })]),
+    ];
+    for (const [name, opamps, r] of runs) {
+      rows.push(
+        `| ${(rt * 100).toString()} % / ${(ct * 100).toString()} % | ${name} | ${opamps} | ${pct(r.yield)} ± ${pct(r.yieldStandardError, 2)} | ${r.marginDb.median.toFixed(3)} | ${r.marginDb.min.toFixed(3)} |`,
+      );
+    }
   }
+  const table = [
+    `${boards} boards per row (seed ${seed}), uniform spread within each tolerance, ideal op-amps; design ripple and natural frequency from designFilter's placement; the ladders' resistors re-tuned after rounding.`,
+    "",
+    "| R / C tolerance | realisation | op-amps | yield | median margin, dB | worst margin, dB |",
+    "|---|---|---|---|---|---|",
+    ...rows,
+  ].join("\n");
+  tables.push(["ladder-yield", table]);
 }
-const table = [
-  `${boards} boards per row (seed ${seed}), uniform spread within each tolerance, ideal op-amps; design ripple and natural frequency from designFilter's placement.`,
-  "",
-  "| R / C tolerance | realisation | op-amps | yield | median margin, dB | worst margin, dB |",
-  "|---|---|---|---|---|---|",
-  ...rows,
-].join("\n");
-console.log(table);
+
+if (only !== "tolerances") {
+  const gbws = [3e6, 10e6, 30e6, 100e6, 1e9];
+  const parts = { resistorSeries: "E96", capacitorSeries: "E12", resistorTolerance: 0.01, capacitorTolerance: 0.02 };
+  const nominal = (design, l) => activeLadderMonteCarlo(design, l, { runs: 1, resistorTolerance: 0, capacitorTolerance: 0 }).marginDb.min;
+  const rows = [];
+  const swing = {};
+  for (const [name, make] of [["leapfrog", leapfrogLowpassLadder], ["FDNR", fdnrLowpassLadder]]) {
+    for (const gbwHz of gbws) {
+      const design = designFilter({ ...base, parts, opamp: { a0: 2e5, gbwHz } });
+      const ladder = chebyshevLadder(7, design.placement.designRippleDb);
+      const edgeHz = design.placement.chosenHz;
+      const opamp = { kind: "single-pole", a0: 2e5, gbwHz };
+      const cells = [];
+      for (const [key, options] of [["exact", { values: "exact" }], ["rounded", { retune: false }], ["retuned", {}]]) {
+        const l = make(ladder, { edgeHz, opamp, ...options });
+        const r = activeLadderMonteCarlo(design, l, { runs: boards, seed });
+        (swing[`${name} ${key}`] ??= []).push(r.yield);
+        const tune = key === "retuned" && l.retune !== null ? `, ${l.retune.moved} moved, ${l.retune.errorBeforeDb.toFixed(3)} → ${l.retune.errorAfterDb.toFixed(3)} dB` : "";
+        cells.push(`${pct(r.yield)} (${nominal(design, l).toFixed(3)} dB${tune})`);
+      }
+      rows.push(`| ${name} | ${gbwHz / 1e6} MHz | ${cells.join(" | ")} |`);
+    }
+  }
+  const range = (k) => `${pct(Math.min(...swing[k]))} to ${pct(Math.max(...swing[k]))}`;
+  const table = [
+    `${boards} boards per cell (seed ${seed}), 1 % resistors (E96), 2 % capacitors (E12), uniform spread; single-pole op-amps (a0 2e5) of the gain-bandwidth shown in the spec and in every op-amp of the ladders, which are pre-distorted for it. Each cell: yield (nominal margin with no spread; for the re-tuned ladders the resistors moved and the largest pole error before → after, see \`ActiveLadderRetune\`).`,
+    "",
+    "| ladder | op-amp GBW | exact values | rounded to the nearest | rounded, then re-tuned |",
+    "|---|---|---|---|---|",
+    ...rows,
+    "",
+    `Yield range over the five gain-bandwidths: leapfrog ${range("leapfrog exact")} exact, ${range("leapfrog rounded")} rounded, ${range("leapfrog retuned")} re-tuned; FDNR ${range("FDNR exact")}, ${range("FDNR rounded")}, ${range("FDNR retuned")}.`,
+  ].join("\n");
+  tables.push(["ladder-gbw", table]);
+}
+
+for (const [, table] of tables) console.log(`${table}\n`);
 if (args.includes("--write")) {
   const path = join(root, "docs", "benchmarks.md");
-  const doc = readFileSync(path, "utf8");
-  const start = "<!-- ladder-yield:start -->";
-  const end = "<!-- ladder-yield:end -->";
-  const i = doc.indexOf(start);
-  const j = doc.indexOf(end);
-  if (i < 0 || j < i) throw new Error("docs/benchmarks.md lacks the ladder-yield markers");
+  let doc = readFileSync(path, "utf8");
   const date = new Date().toISOString().slice(0, 10);
-  writeFileSync(path, `${doc.slice(0, i + start.length)}\n${date}: ${table}\n${doc.slice(j)}`);
+  for (const [marker, table] of tables) {
+    const start = `<!-- ${marker}:start -->`;
+    const end = `<!-- ${marker}:end -->`;
+    const i = doc.indexOf(start);
+    const j = doc.indexOf(end);
+    if (i < 0 || j < i) throw new Error(`docs/benchmarks.md lacks the ${marker} markers`);
+    doc = `${doc.slice(0, i + start.length)}\n${date}: ${table}\n${doc.slice(j)}`;
+  }
+  writeFileSync(path, doc);
 }

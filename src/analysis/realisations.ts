@@ -5,7 +5,8 @@
  * lowpass, grounded GIC inductors for a highpass), each built from the spec's
  * part series and op-amp (pre-distorted for a real op-amp by the builders,
  * src/ladder/active/predistort.ts; a method whose op-amp is too slow for
- * that is listed as skipped, with the gain-bandwidth it needs), each given the same seeded boards at the same
+ * that is listed as skipped, with the gain-bandwidth it needs; their
+ * resistors re-tuned after rounding, src/ladder/active/retune.ts), each given the same seeded boards at the same
  * uniform part tolerances. The choice: of the realisations whose yield meets
  * the spec's target (the lower end of the 95 % Wilson interval), the one with
  * the fewest op-amps (then the higher yield); when none meets it, the highest

@@ -7,8 +7,9 @@
  *
  * @module
  */
-export type { ActiveLadder, ActiveLadderMethod, ActiveLadderOptions, ActiveLadderPart, ActiveLadderPredistortion, DcPath, DcPathOptions, PartWindow } from "./types.ts";
+export type { ActiveLadder, ActiveLadderMethod, ActiveLadderOptions, ActiveLadderPart, ActiveLadderPredistortion, ActiveLadderRetune, DcPath, DcPathOptions, PartWindow } from "./types.ts";
 export { PREDISTORT_ACCEPT_POLE_ERROR, PREDISTORT_MAX_STEPS, PREDISTORT_POLE_TOLERANCE } from "./predistort.ts";
+export { RETUNE_PENALTY, RETUNE_ROUNDS, RETUNE_STEPS } from "./retune.ts";
 export { T_NETWORK_ABOVE_OHMS } from "./leapfrog.ts";
 export type { LadderElement, LadderElementKind, LadderForm, LadderPrototype } from "../types.ts";
 export { gicHighpassLadder, type GicHighpassOptions } from "./gic-highpass.ts";

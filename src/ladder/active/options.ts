@@ -55,6 +55,8 @@ export interface ReadOptions {
   readonly gain: number;
   /** Whether to pre-distort for the op-amp (false with an ideal one). */
   readonly predistort: boolean;
+  /** Whether to re-tune the resistors after rounding (false with exact values). */
+  readonly retune: boolean;
   /**
    * The pre-distortion's trim of each arm (internal; absent outside it): an
    * added loss of a leapfrog integrator (normalised, rad/s), a loss
@@ -102,7 +104,9 @@ export function readActiveOptions(fn: string, options: unknown, levelOhms = DEFA
   const gain = o["gain"] === undefined ? 1 : requireInRange(fn, "options.gain", o["gain"], { min: 0.01, max: 100 });
   const asked = o["predistort"] ?? true;
   if (typeof asked !== "boolean") throw new InvalidArgumentError({ fn, path: "options.predistort", received: asked, message: "expected true or false (or no field: true for a real op-amp)" });
-  return { edgeHz, kf, capacitorF, resistorSeries, capacitorSeries, exact: values === "exact", opamp, gain, predistort: asked && opamp.kind !== "ideal" };
+  const retune = o["retune"] ?? true;
+  if (typeof retune !== "boolean") throw new InvalidArgumentError({ fn, path: "options.retune", received: retune, message: "expected true or false (or no field: true)" });
+  return { edgeHz, kf, capacitorF, resistorSeries, capacitorSeries, exact: values === "exact", opamp, gain, predistort: asked && opamp.kind !== "ideal", retune: retune && values !== "exact" };
 }
 
 /** Default of `dcPathRatio`. */

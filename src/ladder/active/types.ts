@@ -50,7 +50,8 @@ export interface ActiveLadderOptions {
   /**
    * `"preferred"`: every part rounded to its series (a capacitor the method
    * cannot give the shared value made of two in parallel when one alone is
-   * further than 0.5 % off); `"exact"`: the computed values, unrounded.
+   * further than 0.5 % off), then the resistors re-tuned (`retune`);
+   * `"exact"`: the computed values, unrounded.
    * @defaultValue "preferred"
    */
   readonly values?: "preferred" | "exact";
@@ -80,6 +81,16 @@ export interface ActiveLadderOptions {
    * @defaultValue true when `opamp` is not ideal
    */
   readonly predistort?: boolean;
+  /**
+   * Re-tune after rounding: with the capacitors at their stock values,
+   * choose the resistors jointly among their neighbouring preferred values
+   * (up to three steps from the nearest) so that the circuit as built, with
+   * the op-amp model the values were designed for (the options' when
+   * pre-distorted, else ideal), has the target's poles, notch frequencies
+   * and level (./retune.ts). Ignored with exact values.
+   * @defaultValue true
+   */
+  readonly retune?: boolean;
 }
 
 /** What the pre-distortion for the op-amps did. */
@@ -106,6 +117,24 @@ export interface ActiveLadderPredistortion {
    * too); for the FDNR and GIC methods what the op-amps leave of their loss.
    */
   readonly gainErrorDb: number;
+}
+
+/** What the re-tune after rounding did (./retune.ts). */
+export interface ActiveLadderRetune {
+  /** Resistors moved off their nearest preferred value. */
+  readonly moved: number;
+  /**
+   * Largest first-order shift of the response near a reference point (a
+   * pole's shift over its distance to the jw axis, a notch's over its
+   * distance to the nearest pole, the level at the edge where it is
+   * trimmed) of the circuit with every resistor at its nearest preferred
+   * value, dB.
+   */
+  readonly errorBeforeDb: number;
+  /** The same of the re-tuned circuit, dB (never above `errorBeforeDb`). */
+  readonly errorAfterDb: number;
+  /** Linearisations made. */
+  readonly rounds: number;
 }
 
 /** Options of the realisations that add DC path resistors (the FDNR and GIC methods). */
@@ -175,4 +204,6 @@ export interface ActiveLadder {
   readonly frequencyScale: number;
   /** The pre-distortion for the op-amps (null when none was made: ideal op-amps or `predistort: false`). */
   readonly predistortion: ActiveLadderPredistortion | null;
+  /** The re-tune of the resistors after rounding (null when none was made: exact values or `retune: false`). */
+  readonly retune: ActiveLadderRetune | null;
 }

@@ -48,14 +48,18 @@ describe("leapfrogLowpassLadder", () => {
   });
 
   it("uses n integrators and an inverter per even arm, every integrating capacitor the shared one", () => {
-    const f = leapfrogLowpassLadder(chebyshev1Ladder(7, 0.125, "series-first"), { edgeHz: 18_000, capacitorF: 1e-9 });
-    expect(f.opampCount).toBe(10);
-    const caps = f.parts.filter((p) => p.kind === "capacitor");
-    expect(caps.length).toBe(7);
-    expect(caps.every((c) => c.value === 1e-9)).toBe(true);
-    for (const r of f.parts.filter((p) => p.kind === "resistor")) {
-      expect(isInSeries(r.value, "E96"), r.name).toBe(true);
-      expect(Math.abs(r.value / r.ideal - 1), r.name).toBeLessThan(0.0125);
+    const p = chebyshev1Ladder(7, 0.125, "series-first");
+    // rounded only: each resistor the nearest E96 value; re-tuned (the default): within three E96 steps of it
+    for (const [retune, within] of [[false, 0.0125], [true, 1.0245 ** 3.5 - 1]] as const) {
+      const f = leapfrogLowpassLadder(p, { edgeHz: 18_000, capacitorF: 1e-9, retune });
+      expect(f.opampCount).toBe(10);
+      const caps = f.parts.filter((p) => p.kind === "capacitor");
+      expect(caps.length).toBe(7);
+      expect(caps.every((c) => c.value === 1e-9)).toBe(true);
+      for (const r of f.parts.filter((p) => p.kind === "resistor")) {
+        expect(isInSeries(r.value, "E96"), r.name).toBe(true);
+        expect(Math.abs(r.value / r.ideal - 1), r.name).toBeLessThan(within);
+      }
     }
   });
 
