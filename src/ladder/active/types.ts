@@ -56,12 +56,12 @@ export interface ActiveLadderOptions {
    */
   readonly values?: "preferred" | "exact";
   /**
-   * Op-amp model of every op-amp, in the circuit and its netlist. The
-   * values are designed for ideal op-amps (no pre-distortion for the
-   * gain-bandwidth): with a single-pole op-amp a 7th-order Chebyshev I's
-   * passband departs from the target by about 250 edgeHz / GBW dB (0.25 dB
-   * at GBW = 1000 edgeHz) with each of the three methods
-   * (measured here).
+   * Op-amp model of every op-amp, in the circuit and its netlist. With a
+   * single-pole model the values are pre-distorted for its gain-bandwidth
+   * (`predistort`, on by default; predistort.ts); without it a 7th-order
+   * Chebyshev I's passband departs from the target by about
+   * 250 edgeHz / GBW dB (0.25 dB at GBW = 1000 edgeHz) with each of the three
+   * methods (measured here).
    * @defaultValue `{ kind: "ideal" }`
    */
   readonly opamp?: OpAmpModel;
