@@ -126,6 +126,8 @@ export {
   toBomCsv,
   toLcLadderBomCsv,
   lcLadderMarkdown,
+  lcLadderToJson,
+  lcLadderFromJson,
   bomLines,
   toJson,
   fromJson,

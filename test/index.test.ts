@@ -42,6 +42,8 @@ const ROOT_NAMES = [
   "toJson",
   "toLcLadderBomCsv",
   "lcLadderMarkdown",
+  "lcLadderToJson",
+  "lcLadderFromJson",
   "toMarkdown",
   "toSectionsCsv",
   "toSectionsJson",

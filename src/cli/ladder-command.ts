@@ -1,13 +1,13 @@
 /**
  * `filterwright ladder`: a passive doubly terminated LC ladder from the
  * same mask options as `design` (`designLcLadder`), its verdict on the
- * boards built from toleranced parts, and its netlist, BOM and Markdown summary.
+ * boards built from toleranced parts, and its JSON record, netlist, BOM and Markdown summary.
  *
  * @module
  */
 import { FilterwrightError, SpecError } from "../errors.ts";
 import { checkSpec, designLcLadder, lcLadderNetlist, type FilterSpec, type LcLadderDesign, type LcLadderOptions } from "../design/index.ts";
-import { lcLadderMarkdown, toLcLadderBomCsv } from "../report/index.ts";
+import { lcLadderMarkdown, lcLadderToJson, toLcLadderBomCsv } from "../report/index.ts";
 import { formatValue } from "../units/index.ts";
 import type { GivenOption } from "./args.ts";
 import { CliProblem, CliProblems } from "./problems.ts";
@@ -110,6 +110,7 @@ export function ladderCommand(
   if (merged.problems.length > 0) throw new CliProblems([...earlier.lines, ...merged.problems]);
   const d = designOrExplain(merged.spec, { name: sourceName, base, options: o }, earlier.lines, earlier.failed);
   const toStdout = writeOutputFiles(o, io, [
+    ["json", () => lcLadderToJson(d)],
     ["netlist", () => lcLadderNetlist(d)],
     ["bom", () => toLcLadderBomCsv(d)],
     ["markdown", () => lcLadderMarkdown(d)],

@@ -118,7 +118,7 @@ export const OPTIONS: readonly OptionDef[] = [
   { name: "ind-tol", kind: "fraction", placeholder: "T", what: "the inductor tolerance, a percentage or a fraction", example: "5%", help: "ladder: inductor tolerance, e.g. 5% (default: the series' usual)", commands: ["ladder"], section: "spec" },
   { name: "inductor-q", kind: "plain-quantity", placeholder: "Q", what: "the inductors' quality factor", example: "80", help: "ladder: inductor Q at the edge or centre (default 50)", commands: ["ladder"], section: "spec" },
   { name: "boards", kind: "count", placeholder: "N", what: "a whole number of boards from 1 to 100000", example: "2000", help: "ladder: Monte Carlo boards of the yield check (default 1000)", commands: ["ladder"], section: "output" },
-  { name: "json", kind: "path", placeholder: "FILE", what: "a file path, or - for standard output", example: "result.json", help: "the design record as JSON", commands: DESIGNING, section: "output" },
+  { name: "json", kind: "path", placeholder: "FILE", what: "a file path, or - for standard output", example: "result.json", help: "the design record as JSON", commands: MASK, section: "output" },
   { name: "netlist", kind: "path", placeholder: "FILE", what: "a file path, or - for standard output", example: "filter.cir", help: "the SPICE netlist", commands: MASK, section: "output" },
   { name: "bom", kind: "path", placeholder: "FILE", what: "a file path, or - for standard output", example: "bom.csv", help: "the bill of materials (CSV)", commands: MASK, section: "output" },
   { name: "markdown", kind: "path", placeholder: "FILE", what: "a file path, or - for standard output", example: "design.md", help: "the design summary (Markdown)", commands: MASK, section: "output" },

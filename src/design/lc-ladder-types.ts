@@ -12,6 +12,7 @@ import type { LadderPartLine } from "../ladder/parts-list.ts";
 import type { ScaledLadder } from "../ladder/scaled-types.ts";
 import type { LadderForm, LadderPrototype } from "../ladder/types.ts";
 import type { DesignSpec } from "./spec.ts";
+import type { LcLadderOptions } from "./lc-ladder-options.ts";
 
 /** Where the ladder's prototype was put inside the mask's slack. */
 export interface LcLadderPlacement {
@@ -136,4 +137,10 @@ export interface LcLadderDesign {
   readonly inductorSeries: InductorSeries;
   /** The nominal check and the boards. */
   readonly verification: LcLadderVerification;
+  /**
+   * The options the design was made with, every default filled in (`loadOhms`
+   * only when it was given): `designLcLadder(specToInput(spec), options)`
+   * makes the same design, which is how `lcLadderFromJson` re-verifies one.
+   */
+  readonly options: Readonly<LcLadderOptions>;
 }

@@ -43,7 +43,7 @@ import { ladderParts } from "../ladder/parts-list.ts";
 import { requireInteger, requireOptions } from "../validate.ts";
 import { zpkSource } from "./lc-ladder-build.ts";
 import { chooseLadder } from "./lc-ladder-choice.ts";
-import { readLcLadderOptions, type LcLadderOptions } from "./lc-ladder-options.ts";
+import { readLcLadderOptions, type LcLadderOptions, type LcLadderPlan } from "./lc-ladder-options.ts";
 import type { LcLadderBoard, LcLadderDesign, LcLadderVerification } from "./lc-ladder-types.ts";
 
 export type { LcLadderBoard, LcLadderDesign, LcLadderPlacement, LcLadderVerification, LcLadderYield } from "./lc-ladder-types.ts";
@@ -156,7 +156,14 @@ export function designLcLadder(spec: FilterSpec, options: LcLadderOptions = {}):
     parts: ladderParts(b.asBuilt),
     inductorSeries: plan.inductorSeries,
     verification: verification(b.figures, exact, yieldPart),
+    options: Object.freeze(usedOptions(plan)),
   }, lcLadderBundle));
+}
+
+/** The options of a plan as `designLcLadder` takes them (the load only when it was given). */
+function usedOptions(plan: LcLadderPlan): LcLadderOptions {
+  const { loadOhms, ...rest } = plan;
+  return loadOhms === undefined ? rest : { ...rest, loadOhms };
 }
 
 /** Options of {@link lcLadderNetlist}. */

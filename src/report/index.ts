@@ -9,6 +9,7 @@ export { toSpiceNetlist, type SpiceNetlistOptions } from "./spice.ts";
 export type { OpampPin, OpampSubcircuit, OpampSupply } from "../circuit/index.ts";
 export { toBomCsv, toLcLadderBomCsv, bomLines, type BomLine, type BomOptions } from "./bom.ts";
 export { lcLadderMarkdown, LADDER_CAUTIONS } from "./lc-ladder-markdown.ts";
+export { lcLadderFromJson, lcLadderToJson, LC_LADDER_FORMAT, LC_LADDER_FORMAT_VERSION } from "./lc-ladder-json.ts";
 export type { RealisationChoice } from "./realisation.ts";
 export { toJson, fromJson, DESIGN_FORMAT_VERSION, JSON_MAX_CHARS, JSON_MAX_DEPTH } from "./json.ts";
 export { svgFigure, plotFigure, type Figure, type SvgFigureOptions } from "./figure.ts";

@@ -86,8 +86,15 @@ function checksumOf(result: unknown): string {
   return `fnv1a64:${fnv1a64(JSON.stringify(result))}`;
 }
 
-/** The deepest nesting of `[` and `{` outside strings, stopping once it passes `limit` (one linear scan). */
-function nestingDepth(text: string, limit: number): number {
+/**
+ * The deepest nesting of `[` and `{` outside strings, stopping once it passes `limit` (one linear scan).
+ *
+ * @param text - JSON text
+ * @param limit - depth beyond which the scan stops
+ * @returns the depth found (at most `limit + 1`)
+ * @internal
+ */
+export function nestingDepth(text: string, limit: number): number {
   let depth = 0;
   let deepest = 0;
   let inString = false;
