@@ -1,6 +1,7 @@
 // The seeded, bounded fuzz of the ladder layers: random (often invalid)
 // arguments to ladderPrototype, scaleLadder, asBuiltLadder, ladderParts,
-// ladderCircuit and the three active ladder builders. Nothing may escape but
+// ladderCircuit and the three active ladder builders, and randomly edited JSON
+// records of a passive ladder design read back. Nothing may escape but
 // the library's typed errors, and no returned number may be non-finite; every
 // part a call does return is positive. Counts are printed at the end.
 import { afterAll, describe, expect, it } from "vitest";
@@ -9,11 +10,13 @@ import { FAMILY_NAMES } from "../src/approx/index.ts";
 import { asBuiltLadder, ladderParts, ladderPrototype, scaleLadder, LADDER_RESPONSES, type LadderPrototype } from "../src/ladder/index.ts";
 import { fdnrLowpassLadder, gicHighpassLadder, leapfrogLowpassLadder } from "../src/ladder/active/index.ts";
 import { ladderCircuit } from "../src/circuit/index.ts";
+import { designLcLadder } from "../src/design/lc-ladder.ts";
+import { lcLadderFromJson, lcLadderToJson } from "../src/report/index.ts";
 import { SERIES_NAMES } from "../src/parts/index.ts";
 import { anyNumber, anyValue, makeGuard } from "./guard.ts";
 
 const SEED = 20261203;
-const counts = { lowLevel: 0, typedErrors: 0, prototypes: 0, ladders: 0, activeLadders: 0 };
+const counts = { lowLevel: 0, typedErrors: 0, prototypes: 0, ladders: 0, activeLadders: 0, jsonEdits: 0 };
 const guarded = makeGuard(counts);
 const RUNS = Number(process.env["FUZZ_LADDER_RUNS"] ?? 2000);
 
@@ -128,9 +131,47 @@ describe("fuzz: ladders", () => {
     );
   });
 
+  it("lcLadderFromJson on randomly edited records of a passive ladder design", () => {
+    // a 30 MHz anti-alias lowpass (our own scenario), few boards so each re-made design is quick
+    const d = designLcLadder(
+      { response: "lowpass", passband: { edgeHz: 30e6, maxLossDb: 1 }, stopband: { edgeHz: 60e6, minAttenuationDb: 45 }, parts: { capacitorSeries: "E24", capacitorTolerance: 0.01 } },
+      { inductorSeries: "E24", inductorTolerance: 0.02, inductorQ: 80, boards: 64 },
+    );
+    const text = lcLadderToJson(d);
+    const record = JSON.parse(text) as Record<string, unknown>;
+    const leaves: string[][] = [];
+    const walk = (o: unknown, path: string[]): void => {
+      if (o !== null && typeof o === "object") for (const [k, v] of Object.entries(o)) walk(v, [...path, k]);
+      else leaves.push(path);
+    };
+    walk(record, []);
+    fc.assert(
+      fc.property(fc.nat(leaves.length - 1), fc.oneof(anyValue, fc.constant(undefined)), (at, value) => {
+        const copy = JSON.parse(text) as Record<string, unknown>;
+        const path = leaves[at] as string[];
+        let o = copy as Record<string, unknown>;
+        for (const k of path.slice(0, -1)) o = o[k] as Record<string, unknown>;
+        const last = path[path.length - 1] as string;
+        if (value === undefined) delete o[last];
+        else o[last] = value;
+        counts.jsonEdits++;
+        guarded(`lcLadderFromJson(${path.join(".")} = ${String(value)})`, () => {
+          const back = lcLadderFromJson(JSON.stringify(copy));
+          // an accepted edit changed nothing the design depends on (a spec field at its default, say):
+          // the parts are the stored ones, and the record of what was read reads back to itself
+          expect(back.asBuilt.components.map((c) => c.value)).toEqual(d.asBuilt.components.map((c) => c.value));
+          const again = lcLadderToJson(back);
+          expect(lcLadderToJson(lcLadderFromJson(again))).toBe(again);
+          return back.verification;
+        });
+      }),
+      { numRuns: Number(process.env["FUZZ_LADDER_JSON_RUNS"] ?? 120), seed: SEED + 3 },
+    );
+  });
+
   afterAll(() => {
     console.log(
-      `fuzz ladders: ${counts.lowLevel} calls (${counts.typedErrors} typed errors), ${counts.prototypes} prototypes, ${counts.ladders} scaled ladders, ${counts.activeLadders} active ladders built`,
+      `fuzz ladders: ${counts.lowLevel} calls (${counts.typedErrors} typed errors), ${counts.prototypes} prototypes, ${counts.ladders} scaled ladders, ${counts.activeLadders} active ladders built, ${counts.jsonEdits} edited LC ladder records read`,
     );
   });
 });
