@@ -250,13 +250,17 @@ export function buildAttempt(spec: DesignSpec, placed: PlacedPrototype, options:
   }
   const { grid, exactPlans } = built;
   // With signal levels, the state-variable notch stages whose loop nodes would clip are built again at a lower internal level.
-  const levels = spec.levels === null ? null : internalLevels(spec, built.cascade.plans, built.cascade.tuned.map((t) => t.best), grid);
-  if (levels !== null) {
+  let levels: (StageChoices | undefined)[] | undefined;
+  for (let pass = 0; pass < 2 && spec.levels !== null; pass++) {
+    const next = internalLevels(spec, built.cascade.plans, built.cascade.tuned.map((t) => t.best), grid, levels);
+    if (next === null) break;
     try {
-      built = { ...built, cascade: tuneCascade(spec, exactPlans, options.wide, levels) };
+      built = { ...built, cascade: tuneCascade(spec, exactPlans, options.wide, next) };
+      levels = next;
     } catch (e) {
-      // no values at the lower level inside the windows: the stage stays as it was (its clipping is reported)
+      // no values at the lower level inside the windows: the stages stay as they were (a clipping one is reported)
       if (!(e instanceof StageValuesError)) throw e;
+      break;
     }
   }
   const { plans, tuned, predistortion } = built.cascade;

@@ -20,8 +20,10 @@
  * range (from memory).
  *
  * The peaks are the found maxima of the built cascade to every op-amp
- * output (headroom.ts, `stagePeakGains`), taken at H0 = 1; the loop nodes
- * scale exactly with H0, so one evaluation gives the H0 each stage needs.
+ * output (headroom.ts, `stagePeakGains`), taken at the level the stages
+ * were built at; the loop nodes scale exactly with H0, so one evaluation
+ * gives the H0 each stage needs, and one more after the cascade is tuned
+ * again (its rounding and the stages before it move the peaks a little).
  *
  * @module
  */
@@ -45,15 +47,17 @@ export const HEADROOM_RESERVE_DB = 1;
  *
  * @param spec - canonical spec
  * @param plans - the stages' plans
- * @param chosen - the stages' values as built at the default internal level
+ * @param chosen - the stages' values as built
  * @param gridRadS - the design's section grid (the peaks' fallback)
- * @returns the choices per stage, or null
+ * @param current - the choices the stages were built with (none: the default level)
+ * @returns the choices per stage, or null when none changes
  */
 export function internalLevels(
   spec: DesignSpec,
   plans: readonly StagePlan[],
   chosen: readonly { readonly values: ComponentValues }[],
   gridRadS: Float64Array,
+  current?: readonly (StageChoices | undefined)[],
 ): (StageChoices | undefined)[] | null {
   const levels = spec.levels;
   if (levels === null || !plans.some((p) => SCALABLE.has(p.topology.id))) return null;
@@ -62,14 +66,17 @@ export function internalLevels(
   const allowed = (levels.outputSwingV * 10 ** (-HEADROOM_RESERVE_DB / 20)) / levels.inputPeakV;
   let any = false;
   const out = plans.map((p, i): StageChoices | undefined => {
-    if (!SCALABLE.has(p.topology.id)) return undefined;
+    const now = current?.[i];
+    if (!SCALABLE.has(p.topology.id)) return now;
     const stage = peaks[i];
-    if (stage === undefined) return undefined;
+    if (stage === undefined) return now;
     let loop = 0;
     for (const o of stage.opamps) if (o.node !== "out") loop = Math.max(loop, o.gain);
-    if (!(loop > allowed)) return undefined;
-    const h = Math.min(1, Math.max(allowed / loop, stage.output.gain / loop));
-    if (!(h < 1 - 1e-9)) return undefined;
+    if (!(loop > allowed)) return now;
+    // the loop's nodes scale with the level: from the one the stage was built at
+    const h0 = now?.resistorRatio ?? 1;
+    const h = Math.min(1, h0 * Math.max(allowed / loop, stage.output.gain / loop));
+    if (!(h < h0 * (1 - 1e-3))) return now;
     any = true;
     return { resistorRatio: h };
   });
