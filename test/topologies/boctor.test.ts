@@ -13,6 +13,7 @@ import type { Circuit, Element, OpAmpModel } from "../../src/circuit/types.ts";
 import type { ComponentValues, StageTarget, Topology } from "../../src/topologies/types.ts";
 import { requireNgspice, runAc } from "../helpers/ngspice.ts";
 import fixture from "../fixtures/boctor-nodal.json" with { type: "json" };
+import { polyMagnitude } from "../helpers/poly-magnitude.ts";
 
 const ideal: OpAmpModel = { kind: "ideal" };
 const realistic: OpAmpModel = { kind: "single-pole", a0: 2e5, gbwHz: 1e6 };
@@ -23,23 +24,6 @@ const hpn: StageTarget = { order: 2, kind: "highpass-notch", f0Hz: 1000, q: 2, f
 function nodal(topo: Topology, v: ComponentValues, freqHz: Float64Array, opamp: OpAmpModel): { re: Float64Array; im: Float64Array } {
   const elements: Element[] = [{ kind: "V", name: "Vin", a: "in", b: "0", ac: 1 }, ...topo.elements(v, { input: "in", output: "out", nodePrefix: "x_", opamp })];
   return acAnalysis({ title: topo.id, elements }, { source: "Vin", outputs: ["out"], freqHz }).outputs["out"]!;
-}
-
-/** |H| from the as-built polynomials (Horner in z = j 2 pi f / scale). */
-function polyMagnitude(topo: Topology, v: ComponentValues, f: number, opamp: OpAmpModel): number {
-  const p = topo.polynomials!(v, opamp)!;
-  const zi = (2 * Math.PI * f) / p.scale;
-  const ev = (c: Float64Array): number => {
-    let re = 0;
-    let im = 0;
-    for (const k of c) {
-      const nr = -im * zi + k;
-      im = re * zi;
-      re = nr;
-    }
-    return Math.hypot(re, im);
-  };
-  return ev(p.num) / ev(p.den);
 }
 
 const db = (x: number): number => 20 * Math.log10(x);

@@ -13,6 +13,7 @@ import type { Element, OpAmpModel } from "../../src/circuit/types.ts";
 import { getTopology } from "../../src/topologies/index.ts";
 import type { ComponentValues, StageChoices, StageTarget, Topology } from "../../src/topologies/types.ts";
 import { logGrid } from "../../src/tf/index.ts";
+import { polyMagnitude } from "../helpers/poly-magnitude.ts";
 
 const ideal: OpAmpModel = { kind: "ideal" };
 const real: OpAmpModel = { kind: "single-pole", a0: 2e5, gbwHz: 5e6 };
@@ -23,24 +24,6 @@ function nodal(topo: Topology, v: ComponentValues, freqHz: Float64Array, opamp: 
   const outs = NODES.map((n) => (n === "out" ? n : `x_${n}`));
   const r = acAnalysis({ title: topo.id, elements }, { source: "Vin", outputs: outs, freqHz }).outputs;
   return Object.fromEntries(NODES.map((n, i) => [n, r[outs[i] as string] as { re: Float64Array; im: Float64Array }]));
-}
-
-/** |H| from the as-built polynomials (Horner in z = j 2 pi f / scale). */
-function polyMagnitude(topo: Topology, v: ComponentValues, f: number, opamp: OpAmpModel): number {
-  const p = topo.polynomials?.(v, opamp);
-  if (p === null || p === undefined) throw new Error("no polynomials");
-  const zi = (2 * Math.PI * f) / p.scale;
-  const ev = (c: Float64Array): number => {
-    let re = 0;
-    let im = 0;
-    for (const k of c) {
-      const nr = -im * zi + k;
-      im = re * zi;
-      re = nr;
-    }
-    return Math.hypot(re, im);
-  };
-  return ev(p.num) / ev(p.den);
 }
 
 const cases: { id: string; target: StageTarget }[] = [
