@@ -122,10 +122,7 @@ export function designLcLadder(spec: FilterSpec, options: LcLadderOptions = {}):
     radiusRadS: b.radius,
   });
   const run = runBoards([stage], b.mask, { boards: plan.boards, seed: plan.seed, distribution: s.partDistribution });
-  const [lower, upper] = wilsonInterval(run.passed, run.boards);
-  // the interval's ends are exactly 0 and 1 when no board or every board passes (the formula rounds them by an ulp)
-  const lower95 = run.passed === 0 ? 0 : lower;
-  const upper95 = run.passed === run.boards ? 1 : upper;
+  const [lower95, upper95] = wilsonInterval(run.passed, run.boards);
   const yieldPart = {
     fraction: run.passed / run.boards,
     lower95,
