@@ -20,13 +20,9 @@ import { monteCarloBundle } from "./display.ts";
 import { InvalidArgumentError, SingularCircuitError } from "../errors.ts";
 import { requireInRange, requireInteger, requireOneOf, requireOptions } from "../validate.ts";
 import type { DesignResult } from "../design/index.ts";
-import { builtStages } from "../design/response.ts";
-import { maskPlan, spanRadS } from "../design/verify.ts";
 import { requireDesignResult } from "../design/check.ts";
+import { resultBoardStages, type ResultBoardStages, type ToleranceFractions } from "../design/realisation.ts";
 import { runBoards, type BoardRun, type BoardStage, type PartDistribution } from "../evaluate/boards.ts";
-import type { MaskPlan } from "../evaluate/mask.ts";
-import { compileStage } from "../evaluate/stage-polynomials.ts";
-import { TWO_PI } from "../units/constants.ts";
 import { checkpoint, checkRunControl, watched, type RunControl } from "../evaluate/progress.ts";
 
 /** Options of {@link monteCarlo}. */
@@ -84,13 +80,7 @@ export interface Spread {
   readonly max: number;
 }
 
-/** Part tolerances as fractions (0.01 for 1 %). */
-export interface ToleranceFractions {
-  /** Resistor tolerance. */
-  readonly resistor: number;
-  /** Capacitor tolerance. */
-  readonly capacitor: number;
-}
+export type { ToleranceFractions } from "../design/realisation.ts";
 
 /** Result of {@link monteCarlo}. */
 export interface MonteCarloResult {
@@ -186,46 +176,19 @@ export function monteCarloSettings(fn: string, result: DesignResult, options: un
 }
 
 /** A design's boards as the board engine takes them. */
-export interface MonteCarloStages {
-  /** The mask. */
-  readonly plan: MaskPlan;
-  /** The band edges' span, rad/s, the stages were compiled for. */
-  readonly span: readonly [number, number];
-  /** Each stage: compiled, nominal values, tolerances and scale. */
-  readonly stages: readonly BoardStage[];
-}
+export type MonteCarloStages = ResultBoardStages;
 
 /**
- * The mask and the board stages of a checked design: each stage compiled with
- * the design's op-amp model over the mask's span, its nominal values, each
- * part's tolerance (the caller's fixed one, else the part's own, else the
- * spec's) and its scale (the stage's ideal f0, rad/s).
+ * The mask and the board stages of a checked design (src/design/realisation.ts
+ * `resultBoardStages`): each part's tolerance the caller's fixed one, else
+ * the part's own, else the spec's.
  *
  * @param result - a checked design
  * @param settings - from {@link monteCarloSettings}
  * @returns the plan, the span and the stages
  */
 export function monteCarloStages(result: DesignResult, settings: MonteCarloSettings): MonteCarloStages {
-  const { resistorTolerance: rt, capacitorTolerance: ct } = settings;
-  const plan = maskPlan(result.spec);
-  const span = spanRadS(plan.bands);
-  const opamp = result.spec.opamp;
-  const stages: BoardStage[] = builtStages(result).map((s, k) => {
-    const compiled = compileStage(s.topology, s.values, opamp, span);
-    const st = result.stages[k] as DesignResult["stages"][number];
-    const own = new Map(Object.entries(st.localNames).map(([global, local]) => [local, st.tolerances[global] as number]));
-    const part = (name: string): number => {
-      const fixed = name.startsWith("C") ? ct : rt;
-      return fixed ?? own.get(name) ?? (name.startsWith("C") ? result.spec.capacitorTolerance : result.spec.resistorTolerance);
-    };
-    return {
-      compiled,
-      nominal: Float64Array.from(compiled.componentNames, (name) => s.values[name] as number),
-      tolerance: Float64Array.from(compiled.componentNames, part),
-      radius: TWO_PI * s.topology.figures(s.values).f0Hz,
-    };
-  });
-  return { plan, span, stages };
+  return resultBoardStages(result, { resistor: settings.resistorTolerance, capacitor: settings.capacitorTolerance });
 }
 
 /**

@@ -25,7 +25,7 @@ import { CliProblem, CliProblems, ioReason } from "./problems.ts";
 import { SCENARIOS } from "./scenarios.ts";
 import { inFlagTerms, isPlainObject, issueLines, specFromOptions, type SpecSource } from "./spec-options.ts";
 import { didYouMean } from "./suggest.ts";
-import { formatSummary, table } from "./summary.ts";
+import { boardsWork, formatSummary, realisedAs, table } from "./summary.ts";
 import { quoted } from "./values.ts";
 
 export { formatSummary } from "./summary.ts";
@@ -109,8 +109,9 @@ function analysis<T>(options: ReadonlyMap<string, GivenOption>, f: () => T): T {
   }
 }
 
-/** With --compare, the cascade against the active ladders on the same boards (--yield boards each, default 2000; --seed). */
+/** With --compare, the cascade against the active ladders on the same boards (--yield boards each, default 2000; --seed); with --realisation (or the spec's), the design's own comparison. */
 function comparisonOf(r: DesignResult, o: ReadonlyMap<string, GivenOption>): RealisationComparison | undefined {
+  if (r.realisation !== undefined) return r.realisation;
   if (o.get("compare")?.value !== true) return undefined;
   const runs = o.get("yield")?.value;
   const seed = o.get("seed")?.value;
@@ -279,6 +280,9 @@ function design(start: Start, o: ReadonlyMap<string, GivenOption>, earlier: Earl
   const { base, sourceName } = start;
   const merged = specFromOptions(base, o);
   if (merged.problems.length > 0) throw new CliProblems([...earlier.lines, ...merged.problems]);
+  if ((merged.spec as { realisation?: unknown }).realisation === "lc-ladder") {
+    throw new CliProblem(`realisation "lc-ladder"${sourceName === undefined ? "" : ` in ${sourceName}`}: a passive LC ladder is designed by filterwright ladder (with --source-ohms, --load-ohms, --inductors, ...)`);
+  }
   plotKindOf(o); // a misspelt --plot is refused before the design runs
   const control = progressOf(o, io);
   let r: DesignResult;
@@ -296,10 +300,10 @@ function design(start: Start, o: ReadonlyMap<string, GivenOption>, earlier: Earl
   const say = toStdout === undefined ? io.stdout : io.stderr;
   if (start.heading !== "") say(start.heading);
   if (o.get("quiet")?.value === true) {
-    say(`${r.verification.boardsMeetSpec ? "meets" : "does not meet"} the spec: ${r.family} order ${r.order}, ${verdictLine(r)}\n${extra.map((x) => `${x}\n`).join("")}`);
+    say(`${boardsWork(r) ? "meets" : "does not meet"} the spec: ${r.family} order ${r.order}, ${realisedAs(r)}${verdictLine(r)}\n${extra.map((x) => `${x}\n`).join("")}`);
   } else say(formatSummary(r, extra));
   if (toStdout !== undefined) io.stdout(toStdout);
-  return r.verification.boardsMeetSpec ? 0 : 1;
+  return boardsWork(r) ? 0 : 1;
 }
 
 /** The base spec: the --spec file's contents, or empty without one (its read problems told with the earlier ones). */

@@ -5,7 +5,7 @@
  *
  * @module
  */
-import type { DesignResult } from "../design/index.ts";
+import type { DesignRealisation, DesignResult, RealisationCandidate } from "../design/index.ts";
 import { DESIGN_CAUTIONS } from "../report/index.ts";
 import { verdictLine } from "../design/verdict.ts";
 import { hertz } from "../design/text.ts";
@@ -80,7 +80,7 @@ export function formatSummary(r: DesignResult, extra: readonly string[] = []): s
     "",
   );
   out.push(
-    `${v.boardsMeetSpec ? "MEETS" : "DOES NOT MEET"} the spec: ${verdictLine(r)}; op-amp ${v.opamp.kind === "ideal" ? "ideal" : `GBW ${hz(v.opamp.gbwHz)}`}`,
+    `${boardsWork(r) ? "MEETS" : "DOES NOT MEET"} the spec: ${realisedAs(r)}${verdictLine(r)}; op-amp ${v.opamp.kind === "ideal" ? "ideal" : `GBW ${hz(v.opamp.gbwHz)}`}`,
   );
   const h = v.headroom;
   if (h !== undefined) {
@@ -102,3 +102,22 @@ export function formatSummary(r: DesignResult, extra: readonly string[] = []): s
   return `${out.join("\n")}\n`;
 }
 
+/** The chosen active ladder of a design, when its spec asked for one to be compared and one was chosen. */
+function chosenLadder(r: DesignResult): RealisationCandidate | undefined {
+  const own = r.realisation;
+  const k = own === undefined ? undefined : own.candidates[own.chosen];
+  return k !== undefined && k.realisation === "active-ladder" ? k : undefined;
+}
+
+/** Whether the boards that will be built work: the chosen active ladder's verdict, else the cascade's. */
+export function boardsWork(r: DesignResult): boolean {
+  return chosenLadder(r) === undefined ? r.verification.boardsMeetSpec : (r.realisation as DesignRealisation).boardsMeetSpec;
+}
+
+/** The words that say a chosen active ladder is what the verdict is of (empty for the cascade). */
+export function realisedAs(r: DesignResult): string {
+  const k = chosenLadder(r);
+  if (k === undefined) return "";
+  const pc = (x: number): string => `${(x * 100).toFixed(1)} %`;
+  return `realised as the ${k.method} active ladder (${k.opamps} op-amps), ${pc(k.yield)} of ${k.boards} boards meet the mask (95 % interval from ${pc(k.lower95)}), nominal margin ${k.nominalMarginDb.toFixed(3)} dB; the cascade below: `;
+}

@@ -274,6 +274,12 @@ function checkStage(c: Checker, p: string, sv: unknown, spec: DesignSpec, positi
 
 const SPEC_ERROR = "the stored spec is not valid";
 
+/** A canonical spec without its realisation field (how files written before it read). */
+function withoutRealisation(spec: DesignSpec): Omit<DesignSpec, "realisation"> {
+  const { realisation: _, ...rest } = spec;
+  return rest;
+}
+
 /** The stored spec, re-validated (strict: it must already be canonical, with no extra field). */
 function checkSpecField(c: Checker, prefix: string, specRaw: Raw): DesignSpec {
   let spec: DesignSpec;
@@ -283,9 +289,11 @@ function checkSpecField(c: Checker, prefix: string, specRaw: Raw): DesignSpec {
     return c.fail(`${prefix}.spec`, `${SPEC_ERROR} (${e instanceof Error ? e.message : String(e)})`);
   }
   if (c.strict) {
-    c.keys(`${prefix}.spec`, specRaw, Object.keys(spec));
+    // A file written before specs had a realisation is a cascade's.
+    const canonical = "realisation" in specRaw || spec.realisation !== "cascade" ? spec : withoutRealisation(spec);
+    c.keys(`${prefix}.spec`, specRaw, Object.keys(canonical));
     // Already canonical: what validation makes of it is what is stored.
-    compare(c.make, c.fn, `${prefix}.spec`, specRaw, spec, "the canonical value validateSpec makes of the stored spec");
+    compare(c.make, c.fn, `${prefix}.spec`, specRaw, canonical, "the canonical value validateSpec makes of the stored spec");
     for (const k of ["resistorRange", "capacitorRange"] as const) c.obj(`${prefix}.spec.${k}`, specRaw[k], ["min", "max"]);
     c.obj(`${prefix}.spec.opamp`, specRaw["opamp"], spec.opamp.kind === "ideal" ? ["kind"] : ["kind", "a0", "gbwHz"]);
     if (specRaw["levels"] !== null) c.obj(`${prefix}.spec.levels`, specRaw["levels"], ["inputPeakV", "outputSwingV"]);
@@ -454,8 +462,47 @@ function checkNotes(c: Checker, prefix: string, r: Raw): void {
 }
 
 const RESULT_KEYS = [
-  "spec", "family", "familyChoice", "order", "filterOrder", "minimumOrder", "placement", "stages", "verification", "warnings", "actions", "yieldAlternatives",
+  "spec", "family", "familyChoice", "order", "filterOrder", "minimumOrder", "placement", "stages", "verification", "warnings", "actions", "yieldAlternatives", "realisation",
 ] as const;
+
+const REALISATION_KEYS = ["requested", "candidates", "skipped", "chosen", "reason", "tolerances", "seed", "boardsMeetSpec"] as const;
+
+/**
+ * The realisation record's shape: present exactly when the spec asked for
+ * `"auto"` or `"active-ladder"`, its choice one of its candidates (each an
+ * active ladder with its circuit, or the cascade). Its figures are
+ * recomputed by `recheckDesign` when a file is read.
+ */
+function checkRealisation(c: Checker, p: string, value: unknown, spec: DesignSpec): void {
+  const asked = spec.realisation === "auto" || spec.realisation === "active-ladder";
+  if (value === undefined) {
+    if (asked && c.strict) c.fail(p, `expected the realisations compared, as the spec asks for realisation ${JSON.stringify(spec.realisation)}`);
+    return;
+  }
+  if (!asked) c.fail(p, `unexpected: the spec's realisation is ${JSON.stringify(spec.realisation)}, and only "auto" and "active-ladder" record one`, value);
+  const r = c.obj(p, value, REALISATION_KEYS);
+  if (r["requested"] !== spec.realisation) c.fail(`${p}.requested`, `expected the spec's realisation ${JSON.stringify(spec.realisation)}`, r["requested"]);
+  const candidates = c.arr(`${p}.candidates`, r["candidates"]);
+  if (candidates.length === 0) c.fail(`${p}.candidates`, "expected at least the cascade", candidates);
+  const chosen = c.int(`${p}.chosen`, r["chosen"], 0);
+  if (chosen >= candidates.length) c.fail(`${p}.chosen`, `expected an index into the ${candidates.length} candidates`, chosen);
+  candidates.forEach((kv, i) => {
+    const q = `${p}.candidates.${i}`;
+    const k = c.obj(q, kv);
+    const kind = c.oneOf(`${q}.realisation`, k["realisation"], ["cascade", "active-ladder"]);
+    c.str(`${q}.method`, k["method"]);
+    for (const f of ["opamps", "parts", "yield", "lower95", "upper95", "boards", "medianMarginDb", "nominalMarginDb"]) c.num(`${q}.${f}`, k[f]);
+    c.bool(`${q}.meetsTarget`, k["meetsTarget"]);
+    if (kind === "active-ladder") {
+      const l = c.obj(`${q}.ladder`, k["ladder"]);
+      c.str(`${q}.ladder.output`, l["output"]);
+      c.arr(`${q}.ladder.parts`, l["parts"]);
+      c.obj(`${q}.ladder.circuit`, l["circuit"]);
+    }
+  });
+  c.str(`${p}.reason`, r["reason"]);
+  c.bool(`${p}.boardsMeetSpec`, r["boardsMeetSpec"]);
+}
 
 /**
  * Check the shape and numbers of a design result, throwing the first problem.
@@ -487,6 +534,7 @@ export function checkDesignResult(fn: string, value: unknown, options: ResultChe
   stages.forEach((sv, i) => checkStage(c, `${prefix}.stages.${i}`, sv, spec, position));
   checkVerification(c, `${prefix}.verification`, r["verification"], spec, stages.length);
   checkNotes(c, prefix, r);
+  checkRealisation(c, `${prefix}.realisation`, r["realisation"], spec);
   return { ...(r as unknown as DesignResult), spec };
 }
 

@@ -26,7 +26,11 @@ export {
   type LevelsSpec,
   type SignalLevels,
   type YieldCheckSpec,
+  type Realisation,
+  type ActiveRealisation,
+  type LcLadderFilterSpec,
 } from "./spec.ts";
+export type { DesignRealisation, RealisationCandidate, RealisationComparison, RealisationMethod, RealisationSkipped, ToleranceFractions } from "./realisation.ts";
 export { designFilter, LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./pipeline.ts";
 export { responseSpanHz } from "./verify.ts";
 export { designResponse, type DesignResponseOptions } from "./response.ts";

@@ -49,6 +49,7 @@ import type { LcLadderBoard, LcLadderDesign, LcLadderVerification } from "./lc-l
 export type { LcLadderBoard, LcLadderDesign, LcLadderPlacement, LcLadderVerification, LcLadderYield } from "./lc-ladder-types.ts";
 export type { LcLadderOptions } from "./lc-ladder-options.ts";
 import { requireDesignSpec, validateSpec, type FilterSpec } from "./spec.ts";
+import type { LcLadderFilterSpec } from "./spec-types.ts";
 import { responseSpanHz } from "./verify.ts";
 
 const FN = "designLcLadder";
@@ -106,7 +107,7 @@ function verification(figures: MaskFigures, exact: MaskFigures, yieldPart: LcLad
  * d.verification.yield.fraction; //=> 0.997 (1000 boards)
  * ```
  */
-export function designLcLadder(spec: FilterSpec, options: LcLadderOptions = {}): LcLadderDesign {
+export function designLcLadder(spec: FilterSpec | LcLadderFilterSpec, options: LcLadderOptions = {}): LcLadderDesign {
   const s = validateSpec(spec);
   const plan = readLcLadderOptions(FN, options, s);
   const chosen = chooseLadder(s, plan);

@@ -22,7 +22,12 @@ import { designForYieldAcrossFamilies } from "./yield.ts";
 import { withTunedStages } from "./components.ts";
 import { feasibility } from "./relax.ts";
 import type { DesignResult } from "./types.ts";
-import type { FilterSpec } from "./spec-types.ts";
+import type { FilterSpec, LcLadderFilterSpec } from "./spec-types.ts";
+import { designLcLadder, type LcLadderDesign } from "./lc-ladder.ts";
+import { chooseRealisation } from "./realisation.ts";
+import { registerDesignResult, deepFreeze } from "./check.ts";
+import { withDisplay } from "../display.ts";
+import { designBundle } from "./display.ts";
 import { checkpoint, checkRunControl, watched, type RunControl } from "../evaluate/progress.ts";
 
 export { LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./result.ts";
@@ -37,6 +42,18 @@ export { LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./result.ts";
  * the limit meets the mask, `familyChoice.feasibility` says the order each
  * family would need and the nearest relaxations that make the mask feasible.
  *
+ * Realisation (the spec's `realisation`): `"cascade"` (the default) builds
+ * the biquad cascade alone. `"auto"` and `"active-ladder"` build it, then the
+ * active simulations of the LC ladder of the same prototype (leapfrog and
+ * FDNR for a lowpass, GIC inductors for a highpass), and compare them all on
+ * the same seeded boards at the spec's part tolerances
+ * (src/design/realisation.ts): `auto` keeps the one that meets the yield
+ * target with the fewest op-amps, `active-ladder` the best ladder; the
+ * result's `realisation` lists every candidate and says why, and the
+ * netlist, BOM and report functions export the chosen one. `"lc-ladder"`
+ * (an {@link LcLadderFilterSpec}) returns the passive ladder
+ * `designLcLadder(spec, spec.lcLadder)` makes.
+ *
  * A long design (a high-order bandstop whose yield ladder builds thousands of
  * boards) can be watched and stopped: `control.onProgress` is told each step
  * (family, component search, each yield candidate, each batch of boards), and
@@ -45,8 +62,9 @@ export { LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./result.ts";
  *
  * @param spec - the specification (validated here; see {@link FilterSpec})
  * @param control - progress callback, abort signal and time limit (all optional)
- * @returns the design as plain readonly data
+ * @returns the design as plain readonly data (an `LcLadderDesign` for `realisation: "lc-ladder"`)
  * @throws {@link SpecError} listing every problem of a malformed spec
+ * @throws {@link UnrealisableError} (path `realisation`) when an active ladder is asked for a response none is built for
  * @throws {@link CancelledError} when `control` stops the run (its `path` names the option)
  * @throws {@link UnrealisableError} when no topology or capacitor window can build a stage
  * @example
@@ -58,10 +76,45 @@ export { LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./result.ts";
  * });
  * r.verification.meetsSpec; //=> true
  * r.stages.length; //=> 2
+ *
+ * // a sharp anti-alias lowpass on 1 % resistors and 2 % capacitors, realisations compared
+ * const a = designFilter({ response: "lowpass", passband: { edgeHz: 18000, maxLossDb: 0.25 },
+ *   stopband: { edgeHz: 26000, minAttenuationDb: 33 }, family: "chebyshev1", order: 7,
+ *   parts: { resistorTolerance: 0.01, capacitorTolerance: 0.02 }, yieldTarget: 0.5, realisation: "auto" });
+ * a.realisation?.candidates.map((k) => k.method); //=> ["biquad-cascade", "leapfrog", "fdnr"]
+ * a.realisation?.reason; //=> "the fdnr active ladder: the fewest op-amps (7) of the 2 realisations that meet the 50 % yield target, ..."
  * ```
  */
-export function designFilter(spec: FilterSpec, control?: RunControl): DesignResult {
+export function designFilter(spec: FilterSpec, control?: RunControl): DesignResult;
+/**
+ * Design a passive doubly terminated LC ladder from a spec of `realisation: "lc-ladder"`
+ * (the same as `designLcLadder(spec, spec.lcLadder)`).
+ *
+ * @param spec - the specification, its LC ladder options in `lcLadder`
+ * @param control - progress callback, abort signal and time limit (checked; the ladder's design is not watched)
+ * @returns the ladder design
+ */
+export function designFilter(spec: LcLadderFilterSpec, control?: RunControl): LcLadderDesign;
+/**
+ * Design from a spec whose realisation is known only at run time (a spec read from a file).
+ *
+ * @param spec - the specification
+ * @param control - progress callback, abort signal and time limit
+ * @returns the cascade design, or an `LcLadderDesign` for `realisation: "lc-ladder"`
+ */
+export function designFilter(spec: FilterSpec | LcLadderFilterSpec, control?: RunControl): DesignResult | LcLadderDesign;
+export function designFilter(spec: FilterSpec | LcLadderFilterSpec, control?: RunControl): DesignResult | LcLadderDesign {
   const canonical: DesignSpec = validateSpec(spec);
+  if (canonical.realisation === "lc-ladder") {
+    checkRunControl("designFilter", "control", control);
+    return designLcLadder(spec, (spec as LcLadderFilterSpec).lcLadder ?? {});
+  }
+  const cascade = designCascade(canonical, control);
+  return canonical.realisation === "cascade" ? cascade : withRealisation(cascade, canonical.realisation);
+}
+
+/** The biquad cascade of a canonical spec (the pipeline of this module's header). */
+function designCascade(canonical: DesignSpec, control: RunControl | undefined): DesignResult {
   return watched("designFilter", "control", checkRunControl("designFilter", "control", control), () => withTunedStages(() => {
     checkpoint("family", "family and order");
     const chosen = chooseFamily(canonical);
@@ -75,4 +128,11 @@ export function designFilter(spec: FilterSpec, control?: RunControl): DesignResu
     checkpoint("result", `result: ${robust.family}`);
     return assembleResult(canonical, { family: robust.family, choice, minimumOrder: orders.minimum, actions }, robust);
   }));
+}
+
+/** The cascade with the realisation chosen for it (src/design/realisation.ts) recorded on the result. */
+function withRealisation(cascade: DesignResult, requested: "active-ladder" | "auto"): DesignResult {
+  checkpoint("realisation", `realisations compared on ${cascade.spec.yieldMaxBoards} boards`);
+  const realisation = chooseRealisation(cascade, requested);
+  return registerDesignResult(deepFreeze(withDisplay({ ...cascade, realisation }, designBundle)));
 }

@@ -20,6 +20,7 @@
  *
  * @module
  */
+import { chooseRealisation } from "./realisation.ts";
 import { asBuiltPole } from "../topologies/index.ts";
 import type { ComponentValues } from "../topologies/types.ts";
 import type { FilterwrightError, ErrorDetails } from "../errors.ts";
@@ -137,4 +138,6 @@ export function recheckDesign(
   for (const [k, x] of Object.entries({ ...recomputed, boardsMeetSpec })) same(`verification.${k}`, (v as unknown as Record<string, unknown>)[k], x);
   same("verification.headroom", v.headroom, headroom);
   same("verification.curve", v.curve, responseCurve(spec, boards, spec.opamp, v.curve.freqHz.length));
+  // The realisations compared again on the same boards (deterministic for the spec, the parts and the seed).
+  if (spec.realisation === "auto" || spec.realisation === "active-ladder") same("realisation", result.realisation, chooseRealisation(result, spec.realisation));
 }

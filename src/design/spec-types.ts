@@ -10,6 +10,7 @@ import type { FamilyName } from "../approx/index.ts";
 import type { SeriesName } from "../parts/index.ts";
 
 import type { PartDistribution } from "../evaluate/boards.ts";
+import type { LcLadderOptions } from "./lc-ladder-options.ts";
 
 export type { PartDistribution };
 
@@ -257,6 +258,43 @@ export interface FilterSpec {
    * @defaultValue none (no clipping check)
    */
   readonly levels?: LevelsSpec;
+  /**
+   * How the filter is realised: `"cascade"`, a cascade of biquad (and
+   * first-order) stages; `"active-ladder"`, an op-amp simulation of the
+   * doubly terminated LC ladder of the same prototype (leapfrog or FDNR for a
+   * lowpass, grounded GIC inductors for a highpass; the one whose boards do
+   * best is kept); `"auto"`, the cascade and the active ladders compared on
+   * the same seeded boards, the one that reaches the yield target with the
+   * fewest op-amps chosen (the result's `realisation` says why). A passive LC
+   * ladder is asked for with `"lc-ladder"` ({@link LcLadderFilterSpec}); `auto`
+   * never picks it, because it needs matched source and load terminations
+   * and gives no gain or buffering, which changes the circuit around it.
+   * @defaultValue `"cascade"`
+   */
+  readonly realisation?: ActiveRealisation;
+}
+
+/** The realisations a {@link FilterSpec} may ask for (`"lc-ladder"` is asked for with {@link LcLadderFilterSpec}). */
+export type ActiveRealisation = "cascade" | "active-ladder" | "auto";
+
+/** Every value of a spec's `realisation` field. */
+export type Realisation = ActiveRealisation | "lc-ladder";
+
+/**
+ * A spec for a passive doubly terminated LC ladder: `designFilter` returns
+ * an `LcLadderDesign` for it (the same as `designLcLadder(spec,
+ * spec.lcLadder)`). The mask, family, order, capacitor and yield fields
+ * apply; gain, polarity, op-amp, topology, signal-level and resistor fields
+ * are not read.
+ */
+export interface LcLadderFilterSpec extends Omit<FilterSpec, "realisation"> {
+  /** A passive LC ladder. */
+  readonly realisation: "lc-ladder";
+  /**
+   * The ladder's terminations, form, inductors, capacitor tolerance, boards and seed.
+   * @defaultValue the defaults of {@link LcLadderOptions}
+   */
+  readonly lcLadder?: LcLadderOptions;
 }
 
 /** An inclusive window of part values in SI units. */
@@ -325,6 +363,8 @@ export interface DesignSpec {
   readonly yieldSeed: number;
   /** Signal levels for the clipping check, or `null` when the spec gives none. */
   readonly levels: SignalLevels | null;
+  /** How the filter is realised. */
+  readonly realisation: Realisation;
 }
 
 /** The signal levels of a spec: the largest input and the op-amps' output swing. */

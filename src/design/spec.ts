@@ -13,7 +13,7 @@
  */
 import { InvalidArgumentError, SpecError, type Issue } from "../errors.ts";
 import type { OpAmpModel } from "../circuit/types.ts";
-import type { DesignSpec, EdgeInput, FilterSpec, GainSpec, ResponseType } from "./spec-types.ts";
+import type { ActiveRealisation, DesignSpec, EdgeInput, FilterSpec, GainSpec, Realisation, ResponseType } from "./spec-types.ts";
 import { isObject, readBands, readFamily, readGain, readOpamp, readParts, readTopology, readYield, Reader } from "./spec-readers.ts";
 import { readLevels } from "./spec-levels.ts";
 
@@ -35,6 +35,9 @@ export type {
   SignalLevels,
   YieldCheckSpec,
   PartDistribution,
+  Realisation,
+  ActiveRealisation,
+  LcLadderFilterSpec,
 } from "./spec-types.ts";
 export { MAX_SPEC_ORDER } from "./spec-readers.ts";
 
@@ -52,7 +55,21 @@ const TOP_KEYS = [
   "yieldTarget",
   "yieldCheck",
   "levels",
+  "realisation",
+  "lcLadder",
 ] as const;
+
+/** The realisation names, in the order error messages list them. */
+export const REALISATIONS: readonly Realisation[] = ["cascade", "active-ladder", "auto", "lc-ladder"];
+
+/** The spec's realisation (default `"cascade"`); `lcLadder` options only go with `"lc-ladder"`. */
+function readRealisation(r: Reader, spec: Record<string, unknown>): Realisation {
+  const realisation = spec["realisation"] === undefined ? "cascade" : r.oneOf("realisation", spec["realisation"], REALISATIONS) ?? "cascade";
+  if (spec["lcLadder"] !== undefined && spec["realisation"] !== "lc-ladder") {
+    r.add("lcLadder", 'the LC ladder options apply only with realisation "lc-ladder": add realisation: "lc-ladder" or remove lcLadder', spec["lcLadder"]);
+  }
+  return realisation;
+}
 
 /** How deep {@link ownData} copies (a spec nests three levels; deeper data is only ever shown in an issue). */
 const OWN_COPY_DEPTH = 8;
@@ -118,6 +135,7 @@ function readSpec(input: unknown): { readonly issues: readonly Issue[]; readonly
   const opamp = readOpamp(r, spec["opamp"]);
   const yieldPart = readYield(r, spec);
   const levels = readLevels(r, spec["levels"]);
+  const realisation = readRealisation(r, spec);
   readOpampAboveBands(r, opamp, bands);
   if (r.issues.length > 0) return { issues: r.issues, spec: null };
   return {
@@ -137,6 +155,7 @@ function readSpec(input: unknown): { readonly issues: readonly Issue[]; readonly
       opamp: Object.freeze({ ...opamp }),
       ...yieldPart,
       levels,
+      realisation,
     })),
   };
 }
@@ -274,6 +293,7 @@ export function requireDesignSpec(fn: string, value: unknown, path = "spec"): De
   for (const k of ["capacitorToleranceFixed", "resistorToleranceFixed"]) {
     if (typeof v[k] !== "boolean") fail(k, "expected true or false", v[k]);
   }
+  if (v["realisation"] !== undefined && !(REALISATIONS as readonly unknown[]).includes(v["realisation"])) fail("realisation", `expected one of ${REALISATIONS.map((x) => JSON.stringify(x)).join(", ")}`, v["realisation"]);
   if (v["partDistribution"] !== "uniform" && v["partDistribution"] !== "normal") fail("partDistribution", 'expected "uniform" or "normal"', v["partDistribution"]);
   for (const k of ["polarity", "family", "priority", "topology", "capacitorSeries", "resistorSeries"]) str(k);
   if (v["order"] !== null) num("order", true);
@@ -298,7 +318,8 @@ export function requireDesignSpec(fn: string, value: unknown, path = "spec"): De
  * would write (numbers only), so a result can be re-designed or stored.
  *
  * @param spec - a validated spec
- * @returns an equivalent {@link FilterSpec} that {@link validateSpec} maps back to `spec`
+ * @returns an equivalent {@link FilterSpec} that {@link validateSpec} maps back to `spec` (a spec of
+ *   `realisation: "lc-ladder"` keeps that field, so its input is in fact an `LcLadderFilterSpec`)
  * @throws {@link InvalidArgumentError} when `spec` is not a canonical spec (the path names the field)
  * @example
  * ```ts
@@ -345,5 +366,6 @@ export function specToInput(spec: DesignSpec): FilterSpec {
     yieldTarget: spec.yieldTarget,
     yieldCheck: { maxBoards: spec.yieldMaxBoards, seed: spec.yieldSeed },
     ...(spec.levels === null || spec.levels === undefined ? {} : { levels: { inputPeakV: spec.levels.inputPeakV, outputSwingV: spec.levels.outputSwingV } }),
+    ...(spec.realisation === "cascade" || spec.realisation === undefined ? {} : { realisation: spec.realisation as ActiveRealisation }),
   };
 }

@@ -8,6 +8,7 @@
  *
  * @module
  */
+import type { DesignRealisation } from "./realisation.ts";
 import type { FamilyName } from "../approx/index.ts";
 import type { AsBuiltPole } from "../topologies/as-built.ts";
 import type { StageFigures, StageKind } from "../topologies/types.ts";
@@ -426,4 +427,11 @@ export interface DesignResult {
   readonly actions: readonly DesignAction[];
   /** The designs the yield search built and measured, in the order tried (the chosen one marked). */
   readonly yieldAlternatives: readonly YieldAlternative[];
+  /**
+   * The realisations compared on the same boards and the one chosen, when
+   * the spec asked for `realisation: "auto"` or `"active-ladder"` (absent
+   * for the cascade). When an active ladder is chosen, the netlist, BOM and
+   * report functions export it, and its `boardsMeetSpec` is the verdict.
+   */
+  readonly realisation?: DesignRealisation;
 }

@@ -16,11 +16,11 @@
 import { CancelledError, InvalidArgumentError } from "../errors.ts";
 
 /** Where a long run is. */
-export type ProgressStep = "family" | "search" | "yield" | "boards" | "result";
+export type ProgressStep = "family" | "search" | "yield" | "boards" | "realisation" | "result";
 
 /** One progress report. */
 export interface Progress {
-  /** The step: the family choice, the component search, a rung of the yield ladder, a batch of Monte Carlo boards, the result. */
+  /** The step: the family choice, the component search, a rung of the yield ladder, a batch of Monte Carlo boards, the comparison of realisations, the result. */
   readonly step: ProgressStep;
   /** What is happening, in words ("yield: tighter parts 0.5 % R / 2 % C"). */
   readonly message: string;

@@ -23,7 +23,8 @@ export interface BomOptions {
    * A realisation from `compareRealisations(result)`: the BOM of its board
    * (an active ladder's parts, each at the tolerance its boards were measured
    * at, and its op-amps) instead of the design's cascade.
-   * @defaultValue the design's own cascade
+   * @defaultValue the realisation the design chose (`result.realisation`, from a spec's
+   *   `realisation: "auto"` or `"active-ladder"`), else the design's own cascade
    */
   readonly realisation?: RealisationChoice;
 }
@@ -70,7 +71,7 @@ export interface BomLine {
  */
 export function bomLines(result: DesignResult, options: BomOptions = {}): BomLine[] {
   requireDesignResult("bomLines", result);
-  const realisation = realisationOption("bomLines", options);
+  const realisation = realisationOption("bomLines", options, result);
   if (realisation?.ladder !== undefined) return ladderBomLines(result, realisation);
   const parts: PartEntry[] = [];
   for (const stage of result.stages) {

@@ -32,7 +32,8 @@ export interface MarkdownOptions {
   /**
    * A comparison from `compareRealisations(result)`: a section with every
    * realisation's op-amps and yield on the same boards, and the choice.
-   * @defaultValue no such section
+   * @defaultValue the design's own comparison (`result.realisation`, from a spec's
+   *   `realisation: "auto"` or `"active-ladder"`), else no such section
    */
   readonly realisations?: RealisationComparison;
 }
@@ -56,7 +57,6 @@ function edges(e: readonly number[]): string {
 /** The boards section: the yield, the tolerances it was measured at, and the alternatives the yield search measured. */
 function yieldSection(result: DesignResult): string[] {
   const y = result.verification.yield;
-  const pct = (x: number): string => `${Number((x * 100).toPrecision(3))} %`;
   const list = (xs: readonly number[]): string => xs.map(pct).join(", ");
   const L: string[] = ["## Boards as built (yield)", ""];
   L.push(
@@ -93,23 +93,33 @@ export function toMarkdown(result: DesignResult, options?: MarkdownOptions): str
   requireDesignResult("toMarkdown", result);
   const o = requireOptions("toMarkdown", "options", options);
   const schematics = requireSchematics("toMarkdown", o["schematics"]);
-  const realisations = requireComparison("toMarkdown", o["realisations"]);
+  const realisations = requireComparison("toMarkdown", o["realisations"]) ?? result.realisation;
   const s = result.spec;
   const v = result.verification;
   const L: string[] = [];
   const title = s.response[0]?.toUpperCase() + s.response.slice(1);
   L.push(`# ${title} filter: ${result.family}, ${result.filterOrder} poles`, "");
-  L.push(
-    `**${v.boardsMeetSpec ? "Meets the spec" : "Does NOT meet the spec"}**: the design ${verdictLine(result)}. ${result.stages.length} stage${result.stages.length === 1 ? "" : "s"}, ${result.stages.reduce((k, st) => k + st.opamps.length, 0)} op-amp(s).`,
-    "",
-  );
+  const pct = (x: number): string => `${Number((x * 100).toPrecision(3))} %`;
+  const own = result.realisation;
+  const ladder = own === undefined ? undefined : own.candidates[own.chosen];
+  if (own !== undefined && ladder !== undefined && ladder.realisation === "active-ladder") {
+    L.push(
+      `**${own.boardsMeetSpec ? "Meets the spec" : "Does NOT meet the spec"}**: realised as the ${ladder.method} active ladder (${ladder.opamps} op-amps), whose nominal board has ${ladder.nominalMarginDb.toFixed(3)} dB of margin and whose boards meet the mask on ${pct(ladder.yield)} of ${ladder.boards} (95 % interval from ${pct(ladder.lower95)}, target ${pct(s.yieldTarget)}). ${own.reason} The netlist and BOM are of the ladder; the stages below are the biquad cascade it was compared with.`,
+      "",
+    );
+  } else {
+    L.push(
+      `**${v.boardsMeetSpec ? "Meets the spec" : "Does NOT meet the spec"}**: the design ${verdictLine(result)}. ${result.stages.length} stage${result.stages.length === 1 ? "" : "s"}, ${result.stages.reduce((k, st) => k + st.opamps.length, 0)} op-amp(s).`,
+      "",
+    );
+  }
   L.push("## Specification", "");
   L.push("| item | value |", "|---|---|");
   L.push(`| response | ${s.response} |`);
   L.push(`| passband edge(s) | ${edges(s.passbandHz)}, loss at most ${s.maxLossDb} dB |`);
   L.push(`| stopband edge(s) | ${edges(s.stopbandHz)}, attenuation at least ${s.minAttenuationDb} dB |`);
   L.push(`| gain | ${n4(20 * Math.log10(s.gain))} dB (${n4(s.gain)} V/V), polarity ${s.polarity}, tolerance ${s.gainToleranceDb} dB |`);
-  const pct = (x: number): string => `${Number((x * 100).toPrecision(3))} %`;
+  if (s.realisation !== "cascade") L.push(`| realisation | ${s.realisation} |`);
   const tolText = (t: number, fixed: boolean): string => `±${pct(t)}${fixed ? "" : " (default; may be tightened per part)"}`;
   L.push(`| parts | capacitors ${s.capacitorSeries} ${tolText(s.capacitorTolerance, s.capacitorToleranceFixed)}, resistors ${s.resistorSeries} ${tolText(s.resistorTolerance, s.resistorToleranceFixed)} in ${formatValue(s.resistorRange.min, { unit: "Ω" })} – ${formatValue(s.resistorRange.max, { unit: "Ω" })}; spread ${s.partDistribution === "uniform" ? "uniform within tolerance" : "normal, tolerance = 3σ"} |`);
   L.push(`| yield target | ${pct(s.yieldTarget)} of boards (lower end of the 95 % interval), at most ${s.yieldMaxBoards} boards, seed ${s.yieldSeed} |`);

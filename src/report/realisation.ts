@@ -37,21 +37,23 @@ function requireCandidate(fn: string, value: unknown): RealisationCandidate {
 
 /**
  * The `realisation` option of a netlist or BOM call: undefined for the
- * cascade (the design itself), else the checked candidate.
+ * cascade, else the checked candidate. Without the option, the realisation
+ * the design chose (a spec's `realisation: "auto"` or `"active-ladder"`,
+ * recorded in `result.realisation`) is exported.
  *
  * @param fn - the public function
  * @param options - its options
+ * @param result - the design (its own choice is the default)
  * @returns the candidate, or undefined
  */
-export function realisationOption(fn: string, options: unknown): RealisationCandidate | undefined {
+export function realisationOption(fn: string, options: unknown, result: DesignResult): RealisationCandidate | undefined {
   if (options === null || typeof options !== "object") {
-    if (options === undefined) return undefined;
-    throw new InvalidArgumentError({ fn, path: "options", received: options, message: "expected an options object (or nothing)" });
+    if (options !== undefined) throw new InvalidArgumentError({ fn, path: "options", received: options, message: "expected an options object (or nothing)" });
   }
-  const r = (options as { realisation?: unknown }).realisation;
-  if (r === undefined) return undefined;
-  const c = requireCandidate(fn, r);
-  return c.realisation === "cascade" ? undefined : c;
+  const r = options === undefined ? undefined : (options as { realisation?: unknown }).realisation;
+  const own = result.realisation;
+  const c = r === undefined ? (own === undefined ? undefined : own.candidates[own.chosen]) : requireCandidate(fn, r);
+  return c === undefined || c.realisation === "cascade" ? undefined : c;
 }
 
 /** The netlist header lines of an active ladder. */

@@ -56,7 +56,8 @@ export interface SpiceNetlistOptions {
    * circuit (an active ladder as built, with the op-amp model it was built
    * with; `opamp` does not apply) instead of the design's cascade. The mask
    * check then reads the ladder's output node.
-   * @defaultValue the design's own cascade
+   * @defaultValue the realisation the design chose (`result.realisation`, from a spec's
+   *   `realisation: "auto"` or `"active-ladder"`), else the design's own cascade
    */
   readonly realisation?: RealisationChoice;
 }
@@ -90,7 +91,7 @@ export function toSpiceNetlist(result: DesignResult, options: SpiceNetlistOption
   const [lo, hi] = responseSpanHz(result.spec);
   const ac = { pointsPerDecade: options.pointsPerDecade ?? 50, startHz: options.startHz ?? lo, stopHz: options.stopHz ?? hi };
   const sub = options.opampSubcircuit === undefined ? {} : { opampSubcircuit: options.opampSubcircuit };
-  const realisation = realisationOption(fn, options);
+  const realisation = realisationOption(fn, options, result);
   if (realisation?.ladder !== undefined) {
     const l = realisation.ladder;
     return circuitToSpice(l.circuit, {

@@ -31,6 +31,37 @@ describe("filterwright design --compare", () => {
   });
 });
 
+describe("filterwright design --realisation", () => {
+  const argv = ["design", "--response", "lowpass", "--pass", "18k", "--pass-loss", "0.25", "--stop", "26k", "--stop-atten", "33", "--family", "chebyshev1", "--order", "7", "--res-tol", "1%", "--cap-tol", "2%", "--yield-target", "50%"];
+
+  it("auto writes the chosen ladder, and the exit code follows the ladder's boards", () => {
+    const files = new Map<string, string>();
+    const out: string[] = [];
+    const io: CliIo = { stdout: (t) => void out.push(t), stderr: () => undefined, readFile: () => "", readStdin: () => "", writeFile: (p, t) => void files.set(p, t) };
+    // the cascade's boards miss a 50 % target at 1 % R / 2 % C (about 4 %), the ladders' meet it (about 73-79 %)
+    const code = runCli([...argv, "--realisation", "auto", "--netlist", "f.cir", "--markdown", "f.md"], io);
+    expect(code).toBe(0);
+    const text = out.join("");
+    expect(text).toMatch(/^MEETS the spec: realised as the fdnr active ladder \(7 op-amps\)/m);
+    expect(text).toMatch(/^choice: the fdnr active ladder: /m);
+    expect(files.get("f.cir")).toContain("as an active ladder (fdnr");
+    expect(files.get("f.md")).toContain("realised as the fdnr active ladder");
+    const cascade = runCli([...argv, "--quiet"], { ...io, stdout: () => undefined });
+    expect(cascade).toBe(1);
+  });
+
+  it("refuses --realisation with --compare, a misspelt value, and lc-ladder from a spec file", () => {
+    const err: string[] = [];
+    const io: CliIo = { stdout: () => undefined, stderr: (t) => void err.push(t), readFile: () => JSON.stringify({ realisation: "lc-ladder" }), readStdin: () => "", writeFile: () => undefined };
+    expect(runCli([...argv, "--realisation", "auto", "--compare"], io)).toBe(2);
+    expect(err.join("")).toContain("--realisation already compares the realisations");
+    expect(runCli([...argv, "--realisation", "autp"], io)).toBe(2);
+    expect(err.join("")).toContain('did you mean "auto"');
+    expect(runCli([...argv, "--spec", "s.json"], io)).toBe(2);
+    expect(err.join("")).toContain("filterwright ladder");
+  });
+});
+
 describe("filterwright design --svg --plot", () => {
   it("draws the kind asked for, and refuses --plot without --svg or with an unknown kind", () => {
     const files = new Map<string, string>();
