@@ -5,13 +5,17 @@
 // (the specs give no windows, so these are the library's limits) except in a
 // stage that no value set builds inside them (built beyond them as the last
 // resort, with a warning in the result; counted apart), no part
-// value zero, negative or not finite, and the op-amp estimate the family
-// choice made for the built family and order equal to the built count (the
-// sum of the stages' op-amps).
+// value zero, negative or not finite, and honest op-amp counts: the count the
+// family choice records for the built family equal to the built count (the
+// sum of the stages' op-amps), and, under the fewest-op-amps priority, no
+// other family ranked below it (estimated at fewer op-amps and not built, or
+// built and meeting the mask with fewer; src/design/family-recount.ts).
 import { expect, it } from "vitest";
 import { validateSpec } from "../src/design/spec.ts";
 import { chooseFamily } from "../src/design/family.ts";
 import { orderRange, searchDesign } from "../src/design/recovery.ts";
+import { recountFamilies, type Recounted } from "../src/design/family-recount.ts";
+import type { DesignSpec } from "../src/design/spec.ts";
 import { SpecError, UnrealisableError } from "../src/errors.ts";
 // @ts-expect-error plain JavaScript module without types
 import { randomSpecs } from "../scripts/spec-corpus.mjs";
@@ -26,11 +30,15 @@ export interface PartsTally {
   nonPositive: number;
   /** Designs with a stage that no value set builds inside the limits, built beyond them (the result warns): not counted in `outOfWindow`. */
   builtBeyondLimits: number;
-  /** Designs whose built op-amp count differs from the family choice's estimate at the built order. */
+  /** Designs whose built op-amp count differs from the count the family choice records for the built family. */
   estimateMismatch: number;
-  /** Designs whose estimate differs because the fallback ladder re-planned the stages after the first attempt missed (counted apart). */
-  sturdierRebuilt: number;
-  /** Designs whose order was raised above the minimum (their estimate is compared at the built order). */
+  /** Designs (fewest-op-amps priority) with another family ranked below the built count: estimated at fewer op-amps and not built, or built and meeting the mask with fewer. */
+  cheaperFamilyMissed: number;
+  /** Designs whose first estimate (the simplest topologies at the minimum order) differs from the built count: informational, the choice then builds the families ranked below. */
+  estimateOff: number;
+  /** Designs the recount moved to another family that meets the mask with fewer op-amps. */
+  familyChanged: number;
+  /** Designs whose order was raised above the minimum. */
   orderRaised: number;
   /** Of the out-of-window designs, the first few, for the log. */
   examples: string[];
@@ -39,11 +47,20 @@ export interface PartsTally {
 const R_LIMIT = [100, 10e6] as const;
 const C_LIMIT = [10e-12, 10e-6] as const;
 
+/** The nominal pipeline of designFilter up to the yield step: family, order search, the op-amp recount. */
+export function nominalDesign(canonical: DesignSpec): { outcome: ReturnType<typeof chooseFamily>; recounted: Recounted } {
+  const outcome = chooseFamily(canonical);
+  const orders = orderRange(canonical, outcome.order);
+  const recounted = recountFamilies(canonical, { family: outcome.family, orders, nominal: searchDesign(canonical, outcome.family, orders) }, outcome.choice);
+  return { outcome, recounted };
+}
+
 /**
  * The parts invariants of one design (no expect inside): its parts inside the limits, none zero or
- * negative, the family choice's op-amp estimate at the built order equal to the built count.
+ * negative, honest op-amp counts (see the header).
  */
-export function countPartsInvariants(id: string, outcome: ReturnType<typeof chooseFamily>, attempt: ReturnType<typeof searchDesign>["attempt"], tally: PartsTally, sturdier = false): void {
+export function countPartsInvariants(id: string, canonical: DesignSpec, recounted: Recounted, tally: PartsTally): void {
+  const attempt = recounted.nominal.attempt;
   tally.designs++;
   let out = false;
   let bad = false;
@@ -62,32 +79,35 @@ export function countPartsInvariants(id: string, outcome: ReturnType<typeof choo
   if (out) tally.outOfWindow++;
   if (bad) tally.nonPositive++;
   const built = attempt.plans.reduce((s, p) => s + p.topology.opampCount, 0);
-  const order = attempt.proto.order;
-  if (outcome.order !== null && order !== outcome.order) tally.orderRaised++;
-  const cand = outcome.choice.candidates.find((c) => c.family === attempt.proto.family);
-  // The family choice records the estimate at the minimum order; compare it where the built order is that order.
-  if (cand !== undefined && cand.order === order && cand.opamps !== built && sturdier) {
-    // the first attempt missed the mask and the fallback ladder re-planned the stages after the family was chosen
-    // (a moved placement, a tightened prototype or sturdier stages can change the sections' topologies): the
-    // estimate is of the first plan
-    tally.sturdierRebuilt++;
-  } else if (cand !== undefined && cand.order === order && cand.opamps !== built) {
+  const choice = recounted.choice;
+  const cand = choice.candidates.find((c) => c.family === recounted.family);
+  if (cand !== undefined && cand.order !== null && attempt.proto.order !== cand.order) tally.orderRaised++;
+  if (recounted.actions.some((a) => a.code === "changed-family-for-op-amps")) tally.familyChanged++;
+  if (cand === undefined) return; // the spec named the family: no choice to count
+  if (cand.opamps !== built) tally.estimateOff++;
+  if (cand.built?.opamps !== built) {
     tally.estimateMismatch++;
-    if (tally.examples.length < 12) tally.examples.push(`${id} estimate ${cand.opamps} built ${built} (${attempt.plans.map((p) => p.topology.id).join(", ")})`);
+    if (tally.examples.length < 12) tally.examples.push(`${id} ${recounted.family}: recorded ${cand.built?.opamps} built ${built} (${attempt.plans.map((p) => p.topology.id).join(", ")})`);
+  }
+  if (canonical.priority !== "fewest-op-amps") return;
+  const cheaper = choice.candidates.filter(
+    (c) => c.family !== recounted.family && c.order !== null && (c.built === undefined ? (c.opamps ?? Infinity) < built : c.built.meetsSpec && c.built.opamps < built),
+  );
+  if (cheaper.length > 0) {
+    tally.cheaperFamilyMissed++;
+    if (tally.examples.length < 12) tally.examples.push(`${id} ${recounted.family} built ${built}; ranked below: ${cheaper.map((c) => `${c.family} ${c.built?.opamps ?? c.opamps}`).join(", ")}`);
   }
 }
 
 /** Design `n` specs of the corpus from `seed` and count the parts invariants' failures (no expect inside). */
 export function runPartsCorpus(seed: number, n: number): PartsTally {
-  const tally: PartsTally = { designs: 0, skipped: 0, outOfWindow: 0, builtBeyondLimits: 0, nonPositive: 0, estimateMismatch: 0, sturdierRebuilt: 0, orderRaised: 0, examples: [] };
+  const tally: PartsTally = { designs: 0, skipped: 0, outOfWindow: 0, builtBeyondLimits: 0, nonPositive: 0, estimateMismatch: 0, cheaperFamilyMissed: 0, estimateOff: 0, familyChanged: 0, orderRaised: 0, examples: [] };
   for (const { id, spec } of randomSpecs(seed, n) as { id: string; spec: Record<string, unknown> }[]) {
     let canonical;
-    let outcome;
-    let attempt;
+    let recounted;
     try {
       canonical = validateSpec(spec);
-      outcome = chooseFamily(canonical);
-      attempt = searchDesign(canonical, outcome.family, orderRange(canonical, outcome.order)).attempt;
+      recounted = nominalDesign(canonical).recounted;
     } catch (e) {
       if (e instanceof UnrealisableError || e instanceof SpecError) {
         tally.skipped++;
@@ -96,14 +116,14 @@ export function runPartsCorpus(seed: number, n: number): PartsTally {
       }
       throw e;
     }
-    countPartsInvariants(id, outcome, attempt, tally);
+    countPartsInvariants(id, canonical, recounted, tally);
   }
   return tally;
 }
 
 /** A tally with nothing counted yet. */
 export function emptyPartsTally(): PartsTally {
-  return { designs: 0, skipped: 0, outOfWindow: 0, builtBeyondLimits: 0, nonPositive: 0, estimateMismatch: 0, sturdierRebuilt: 0, orderRaised: 0, examples: [] };
+  return { designs: 0, skipped: 0, outOfWindow: 0, builtBeyondLimits: 0, nonPositive: 0, estimateMismatch: 0, cheaperFamilyMissed: 0, estimateOff: 0, familyChanged: 0, orderRaised: 0, examples: [] };
 }
 
 /** The parts invariants' expectations on a corpus tally of `n` specs. */
@@ -113,6 +133,7 @@ export function expectPartsInvariants(t: PartsTally, n: number): void {
   // a stage built beyond the limits is the last resort: at most one design in a thousand
   expect(t.builtBeyondLimits, t.examples.join("\n")).toBeLessThanOrEqual(Math.ceil(n / 1000));
   expect(t.estimateMismatch, t.examples.join("\n")).toBe(0);
+  expect(t.cheaperFamilyMissed, t.examples.join("\n")).toBe(0);
 }
 
 /**

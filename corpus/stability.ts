@@ -12,8 +12,7 @@
 // estimate equal to the built count.
 import { expect, it } from "vitest";
 import { validateSpec } from "../src/design/spec.ts";
-import { chooseFamily } from "../src/design/family.ts";
-import { orderRange, searchDesign } from "../src/design/recovery.ts";
+import type { searchDesign } from "../src/design/recovery.ts";
 import { meetsSpec } from "../src/design/attempt.ts";
 import { maskPlan, spanRadS } from "../src/design/verify.ts";
 import { stagePolynomials } from "../src/evaluate/stage-polynomials.ts";
@@ -25,7 +24,7 @@ import { peakSpanHz, stagePeakGains } from "../src/design/headroom.ts";
 import { opampOutputTransfers } from "../src/evaluate/opamp-outputs.ts";
 import { logGrid } from "../src/tf/index.ts";
 import { denseCascadePeaks } from "../test/helpers/dense-peak.ts";
-import { countPartsInvariants, emptyPartsTally, expectPartsInvariants, type PartsTally } from "./parts.ts";
+import { countPartsInvariants, emptyPartsTally, expectPartsInvariants, nominalDesign, type PartsTally } from "./parts.ts";
 // @ts-expect-error plain JavaScript module without types
 import { randomSpecs } from "../scripts/spec-corpus.mjs";
 
@@ -83,14 +82,11 @@ export function runStabilityCorpus(seed: number, n: number, parts: PartsTally = 
     }
     let canonical;
     let attempt;
-    let outcome;
-    let sturdier = false;
+    let recounted;
     try {
       canonical = validateSpec(spec);
-      outcome = chooseFamily(canonical);
-      const searched = searchDesign(canonical, outcome.family, orderRange(canonical, outcome.order));
-      attempt = searched.attempt;
-      sturdier = searched.actions.some((a) => a.code === "re-tuned-to-mask");
+      recounted = nominalDesign(canonical).recounted;
+      attempt = recounted.nominal.attempt;
     } catch (e) {
       if (e instanceof UnrealisableError || e instanceof SpecError) {
         tally.skipped++;
@@ -99,7 +95,7 @@ export function runStabilityCorpus(seed: number, n: number, parts: PartsTally = 
       throw e;
     }
     tally.designs++;
-    countPartsInvariants(id, outcome, attempt, parts, sturdier);
+    countPartsInvariants(id, canonical, recounted, parts);
     const span = spanRadS(maskPlan(canonical).bands);
     const unstable: number[] = [];
     attempt.plans.forEach((p, i) => {

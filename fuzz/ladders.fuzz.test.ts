@@ -1,7 +1,8 @@
 // The seeded, bounded fuzz of the ladder layers: random (often invalid)
 // arguments to ladderPrototype, scaleLadder, asBuiltLadder, ladderParts,
-// ladderCircuit and the three active ladder builders, and randomly edited JSON
-// records of a passive ladder design read back. Nothing may escape but
+// ladderCircuit and the three active ladder builders, randomly edited JSON
+// records of a passive ladder design read back, and random specs with a
+// random realisation designed (the comparison exported and read back). Nothing may escape but
 // the library's typed errors, and no returned number may be non-finite; every
 // part a call does return is positive. Counts are printed at the end.
 import { afterAll, describe, expect, it } from "vitest";
@@ -11,12 +12,13 @@ import { asBuiltLadder, ladderParts, ladderPrototype, scaleLadder, LADDER_RESPON
 import { fdnrLowpassLadder, gicHighpassLadder, leapfrogLowpassLadder } from "../src/ladder/active/index.ts";
 import { ladderCircuit } from "../src/circuit/index.ts";
 import { designLcLadder } from "../src/design/lc-ladder.ts";
-import { lcLadderFromJson, lcLadderToJson } from "../src/report/index.ts";
+import { fromJson, lcLadderFromJson, lcLadderToJson, toJson, toSpiceNetlist } from "../src/report/index.ts";
+import { designFilter, type DesignResult, type LcLadderDesign } from "../src/design/index.ts";
 import { SERIES_NAMES } from "../src/parts/index.ts";
 import { anyNumber, anyValue, makeGuard } from "./guard.ts";
 
 const SEED = 20261203;
-const counts = { lowLevel: 0, typedErrors: 0, prototypes: 0, ladders: 0, activeLadders: 0, jsonEdits: 0 };
+const counts = { lowLevel: 0, typedErrors: 0, prototypes: 0, ladders: 0, activeLadders: 0, jsonEdits: 0, realisations: 0 };
 const guarded = makeGuard(counts);
 const RUNS = Number(process.env["FUZZ_LADDER_RUNS"] ?? 2000);
 
@@ -169,9 +171,45 @@ describe("fuzz: ladders", () => {
     );
   });
 
+  it("designFilter with a random realisation: typed errors only, the choice exported and read back", () => {
+    fc.assert(
+      fc.property(
+        fc.constantFrom("lowpass", "highpass", "bandpass"),
+        fc.double({ min: 100, max: 1e6, noNaN: true }),
+        fc.double({ min: 1.4, max: 4, noNaN: true }),
+        fc.double({ min: 0.1, max: 1, noNaN: true }),
+        fc.double({ min: 20, max: 60, noNaN: true }),
+        fc.oneof(fc.constantFrom("cascade", "active-ladder", "auto", "lc-ladder"), anyValue),
+        fc.constantFrom(0.005, 0.01, 0.02, 0.05),
+        (response, edgeHz, ratio, maxLossDb, minAttenuationDb, realisation, tolerance) => {
+          const bands =
+            response === "lowpass"
+              ? { passband: { edgeHz, maxLossDb }, stopband: { edgeHz: edgeHz * ratio, minAttenuationDb } }
+              : response === "highpass"
+                ? { passband: { edgeHz: edgeHz * ratio, maxLossDb }, stopband: { edgeHz, minAttenuationDb } }
+                : { passband: { edgeHz: [edgeHz, edgeHz * 1.5], maxLossDb }, stopband: { edgeHz: [edgeHz / ratio, edgeHz * 1.5 * ratio], minAttenuationDb } };
+          const spec = { response, ...bands, parts: { resistorTolerance: tolerance, capacitorTolerance: tolerance }, yieldCheck: { maxBoards: 256, seed: 3 }, realisation };
+          counts.realisations++;
+          guarded(`designFilter(${JSON.stringify(spec)})`, () => {
+            const r = designFilter(spec as never) as DesignResult | LcLadderDesign;
+            if (!("stages" in r)) return r.verification;
+            if (r.realisation !== undefined) {
+              const k = r.realisation.candidates[r.realisation.chosen];
+              expect(k).toBeDefined();
+              if (k?.realisation === "active-ladder") expect(toSpiceNetlist(r)).toContain("as an active ladder");
+              expect(toJson(fromJson(toJson(r)))).toBe(toJson(r));
+            }
+            return r.verification;
+          });
+        },
+      ),
+      { numRuns: Number(process.env["FUZZ_REALISATION_RUNS"] ?? 10), seed: SEED + 4 },
+    );
+  });
+
   afterAll(() => {
     console.log(
-      `fuzz ladders: ${counts.lowLevel} calls (${counts.typedErrors} typed errors), ${counts.prototypes} prototypes, ${counts.ladders} scaled ladders, ${counts.activeLadders} active ladders built, ${counts.jsonEdits} edited LC ladder records read`,
+      `fuzz ladders: ${counts.lowLevel} calls (${counts.typedErrors} typed errors), ${counts.prototypes} prototypes, ${counts.ladders} scaled ladders, ${counts.activeLadders} active ladders built, ${counts.jsonEdits} edited LC ladder records read, ${counts.realisations} specs with a random realisation designed`,
     );
   });
 });

@@ -310,11 +310,17 @@ function checkChoiceAndPlacement(c: Checker, prefix: string, r: Raw): void {
     c.str(`${prefix}.familyChoice.reason`, fc["reason"]);
     c.arr(`${prefix}.familyChoice.candidates`, fc["candidates"]).forEach((x, i) => {
       const q = `${prefix}.familyChoice.candidates.${i}`;
-      const k = c.obj(q, x, ["family", "order", "stages", "opamps", "delayVariation", "monotonic"]);
+      const k = c.obj(q, x, ["family", "order", "stages", "opamps", "delayVariation", "monotonic", "built"]);
       c.str(`${q}.family`, k["family"]);
       for (const f of ["order", "stages", "opamps"]) if (k[f] !== null) c.num(`${q}.${f}`, k[f], true);
       c.optNum(`${q}.delayVariation`, k["delayVariation"]);
       c.bool(`${q}.monotonic`, k["monotonic"]);
+      if (k["built"] !== undefined) {
+        const b = c.obj(`${q}.built`, k["built"], ["opamps", "order", "meetsSpec"]);
+        c.int(`${q}.built.opamps`, b["opamps"], 0);
+        c.int(`${q}.built.order`, b["order"], 1);
+        c.bool(`${q}.built.meetsSpec`, b["meetsSpec"]);
+      }
     });
   }
   if (fc["feasibility"] !== undefined) {
@@ -420,7 +426,7 @@ const WARNING_CODES = [
 ] as const;
 const ACTION_CODES = [
   "placed-in-slack", "re-tuned-to-mask", "moved-placement", "raised-order", "tightened-prototype", "sturdier-stages", "kept-best-attempt", "predistorted-for-gbw",
-  "centred-for-yield", "tightened-tolerances", "changed-family-for-yield", "confirmed-yield",
+  "centred-for-yield", "tightened-tolerances", "changed-family-for-yield", "changed-family-for-op-amps", "confirmed-yield",
 ] as const;
 // Compile-time: the lists name every code the result types allow (a new code must be added here).
 const everyWarningCode: Exclude<DesignWarning["code"], (typeof WARNING_CODES)[number]> extends never ? true : false = true;

@@ -18,7 +18,9 @@ import { validateSpec, type DesignSpec } from "./spec.ts";
 import { chooseFamily } from "./family.ts";
 import { orderRange, searchDesign } from "./recovery.ts";
 import { assembleResult } from "./result.ts";
-import { designForYieldAcrossFamilies } from "./yield.ts";
+import { recordBuilt, recountFamilies } from "./family-recount.ts";
+import { meetsSpec } from "./attempt.ts";
+import { designForYieldAcrossFamilies } from "./yield-families.ts";
 import { withTunedStages } from "./components.ts";
 import { feasibility } from "./relax.ts";
 import type { DesignResult } from "./types.ts";
@@ -122,11 +124,14 @@ function designCascade(canonical: DesignSpec, control: RunControl | undefined): 
     const orders = orderRange(canonical, order);
     const choice = order === null ? { ...chosen.choice, feasibility: feasibility(canonical, family, orders.last) } : chosen.choice;
     checkpoint("search", `component search: ${family} from order ${orders.first}`);
-    const nominal = searchDesign(canonical, family, orders);
-    const robust = designForYieldAcrossFamilies(canonical, { family, orders, nominal }, choice);
-    const actions = robust.family === family ? [...nominal.actions, ...robust.actions] : [...robust.actions];
+    const first = recountFamilies(canonical, { family, orders, nominal: searchDesign(canonical, family, orders) }, choice);
+    const { nominal } = first;
+    const robust = designForYieldAcrossFamilies(canonical, first, first.choice);
+    const actions = robust.family === first.family ? [...first.actions, ...nominal.actions, ...robust.actions] : [...robust.actions];
     checkpoint("result", `result: ${robust.family}`);
-    return assembleResult(canonical, { family: robust.family, choice, minimumOrder: orders.minimum, actions }, robust);
+    const a = robust.chosen.attempt;
+    const recorded = recordBuilt(first.choice, robust.family, a, meetsSpec(canonical, a));
+    return assembleResult(canonical, { family: robust.family, choice: recorded, minimumOrder: first.orders.minimum, actions }, robust);
   }));
 }
 

@@ -160,6 +160,24 @@ export interface FamilyCandidate {
   readonly delayVariation?: number;
   /** Whether the family's passband is monotonic. */
   readonly monotonic: boolean;
+  /**
+   * What the design built for this family took, for the families the
+   * pipeline built (the chosen one always: its count is the result's; others
+   * when the chosen family's design took more op-amps than estimated, see
+   * src/design/family-recount.ts). The choice ranks a built family that
+   * meets the mask by this count instead of the estimate.
+   */
+  readonly built?: FamilyBuilt;
+}
+
+/** The op-amps and order of the design built for a family, and whether it met the mask. */
+export interface FamilyBuilt {
+  /** Op-amps on the board. */
+  readonly opamps: number;
+  /** Prototype order built. */
+  readonly order: number;
+  /** Whether its nominal board met the mask. */
+  readonly meetsSpec: boolean;
 }
 
 /** How the family was chosen. */
@@ -396,6 +414,7 @@ export interface DesignAction {
     | "centred-for-yield"
     | "tightened-tolerances"
     | "changed-family-for-yield"
+    | "changed-family-for-op-amps"
     | "confirmed-yield";
   /** What it did and why. */
   readonly message: string;

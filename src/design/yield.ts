@@ -60,9 +60,9 @@ import { designPrototype, stricterLevels } from "./family.ts";
 import { intervalWidth, prototypeInterval, upHelpsPassband } from "./placement.ts";
 import { buildAttempt, meetsSpec, sturdierStagesOf, type Attempt, type PlacedPrototype } from "./attempt.ts";
 import { maskPlan, spanRadS } from "./verify.ts";
-import { designAtOrder, orderRange, retuneToMask, searchDesign, type OrderRange, type SearchOutcome } from "./recovery.ts";
+import { designAtOrder, retuneToMask, type OrderRange, type SearchOutcome } from "./recovery.ts";
 import { significant } from "./text.ts";
-import type { DesignAction, FamilyChoice } from "./types.ts";
+import type { DesignAction } from "./types.ts";
 
 /** Resistor tolerance classes stocked, loosest first (fractions). */
 const RESISTOR_TOLERANCES: readonly number[] = RESISTOR_CLASSES.map((c) => c.tolerance);
@@ -537,7 +537,7 @@ function selectionSeed(spec: DesignSpec): number {
  * The candidate as reported: when it was chosen among others, its yield
  * again on the spec's own boards, independent of the ones that chose it.
  */
-function reported(spec: DesignSpec, outcome: YieldOutcome): YieldOutcome {
+export function reported(spec: DesignSpec, outcome: YieldOutcome): YieldOutcome {
   const c = outcome.chosen;
   if (c === outcome.candidates[0]) return outcome;
   const chosen: YieldCandidate = { ...c, estimate: attemptYield(spec, c.attempt, c.tolerances) };
@@ -545,51 +545,4 @@ function reported(spec: DesignSpec, outcome: YieldOutcome): YieldOutcome {
   const message = `${y.met ? "The boards reach" : "On fresh boards the design misses"} the yield target: ${yieldText(y)}, on boards apart from the ${yieldText(c.estimate)} that chose it.`;
   const actions = outcome.actions.map((a) => (a.code === "confirmed-yield" ? { code: a.code, message } : a));
   return { ...outcome, chosen, actions, candidates: outcome.candidates.map((x) => (x === c ? chosen : x)) };
-}
-
-/** Most other families tried when the chosen one cannot reach the yield target. */
-const OTHER_FAMILIES = 2;
-
-/**
- * Design for yield in the family the automatic choice made and, when its
- * boards cannot reach the target and the spec leaves the family to the
- * pipeline, in the next candidates of that choice (fewest op-amps first):
- * a family with lower pole Q often tolerates its parts better than one
- * more order of the first (common practice, no source).
- *
- * @param spec - canonical spec
- * @param first - the family chosen, its order range and its nominal search
- * @param choice - the family choice (its candidates)
- * @returns the outcome kept, with every candidate of every family tried
- */
-export function designForYieldAcrossFamilies(
-  spec: DesignSpec,
-  first: { readonly family: FamilyName; readonly orders: OrderRange; readonly nominal: SearchOutcome },
-  choice: FamilyChoice,
-): YieldOutcome & { readonly family: FamilyName } {
-  const outcome = designForYield(spec, first.family, first.orders, first.nominal);
-  if (outcome.chosen.estimate.met || !choice.automatic) return { ...reported(spec, outcome), family: first.family };
-  const others = choice.candidates
-    .filter((c) => c.family !== first.family && c.order !== null)
-    .sort((a, b) => (a.opamps ?? Infinity) - (b.opamps ?? Infinity) || (a.stages ?? Infinity) - (b.stages ?? Infinity))
-    .slice(0, OTHER_FAMILIES);
-  const candidates = [...outcome.candidates];
-  let kept: YieldOutcome & { readonly family: FamilyName } = { ...outcome, family: first.family };
-  for (const c of others) {
-    const orders = orderRange(spec, c.order);
-    const nominal = searchDesign(spec, c.family, orders);
-    if (!meetsSpec(spec, nominal.attempt)) continue;
-    const o = designForYield(spec, c.family, orders, nominal);
-    candidates.push(...o.candidates);
-    const better = o.chosen.estimate.lower95 > kept.chosen.estimate.lower95;
-    if (o.chosen.estimate.met || better) {
-      const action: DesignAction = {
-        code: "changed-family-for-yield",
-        message: `${first.family} boards could not reach the yield target (best ${yieldText(outcome.chosen.estimate)}); ${c.family} ${o.chosen.estimate.met ? "does" : "comes closer"}: ${yieldText(o.chosen.estimate)} at ${classText(o.chosen.classes)}.`,
-      };
-      kept = { chosen: o.chosen, candidates, actions: [...nominal.actions, ...o.actions, action], family: c.family };
-      if (o.chosen.estimate.met) break;
-    }
-  }
-  return { ...reported(spec, { ...kept, candidates }), family: kept.family };
 }
