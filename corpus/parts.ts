@@ -142,7 +142,7 @@ export function expectPartsInvariants(t: PartsTally, n: number): void {
  */
 export function partsCorpusTest(label: string, seed: number): void {
   const n = Number(process.env["CORPUS_SIZE"] ?? 1000);
-  it(`corpus ${label} (${n} specs, seed ${seed}): every part inside 100 Ω-10 MΩ / 10 pF-10 µF, none zero or negative, op-amp estimate = built count`, () => {
+  it(`corpus ${label} (${n} specs, seed ${seed}): every part inside 100 Ω-10 MΩ / 10 pF-10 µF, none zero or negative, op-amp count recorded = built, no family ranked below it`, () => {
     const t = runPartsCorpus(seed, n);
     console.log(`parts corpus ${label}`, JSON.stringify(t));
     expect(t.designs + t.skipped).toBe(n);

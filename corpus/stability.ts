@@ -135,7 +135,7 @@ export function runStabilityCorpus(seed: number, n: number, parts: PartsTally = 
  */
 export function stabilityCorpusTest(label: string, seed: number): void {
   const n = Number(process.env["CORPUS_SIZE"] ?? 1000);
-  it(`corpus ${label} (${n} specs, seed ${seed}): no design meets the spec with an unstable stage; peaks agree with a dense evaluation to 0.01 dB; every part inside 100 Ω-10 MΩ / 10 pF-10 µF, none zero or negative, op-amp estimate = built count`, () => {
+  it(`corpus ${label} (${n} specs, seed ${seed}): no design meets the spec with an unstable stage; peaks agree with a dense evaluation to 0.01 dB; every part inside 100 Ω-10 MΩ / 10 pF-10 µF, none zero or negative, op-amp count recorded = built, no family ranked below it`, () => {
     const parts = emptyPartsTally();
     const t = runStabilityCorpus(seed, n, parts);
     console.log(`stability corpus ${label}`, JSON.stringify(t));

@@ -18,7 +18,7 @@ import { SERIES_NAMES } from "../src/parts/index.ts";
 import { anyNumber, anyValue, makeGuard } from "./guard.ts";
 
 const SEED = 20261203;
-const counts = { lowLevel: 0, typedErrors: 0, prototypes: 0, ladders: 0, activeLadders: 0, jsonEdits: 0, realisations: 0 };
+const counts = { lowLevel: 0, typedErrors: 0, prototypes: 0, ladders: 0, activeLadders: 0, jsonEdits: 0, realisations: 0, compared: 0 };
 const guarded = makeGuard(counts);
 const RUNS = Number(process.env["FUZZ_LADDER_RUNS"] ?? 2000);
 
@@ -194,6 +194,7 @@ describe("fuzz: ladders", () => {
             const r = designFilter(spec as never) as DesignResult | LcLadderDesign;
             if (!("stages" in r)) return r.verification;
             if (r.realisation !== undefined) {
+              counts.compared++;
               const k = r.realisation.candidates[r.realisation.chosen];
               expect(k).toBeDefined();
               if (k?.realisation === "active-ladder") expect(toSpiceNetlist(r)).toContain("as an active ladder");
@@ -205,11 +206,13 @@ describe("fuzz: ladders", () => {
       ),
       { numRuns: Number(process.env["FUZZ_REALISATION_RUNS"] ?? 10), seed: SEED + 4 },
     );
+    // the seeded draws reach the comparison (a run that only met typed errors would prove little)
+    expect(counts.compared).toBeGreaterThan(0);
   });
 
   afterAll(() => {
     console.log(
-      `fuzz ladders: ${counts.lowLevel} calls (${counts.typedErrors} typed errors), ${counts.prototypes} prototypes, ${counts.ladders} scaled ladders, ${counts.activeLadders} active ladders built, ${counts.jsonEdits} edited LC ladder records read, ${counts.realisations} specs with a random realisation designed`,
+      `fuzz ladders: ${counts.lowLevel} calls (${counts.typedErrors} typed errors), ${counts.prototypes} prototypes, ${counts.ladders} scaled ladders, ${counts.activeLadders} active ladders built, ${counts.jsonEdits} edited LC ladder records read, ${counts.realisations} specs with a random realisation designed (${counts.compared} with the realisations compared)`,
     );
   });
 });

@@ -3,50 +3,26 @@
  * thermal noise of every resistor and the input noise of every op-amp, each
  * source's share, and the RMS noise over a band.
  *
- * Method: nodal noise analysis with the adjoint (transposed) network
- * (J. Vlach & K. Singhal, "Computer Methods for Circuit Analysis and Design",
- * 2nd ed., Van Nostrand Reinhold, 1994, chapter on noise analysis, from
- * memory). The whole-filter circuit is assembled as the modified nodal
- * equations `A(s) x = b` of `src/circuit/mna.ts` and solved there (`solveMna`
- * with `transpose`). The output voltage is
- * `v(out) = e_out^T A^-1 b = y^T b` with `A^T y = e_out`, so one solve of the
- * transposed system per frequency gives the transfer from every possible
- * excitation to the output at once: a current `i` injected into node `j`
- * reaches the output as `y_j i`, and a voltage `e` added to an op-amp's
- * non-inverting input enters that op-amp's constraint row, reaching the output
- * as `y_k e` (the sign does not matter for a power).
- *
- * Sources, all uncorrelated (powers add):
- * - each resistor R: thermal (Johnson-Nyquist) noise, a current source of
- *   density `sqrt(4 k T / R)` (A/sqrt(Hz)) across it (H. Nyquist, "Thermal
- *   agitation of electric charge in conductors", Phys. Rev. 32:110-113, 1928,
- *   eq. 7), with Boltzmann's constant k = 1.380649e-23 J/K (exact, SI 2019);
- * - each op-amp: the input voltage noise `en` in series with the
- *   non-inverting input (source `"U1.en"`), and the input current noise `in`
- *   from each input to ground (`"U1.in+"`, `"U1.in-"`), all white.
- *
- * The densities are exact for the linear model up to the rounding of a
- * backward-stable dense LU solve (relative error near 1e-13 for these small,
- * well-scaled systems). The RMS noise integrates the output power density by
- * the trapezoidal rule in ln f (`int S df = int S f d(ln f)`) on a log grid;
- * its error is O(h^2) in the grid step and below 1e-3 for the default
- * 200-point grid over a few decades unless a stage has a Q above about 20.
+ * Method: the adjoint-network noise analysis of src/circuit/noise.ts on the
+ * whole-filter circuit (`designCircuit`): every resistor's thermal noise and
+ * every op-amp's input voltage and current noise, uncorrelated; the RMS noise
+ * by the trapezoidal rule in ln f on a log grid. Accuracy as stated there:
+ * densities to about 1e-13 relative, the RMS to 1e-3 for the default
+ * 200-point grid unless a stage's Q is above about 20.
  *
  * @module
  */
 import { withDisplay } from "../display.ts";
 import { noiseBundle } from "./display.ts";
-import { InvalidArgumentError, SingularCircuitError } from "../errors.ts";
+import { InvalidArgumentError } from "../errors.ts";
 import { requireInRange, requireInteger, requireOptions } from "../validate.ts";
 import type { DesignResult } from "../design/index.ts";
 import { designCircuit } from "../design/circuit.ts";
 import { responseSpanHz } from "../design/verify.ts";
 import { requireDesignResult } from "../design/check.ts";
-import { assembleMna, checkStructure, solveMna } from "../circuit/mna.ts";
-import type { ComplexResponse } from "../tf/response.ts";
+import { BOLTZMANN_J_PER_K, circuitNoise, integrateLogGrid, logGridHz } from "../circuit/noise.ts";
 
-/** Boltzmann's constant in J/K (exact since the 2019 SI redefinition). */
-export const BOLTZMANN_J_PER_K = 1.380649e-23;
+export { BOLTZMANN_J_PER_K };
 
 /** Options of {@link noiseAnalysis}. */
 export interface NoiseAnalysisOptions {
@@ -114,15 +90,6 @@ export interface NoiseAnalysisResult {
   readonly topContributors: readonly NoiseContributor[];
 }
 
-interface Source {
-  readonly name: string;
-  /** Density of the excitation (A or V per sqrt(Hz)). */
-  readonly density: number;
-  /** Unknown indices excited with +1 and -1 (-1 index = ground, skipped). */
-  readonly plus: number;
-  readonly minus: number;
-}
-
 function readOptions(options: unknown): {
   temperatureK: number;
   en: number;
@@ -179,88 +146,24 @@ export function noiseAnalysis(result: DesignResult, options?: NoiseAnalysisOptio
   const opts = readOptions(options);
   const bandHz = opts.band ?? responseSpanHz(result.spec);
   const [lo, hi] = bandHz;
-  const m = opts.points;
-  const freqHz = new Float64Array(m);
-  const step = Math.log(hi / lo) / (m - 1);
-  for (let i = 0; i < m; i++) freqHz[i] = i === m - 1 ? hi : lo * Math.exp(step * i);
-
-  const circuit = designCircuit(result);
-  checkStructure(fn, circuit, false);
-  const sys = assembleMna(circuit);
-  const { n } = sys;
-  const idx = (node: string): number => (node === "0" ? -1 : (sys.nodeIndex.get(node) ?? -1));
-  const outIndex = idx("out");
-  const kT4 = 4 * BOLTZMANN_J_PER_K * opts.temperatureK;
-  const sources: Source[] = [];
-  for (const e of circuit.elements) {
-    if (e.kind === "R") {
-      sources.push({ name: e.name, density: Math.sqrt(kT4 / e.value), plus: idx(e.a), minus: idx(e.b) });
-    } else if (e.kind === "OA") {
-      // The op-amp's constraint row is the row of its branch-current unknown.
-      if (opts.en > 0) sources.push({ name: `${e.name}.en`, density: opts.en, plus: sys.unknowns.indexOf(`i(${e.name})`), minus: -1 });
-      if (opts.inoise > 0) {
-        if (e.inP !== "0") sources.push({ name: `${e.name}.in+`, density: opts.inoise, plus: idx(e.inP), minus: -1 });
-        if (e.inN !== "0") sources.push({ name: `${e.name}.in-`, density: opts.inoise, plus: idx(e.inN), minus: -1 });
-      }
-    }
-  }
-
-  const contributions: Record<string, Float64Array> = {};
-  const power = sources.map(() => new Float64Array(m));
-  const total = new Float64Array(m);
-  // One solve of the transposed system A^T y = e_out per frequency gives every source's transfer.
-  const all = Array.from({ length: n }, (_, j) => j);
-  const y = solveMna(fn, sys, {
-    sourceRow: outIndex,
-    outputs: all,
+  const freqHz = logGridHz(lo, hi, opts.points);
+  const noise = circuitNoise(fn, designCircuit(result), {
+    output: "out",
     freqHz,
-    transpose: true,
-    singular: (bad, fHz) => {
-      const culprit = sys.unknowns[bad] ?? "?";
-      return new SingularCircuitError(
-        {
-          fn,
-          path: "result",
-          received: fHz,
-          message: `the design's circuit has singular nodal equations at ${fHz} Hz (unknown ${culprit}), so its noise is undefined`,
-        },
-        [culprit.slice(2, -1)],
-      );
-    },
+    temperatureK: opts.temperatureK,
+    opampVoltageNoise: opts.en,
+    opampCurrentNoise: opts.inoise,
   });
-  for (let f = 0; f < m; f++) {
-    let sum = 0;
-    sources.forEach((s, k) => {
-      const plus = s.plus >= 0 ? (y[s.plus] as ComplexResponse) : null;
-      let tr = plus === null ? 0 : (plus.re[f] as number);
-      let ti = plus === null ? 0 : (plus.im[f] as number);
-      if (s.minus >= 0) {
-        const minus = y[s.minus] as ComplexResponse;
-        tr -= minus.re[f] as number;
-        ti -= minus.im[f] as number;
-      }
-      const p = (tr * tr + ti * ti) * s.density * s.density;
-      (power[k] as Float64Array)[f] = p;
-      sum += p;
-    });
-    total[f] = sum;
-  }
-
-  const integrate = (p: Float64Array): number => {
-    let acc = 0;
-    for (let i = 1; i < m; i++) {
-      acc += 0.5 * step * ((p[i - 1] as number) * (freqHz[i - 1] as number) + (p[i] as number) * (freqHz[i] as number));
-    }
-    return acc;
-  };
-  const totalPower = integrate(total);
-  const ranked = sources.map((s, k) => {
-    const pw = integrate(power[k] as Float64Array);
-    return { name: s.name, rmsV: Math.sqrt(pw), powerFraction: totalPower > 0 ? pw / totalPower : 0 };
+  const { total, power } = noise;
+  const totalPower = integrateLogGrid(total, freqHz);
+  const ranked = noise.names.map((name, k) => {
+    const pw = integrateLogGrid(power[k] as Float64Array, freqHz);
+    return { name, rmsV: Math.sqrt(pw), powerFraction: totalPower > 0 ? pw / totalPower : 0 };
   });
   ranked.sort((a, b) => b.powerFraction - a.powerFraction || (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
-  sources.forEach((s, k) => {
-    contributions[s.name] = (power[k] as Float64Array).map(Math.sqrt);
+  const contributions: Record<string, Float64Array> = {};
+  noise.names.forEach((name, k) => {
+    contributions[name] = (power[k] as Float64Array).map(Math.sqrt);
   });
   const outputDensity = total.map(Math.sqrt);
   const passbandGain = result.spec.gain;
