@@ -86,6 +86,7 @@ export function formatSummary(r: DesignResult, extra: readonly string[] = []): s
   if (h !== undefined) {
     out.push(
       `headroom at ${p4(h.inputPeakV)} V peak in, ${p4(h.outputSwingV)} V swing: worst ${h.worstOpamp} ${h.worstMarginDb.toFixed(2)} dB${h.clips ? " (CLIPS)" : ""}`,
+      `dynamic range ${h.dynamicRange.rangeDb.toFixed(1)} dB (largest unclipped input ${p4(h.dynamicRange.maxInputPeakV)} V peak, output noise ${formatValue(h.dynamicRange.noiseRmsV, { digits: 3, unit: "V" })} rms, ${h.dynamicRange.opampNoise ? "resistors and op-amps" : "resistors only"})`,
     );
   }
   if (r.warnings.length > 0) {

@@ -181,7 +181,12 @@ function checkOpampPeaks(c: Checker, p: string, s: Raw): void {
 /** The verification's `headroom`, when present. */
 function checkHeadroom(c: Checker, p: string, v: unknown): void {
   if (v === undefined) return;
-  const h = c.obj(p, v, ["inputPeakV", "outputSwingV", "worstOpamp", "worstMarginDb", "clips", "opamps"]);
+  const h = c.obj(p, v, ["inputPeakV", "outputSwingV", "worstOpamp", "worstMarginDb", "clips", "opamps", "dynamicRange"]);
+  const d = c.obj(`${p}.dynamicRange`, h["dynamicRange"], ["maxInputPeakV", "noiseRmsV", "rangeDb", "bandHz", "opampNoise"]);
+  c.num(`${p}.dynamicRange.maxInputPeakV`, d["maxInputPeakV"], true);
+  c.num(`${p}.dynamicRange.noiseRmsV`, d["noiseRmsV"], true);
+  c.num(`${p}.dynamicRange.rangeDb`, d["rangeDb"]);
+  c.bool(`${p}.dynamicRange.opampNoise`, d["opampNoise"]);
   c.num(`${p}.inputPeakV`, h["inputPeakV"], true);
   c.num(`${p}.outputSwingV`, h["outputSwingV"], true);
   c.str(`${p}.worstOpamp`, h["worstOpamp"]);
@@ -274,10 +279,21 @@ function checkStage(c: Checker, p: string, sv: unknown, spec: DesignSpec, positi
 
 const SPEC_ERROR = "the stored spec is not valid";
 
-/** A canonical spec without its realisation field (how files written before it read). */
-function withoutRealisation(spec: DesignSpec): Omit<DesignSpec, "realisation"> {
-  const { realisation: _, ...rest } = spec;
-  return rest;
+/**
+ * The canonical spec as a file written before its newer fields would hold
+ * it: without `realisation` when the file has none (a cascade's), and
+ * levels without the op-amp noise densities when the file's levels have
+ * none (both zero).
+ */
+function asWrittenBefore(specRaw: Raw, spec: DesignSpec): Partial<DesignSpec> {
+  const { realisation, levels, ...rest } = spec;
+  const raw = specRaw["levels"] as Raw | null | undefined;
+  const oldLevels = levels !== null && raw !== null && typeof raw === "object" && !("opampVoltageNoise" in raw) && !("opampCurrentNoise" in raw) && levels.opampVoltageNoise === 0 && levels.opampCurrentNoise === 0;
+  return {
+    ...rest,
+    ...("realisation" in specRaw || realisation !== "cascade" ? { realisation } : {}),
+    levels: oldLevels ? ({ inputPeakV: levels.inputPeakV, outputSwingV: levels.outputSwingV } as DesignSpec["levels"]) : levels,
+  };
 }
 
 /** The stored spec, re-validated (strict: it must already be canonical, with no extra field). */
@@ -289,14 +305,13 @@ function checkSpecField(c: Checker, prefix: string, specRaw: Raw): DesignSpec {
     return c.fail(`${prefix}.spec`, `${SPEC_ERROR} (${e instanceof Error ? e.message : String(e)})`);
   }
   if (c.strict) {
-    // A file written before specs had a realisation is a cascade's.
-    const canonical = "realisation" in specRaw || spec.realisation !== "cascade" ? spec : withoutRealisation(spec);
+    const canonical = asWrittenBefore(specRaw, spec);
     c.keys(`${prefix}.spec`, specRaw, Object.keys(canonical));
     // Already canonical: what validation makes of it is what is stored.
     compare(c.make, c.fn, `${prefix}.spec`, specRaw, canonical, "the canonical value validateSpec makes of the stored spec");
     for (const k of ["resistorRange", "capacitorRange"] as const) c.obj(`${prefix}.spec.${k}`, specRaw[k], ["min", "max"]);
     c.obj(`${prefix}.spec.opamp`, specRaw["opamp"], spec.opamp.kind === "ideal" ? ["kind"] : ["kind", "a0", "gbwHz"]);
-    if (specRaw["levels"] !== null) c.obj(`${prefix}.spec.levels`, specRaw["levels"], ["inputPeakV", "outputSwingV"]);
+    if (specRaw["levels"] !== null) c.obj(`${prefix}.spec.levels`, specRaw["levels"], ["inputPeakV", "outputSwingV", "opampVoltageNoise", "opampCurrentNoise"]);
   }
   return spec;
 }

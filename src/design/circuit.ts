@@ -7,7 +7,7 @@
  */
 import type { Circuit, Element, OpAmpModel } from "../circuit/types.ts";
 import { getTopology } from "../topologies/index.ts";
-import type { DesignResult } from "./types.ts";
+import type { DesignResult, DesignStage } from "./types.ts";
 import { requireDesignResult } from "./check.ts";
 
 /** Options of {@link designCircuit}. */
@@ -42,11 +42,24 @@ export interface DesignCircuitOptions {
  */
 export function designCircuit(result: DesignResult, options: DesignCircuitOptions = {}): Circuit {
   requireDesignResult("designCircuit", result);
-  const opamp = options.opamp ?? result.spec.opamp;
-  const source = options.sourceName ?? "Vin";
+  const elements = stagesElements(result.stages, options.opamp ?? result.spec.opamp, options.sourceName ?? "Vin");
+  return { title: `filterwright ${result.family} ${result.spec.response}, order ${result.filterOrder}`, elements };
+}
+
+/**
+ * The element list of a cascade of designed stages (internal: the stages are
+ * checked): the source into node `in`, stage i from `n{i-1}` to `n{i}`, the
+ * last into `out`, each stage's parts and op-amps under their designators.
+ *
+ * @param stages - the stages, in cascade order
+ * @param opamp - the op-amp model of every op-amp
+ * @param source - the name of the driving source
+ * @returns the elements
+ */
+export function stagesElements(stages: readonly DesignStage[], opamp: OpAmpModel, source: string): Element[] {
   const elements: Element[] = [{ kind: "V", name: source, a: "in", b: "0", ac: 1 }];
-  const n = result.stages.length;
-  result.stages.forEach((stage, i) => {
+  const n = stages.length;
+  stages.forEach((stage, i) => {
     const topology = getTopology(stage.topology);
     const local: Record<string, number> = {};
     const toGlobal = new Map<string, string>();
@@ -66,5 +79,5 @@ export function designCircuit(result: DesignResult, options: DesignCircuitOption
     const output = i === n - 1 ? "out" : `n${i + 1}`;
     elements.push(...topology.elements(local, { input, output, nodePrefix: `s${i + 1}_`, rename, opamp }));
   });
-  return { title: `filterwright ${result.family} ${result.spec.response}, order ${result.filterOrder}`, elements };
+  return elements;
 }

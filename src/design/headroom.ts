@@ -32,7 +32,10 @@ import { INTERNAL_NODE_PREFIX, stageElements } from "../evaluate/stage-polynomia
 import { TWO_PI } from "../units/constants.ts";
 import type { DesignSpec } from "./spec.ts";
 import { significant } from "./text.ts";
-import type { DesignWarning, Headroom, OpampPeak } from "./types.ts";
+import type { DesignStage, DesignWarning, DynamicRange, Headroom, OpampPeak } from "./types.ts";
+import type { SignalLevels } from "./spec-types.ts";
+import { stagesElements } from "./circuit.ts";
+import { circuitNoise, integrateLogGrid, logGridHz } from "../circuit/noise.ts";
 import { maskBands, maskPlan, multiplyInPlace, responseSpanHz, spanRadS, type BuiltStage } from "./verify.ts";
 
 /** A gain peak, V/V at Hz. */
@@ -153,10 +156,7 @@ export function opampPeaksOf(peaks: StagePeakGains, designators: readonly string
  * @param stages - the result's stages, with their op-amp peaks
  * @returns the headroom, or undefined when the spec gives no levels
  */
-export function headroomOf(
-  spec: DesignSpec,
-  stages: readonly { readonly index: number; readonly opampPeaks: readonly OpampPeak[] }[],
-): Headroom | undefined {
+export function headroomOf(spec: DesignSpec, stages: readonly DesignStage[]): Headroom | undefined {
   const levels = spec.levels;
   if (levels === null || levels === undefined) return undefined;
   const opamps = stages.flatMap((st) =>
@@ -174,6 +174,32 @@ export function headroomOf(
     worstMarginDb: worst.marginDb,
     clips: worst.marginDb < 0,
     opamps,
+    dynamicRange: dynamicRangeOf(spec, stages, levels.outputSwingV / Math.max(...stages.flatMap((st) => st.opampPeaks.map((p) => p.gain)))),
+  };
+}
+
+/** Points of the noise grid over the response span (the default of `noiseAnalysis`). */
+const NOISE_POINTS = 200;
+
+/** The resistors' temperature for the noise, kelvin (27 °C, SPICE's nominal). */
+const NOISE_TEMPERATURE_K = 300.15;
+
+/** The dynamic range of the cascade at the spec's levels (see `DynamicRange`). */
+function dynamicRangeOf(spec: DesignSpec, stages: readonly DesignStage[], maxInputPeakV: number): DynamicRange {
+  const levels = spec.levels as SignalLevels;
+  const en = levels.opampVoltageNoise ?? 0;
+  const inoise = levels.opampCurrentNoise ?? 0;
+  const bandHz = responseSpanHz(spec);
+  const freqHz = logGridHz(bandHz[0], bandHz[1], NOISE_POINTS);
+  const circuit = { title: "dynamic range", elements: stagesElements(stages, spec.opamp, "Vin") };
+  const noise = circuitNoise("designFilter", circuit, { output: "out", freqHz, temperatureK: NOISE_TEMPERATURE_K, opampVoltageNoise: en, opampCurrentNoise: inoise });
+  const noiseRmsV = Math.sqrt(integrateLogGrid(noise.total, freqHz));
+  return {
+    maxInputPeakV,
+    noiseRmsV,
+    rangeDb: 20 * Math.log10((maxInputPeakV * spec.gain) / Math.SQRT2 / noiseRmsV),
+    bandHz: [bandHz[0], bandHz[1]],
+    opampNoise: en > 0 || inoise > 0,
   };
 }
 

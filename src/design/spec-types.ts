@@ -381,6 +381,18 @@ export interface LevelsSpec {
    * @defaultValue 10
    */
   readonly outputSwingV?: number;
+  /**
+   * Every op-amp's input voltage noise density, V/sqrt(Hz) (a number or a
+   * string such as `"8n"`; 0 to 1e-3), white: counted in the dynamic range
+   * the headroom check states.
+   * @defaultValue 0 (resistor noise only; the dynamic range is then an upper bound)
+   */
+  readonly opampVoltageNoise?: Quantity;
+  /**
+   * Every op-amp's input current noise density at each input, A/sqrt(Hz) (0 to 1e-6), white.
+   * @defaultValue 0
+   */
+  readonly opampCurrentNoise?: Quantity;
 }
 
 /** The canonical signal levels: every default filled in, volts peak. */
@@ -389,4 +401,8 @@ export interface SignalLevels {
   readonly inputPeakV: number;
   /** The op-amps' output swing, volts peak. */
   readonly outputSwingV: number;
+  /** Every op-amp's input voltage noise density, V/sqrt(Hz). */
+  readonly opampVoltageNoise: number;
+  /** Every op-amp's input current noise density, A/sqrt(Hz). */
+  readonly opampCurrentNoise: number;
 }

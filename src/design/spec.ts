@@ -365,7 +365,7 @@ export function specToInput(spec: DesignSpec): FilterSpec {
     opamp,
     yieldTarget: spec.yieldTarget,
     yieldCheck: { maxBoards: spec.yieldMaxBoards, seed: spec.yieldSeed },
-    ...(spec.levels === null || spec.levels === undefined ? {} : { levels: { inputPeakV: spec.levels.inputPeakV, outputSwingV: spec.levels.outputSwingV } }),
+    ...(spec.levels === null || spec.levels === undefined ? {} : { levels: { inputPeakV: spec.levels.inputPeakV, outputSwingV: spec.levels.outputSwingV, ...(spec.levels.opampVoltageNoise > 0 ? { opampVoltageNoise: spec.levels.opampVoltageNoise } : {}), ...(spec.levels.opampCurrentNoise > 0 ? { opampCurrentNoise: spec.levels.opampCurrentNoise } : {}) } }),
     ...(spec.realisation === "cascade" || spec.realisation === undefined ? {} : { realisation: spec.realisation as ActiveRealisation }),
   };
 }

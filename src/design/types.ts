@@ -134,6 +134,29 @@ export interface Headroom {
   readonly clips: boolean;
   /** Every op-amp, in cascade order. */
   readonly opamps: readonly HeadroomOpamp[];
+  /** The dynamic range at these levels: the largest unclipped signal over the output noise. */
+  readonly dynamicRange: DynamicRange;
+}
+
+/**
+ * The dynamic range of a design at its spec's levels: the largest input
+ * that clips no op-amp output (`min over op-amps of swing / gain`), carried
+ * to the output by the passband gain as a sinusoid (RMS = peak / sqrt 2),
+ * over the RMS output noise across the response span (every resistor's
+ * thermal noise at 300.15 K and, when the spec's levels give them, every
+ * op-amp's input voltage and current noise; src/circuit/noise.ts).
+ */
+export interface DynamicRange {
+  /** The largest input amplitude that clips no op-amp output, volts peak. */
+  readonly maxInputPeakV: number;
+  /** RMS output noise over `bandHz`, volts. */
+  readonly noiseRmsV: number;
+  /** `20 log10((maxInputPeakV * passband gain / sqrt 2) / noiseRmsV)`, dB. */
+  readonly rangeDb: number;
+  /** The band the noise is integrated over, Hz (the response span). */
+  readonly bandHz: readonly [number, number];
+  /** Whether op-amp noise is counted (else resistors only, and the range is an upper bound). */
+  readonly opampNoise: boolean;
 }
 
 /** How a stage's design target was pre-distorted for a finite-GBW op-amp. */

@@ -4,49 +4,20 @@
  * included), and with the spec's signal levels each output's peak voltage,
  * its margin to the output swing, and the dynamic range.
  *
- * Dynamic range: the largest input that clips no op-amp output
- * (`min over op-amps of swing / gain`), carried to the output by the
- * passband gain as a sinusoid (RMS = peak / sqrt 2), over the RMS output
- * noise of the resistors' thermal noise across the response span
- * (src/analysis/noise.ts; op-amp noise is not in the spec, so it is left
- * out and the figure is an upper bound).
+ * Dynamic range: the design's own `verification.headroom.dynamicRange`
+ * (src/design/headroom.ts): the largest input that clips no op-amp output
+ * through the passband gain, over the RMS output noise across the response
+ * span (resistors, and the op-amps when the spec's levels give their noise).
  *
  * @module
  */
 import { formatValue } from "../units/index.ts";
-import { responseSpanHz, type DesignResult } from "../design/index.ts";
-import { noiseAnalysis } from "../analysis/index.ts";
+import type { DesignResult } from "../design/index.ts";
 import { hertz } from "../design/text.ts";
 
 const hz = (x: number): string => hertz(x);
 const dB = (x: number): string => `${x.toFixed(2)} dB`;
 const n4 = (x: number): string => Number(x.toPrecision(4)).toString();
-
-/** The figures of the dynamic range at the spec's levels. */
-export interface DynamicRange {
-  /** The largest input amplitude that clips no op-amp output, volts peak. */
-  readonly maxInputPeakV: number;
-  /** RMS output noise over the response span (resistors only), volts. */
-  readonly noiseRmsV: number;
-  /** `20 log10((maxInputPeakV * passband gain / sqrt 2) / noiseRmsV)`, dB. */
-  readonly rangeDb: number;
-}
-
-/**
- * The dynamic range of a design at its spec's output swing (see the module
- * header), or undefined when the spec gives no signal levels.
- *
- * @param result - a design (checked by the caller)
- * @returns the figures, or undefined
- */
-export function dynamicRange(result: DesignResult): DynamicRange | undefined {
-  const h = result.verification.headroom;
-  if (h === undefined) return undefined;
-  const gains = result.stages.flatMap((st) => st.opampPeaks.map((p) => p.gain));
-  const maxInputPeakV = h.outputSwingV / Math.max(...gains);
-  const noiseRmsV = noiseAnalysis(result).totalRmsV;
-  return { maxInputPeakV, noiseRmsV, rangeDb: 20 * Math.log10((maxInputPeakV * result.spec.gain) / Math.SQRT2 / noiseRmsV) };
-}
 
 /**
  * The Markdown lines of the headroom section.
@@ -75,11 +46,15 @@ export function headroomLines(result: DesignResult): string[] {
     }
   }
   L.push("");
-  const dr = dynamicRange(result);
+  const dr = h?.dynamicRange;
   if (dr !== undefined) {
-    const [lo, hi] = responseSpanHz(result.spec);
+    const [lo, hi] = dr.bandHz;
+    const levels = result.spec.levels;
+    const opamps = dr.opampNoise && levels !== null
+      ? `resistor and op-amp noise (${formatValue(levels.opampVoltageNoise, { digits: 3, unit: "V" })}/√Hz, ${formatValue(levels.opampCurrentNoise, { digits: 3, unit: "A" })}/√Hz)`
+      : "resistor noise (op-amp noise not included: give levels.opampVoltageNoise for it)";
     L.push(
-      `Dynamic range: ${dB(dr.rangeDb)}, from the largest input that clips nothing (${n4(dr.maxInputPeakV)} V peak) through the passband gain, over ${formatValue(dr.noiseRmsV, { digits: 3, unit: "V" })} RMS of resistor noise at the output across ${hz(lo)} – ${hz(hi)} (op-amp noise not included).`,
+      `Dynamic range: ${dB(dr.rangeDb)}, from the largest input that clips nothing (${n4(dr.maxInputPeakV)} V peak) through the passband gain, over ${formatValue(dr.noiseRmsV, { digits: 3, unit: "V" })} RMS of ${opamps} at the output across ${hz(lo)} – ${hz(hi)}.`,
       "",
     );
   }

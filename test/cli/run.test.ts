@@ -131,6 +131,7 @@ describe("runCli", () => {
     const ok = fakeIo();
     expect(runCli([...LP, "--input-peak", "1", "--swing", "10"], ok)).toBe(0);
     expect(ok.out).toMatch(/headroom at 1 V peak in, 10 V swing: worst U\d+ [\d.]+ dB/);
+    expect(ok.out).toMatch(/dynamic range [\d.]+ dB \(largest unclipped input [\d.]+ V peak, output noise [\d.]+ [µnm]?V rms, resistors only\)/);
     const hot = fakeIo();
     expect(runCli([...LP, "--gain", "20", "--input-peak", "2", "--swing", "10"], hot)).toBe(1);
     expect(hot.out).toContain("(CLIPS)");

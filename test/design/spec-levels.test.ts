@@ -14,12 +14,13 @@ const base = {
 describe("validateSpec levels", () => {
   it("is null without levels, and fills the defaults of a partial levels object", () => {
     expect(validateSpec(base).levels).toBeNull();
-    expect(validateSpec({ ...base, levels: {} }).levels).toEqual({ inputPeakV: DEFAULT_INPUT_PEAK_V, outputSwingV: DEFAULT_OUTPUT_SWING_V });
-    expect(validateSpec({ ...base, levels: { outputSwingV: 2.4 } }).levels).toEqual({ inputPeakV: 1, outputSwingV: 2.4 });
+    expect(validateSpec({ ...base, levels: {} }).levels).toEqual({ inputPeakV: DEFAULT_INPUT_PEAK_V, outputSwingV: DEFAULT_OUTPUT_SWING_V, opampVoltageNoise: 0, opampCurrentNoise: 0 });
+    expect(validateSpec({ ...base, levels: { outputSwingV: 2.4 } }).levels).toEqual({ inputPeakV: 1, outputSwingV: 2.4, opampVoltageNoise: 0, opampCurrentNoise: 0 });
   });
 
   it("reads the input level in engineering notation", () => {
-    expect(validateSpec({ ...base, levels: { inputPeakV: "500m", outputSwingV: 12 } }).levels).toEqual({ inputPeakV: 0.5, outputSwingV: 12 });
+    expect(validateSpec({ ...base, levels: { inputPeakV: "500m", outputSwingV: 12 } }).levels).toEqual({ inputPeakV: 0.5, outputSwingV: 12, opampVoltageNoise: 0, opampCurrentNoise: 0 });
+    expect(validateSpec({ ...base, levels: { opampVoltageNoise: "4.5n", opampCurrentNoise: "2p" } }).levels).toEqual({ inputPeakV: 1, outputSwingV: 10, opampVoltageNoise: 4.5e-9, opampCurrentNoise: 2e-12 });
     expect(validateSpec({ ...base, levels: { inputPeakV: "2.5V" } }).levels?.inputPeakV).toBe(2.5);
   });
 

@@ -1,9 +1,9 @@
 import { describe, expect, it } from "vitest";
 import { designFilter, type FilterSpec } from "../../src/design/index.ts";
 import { fromJson, toJson, toMarkdown } from "../../src/report/index.ts";
-import { dynamicRange, headroomLines } from "../../src/report/headroom.ts";
+import { headroomLines } from "../../src/report/headroom.ts";
 import { noiseAnalysis } from "../../src/analysis/index.ts";
-import { ParseError } from "../../src/errors.ts";
+import { ParseError, SpecError } from "../../src/errors.ts";
 import { thrownBy } from "../helpers/throws.ts";
 
 // a 400 Hz notch ahead of a vibration logger (our own scenario): multi-amplifier stages with internal nodes
@@ -49,16 +49,36 @@ describe("toMarkdown headroom", () => {
   });
 });
 
-describe("dynamicRange", () => {
+describe("verification.headroom.dynamicRange", () => {
   it("is the clip-free input through the passband gain over the resistors' output noise", () => {
     const r = designFilter({ ...notch, levels: { outputSwingV: 4 } });
-    const d = dynamicRange(r)!;
+    const d = r.verification.headroom!.dynamicRange;
     const peak = Math.max(...r.stages.flatMap((st) => st.opampPeaks.map((p) => p.gain)));
     expect(d.maxInputPeakV).toBeCloseTo(4 / peak, 12);
     expect(d.noiseRmsV).toBe(noiseAnalysis(r).totalRmsV);
+    expect(d.opampNoise).toBe(false);
     expect(d.rangeDb).toBeCloseTo(20 * Math.log10((d.maxInputPeakV * r.spec.gain) / Math.SQRT2 / d.noiseRmsV), 12);
-    expect(dynamicRange(designFilter(notch))).toBeUndefined();
+    expect(designFilter(notch).verification.headroom).toBeUndefined();
     expect(headroomLines(r).at(-1)).toBe("");
+    expect(toMarkdown(r)).toContain("op-amp noise not included");
+  });
+
+  it("counts the op-amps' noise when the spec's levels give it, as noiseAnalysis does", () => {
+    const r = designFilter({ ...notch, levels: { outputSwingV: 4, opampVoltageNoise: "8n", opampCurrentNoise: 1e-12 } });
+    const d = r.verification.headroom!.dynamicRange;
+    expect(r.spec.levels?.opampVoltageNoise).toBeCloseTo(8e-9, 20);
+    expect(d.opampNoise).toBe(true);
+    expect(d.noiseRmsV).toBe(noiseAnalysis(r, { opampVoltageNoise: 8e-9, opampCurrentNoise: 1e-12 }).totalRmsV);
+    // the op-amps add noise, so the range is smaller than with the resistors alone
+    const quiet = designFilter({ ...notch, levels: { outputSwingV: 4 } }).verification.headroom!.dynamicRange;
+    expect(d.rangeDb).toBeLessThan(quiet.rangeDb);
+    expect(toMarkdown(r)).toContain("resistor and op-amp noise");
+    expect(fromJson(toJson(r)).verification.headroom).toEqual(r.verification.headroom);
+  });
+
+  it("refuses a noise density out of range, naming the field", () => {
+    expect(thrownBy(() => designFilter({ ...notch, levels: { opampVoltageNoise: -1e-9 } }), SpecError).issues.map((i) => i.path)).toEqual(["levels.opampVoltageNoise"]);
+    expect(thrownBy(() => designFilter({ ...notch, levels: { opampCurrentNoise: 1 } }), SpecError).issues.map((i) => i.path)).toEqual(["levels.opampCurrentNoise"]);
   });
 });
 
@@ -68,7 +88,7 @@ describe("toJson / fromJson with headroom", () => {
     const back = fromJson(toJson(r));
     expect(back).toEqual(r);
     expect(back.verification.headroom).toEqual(r.verification.headroom);
-    expect(back.spec.levels).toEqual({ inputPeakV: 0.25, outputSwingV: 3 });
+    expect(back.spec.levels).toEqual({ inputPeakV: 0.25, outputSwingV: 3, opampVoltageNoise: 0, opampCurrentNoise: 0 });
   });
 
   it("refuses a file whose op-amp peaks or headroom are malformed, naming the field", () => {
