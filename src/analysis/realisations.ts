@@ -64,5 +64,5 @@ export function compareRealisations(result: DesignResult, options: CompareRealis
   const seed = o["seed"] === undefined ? s.yieldSeed : requireInteger(fn, "options.seed", o["seed"], { min: -(2 ** 31), max: 2 ** 32 - 1 });
   const resistor = o["resistorTolerance"] === undefined ? s.resistorTolerance : requireInRange(fn, "options.resistorTolerance", o["resistorTolerance"], { min: 0, max: 0.2 });
   const capacitor = o["capacitorTolerance"] === undefined ? s.capacitorTolerance : requireInRange(fn, "options.capacitorTolerance", o["capacitorTolerance"], { min: 0, max: 0.2 });
-  return compareOnBoards(result, { runs, seed, resistor, capacitor, distribution: s.partDistribution, among: "all" });
+  return compareOnBoards(result, { runs, seed, resistor, capacitor, distribution: s.partDistribution, among: "all", sequential: false });
 }

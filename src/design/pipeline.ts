@@ -48,7 +48,8 @@ export { LARGE_CAPACITOR_RATIO, CURVE_POINTS } from "./result.ts";
  * the biquad cascade alone. `"auto"` and `"active-ladder"` build it, then the
  * active simulations of the LC ladder of the same prototype (leapfrog and
  * FDNR for a lowpass, GIC inductors for a highpass), and compare them all on
- * the same seeded boards at the spec's part tolerances
+ * the same seeded boards at the spec's part tolerances, each candidate's
+ * built in blocks until its 95 % interval decides against the yield target
  * (src/design/realisation.ts): `auto` keeps the one that meets the yield
  * target with the fewest op-amps, `active-ladder` the best ladder; the
  * result's `realisation` lists every candidate and says why, and the

@@ -29,7 +29,7 @@
  * @module
  */
 import { FilterwrightError, SingularCircuitError, UnrealisableError } from "../errors.ts";
-import { runBoards, type BoardRun, type BoardStage, type PartDistribution } from "../evaluate/boards.ts";
+import { BATCH, runBoards, type BoardStage, type PartDistribution } from "../evaluate/boards.ts";
 import { circuitBoardStage } from "../evaluate/circuit-boards.ts";
 import type { MaskPlan } from "../evaluate/mask.ts";
 import { compileStage } from "../evaluate/stage-polynomials.ts";
@@ -136,6 +136,43 @@ export interface ComparisonSettings {
   readonly distribution: PartDistribution;
   /** Which candidates may be chosen: every one, or the active ladders only. */
   readonly among: "all" | "active-ladder";
+  /**
+   * Build each candidate's boards in blocks of 256 until its 95 % interval
+   * decides against the yield target (at least two blocks, at most `runs`),
+   * as the cascade's own yield check does; else exactly `runs` boards each.
+   */
+  readonly sequential: boolean;
+}
+
+/** A candidate's boards: the counts, and each board's worst margin (dB; NaN for a failed one). */
+interface CandidateBoards {
+  readonly boards: number;
+  readonly passed: number;
+  readonly marginDb: Float64Array;
+}
+
+/** The boards of one candidate: `runs` of them, or in blocks until the interval decides (see `sequential`). */
+function candidateBoards(stages: readonly BoardStage[], plan: MaskPlan, settings: ComparisonSettings, target: number): CandidateBoards {
+  const { seed, distribution } = settings;
+  if (!settings.sequential) {
+    const run = runBoards(stages, plan, { boards: settings.runs, seed, distribution });
+    return { boards: run.boards, passed: run.passed, marginDb: run.marginDb };
+  }
+  const cap = Math.max(BATCH, Math.ceil(settings.runs / BATCH) * BATCH);
+  const margins: Float64Array[] = [];
+  let boards = 0;
+  let passed = 0;
+  while (boards < cap) {
+    const run = runBoards(stages, plan, { boards: BATCH, seed, distribution, firstBoard: boards });
+    boards += BATCH;
+    passed += run.passed;
+    margins.push(run.marginDb);
+    const [lower, upper] = wilsonInterval(passed, boards);
+    if (boards >= 2 * BATCH && (lower >= target || upper < target)) break;
+  }
+  const marginDb = new Float64Array(boards);
+  margins.forEach((m, i) => marginDb.set(m, i * BATCH));
+  return { boards, passed, marginDb };
 }
 
 /** A design's boards as the board engine takes them. */
@@ -241,7 +278,7 @@ function activeLadders(result: DesignResult): { built: ActiveLadder[]; skipped: 
 /** A candidate's record from its boards. */
 function candidate(
   kind: { readonly realisation: RealisationCandidate["realisation"]; readonly method: RealisationMethod; readonly opamps: number; readonly parts: number },
-  run: BoardRun,
+  run: CandidateBoards,
   figures: { readonly medianMarginDb: number; readonly nominalMarginDb: number },
   settings: ComparisonSettings,
   target: number,
@@ -283,10 +320,10 @@ function choose(cands: readonly RealisationCandidate[], allowed: readonly number
 }
 
 /** The boards of one active ladder against the design's mask, and its nominal board (null when every board is singular). */
-function ladderBoards(ladder: ActiveLadder, plan: MaskPlan, span: readonly [number, number], settings: ComparisonSettings): { run: BoardRun; median: number; nominal: number } | null {
+function ladderBoards(ladder: ActiveLadder, plan: MaskPlan, span: readonly [number, number], settings: ComparisonSettings, target: number): { run: CandidateBoards; median: number; nominal: number } | null {
   const stageAt = (resistor: number, capacitor: number): BoardStage =>
     circuitBoardStage(ladder.circuit, { source: ladder.source, output: ladder.output, spanRadS: span, resistorTolerance: resistor, capacitorTolerance: capacitor, radiusRadS: ladder.frequencyScale });
-  const run = runBoards([stageAt(settings.resistor, settings.capacitor)], plan, { boards: settings.runs, seed: settings.seed, distribution: settings.distribution });
+  const run = candidateBoards([stageAt(settings.resistor, settings.capacitor)], plan, settings, target);
   const median = finiteMedian(run.marginDb);
   const nominal = runBoards([stageAt(0, 0)], plan, { boards: 1, seed: settings.seed, distribution: settings.distribution }).marginDb[0] as number;
   return median === null || !Number.isFinite(nominal) ? null : { run, median, nominal };
@@ -306,7 +343,7 @@ function ladderBoards(ladder: ActiveLadder, plan: MaskPlan, span: readonly [numb
 export function compareOnBoards(result: DesignResult, settings: ComparisonSettings): RealisationComparison {
   const target = result.spec.yieldTarget;
   const { plan, span, stages } = resultBoardStages(result, settings);
-  const run = runBoards(stages, plan, { boards: settings.runs, seed: settings.seed, distribution: settings.distribution });
+  const run = candidateBoards(stages, plan, settings, target);
   const median = finiteMedian(run.marginDb);
   if (median === null) {
     throw new SingularCircuitError({ fn: "compareRealisations", path: "result", message: "no board of the cascade has a finite margin: every board's circuit was singular; check the design's parts, or lower the part tolerances" }, []);
@@ -320,7 +357,7 @@ export function compareOnBoards(result: DesignResult, settings: ComparisonSettin
   const candidates: RealisationCandidate[] = [candidate(cascadeKind, run, { medianMarginDb: median, nominalMarginDb: result.verification.marginDb }, settings, target)];
   const { built, skipped } = activeLadders(result);
   for (const l of built) {
-    const boards = ladderBoards(l, plan, span, settings);
+    const boards = ladderBoards(l, plan, span, settings, target);
     if (boards === null) {
       skipped.push({ method: l.method, reason: "every board of the ladder is singular at these tolerances" });
       continue;
@@ -342,8 +379,10 @@ function skippedText(skipped: readonly RealisationSkipped[]): string {
 /**
  * The realisation a spec's `realisation: "auto"` or `"active-ladder"` gets:
  * the cascade and the active ladders compared on the spec's boards (its
- * yield seed, its part tolerances and spread, `yieldCheck.maxBoards` boards
- * each) and the choice (internal: the result is a checked design).
+ * yield seed, its part tolerances and spread; each candidate's boards built
+ * in blocks until its 95 % interval decides against the target, at most
+ * `yieldCheck.maxBoards`, as the cascade's own yield check) and the choice
+ * (internal: the result is a checked design).
  *
  * @param cascade - the design's biquad cascade
  * @param requested - what the spec asked for
@@ -359,6 +398,7 @@ export function chooseRealisation(cascade: DesignResult, requested: "active-ladd
     capacitor: s.capacitorTolerance,
     distribution: s.partDistribution,
     among: requested === "auto" ? "all" : "active-ladder",
+    sequential: true,
   });
   if (c.chosen < 0) {
     throw new UnrealisableError({
