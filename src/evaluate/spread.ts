@@ -476,6 +476,35 @@ export function unitDeviations(parts: number, samples: number, distribution: Par
   return out;
 }
 
+/** The last few deviation sets drawn by {@link sharedDeviations}, by parts, samples, distribution and seed. */
+const deviationSets = new Map<string, Float64Array>();
+/** At most this many kept (a 2,000-board set of 40 parts is 640 kB). */
+const DEVIATION_SETS = 4;
+
+/**
+ * {@link unitDeviations}, kept: the design loop screens many candidates of
+ * one spec with the same part count, boards, distribution and seed, and the
+ * draws are a pure function of those four, so a kept set is the one a new
+ * draw would give, bit for bit. The array is shared: read it, never write
+ * it. Internal.
+ *
+ * @param parts - parts per board
+ * @param samples - boards
+ * @param distribution - part spread
+ * @param seed - seed
+ * @returns `samples * parts` deviations (shared, read-only)
+ * @internal
+ */
+export function sharedDeviations(parts: number, samples: number, distribution: PartDistribution, seed: number): Float64Array {
+  const key = `${parts} ${samples} ${distribution} ${seed}`;
+  const hit = deviationSets.get(key);
+  if (hit !== undefined) return hit;
+  const out = unitDeviations(parts, samples, distribution, seed);
+  if (deviationSets.size >= DEVIATION_SETS) deviationSets.delete(deviationSets.keys().next().value as string);
+  deviationSets.set(key, out);
+  return out;
+}
+
 /**
  * Linearised levels of sampled boards: `level[k * points + i] = L_i + sum_j g_ij t_j d_kj`.
  *
@@ -528,14 +557,25 @@ export function predictYield(
   options: LinearYieldOptions = {},
 ): LinearYield {
   const samples = options.samples ?? 4000;
-  const draws = unitDeviations(model.parts.length, samples, distribution, options.seed ?? 1);
-  const levels = linearLevels(model, tolerances, draws, samples);
+  const p = model.parts.length;
+  const draws = sharedDeviations(p, samples, distribution, options.seed ?? 1);
   const n = model.levelDb.length;
   const targetDb = 20 * Math.log10(plan.limits.gain);
   const marginDb = new Float64Array(samples);
+  // each board's levels as linearLevels computes them (the same sums in the same order), checked at once
+  const level = new Float64Array(n);
+  const delta = new Float64Array(p);
+  const g = model.gradient;
   let passed = 0;
   for (let k = 0; k < samples; k++) {
-    const m = pointMargin(levels, k * n, model.band, plan.limits, targetDb);
+    for (let j = 0; j < p; j++) delta[j] = (tolerances[j] as number) * (draws[k * p + j] as number);
+    for (let i = 0; i < n; i++) {
+      let x = model.levelDb[i] as number;
+      const row = i * p;
+      for (let j = 0; j < p; j++) x += (g[row + j] as number) * (delta[j] as number);
+      level[i] = x;
+    }
+    const m = pointMargin(level, 0, model.band, plan.limits, targetDb);
     marginDb[k] = m;
     if (m >= 0) passed++;
   }
