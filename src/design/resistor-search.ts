@@ -79,11 +79,20 @@ function workspace(t: Topology, exact: ComponentValues): Workspace {
   };
 }
 
-/** The values the workspace holds, as a fresh record keyed like the exact design. */
-function valuesOf(w: Workspace): ComponentValues {
-  const out: Record<string, number> = {};
-  for (let i = 0; i < w.keys.length; i++) out[w.keys[i] as string] = w.x[i] as number;
-  return out;
+/** A set the search keeps for now: its values in workspace order, figures and cost (made a {@link ValueSet} only when returned). */
+interface Kept {
+  readonly x: Float64Array;
+  readonly figures: StageFigures;
+  readonly cost: number;
+}
+
+/** The kept sets as value sets: values as records keyed like the exact design, errors against the target. */
+function valueSets(w: Workspace, kept: readonly Kept[], target: StageTarget): ValueSet[] {
+  return kept.map((k) => {
+    const values: Record<string, number> = {};
+    for (let i = 0; i < w.keys.length; i++) values[w.keys[i] as string] = k.x[i] as number;
+    return { values, figures: k.figures, errors: stageErrors(k.figures, target), cost: k.cost };
+  });
 }
 
 /**
@@ -141,8 +150,8 @@ export function addToBound(bound: SearchBound, sets: readonly ValueSet[]): void 
  * least `floor`, so the descent takes the path it would have taken, and the
  * set could not rank where the caller looks (see {@link SearchBound}).
  */
-function finalists(w: Workspace, target: StageTarget, keep: number, earlier: SearchBound | undefined): { found: ValueSet[]; trial: (floor: number) => number } {
-  const found: ValueSet[] = [];
+function finalists(w: Workspace, target: StageTarget, keep: number, earlier: SearchBound | undefined): { found: Kept[]; trial: (floor: number) => number } {
+  const found: Kept[] = [];
   const f0Hz = w.f0Hz;
   // A set whose bound reaches the `depth`-th best cost the earlier searches returned, and lies more
   // than `near` above their best, cannot rank where the caller looks: refused like the others.
@@ -155,7 +164,7 @@ function finalists(w: Workspace, target: StageTarget, keep: number, earlier: Sea
       const e = rel(f0Hz(), target.f0Hz);
       const b = e + 0.1 * e;
       if (b >= rankBound && b > nearBound && b >= floor) return Infinity;
-      if (found.length >= keep && b >= (found[found.length - 1] as ValueSet).cost) return Infinity;
+      if (found.length >= keep && b >= (found[found.length - 1] as Kept).cost) return Infinity;
     }
     let fig: StageFigures;
     try {
@@ -164,10 +173,10 @@ function finalists(w: Workspace, target: StageTarget, keep: number, earlier: Sea
       return NaN;
     }
     const cost = figuresCost(fig, target);
-    if (!(cost < (found.length < keep ? Infinity : (found[found.length - 1] as ValueSet).cost))) return cost;
-    const vs: ValueSet = { values: valuesOf(w), figures: fig, errors: stageErrors(fig, target), cost };
+    if (!(cost < (found.length < keep ? Infinity : (found[found.length - 1] as Kept).cost))) return cost;
+    const vs: Kept = { x: w.x.slice(), figures: fig, cost };
     let i = found.length;
-    while (i > 0 && (found[i - 1] as ValueSet).cost > cost) i--;
+    while (i > 0 && (found[i - 1] as Kept).cost > cost) i--;
     found.splice(i, 0, vs);
     if (found.length > keep) found.pop();
     return cost;
@@ -235,7 +244,7 @@ export function searchResistors(
         x[slots[i] as number] = o[0] as number;
       }
     }
-    return found;
+    return valueSets(w, found, target);
   }
   // Pairwise coordinate descent from the nearest values: every pair of
   // resistors tries all its combinations with the others held, until a
@@ -292,7 +301,7 @@ export function searchResistors(
             let cost: number;
             if (replay) {
               const was = log[at] as number;
-              const worst = found.length < keep ? Infinity : (found[found.length - 1] as ValueSet).cost;
+              const worst = found.length < keep ? Infinity : (found[found.length - 1] as Kept).cost;
               cost = was < worst ? trial(cur) : was;
             } else {
               cost = trial(cur);
@@ -317,7 +326,7 @@ export function searchResistors(
     if (!improved) break;
     lastChange = changedAt;
   }
-  return found;
+  return valueSets(w, found, target);
 }
 
 /**
