@@ -42,11 +42,14 @@
  */
 import { SingularCircuitError } from "../errors.ts";
 import { TWO_PI } from "../units/constants.ts";
-import { BATCH, drawDeviations, type BoardStage, type PartDistribution } from "./boards.ts";
+import type { BoardStage, PartDistribution } from "./boards.ts";
 import { multiplyMagnitudeSquared } from "./cascade.ts";
 import { localExtremes, rationalSource, refineExtreme, type MaskLimits, type MaskPlan, type ResponseSource } from "./mask.ts";
+import { boardLevels, levelScratch, sharedDeviations } from "./linear-boards.ts";
 import { boardPolynomialsInto, genericStagePolynomialsInto } from "./stage-polynomials.ts";
 import type { ScaledRational } from "./types.ts";
+
+export { linearLevels, sharedDeviations, unitDeviations } from "./linear-boards.ts";
 
 /** Relative step of the central differences. */
 export const MODEL_STEP = 1e-5;
@@ -458,81 +461,6 @@ export interface LinearYield {
 }
 
 /**
- * Unit deviations (in [-1, 1], times the tolerance later) of `samples`
- * boards of `parts` parts, board-major: the boards {@link runBoards} draws
- * with the same seed.
- *
- * @param parts - parts per board
- * @param samples - boards
- * @param distribution - part spread
- * @param seed - seed
- * @returns `samples * parts` deviations
- */
-export function unitDeviations(parts: number, samples: number, distribution: PartDistribution, seed: number): Float64Array {
-  const out = new Float64Array(samples * parts);
-  for (let start = 0; start < samples; start += BATCH) {
-    drawDeviations(seed, start / BATCH, Math.min(BATCH, samples - start), parts, distribution, out.subarray(start * parts));
-  }
-  return out;
-}
-
-/** The last few deviation sets drawn by {@link sharedDeviations}, by parts, samples, distribution and seed. */
-const deviationSets = new Map<string, Float64Array>();
-/** At most this many kept (a 2,000-board set of 40 parts is 640 kB). */
-const DEVIATION_SETS = 4;
-
-/**
- * {@link unitDeviations}, kept: the design loop screens many candidates of
- * one spec with the same part count, boards, distribution and seed, and the
- * draws are a pure function of those four, so a kept set is the one a new
- * draw would give, bit for bit. The array is shared: read it, never write
- * it. Internal.
- *
- * @param parts - parts per board
- * @param samples - boards
- * @param distribution - part spread
- * @param seed - seed
- * @returns `samples * parts` deviations (shared, read-only)
- * @internal
- */
-export function sharedDeviations(parts: number, samples: number, distribution: PartDistribution, seed: number): Float64Array {
-  const key = `${parts} ${samples} ${distribution} ${seed}`;
-  const hit = deviationSets.get(key);
-  if (hit !== undefined) return hit;
-  const out = unitDeviations(parts, samples, distribution, seed);
-  if (deviationSets.size >= DEVIATION_SETS) deviationSets.delete(deviationSets.keys().next().value as string);
-  deviationSets.set(key, out);
-  return out;
-}
-
-/**
- * Linearised levels of sampled boards: `level[k * points + i] = L_i + sum_j g_ij t_j d_kj`.
- *
- * @param model - the linear model
- * @param tolerances - per part (fractions)
- * @param draws - unit deviations, board-major (see {@link unitDeviations})
- * @param samples - boards
- * @returns the levels, board-major
- */
-export function linearLevels(model: LinearModel, tolerances: Float64Array, draws: Float64Array, samples: number): Float64Array {
-  const p = model.parts.length;
-  const n = model.levelDb.length;
-  const out = new Float64Array(samples * n);
-  const delta = new Float64Array(p);
-  const g = model.gradient;
-  for (let k = 0; k < samples; k++) {
-    for (let j = 0; j < p; j++) delta[j] = (tolerances[j] as number) * (draws[k * p + j] as number);
-    for (let i = 0; i < n; i++) {
-      let x = model.levelDb[i] as number;
-      const row = i * p;
-      for (let j = 0; j < p; j++) x += (g[row + j] as number) * (delta[j] as number);
-      out[k * n + i] = x;
-    }
-  }
-  return out;
-}
-
-/**
  * The yield of the linear model: boards sampled as {@link runBoards} draws
  * them (uniform within +-t, or normal with t = 3 sigma truncated at +-t),
  * the mask checked on their linearised levels, with the per-constraint
@@ -562,22 +490,20 @@ export function predictYield(
   const n = model.levelDb.length;
   const targetDb = 20 * Math.log10(plan.limits.gain);
   const marginDb = new Float64Array(samples);
-  // each board's levels as linearLevels computes them (the same sums in the same order), checked at once
-  const level = new Float64Array(n);
-  const delta = new Float64Array(p);
-  const g = model.gradient;
+  // each board's levels as linearLevels computes them (the same sums in the same order), two boards at a time, checked at once
+  const scratch = levelScratch(p, n);
   let passed = 0;
-  for (let k = 0; k < samples; k++) {
-    for (let j = 0; j < p; j++) delta[j] = (tolerances[j] as number) * (draws[k * p + j] as number);
-    for (let i = 0; i < n; i++) {
-      let x = model.levelDb[i] as number;
-      const row = i * p;
-      for (let j = 0; j < p; j++) x += (g[row + j] as number) * (delta[j] as number);
-      level[i] = x;
-    }
-    const m = pointMargin(level, 0, model.band, plan.limits, targetDb);
+  for (let k = 0; k < samples; k += 2) {
+    const two = k + 1 < samples;
+    boardLevels(model, tolerances, draws, k, two, scratch);
+    const m = pointMargin(scratch.level0, 0, model.band, plan.limits, targetDb);
     marginDb[k] = m;
     if (m >= 0) passed++;
+    if (two) {
+      const m1 = pointMargin(scratch.level1, 0, model.band, plan.limits, targetDb);
+      marginDb[k + 1] = m1;
+      if (m1 >= 0) passed++;
+    }
   }
   return {
     fraction: passed / samples,
