@@ -24,7 +24,7 @@ import { AUTO_MAX_ORDER, choosePrototype, designPrototype, stricterLevels, type 
 import { intervalWidth, prototypeInterval, upHelpsPassband } from "./placement.ts";
 import type { GainBounds, StagePlan } from "./stages.ts";
 import type { TunedStage, ValueSet } from "./components.ts";
-import { checkMask, gridMarginDb, maskGrid, stageMagnitudeSquared } from "./verify.ts";
+import { checkMask, maskGrid, productMarginDb, stageMagnitudeSquared } from "./verify.ts";
 import { boardStages, buildAttempt, meetsSpec, sturdierStagesOf, type Attempt, type PlacedPrototype } from "./attempt.ts";
 import { significant } from "./text.ts";
 import type { DesignAction } from "./types.ts";
@@ -80,26 +80,27 @@ export function retuneToMask(spec: DesignSpec, a: Attempt): Attempt {
     }
     return r;
   };
-  const marginOf = (sets: readonly ValueSet[]): number => {
-    const mag = new Float64Array(n).fill(1);
-    sets.forEach((v, i) => {
-      const m2 = squaredOf(i, v);
-      for (let k = 0; k < n; k++) mag[k] = (mag[k] as number) * (m2[k] as number);
-    });
-    for (let k = 0; k < n; k++) mag[k] = Math.sqrt(mag[k] as number);
-    return gridMarginDb(spec, grid, mag);
-  };
+  // The margin of a set of stages: |H|^2 multiplied stage by stage in order from 1 at every grid point
+  // (productMarginDb). Only stage i changes while its alternatives are tried, so the product of the
+  // stages before it (the same running product, the same bits) is formed once per stage.
+  const ones = new Float64Array(n).fill(1);
+  const prefix = new Float64Array(n);
   const chosen = [...a.chosen];
-  let bestGrid = marginOf(chosen);
+  let bestGrid = productMarginDb(spec, grid, ones, chosen.map((v, i) => squaredOf(i, v)));
   for (let sweep = 0; sweep < 2; sweep++) {
     let improved = false;
     for (let i = 0; i < chosen.length; i++) {
       const t = a.tuned[i] as TunedStage;
+      prefix.set(ones);
+      for (let j = 0; j < i; j++) {
+        const m2 = squaredOf(j, chosen[j] as ValueSet);
+        for (let k = 0; k < n; k++) prefix[k] = (prefix[k] as number) * (m2[k] as number);
+      }
       for (const alt of [t.best, ...t.alternatives]) {
         if (alt === chosen[i]) continue;
-        const trial = [...chosen];
-        trial[i] = alt;
-        const m = marginOf(trial);
+        const rest = [squaredOf(i, alt)];
+        for (let j = i + 1; j < chosen.length; j++) rest.push(squaredOf(j, chosen[j] as ValueSet));
+        const m = productMarginDb(spec, grid, prefix, rest);
         if (m > bestGrid + 1e-9) {
           bestGrid = m;
           chosen[i] = alt;

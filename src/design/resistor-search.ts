@@ -79,11 +79,20 @@ function workspace(t: Topology, exact: ComponentValues): Workspace {
   };
 }
 
-/** The values the workspace holds, as a fresh record keyed like the exact design. */
-function valuesOf(w: Workspace): ComponentValues {
-  const out: Record<string, number> = {};
-  for (let i = 0; i < w.keys.length; i++) out[w.keys[i] as string] = w.x[i] as number;
-  return out;
+/** A set the search keeps for now: its values in workspace order, figures and cost (made a {@link ValueSet} only when returned). */
+interface Kept {
+  readonly x: Float64Array;
+  readonly figures: StageFigures;
+  readonly cost: number;
+}
+
+/** The kept sets as value sets: values as records keyed like the exact design, errors against the target. */
+function valueSets(w: Workspace, kept: readonly Kept[], target: StageTarget): ValueSet[] {
+  return kept.map((k) => {
+    const values: Record<string, number> = {};
+    for (let i = 0; i < w.keys.length; i++) values[w.keys[i] as string] = k.x[i] as number;
+    return { values, figures: k.figures, errors: stageErrors(k.figures, target), cost: k.cost };
+  });
 }
 
 /**
@@ -133,9 +142,16 @@ export function addToBound(bound: SearchBound, sets: readonly ValueSet[]): void 
  * it could neither enter the list nor (the list holding the best set met)
  * beat the best, so the search goes on exactly as if it had been costed. A
  * refused trial reports Infinity.
+ *
+ * The bound of the earlier searches (`earlier`) refuses a trial only when its
+ * f0 bound also reaches `floor`: the cost the caller must know exactly
+ * whether a trial beats (the descent's current best; -Infinity for the
+ * exhaustive walk, which steers by nothing). A trial it refuses costs at
+ * least `floor`, so the descent takes the path it would have taken, and the
+ * set could not rank where the caller looks (see {@link SearchBound}).
  */
-function finalists(w: Workspace, target: StageTarget, keep: number, earlier: SearchBound | undefined): { found: ValueSet[]; trial: () => number } {
-  const found: ValueSet[] = [];
+function finalists(w: Workspace, target: StageTarget, keep: number, earlier: SearchBound | undefined): { found: Kept[]; trial: (floor: number) => number } {
+  const found: Kept[] = [];
   const f0Hz = w.f0Hz;
   // A set whose bound reaches the `depth`-th best cost the earlier searches returned, and lies more
   // than `near` above their best, cannot rank where the caller looks: refused like the others.
@@ -143,12 +159,12 @@ function finalists(w: Workspace, target: StageTarget, keep: number, earlier: Sea
   const rankBound = earlier !== undefined && earlier.depth > 0 && costs.length >= earlier.depth ? (costs[earlier.depth - 1] as number) : Infinity;
   const nearBound = rankBound < Infinity ? (costs[0] as number) + (earlier as SearchBound).near : Infinity;
   /** Cost the values in the workspace (NaN or Infinity when unusable or refused) and keep them when they rank among the best `keep`. */
-  const trial = (): number => {
+  const trial = (floor: number): number => {
     if (f0Hz !== undefined && (found.length >= keep || rankBound < Infinity)) {
       const e = rel(f0Hz(), target.f0Hz);
       const b = e + 0.1 * e;
-      if (b >= rankBound && b > nearBound) return Infinity;
-      if (found.length >= keep && b >= (found[found.length - 1] as ValueSet).cost) return Infinity;
+      if (b >= rankBound && b > nearBound && b >= floor) return Infinity;
+      if (found.length >= keep && b >= (found[found.length - 1] as Kept).cost) return Infinity;
     }
     let fig: StageFigures;
     try {
@@ -157,10 +173,10 @@ function finalists(w: Workspace, target: StageTarget, keep: number, earlier: Sea
       return NaN;
     }
     const cost = figuresCost(fig, target);
-    if (!(cost < (found.length < keep ? Infinity : (found[found.length - 1] as ValueSet).cost))) return cost;
-    const vs: ValueSet = { values: valuesOf(w), figures: fig, errors: stageErrors(fig, target), cost };
+    if (!(cost < (found.length < keep ? Infinity : (found[found.length - 1] as Kept).cost))) return cost;
+    const vs: Kept = { x: w.x.slice(), figures: fig, cost };
     let i = found.length;
-    while (i > 0 && (found[i - 1] as ValueSet).cost > cost) i--;
+    while (i > 0 && (found[i - 1] as Kept).cost > cost) i--;
     found.splice(i, 0, vs);
     if (found.length > keep) found.pop();
     return cost;
@@ -210,14 +226,13 @@ export function searchResistors(
   const options = slots.map((i) => neighbours(x[i] as number, spec.resistorSeries, spread).filter((v) => v >= lim.min * (1 - 1e-9) && v <= lim.max * (1 + 1e-9)));
   if (options.some((o) => o.length === 0)) return [];
   const total = options.reduce((p, o) => p * o.length, 1);
-  // The descent steers by each trial's cost, so only the exhaustive walk takes the earlier searches' bound.
-  const { found, trial } = finalists(w, target, keep, total <= 1024 ? earlier : undefined);
+  const { found, trial } = finalists(w, target, keep, earlier);
   const idx = slots.map(() => 0);
   if (total <= 1024) {
     // Every combination, the first resistor's choice changing fastest.
     slots.forEach((s, i) => (x[s] = (options[i] as number[])[0] as number));
     for (let count = 0; count < total; count++) {
-      trial();
+      trial(-Infinity);
       for (let i = 0; i < idx.length; i++) {
         const o = options[i] as number[];
         idx[i] = (idx[i] as number) + 1;
@@ -229,12 +244,24 @@ export function searchResistors(
         x[slots[i] as number] = o[0] as number;
       }
     }
-    return found;
+    return valueSets(w, found, target);
   }
   // Pairwise coordinate descent from the nearest values: every pair of
   // resistors tries all its combinations with the others held, until a
   // sweep improves nothing (single-part descent stalls where f0 and Q
   // depend on ratios of two parts).
+  //
+  // Replay: a pair's trials see the same values as in the sweep before when
+  // nothing has changed since (the pair lies after the last pair that
+  // changed a value in that sweep, and nothing has changed yet in this one).
+  // Their results are then read from that sweep's log instead of being
+  // costed again: none beats the current best (they did not then, against
+  // the same best), and one is costed again only where it could enter the
+  // kept sets now (a trial enters them only below their worst, which has
+  // not risen since), so the descent, its kept sets and their order are
+  // those of costing every trial. The first sweep that changes nothing is
+  // the last, so about the tail of each search after its last change is
+  // not costed twice.
   slots.forEach((s, i) => {
     const o = options[i] as number[];
     const v0 = exact[w.keys[s] as string] as number;
@@ -245,24 +272,42 @@ export function searchResistors(
     idx[i] = bi;
     x[s] = o[bi] as number;
   });
-  let cur = trial();
+  let cur = trial(Infinity);
   if (!Number.isFinite(cur)) cur = Infinity;
+  let size = 0;
+  for (let i = 0; i < idx.length; i++) for (let k = i + 1; k < idx.length; k++) size += (options[i] as number[]).length * (options[k] as number[]).length - 1;
+  const log = new Float64Array(size);
+  // the ordinal of the last pair that changed a value in the previous sweep (none before the first)
+  let lastChange = Infinity;
   for (let sweep = 0; sweep < 4; sweep++) {
     let improved = false;
+    let changedAt = -1;
+    let pair = 0;
+    let at = 0;
     for (let i = 0; i < idx.length; i++) {
-      for (let k = i + 1; k < idx.length; k++) {
+      for (let k = i + 1; k < idx.length; k++, pair++) {
         const si = slots[i] as number;
         const sk = slots[k] as number;
         const oi = options[i] as number[];
         const ok = options[k] as number[];
         let bestI = idx[i] as number;
         let bestK = idx[k] as number;
+        const replay = !improved && pair > lastChange;
         for (let a = 0; a < oi.length; a++) {
           x[si] = oi[a] as number;
           for (let b = 0; b < ok.length; b++) {
             if (a === idx[i] && b === idx[k]) continue;
             x[sk] = ok[b] as number;
-            const cost = trial();
+            let cost: number;
+            if (replay) {
+              const was = log[at] as number;
+              const worst = found.length < keep ? Infinity : (found[found.length - 1] as Kept).cost;
+              cost = was < worst ? trial(cur) : was;
+            } else {
+              cost = trial(cur);
+              log[at] = cost;
+            }
+            at++;
             if (cost < cur) {
               cur = cost;
               bestI = a;
@@ -271,6 +316,7 @@ export function searchResistors(
             }
           }
         }
+        if (bestI !== idx[i] || bestK !== idx[k]) changedAt = pair;
         idx[i] = bestI;
         idx[k] = bestK;
         x[si] = oi[bestI] as number;
@@ -278,8 +324,9 @@ export function searchResistors(
       }
     }
     if (!improved) break;
+    lastChange = changedAt;
   }
-  return found;
+  return valueSets(w, found, target);
 }
 
 /**

@@ -304,6 +304,45 @@ export function gridMarginDb(spec: DesignSpec, grid: MaskGrid, magnitude: Float6
 }
 
 /**
+ * {@link gridMarginDb} of the product of per-stage |H|^2 on a
+ * {@link maskGrid}: the product at each point formed as `prefix[k]` times the
+ * stages' values in order (`prefix` the product of the stages before them,
+ * built the same way from 1), so each point has the bits of a running
+ * product over all stages. The band extremes are taken on |H|^2 and their
+ * square roots formed once: a correctly rounded square root is monotone, so
+ * the root of an extreme is the extreme of the roots, bit for bit, and the
+ * margin is {@link gridMarginDb}'s on the roots of the products.
+ *
+ * @param spec - canonical spec
+ * @param grid - the grid
+ * @param prefix - the product of the stages before `stages`, per point (all ones for none)
+ * @param stages - |H|^2 of the remaining stages, in order
+ * @returns the smallest of the passband, stopband and gain margins, dB
+ * @internal
+ */
+export function productMarginDb(spec: DesignSpec, grid: MaskGrid, prefix: Float64Array, stages: readonly Float64Array[]): number {
+  let peak = 0;
+  let low = Infinity;
+  let stop = 0;
+  const count = stages.length;
+  for (let i = 0; i < prefix.length; i++) {
+    let m = prefix[i] as number;
+    for (let s = 0; s < count; s++) m *= (stages[s] as Float64Array)[i] as number;
+    if (grid.band[i] === 1) {
+      if (m > peak) peak = m;
+      if (m < low) low = m;
+    } else if (m > stop) stop = m;
+  }
+  peak = Math.sqrt(peak);
+  low = Math.sqrt(low);
+  stop = Math.sqrt(stop);
+  const pass = spec.maxLossDb - (db(peak) - db(low));
+  const att = db(peak) - db(stop) - spec.minAttenuationDb;
+  const gain = spec.gainToleranceDb - Math.abs(db(peak) - db(spec.gain));
+  return Math.min(pass, att, gain);
+}
+
+/**
  * The frequency span a design's response curve and netlist sweep cover: a
  * decade below the lowest spec edge to a decade above the highest.
  *

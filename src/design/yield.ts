@@ -62,6 +62,7 @@ import { buildAttempt, meetsSpec, sturdierStagesOf, type Attempt, type PlacedPro
 import { maskPlan, spanRadS } from "./verify.ts";
 import { designAtOrder, retuneToMask, type OrderRange, type SearchOutcome } from "./recovery.ts";
 import { significant } from "./text.ts";
+import { keptYield } from "./yield-memo.ts";
 import type { DesignAction } from "./types.ts";
 
 /** Resistor tolerance classes stocked, loosest first (fractions). */
@@ -154,7 +155,7 @@ export function boardStagesOf(spec: DesignSpec, a: Attempt, tolerances: PartTole
  * @param maxBoards - cap (the spec's by default)
  * @param seed - seed of the boards (the spec's by default)
  * @param target - the yield the run decides against (the spec's by default)
- * @returns the estimate
+ * @returns the estimate (kept per attempt and arguments: yield-memo.ts)
  */
 export function attemptYield(
   spec: DesignSpec,
@@ -164,13 +165,9 @@ export function attemptYield(
   seed = spec.yieldSeed,
   target = spec.yieldTarget,
 ): YieldEstimate {
-  return sequentialYield(boardStagesOf(spec, a, tolerances), maskPlan(spec), {
-    target,
-    seed,
-    distribution: spec.partDistribution,
-    maxBoards,
-    minBoards: BATCH,
-  });
+  return keptYield(spec, a, tolerances, maxBoards, seed, target, () =>
+    sequentialYield(boardStagesOf(spec, a, tolerances), maskPlan(spec), { target, seed, distribution: spec.partDistribution, maxBoards, minBoards: BATCH }),
+  );
 }
 
 /** The class ladder: each step one class tighter for capacitors or resistors (capacitors first), only where the spec leaves them free. */

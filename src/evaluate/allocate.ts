@@ -42,7 +42,7 @@
 import { InvalidArgumentError } from "../errors.ts";
 import type { PartDistribution } from "./boards.ts";
 import type { MaskPlan } from "./mask.ts";
-import { constraintSpreads, linearLevels, PASS_POINT, pointMargin, sigmaPerTolerance, unitDeviations, type ConstraintSpread, type LinearModel, type ModelPart } from "./spread.ts";
+import { constraintSpreads, linearLevels, PASS_POINT, pointMargin, sharedDeviations, sigmaPerTolerance, type ConstraintSpread, type LinearModel, type ModelPart } from "./spread.ts";
 
 /** A tolerance class a part may be bought in. */
 export interface ToleranceClass {
@@ -261,7 +261,7 @@ function initialState(model: LinearModel, plan: MaskPlan, ladders: ToleranceClas
   const n = model.levelDb.length;
   const samples = o.samples ?? 2000;
   const tolerance = Float64Array.from(ladders, (l) => (l[0] as ToleranceClass).tolerance);
-  const draws = unitDeviations(p, samples, o.distribution ?? "uniform", o.seed ?? 1);
+  const draws = sharedDeviations(p, samples, o.distribution ?? "uniform", o.seed ?? 1);
   const column = new Float64Array(p * n);
   const reach = new Float64Array(p);
   for (let j = 0; j < p; j++) {

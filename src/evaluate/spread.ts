@@ -42,11 +42,14 @@
  */
 import { SingularCircuitError } from "../errors.ts";
 import { TWO_PI } from "../units/constants.ts";
-import { BATCH, drawDeviations, type BoardStage, type PartDistribution } from "./boards.ts";
+import type { BoardStage, PartDistribution } from "./boards.ts";
 import { multiplyMagnitudeSquared } from "./cascade.ts";
 import { localExtremes, rationalSource, refineExtreme, type MaskLimits, type MaskPlan, type ResponseSource } from "./mask.ts";
+import { boardLevels, levelScratch, sharedDeviations } from "./linear-boards.ts";
 import { boardPolynomialsInto, genericStagePolynomialsInto } from "./stage-polynomials.ts";
 import type { ScaledRational } from "./types.ts";
+
+export { linearLevels, sharedDeviations, unitDeviations } from "./linear-boards.ts";
 
 /** Relative step of the central differences. */
 export const MODEL_STEP = 1e-5;
@@ -458,52 +461,6 @@ export interface LinearYield {
 }
 
 /**
- * Unit deviations (in [-1, 1], times the tolerance later) of `samples`
- * boards of `parts` parts, board-major: the boards {@link runBoards} draws
- * with the same seed.
- *
- * @param parts - parts per board
- * @param samples - boards
- * @param distribution - part spread
- * @param seed - seed
- * @returns `samples * parts` deviations
- */
-export function unitDeviations(parts: number, samples: number, distribution: PartDistribution, seed: number): Float64Array {
-  const out = new Float64Array(samples * parts);
-  for (let start = 0; start < samples; start += BATCH) {
-    drawDeviations(seed, start / BATCH, Math.min(BATCH, samples - start), parts, distribution, out.subarray(start * parts));
-  }
-  return out;
-}
-
-/**
- * Linearised levels of sampled boards: `level[k * points + i] = L_i + sum_j g_ij t_j d_kj`.
- *
- * @param model - the linear model
- * @param tolerances - per part (fractions)
- * @param draws - unit deviations, board-major (see {@link unitDeviations})
- * @param samples - boards
- * @returns the levels, board-major
- */
-export function linearLevels(model: LinearModel, tolerances: Float64Array, draws: Float64Array, samples: number): Float64Array {
-  const p = model.parts.length;
-  const n = model.levelDb.length;
-  const out = new Float64Array(samples * n);
-  const delta = new Float64Array(p);
-  const g = model.gradient;
-  for (let k = 0; k < samples; k++) {
-    for (let j = 0; j < p; j++) delta[j] = (tolerances[j] as number) * (draws[k * p + j] as number);
-    for (let i = 0; i < n; i++) {
-      let x = model.levelDb[i] as number;
-      const row = i * p;
-      for (let j = 0; j < p; j++) x += (g[row + j] as number) * (delta[j] as number);
-      out[k * n + i] = x;
-    }
-  }
-  return out;
-}
-
-/**
  * The yield of the linear model: boards sampled as {@link runBoards} draws
  * them (uniform within +-t, or normal with t = 3 sigma truncated at +-t),
  * the mask checked on their linearised levels, with the per-constraint
@@ -528,16 +485,25 @@ export function predictYield(
   options: LinearYieldOptions = {},
 ): LinearYield {
   const samples = options.samples ?? 4000;
-  const draws = unitDeviations(model.parts.length, samples, distribution, options.seed ?? 1);
-  const levels = linearLevels(model, tolerances, draws, samples);
+  const p = model.parts.length;
+  const draws = sharedDeviations(p, samples, distribution, options.seed ?? 1);
   const n = model.levelDb.length;
   const targetDb = 20 * Math.log10(plan.limits.gain);
   const marginDb = new Float64Array(samples);
+  // each board's levels as linearLevels computes them (the same sums in the same order), two boards at a time, checked at once
+  const scratch = levelScratch(p, n);
   let passed = 0;
-  for (let k = 0; k < samples; k++) {
-    const m = pointMargin(levels, k * n, model.band, plan.limits, targetDb);
+  for (let k = 0; k < samples; k += 2) {
+    const two = k + 1 < samples;
+    boardLevels(model, tolerances, draws, k, two, scratch);
+    const m = pointMargin(scratch.level0, 0, model.band, plan.limits, targetDb);
     marginDb[k] = m;
     if (m >= 0) passed++;
+    if (two) {
+      const m1 = pointMargin(scratch.level1, 0, model.band, plan.limits, targetDb);
+      marginDb[k + 1] = m1;
+      if (m1 >= 0) passed++;
+    }
   }
   return {
     fraction: passed / samples,
