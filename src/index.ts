@@ -69,6 +69,7 @@ export {
   type StageFigures,
   type StageErrors,
   type FamilyCandidate,
+  type FamilyBuilt,
   type FamilyChoice,
   type Feasibility,
   type NeededOrder,

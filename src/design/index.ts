@@ -43,6 +43,7 @@ export type {
   StagePredistortion,
   StageErrors,
   FamilyCandidate,
+  FamilyBuilt,
   FamilyChoice,
   Feasibility,
   NeededOrder,
@@ -55,6 +56,7 @@ export type {
   OpampPeak,
   Headroom,
   HeadroomOpamp,
+  DynamicRange,
   BoardYield,
   YieldAlternative,
 } from "./types.ts";

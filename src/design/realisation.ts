@@ -409,6 +409,12 @@ export function chooseRealisation(cascade: DesignResult, requested: "active-ladd
     });
   }
   const k = c.candidates[c.chosen] as RealisationCandidate;
+  const own = cascade.verification.yield;
+  // The cascade's tighter parts, where its design allocated them, are another way to the target: say so.
+  const tighter =
+    k.realisation === "active-ladder" && own.met && !(c.candidates[0] as RealisationCandidate).meetsTarget
+      ? ` The cascade meets the target too, but only with the tighter parts its design allocated (${pc(own.fraction)} of ${own.boards} boards at ${pc(own.resistorTolerances[0] ?? s.resistorTolerance)} R / ${pc(own.capacitorTolerances[0] ?? s.capacitorTolerance)} C for its tightest parts: verification.yield).`
+      : "";
   // The cascade's own verdict stands when it is chosen (its boards at the parts' allocated tolerances).
-  return { requested, ...c, boardsMeetSpec: k.realisation === "cascade" ? cascade.verification.boardsMeetSpec : k.nominalMarginDb >= 0 && k.meetsTarget };
+  return { requested, ...c, reason: `${c.reason}${tighter}`, boardsMeetSpec: k.realisation === "cascade" ? cascade.verification.boardsMeetSpec : k.nominalMarginDb >= 0 && k.meetsTarget };
 }

@@ -2,10 +2,10 @@
  * Design for yield across families: when the boards of the family the
  * choice made cannot reach the yield target and the spec leaves the family
  * to the pipeline, the families the op-amp recount already built
- * (src/design/family-recount.ts; their searches reused) are designed for
- * yield and the one reaching the target with the fewest op-amps kept; when
- * none does, the next candidates of the choice (fewest op-amps first), the
- * first that reaches it kept, else the closest.
+ * (src/design/family-recount.ts; their searches reused, fewest op-amps
+ * first), then the next candidates of the choice (fewest op-amps first), are
+ * designed for yield in turn: the first that reaches the target is kept,
+ * else the closest.
  *
  * @module
  */
@@ -15,7 +15,7 @@ import { rankedOpamps, type FamilySearch } from "./family-recount.ts";
 import { orderRange, searchDesign } from "./recovery.ts";
 import type { DesignSpec } from "./spec.ts";
 import type { DesignAction, FamilyChoice } from "./types.ts";
-import { classText, designForYield, opampCount, reported, yieldText, type YieldOutcome } from "./yield.ts";
+import { classText, designForYield, reported, yieldText, type YieldOutcome } from "./yield.ts";
 
 /** Most other families tried when the chosen one cannot reach the yield target. */
 const OTHER_FAMILIES = 2;
@@ -46,26 +46,23 @@ export function designForYieldAcrossFamilies(
     .slice(0, OTHER_FAMILIES);
   const candidates = [...outcome.candidates];
   let kept: YieldOutcome & { readonly family: FamilyName } = { ...outcome, family: first.family };
-  // the families already built (searches reused) first, the one meeting the target with the fewest
-  // op-amps kept; then, when none does, the best ranked of the rest, the first to meet it kept
+  // the families already built (searches reused, fewest op-amps first), then the best ranked of the rest;
+  // the first to meet the target is kept (trying every one for the fewest op-amps cost 14 % more design time
+  // on the corpus for designs whose nominal op-amp order held)
   for (const c of [...built, ...others]) {
     const reused = "nominal" in c;
-    if (!reused && kept.chosen.estimate.met) break;
     const orders = reused ? c.orders : orderRange(spec, c.order);
     const nominal = reused ? c.nominal : searchDesign(spec, c.family, orders);
     if (!meetsSpec(spec, nominal.attempt)) continue;
     const o = designForYield(spec, c.family, orders, nominal);
     candidates.push(...o.candidates);
-    const met = o.chosen.estimate.met;
-    const better = kept.chosen.estimate.met
-      ? met && opampCount(o.chosen.attempt) < opampCount(kept.chosen.attempt)
-      : met || o.chosen.estimate.lower95 > kept.chosen.estimate.lower95;
-    if (better) {
+    if (o.chosen.estimate.met || o.chosen.estimate.lower95 > kept.chosen.estimate.lower95) {
       const action: DesignAction = {
         code: "changed-family-for-yield",
         message: `${first.family} boards could not reach the yield target (best ${yieldText(outcome.chosen.estimate)}); ${c.family} ${o.chosen.estimate.met ? "does" : "comes closer"}: ${yieldText(o.chosen.estimate)} at ${classText(o.chosen.classes)}.`,
       };
       kept = { chosen: o.chosen, candidates, actions: [...nominal.actions, ...o.actions, action], family: c.family };
+      if (o.chosen.estimate.met) break;
     }
   }
   return { ...reported(spec, { ...kept, candidates }), family: kept.family };

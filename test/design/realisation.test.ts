@@ -113,6 +113,22 @@ describe("designFilter({ realisation })", () => {
     expect(k.nominalMarginDb).toBeGreaterThan(0);
   });
 
+  it('"auto" says when the cascade reaches the target only with the tighter parts its design allocated', () => {
+    // tolerances left to the design: the cascade tightens its parts to reach the target, the ladders are compared
+    // at the spec's default classes (1 % resistors, 5 % capacitors)
+    const { parts: _, ...loose } = SHARP_LOWPASS;
+    const r = designFilter({ ...loose, yieldTarget: 0.2, yieldCheck: BOARDS, realisation: "auto" });
+    const own = r.realisation;
+    // at 1 % / 5 % only the leapfrog ladder meets 20 % (the cascade about 0.4 %); the cascade's design reaches it
+    // with 0.25 % resistors and 1 % capacitors where it needs them
+    expect(chosenOf(r).method).toBe("leapfrog");
+    expect(own?.candidates[0]?.meetsTarget).toBe(false);
+    expect(r.verification.yield.met).toBe(true);
+    expect(own?.reason).toContain("The cascade meets the target too, but only with the tighter parts its design allocated");
+    expect(own?.reason).toContain(`${Number((r.verification.yield.capacitorTolerances[0]! * 100).toPrecision(3))} % C`);
+    expect(own?.tolerances).toEqual({ resistor: r.spec.resistorTolerance, capacitor: r.spec.capacitorTolerance });
+  });
+
   it('"active-ladder" chooses among the ladders only (the cascade listed for comparison)', () => {
     const own = ladderOnly.realisation;
     expect(own?.requested).toBe("active-ladder");
