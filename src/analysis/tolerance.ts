@@ -21,6 +21,7 @@ import { InvalidArgumentError, SingularCircuitError } from "../errors.ts";
 import { requireInRange, requireInteger, requireOneOf, requireOptions } from "../validate.ts";
 import type { DesignResult } from "../design/index.ts";
 import { requireDesignResult } from "../design/check.ts";
+import { finiteSorted, medianOfSorted } from "../math/order-statistics.ts";
 import { resultBoardStages, type ResultBoardStages, type ToleranceFractions } from "../design/realisation.ts";
 import { runBoards, type BoardRun, type BoardStage, type PartDistribution } from "../evaluate/boards.ts";
 import { checkpoint, checkRunControl, watched, type RunControl } from "../evaluate/progress.ts";
@@ -114,7 +115,7 @@ export interface MonteCarloResult {
  * @throws {@link SingularCircuitError} when no board has a finite figure (every board's circuit singular)
  */
 export function spread(xs: Float64Array, fn = "monteCarlo", figure = "marginDb"): Spread {
-  const s = xs.filter((x) => Number.isFinite(x)).sort();
+  const s = finiteSorted(xs);
   if (s.length === 0) {
     throw new SingularCircuitError(
       {
@@ -125,9 +126,7 @@ export function spread(xs: Float64Array, fn = "monteCarlo", figure = "marginDb")
       [],
     );
   }
-  const m = s.length >> 1;
-  const median = s.length % 2 === 1 ? (s[m] as number) : ((s[m - 1] as number) + (s[m] as number)) / 2;
-  return { min: s[0] as number, median, max: s[s.length - 1] as number };
+  return { min: s[0] as number, median: medianOfSorted(s), max: s[s.length - 1] as number };
 }
 
 /** The options of a Monte Carlo run, checked, with their defaults filled in. */

@@ -5,7 +5,8 @@
  *
  * @module
  */
-import type { DesignRealisation, DesignResult, RealisationCandidate } from "../design/index.ts";
+import type { DesignRealisation, DesignResult } from "../design/index.ts";
+import { chosenActiveLadder } from "../design/realisation.ts";
 import { DESIGN_CAUTIONS } from "../report/index.ts";
 import { verdictLine } from "../design/verdict.ts";
 import { hertz } from "../design/text.ts";
@@ -103,21 +104,14 @@ export function formatSummary(r: DesignResult, extra: readonly string[] = []): s
   return `${out.join("\n")}\n`;
 }
 
-/** The chosen active ladder of a design, when its spec asked for one to be compared and one was chosen. */
-function chosenLadder(r: DesignResult): RealisationCandidate | undefined {
-  const own = r.realisation;
-  const k = own === undefined ? undefined : own.candidates[own.chosen];
-  return k !== undefined && k.realisation === "active-ladder" ? k : undefined;
-}
-
 /** Whether the boards that will be built work: the chosen active ladder's verdict, else the cascade's. */
 export function boardsWork(r: DesignResult): boolean {
-  return chosenLadder(r) === undefined ? r.verification.boardsMeetSpec : (r.realisation as DesignRealisation).boardsMeetSpec;
+  return chosenActiveLadder(r) === undefined ? r.verification.boardsMeetSpec : (r.realisation as DesignRealisation).boardsMeetSpec;
 }
 
 /** The words that say a chosen active ladder is what the verdict is of (empty for the cascade). */
 export function realisedAs(r: DesignResult): string {
-  const k = chosenLadder(r);
+  const k = chosenActiveLadder(r);
   if (k === undefined) return "";
   const pc = (x: number): string => `${(x * 100).toFixed(1)} %`;
   return `realised as the ${k.method} active ladder (${k.opamps} op-amps), ${pc(k.yield)} of ${k.boards} boards meet the mask (95 % interval from ${pc(k.lower95)}), nominal margin ${k.nominalMarginDb.toFixed(3)} dB; the cascade below: `;

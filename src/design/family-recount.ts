@@ -20,18 +20,14 @@
 import type { FamilyName } from "../approx/index.ts";
 import { meetsSpec, type Attempt } from "./attempt.ts";
 import { orderRange, searchDesign, type OrderRange, type SearchOutcome } from "./recovery.ts";
+import { opampCount } from "./yield.ts";
 import type { DesignSpec } from "./spec.ts";
 import type { DesignAction, FamilyCandidate, FamilyChoice } from "./types.ts";
-
-/** The op-amps of an attempt's stages. */
-function opampsOf(a: Attempt): number {
-  return a.plans.reduce((k, p) => k + p.topology.opampCount, 0);
-}
 
 /** The choice with `family`'s candidate recording what its design took. */
 export function recordBuilt(choice: FamilyChoice, family: FamilyName, attempt: Attempt, meets: boolean): FamilyChoice {
   if (!choice.automatic) return choice;
-  const built = { opamps: opampsOf(attempt), order: attempt.proto.order, meetsSpec: meets };
+  const built = { opamps: opampCount(attempt), order: attempt.proto.order, meetsSpec: meets };
   return { ...choice, candidates: choice.candidates.map((c): FamilyCandidate => (c.family === family ? { ...c, built } : c)) };
 }
 
@@ -92,7 +88,7 @@ export function recountFamilies(
   let kept: Recounted = { ...first, choice: recordBuilt(choice, first.family, first.nominal.attempt, meets), actions: [], alsoBuilt: [] };
   const met: { search: FamilySearch; opamps: number }[] = [];
   if (!choice.automatic || spec.priority !== "fewest-op-amps") return kept;
-  const built = opampsOf(first.nominal.attempt);
+  const built = opampCount(first.nominal.attempt);
   const estimate = choice.candidates.find((c) => c.family === first.family)?.opamps ?? null;
   if (estimate === null || built <= estimate) return kept;
   const others = choice.candidates
@@ -108,7 +104,7 @@ export function recountFamilies(
     const nominal = searchDesign(spec, c.family, orders);
     const ok = meetsSpec(spec, nominal.attempt);
     const next = recordBuilt(kept.choice, c.family, nominal.attempt, ok);
-    const count = opampsOf(nominal.attempt);
+    const count = opampCount(nominal.attempt);
     if (ok) met.push({ search: { family: c.family, orders, nominal }, opamps: count });
     if (ok && count < best) {
       best = count;

@@ -33,7 +33,8 @@ import { BATCH, runBoards, type BoardStage, type PartDistribution } from "../eva
 import { circuitBoardStage } from "../evaluate/circuit-boards.ts";
 import type { MaskPlan } from "../evaluate/mask.ts";
 import { compileStage } from "../evaluate/stage-polynomials.ts";
-import { wilsonInterval } from "../evaluate/yield.ts";
+import { sequentialYield, wilsonInterval } from "../evaluate/yield.ts";
+import { finiteSorted, medianOfSorted } from "../math/order-statistics.ts";
 import { ladderPrototype } from "../ladder/ladder-prototype.ts";
 import type { LadderPrototype } from "../ladder/types.ts";
 import { fdnrLowpassLadder, gicHighpassLadder, leapfrogLowpassLadder } from "../ladder/active/index.ts";
@@ -158,21 +159,11 @@ function candidateBoards(stages: readonly BoardStage[], plan: MaskPlan, settings
     const run = runBoards(stages, plan, { boards: settings.runs, seed, distribution });
     return { boards: run.boards, passed: run.passed, marginDb: run.marginDb };
   }
-  const cap = Math.max(BATCH, Math.ceil(settings.runs / BATCH) * BATCH);
-  const margins: Float64Array[] = [];
-  let boards = 0;
-  let passed = 0;
-  while (boards < cap) {
-    const run = runBoards(stages, plan, { boards: BATCH, seed, distribution, firstBoard: boards });
-    boards += BATCH;
-    passed += run.passed;
-    margins.push(run.marginDb);
-    const [lower, upper] = wilsonInterval(passed, boards);
-    if (boards >= 2 * BATCH && (lower >= target || upper < target)) break;
-  }
-  const marginDb = new Float64Array(boards);
-  margins.forEach((m, i) => marginDb.set(m, i * BATCH));
-  return { boards, passed, marginDb };
+  const blocks: Float64Array[] = [];
+  const y = sequentialYield(stages, plan, { target, seed, distribution, maxBoards: settings.runs }, blocks);
+  const marginDb = new Float64Array(y.boards);
+  blocks.forEach((m, i) => marginDb.set(m, i * BATCH));
+  return { boards: y.boards, passed: y.passed, marginDb };
 }
 
 /** A design's boards as the board engine takes them. */
@@ -219,10 +210,8 @@ export function resultBoardStages(result: DesignResult, fixed: { readonly resist
 
 /** The median of the finite values, or null when there is none. */
 function finiteMedian(xs: Float64Array): number | null {
-  const s = xs.filter((x) => Number.isFinite(x)).sort();
-  if (s.length === 0) return null;
-  const m = s.length >> 1;
-  return s.length % 2 === 1 ? (s[m] as number) : ((s[m - 1] as number) + (s[m] as number)) / 2;
+  const s = finiteSorted(xs);
+  return s.length === 0 ? null : medianOfSorted(s);
 }
 
 /** The normalised ladder of the prototype the design placed (its family, order, design ripple and attenuation). */
@@ -417,4 +406,17 @@ export function chooseRealisation(cascade: DesignResult, requested: "active-ladd
       : "";
   // The cascade's own verdict stands when it is chosen (its boards at the parts' allocated tolerances).
   return { requested, ...c, reason: `${c.reason}${tighter}`, boardsMeetSpec: k.realisation === "cascade" ? cascade.verification.boardsMeetSpec : k.nominalMarginDb >= 0 && k.meetsTarget };
+}
+
+/**
+ * The active ladder a design chose (a spec's `realisation: "auto"` or
+ * `"active-ladder"`), or undefined when it keeps its cascade.
+ *
+ * @param result - a design
+ * @returns the chosen candidate when it is an active ladder
+ */
+export function chosenActiveLadder(result: DesignResult): RealisationCandidate | undefined {
+  const own = result.realisation;
+  const k = own === undefined ? undefined : own.candidates[own.chosen];
+  return k !== undefined && k.realisation === "active-ladder" ? k : undefined;
 }

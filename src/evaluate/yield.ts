@@ -90,9 +90,10 @@ export interface YieldEstimate {
  * @param stages - the board's stages (nominal values and per-part tolerances)
  * @param plan - the mask
  * @param options - target, seed, spread and the board limits
+ * @param margins - when given, receives each block's worst margins per board (dB), in order
  * @returns the yield, its interval and whether the target is met
  */
-export function sequentialYield(stages: readonly BoardStage[], plan: MaskPlan, options: SequentialYieldOptions): YieldEstimate {
+export function sequentialYield(stages: readonly BoardStage[], plan: MaskPlan, options: SequentialYieldOptions, margins?: Float64Array[]): YieldEstimate {
   const { target, seed, distribution } = options;
   const cap = Math.max(BATCH, Math.ceil(options.maxBoards / BATCH) * BATCH);
   const min = Math.min(cap, options.minBoards ?? 2 * BATCH);
@@ -106,6 +107,7 @@ export function sequentialYield(stages: readonly BoardStage[], plan: MaskPlan, o
     const run = runBoards(stages, plan, { boards: BATCH, seed, distribution, firstBoard: boards });
     boards += BATCH;
     passed += run.passed;
+    margins?.push(run.marginDb);
     unstable += run.unstable;
     [lower, upper] = wilsonInterval(passed, boards);
     if (boards >= min && (lower >= target || upper < target)) break;

@@ -6,6 +6,7 @@
  * @module
  */
 import { realisationLines, requireComparison } from "./realisation.ts";
+import { chosenActiveLadder } from "../design/realisation.ts";
 import type { RealisationComparison } from "../analysis/index.ts";
 import { formatValue } from "../units/index.ts";
 import type { DesignResult } from "../design/index.ts";
@@ -101,8 +102,8 @@ export function toMarkdown(result: DesignResult, options?: MarkdownOptions): str
   L.push(`# ${title} filter: ${result.family}, ${result.filterOrder} poles`, "");
   const pct = (x: number): string => `${Number((x * 100).toPrecision(3))} %`;
   const own = result.realisation;
-  const ladder = own === undefined ? undefined : own.candidates[own.chosen];
-  if (own !== undefined && ladder !== undefined && ladder.realisation === "active-ladder") {
+  const ladder = chosenActiveLadder(result);
+  if (own !== undefined && ladder !== undefined) {
     L.push(
       `**${own.boardsMeetSpec ? "Meets the spec" : "Does NOT meet the spec"}**: realised as the ${ladder.method} active ladder (${ladder.opamps} op-amps), whose nominal board has ${ladder.nominalMarginDb.toFixed(3)} dB of margin and whose boards meet the mask on ${pct(ladder.yield)} of ${ladder.boards} (95 % interval from ${pct(ladder.lower95)}, target ${pct(s.yieldTarget)}). ${own.reason} The netlist and BOM are of the ladder; the stages below are the biquad cascade it was compared with.`,
       "",

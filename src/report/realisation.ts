@@ -9,6 +9,7 @@
  */
 import { InvalidArgumentError } from "../errors.ts";
 import type { DesignResult } from "../design/index.ts";
+import { chosenActiveLadder } from "../design/realisation.ts";
 import type { RealisationCandidate, RealisationComparison } from "../analysis/index.ts";
 import type { ActiveLadder } from "../ladder/active/types.ts";
 
@@ -51,9 +52,9 @@ export function realisationOption(fn: string, options: unknown, result: DesignRe
     if (options !== undefined) throw new InvalidArgumentError({ fn, path: "options", received: options, message: "expected an options object (or nothing)" });
   }
   const r = options === undefined ? undefined : (options as { realisation?: unknown }).realisation;
-  const own = result.realisation;
-  const c = r === undefined ? (own === undefined ? undefined : own.candidates[own.chosen]) : requireCandidate(fn, r);
-  return c === undefined || c.realisation === "cascade" ? undefined : c;
+  if (r === undefined) return chosenActiveLadder(result);
+  const c = requireCandidate(fn, r);
+  return c.realisation === "cascade" ? undefined : c;
 }
 
 /** The netlist header lines of an active ladder. */

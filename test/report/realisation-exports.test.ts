@@ -9,7 +9,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { bomLines, compareRealisations, designFilter, InvalidArgumentError, toBomCsv, toMarkdown, toSpiceNetlist, type RealisationCandidate } from "../../src/index.ts";
 import { acAnalysis } from "../../src/circuit/index.ts";
-import { requireNgspice, runAc, assertNgspice } from "../helpers/ngspice.ts";
+import { requireNgspice, runAc, assertNgspice, worstDbGap } from "../helpers/ngspice.ts";
 import { thrownBy } from "../helpers/throws.ts";
 import { SHARP_LOWPASS } from "../helpers/sharp-lowpass.ts";
 
@@ -39,13 +39,7 @@ describe("toSpiceNetlist(result, { realisation })", () => {
     const sim = runAc(text, [l.output]);
     const ours = acAnalysis(l.circuit, { source: "Vin", outputs: [l.output], freqHz: sim.freqHz }).outputs[l.output] as { re: Float64Array; im: Float64Array };
     const theirs = sim.vectors[l.output.toLowerCase()] as { re: Float64Array; im: Float64Array };
-    let worst = 0;
-    for (let i = 0; i < sim.freqHz.length; i++) {
-      const b = Math.hypot(theirs.re[i] as number, theirs.im[i] as number);
-      if (20 * Math.log10(b) < -90) continue;
-      worst = Math.max(worst, Math.abs(20 * Math.log10(Math.hypot(ours.re[i] as number, ours.im[i] as number) / b)));
-    }
-    expect(worst).toBeLessThan(0.01);
+    expect(worstDbGap(ours, theirs, -90).worst).toBeLessThan(0.01);
     assertNgspice();
     const dir = mkdtempSync(join(tmpdir(), "fw-ladder-netlist-"));
     writeFileSync(join(dir, "l.cir"), text);
