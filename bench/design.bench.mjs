@@ -86,7 +86,7 @@ export const benchmarks = [
     note: "no scipy equivalent; the baseline of the next row",
   },
   {
-    name: "designFilter: the same lowpass with realisation auto (cascade, leapfrog and FDNR on 2048 boards each)",
+    name: "designFilter: the same lowpass with realisation auto (cascade, leapfrog and FDNR, each on boards until its interval decides, at most 2048)",
     fn: () => designFilter({ ...sharp, realisation: "auto" }),
     note: "no scipy equivalent; the comparison of realisations inside the design",
   },
