@@ -25,6 +25,7 @@ import type { Prototype } from "./family.ts";
 import type { SectionCascade } from "../tf/types.ts";
 import { intervalWidth, placeInInterval, prototypeInterval, transformPrototype, upHelpsPassband, type FeasibleInterval } from "./placement.ts";
 import { describeSections, peakGrid, planStages, windowGiven, type GainBounds, type SectionInfo, type StagePlan } from "./stages.ts";
+import { joinRealPole, THIRD_ORDER_IDS } from "./third-order.ts";
 import { tuneStage, type TunedStage, type ValueSet } from "./components.ts";
 import { predistortTarget, type PredistortionOutcome } from "./predistort.ts";
 import { internalLevels } from "./internal-level.ts";
@@ -310,21 +311,33 @@ function opampsOf(plans: readonly StagePlan[]): number {
   return n;
 }
 
-/** Plan each candidate cascade and keep the first one with the fewest op-amps (the usual pairing wins ties). */
+/**
+ * Plan each candidate cascade and keep the first one with the fewest op-amps
+ * (the usual pairing wins ties). With automatic topologies, each cascade is
+ * also tried with its real pole joined to a pole pair in one third-order
+ * stage (third-order.ts), unless `avoid` leaves those stages out.
+ */
 function chooseSplit(spec: DesignSpec, cascades: readonly SectionCascade[], avoid: ReadonlySet<string> | undefined, gainBounds: GainBounds = "any"): { grid: Float64Array; exactPlans: readonly StagePlan[] } {
   let best: { grid: Float64Array; exactPlans: readonly StagePlan[]; opamps: number } | null = null;
+  const auto = spec.topology === "auto" && spec.stageTopologies.length === 0;
+  // a spec naming a third-order stage gets the joined sections only
+  const named = [spec.topology, ...spec.stageTopologies].some((id) => THIRD_ORDER_IDS.includes(id));
+  const joinable = named || (auto && !THIRD_ORDER_IDS.some((id) => avoid?.has(id) === true));
   for (const [k, cascade] of cascades.entries()) {
     const grid = peakGrid(cascade);
-    const infos = describeSections(cascade, grid);
-    let plans: readonly StagePlan[];
-    try {
-      plans = planStages(spec, infos, { forced: requestedTopologies(spec, infos), gainBounds, ...(avoid === undefined ? {} : { avoid }) }).plans;
-    } catch (e) {
-      if (k === 0) throw e;
-      continue;
+    const usual = describeSections(cascade, grid);
+    const joined = joinable ? joinRealPole(usual) : null;
+    for (const infos of joined === null ? [usual] : named ? [joined] : [usual, joined]) {
+      let plans: readonly StagePlan[];
+      try {
+        plans = planStages(spec, infos, { forced: requestedTopologies(spec, infos), gainBounds, ...(avoid === undefined ? {} : { avoid }) }).plans;
+      } catch (e) {
+        if (k === 0 && (infos === usual || named)) throw e;
+        continue;
+      }
+      const opamps = opampsOf(plans);
+      if (best === null || opamps < best.opamps) best = { grid, exactPlans: plans, opamps };
     }
-    const opamps = opampsOf(plans);
-    if (best === null || opamps < best.opamps) best = { grid, exactPlans: plans, opamps };
   }
   return best as { grid: Float64Array; exactPlans: readonly StagePlan[] };
 }
@@ -339,7 +352,9 @@ const TRADED_KINDS: ReadonlySet<string> = new Set(["lowpass-notch", "highpass-no
  * pole Q and notch depth follow part ratios with sensitivities of order Q
  * or more; the multi-amplifier stages have sensitivities near 1; R. Schaumann
  * & M. E. Van Valkenburg, "Design of Analog Filters", 2001, ch. 3 and 4 on
- * sensitivity, from memory). Empty when there is nothing to trade.
+ * sensitivity, from memory), and every automatically chosen third-order
+ * stage (built again as a first-order and a second-order stage). Empty when
+ * there is nothing to trade.
  *
  * @param a - the attempt
  * @returns topology ids to avoid
@@ -347,6 +362,7 @@ const TRADED_KINDS: ReadonlySet<string> = new Set(["lowpass-notch", "highpass-no
 export function sturdierStagesOf(a: Attempt): ReadonlySet<string> {
   const out = new Set<string>();
   for (const p of a.plans) {
+    if (p.automatic && p.topology.order === 3) out.add(p.topology.id);
     if (!p.automatic || p.topology.order !== 2 || p.topology.opampCount !== 1) continue;
     if (TRADED_KINDS.has(p.info.kind) || (p.info.q ?? 0) > 2) out.add(p.topology.id);
   }

@@ -135,11 +135,12 @@ class Checker {
   }
 
   figures(path: string, v: unknown): void {
-    const f = this.obj(path, v, ["f0Hz", "q", "fzHz", "gain"]);
+    const f = this.obj(path, v, ["f0Hz", "q", "fzHz", "realPoleHz", "gain"]);
     this.num(`${path}.f0Hz`, f["f0Hz"], true);
     this.num(`${path}.gain`, f["gain"]);
     this.optNum(`${path}.q`, f["q"], true);
     this.optNum(`${path}.fzHz`, f["fzHz"], true);
+    this.optNum(`${path}.realPoleHz`, f["realPoleHz"], true);
   }
 
   errors(path: string, v: unknown): void {

@@ -88,8 +88,14 @@ export function compare(
 }
 
 /** The figures as a result stores them (only the fields that are set). */
-function stored(f: { f0Hz: number; q?: number; fzHz?: number; gain: number }): Record<string, number> {
-  return { f0Hz: f.f0Hz, ...(f.q === undefined ? {} : { q: f.q }), ...(f.fzHz === undefined ? {} : { fzHz: f.fzHz }), gain: f.gain };
+function stored(f: { f0Hz: number; q?: number; fzHz?: number; realPoleHz?: number; gain: number }): Record<string, number> {
+  return {
+    f0Hz: f.f0Hz,
+    ...(f.q === undefined ? {} : { q: f.q }),
+    ...(f.fzHz === undefined ? {} : { fzHz: f.fzHz }),
+    ...(f.realPoleHz === undefined ? {} : { realPoleHz: f.realPoleHz }),
+    gain: f.gain,
+  };
 }
 
 /**

@@ -85,6 +85,7 @@ function storedFigures(f: StageFigures): StageFigures {
     f0Hz: f.f0Hz,
     ...(f.q === undefined ? {} : { q: f.q }),
     ...(f.fzHz === undefined ? {} : { fzHz: f.fzHz }),
+    ...(f.realPoleHz === undefined ? {} : { realPoleHz: f.realPoleHz }),
     gain: f.gain,
   };
 }

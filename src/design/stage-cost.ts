@@ -1,6 +1,7 @@
 /**
  * How close a stage's values come to their target: the relative errors of
- * f0, Q, fz and gain, and the one ranking cost the component search and the
+ * f0, Q, fz and gain (a third-order stage's f0 error is the larger of its
+ * pole pair's and its real pole's), and the one ranking cost the component search and the
  * re-tuning use (the largest error plus a tenth of their sum, with the gain
  * error at half weight; common practice, no source). Where a topology reports
  * how far its zeros sit off the jw axis (`zeroDamping`, about 1/(2 Qz); a
@@ -41,11 +42,17 @@ export function rel(a: number | undefined, b: number | undefined): number {
   return Math.abs(a / b - 1);
 }
 
+/** The f0 error: the pole pair's, and for a third-order stage the larger of it and the real pole's. */
+function poleError(fig: StageFigures, target: StageTarget): number {
+  const e = rel(fig.f0Hz, target.f0Hz);
+  return target.realPoleHz === undefined ? e : Math.max(e, rel(fig.realPoleHz ?? NaN, target.realPoleHz));
+}
+
 /** Relative errors of figures against a target. */
 export function stageErrors(fig: StageFigures, target: StageTarget): StageErrors {
   return {
-    f0: rel(fig.f0Hz, target.f0Hz),
-    q: target.order === 2 ? rel(fig.q, target.q) : 0,
+    f0: poleError(fig, target),
+    q: target.order >= 2 ? rel(fig.q, target.q) : 0,
     fz: rel(fig.fzHz, target.fzHz) + (fig.zeroDamping ?? 0),
     gain: rel(fig.gain, target.gain),
   };
@@ -65,8 +72,8 @@ export function costOf(e: StageErrors): number {
 /** The cost of a set's figures against a target (the same arithmetic as `costOf(stageErrors(...))`), NaN when the figures are unusable. */
 export function figuresCost(fig: StageFigures, target: StageTarget): number {
   if (!Number.isFinite(fig.f0Hz) || !Number.isFinite(fig.gain)) return NaN;
-  const q = target.order === 2 ? rel(fig.q, target.q) : 0;
-  return cost4(rel(fig.f0Hz, target.f0Hz), q, rel(fig.fzHz, target.fzHz) + (fig.zeroDamping ?? 0), rel(fig.gain, target.gain));
+  const q = target.order >= 2 ? rel(fig.q, target.q) : 0;
+  return cost4(poleError(fig, target), q, rel(fig.fzHz, target.fzHz) + (fig.zeroDamping ?? 0), rel(fig.gain, target.gain));
 }
 
 /** The ideal figures of a topology's values: its unchecked core where it has one (values in the search are always positive). */

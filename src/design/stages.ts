@@ -55,16 +55,20 @@ import { boundedGain, BOUNDED_LEVEL_FLOOR } from "./bounded-gain.ts";
 
 /** One section of the target, described for the topology layer. */
 export interface SectionInfo {
-  /** The section itself (rad/s). */
+  /** The section itself (rad/s; a third-order stage's pole pair). */
   readonly section: Section;
+  /** A third-order stage's first-order section (rad/s), joined to `section` (third-order.ts). */
+  readonly realSection?: Section;
   /** Stage kind. */
   readonly kind: StageKind;
-  /** Order. */
-  readonly order: 1 | 2;
-  /** Pole frequency, Hz. */
+  /** Order (3: a real pole and a pole pair in one stage). */
+  readonly order: 1 | 2 | 3;
+  /** Pole frequency, Hz (a third-order stage's pole pair). */
   readonly f0Hz: number;
-  /** Pole Q (second order). */
+  /** Pole Q (second and third order). */
   readonly q?: number;
+  /** A third-order stage's real pole, Hz. */
+  readonly realPoleHz?: number;
   /** Zero frequency, Hz (notch kinds). */
   readonly fzHz?: number;
   /** The section's own gain at its reference frequency (signed). */
@@ -171,11 +175,12 @@ function maxOf(a: Float64Array): number {
   return m;
 }
 
-type TopologyClass = "sk-unity" | "sk-equal" | "sk-gain" | "mfb" | "enhanced" | "multi" | "first" | "other";
+type TopologyClass = "sk-unity" | "sk-equal" | "sk-gain" | "mfb" | "enhanced" | "multi" | "first" | "third" | "other";
 
 function classify(t: Topology): TopologyClass {
   const id = t.id;
   if (t.order === 1) return "first";
+  if (t.order === 3) return "third";
   if (t.opampCount >= 2) return "multi";
   if (id.includes("sallen-key")) {
     if (id.includes("unity")) return "sk-unity";
@@ -194,6 +199,7 @@ function baseTarget(info: SectionInfo, gain: number): StageTarget {
     f0Hz: info.f0Hz,
     ...(info.q === undefined ? {} : { q: info.q }),
     ...(info.fzHz === undefined ? {} : { fzHz: info.fzHz }),
+    ...(info.realPoleHz === undefined ? {} : { realPoleHz: info.realPoleHz }),
     gain,
   };
 }
@@ -262,7 +268,7 @@ function gainSetByCapacitor(t: Topology, info: SectionInfo, got: number): boolea
  * pushes high-Q sections to multi-amplifier stages.
  */
 function capacitorSpread(t: Topology, info: SectionInfo, got: number): number {
-  if (t.order !== 2 || t.opampCount !== 1) return 1;
+  if (t.order === 1 || t.opampCount !== 1) return 1;
   try {
     return capacitorSpreadOf(t.design(baseTarget(info, (t.inverting ? -1 : 1) * got), {}));
   } catch {
@@ -346,6 +352,10 @@ function score(t: Topology, info: SectionInfo, wish: number, got: number, last: 
     case "first":
       s += t.inverting ? 0.3 : 0;
       break;
+    case "third":
+      // as the second-order unity-gain stage: the pair's Q rides on positive feedback
+      s += q > 1 ? 2 * (q - 1) : 0;
+      break;
     default:
       s += 0.1;
   }
@@ -366,6 +376,7 @@ function describeReason(t: Topology, info: SectionInfo, automatic: boolean, got:
     enhanced: "higher-Q bandpass with one op-amp, Q enhanced by positive feedback (more sensitive to the parts than the multi-amplifier stages)",
     multi: "high Q or finite zeros: a multi-amplifier stage with independent f0 and Q and no large capacitor spread",
     first: "first-order section",
+    third: "a real pole and a low-Q pole pair in one stage: one op-amp where a first-order and a second-order stage take two",
     other: "best-scoring realisable topology",
   };
   return `${q}${info.kind}: ${why[classify(t)]}${g}`;
@@ -476,7 +487,7 @@ function assign(spec: DesignSpec, infos: readonly SectionInfo[], forced: readonl
     const best = pickTopology(spec, pool, info, wish, last, true, boundedGains) ?? pickTopology(spec, pool, info, wish, last, false, boundedGains);
     if (best === null) {
       return choice === "auto"
-        ? `no topology in the registry realises a ${info.order === 2 ? "second" : "first"}-order ${info.kind} stage (f0 ${info.f0Hz.toPrecision(4)} Hz${info.q === undefined ? "" : `, Q ${info.q.toPrecision(4)}`})`
+        ? `no topology in the registry realises a ${info.order === 3 ? "third" : info.order === 2 ? "second" : "first"}-order ${info.kind} stage (f0 ${info.f0Hz.toPrecision(4)} Hz${info.q === undefined ? "" : `, Q ${info.q.toPrecision(4)}`})`
         : `topology "${choice}" cannot realise stage ${i + 1}, a ${info.kind} section (f0 ${info.f0Hz.toPrecision(4)} Hz${info.q === undefined ? "" : `, Q ${info.q.toPrecision(4)}`})`;
     }
     const sign = best.t.inverting ? -1 : 1;

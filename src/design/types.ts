@@ -16,7 +16,7 @@ import type { DesignSpec, FamilyPriority } from "./spec.ts";
 
 /** Relative errors of the as-built figures against the target (0.01 = 1 %). */
 export interface StageErrors {
-  /** |f0 as built / f0 target - 1|. */
+  /** |f0 as built / f0 target - 1| (for a third-order stage, the larger of the pole pair's and the real pole's). */
   readonly f0: number;
   /** |Q as built / Q target - 1| (0 for first order). */
   readonly q: number;
@@ -38,8 +38,8 @@ export interface DesignStage {
   readonly topologyReason: string;
   /** What the stage realises. */
   readonly kind: StageKind;
-  /** Stage order (1 or 2). */
-  readonly order: 1 | 2;
+  /** Stage order (1, 2, or 3 for a real pole and a pole pair in one stage). */
+  readonly order: 1 | 2 | 3;
   /** Component values in SI units keyed by reference designator, unique across the cascade (`R1`, `C3`, ...). */
   readonly components: Readonly<Record<string, number>>;
   /** The topology's own name for each designator (`{ R3: "R1" }`), for reading its schematic. */

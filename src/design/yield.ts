@@ -47,6 +47,7 @@
  *
  * @module
  */
+import { THIRD_ORDER_IDS } from "./third-order.ts";
 import type { FamilyName } from "../approx/index.ts";
 import { BATCH, type BoardStage } from "../evaluate/boards.ts";
 import { compileStage } from "../evaluate/stage-polynomials.ts";
@@ -426,6 +427,17 @@ function plainGainsVariants(spec: DesignSpec, base: Attempt): { attempt: Attempt
  * each re-tuned to the mask; those that meet it (none when there is nothing
  * to trade).
  */
+/** What a sturdier variant changed, for the action's message. */
+function sturdierChange(avoid: ReadonlySet<string>): string {
+  const third = [...avoid].filter((id) => THIRD_ORDER_IDS.includes(id));
+  const rest = [...avoid].filter((id) => !THIRD_ORDER_IDS.includes(id));
+  const parts = [
+    ...(rest.length > 0 ? [`multi-amplifier stages instead of ${rest.map((id) => `"${id}"`).join(", ")}`] : []),
+    ...(third.length > 0 ? [`a first-order and a second-order stage instead of ${third.map((id) => `"${id}"`).join(", ")}`] : []),
+  ];
+  return parts.join(" and ");
+}
+
 function sturdierVariants(spec: DesignSpec, base: Attempt): { attempt: Attempt; change: string }[] {
   const all = sturdierStagesOf(base);
   if (all.size === 0) return [];
@@ -437,7 +449,7 @@ function sturdierVariants(spec: DesignSpec, base: Attempt): { attempt: Attempt; 
   for (const avoid of sets) {
     const a = retuneToMask(spec, buildAttempt(spec, placed, { position: base.position, wide: false, avoid, gainBounds: base.gainBounds }));
     if (!meetsSpec(spec, a)) continue;
-    out.push({ attempt: a, change: `multi-amplifier stages instead of ${[...avoid].map((id) => `"${id}"`).join(", ")}` });
+    out.push({ attempt: a, change: sturdierChange(avoid) });
   }
   return out;
 }

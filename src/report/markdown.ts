@@ -146,7 +146,7 @@ export function toMarkdown(result: DesignResult, options?: MarkdownOptions): str
     const f0w = withOpamp ? ` ${w === undefined ? "–" : f3(w.f0Hz)} |` : "";
     const qw = withOpamp ? ` ${w?.q === undefined ? "–" : n4(w.q)} |` : "";
     L.push(
-      `| ${st.index} | ${st.topologyName} | ${st.kind} | ${f3(st.target.f0Hz)} | ${f3(st.asBuilt.f0Hz)} |${f0w} ${st.target.q === undefined ? "–" : n4(st.target.q)} | ${st.asBuilt.q === undefined ? "–" : n4(st.asBuilt.q)} |${qw} ${n4(st.target.gain)} | ${n4(st.asBuilt.gain)} | ${dB(20 * Math.log10(st.peakGain), 2)} at ${f3(st.peakHz)} | ${f3(st.gbwDemandHz)} |`,
+      `| ${st.index} | ${st.topologyName} | ${st.kind}${st.order === 3 ? " (third order)" : ""} | ${f3(st.target.f0Hz)} | ${f3(st.asBuilt.f0Hz)} |${f0w} ${st.target.q === undefined ? "–" : n4(st.target.q)} | ${st.asBuilt.q === undefined ? "–" : n4(st.asBuilt.q)} |${qw} ${n4(st.target.gain)} | ${n4(st.asBuilt.gain)} | ${dB(20 * Math.log10(st.peakGain), 2)} at ${f3(st.peakHz)} | ${f3(st.gbwDemandHz)} |`,
     );
   }
   if (withOpamp) {
@@ -166,8 +166,12 @@ export function toMarkdown(result: DesignResult, options?: MarkdownOptions): str
       pd === undefined || w === undefined
         ? ""
         : ` Pre-distorted for the op-amp's gain-bandwidth (design f0 x${n4(pd.f0Factor)}, Q x${n4(pd.qFactor)}${pd.gainFactor === 1 ? "" : `, gain x${n4(pd.gainFactor)}`}); with the op-amp: f0 error ${pct(Math.abs(w.f0Hz / st.target.f0Hz - 1))}${w.q === undefined || st.target.q === undefined ? "" : `, Q error ${pct(Math.abs(w.q / st.target.q - 1))}`}.`;
+    const realPole =
+      st.target.realPoleHz === undefined || st.asBuilt.realPoleHz === undefined
+        ? ""
+        : ` Real pole: target ${f3(st.target.realPoleHz)}, as built ${f3(st.asBuilt.realPoleHz)} (the f0 error is the larger of the pair's and the real pole's).`;
     L.push(
-      `- Stage ${st.index} (${st.topology}; ${st.topologyReason}): ${parts}; ${st.opamps.join(", ")}. f0 error ${pct(st.errors.f0)} (plain rounding: ${pct(st.plainSnapErrors.f0)}), Q error ${pct(st.errors.q)} (plain rounding: ${pct(st.plainSnapErrors.q)}).${real}`,
+      `- Stage ${st.index} (${st.topology}; ${st.topologyReason}): ${parts}; ${st.opamps.join(", ")}.${realPole} f0 error ${pct(st.errors.f0)} (plain rounding: ${pct(st.plainSnapErrors.f0)}), Q error ${pct(st.errors.q)} (plain rounding: ${pct(st.plainSnapErrors.q)}).${real}`,
     );
   }
   L.push("");

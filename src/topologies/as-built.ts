@@ -28,7 +28,8 @@
  * design loop asks for the same targets again. A first-order stage has no Q, and its op-amp adds a pole rather
  * than moving the stage's own, so there the criterion is on the response at
  * f0: `|H(j w0)/H_ideal(j w0) - 1|` may not exceed what a 1 % shift of f0
- * would cause (about 0.70 %).
+ * would cause (about 0.70 %). A third-order stage is judged by its pole pair
+ * (f0 and Q within 1 %), the pole the op-amp moves most.
  *
  * @module
  */
@@ -69,6 +70,17 @@ export interface AsBuiltPole {
   readonly f0Hz: number;
   /** Pole Q `|p| / (-2 Re p)` (second-order stages only; negative means unstable). */
   readonly q?: number;
+}
+
+/**
+ * The pole order the pole searches look for in a stage of this order: a
+ * third-order stage's pole pair (its real pole moves less with the op-amp and
+ * is not reported), else the stage's own.
+ *
+ * @internal
+ */
+export function poleOrderOf(order: 1 | 2 | 3): 1 | 2 {
+  return order === 1 ? 1 : 2;
 }
 
 /** Ideal poles of a target: one real pole (first order), the upper-half-plane pole of a complex pair, or two real poles (Q <= 1/2). */
@@ -184,7 +196,7 @@ export interface GbwDemandStage {
   /** Topology id (names the function in errors). */
   readonly id: string;
   /** Stage order. */
-  readonly order: 1 | 2;
+  readonly order: 1 | 2 | 3;
   /** Ideal figures from values. */
   readonly figures: (v: ComponentValues) => StageFigures;
   /** Closed-form response (used for first-order stages). */
@@ -230,7 +242,8 @@ export function gbwDemand(
       return Math.hypot(r.re - 1, r.im) <= FIRST_ORDER_DEVIATION;
     }
     const model: OpAmpModel = { kind: "single-pole", a0: GBW_DEMAND_A0, gbwHz };
-    const p = stage.pole !== undefined ? stage.pole(v, model, stage.order, ideal) : circuitPole(stage.circuit(v, model), stage.order, ideal);
+    const order = poleOrderOf(stage.order);
+    const p = stage.pole !== undefined ? stage.pole(v, model, order, ideal) : circuitPole(stage.circuit(v, model), order, ideal);
     if (p === null) return false;
     if (Math.abs(p.f0Hz / ideal.f0Hz - 1) > 0.01) return false;
     if (ideal.q !== undefined && (p.q === undefined || Math.abs(p.q / ideal.q - 1) > 0.01)) return false;
@@ -285,7 +298,7 @@ export function asBuiltPole(topology: Topology, values: ComponentValues, opamp: 
   // Validates the model and the values the way the circuit path needs them (throws the typed errors).
   const circuit = checkCircuit(fn, { title: topology.name, elements: stageElements(topology, values, opamp) });
   const ideal = topology.figures(values);
-  const p = polynomialStagePole(topology, values, opamp, ideal) ?? circuitPole(circuit, topology.order, ideal);
+  const p = polynomialStagePole(topology, values, opamp, ideal) ?? circuitPole(circuit, poleOrderOf(topology.order), ideal);
   if (p === null || !Number.isFinite(p.f0Hz) || (p.q !== undefined && !Number.isFinite(p.q))) {
     throw new ConvergenceError({
       fn,
@@ -309,7 +322,7 @@ function polynomialStagePole(topology: Topology, values: ComponentValues, opamp:
   if (into === undefined || degree === undefined) return null;
   const x = new Float64Array(topology.componentNames.length);
   for (let i = 0; i < x.length; i++) x[i] = values[topology.componentNames[i] as string] as number;
-  return polynomialPole(into, degree, x, opamp, topology.order, ideal);
+  return polynomialPole(into, degree, x, opamp, poleOrderOf(topology.order), ideal);
 }
 
 /**
@@ -331,5 +344,5 @@ export function stagePole(topology: Topology, values: ComponentValues, opamp: Op
   const ideal = topology.figures(values);
   const p = polynomialStagePole(topology, values, opamp, ideal);
   if (p !== null) return p;
-  return circuitPole({ title: topology.name, elements: stageElements(topology, values, opamp) }, topology.order, ideal);
+  return circuitPole({ title: topology.name, elements: stageElements(topology, values, opamp) }, poleOrderOf(topology.order), ideal);
 }

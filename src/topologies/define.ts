@@ -46,7 +46,7 @@ const DEMAND_CACHE_SIZE = 4096;
 
 /** A target as a key: every field the demand depends on, in a fixed order. */
 function targetKey(t: StageTarget): string {
-  return `${t.order} ${t.kind} ${t.f0Hz} ${t.q} ${t.fzHz} ${t.gain}`;
+  return `${t.order} ${t.kind} ${t.f0Hz} ${t.q} ${t.fzHz} ${t.realPoleHz} ${t.gain}`;
 }
 
 /**
@@ -165,7 +165,7 @@ export function checkShape(fn: string, spec: TopologySpec, t: StageTarget, c: St
 
 /** The target half of {@link checkShape}; `withGain` false for a target whose gain the topology fixes. */
 function checkTarget(fn: string, spec: TopologySpec, t: Omit<StageTarget, "gain"> & { readonly gain?: number }, withGain: boolean): void {
-  if (t === null || typeof t !== "object") bad(fn, "target", t, "expected a stage target { order, kind, f0Hz, q, gain }");
+  if (t === null || typeof t !== "object") bad(fn, "target", t, `expected a stage target { order, kind, f0Hz, ${spec.order === 3 ? "q, realPoleHz, " : spec.order === 2 ? "q, " : ""}gain }`);
   if (t.order !== spec.order) {
     bad(fn, "target.order", t.order, `${spec.name} builds order-${spec.order} stages; choose a topology of order ${t.order}`);
   }
@@ -173,7 +173,8 @@ function checkTarget(fn: string, spec: TopologySpec, t: Omit<StageTarget, "gain"
     bad(fn, "target.kind", t.kind, `${spec.name} realises ${spec.kinds.map((k) => `"${k}"`).join(", ")}; choose a topology for "${t.kind}"`);
   }
   requirePositive(fn, "target.f0Hz", t.f0Hz);
-  if (spec.order === 2) requirePositive(fn, "target.q", t.q);
+  if (spec.order >= 2) requirePositive(fn, "target.q", t.q);
+  if (spec.order === 3) requirePositive(fn, "target.realPoleHz", t.realPoleHz);
   if (withGain && (typeof t.gain !== "number" || !Number.isFinite(t.gain) || t.gain === 0)) {
     bad(fn, "target.gain", t.gain, "expected a finite, non-zero gain (V/V, sign included)");
   }

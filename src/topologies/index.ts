@@ -20,6 +20,7 @@ export { DEFAULT_LEVEL_OHMS } from "./define.ts";
 export { GBW_DEMAND_A0, asBuiltPole, type AsBuiltPole } from "./as-built.ts";
 export * from "./first-order.ts";
 export * from "./sallen-key.ts";
+export * from "./sallen-key-third.ts";
 export * from "./multiple-feedback.ts";
 export * from "./state-variable.ts";
 export * from "./tow-thomas.ts";

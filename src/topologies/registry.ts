@@ -15,12 +15,14 @@ import { sallenKeyTopologies } from "./sallen-key.ts";
 import { stateVariableTopologies } from "./state-variable.ts";
 import { towThomasTopologies } from "./tow-thomas.ts";
 import { twinTTopologies } from "./twin-t.ts";
+import { thirdOrderTopologies } from "./sallen-key-third.ts";
 import type { StageKind, Topology } from "./types.ts";
 
 /** Every topology, first order first, then by family (each family file lists its own). */
 export const topologies: readonly Topology[] = Object.freeze([
   ...firstOrderTopologies,
   ...sallenKeyTopologies,
+  ...thirdOrderTopologies,
   ...multipleFeedbackTopologies,
   ...stateVariableTopologies,
   ...towThomasTopologies,
@@ -58,8 +60,8 @@ export function getTopology(id: string): Topology {
 export interface TopologyQuery {
   /** Section kind. */
   readonly kind: StageKind;
-  /** Section order. */
-  readonly order: 1 | 2;
+  /** Section order (3: a real pole and a pole pair in one stage). */
+  readonly order: 1 | 2 | 3;
 }
 
 /**
@@ -67,7 +69,7 @@ export interface TopologyQuery {
  *
  * @param query - kind and order
  * @returns the matching topologies (possibly none)
- * @throws {@link InvalidArgumentError} for an unknown kind or an order other than 1 or 2
+ * @throws {@link InvalidArgumentError} for an unknown kind or an order other than 1, 2 or 3
  * @example
  * ```ts
  * topologiesFor({ kind: "allpass", order: 2 }).map((t) => t.id);
@@ -84,8 +86,8 @@ export function topologiesFor(query: TopologyQuery): readonly Topology[] {
       message: `expected one of ${kinds.map((k) => `"${k}"`).join(", ")}`,
     });
   }
-  if (query.order !== 1 && query.order !== 2) {
-    throw new InvalidArgumentError({ fn: "topologiesFor", path: "query.order", received: query.order, message: "expected 1 or 2" });
+  if (query.order !== 1 && query.order !== 2 && query.order !== 3) {
+    throw new InvalidArgumentError({ fn: "topologiesFor", path: "query.order", received: query.order, message: "expected 1, 2 or 3" });
   }
   return topologies.filter((t) => t.order === query.order && t.kinds.includes(query.kind));
 }

@@ -61,7 +61,7 @@ export interface TopologySpec {
   /** See {@link Topology.name}. */
   readonly name: string;
   /** See {@link Topology.order}. */
-  readonly order: 1 | 2;
+  readonly order: 1 | 2 | 3;
   /** See {@link Topology.kinds}. */
   readonly kinds: readonly StageKind[];
   /** See {@link Topology.inverting}. */

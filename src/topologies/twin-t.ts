@@ -58,9 +58,8 @@
  * Q R/(g Q0) (0.085 R to 4.1 R); Q0 = 0.204.
  *
  * Figures of any values (ideal op-amp): the numerator's and the
- * denominator's real roots nearest to -m0/m1 are removed (cubic roots by the
- * trigonometric / Cardano formulas as in W. H. Press et al., "Numerical
- * Recipes", 2nd ed., 1992, sec. 5.6, from memory, polished by Newton steps);
+ * denominator's real roots nearest to -m0/m1 are removed (math/cubic.ts:
+ * trigonometric / Cardano formulas, polished by Newton steps);
  * f0 and Q are those of the remaining quadratic of the denominator and fz is
  * the modulus of the remaining zero pair. For unbalanced parts the notch is
  * no longer infinitely deep (the zero pair leaves the j-axis) and the removed
@@ -100,6 +99,7 @@ import { defineTopology } from "./define.ts";
 import { atLeast, indexedFigures, LIMIT_SLACK, type PartSpec } from "./spec.ts";
 import type { PolynomialCore } from "./kernels.ts";
 import { requireInRange } from "../validate.ts";
+import { nearestRealRoot } from "../math/cubic.ts";
 
 const REF =
   'bootstrapped twin-T: A. B. Williams & F. J. Taylor, "Electronic Filter Design Handbook", McGraw-Hill, band-reject filters; L. P. Huelsman & P. E. Allen, "Introduction to the Theory and Design of Active Filters", McGraw-Hill, 1980 (both from memory); exact loaded-divider design derived here by nodal analysis';
@@ -159,41 +159,6 @@ function networkInto(x: Float64Array, w: number, out: Float64Array): void {
   out[5] = c2 * (r1 + r2) + c3 * r1;
   out[6] = gt;
   out[7] = g5;
-}
-
-/**
- * The real root of `c3 u^3 + c2 u^2 + c1 u + c0` nearest to `near`
- * (trigonometric form for three real roots, Cardano's otherwise, then
- * Newton steps), for a cubic with c3 > 0.
- */
-function nearestRealRoot(c3: number, c2: number, c1: number, c0: number, near: number): number {
-  const a = c2 / c3;
-  const b = c1 / c3;
-  const c = c0 / c3;
-  const q = (a * a - 3 * b) / 9;
-  const r = (2 * a * a * a - 9 * a * b + 27 * c) / 54;
-  let root: number;
-  if (q > 0 && r * r < q * q * q) {
-    const theta = Math.acos(Math.max(-1, Math.min(1, r / Math.sqrt(q * q * q))));
-    const m = -2 * Math.sqrt(q);
-    root = m * Math.cos(theta / 3) - a / 3;
-    for (const t of [theta + TWO_PI, theta - TWO_PI]) {
-      const u = m * Math.cos(t / 3) - a / 3;
-      if (Math.abs(u - near) < Math.abs(root - near)) root = u;
-    }
-  } else {
-    const big = -Math.sign(r) * Math.cbrt(Math.abs(r) + Math.sqrt(r * r - q * q * q));
-    root = big + (big === 0 ? 0 : q / big) - a / 3;
-  }
-  for (let k = 0; k < 4; k++) {
-    const f = ((root + a) * root + b) * root + c;
-    const df = (3 * root + 2 * a) * root + b;
-    if (df === 0 || f === 0) break;
-    const step = f / df;
-    root -= step;
-    if (Math.abs(step) <= 1e-16 * Math.abs(root)) break;
-  }
-  return root;
 }
 
 /** Figures from the network's coefficients in `net` (s scaled by 1/(R1 C1)). */

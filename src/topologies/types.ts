@@ -11,7 +11,7 @@
  */
 import type { Element, OpAmpModel } from "../circuit/types.ts";
 
-/** Section kinds a stage can realise (first- or second-order). */
+/** Section kinds a stage can realise (first-, second- or third-order). */
 export type StageKind =
   | "lowpass"
   | "highpass"
@@ -29,16 +29,21 @@ export type StageKind =
  * highpass and highpass-notch, f0 for bandpass, DC (= HF) for notch and allpass.
  */
 export interface StageTarget {
-  /** Section order. */
-  readonly order: 1 | 2;
+  /**
+   * Section order: 1, 2, or 3 for a real pole and a pole pair built by one
+   * stage (third-order lowpass and highpass).
+   */
+  readonly order: 1 | 2 | 3;
   /** What the section does. */
   readonly kind: StageKind;
   /** Pole frequency in Hz. */
   readonly f0Hz: number;
-  /** Pole Q (second order only; ignored for first order). */
+  /** Pole Q (second and third order; ignored for first order). */
   readonly q?: number;
   /** Zero frequency in Hz, for notch kinds. */
   readonly fzHz?: number;
+  /** Frequency of the real pole in Hz (third order only; `f0Hz` and `q` are then the pole pair's). */
+  readonly realPoleHz?: number;
   /** Gain at the reference frequency (V/V, sign included). */
   readonly gain: number;
 }
@@ -63,12 +68,14 @@ export type ComponentValues = Readonly<Record<string, number>>;
 
 /** The figures that describe a built stage. */
 export interface StageFigures {
-  /** Pole frequency in Hz. */
+  /** Pole frequency in Hz (for a third-order stage, the pole pair's). */
   readonly f0Hz: number;
   /** Pole Q (for a first-order stage, 0.5 is never used: the field is absent). */
   readonly q?: number;
   /** Zero frequency in Hz, for notch kinds. */
   readonly fzHz?: number;
+  /** Frequency of the real pole in Hz (third-order stages only). */
+  readonly realPoleHz?: number;
   /** Gain at the reference frequency (V/V, sign included). */
   readonly gain: number;
   /**
@@ -132,7 +139,7 @@ export interface Topology {
   /** Human-readable name. */
   readonly name: string;
   /** Stage order it builds. */
-  readonly order: 1 | 2;
+  readonly order: 1 | 2 | 3;
   /** Kinds it can realise. */
   readonly kinds: readonly StageKind[];
   /** Whether the passband gain is negative (inverting). */

@@ -39,16 +39,20 @@ describe("designPolesZeros", () => {
     });
   }
 
-  it("gives each second-order stage's poles the f0 and Q the design reports as built (ideal op-amp)", () => {
+  it("gives each stage's poles the f0, Q and real pole the design reports as built (ideal op-amp)", () => {
     const r = designs["lowpass, ideal op-amp"];
     const pz = designPolesZeros(r);
     r.stages.forEach((st, k) => {
       const poles = (pz.stages[k] as (typeof pz.stages)[number]).poles;
       expect(poles).toHaveLength(st.order);
-      const p = poles[0] as { re: number; im: number };
+      const p = (st.order === 1 ? poles[0] : poles.find((x) => x.im > 0)) as { re: number; im: number };
       const w0 = Math.hypot(p.re, p.im);
       expect(w0 / TWO_PI / st.asBuilt.f0Hz).toBeCloseTo(1, 10);
-      if (st.order === 2) expect(w0 / (2 * -p.re) / (st.asBuilt.q as number)).toBeCloseTo(1, 10);
+      if (st.order >= 2) expect(w0 / (2 * -p.re) / (st.asBuilt.q as number)).toBeCloseTo(1, 10);
+      if (st.order === 3) {
+        const real = poles.find((x) => x.im === 0) as { re: number; im: number };
+        expect(-real.re / TWO_PI / (st.asBuilt.realPoleHz as number)).toBeCloseTo(1, 10);
+      }
     });
   });
 

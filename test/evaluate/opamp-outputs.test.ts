@@ -93,9 +93,12 @@ describe("opampOutputTransfers", () => {
           const { v, opamp } = board!;
           const f0 = c.design.target.f0Hz;
           const freqHz = Float64Array.from(c.freqs, (x) => f0 * 10 ** (1.5 * x));
-          const outs = opampOutputTransfers(topo, v, opamp, [2 * Math.PI * f0 * 1e-5, 2 * Math.PI * f0 * 1e5])!;
+          const outs = opampOutputTransfers(topo, v, opamp, [2 * Math.PI * f0 * 1e-5, 2 * Math.PI * f0 * 1e5]);
+          // null is the documented answer where the spot check over the span fails (the caller then samples by nodal
+          // analysis); every one of the 25 runs checked here has transfers
+          fc.pre(outs !== null);
           const refs = mnaAtOpamps(topo, v, freqHz, opamp);
-          outs.forEach((o, k) => {
+          outs!.forEach((o, k) => {
             if (o.node === "out") return; // the stage output is stagePolynomials' own, tested in stage-polynomials.test.ts
             const m = refs[k]!;
             const h = cascadeResponse([o.transfer], freqHz.map((f) => 2 * Math.PI * f));

@@ -1,6 +1,7 @@
 /**
  * fast-check generators of stage targets and choices for a topology, over a
- * wide range (f0 0.5 Hz .. 500 kHz, Q 0.3 .. 30, |gain| 0.1 .. 100), kept to
+ * wide range (f0 0.5 Hz .. 500 kHz, Q 0.3 .. 30, |gain| 0.1 .. 100, a third-order
+ * stage's real pole 0.2 .. 5 times f0), kept to
  * what the topology can realise by filtering through its own `check`.
  */
 import fc from "fast-check";
@@ -18,18 +19,21 @@ export function targetArb(topo: Topology): fc.Arbitrary<StageTarget> {
       q: logUniform(0.3, 30),
       gain: logUniform(0.1, 100),
       fzRatio: logUniform(1.02, 20),
+      realRatio: logUniform(0.2, 5),
     })
-    .map(({ kind, f0Hz, q, gain, fzRatio }) => {
+    .map(({ kind, f0Hz, q, gain, fzRatio, realRatio }) => {
       const fixed = (topo as Topology).fixedGain;
       let g = gain;
       if (topo.id.includes("unity") || topo.id.includes("buffer")) g = 1;
-      if (fixed !== undefined) g = fixed({ order: topo.order, kind, f0Hz, q });
+      const realPole = topo.order === 3 ? { realPoleHz: f0Hz * realRatio } : {};
+      if (fixed !== undefined) g = fixed({ order: topo.order, kind, f0Hz, q, ...realPole });
       if (topo.inverting) g = -g;
       const t: StageTarget = {
         order: topo.order,
         kind,
         f0Hz,
-        ...(topo.order === 2 ? { q } : {}),
+        ...(topo.order >= 2 ? { q } : {}),
+        ...realPole,
         gain: g,
         ...(kind === "lowpass-notch" ? { fzHz: f0Hz * fzRatio } : {}),
         ...(kind === "highpass-notch" ? { fzHz: f0Hz / fzRatio } : {}),
@@ -63,11 +67,18 @@ export function realisableArb(topo: Topology): fc.Arbitrary<{ target: StageTarge
 
 /**
  * One fixed target each topology realises (f0 2 kHz, Q 1.2, a gain it
- * accepts; Q 8 for the Deliyannis-Friend bandpass, which starts at Q 5).
+ * accepts; Q 8 for the Deliyannis-Friend bandpass, which starts at Q 5; a
+ * third-order stage's real pole at 1.5 kHz, with Q 0.9).
  */
 export function sampleTarget(t: Topology): StageTarget {
   const kind = t.kinds[0] as StageTarget["kind"];
-  const base = { order: t.order, kind, f0Hz: 2000, q: t.id === "deliyannis-friend-bandpass" ? 8 : 1.2 } as const;
+  const base = {
+    order: t.order,
+    kind,
+    f0Hz: 2000,
+    q: t.id === "deliyannis-friend-bandpass" ? 8 : t.order === 3 ? 0.9 : 1.2,
+    ...(t.order === 3 ? { realPoleHz: 1500 } : {}),
+  } as const;
   let gain = t.id.includes("unity") || t.id.includes("buffer") ? 1 : 2.5;
   if (t.id === "mfb-bandpass") gain = 3;
   // the single-amplifier notch sections have a bounded gain (HF gain below 1 for the highpass-notch)

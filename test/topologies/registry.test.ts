@@ -47,8 +47,9 @@ describe("topologiesFor", () => {
   it("filters by kind and order", () => {
     expect(topologiesFor({ kind: "allpass", order: 2 }).map((t) => t.id)).toEqual(["state-variable-allpass", "tow-thomas-allpass"]);
     expect(topologiesFor({ kind: "bandpass", order: 1 })).toEqual([]);
+    expect(topologiesFor({ kind: "lowpass", order: 3 }).map((t) => t.id)).toEqual(["sallen-key-lowpass-third-order"]);
     expect(() => topologiesFor({ kind: "bandstop" as StageKind, order: 2 })).toThrow(InvalidArgumentError);
-    expect(() => topologiesFor({ kind: "lowpass", order: 3 as 1 })).toThrow(/query\.order/);
+    expect(() => topologiesFor({ kind: "lowpass", order: 4 as 1 })).toThrow(/query\.order/);
   });
 });
 

@@ -88,7 +88,13 @@ describe("Topology.response at 0 Hz", () => {
       const kind = topo.kinds[0]!;
       const fixed = topo.fixedGain;
       // Q 6 for the Deliyannis-Friend bandpass, which starts at Q 5
-      const base = { order: topo.order, kind, f0Hz: 500, q: topo.id === "deliyannis-friend-bandpass" ? 6 : 1.5 } as const;
+      const base = {
+        order: topo.order,
+        kind,
+        f0Hz: 500,
+        q: topo.id === "deliyannis-friend-bandpass" ? 6 : 1.5,
+        ...(topo.order === 3 ? { realPoleHz: 400 } : {}),
+      } as const;
       let gain = topo.id.includes("unity") || topo.id.includes("buffer") ? 1 : 3;
       if (topo.id.startsWith("boctor-")) gain = kind === "highpass-notch" ? 0.8 : 1; // bounded gains (below 1 at HF for the highpass-notch)
       if (fixed !== undefined) gain = fixed(base);

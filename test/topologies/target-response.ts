@@ -1,6 +1,7 @@
 /**
  * The ideal section a stage target asks for, evaluated from its f0, Q, fz and
- * gain alone (no circuit involved), for checking designs against.
+ * gain alone (no circuit involved), for checking designs against; a
+ * third-order target is its real pole times its pole pair.
  */
 import type { StageTarget } from "../../src/topologies/types.ts";
 
@@ -13,6 +14,12 @@ export function targetResponse(t: StageTarget, fHz: number): { re: number; im: n
     const d = b[0] * b[0] + b[1] * b[1];
     return { re: (a[0] * b[0] + a[1] * b[1]) / d, im: (a[1] * b[0] - a[0] * b[1]) / d };
   };
+  if (t.order === 3) {
+    const { realPoleHz, ...pair } = t;
+    const p = targetResponse({ ...pair, order: 2 }, fHz);
+    const r = targetResponse({ order: 1, kind: t.kind, f0Hz: realPoleHz as number, gain: 1 }, fHz);
+    return { re: p.re * r.re - p.im * r.im, im: p.re * r.im + p.im * r.re };
+  }
   if (t.order === 1) {
     const den: [number, number] = [w0, w];
     if (t.kind === "lowpass") return div([k * w0, 0], den);
