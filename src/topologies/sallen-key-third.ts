@@ -317,6 +317,26 @@ export function thirdOrderLowpassMinRatio(target: StageTarget): number | null {
   return lowMinRatio(wanted(target));
 }
 
+/**
+ * The lowpass's ratio and resistors (w0 = 1): at the given ratio, or by
+ * default at 1.25 times the smallest one (nearer it where existence is not
+ * monotone in the ratio), or null when there is no design.
+ */
+function lowDesign(a: readonly [number, number, number], ratio: number | undefined): { m: number; r: [number, number, number] } | null {
+  if (ratio !== undefined) {
+    const r = lowResistors(a, 1 / ratio);
+    return r === null ? null : { m: ratio, r };
+  }
+  const min = lowMinRatio(a);
+  if (min === null) return null;
+  for (const f of [RATIO_MARGIN, 1.1, 1.02, 1]) {
+    const m = Math.min(THIRD_ORDER_MAX_RATIO, f * min);
+    const r = lowResistors(a, 1 / m);
+    if (r !== null) return { m, r };
+  }
+  return null;
+}
+
 /** The highpass's resistors for equal capacitors 1 (w0 = 1), the root with the least spread, or null. */
 function highResistors(a: readonly [number, number, number]): [number, number, number] | null {
   const [a1, a2, a3] = a;
@@ -348,7 +368,7 @@ function lowLimits(t: StageTarget, c: StageChoices): string | null {
   if (pair !== null) return pair;
   if (c.resistorRatio !== undefined) return "the third-order lowpass takes capacitorRatio (C1/C3, with C2 = C1), not resistorRatio; drop resistorRatio";
   const min = lowMinRatio(wanted(t));
-  if (min === null) {
+  if (min === null || (c.capacitorRatio === undefined && lowDesign(wanted(t), undefined) === null)) {
     return `a third-order single-amplifier lowpass at Q = ${t.q} with its real pole at ${t.realPoleHz} Hz needs a capacitor spread C1/C3 above ${THIRD_ORDER_MAX_RATIO}; build it as a first-order stage and a second-order stage`;
   }
   if (c.capacitorRatio !== undefined && (!atLeast(c.capacitorRatio, min) || lowResistors(wanted(t), 1 / c.capacitorRatio) === null)) {
@@ -361,9 +381,8 @@ function lowLimits(t: StageTarget, c: StageChoices): string | null {
 }
 
 function lowSolve(t: StageTarget, c: StageChoices): Record<string, number> {
-  const a = wanted(t);
-  const m = c.capacitorRatio ?? Math.min(THIRD_ORDER_MAX_RATIO, RATIO_MARGIN * (lowMinRatio(a) as number));
-  const r = lowResistors(a, 1 / m) ?? lowResistors(a, 1 / (lowMinRatio(a) as number)) ?? [NaN, NaN, NaN];
+  // `limits` has passed, so there is a design
+  const { m, r } = lowDesign(wanted(t), c.capacitorRatio) ?? { m: NaN, r: [NaN, NaN, NaN] };
   const w0 = TWO_PI * t.f0Hz;
   return { R1: r[0] / w0, R2: r[1] / w0, R3: r[2] / w0, C1: 1, C2: 1, C3: 1 / m };
 }
