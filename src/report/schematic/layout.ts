@@ -14,6 +14,7 @@ import { sheetLabelBoxes } from "./render.ts";
 import { GRID, opampPins, type Point, type Sheet } from "./sheet.ts";
 import { multipleFeedbackSheet } from "./templates/multiple-feedback.ts";
 import { sallenKeySheet } from "./templates/sallen-key.ts";
+import { sallenKeyThirdSheet } from "./templates/sallen-key-third.ts";
 import { stateVariableSheet } from "./templates/state-variable.ts";
 import { towThomasSheet } from "./templates/tow-thomas.ts";
 
@@ -31,6 +32,7 @@ export const SCHEMATIC_TEMPLATES: readonly SchematicTemplate[] = [
     ids: ["sallen-key-lowpass-unity", "sallen-key-lowpass-equal", "sallen-key-lowpass-gain", "sallen-key-highpass-unity", "sallen-key-highpass-equal", "sallen-key-highpass-gain"],
     sheet: sallenKeySheet,
   },
+  { ids: ["sallen-key-lowpass-third-order", "sallen-key-highpass-third-order"], sheet: sallenKeyThirdSheet },
   { ids: ["mfb-lowpass", "mfb-highpass", "mfb-bandpass", "mfb-bandpass-attenuated"], sheet: multipleFeedbackSheet },
   { ids: ["state-variable-lowpass", "state-variable-highpass", "state-variable-bandpass"], sheet: stateVariableSheet },
   { ids: ["tow-thomas-lowpass", "tow-thomas-bandpass"], sheet: towThomasSheet },
