@@ -72,6 +72,17 @@ describe("third-order stages in the design", () => {
     if (chosen?.built !== undefined) expect(chosen.built.opamps).toBe(opampsOf(r));
   });
 
+  it("where the third-order stage's boards miss the yield target, the yield ladder builds it again as a first-order and a second-order stage, and says so", () => {
+    // a seventh-order Butterworth: its lowest-Q pair joined to the real pole misses at every class the ladder tries
+    const r = designFilter({ ...geophone, order: undefined, stopband: { edgeHz: 250, minAttenuationDb: 45 } } as FilterSpec);
+    expect(r.order).toBe(7);
+    const sturdier = r.actions.find((a) => a.code === "sturdier-stages");
+    expect(sturdier?.message).toMatch(/a first-order and a second-order stage instead of "sallen-key-lowpass-third-order"/);
+    expect(r.stages.some((s) => s.order === 3)).toBe(false);
+    expect(r.stages.filter((s) => s.order === 1)).toHaveLength(1);
+    expect(r.verification.yield.met).toBe(true);
+  });
+
   it("a named third-order topology builds that stage; on an even order it is a SpecError naming the topology", () => {
     const r = designFilter({ ...geophone, order: 3, stopband: { edgeHz: 400, minAttenuationDb: 25 }, topology: "sallen-key-lowpass-third-order" });
     expect(r.stages.map((s) => s.topology)).toEqual(["sallen-key-lowpass-third-order"]);
