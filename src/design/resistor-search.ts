@@ -150,7 +150,7 @@ export function addToBound(bound: SearchBound, sets: readonly ValueSet[]): void 
  * least `floor`, so the descent takes the path it would have taken, and the
  * set could not rank where the caller looks (see {@link SearchBound}).
  */
-function finalists(w: Workspace, target: StageTarget, keep: number, earlier: SearchBound | undefined): { found: Kept[]; trial: (floor: number) => number } {
+function finalists(w: Workspace, target: StageTarget, keep: number, earlier: SearchBound | undefined): { found: Kept[]; trial: (floor: number, seen?: SeenTrial) => number } {
   const found: Kept[] = [];
   const f0Hz = w.f0Hz;
   // A set whose bound reaches the `depth`-th best cost the earlier searches returned, and lies more
@@ -158,21 +158,44 @@ function finalists(w: Workspace, target: StageTarget, keep: number, earlier: Sea
   const costs = earlier?.costs ?? [];
   const rankBound = earlier !== undefined && earlier.depth > 0 && costs.length >= earlier.depth ? (costs[earlier.depth - 1] as number) : Infinity;
   const nearBound = rankBound < Infinity ? (costs[0] as number) + (earlier as SearchBound).near : Infinity;
-  /** Cost the values in the workspace (NaN or Infinity when unusable or refused) and keep them when they rank among the best `keep`. */
-  const trial = (floor: number): number => {
+  /**
+   * Cost the values in the workspace (NaN or Infinity when unusable or refused) and keep them when they rank among the best `keep`.
+   * With `seen`, the values' f0 bound, figures and cost are read from it where an earlier trial of the same values stored them (and stored there when formed).
+   */
+  const trial = (floor: number, seen?: SeenTrial): number => {
     if (f0Hz !== undefined && (found.length >= keep || rankBound < Infinity)) {
-      const e = rel(f0Hz(), target.f0Hz);
-      const b = e + 0.1 * e;
+      let b: number;
+      if (seen !== undefined && seen.bounded) b = seen.bound;
+      else {
+        const e = rel(f0Hz(), target.f0Hz);
+        b = e + 0.1 * e;
+        if (seen !== undefined) {
+          seen.bound = b;
+          seen.bounded = true;
+        }
+      }
       if (b >= rankBound && b > nearBound && b >= floor) return Infinity;
       if (found.length >= keep && b >= (found[found.length - 1] as Kept).cost) return Infinity;
     }
-    let fig: StageFigures;
-    try {
-      fig = w.figures();
-    } catch {
-      return NaN;
+    let fig: StageFigures | null;
+    let cost: number;
+    if (seen !== undefined && seen.costed) {
+      fig = seen.figures;
+      cost = seen.cost;
+    } else {
+      try {
+        fig = w.figures();
+      } catch {
+        fig = null;
+      }
+      cost = fig === null ? NaN : figuresCost(fig, target);
+      if (seen !== undefined) {
+        seen.figures = fig;
+        seen.cost = cost;
+        seen.costed = true;
+      }
     }
-    const cost = figuresCost(fig, target);
+    if (fig === null) return NaN;
     if (!(cost < (found.length < keep ? Infinity : (found[found.length - 1] as Kept).cost))) return cost;
     const vs: Kept = { x: w.x.slice(), figures: fig, cost };
     let i = found.length;
@@ -182,6 +205,21 @@ function finalists(w: Workspace, target: StageTarget, keep: number, earlier: Sea
     return cost;
   };
   return { found, trial };
+}
+
+/**
+ * What a trial of one set of values found, for a later trial of the same
+ * values (see {@link finalists}): its f0 bound and its figures and cost, each
+ * once formed. Both are pure functions of the values.
+ */
+interface SeenTrial {
+  /** Whether {@link SeenTrial.bound} holds the values' f0 bound. */
+  bounded: boolean;
+  bound: number;
+  /** Whether {@link SeenTrial.cost} holds the values' cost (and `figures` their figures; null when they threw). */
+  costed: boolean;
+  figures: StageFigures | null;
+  cost: number;
 }
 
 /**
@@ -279,6 +317,28 @@ export function searchResistors(
   const log = new Float64Array(size);
   // the ordinal of the last pair that changed a value in the previous sweep (none before the first)
   let lastChange = Infinity;
+  // Trials that move one resistor (the pair's other at its current value) recur in every pair holding
+  // that resistor: what the first found is kept per (resistor, option) until a value changes (`epoch`).
+  const first: number[] = [];
+  let options1 = 0;
+  for (const o of options) {
+    first.push(options1);
+    options1 += o.length;
+  }
+  const seen: SeenTrial[] = Array.from({ length: options1 }, () => ({ bounded: false, bound: 0, costed: false, figures: null, cost: 0 }));
+  const seenAt = new Int32Array(options1).fill(-1);
+  let epoch = 0;
+  const moved = (i: number, a: number): SeenTrial => {
+    const j = (first[i] as number) + a;
+    const e = seen[j] as SeenTrial;
+    if (seenAt[j] !== epoch) {
+      seenAt[j] = epoch;
+      e.bounded = false;
+      e.costed = false;
+      e.figures = null;
+    }
+    return e;
+  };
   for (let sweep = 0; sweep < 4; sweep++) {
     let improved = false;
     let changedAt = -1;
@@ -298,13 +358,14 @@ export function searchResistors(
           for (let b = 0; b < ok.length; b++) {
             if (a === idx[i] && b === idx[k]) continue;
             x[sk] = ok[b] as number;
+            const one = a === idx[i] ? moved(k, b) : b === idx[k] ? moved(i, a) : undefined;
             let cost: number;
             if (replay) {
               const was = log[at] as number;
               const worst = found.length < keep ? Infinity : (found[found.length - 1] as Kept).cost;
-              cost = was < worst ? trial(cur) : was;
+              cost = was < worst ? trial(cur, one) : was;
             } else {
-              cost = trial(cur);
+              cost = trial(cur, one);
               log[at] = cost;
             }
             at++;
@@ -316,7 +377,10 @@ export function searchResistors(
             }
           }
         }
-        if (bestI !== idx[i] || bestK !== idx[k]) changedAt = pair;
+        if (bestI !== idx[i] || bestK !== idx[k]) {
+          changedAt = pair;
+          epoch++;
+        }
         idx[i] = bestI;
         idx[k] = bestK;
         x[si] = oi[bestI] as number;
