@@ -82,8 +82,8 @@ function workspace(t: Topology, exact: ComponentValues): Workspace {
 /** A set the search keeps for now: its values in workspace order, figures and cost (made a {@link ValueSet} only when returned). */
 interface Kept {
   readonly x: Float64Array;
-  readonly figures: StageFigures;
-  readonly cost: number;
+  figures: StageFigures;
+  cost: number;
 }
 
 /** The kept sets as value sets: values as records keyed like the exact design, errors against the target. */
@@ -197,11 +197,17 @@ function finalists(w: Workspace, target: StageTarget, keep: number, earlier: Sea
     }
     if (fig === null) return NaN;
     if (!(cost < (found.length < keep ? Infinity : (found[found.length - 1] as Kept).cost))) return cost;
-    const vs: Kept = { x: w.x.slice(), figures: fig, cost };
+    // a full list drops its worst (dearer than this set) first, and its array takes this set's values
+    let vs: Kept;
+    if (found.length >= keep && found.length > 0) {
+      vs = found.pop() as Kept;
+      vs.x.set(w.x);
+      vs.figures = fig;
+      vs.cost = cost;
+    } else vs = { x: w.x.slice(), figures: fig, cost };
     let i = found.length;
     while (i > 0 && (found[i - 1] as Kept).cost > cost) i--;
     found.splice(i, 0, vs);
-    if (found.length > keep) found.pop();
     return cost;
   };
   return { found, trial };
@@ -221,6 +227,19 @@ interface SeenTrial {
   figures: StageFigures | null;
   cost: number;
 }
+
+/**
+ * Scratch of the pairwise descent, kept between searches so that each does
+ * not allocate its own (searches never nest): the trial log (every entry
+ * read is written earlier in the same search: the first sweep writes them
+ * all) and the single-move trials (an entry is read only when tagged with
+ * the current epoch, which no earlier search used). Neither carries
+ * anything from one search to the next.
+ */
+let logScratch = new Float64Array(0);
+const seenPool: SeenTrial[] = [];
+let seenAtPool = new Float64Array(0);
+let seenEpoch = 0;
 
 /**
  * Jointly search preferred resistor values around an exact design: every
@@ -314,7 +333,8 @@ export function searchResistors(
   if (!Number.isFinite(cur)) cur = Infinity;
   let size = 0;
   for (let i = 0; i < idx.length; i++) for (let k = i + 1; k < idx.length; k++) size += (options[i] as number[]).length * (options[k] as number[]).length - 1;
-  const log = new Float64Array(size);
+  if (logScratch.length < size) logScratch = new Float64Array(size);
+  const log = logScratch;
   // the ordinal of the last pair that changed a value in the previous sweep (none before the first)
   let lastChange = Infinity;
   // Trials that move one resistor (the pair's other at its current value) recur in every pair holding
@@ -325,9 +345,11 @@ export function searchResistors(
     first.push(options1);
     options1 += o.length;
   }
-  const seen: SeenTrial[] = Array.from({ length: options1 }, () => ({ bounded: false, bound: 0, costed: false, figures: null, cost: 0 }));
-  const seenAt = new Int32Array(options1).fill(-1);
-  let epoch = 0;
+  while (seenPool.length < options1) seenPool.push({ bounded: false, bound: 0, costed: false, figures: null, cost: 0 });
+  if (seenAtPool.length < options1) seenAtPool = new Float64Array(options1);
+  const seen = seenPool;
+  const seenAt = seenAtPool;
+  let epoch = ++seenEpoch;
   const moved = (i: number, a: number): SeenTrial => {
     const j = (first[i] as number) + a;
     const e = seen[j] as SeenTrial;
@@ -379,7 +401,7 @@ export function searchResistors(
         }
         if (bestI !== idx[i] || bestK !== idx[k]) {
           changedAt = pair;
-          epoch++;
+          epoch = ++seenEpoch;
         }
         idx[i] = bestI;
         idx[k] = bestK;
