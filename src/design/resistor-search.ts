@@ -8,6 +8,7 @@
  * @module
  */
 import { isInSeries, nextInSeries, snapToSeries } from "../parts/index.ts";
+import { membersAround } from "../parts/snap.ts";
 import { topologyCore } from "../topologies/define.ts";
 import type { ComponentValues, StageFigures, StageTarget, Topology } from "../topologies/types.ts";
 import type { DesignSpec } from "./spec.ts";
@@ -30,6 +31,11 @@ import { figuresCost, figuresOf, isRes, rel, stageErrors, type ValueSet } from "
  * @internal
  */
 export function neighbours(x: number, series: DesignSpec["resistorSeries"], spread: number): number[] {
+  // the same values from the series positions directly (parts/snap.ts), else the checked calls below
+  if (spread >= 1) {
+    const fast = membersAround(x, series, spread);
+    if (fast !== null) return fast;
+  }
   const down1 = isInSeries(x, series) ? x : snapToSeries(x, { series, mode: "down" }).value;
   const up1 = isInSeries(x, series) ? x : snapToSeries(x, { series, mode: "up" }).value;
   const set = new Set<number>([down1, up1]);
