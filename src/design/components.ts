@@ -38,6 +38,7 @@
  * @module
  */
 import { isInSeries, seriesValuesInRange, snapToSeries } from "../parts/index.ts";
+import { nearestMember } from "../parts/snap.ts";
 import type { OpAmpModel } from "../circuit/types.ts";
 import { stagePole } from "../topologies/as-built.ts";
 import { topologyCore } from "../topologies/define.ts";
@@ -84,7 +85,7 @@ function tryDesign(
     const out: Record<string, number> = { ...v };
     for (const [k, x] of Object.entries(v)) {
       if (!isCap(k)) continue;
-      const snapped = snapToSeries(x, { series, mode: "nearest" }).value;
+      const snapped = nearestMember(x, series) ?? snapToSeries(x, { series, mode: "nearest" }).value;
       if (Math.abs(snapped / x - 1) < 1e-6) out[k] = snapped;
     }
     return out;

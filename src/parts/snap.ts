@@ -311,6 +311,21 @@ export function nextInSeries(value: number, options: NextOptions): number {
 }
 
 /**
+ * `snapToSeries(x, { series, mode: "nearest" }).value` without the checks and
+ * the result record (the same core, so the same member), for the design
+ * loop's many snaps. Internal.
+ *
+ * @param x - a part value
+ * @param series - the series (a valid name)
+ * @returns the nearest member, or null when `x` lies outside [PART_VALUE_MIN, PART_VALUE_MAX] (the checked call then decides)
+ * @internal
+ */
+export function nearestMember(x: number, series: SeriesName): number | null {
+  if (!(x >= PART_VALUE_MIN && x <= PART_VALUE_MAX)) return null;
+  return snapOne(seriesTable("snapToSeries", "options.series", series), x, "nearest");
+}
+
+/**
  * The members around `x` that the value search tries (design/resistor-search.ts
  * `neighbours`), without the checked calls' validation: the member `x` is, or
  * the two that bracket it, and `spread - 1` more on each side, ascending. Each

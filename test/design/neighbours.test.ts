@@ -2,6 +2,7 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { neighbours } from "../../src/design/resistor-search.ts";
 import { isInSeries, nextInSeries, snapToSeries, type SeriesName } from "../../src/parts/index.ts";
+import { nearestMember } from "../../src/parts/snap.ts";
 
 /** The search's neighbours from the checked calls, one by one (what `neighbours` returned before it read the series positions directly). */
 function byCheckedCalls(x: number, series: SeriesName, spread: number): number[] {
@@ -43,5 +44,21 @@ describe("neighbours (the value search's preferred values around a part)", () =>
   it("throw as the checked calls do for a value no part can have", () => {
     expect(() => neighbours(-1, "E12", 2)).toThrow(/snapToSeries/);
     expect(() => byCheckedCalls(-1, "E12", 2)).toThrow(/snapToSeries/);
+  });
+});
+
+describe("nearestMember (the design loop's unchecked nearest snap)", () => {
+  it("is snapToSeries' nearest member, bit for bit, and null outside the part range", () => {
+    fc.assert(
+      fc.property(fc.constantFrom(...SERIES), fc.double({ min: -29, max: 29, noNaN: true }), (series, e) => {
+        const x = 10 ** e;
+        expect(nearestMember(x, series)).toBe(snapToSeries(x, { series, mode: "nearest" }).value);
+      }),
+      { numRuns: 3000 },
+    );
+    for (const series of SERIES) for (let k = -12; k <= 8; k++) for (const x of [10 ** k, 10 ** k * (1 - 1e-15), 1.2 * 10 ** k * (1 + 1e-15)]) expect(nearestMember(x, series)).toBe(snapToSeries(x, { series, mode: "nearest" }).value);
+    expect(nearestMember(1e-31, "E12")).toBeNull();
+    expect(nearestMember(2e30, "E12")).toBeNull();
+    expect(nearestMember(NaN, "E12")).toBeNull();
   });
 });
