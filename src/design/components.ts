@@ -38,6 +38,7 @@
  * @module
  */
 import { isInSeries, seriesValuesInRange, snapToSeries } from "../parts/index.ts";
+import { nearestMember } from "../parts/snap.ts";
 import type { OpAmpModel } from "../circuit/types.ts";
 import { stagePole } from "../topologies/as-built.ts";
 import { topologyCore } from "../topologies/define.ts";
@@ -84,7 +85,7 @@ function tryDesign(
     const out: Record<string, number> = { ...v };
     for (const [k, x] of Object.entries(v)) {
       if (!isCap(k)) continue;
-      const snapped = snapToSeries(x, { series, mode: "nearest" }).value;
+      const snapped = nearestMember(x, series) ?? snapToSeries(x, { series, mode: "nearest" }).value;
       if (Math.abs(snapped / x - 1) < 1e-6) out[k] = snapped;
     }
     return out;
@@ -239,6 +240,33 @@ export type LevelFit = "inside" | "within-limits" | "none";
  */
 export function levelFit(t: Topology, target: StageTarget, spec: DesignSpec): LevelFit {
   const limits = partLimits(spec);
+  const cache = levelFits;
+  if (cache === null) return levelFitUncached(t, target, spec, limits);
+  const key = `${t.id} ${JSON.stringify([target, spec.capacitorRange, spec.resistorRange, limits], finiteKey)}`;
+  const hit = cache.get(key);
+  if (hit !== undefined && hit.topology === t) return hit.fit;
+  if (cache.size >= LEVEL_FIT_CACHE_SIZE) cache.clear();
+  const fit = levelFitUncached(t, target, spec, limits);
+  cache.set(key, { topology: t, fit });
+  return fit;
+}
+
+/**
+ * The fits found during one design (see {@link withTunedStages}): the stage
+ * planner asks again for the same topology and target as each attempt and
+ * yield candidate plans its cascade (about half the calls on the corpus),
+ * and the fit is a pure function of the key. At most this many, then
+ * cleared; null outside a design.
+ */
+const LEVEL_FIT_CACHE_SIZE = 1024;
+let levelFits: Map<string, { readonly topology: Topology; readonly fit: LevelFit }> | null = null;
+
+/** JSON of a cache key with non-finite numbers spelt out (JSON writes them as null). */
+function finiteKey(_k: string, v: unknown): unknown {
+  return typeof v === "number" && !Number.isFinite(v) ? String(v) : v;
+}
+
+function levelFitUncached(t: Topology, target: StageTarget, spec: DesignSpec, limits: PartLimits): LevelFit {
   let fit: LevelFit = "none";
   const lo = Math.floor(Math.log10(spec.capacitorRange.min));
   const hi = Math.ceil(Math.log10(spec.capacitorRange.max));
@@ -397,7 +425,7 @@ const TUNE_CACHE_SIZE = 256;
 let tunedStages: Map<string, { readonly topology: Topology; readonly tuned: TunedStage | null }> | null = null;
 
 /**
- * Run `f` (one design) with a fresh cache of tuned stages, dropped when it
+ * Run `f` (one design) with a fresh cache of tuned stages and level fits, dropped when it
  * returns or throws.
  *
  * @param f - the design
@@ -406,11 +434,14 @@ let tunedStages: Map<string, { readonly topology: Topology; readonly tuned: Tune
  */
 export function withTunedStages<T>(f: () => T): T {
   const outer = tunedStages;
+  const outerFits = levelFits;
   tunedStages = new Map();
+  levelFits = new Map();
   try {
     return f();
   } finally {
     tunedStages = outer;
+    levelFits = outerFits;
   }
 }
 

@@ -8,6 +8,7 @@
  * @module
  */
 import { isInSeries, nextInSeries, snapToSeries } from "../parts/index.ts";
+import { membersAround } from "../parts/snap.ts";
 import { topologyCore } from "../topologies/define.ts";
 import type { ComponentValues, StageFigures, StageTarget, Topology } from "../topologies/types.ts";
 import type { DesignSpec } from "./spec.ts";
@@ -30,6 +31,11 @@ import { figuresCost, figuresOf, isRes, rel, stageErrors, type ValueSet } from "
  * @internal
  */
 export function neighbours(x: number, series: DesignSpec["resistorSeries"], spread: number): number[] {
+  // the same values from the series positions directly (parts/snap.ts), else the checked calls below
+  if (spread >= 1) {
+    const fast = membersAround(x, series, spread);
+    if (fast !== null) return fast;
+  }
   const down1 = isInSeries(x, series) ? x : snapToSeries(x, { series, mode: "down" }).value;
   const up1 = isInSeries(x, series) ? x : snapToSeries(x, { series, mode: "up" }).value;
   const set = new Set<number>([down1, up1]);
@@ -82,8 +88,8 @@ function workspace(t: Topology, exact: ComponentValues): Workspace {
 /** A set the search keeps for now: its values in workspace order, figures and cost (made a {@link ValueSet} only when returned). */
 interface Kept {
   readonly x: Float64Array;
-  readonly figures: StageFigures;
-  readonly cost: number;
+  figures: StageFigures;
+  cost: number;
 }
 
 /** The kept sets as value sets: values as records keyed like the exact design, errors against the target. */
@@ -150,7 +156,7 @@ export function addToBound(bound: SearchBound, sets: readonly ValueSet[]): void 
  * least `floor`, so the descent takes the path it would have taken, and the
  * set could not rank where the caller looks (see {@link SearchBound}).
  */
-function finalists(w: Workspace, target: StageTarget, keep: number, earlier: SearchBound | undefined): { found: Kept[]; trial: (floor: number) => number } {
+function finalists(w: Workspace, target: StageTarget, keep: number, earlier: SearchBound | undefined): { found: Kept[]; trial: (floor: number, seen?: SeenTrial) => number } {
   const found: Kept[] = [];
   const f0Hz = w.f0Hz;
   // A set whose bound reaches the `depth`-th best cost the earlier searches returned, and lies more
@@ -158,31 +164,88 @@ function finalists(w: Workspace, target: StageTarget, keep: number, earlier: Sea
   const costs = earlier?.costs ?? [];
   const rankBound = earlier !== undefined && earlier.depth > 0 && costs.length >= earlier.depth ? (costs[earlier.depth - 1] as number) : Infinity;
   const nearBound = rankBound < Infinity ? (costs[0] as number) + (earlier as SearchBound).near : Infinity;
-  /** Cost the values in the workspace (NaN or Infinity when unusable or refused) and keep them when they rank among the best `keep`. */
-  const trial = (floor: number): number => {
+  /**
+   * Cost the values in the workspace (NaN or Infinity when unusable or refused) and keep them when they rank among the best `keep`.
+   * With `seen`, the values' f0 bound, figures and cost are read from it where an earlier trial of the same values stored them (and stored there when formed).
+   */
+  const trial = (floor: number, seen?: SeenTrial): number => {
     if (f0Hz !== undefined && (found.length >= keep || rankBound < Infinity)) {
-      const e = rel(f0Hz(), target.f0Hz);
-      const b = e + 0.1 * e;
+      let b: number;
+      if (seen !== undefined && seen.bounded) b = seen.bound;
+      else {
+        const e = rel(f0Hz(), target.f0Hz);
+        b = e + 0.1 * e;
+        if (seen !== undefined) {
+          seen.bound = b;
+          seen.bounded = true;
+        }
+      }
       if (b >= rankBound && b > nearBound && b >= floor) return Infinity;
       if (found.length >= keep && b >= (found[found.length - 1] as Kept).cost) return Infinity;
     }
-    let fig: StageFigures;
-    try {
-      fig = w.figures();
-    } catch {
-      return NaN;
+    let fig: StageFigures | null;
+    let cost: number;
+    if (seen !== undefined && seen.costed) {
+      fig = seen.figures;
+      cost = seen.cost;
+    } else {
+      try {
+        fig = w.figures();
+      } catch {
+        fig = null;
+      }
+      cost = fig === null ? NaN : figuresCost(fig, target);
+      if (seen !== undefined) {
+        seen.figures = fig;
+        seen.cost = cost;
+        seen.costed = true;
+      }
     }
-    const cost = figuresCost(fig, target);
+    if (fig === null) return NaN;
     if (!(cost < (found.length < keep ? Infinity : (found[found.length - 1] as Kept).cost))) return cost;
-    const vs: Kept = { x: w.x.slice(), figures: fig, cost };
+    // a full list drops its worst (dearer than this set) first, and its array takes this set's values
+    let vs: Kept;
+    if (found.length >= keep && found.length > 0) {
+      vs = found.pop() as Kept;
+      vs.x.set(w.x);
+      vs.figures = fig;
+      vs.cost = cost;
+    } else vs = { x: w.x.slice(), figures: fig, cost };
     let i = found.length;
     while (i > 0 && (found[i - 1] as Kept).cost > cost) i--;
     found.splice(i, 0, vs);
-    if (found.length > keep) found.pop();
     return cost;
   };
   return { found, trial };
 }
+
+/**
+ * What a trial of one set of values found, for a later trial of the same
+ * values (see {@link finalists}): its f0 bound and its figures and cost, each
+ * once formed. Both are pure functions of the values.
+ */
+interface SeenTrial {
+  /** Whether {@link SeenTrial.bound} holds the values' f0 bound. */
+  bounded: boolean;
+  bound: number;
+  /** Whether {@link SeenTrial.cost} holds the values' cost (and `figures` their figures; null when they threw). */
+  costed: boolean;
+  figures: StageFigures | null;
+  cost: number;
+}
+
+/**
+ * Scratch of the pairwise descent, kept between searches so that each does
+ * not allocate its own (searches never nest): the trial log (every entry
+ * read is written earlier in the same search: the first sweep writes them
+ * all) and the single-move trials (an entry is read only when tagged with
+ * the current epoch, which no earlier search used). Neither carries
+ * anything from one search to the next.
+ */
+let logScratch = new Float64Array(0);
+const seenPool: SeenTrial[] = [];
+let seenAtPool = new Float64Array(0);
+let seenEpoch = 0;
 
 /**
  * Jointly search preferred resistor values around an exact design: every
@@ -276,9 +339,34 @@ export function searchResistors(
   if (!Number.isFinite(cur)) cur = Infinity;
   let size = 0;
   for (let i = 0; i < idx.length; i++) for (let k = i + 1; k < idx.length; k++) size += (options[i] as number[]).length * (options[k] as number[]).length - 1;
-  const log = new Float64Array(size);
+  if (logScratch.length < size) logScratch = new Float64Array(size);
+  const log = logScratch;
   // the ordinal of the last pair that changed a value in the previous sweep (none before the first)
   let lastChange = Infinity;
+  // Trials that move one resistor (the pair's other at its current value) recur in every pair holding
+  // that resistor: what the first found is kept per (resistor, option) until a value changes (`epoch`).
+  const first: number[] = [];
+  let options1 = 0;
+  for (const o of options) {
+    first.push(options1);
+    options1 += o.length;
+  }
+  while (seenPool.length < options1) seenPool.push({ bounded: false, bound: 0, costed: false, figures: null, cost: 0 });
+  if (seenAtPool.length < options1) seenAtPool = new Float64Array(options1);
+  const seen = seenPool;
+  const seenAt = seenAtPool;
+  let epoch = ++seenEpoch;
+  const moved = (i: number, a: number): SeenTrial => {
+    const j = (first[i] as number) + a;
+    const e = seen[j] as SeenTrial;
+    if (seenAt[j] !== epoch) {
+      seenAt[j] = epoch;
+      e.bounded = false;
+      e.costed = false;
+      e.figures = null;
+    }
+    return e;
+  };
   for (let sweep = 0; sweep < 4; sweep++) {
     let improved = false;
     let changedAt = -1;
@@ -298,13 +386,14 @@ export function searchResistors(
           for (let b = 0; b < ok.length; b++) {
             if (a === idx[i] && b === idx[k]) continue;
             x[sk] = ok[b] as number;
+            const one = a === idx[i] ? moved(k, b) : b === idx[k] ? moved(i, a) : undefined;
             let cost: number;
             if (replay) {
               const was = log[at] as number;
               const worst = found.length < keep ? Infinity : (found[found.length - 1] as Kept).cost;
-              cost = was < worst ? trial(cur) : was;
+              cost = was < worst ? trial(cur, one) : was;
             } else {
-              cost = trial(cur);
+              cost = trial(cur, one);
               log[at] = cost;
             }
             at++;
@@ -316,7 +405,10 @@ export function searchResistors(
             }
           }
         }
-        if (bestI !== idx[i] || bestK !== idx[k]) changedAt = pair;
+        if (bestI !== idx[i] || bestK !== idx[k]) {
+          changedAt = pair;
+          epoch = ++seenEpoch;
+        }
         idx[i] = bestI;
         idx[k] = bestK;
         x[si] = oi[bestI] as number;

@@ -206,8 +206,101 @@ export function cascadeMagnitudeSquared(
   out: Float64Array = new Float64Array(w.length),
 ): Float64Array {
   out.fill(1);
-  for (const s of stages) multiplyMagnitudeSquared(s.num, s.den, s.scale, w, out);
+  let i = 0;
+  for (; i + 1 < stages.length; i += 2) multiplyTwoMagnitudesSquared(stages[i] as ScaledRational, stages[i + 1] as ScaledRational, w, out);
+  if (i < stages.length) {
+    const s = stages[i] as ScaledRational;
+    multiplyMagnitudeSquared(s.num, s.den, s.scale, w, out);
+  }
   return out;
+}
+
+/** Scratch for two stages' even and odd parts (grown when a stage needs more). */
+let pairParts = new Float64Array(32);
+
+/**
+ * {@link multiplyMagnitudeSquared} of stage `a`, then of stage `b`, in one
+ * pass over the grid where both take the same unrolled loop (biquads, or
+ * both of degree six and below): each point's product is formed exactly as
+ * the two passes form it (the same operations in the same order, the
+ * intermediate a double either way), so the same bits; only the store and
+ * reload of the running product between the passes is saved. Other pairs
+ * (a biquad beside a higher stage, or a stage above degree six) take the
+ * two passes.
+ */
+function multiplyTwoMagnitudesSquared(a: ScaledRational, b: ScaledRational, w: Float64Array, out: Float64Array): void {
+  const size = Math.max(a.num.length, a.den.length, b.num.length, b.den.length, 4);
+  if (pairParts.length < 8 * size) pairParts = new Float64Array(8 * size);
+  const q = pairParts;
+  q.fill(0, 0, 8 * size);
+  // layout as in multiplyMagnitudeSquared, stage a's four parts then stage b's
+  const an = splitEvenOdd(a.num, q, 0, size);
+  const ad = splitEvenOdd(a.den, q, 2 * size, 3 * size);
+  const o = 4 * size;
+  const bn = splitEvenOdd(b.num, q, o, o + size);
+  const bd = splitEvenOdd(b.den, q, o + 2 * size, o + 3 * size);
+  const ia = 1 / a.scale;
+  const ib = 1 / b.scale;
+  const n = w.length;
+  const aLow = an <= 2 && ad <= 2;
+  const bLow = bn <= 2 && bd <= 2;
+  if (aLow && bLow) {
+    const [ane0, ane1, ano0] = [q[0] as number, q[1] as number, q[size] as number];
+    const [ade0, ade1, ado0] = [q[2 * size] as number, q[2 * size + 1] as number, q[3 * size] as number];
+    const [bne0, bne1, bno0] = [q[o] as number, q[o + 1] as number, q[o + size] as number];
+    const [bde0, bde1, bdo0] = [q[o + 2 * size] as number, q[o + 2 * size + 1] as number, q[o + 3 * size] as number];
+    for (let k = 0; k < n; k++) {
+      const wk = w[k] as number;
+      const x = wk * ia;
+      const y = x * x;
+      const nr = ane0 - ane1 * y;
+      const ni = ano0 * x;
+      const dr = ade0 - ade1 * y;
+      const di = ado0 * x;
+      const u = ((out[k] as number) * (nr * nr + ni * ni)) / (dr * dr + di * di);
+      const x2 = wk * ib;
+      const y2 = x2 * x2;
+      const nr2 = bne0 - bne1 * y2;
+      const ni2 = bno0 * x2;
+      const dr2 = bde0 - bde1 * y2;
+      const di2 = bdo0 * x2;
+      out[k] = (u * (nr2 * nr2 + ni2 * ni2)) / (dr2 * dr2 + di2 * di2);
+    }
+    return;
+  }
+  // (a biquad beside a higher stage takes the two passes: its own loop is not this one's arithmetic)
+  if (!aLow && !bLow && an <= 6 && ad <= 6 && bn <= 6 && bd <= 6) {
+    const [ane0, ane1, ane2, ane3] = [q[0] as number, q[1] as number, q[2] as number, q[3] as number];
+    const [ano0, ano1, ano2] = [q[size] as number, q[size + 1] as number, q[size + 2] as number];
+    const e = 2 * size;
+    const [ade0, ade1, ade2, ade3] = [q[e] as number, q[e + 1] as number, q[e + 2] as number, q[e + 3] as number];
+    const [ado0, ado1, ado2] = [q[e + size] as number, q[e + size + 1] as number, q[e + size + 2] as number];
+    const [bne0, bne1, bne2, bne3] = [q[o] as number, q[o + 1] as number, q[o + 2] as number, q[o + 3] as number];
+    const [bno0, bno1, bno2] = [q[o + size] as number, q[o + size + 1] as number, q[o + size + 2] as number];
+    const f = o + 2 * size;
+    const [bde0, bde1, bde2, bde3] = [q[f] as number, q[f + 1] as number, q[f + 2] as number, q[f + 3] as number];
+    const [bdo0, bdo1, bdo2] = [q[f + size] as number, q[f + size + 1] as number, q[f + size + 2] as number];
+    for (let k = 0; k < n; k++) {
+      const wk = w[k] as number;
+      const x = wk * ia;
+      const t = -x * x;
+      const nr = ((ane3 * t + ane2) * t + ane1) * t + ane0;
+      const ni = ((ano2 * t + ano1) * t + ano0) * x;
+      const dr = ((ade3 * t + ade2) * t + ade1) * t + ade0;
+      const di = ((ado2 * t + ado1) * t + ado0) * x;
+      const u = ((out[k] as number) * (nr * nr + ni * ni)) / (dr * dr + di * di);
+      const x2 = wk * ib;
+      const t2 = -x2 * x2;
+      const nr2 = ((bne3 * t2 + bne2) * t2 + bne1) * t2 + bne0;
+      const ni2 = ((bno2 * t2 + bno1) * t2 + bno0) * x2;
+      const dr2 = ((bde3 * t2 + bde2) * t2 + bde1) * t2 + bde0;
+      const di2 = ((bdo2 * t2 + bdo1) * t2 + bdo0) * x2;
+      out[k] = (u * (nr2 * nr2 + ni2 * ni2)) / (dr2 * dr2 + di2 * di2);
+    }
+    return;
+  }
+  multiplyMagnitudeSquared(a.num, a.den, a.scale, w, out);
+  multiplyMagnitudeSquared(b.num, b.den, b.scale, w, out);
 }
 
 /**

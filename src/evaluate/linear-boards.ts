@@ -87,12 +87,16 @@ export function linearLevels(model: LinearModel, tolerances: Float64Array, draws
   return out;
 }
 
-/** Scratch of {@link boardLevels}: the scaled deviations and the levels of two boards. */
+/** Scratch of {@link boardLevels} and {@link fourBoardLevels}: the scaled deviations and the levels of up to four boards. */
 export interface LevelScratch {
   readonly delta0: Float64Array;
   readonly delta1: Float64Array;
+  readonly delta2: Float64Array;
+  readonly delta3: Float64Array;
   readonly level0: Float64Array;
   readonly level1: Float64Array;
+  readonly level2: Float64Array;
+  readonly level3: Float64Array;
 }
 
 /**
@@ -103,7 +107,9 @@ export interface LevelScratch {
  * @returns fresh scratch
  */
 export function levelScratch(parts: number, points: number): LevelScratch {
-  return { delta0: new Float64Array(parts), delta1: new Float64Array(parts), level0: new Float64Array(points), level1: new Float64Array(points) };
+  const d = (): Float64Array => new Float64Array(parts);
+  const l = (): Float64Array => new Float64Array(points);
+  return { delta0: d(), delta1: d(), delta2: d(), delta3: d(), level0: l(), level1: l(), level2: l(), level3: l() };
 }
 
 /**
@@ -146,5 +152,49 @@ export function boardLevels(model: LinearModel, tolerances: Float64Array, draws:
     }
     level0[i] = x0;
     level1[i] = x1;
+  }
+}
+
+/**
+ * The linearised levels of boards `k` to `k + 3` into `scratch.level0` to
+ * `level3`: each level the sum {@link linearLevels} forms, term by term in
+ * the same order (so the same bits), the four boards sharing each gradient
+ * entry's load.
+ *
+ * @param model - the linear model
+ * @param tolerances - per part (fractions)
+ * @param draws - unit deviations, board-major (at least `k + 4` boards)
+ * @param k - the first board
+ * @param scratch - written
+ */
+export function fourBoardLevels(model: LinearModel, tolerances: Float64Array, draws: Float64Array, k: number, scratch: LevelScratch): void {
+  const p = model.parts.length;
+  const n = model.levelDb.length;
+  const g = model.gradient;
+  const { delta0, delta1, delta2, delta3, level0, level1, level2, level3 } = scratch;
+  for (let j = 0; j < p; j++) {
+    const t = tolerances[j] as number;
+    delta0[j] = t * (draws[k * p + j] as number);
+    delta1[j] = t * (draws[(k + 1) * p + j] as number);
+    delta2[j] = t * (draws[(k + 2) * p + j] as number);
+    delta3[j] = t * (draws[(k + 3) * p + j] as number);
+  }
+  for (let i = 0; i < n; i++) {
+    let x0 = model.levelDb[i] as number;
+    let x1 = x0;
+    let x2 = x0;
+    let x3 = x0;
+    const row = i * p;
+    for (let j = 0; j < p; j++) {
+      const gij = g[row + j] as number;
+      x0 += gij * (delta0[j] as number);
+      x1 += gij * (delta1[j] as number);
+      x2 += gij * (delta2[j] as number);
+      x3 += gij * (delta3[j] as number);
+    }
+    level0[i] = x0;
+    level1[i] = x1;
+    level2[i] = x2;
+    level3[i] = x3;
   }
 }

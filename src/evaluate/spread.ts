@@ -45,7 +45,7 @@ import { TWO_PI } from "../units/constants.ts";
 import type { BoardStage, PartDistribution } from "./boards.ts";
 import { multiplyMagnitudeSquared } from "./cascade.ts";
 import { localExtremes, rationalSource, refineExtreme, type MaskLimits, type MaskPlan, type ResponseSource } from "./mask.ts";
-import { boardLevels, levelScratch, sharedDeviations } from "./linear-boards.ts";
+import { boardLevels, fourBoardLevels, levelScratch, sharedDeviations } from "./linear-boards.ts";
 import { boardPolynomialsInto, genericStagePolynomialsInto } from "./stage-polynomials.ts";
 import type { ScaledRational } from "./types.ts";
 
@@ -490,10 +490,26 @@ export function predictYield(
   const n = model.levelDb.length;
   const targetDb = 20 * Math.log10(plan.limits.gain);
   const marginDb = new Float64Array(samples);
-  // each board's levels as linearLevels computes them (the same sums in the same order), two boards at a time, checked at once
+  // each board's levels as linearLevels computes them (the same sums in the same order), four boards at a time (the last one or two by two), checked at once
   const scratch = levelScratch(p, n);
   let passed = 0;
-  for (let k = 0; k < samples; k += 2) {
+  let k = 0;
+  for (; k + 4 <= samples; k += 4) {
+    fourBoardLevels(model, tolerances, draws, k, scratch);
+    const m0 = pointMargin(scratch.level0, 0, model.band, plan.limits, targetDb);
+    const m1 = pointMargin(scratch.level1, 0, model.band, plan.limits, targetDb);
+    const m2 = pointMargin(scratch.level2, 0, model.band, plan.limits, targetDb);
+    const m3 = pointMargin(scratch.level3, 0, model.band, plan.limits, targetDb);
+    marginDb[k] = m0;
+    marginDb[k + 1] = m1;
+    marginDb[k + 2] = m2;
+    marginDb[k + 3] = m3;
+    if (m0 >= 0) passed++;
+    if (m1 >= 0) passed++;
+    if (m2 >= 0) passed++;
+    if (m3 >= 0) passed++;
+  }
+  for (; k < samples; k += 2) {
     const two = k + 1 < samples;
     boardLevels(model, tolerances, draws, k, two, scratch);
     const m = pointMargin(scratch.level0, 0, model.band, plan.limits, targetDb);

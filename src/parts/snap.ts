@@ -310,6 +310,54 @@ export function nextInSeries(value: number, options: NextOptions): number {
   return v < x ? v : valueAt(t, stepDown(t, p));
 }
 
+/**
+ * `snapToSeries(x, { series, mode: "nearest" }).value` without the checks and
+ * the result record (the same core, so the same member), for the design
+ * loop's many snaps. Internal.
+ *
+ * @param x - a part value
+ * @param series - the series (a valid name)
+ * @returns the nearest member, or null when `x` lies outside [PART_VALUE_MIN, PART_VALUE_MAX] (the checked call then decides)
+ * @internal
+ */
+export function nearestMember(x: number, series: SeriesName): number | null {
+  if (!(x >= PART_VALUE_MIN && x <= PART_VALUE_MAX)) return null;
+  return snapOne(seriesTable("snapToSeries", "options.series", series), x, "nearest");
+}
+
+/**
+ * The members around `x` that the value search tries (design/resistor-search.ts
+ * `neighbours`), without the checked calls' validation: the member `x` is, or
+ * the two that bracket it, and `spread - 1` more on each side, ascending. Each
+ * value is the one {@link snapToSeries} and repeated {@link nextInSeries} give
+ * (the same positions, the same correctly rounded member values). Internal.
+ *
+ * @param x - a part value
+ * @param series - the series (a valid name)
+ * @param spread - members on each side, at least 1
+ * @returns the members, or null when `x` or any member reached lies outside [PART_VALUE_MIN, PART_VALUE_MAX] (the checked calls then decide)
+ * @internal
+ */
+export function membersAround(x: number, series: SeriesName, spread: number): number[] | null {
+  if (!(x >= PART_VALUE_MIN && x <= PART_VALUE_MAX)) return null;
+  const t = seriesTable("isInSeries", "series", series);
+  const p = floorPos(t, x);
+  const v = valueAt(t, p);
+  const below: number[] = [v];
+  const above: number[] = v === x ? [] : [valueAt(t, stepUp(t, p))];
+  let d = p;
+  let u = v === x ? p : stepUp(t, p);
+  for (let i = 1; i < spread; i++) {
+    d = stepDown(t, d);
+    u = stepUp(t, u);
+    below.push(valueAt(t, d));
+    above.push(valueAt(t, u));
+  }
+  const out = below.reverse().concat(above);
+  for (const m of out) if (!(m >= PART_VALUE_MIN && m <= PART_VALUE_MAX)) return null;
+  return out;
+}
+
 /** Inclusive bounds for {@link seriesValuesInRange}. */
 export interface ValueRange {
   /** Lower bound (inclusive), > 0. */

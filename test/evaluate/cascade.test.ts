@@ -1,8 +1,9 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { cascadeMagnitudeSquared, cascadeResponse, splitEvenOdd } from "../../src/evaluate/cascade.ts";
+import { cascadeMagnitudeSquared, cascadeResponse, multiplyMagnitudeSquared, splitEvenOdd } from "../../src/evaluate/cascade.ts";
 import type { ScaledRational } from "../../src/evaluate/types.ts";
 import { logGrid } from "../../src/tf/grid.ts";
+import { expectSameBits } from "../helpers/same-bits.ts";
 
 /** Product of real polynomials (descending coefficients). */
 function times(a: readonly number[], b: readonly number[]): number[] {
@@ -73,5 +74,29 @@ describe("cascadeMagnitudeSquared (even and odd parts on the jw axis)", () => {
       { numRuns: 300 },
     );
     expect(worst).toBeLessThan(1e-10);
+  });
+
+  it("gives the bits of one pass per stage (stages taken two at a time where both take the same unrolled loop: biquads, degree six and below, mixed, and above)", () => {
+    const w = logGrid(2 * Math.PI * 1, 2 * Math.PI * 1e6, 997);
+    fc.assert(
+      fc.property(
+        fc.array(
+          fc.record({
+            pairs: fc.array(fc.tuple(fc.double({ min: 0.05, max: 20, noNaN: true }), fc.double({ min: 0.3, max: 1000, noNaN: true })), { minLength: 1, maxLength: 3 }),
+            reals: fc.array(fc.double({ min: 5, max: 3000, noNaN: true }), { maxLength: 3 }),
+            kind: fc.nat(3),
+            k: fc.double({ min: 0.1, max: 10, noNaN: true }),
+          }),
+          { minLength: 1, maxLength: 5 },
+        ),
+        (specs) => {
+          const stages = specs.map((s) => stage(s.pairs, s.reals, s.kind, s.k));
+          const passes = new Float64Array(w.length).fill(1);
+          for (const s of stages) multiplyMagnitudeSquared(s.num, s.den, s.scale, w, passes);
+          expectSameBits(cascadeMagnitudeSquared(stages, w), passes);
+        },
+      ),
+      { numRuns: 200 },
+    );
   });
 });
