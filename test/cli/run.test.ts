@@ -141,6 +141,25 @@ describe("runCli", () => {
     expect(runCli([...LP, "--swing", "-3"], fakeIo())).toBe(2);
   });
 
+  it("counts the op-amp's noise densities in the dynamic range when --opamp-en / --opamp-in give them", () => {
+    const range = (args: string[]): number => {
+      const io = fakeIo();
+      expect(runCli([...LP, "--input-peak", "1", ...args], io)).toBe(0);
+      const m = io.out.match(/dynamic range ([\d.]+) dB \(.*, (resistors only|resistors and op-amps)\)/);
+      expect(m).not.toBeNull();
+      expect(m![2]).toBe(args.length === 0 ? "resistors only" : "resistors and op-amps");
+      return Number(m![1]);
+    };
+    const resistors = range([]);
+    const en = range(["--opamp-en", "8n"]);
+    const both = range(["--opamp-en", "8n", "--opamp-in", "1p"]);
+    expect(en).toBeLessThan(resistors);
+    expect(both).toBeLessThan(en);
+    const bad = fakeIo();
+    expect(runCli([...LP, "--opamp-en", "-3"], bad)).toBe(2);
+    expect(bad.err).toMatch(/--opamp-en/);
+  });
+
   it("exits 1 when the boards miss the yield target, and names it in the summary line", () => {
     const io = fakeIo();
     expect(runCli([...LP, "--cap-tol", "10%", "--res-tol", "5%", "--order", "3", "--quiet"], io)).toBe(1);
