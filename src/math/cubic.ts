@@ -76,23 +76,7 @@ export function cubicRealRoots(c3: number, c2: number, c1: number, c0: number): 
  * ```
  */
 export function nearestRealRoot(c3: number, c2: number, c1: number, c0: number, near: number): number {
-  const a = c2 / c3;
-  const b = c1 / c3;
-  const c = c0 / c3;
-  const q = (a * a - 3 * b) / 9;
-  const r = (2 * a * a * a - 9 * a * b + 27 * c) / 54;
-  let root: number;
-  if (q > 0 && r * r < q * q * q) {
-    const theta = Math.acos(Math.max(-1, Math.min(1, r / Math.sqrt(q * q * q))));
-    const m = -2 * Math.sqrt(q);
-    root = m * Math.cos(theta / 3) - a / 3;
-    for (const t of [theta + TWO_PI, theta - TWO_PI]) {
-      const u = m * Math.cos(t / 3) - a / 3;
-      if (Math.abs(u - near) < Math.abs(root - near)) root = u;
-    }
-  } else {
-    const big = -Math.sign(r) * Math.cbrt(Math.abs(r) + Math.sqrt(r * r - q * q * q));
-    root = big + (big === 0 ? 0 : q / big) - a / 3;
-  }
-  return polish(root, a, b, c);
+  let best = NaN;
+  for (const r of cubicRealRoots(c3, c2, c1, c0)) if (!(Math.abs(r - near) >= Math.abs(best - near))) best = r;
+  return best;
 }

@@ -223,16 +223,16 @@ function wanted(t: StageTarget): [number, number, number] {
 function lowResistors(a: readonly [number, number, number], c: number): [number, number, number] | null {
   const [a1, a2, a3] = a;
   const pmax = a1 / (1 + c);
-  const f = (p: number): number => {
+  // R1 = p: R2 + R3 and R2 R3 from the first and third equations, R3 from the second
+  const parts = (p: number): [number, number, number, number] => {
     const sum = (a1 - p * (1 + c)) / c;
     const prod = a3 / (c * p);
     const r3 = (a2 - c * p * sum - c * prod) / (c * p);
-    return (sum - r3) * r3 - prod;
+    return [p, sum - r3, r3, prod];
   };
-  const parts = (p: number): [number, number, number] => {
-    const sum = (a1 - p * (1 + c)) / c;
-    const r3 = (a2 - c * p * sum - (c * a3) / (c * p)) / (c * p);
-    return [p, sum - r3, r3];
+  const f = (p: number): number => {
+    const [, r2, r3, prod] = parts(p);
+    return r2 * r3 - prod;
   };
   let best: [number, number, number] | null = null;
   let bestSpread = Infinity;
@@ -252,8 +252,9 @@ function lowResistors(a: readonly [number, number, number], c: number): [number,
         if ((f(mid) < 0) === loNeg) lo = mid;
         else hi = mid;
       }
-      const r = parts(0.5 * (lo + hi));
-      if (r[1] > 0 && r[2] > 0 && Number.isFinite(r[1]) && Number.isFinite(r[2])) {
+      const [r1, r2, r3] = parts(0.5 * (lo + hi));
+      const r: [number, number, number] = [r1, r2, r3];
+      if (r2 > 0 && r3 > 0 && Number.isFinite(r2) && Number.isFinite(r3)) {
         const spread = Math.max(...r) / Math.min(...r);
         if (spread < bestSpread) {
           bestSpread = spread;
